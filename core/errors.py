@@ -1,0 +1,89 @@
+"""Errors raised by the core.
+
+Every error derives from :class:`TowboardError` and also from ``ValueError`` (or
+``TypeError``), and keeps the fields that say exactly what is wrong, so the window
+and the command line can show it without a traceback.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass
+
+
+class TowboardError(Exception):
+    """Base of every error the core raises on purpose."""
+
+
+class InputError(TowboardError, ValueError):
+    """A value the user gave is impossible (negative speed, NaN, unknown name...).
+
+    Parameters
+    ----------
+    field:
+        Which input is wrong, as the user would name it (``"wind speed"``,
+        ``"tugs[2].bollard_pull"``).
+    value:
+        The offending value.
+    reason:
+        Why it is wrong, in words.
+    """
+
+    def __init__(self, field: str, value: object, reason: str) -> None:
+        self.field = field
+        self.value = value
+        self.reason = reason
+        super().__init__(f"{field}: {value!r} {reason}")
+
+
+class OutlineError(TowboardError, ValueError):
+    """A hull or site outline that cannot be a body's plan view.
+
+    ``vertex`` is the 0-based index of the first offending vertex where one is to
+    blame; ``segments`` names the pair of crossing edges (each edge ``i`` runs from
+    vertex ``i`` to vertex ``i + 1``).
+    """
+
+    def __init__(
+        self,
+        message: str,
+        *,
+        outline: str = "outline",
+        vertex: int | None = None,
+        segments: tuple[int, int] | None = None,
+    ) -> None:
+        self.outline = outline
+        self.vertex = vertex
+        self.segments = segments
+        super().__init__(f"{outline}: {message}")
+
+
+@dataclass(frozen=True, slots=True)
+class Problem:
+    """One thing wrong in a project file: where (a field path) and why."""
+
+    path: str
+    reason: str
+
+    def __str__(self) -> str:
+        return f"{self.path}: {self.reason}" if self.path else self.reason
+
+
+class ProjectFileError(TowboardError, ValueError):
+    """A ``.towboard`` file that cannot be loaded; lists every problem found."""
+
+    def __init__(self, source: str, problems: Sequence[Problem]) -> None:
+        self.source = source
+        self.problems = tuple(problems)
+        first = str(self.problems[0]) if self.problems else "unreadable"
+        more = len(self.problems) - 1
+        tail = f" (and {more} more problem{'s' if more > 1 else ''})" if more > 0 else ""
+        super().__init__(f"{source}: {first}{tail}")
+
+    def details(self) -> str:
+        """Every problem, one a line."""
+        return "\n".join(str(p) for p in self.problems)
+
+
+class FormatVersionError(ProjectFileError):
+    """The file was written by a newer Towboard than this one."""

@@ -1,0 +1,236 @@
+"""Plan-view outlines: validation and the parametric shapes.
+
+An outline is a closed polygon in the hull frame (x forward, y to port), given as
+its vertices without repeating the first. Validation returns the vertices
+counter-clockwise; clockwise input is reversed, never refused.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Iterable, Sequence
+
+import numpy as np
+
+from core.errors import InputError, OutlineError
+
+Vertex = tuple[float, float]
+Outline = tuple[Vertex, ...]
+
+
+def signed_area(vertices: np.ndarray) -> float:
+    """Shoelace area of a closed polygon, positive when counter-clockwise. vertices: (n, 2)."""
+    x, y = vertices[:, 0], vertices[:, 1]
+    return 0.5 * float(np.dot(x, np.roll(y, -1)) - np.dot(np.roll(x, -1), y))
+
+
+def validate_outline(points: Iterable[Sequence[float]], name: str = "outline") -> Outline:
+    """Check an outline and return its vertices counter-clockwise.
+
+    Raises
+    ------
+    OutlineError
+        A vertex that is not a pair of finite numbers, fewer than three distinct
+        vertices, a self-crossing outline (naming the two edges), or zero area.
+    """
+    raw: list[Vertex] = []
+    for i, p in enumerate(points):
+        try:
+            x, y = (float(v) for v in p)
+        except (TypeError, ValueError):
+            raise OutlineError(
+                f"vertex {i} is not a pair of numbers: {p!r}", outline=name, vertex=i
+            ) from None
+        if not (math.isfinite(x) and math.isfinite(y)):
+            raise OutlineError(f"vertex {i} is not finite: ({x}, {y})", outline=name, vertex=i)
+        raw.append((x, y))
+    # Drop repeats of the previous vertex and a closing repeat of the first.
+    verts: list[Vertex] = []
+    for p in raw:
+        if not verts or p != verts[-1]:
+            verts.append(p)
+    if len(verts) > 1 and verts[0] == verts[-1]:
+        verts.pop()
+    if len(set(verts)) < 3:
+        raise OutlineError(
+            f"needs at least three distinct vertices, has {len(set(verts))}", outline=name
+        )
+    v = np.asarray(verts, dtype=float)
+    span = float(np.ptp(v, axis=0).max())
+    centred = v - v.mean(axis=0)
+    if np.linalg.svd(centred, compute_uv=False)[-1] <= 1e-9 * span * math.sqrt(len(v)):
+        raise OutlineError("has zero area (all vertices on one line)", outline=name)
+    crossing = first_crossing(v)
+    if crossing is not None:
+        i, j = crossing
+        n = len(v)
+        raise OutlineError(
+            f"crosses itself: edge {i} (vertex {i} to {(i + 1) % n}) meets "
+            f"edge {j} (vertex {j} to {(j + 1) % n})",
+            outline=name,
+            vertex=j,
+            segments=(i, j),
+        )
+    area = signed_area(v)
+    if abs(area) <= 1e-12 * span * span:
+        raise OutlineError("has zero area (all vertices on one line)", outline=name)
+    if area < 0:
+        verts.reverse()
+    return tuple((x + 0.0, y + 0.0) for x, y in verts)  # + 0.0 turns -0.0 into 0.0
+
+
+def first_crossing(v: np.ndarray) -> tuple[int, int] | None:
+    """The first pair of edges (i < j) of a closed polygon that touch where they should not.
+
+    Non-adjacent edges must not touch at all; adjacent edges must not fold back
+    onto each other. v: (n, 2) vertices; edge i runs from v[i] to v[i + 1].
+    """
+    n = len(v)
+    a, b = v, np.roll(v, -1, axis=0)  # (n, 2) edge starts and ends
+    d = b - a
+    scale = float(np.abs(v).max()) or 1.0
+    eps = 1e-12 * scale * scale
+
+    def orient(p: np.ndarray, q: np.ndarray, r: np.ndarray) -> np.ndarray:
+        val = (q[..., 0] - p[..., 0]) * (r[..., 1] - p[..., 1]) - (q[..., 1] - p[..., 1]) * (
+            r[..., 0] - p[..., 0]
+        )
+        return np.where(np.abs(val) <= eps, 0.0, np.sign(val))
+
+    def on_seg(p: np.ndarray, q: np.ndarray, r: np.ndarray) -> np.ndarray:
+        # r lies within the bounding box of p-q (used only when collinear)
+        return (
+            (np.minimum(p[..., 0], q[..., 0]) - 1e-12 * scale <= r[..., 0])
+            & (r[..., 0] <= np.maximum(p[..., 0], q[..., 0]) + 1e-12 * scale)
+            & (np.minimum(p[..., 1], q[..., 1]) - 1e-12 * scale <= r[..., 1])
+            & (r[..., 1] <= np.maximum(p[..., 1], q[..., 1]) + 1e-12 * scale)
+        )
+
+    i_idx, j_idx = np.triu_indices(n, k=1)
+    p1, p2, q1, q2 = a[i_idx], b[i_idx], a[j_idx], b[j_idx]
+    o1, o2 = orient(p1, p2, q1), orient(p1, p2, q2)
+    o3, o4 = orient(q1, q2, p1), orient(q1, q2, p2)
+    touch = ((o1 * o2 < 0) & (o3 * o4 < 0)) | (
+        ((o1 == 0) & on_seg(p1, p2, q1))
+        | ((o2 == 0) & on_seg(p1, p2, q2))
+        | ((o3 == 0) & on_seg(q1, q2, p1))
+        | ((o4 == 0) & on_seg(q1, q2, p2))
+    )
+    adjacent = (j_idx == i_idx + 1) | ((i_idx == 0) & (j_idx == n - 1))
+    # Adjacent edges share a vertex; they are wrong only when they fold back (collinear, opposite).
+    cross = d[i_idx, 0] * d[j_idx, 1] - d[i_idx, 1] * d[j_idx, 0]
+    dot = np.einsum("ij,ij->i", d[i_idx], d[j_idx])
+    fold = adjacent & (np.abs(cross) <= eps) & (dot < 0)
+    bad = np.where(adjacent, fold, touch)
+    hits = np.flatnonzero(bad)
+    if hits.size == 0:
+        return None
+    k = int(hits[0])
+    return int(i_idx[k]), int(j_idx[k])
+
+
+def _positive(name: str, value: float) -> float:
+    value = float(value)
+    if not math.isfinite(value) or value <= 0:
+        raise InputError(name, value, "must be a positive finite number")
+    return value
+
+
+def box_outline(length_m: float, beam_m: float) -> Outline:
+    """A box barge: rectangle from the aft end (x = 0) to the bow, centred on the centreline."""
+    length_m, beam_m = _positive("length", length_m), _positive("beam", beam_m)
+    h = beam_m / 2
+    return ((0.0, -h), (length_m, -h), (length_m, h), (0.0, h))
+
+
+def raked_outline(
+    length_m: float,
+    beam_m: float,
+    bow_rake_m: float = 0.0,
+    stern_rake_m: float = 0.0,
+    end_beam_fraction: float = 0.7,
+) -> Outline:
+    """A barge whose raked ends narrow in plan over the rake lengths.
+
+    The parallel body keeps the full beam; over ``bow_rake_m`` (and ``stern_rake_m``)
+    the sides run straight in to an end of ``end_beam_fraction`` of the beam.
+    A rake length of zero gives a square end.
+    """
+    length_m, beam_m = _positive("length", length_m), _positive("beam", beam_m)
+    bow_rake_m, stern_rake_m = float(bow_rake_m), float(stern_rake_m)
+    for field, value in (("bow rake", bow_rake_m), ("stern rake", stern_rake_m)):
+        if not math.isfinite(value) or value < 0:
+            raise InputError(field, value, "must be zero or a positive length")
+    if bow_rake_m + stern_rake_m >= length_m:
+        raise InputError(
+            "bow rake + stern rake",
+            bow_rake_m + stern_rake_m,
+            f"must be less than the length {length_m}",
+        )
+    if not 0 < end_beam_fraction <= 1:
+        raise InputError("end beam fraction", end_beam_fraction, "must be above 0 and at most 1")
+    h, e = beam_m / 2, beam_m / 2 * end_beam_fraction
+    pts: list[Vertex] = []
+    pts += [(0.0, -e), (stern_rake_m, -h)] if stern_rake_m > 0 else [(0.0, -h)]
+    pts += [(length_m - bow_rake_m, -h), (length_m, -e)] if bow_rake_m > 0 else [(length_m, -h)]
+    pts += [(length_m, e), (length_m - bow_rake_m, h)] if bow_rake_m > 0 else [(length_m, h)]
+    pts += [(stern_rake_m, h), (0.0, e)] if stern_rake_m > 0 else [(0.0, h)]
+    return validate_outline(pts, "raked outline")
+
+
+#: Exponent of the half-breadth curve y = B/2 * (1 - xi^p)^q over the bow, xi = 0 at the
+#: shoulder and 1 at the stem; larger q is finer.
+BOW_SHAPES: dict[str, tuple[float, float]] = {
+    "fine": (2.0, 1.0),
+    "normal": (2.0, 0.7),
+    "full": (2.0, 0.5),
+}
+STERN_SHAPES = ("transom", "round")
+
+
+def ship_outline(
+    length_m: float,
+    beam_m: float,
+    parallel_length_m: float,
+    bow_shape: str = "normal",
+    stern_shape: str = "transom",
+    points_per_end: int = 16,
+) -> Outline:
+    """A ship-shaped outline: a parallel body at full beam, a bow and a stern.
+
+    Of the length outside the parallel body, 60 % is fore-body and 40 % after-body.
+    ``bow_shape`` is fine, normal or full; ``stern_shape`` is transom (a flat stern of
+    60 % of the beam) or round.
+    """
+    length_m, beam_m = _positive("length", length_m), _positive("beam", beam_m)
+    if not math.isfinite(parallel_length_m) or not 0 <= parallel_length_m < length_m:
+        raise InputError(
+            "parallel body length", parallel_length_m, f"must be from 0 to below {length_m}"
+        )
+    if bow_shape not in BOW_SHAPES:
+        raise InputError("bow shape", bow_shape, f"is not one of {', '.join(BOW_SHAPES)}")
+    if stern_shape not in STERN_SHAPES:
+        raise InputError("stern shape", stern_shape, f"is not one of {', '.join(STERN_SHAPES)}")
+    h = beam_m / 2
+    rest = length_m - parallel_length_m
+    x_aft_shoulder = 0.4 * rest
+    x_fwd_shoulder = x_aft_shoulder + parallel_length_m
+    fore = length_m - x_fwd_shoulder
+    p, q = BOW_SHAPES[bow_shape]
+    xi = np.linspace(0.0, 1.0, points_per_end + 1)
+    bow_y = h * (1.0 - xi**p) ** q
+    bow = [(x_fwd_shoulder + fore * t, float(yy)) for t, yy in zip(xi, bow_y, strict=True)]
+    # Stern from the aft shoulder (xi = 0) to x = 0 (xi = 1).
+    if stern_shape == "transom":
+        w = 0.6 * h
+        stern_y = w + (h - w) * (1.0 - xi**2)
+    else:
+        stern_y = h * np.sqrt(np.clip(1.0 - xi**2, 0.0, None))
+    stern = [(x_aft_shoulder * (1.0 - t), float(yy)) for t, yy in zip(xi, stern_y, strict=True)]
+    # Starboard side aft -> forward, stem, port side forward -> aft.
+    starboard = [(x, -y) for x, y in reversed(stern)] + [(x, -y) for x, y in bow]
+    port = [(x, y) for x, y in reversed(bow)] + list(stern)
+    pts = starboard[:-1] + port  # the stem point (y = 0) once
+    if stern_shape == "round":
+        pts = pts[:-1]  # the stern point (0, 0) is the first vertex already
+    return validate_outline(pts, "ship outline")

@@ -1,0 +1,100 @@
+"""The one unit registry, and conversion at the edges.
+
+The core computes in SI magnitudes. Units enter and leave only here: at file
+input/output, at GUI entry and in print. ``t`` on a bollard-pull rating means the
+tonne-force (9.80665 kN); pint's own ``t`` is the tonne of *mass* and its
+``ton_force`` the short ton-force, so the tonne-force is defined here explicitly
+and never printed as a bare "ton".
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+from typing import Literal
+
+import pint
+
+from core.errors import InputError
+
+ureg = pint.UnitRegistry()
+ureg.define("tonne_force = 9.80665 * kilonewton = tf")
+
+Quantity = Literal["force", "moment", "length", "speed"]
+
+#: Display symbol -> pint expression, per quantity, in the order offered to users.
+CHOICES: dict[Quantity, dict[str, str]] = {
+    "force": {"t": "tonne_force", "kN": "kilonewton", "kip": "kip", "lbf": "lbf"},
+    "moment": {"t*m": "tonne_force * meter", "kN*m": "kilonewton * meter", "kip*ft": "kip * foot"},
+    "length": {"m": "meter", "ft": "foot"},
+    "speed": {"kn": "knot", "m/s": "meter / second"},
+}
+_SI: dict[Quantity, str] = {
+    "force": "newton",
+    "moment": "newton * meter",
+    "length": "meter",
+    "speed": "meter / second",
+}
+
+#: SI magnitude of one display unit, e.g. FACTORS["force"]["t"] == 9806.65.
+FACTORS: dict[Quantity, dict[str, float]] = {
+    q: {sym: float(ureg.Quantity(1.0, expr).to(_SI[q]).magnitude) for sym, expr in units.items()}
+    for q, units in CHOICES.items()
+}
+
+#: Printed form of each display symbol (a real multiplication sign for moments).
+LABELS: dict[str, str] = {"t*m": "t·m", "kN*m": "kN·m", "kip*ft": "kip·ft"}
+
+
+def factor(quantity: Quantity, unit: str) -> float:
+    """SI magnitude of one ``unit`` of ``quantity``; raises InputError if unknown."""
+    try:
+        return FACTORS[quantity][unit]
+    except KeyError:
+        allowed = ", ".join(FACTORS.get(quantity, {}))
+        raise InputError(f"{quantity} unit", unit, f"is not one of {allowed}") from None
+
+
+def to_si(value: float, quantity: Quantity, unit: str) -> float:
+    """Convert ``value`` given in display ``unit`` to SI."""
+    return value * factor(quantity, unit)
+
+
+def from_si(value: float, quantity: Quantity, unit: str) -> float:
+    """Convert an SI ``value`` to display ``unit``."""
+    return value / factor(quantity, unit)
+
+
+def label(unit: str) -> str:
+    """How a unit symbol is printed."""
+    return LABELS.get(unit, unit)
+
+
+@dataclass(frozen=True, slots=True)
+class DisplayUnits:
+    """The user's choice of unit per quantity, kept in the project file."""
+
+    force: str = "t"
+    moment: str = "t*m"
+    length: str = "m"
+    speed: str = "kn"
+
+    def __post_init__(self) -> None:
+        for q in ("force", "moment", "length", "speed"):
+            factor(q, getattr(self, q))  # raises a clear InputError on an unknown unit
+
+    def unit(self, quantity: Quantity) -> str:
+        return str(getattr(self, quantity))
+
+    def with_unit(self, quantity: Quantity, unit: str) -> DisplayUnits:
+        return replace(self, **{quantity: unit})
+
+    def show(self, value_si: float, quantity: Quantity, digits: int = 1) -> str:
+        """``value_si`` in this display unit with its symbol, e.g. ``"45.0 t"``."""
+        u = self.unit(quantity)
+        return f"{from_si(value_si, quantity, u):.{digits}f} {label(u)}"
+
+    def value(self, value_si: float, quantity: Quantity) -> float:
+        return from_si(value_si, quantity, self.unit(quantity))
+
+    def si(self, value: float, quantity: Quantity) -> float:
+        return to_si(value, quantity, self.unit(quantity))
