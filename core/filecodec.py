@@ -580,6 +580,9 @@ def _decode_placement(r: _Reader, value: Any, path: str, ctx: _Context) -> Place
             ok = False
         else:
             kind = names[point]
+    # A setting is a share of the tug's usable pull: above 100 % cannot be asked of a tug, so a
+    # file that says so is refused (issue 2 names this very message). A substitute tug short of
+    # pull shows up as a shortfall of the stage's goal or a warning, not as a setting over 100 %.
     setting = r.number(d, "setting_percent", path, low=0.0, high=100.0, unit="%")
     if kind == "push":
         for key in ("lead_deg", "line_length_m"):

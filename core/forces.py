@@ -93,7 +93,8 @@ def equivalent(
     """Reduce forces (n, 2) at points (n, 2) to one force on one line, about ``ref``.
 
     The line of action is every r with (r - ref) x R = M_ref; its nearest point to
-    ``ref`` is ref + M (R_y, -R_x) / |R|^2. See :data:`NEGLIGIBLE` for couples and
+    ``ref`` is ref + M (R_y, -R_x) / |R|^2
+    (computed through the unit direction, so a tiny |R| cannot underflow). See :data:`NEGLIGIBLE` for couples and
     balanced systems; ``length_scale`` (m, the body's length) sets the moment scale.
     """
     net, m = resultant(points, forces, ref)
@@ -117,6 +118,7 @@ def equivalent_of(
     if r <= tol_f:
         kind: EquivalentKind = "balanced" if abs(moment) <= tol_m else "couple"
         return Equivalent(kind, (fx, fy), moment, ref, None, None, None)
-    k = moment / (r * r)
-    point = (ref[0] + k * fy, ref[1] - k * fx)
-    return Equivalent("force", (fx, fy), moment, ref, point, (fx / r, fy / r), moment / r)
+    ux, uy = fx / r, fy / r
+    offset = moment / r
+    point = (ref[0] + offset * uy, ref[1] - offset * ux)
+    return Equivalent("force", (fx, fy), moment, ref, point, (ux, uy), offset)

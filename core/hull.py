@@ -233,8 +233,23 @@ class Hull:
 
     # -- edits return new hulls -----------------------------------------------------
     def with_outline(self, outline: Outline) -> Hull:
-        """The same hull on a new outline; fittings move to the nearest point of it."""
-        return replace(self, outline=outline)
+        """The same hull on a new outline.
+
+        When the new outline has as many vertices as the old (a vertex dragged), each
+        fitting keeps its place along its edge, so it travels with the edge; otherwise it
+        moves to the nearest point of the new outline.
+        """
+        new = validate_outline(outline, f"hull {self.name} outline")
+        if len(new) != len(self.outline):
+            return replace(self, outline=new)
+        g, n = self.geometry, len(new)
+        moved = []
+        for f in self.fittings:
+            p = g.nearest(f.x, f.y)
+            t = (p.s - float(g._cum[p.edge])) / float(g._edge_len[p.edge])
+            (ax, ay), (bx, by) = new[p.edge], new[(p.edge + 1) % n]
+            moved.append(f.moved_to(ax + t * (bx - ax), ay + t * (by - ay)))
+        return replace(self, outline=new, fittings=tuple(moved))
 
     def with_fitting(self, fitting: Fitting) -> Hull:
         """Add a fitting, or replace the one of the same name."""

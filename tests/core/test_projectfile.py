@@ -1,0 +1,215 @@
+"""The .towboard file: round trips, every problem reported with its field path, atomic save."""
+
+from __future__ import annotations
+
+import copy
+import json
+import os
+import re
+from pathlib import Path
+from typing import Any
+
+import jsonschema
+import pytest
+
+from core import projectfile
+from core.errors import FormatVersionError, ProjectFileError
+from core.projectfile import backup_path, dumps, load, loads, save
+
+ROOT = Path(__file__).resolve().parents[2]
+SCHEMA = json.loads((ROOT / "docs" / "towboard.schema.json").read_text())
+SAMPLES = sorted((ROOT / "sample_projects").glob("*.towboard"))
+
+
+def _sample_data() -> dict[str, Any]:
+    return json.loads((ROOT / "sample_projects" / "deck_barge_unberth.towboard").read_text())
+
+
+def _problems(data: Any) -> list[str]:
+    with pytest.raises(ProjectFileError) as e:
+        loads(json.dumps(data), "plan.towboard")
+    return [str(p) for p in e.value.problems]
+
+
+def test_there_are_at_least_two_samples() -> None:
+    assert len(SAMPLES) >= 2
+
+
+@pytest.mark.parametrize("path", SAMPLES, ids=lambda p: p.name)
+def test_samples_load_match_the_schema_and_round_trip_byte_identical(
+    path: Path, tmp_path: Path
+) -> None:
+    text = path.read_text(encoding="utf-8")
+    jsonschema.validate(json.loads(text), SCHEMA)
+    project = loads(text, path.name)
+    assert dumps(project) == text
+    out = tmp_path / "copy.towboard"
+    save(project, out)
+    first = out.read_bytes()
+    save(load(out), out)
+    assert out.read_bytes() == first
+
+
+def test_saved_files_match_the_schema(tmp_path: Path) -> None:
+    for path in SAMPLES:
+        jsonschema.validate(json.loads(dumps(load(path))), SCHEMA)
+
+
+def test_setting_above_100_names_the_field_path() -> None:
+    data = _sample_data()
+    data["stages"][1]["tugs"][2]["setting_percent"] = 130
+    assert _problems(data) == ["stages[1].tugs[2].setting_percent: 130 % is above 100 %"]
+
+
+def test_every_problem_is_reported_not_just_the_first() -> None:
+    data = _sample_data()
+    data["tugs"][0]["bollard_pull_kN"] = -5
+    data["hulls"][0]["outline_m"][1] = ["x", 3]
+    data["stages"][0]["tugs"][1]["tug"] = "Nobody"
+    data["stages"][0]["conditions"]["wind_speed_kn"] = -3
+    problems = _problems(data)
+    assert "tugs[0].bollard_pull_kN: -5 kN must be above zero" in problems
+    assert "hulls[0].outline_m[1]: ['x', 3] is not a pair of numbers [x, y]" in problems
+    assert "stages[0].tugs[1].tug: 'Nobody' is not a tug of this plan" in problems
+    assert "stages[0].conditions.wind_speed_kn: -3 kn is below 0 kn" in problems
+
+
+def test_unknown_fields_are_reported_not_dropped() -> None:
+    data = _sample_data()
+    data["tugs"][1]["colour"] = "blue"
+    data["surprise"] = 1
+    problems = _problems(data)
+    assert "tugs[1].colour: is not a known field" in problems
+    assert "surprise: is not a known field" in problems
+
+
+def test_missing_required_field() -> None:
+    data = _sample_data()
+    del data["hulls"][0]["outline_m"]
+    assert "hulls[0].outline_m: is missing" in _problems(data)
+
+
+def test_self_crossing_outline_in_a_file_names_hull_and_edges() -> None:
+    data = _sample_data()
+    data["hulls"][0]["outline_m"] = [[0, 0], [10, 10], [10, 0], [0, 10]]
+    data["hulls"][0]["fittings"] = []
+    data["stages"] = []
+    (problem,) = _problems(data)
+    assert problem.startswith("hulls[0]: hull Kestrel 3 outline: crosses itself: edge 0")
+
+
+def test_fitting_far_off_the_outline_is_a_problem() -> None:
+    data = _sample_data()
+    data["hulls"][0]["fittings"][0]["position_m"] = [84.0, 30.0]
+    (problem,) = _problems(data)
+    assert re.fullmatch(
+        r"hulls\[0\]\.fittings\[0\]\.position_m: is \d+\.\d\d m off the hull outline", problem
+    )
+
+
+def test_placement_at_an_unknown_fitting_or_wrong_kind_of_lead() -> None:
+    data = _sample_data()
+    data["stages"][0]["tugs"][0]["point"] = "Funnel"
+    data["stages"][0]["tugs"][2]["lead_deg"] = 45
+    problems = _problems(data)
+    assert "stages[0].tugs[0].point: 'Funnel' is not a fitting of hull Kestrel 3" in problems
+    assert (
+        "stages[0].tugs[2].lead_deg: does not apply at push point Stbd shoulder pad; use push_angle_deg"
+        in problems
+    )
+
+
+def test_duplicate_names_are_problems() -> None:
+    data = _sample_data()
+    data["tugs"][1]["name"] = data["tugs"][0]["name"]
+    data["stages"] = []
+    assert _problems(data) == ["tug name: 'Gannet' is used twice"]
+
+
+def test_newer_format_version_is_refused_clearly() -> None:
+    data = _sample_data()
+    data["format_version"] = 7
+    with pytest.raises(
+        FormatVersionError, match="format_version: 7 is newer than this Towboard reads"
+    ):
+        loads(json.dumps(data), "new.towboard")
+
+
+@pytest.mark.parametrize(
+    ("text", "message"),
+    [
+        ("{ not json", "not valid JSON"),
+        ("[1, 2]", "must be an object, not list"),
+        (
+            '{"format": "towboard", "format_version": "one"}',
+            "format_version: 'one' is not a format version",
+        ),
+        ('{"format": "other", "format_version": 1}', "format: 'other' is not 'towboard'"),
+    ],
+)
+def test_malformed_files(text: str, message: str) -> None:
+    with pytest.raises(ProjectFileError, match=message):
+        loads(text, "bad.towboard")
+
+
+def test_unreadable_and_non_utf8_files(tmp_path: Path) -> None:
+    with pytest.raises(ProjectFileError, match="cannot be read"):
+        load(tmp_path / "absent.towboard")
+    bad = tmp_path / "latin.towboard"
+    bad.write_bytes(b"\xff\xfe{}")
+    with pytest.raises(ProjectFileError, match="is not UTF-8 text"):
+        load(bad)
+
+
+def test_save_keeps_the_previous_file_as_a_backup(tmp_path: Path) -> None:
+    path = tmp_path / "plan.towboard"
+    first = load(SAMPLES[0])
+    save(first, path)
+    old = path.read_bytes()
+    second = first.with_stages(first.stages[:1])
+    save(second, path)
+    assert backup_path(path).read_bytes() == old
+    assert load(path) == second
+    assert not [p for p in tmp_path.iterdir() if p.name.endswith(".tmp")]
+
+
+def test_a_failed_save_leaves_the_old_file_whole(
+    tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    path = tmp_path / "plan.towboard"
+    project = load(SAMPLES[0])
+    save(project, path)
+    before = path.read_bytes()
+
+    def broken_fsync(fd: int) -> None:
+        raise OSError(28, "No space left on device")
+
+    monkeypatch.setattr(projectfile.os, "fsync", broken_fsync)
+    with pytest.raises(ProjectFileError, match="cannot be written: No space left on device"):
+        save(project.with_stages(()), path)
+    assert path.read_bytes() == before
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["plan.towboard"]
+
+
+def test_round_trip_keeps_every_value() -> None:
+    for path in SAMPLES:
+        project = load(path)
+        assert loads(dumps(project)) == project
+
+
+def test_file_text_is_stable_through_unit_conversions() -> None:
+    # kN in the file, N in the core: twelve significant digits keep the text fixed.
+    data = _sample_data()
+    data["tugs"][0]["bollard_pull_kN"] = 539.3657
+    data["hulls"][0]["fittings"][0]["swl_kN"] = 1 / 3
+    text = dumps(loads(json.dumps(data)))
+    assert dumps(loads(text)) == text
+    assert json.loads(text)["tugs"][0]["bollard_pull_kN"] == 539.3657
+
+
+def test_loading_does_not_change_the_input(tmp_path: Path) -> None:
+    data = _sample_data()
+    keep = copy.deepcopy(data)
+    loads(json.dumps(data))
+    assert data == keep
+    assert os.path.exists(SAMPLES[0])
