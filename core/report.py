@@ -7,7 +7,7 @@ from typing import Any
 from core.balance import Balance, analyse
 from core.frames import turning_words, walking_words
 from core.plan import Project, Stage
-from core.units import DisplayUnits, label
+from core.units import DisplayUnits, fmt, label
 
 FRAME_NOTE = (
     "Hull frame: origin at the hull's reference point on the centreline, x forward, y to port. "
@@ -103,15 +103,16 @@ def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
     bearing = "" if b.net_bearing_deg is None else f" towards {b.net_bearing_deg:05.1f} relative"
     lines.append(
         f"  Net force       {u.show(eq.magnitude, 'force')}{bearing}"
-        f"  (ahead {u.value(eq.force[0], 'force'):+.1f} {label(f)}, to port {u.value(eq.force[1], 'force'):+.1f} {label(f)})"
+        f"  (ahead {fmt(u.value(eq.force[0], 'force'), signed=True)} {label(f)}, "
+        f"to port {fmt(u.value(eq.force[1], 'force'), signed=True)} {label(f)})"
         f"  {walking_words(*eq.force, tol_f)}"
     )
     lines.append(
-        f"  Yaw moment      {u.value(eq.moment, 'moment'):+.1f} {label(m)} about the centroid, "
+        f"  Yaw moment      {fmt(u.value(eq.moment, 'moment'), signed=True)} {label(m)} about the centroid, "
         f"{turning_words(eq.moment, tol_m)}"
     )
     lines.append(
-        f"                  {u.value(b.moment_cog_nm, 'moment'):+.1f} {label(m)} about the centre of gravity"
+        f"                  {fmt(u.value(b.moment_cog_nm, 'moment'), signed=True)} {label(m)} about the centre of gravity"
     )
     if eq.kind == "couple":
         lines.append("  Equivalent      a pure couple: no single force, no line of action")
@@ -134,7 +135,7 @@ def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
         lines.append(
             f"  {sh.tug:<14}{sh.point:<22}{sh.mode:<6}{sh.setting * 100:>7.0f}%"
             f"{u.value(sh.pull_n, 'force'):>8.1f} {label(f):<3}{sh.lead_bearing_deg:>8.0f} "
-            f"{u.value(sh.moment_centroid_nm, 'moment'):>9.1f} {label(m):<4}{sh.utilisation * 100:>5.0f}%"
+            f"{fmt(u.value(sh.moment_centroid_nm, 'moment')):>9} {label(m):<4}{sh.utilisation * 100:>5.0f}%"
         )
     for n in b.notices:
         lines.append(f"  WARNING: {n.message}")

@@ -64,6 +64,14 @@ def from_si(value: float, quantity: Quantity, unit: str) -> float:
     return value / factor(quantity, unit)
 
 
+def fmt(value: float, digits: int = 1, signed: bool = False) -> str:
+    """A number for people: fixed digits, and never "-0.0" for a value that rounds to zero."""
+    v = round(value, digits)
+    if v == 0:
+        v = 0.0
+    return f"{v:+.{digits}f}" if signed else f"{v:.{digits}f}"
+
+
 def label(unit: str) -> str:
     """How a unit symbol is printed."""
     return LABELS.get(unit, unit)
@@ -91,7 +99,7 @@ class DisplayUnits:
     def show(self, value_si: float, quantity: Quantity, digits: int = 1) -> str:
         """``value_si`` in this display unit with its symbol, e.g. ``"45.0 t"``."""
         u = self.unit(quantity)
-        return f"{from_si(value_si, quantity, u):.{digits}f} {label(u)}"
+        return f"{fmt(from_si(value_si, quantity, u), digits)} {label(u)}"
 
     def value(self, value_si: float, quantity: Quantity) -> float:
         return from_si(value_si, quantity, self.unit(quantity))

@@ -1,0 +1,114 @@
+"""The report's JSON for the samples, against the core and against hand calculations.
+
+The hand calculations read the sample file's own numbers and apply the statics of
+equivalent systems directly (R = sum F, M = sum r x F about the centroid), with the
+towline-angle rule horizontal = tension x cos(angle) (geometry, common practice).
+"""
+
+from __future__ import annotations
+
+import json
+import math
+from pathlib import Path
+
+import numpy as np
+import pytest
+import shapely
+
+from core.balance import analyse
+from core.projectfile import load
+from core.report import report_json, report_text
+
+ROOT = Path(__file__).resolve().parents[2]
+TF = 9806.65  # N per tonne-force (NIST SP 811)
+
+
+def test_pontoon_swing_is_a_pure_couple_by_hand() -> None:
+    """Alder 50 % of 40 t at the forward port bollard (60, 14) pulls to port; Damson 2/3 of
+    30 t at the aft starboard bollard (0, -14) pulls to starboard: 20 t each, 30 m either
+    side of the centroid (30, 0), so a couple of 2 x 20 t x 30 m = 1200 t*m, bow to port."""
+    project = load(ROOT / "sample_projects" / "pontoon_swing.towboard")
+    rep = report_json(project)
+    bal = rep["stages"][0]["balance"]
+    assert bal["equivalent"]["kind"] == "couple"
+    assert bal["yaw_moment_about_centroid_Nm"] == pytest.approx(1200 * TF, rel=1e-9)
+    assert bal["turning"] == "swings bow to port"
+    assert bal["equivalent"]["crosses_centreline_at_x_m"] is None
+    pulls = {t["tug"]: t["assigned_pull_N"] for t in bal["tugs"]}
+    assert pulls["Alder"] == pytest.approx(20 * TF)
+    assert pulls["Damson"] == pytest.approx(20 * TF)
+    assert rep["units"] == {"force": "N", "moment": "N*m", "length": "m", "angle": "deg"}
+    assert "x forward, y to port" in rep["frame"]
+
+
+def _hand_balance(data: dict, stage: int) -> tuple[np.ndarray, float, tuple[float, float]]:
+    hull = data["hulls"][0]
+    poly = shapely.Polygon(hull["outline_m"])
+    c = (poly.centroid.x, poly.centroid.y)
+    fittings = {f["name"]: f for f in hull["fittings"]}
+    tugs = {t["name"]: t for t in data["tugs"]}
+    net, moment = np.zeros(2), 0.0
+    for pl in data["stages"][stage]["tugs"]:
+        f = fittings[pl["point"]]
+        tug = tugs[pl["tug"]]
+        x, y = f["position_m"]
+        rated = (tug["astern_pull_kN"] if pl["astern"] else tug["bollard_pull_kN"]) * 1000
+        if f["kind"] == "push":
+            # square to the hull: the sample's pads are on the flat starboard side, inward is +y
+            assert y == pytest.approx(-12.0)
+            angle = math.radians(90 - pl["push_angle_deg"])
+            pull = pl["setting_percent"] / 100 * rated
+        else:
+            angle = -math.radians(pl["lead_deg"])  # relative bearing clockwise -> CCW angle
+            drop = abs(hull["freeboard_m"] - tug["towing_point_height_m"])
+            pull = (
+                pl["setting_percent"]
+                / 100
+                * rated
+                * math.cos(math.atan2(drop, pl["line_length_m"]))
+            )
+        force = pull * np.array([math.cos(angle), math.sin(angle)])
+        net += force
+        moment += (x - c[0]) * force[1] - (y - c[1]) * force[0]
+    return net, moment, c
+
+
+@pytest.mark.parametrize("stage", [0, 1])
+def test_deck_barge_report_matches_a_hand_calculation(stage: int) -> None:
+    path = ROOT / "sample_projects" / "deck_barge_unberth.towboard"
+    data = json.loads(path.read_text())
+    net, moment, c = _hand_balance(data, stage)
+    bal = report_json(load(path))["stages"][stage]["balance"]
+    assert bal["centroid_m"] == pytest.approx(list(c), rel=1e-9)
+    assert bal["net_force_N"]["ahead"] == pytest.approx(net[0], rel=1e-9, abs=1e-6)
+    assert bal["net_force_N"]["to_port"] == pytest.approx(net[1], rel=1e-9, abs=1e-6)
+    assert bal["yaw_moment_about_centroid_Nm"] == pytest.approx(moment, rel=1e-9)
+    # Where the line of action crosses the centreline: x with x * R_y = M about (0, 0).
+    m_origin = moment + c[0] * net[1] - c[1] * net[0]
+    assert bal["equivalent"]["crosses_centreline_at_x_m"] == pytest.approx(
+        m_origin / net[1], rel=1e-9
+    )
+    assert bal["equivalent"]["offset_from_centroid_m"] == pytest.approx(
+        moment / np.hypot(*net), rel=1e-9
+    )
+
+
+def test_report_json_numbers_are_the_cores() -> None:
+    for path in sorted((ROOT / "sample_projects").glob("*.towboard")):
+        project = load(path)
+        rep = report_json(project)
+        for s, out in zip(project.stages, rep["stages"], strict=True):
+            b = analyse(project, s)
+            assert out["balance"]["yaw_moment_about_centroid_Nm"] == b.moment_centroid_nm
+            assert [t["assigned_pull_N"] for t in out["balance"]["tugs"]] == [
+                sh.pull_n for sh in b.shares
+            ]
+        json.dumps(rep, allow_nan=False)  # strict JSON: no NaN or infinity
+
+
+def test_report_text_speaks_the_display_units_and_the_turning_sense() -> None:
+    text = report_text(load(ROOT / "sample_projects" / "pontoon_swing.towboard"))
+    assert "kN·m about the centroid, swings bow to port" in text
+    assert "a pure couple: no single force, no line of action" in text
+    assert "Planning aid only" in text
+    assert "-0.0" not in text
