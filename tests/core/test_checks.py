@@ -1,0 +1,109 @@
+"""Re-checking every stage: a substitute tug that makes a stage fail is flagged in that stage."""
+
+from __future__ import annotations
+
+from dataclasses import replace
+
+import pytest
+
+from core.checks import check_plan, check_stage, substitute_tug
+from core.errors import InputError
+from core.goals import Goal
+from core.plan import Site, Stage, StageLimits
+from core.site import quay
+from core.tugs import Tug
+from tests.core.plan_builders import TF, line, two_tug_plan
+
+KNOT = 1852 / 3600  # m/s (NIST SP 811, from memory)
+
+
+def test_the_plan_as_built_passes():
+    checks = check_plan(two_tug_plan())
+    assert [c.name for c in checks] == ["Walk off", "Swing", "Transit"]
+    assert not any(c.fails for c in checks)
+
+
+def test_substitute_with_less_pull_keeping_the_pulls_fails_only_the_stage_that_needs_more():
+    p = two_tug_plan()
+    # Gannet (50 t) pulls 80 % = 40 t in "Walk off", 30 % = 15 t in "Swing", 40 % = 20 t in "Transit".
+    sub = substitute_tug(p, "Gannet", Tug("Skua", 30 * TF, 28 * TF, "ASD"))
+    assert [c.name for c in sub.now_failing] == ["Walk off"]
+    walk = sub.after[0]
+    (f,) = walk.failures
+    assert f.code == "pull_short" and f.subject == "Skua"
+    assert f.message == (
+        "Skua: this stage needs 40.0 t where Gannet worked; Skua gives at most 30.0 t "
+        "(short by 10.0 t)"
+    )
+    # the same pulls are kept where the substitute can give them: 15 t of 30 t is 50 %,
+    # 20 t of 30 t is 67 %; where it cannot, it works at 100 %
+    assert sub.project.stages[1].placement("Skua").setting == pytest.approx(0.5)
+    assert sub.project.stages[2].placement("Skua").setting == pytest.approx(20 / 30)
+    assert sub.project.stages[0].placement("Skua").setting == pytest.approx(1.0)
+    skua = next(sh for sh in walk.balances[0].shares if sh.tug == "Skua")
+    assert skua.pull_n == pytest.approx(30 * TF)
+    assert sub.project.tugs[0].name == "Skua"
+    assert "Gannet" not in {pl.tug for s in sub.project.stages for pl in s.placements}
+
+
+def test_a_stronger_substitute_fails_nothing():
+    sub = substitute_tug(two_tug_plan(), "Puffin", Tug("Puffin", 60 * TF))
+    assert sub.now_failing == () and sub.failing == ()
+
+
+def hold_plan():
+    """Gannet pulls ahead from the bow and Puffin astern from the stern, 20 t each, on the
+    centreline: net force and yaw moment are zero, so the goal 'hold' is met."""
+    p = two_tug_plan()
+    hold = Stage(
+        "Hold in the fairway",
+        "transit",
+        placements=(
+            line("Gannet", "Barge", "bow", 0.4, 0.0),  # 0.4 x 50 t = 20 t ahead
+            line("Puffin", "Barge", "stern", 0.5, 180.0),  # 0.5 x 40 t = 20 t astern
+        ),
+        goal=Goal("hold"),
+    )
+    return replace(p, stages=(*p.stages, hold))
+
+
+def test_goal_met_then_missed_when_a_substitute_keeps_the_setting():
+    p = hold_plan()
+    assert not check_stage(p, 3).fails
+    sub = substitute_tug(p, "Puffin", Tug("Tern", 30 * TF, 30 * TF), keep="settings")
+    assert [c.name for c in sub.now_failing] == ["Hold in the fairway"]
+    (f,) = sub.after[3].failures
+    assert f.code == "goal_not_met"
+    # 20 t ahead less 0.5 x 30 t = 15 t astern leaves 5 t ahead
+    assert "force 5.0 t left over (moves ahead)" in f.message
+
+
+def test_stage_warnings_do_not_fail_it():
+    p = two_tug_plan()
+    s = replace(
+        p.stages[2],
+        conditions=replace(p.stages[2].conditions, wind_speed_ms=25 * KNOT),
+        limits=StageLimits(max_wind_ms=20 * KNOT),
+    )
+    p = replace(p.with_stage(s, 2), site=Site("", (quay("Q", (-15, 40), (-15, 200)),)))
+    c = check_stage(p, 2)
+    assert not c.fails
+    codes = sorted(n.code for n in c.warnings)
+    assert codes == ["conditions_over_limit", "low_clearance"]
+    assert any(
+        "planned wind 25.0 kn is above the stage's limit 20.0 kn" in n.message for n in c.warnings
+    )
+
+
+def test_over_swl_fails_the_stage():
+    p = two_tug_plan()
+    hull = p.hulls[0]
+    bow = replace(hull.fitting("port bow"), swl_n=30 * TF)
+    p = p.with_hull(hull.with_fitting(bow))
+    c = check_stage(p, 0)  # Gannet pulls 40 t on the 30 t port bow bitt
+    assert [n.code for n in c.failures] == ["over_swl"]
+
+
+def test_bad_keep_is_refused():
+    with pytest.raises(InputError, match="must be 'pulls' or 'settings'"):
+        substitute_tug(two_tug_plan(), "Gannet", Tug("X", 1e5), keep="both")
