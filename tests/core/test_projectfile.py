@@ -213,3 +213,13 @@ def test_loading_does_not_change_the_input(tmp_path: Path) -> None:
     loads(json.dumps(data))
     assert data == keep
     assert os.path.exists(SAMPLES[0])
+
+
+def test_the_documented_example_loads_and_matches_the_schema() -> None:
+    text = (ROOT / "docs" / "file-format.md").read_text()
+    example = text.split("```json", 1)[1].split("```", 1)[0]
+    data = json.loads(example)
+    jsonschema.validate(data, SCHEMA)
+    project = loads(example, "file-format.md")
+    assert project.tugs[0].bollard_pull_n == pytest.approx(45 * 9806.65)
+    jsonschema.validate(json.loads(dumps(project)), SCHEMA)
