@@ -18,6 +18,10 @@ from core.hull import Fitting, Hull
 from core.plan import Project
 
 
+def _pair(a: np.ndarray) -> tuple[float, float]:
+    return (float(a[0]), float(a[1]))
+
+
 def rotate(v: tuple[float, float], angle_rad: float) -> tuple[float, float]:
     c, s = math.cos(angle_rad), math.sin(angle_rad)
     return (c * v[0] - s * v[1], s * v[0] + c * v[1])
@@ -63,18 +67,16 @@ class Body:
         self.polygon = polys[0] if len(polys) == 1 else shapely.union_all(polys)
         areas = np.array([m.hull.geometry.area for m in members])
         cents = np.array([m.to_body(m.hull.centroid) for m in members])  # (k, 2)
-        self.centroid = tuple(float(c) for c in (areas[:, None] * cents).sum(0) / areas.sum())
+        self.centroid = _pair((areas[:, None] * cents).sum(0) / areas.sum())
         masses = [m.hull.displacement_kg for m in members]
         cogs = np.array([m.to_body(m.hull.centre_of_gravity) for m in members])
         if len(members) == 1:
-            self.centre_of_gravity = tuple(float(c) for c in cogs[0])
+            self.centre_of_gravity = _pair(cogs[0])
         elif all(w is not None for w in masses):
             w = np.array(masses, dtype=float)
-            self.centre_of_gravity = tuple(float(c) for c in (w[:, None] * cogs).sum(0) / w.sum())
+            self.centre_of_gravity = _pair((w[:, None] * cogs).sum(0) / w.sum())
         else:  # no displacements to weight by: area stands in for mass
-            self.centre_of_gravity = tuple(
-                float(c) for c in (areas[:, None] * cogs).sum(0) / areas.sum()
-            )
+            self.centre_of_gravity = _pair((areas[:, None] * cogs).sum(0) / areas.sum())
         x0, y0, x1, y1 = self.polygon.bounds
         self.x_min, self.x_max = float(x0), float(x1)
         self.length = float(x1 - x0)

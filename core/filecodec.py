@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable, Iterator
+from functools import partial
 from typing import Any, TypeVar
 
 from core.conditions import Conditions
@@ -442,7 +443,8 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
         if pos is not None:
             fitting = r.build(
                 p,
-                lambda f=f, pos=pos, swl=swl, kind=kind, p=p: Fitting(
+                partial(
+                    Fitting,
                     r.text(f, "name", p),
                     kind,
                     pos[0],
@@ -536,8 +538,8 @@ def _decode_site(r: _Reader, value: Any) -> Site | None:
             continue
         feature = r.build(
             p,
-            lambda f=f, pts=pts, p=p: SiteFeature(
-                r.text(f, "name", p), f["kind"], tuple(pts), r.flag(f, "closed", p)
+            partial(
+                SiteFeature, r.text(f, "name", p), f["kind"], tuple(pts), r.flag(f, "closed", p)
             ),
         )
         if feature is not None:

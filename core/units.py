@@ -16,7 +16,7 @@ import pint
 
 from core.errors import InputError
 
-ureg = pint.UnitRegistry()
+ureg: pint.UnitRegistry = pint.UnitRegistry()
 ureg.define("tonne_force = 9.80665 * kilonewton = tf")
 
 Quantity = Literal["force", "moment", "length", "speed"]
