@@ -13,7 +13,9 @@ ROOT = Path(__file__).resolve().parent.parent
 
 def test_import_linter_contract_holds() -> None:
     exe = shutil.which("lint-imports") or str(Path(sys.executable).with_name("lint-imports"))
-    done = subprocess.run([exe, "--config", str(ROOT / "pyproject.toml")], cwd=ROOT, capture_output=True, text=True)
+    done = subprocess.run(
+        [exe, "--config", str(ROOT / "pyproject.toml")], cwd=ROOT, capture_output=True, text=True
+    )
     assert done.returncode == 0, done.stdout + done.stderr
     assert "0 broken" in done.stdout
 
@@ -26,10 +28,12 @@ def test_core_tests_pass_with_qt_absent() -> None:
         for name in ("PySide6", "shiboken6"):
             sys.modules[name] = None
         import pytest
-        sys.exit(pytest.main(["-q", "-p", "no:pytestqt", "-p", "no:cacheprovider",
-                              "-o", "addopts=", "tests/core"]))
+        sys.exit(pytest.main(["-q", "-p", "no:pytest-qt", "-p", "no:cacheprovider",
+                              "-o", "addopts=", "-W", "ignore::pytest.PytestConfigWarning", "tests/core"]))
         """
     )
-    done = subprocess.run([sys.executable, "-c", script], cwd=ROOT, capture_output=True, text=True, timeout=600)
+    done = subprocess.run(
+        [sys.executable, "-c", script], cwd=ROOT, capture_output=True, text=True, timeout=600
+    )
     assert done.returncode == 0, done.stdout[-3000:] + done.stderr[-2000:]
     assert " passed" in done.stdout
