@@ -24,6 +24,7 @@ from core.notices import Notice
 from core.plan import Project, Stage
 from core.tugs import Placement
 from core.units import DisplayUnits
+from core.usable import STEEP_LINE_DEG, line_angle_rad
 
 #: Drawn distance from a push point to the pushing tug's centre, m.
 PUSH_STANDOFF_M = 8.0
@@ -51,6 +52,7 @@ class TugLayout:
     rated_n: np.ndarray  # (n,) rated pull for the way the tug works (ahead or astern), N
     usable_n: np.ndarray  # (n,) usable pull, N (rated x efficiency x line-angle factor)
     swl_n: np.ndarray  # (n,) fitting rating, N; nan where none is given
+    line_angle_rad: np.ndarray | None = None  # (n,) towline angle off the horizontal, rad
 
     @property
     def pulls_n(self) -> np.ndarray:
@@ -84,6 +86,7 @@ def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
     n = len(placed)
     points, dirs, pos = np.zeros((n, 2)), np.zeros((n, 2)), np.zeros((n, 2))
     push, rated, swl = np.zeros(n, bool), np.zeros(n), np.full(n, np.nan)
+    bp, angle = np.zeros(n), np.zeros(n)
     for i, p in enumerate(placed):
         tug = project.tug(p.tug)
         point, direction, is_push = tug_direction(body, p)
@@ -94,11 +97,18 @@ def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
             else np.add(point, np.multiply(direction, p.line_length_m))
         )
         rated[i] = tug.rated_pull(p.astern)
-        f = body.fitting(p.hull, p.point)[1]
+        bp[i] = tug.bollard_pull_n
+        member, f = body.fitting(p.hull, p.point)
+        if not is_push:
+            angle[i] = line_angle_rad(
+                member.hull.freeboard_m, tug.towing_point_height_m, p.line_length_m
+            )
         if f.swl_n is not None:
             swl[i] = f.swl_n
-    usable = rated.copy()
-    return TugLayout(placed, points, dirs, pos, push, rated, usable, swl)
+    # Usable pull: rated x efficiency (sea state) x cos(towline angle); see core.usable.
+    eff = project.tug_efficiency.efficiencies(bp, stage.conditions.sea_state)
+    usable = rated * eff * np.cos(angle)
+    return TugLayout(placed, points, dirs, pos, push, rated, usable, swl, angle)
 
 
 @dataclass(frozen=True, slots=True)
@@ -209,6 +219,18 @@ def _notices(layout: TugLayout, pulls: np.ndarray, body: Body, units: DisplayUni
                         "push_outward",
                         p.tug,
                         f"{p.tug}: push at {p.point} points out of the hull; a tug cannot push that way",
+                    )
+                )
+        if layout.line_angle_rad is not None and not layout.is_push[i]:
+            deg = math.degrees(layout.line_angle_rad[i])
+            if deg > STEEP_LINE_DEG + 1e-9:
+                out.append(
+                    Notice(
+                        "steep_line",
+                        p.tug,
+                        f"{p.tug}: towline at {p.point} runs {deg:.0f} deg off the horizontal; "
+                        f"only {math.cos(layout.line_angle_rad[i]) * 100:.0f} % of the pull is "
+                        "horizontal (lengthen the line)",
                     )
                 )
         key = (p.hull, p.point)

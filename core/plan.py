@@ -18,6 +18,7 @@ from core.hull import Hull
 from core.outlines import Outline, validate_outline
 from core.tugs import Placement, Tug
 from core.units import DisplayUnits
+from core.usable import EfficiencyTable
 
 STAGE_KINDS = ("unberth", "swing", "transit", "berth", "other")
 SiteFeatureKind = Literal["quay", "dolphin", "vessel", "limit"]
@@ -191,6 +192,7 @@ class Project:
     site: Site = field(default_factory=Site)
     stages: tuple[Stage, ...] = ()
     clearance_margin_m: float = 10.0
+    tug_efficiency: EfficiencyTable = field(default_factory=EfficiencyTable)
 
     def __post_init__(self) -> None:
         for label, names in (

@@ -1,0 +1,56 @@
+"""The conditions of a stage applied to a body: loads in the body frame, and the balance with them.
+
+The body's true heading comes from its pose in the stage. The board, the report and
+the briefing all take the stage's loads from here, so they show the same numbers.
+"""
+
+from __future__ import annotations
+
+from dataclasses import replace
+
+import numpy as np
+
+from core.balance import Balance, Load, analyse_layout, tug_layout
+from core.bodies import Body, body_name_of_hull, body_of
+from core.conditions import ConditionLoads, condition_loads
+from core.errors import InputError
+from core.plan import Project, Stage
+
+
+def stage_body(project: Project, stage: Stage, body: str | None = None) -> Body:
+    """The body a stage is about: ``body``, or the one its first tug works on."""
+    if body is None:
+        if stage.placements:
+            body = body_name_of_hull(project, stage.placements[0].hull)
+        elif project.hulls:
+            body = project.body_names()[0]
+        else:
+            raise InputError(f"stage {stage.name}", "", "has no hull to work on")
+    return body_of(project, body)
+
+
+def body_conditions(stage: Stage, body: Body, *, strict: bool = False) -> ConditionLoads:
+    """The stage's wind and current as loads on ``body`` at its pose's heading."""
+    heading = stage.pose_of(body.name).heading_deg
+    return condition_loads(body, stage.conditions, heading, strict=strict)
+
+
+def loads_wrench(loads: tuple[Load, ...], centroid: tuple[float, float]) -> np.ndarray:
+    """(3,): force ahead, force to port and moment about ``centroid`` of the loads."""
+    out = np.zeros(3)
+    for ld in loads:
+        fx, fy = ld.force
+        dx, dy = ld.point[0] - centroid[0], ld.point[1] - centroid[1]
+        out += (fx, fy, dx * fy - dy * fx + ld.moment_nm)
+    return out
+
+
+def analyse_stage(project: Project, stage: Stage, body: str | None = None) -> Balance:
+    """The balance of a body with its tugs *and* the stage's wind and current.
+
+    Missing areas do not stop it: the load is left out and a notice says so.
+    """
+    b = stage_body(project, stage, body)
+    cond = body_conditions(stage, b)
+    bal = analyse_layout(stage, b, tug_layout(project, stage, b), project.units, cond.loads)
+    return replace(bal, notices=bal.notices + cond.notices) if cond.notices else bal
