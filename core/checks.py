@@ -14,14 +14,16 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, replace
 
-from core.balance import Balance, analyse, tug_layout
+from core.balance import Balance, tug_layout
 from core.bodies import body_name_of_hull, body_of
 from core.clearance import Clearance, clearance_notices, stage_clearances
 from core.errors import InputError
-from core.frames import turning_words, walking_words
+from core.frames import turning_words
+from core.loads import analyse_stage
 from core.notices import Notice
 from core.plan import Project, Stage
 from core.site import posed_bodies
+from core.solve import pulls_problem, solve_pulls
 from core.tugs import Tug
 from core.units import DisplayUnits
 
@@ -75,6 +77,18 @@ def worked_bodies(project: Project, stage: Stage) -> tuple[str, ...]:
     return tuple(names)
 
 
+def balance_of(project: Project, stage: Stage, body: str) -> Balance:
+    """The balance of ``body`` in ``stage`` with the stage's wind and current, as the board
+    and the report show it."""
+    return analyse_stage(project, stage, body)
+
+
+def tug_lost_as_set(project: Project, stage: Stage, body: str) -> tuple[tuple[str, Balance], ...]:
+    """For each tug on ``body``, the balance with that tug lost and the others as set."""
+    names = [p.tug for p in stage.placements if body_name_of_hull(project, p.hull) == body]
+    return tuple((t, balance_of(project, stage.without_placement(t), body)) for t in names)
+
+
 def _over_rating(b: Balance, units: DisplayUnits) -> list[Notice]:
     out = []
     for sh in b.shares:
@@ -114,19 +128,45 @@ def goal_notices(project: Project, stage: Stage, b: Balance) -> list[Notice]:
     parts = []
     if math.hypot(rx, ry) > tol_f:
         parts.append(
-            f"force {u.show(math.hypot(rx, ry), 'force')} left over ({walking_words(rx, ry, tol_f)})"
+            f"net force {u.show(math.hypot(rx, ry), 'force')} {_sides(rx, ry, tol_f)} of the goal"
         )
     if abs(rm) > tol_f * length:
         parts.append(
-            f"yaw moment {u.show(abs(rm), 'moment')} left over ({turning_words(rm, tol_f * length)})"
+            f"yaw moment off the goal by {u.show(abs(rm), 'moment')} "
+            f"({turning_words(rm, tol_f * length)})"
         )
     return [
         Notice(
             "goal_not_met",
             stage.name,
-            f"goal '{stage.goal.kind}' not met on {b.body}: " + "; ".join(parts),
+            f"goal '{stage.goal.kind}' not met on {b.body}: "
+            + "; ".join(parts)
+            + _resolve_words(project, stage, b.body),
         )
     ]
+
+
+def _sides(fx: float, fy: float, tol: float) -> str:
+    """Which way a force points on the body, in words: "ahead", "astern and to port"..."""
+    parts = []
+    if abs(fx) > tol:
+        parts.append("ahead" if fx > 0 else "astern")
+    if abs(fy) > tol:
+        parts.append("to port" if fy > 0 else "to starboard")
+    return " and ".join(parts)
+
+
+def _resolve_words(project: Project, stage: Stage, body: str) -> str:
+    """Whether solving the pulls again would meet the goal, in words."""
+    result = solve_pulls(pulls_problem(project, stage, body))
+    if result.feasible:
+        return "; solving the pulls again would meet it"
+    u = project.units
+    sx, sy, sm = (float(v) for v in result.shortfall)
+    return (
+        "; these tugs cannot meet it even with the pulls solved again (short by "
+        f"{u.show(math.hypot(sx, sy), 'force')} and {u.show(abs(sm), 'moment')})"
+    )
 
 
 def limit_notices(project: Project, stage: Stage) -> list[Notice]:
@@ -158,7 +198,7 @@ def check_stage(project: Project, index: int) -> StageCheck:
     """Check stage ``index`` of ``project`` from scratch."""
     stage = project.stages[index]
     balances = (
-        tuple(analyse(project, stage, name) for name in worked_bodies(project, stage))
+        tuple(balance_of(project, stage, name) for name in worked_bodies(project, stage))
         if project.hulls
         else ()
     )

@@ -38,7 +38,7 @@ def line(
 
 def two_tug_plan() -> Project:
     """One 80 m x 20 m barge, two tugs of 50 t and 40 t, three stages."""
-    hull = box_hull("Barge", 80.0, 20.0, displacement_kg=4.0e6)
+    hull = box_hull("Barge", 80.0, 20.0, displacement_kg=4.0e6, draught_m=3.0, freeboard_m=2.5)
     tugs = (Tug("Gannet", 50 * TF, 45 * TF, "ASD"), Tug("Puffin", 40 * TF, 35 * TF, "ASD"))
     s1 = Stage(
         "Walk off",

@@ -75,7 +75,29 @@ def test_goal_met_then_missed_when_a_substitute_keeps_the_setting():
     (f,) = sub.after[3].failures
     assert f.code == "goal_not_met"
     # 20 t ahead less 0.5 x 30 t = 15 t astern leaves 5 t ahead
-    assert "force 5.0 t left over (moves ahead)" in f.message
+    assert "net force 5.0 t ahead of the goal" in f.message
+    # with no wind or current, any pulls that cancel hold it: re-solving would meet the goal
+    assert f.message.endswith("; solving the pulls again would meet it")
+
+
+def test_a_goal_the_substitute_cannot_meet_even_re_solved():
+    p = two_tug_plan()
+    walk = Stage(
+        "Tow ahead",
+        "transit",
+        placements=(line("Gannet", "Barge", "bow", 0.6, 0.0),),  # 0.6 x 50 t = 30 t ahead
+        goal=Goal("walk", fx_n=30 * TF),
+    )
+    p = replace(p, stages=(walk,))
+    assert not check_stage(p, 0).fails
+    sub = substitute_tug(p, "Gannet", Tug("Skua", 20 * TF), keep="settings")
+    (f,) = sub.after[0].failures
+    assert f.code == "goal_not_met"
+    # 0.6 x 20 t = 12 t of the 30 t wanted; at 100 % the substitute gives 20 t, 10 t short
+    assert "net force 18.0 t astern of the goal" in f.message
+    assert (
+        "cannot meet it even with the pulls solved again (short by 10.0 t and 0.0 t·m)" in f.message
+    )
 
 
 def test_stage_warnings_do_not_fail_it():
