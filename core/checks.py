@@ -23,7 +23,7 @@ from core.loads import analyse_stage
 from core.notices import Notice
 from core.plan import Project, Stage
 from core.site import posed_bodies
-from core.solve import pulls_problem, solve_pulls
+from core.solve import pulls_problem, solve_pulls, tug_lost_check
 from core.tugs import Tug
 from core.units import DisplayUnits
 
@@ -169,6 +169,31 @@ def _resolve_words(project: Project, stage: Stage, body: str) -> str:
     )
 
 
+def tug_lost_notices(project: Project, stage: Stage, body: str) -> list[Notice]:
+    """A warning when the stage's goal is not met with some single tug lost (pulls
+    solved again without it)."""
+    if stage.goal is None:
+        return []
+    check = tug_lost_check(pulls_problem(project, stage, body))
+    if len(check.cases) < 2 or check.passes:
+        return []
+    failing = [c.tug for c in check.cases if not c.holds]
+    worst = check.worst
+    if worst is None:
+        return []
+    u = project.units
+    sx, sy, sm = (float(v) for v in worst.result.shortfall)
+    return [
+        Notice(
+            "tug_lost_fails",
+            stage.name,
+            f"no margin with a tug lost: the goal '{stage.goal.kind}' is not met with "
+            f"{' or '.join(failing)} lost; worst {worst.tug} (short by "
+            f"{u.show(math.hypot(sx, sy), 'force')} and {u.show(abs(sm), 'moment')})",
+        )
+    ]
+
+
 def limit_notices(project: Project, stage: Stage) -> list[Notice]:
     """Warnings where the stage's planned conditions exceed its own go / no-go limits."""
     u, c, lim = project.units, stage.conditions, stage.limits
@@ -207,6 +232,7 @@ def check_stage(project: Project, index: int) -> StageCheck:
         notices.extend(b.notices)
         notices.extend(_over_rating(b, project.units))
         notices.extend(goal_notices(project, stage, b))
+        notices.extend(tug_lost_notices(project, stage, b.body))
     notices.extend(limit_notices(project, stage))
     clearances = stage_clearances(project, stage) if project.hulls else ()
     notices.extend(clearance_notices(clearances, project.units))

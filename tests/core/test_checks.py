@@ -129,3 +129,23 @@ def test_over_swl_fails_the_stage():
 def test_bad_keep_is_refused():
     with pytest.raises(InputError, match="must be 'pulls' or 'settings'"):
         substitute_tug(two_tug_plan(), "Gannet", Tug("X", 1e5), keep="both")
+
+
+def test_no_margin_with_a_tug_lost_is_a_warning_of_the_stage():
+    p = two_tug_plan()
+    # Both tugs pull to port, 20 t each, to walk the barge 40 t to port: with either lost,
+    # the other gives at most 50 t or 40 t on its own line, but the yaw moment cannot be
+    # held at zero by one tug off-centre, so the goal fails with any single loss.
+    walk = Stage(
+        "Walk off",
+        "unberth",
+        placements=(
+            line("Gannet", "Barge", "port bow", 0.4, 270.0),
+            line("Puffin", "Barge", "port quarter", 0.5, 270.0),
+        ),
+        goal=Goal("walk", fy_n=40 * TF),
+    )
+    c = check_stage(replace(p, stages=(walk,)), 0)
+    assert not c.fails
+    (n,) = [n for n in c.warnings if n.code == "tug_lost_fails"]
+    assert "not met with Gannet or Puffin lost" in n.message

@@ -1,0 +1,277 @@
+"""The printed briefing, read back from the PDF: the numbers are the core's, pages agree."""
+
+from __future__ import annotations
+
+import re
+import subprocess
+import sys
+import unicodedata
+from dataclasses import replace
+from pathlib import Path
+
+import pypdf
+import pytest
+
+from core.checks import check_plan
+from core.loads import analyse_stage
+from core.projectfile import load
+from core.tugs import Tug
+from core.units import DisplayUnits
+
+ROOT = Path(__file__).resolve().parents[2]
+SAMPLES = ROOT / "sample_projects"
+TWIN = SAMPLES / "twin_barge_move.towboard"
+
+# Page sizes in PostScript points (1/72 in): A4 is 210 x 297 mm (ISO 216), US Letter is
+# 8.5 x 11 in (ANSI/ASME Y14.1), both from memory.
+A4_PT = (210 / 25.4 * 72, 297 / 25.4 * 72)
+LETTER_PT = (8.5 * 72, 11 * 72)
+
+
+def norm(text: str) -> str:
+    """PDF text for comparison: ligatures undone (NFKC), runs of white space as one space."""
+    return " ".join(unicodedata.normalize("NFKC", text).split())
+
+
+def pages_text(path: Path) -> list[str]:
+    return [norm(p.extract_text()) for p in pypdf.PdfReader(path).pages]
+
+
+@pytest.fixture(scope="module")
+def qapp_module():
+    from PySide6.QtGui import QGuiApplication
+
+    return QGuiApplication.instance() or QGuiApplication([])
+
+
+@pytest.fixture(scope="module")
+def twin_pdf(tmp_path_factory, qapp_module):
+    from app.briefing import write_pdf
+
+    project = load(TWIN)
+    out = tmp_path_factory.mktemp("brief") / "twin.pdf"
+    pages = write_pdf(project, out, "a4")
+    return project, out, pages, pages_text(out)
+
+
+def stage_texts(project, texts: list[str]) -> list[str]:
+    """The text of each stage's pages (from its heading to the next stage's)."""
+    n = len(project.stages)
+    starts = []
+    for i in range(n):
+        head = f"Stage {i + 1} of {n}: {project.stages[i].name}"
+        starts.append(next(k for k, t in enumerate(texts) if head in t))
+    out = []
+    for i, k in enumerate(starts):
+        end = starts[i + 1] if i + 1 < n else len(texts)
+        out.append(" ".join(texts[k:end]))
+    return out
+
+
+def test_page_count_and_page_n_of_m_agree(twin_pdf):
+    _, path, pages, texts = twin_pdf
+    reader = pypdf.PdfReader(path)
+    assert len(reader.pages) == pages == len(texts)
+    for i, t in enumerate(texts, start=1):
+        assert f"page {i} of {pages}" in t
+        assert t.count(f"of {pages}") == 1
+
+
+def test_every_tug_and_assigned_pull_of_every_stage_is_the_core_value(twin_pdf):
+    project, _, _, texts = twin_pdf
+    u = project.units
+    checks = check_plan(project)
+    assert len(checks) == 4
+    for check, text in zip(checks, stage_texts(project, texts), strict=True):
+        assert check.balances
+        for b in check.balances:
+            # the briefing's stage balance is the one the board shows (tugs with conditions)
+            assert b == analyse_stage(project, check.stage, b.body)
+            for sh in b.shares:
+                row = (
+                    re.escape(f"{sh.tug} {sh.hull}: {sh.point} ")
+                    + r"[^%]*? "
+                    + re.escape(f"{sh.setting * 100:.0f} % {u.show(sh.pull_n, 'force')} ")
+                    + re.escape(f"{u.show(sh.usable_n, 'force')} ")
+                )
+                assert re.search(row, text), (check.name, sh.tug, u.show(sh.pull_n, "force"))
+            assert f"Net force {u.show(b.net_magnitude, 'force')}" in text
+
+
+def test_stage_warnings_and_clearances_are_printed_with_their_stage(twin_pdf):
+    project, _, _, texts = twin_pdf
+    u = project.units
+    checks = check_plan(project)
+    for check, text in zip(checks, stage_texts(project, texts), strict=True):
+        for n in check.notices:
+            assert norm(n.message) in text
+        nearest = min(check.clearances, key=lambda c: c.distance_m)
+        assert (
+            f"{nearest.other} {nearest.other_kind} {u.show(nearest.distance_m, 'length')}" in text
+        )
+
+
+def test_cover_has_the_sign_off_the_conditions_limits_and_cautions(twin_pdf):
+    project, _, _, texts = twin_pdf
+    cover = texts[0]
+    for needle in (
+        project.name,
+        f"Revision {project.revision}",
+        project.date,
+        "Prepared by",
+        "Checked by",
+        "Approved by",
+        project.prepared_by,
+        "Conditions planned for",
+        "Go / no-go limits",
+        "Cautions",
+        "The master, the pilot, local port rules and applicable standards decide",
+    ):
+        assert needle in cover, needle
+    whole = " ".join(texts)
+    assert "Units, frames and assumptions" in whole
+    for t in project.tugs:
+        assert f"{t.name} {t.tug_type} {DisplayUnits().show(t.bollard_pull_n, 'force')}" in whole
+
+
+@pytest.mark.parametrize(("paper", "size"), [("a4", A4_PT), ("letter", LETTER_PT)])
+def test_a4_and_letter_page_sizes(tmp_path, qapp_module, paper, size):
+    from app.briefing import write_pdf
+
+    out = tmp_path / f"plan-{paper}.pdf"
+    n = write_pdf(load(SAMPLES / "deck_barge_unberth.towboard"), out, paper)
+    reader = pypdf.PdfReader(out)
+    assert len(reader.pages) == n
+    for page in reader.pages:
+        box = page.mediabox
+        assert float(box.width) == pytest.approx(size[0], abs=1.0)
+        assert float(box.height) == pytest.approx(size[1], abs=1.0)
+    assert f"page {n} of {n}" in norm(reader.pages[-1].extract_text())
+
+
+def test_a_failing_stage_is_flagged_on_the_cover_and_its_page(tmp_path, qapp_module):
+    from app.briefing import write_pdf
+    from core.checks import substitute_tug
+
+    project = load(TWIN)
+    rowan = project.tug("Rowan")
+    weak = Tug("Rowan", rowan.bollard_pull_n * 0.2, rowan.astern_pull * 0.2, rowan.tug_type)
+    sub = substitute_tug(project, "Rowan", weak, keep="settings")
+    failing = [c for c in sub.after if c.fails]
+    assert failing  # a fifth of the pull misses the solved goals
+    out = tmp_path / "weak.pdf"
+    write_pdf(sub.project, out)
+    texts = pages_text(out)
+    assert "FAILS" in texts[0]
+    per_stage = stage_texts(sub.project, texts)
+    for c in failing:
+        assert "This stage fails its checks" in per_stage[c.index]
+        for n in c.failures:
+            assert norm(f"FAILS: {n.message}") in per_stage[c.index]
+
+
+def test_an_empty_plan_still_prints(tmp_path, qapp_module):
+    from app.briefing import write_pdf
+    from core.plan import Project
+
+    out = tmp_path / "empty.pdf"
+    n = write_pdf(Project(name="Nothing yet"), out)
+    assert n >= 1 and "Nothing yet" in pages_text(out)[0]
+
+
+def test_a_failure_while_writing_leaves_no_file(tmp_path, qapp_module, monkeypatch):
+    import app.briefing as briefing
+
+    out = tmp_path / "plan.pdf"
+    out.write_bytes(b"the previous briefing")
+
+    def broken(device, project):
+        raise RuntimeError("printer on fire")
+
+    monkeypatch.setattr(briefing, "render", broken)
+    with pytest.raises(RuntimeError):
+        briefing.write_pdf(load(TWIN), out)
+    assert out.read_bytes() == b"the previous briefing"
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["plan.pdf"]
+
+
+def _brief(*args: str) -> subprocess.CompletedProcess[str]:
+    return subprocess.run(
+        [sys.executable, "-m", "app", "brief", *args],
+        capture_output=True,
+        text=True,
+        cwd=ROOT,
+        timeout=180,
+    )
+
+
+def test_cli_writes_the_pdf(tmp_path):
+    out = tmp_path / "plan.pdf"
+    done = _brief(str(TWIN), "-o", str(out), "--paper", "letter")
+    assert done.returncode == 0, done.stderr
+    assert done.stderr == ""
+    n = len(pypdf.PdfReader(out).pages)
+    assert done.stdout.strip() == f"wrote {out} ({n} pages, letter)"
+
+
+@pytest.mark.parametrize(
+    ("make", "args", "message"),
+    [
+        (lambda d: d / "missing.towboard", (), "missing.towboard: cannot be read"),
+        (
+            lambda d: (d / "bad.towboard").write_text("{ not json") and d / "bad.towboard",
+            (),
+            "bad.towboard: not valid JSON",
+        ),
+        (
+            lambda d: (
+                (d / "neg.towboard").write_text(
+                    TWIN.read_text().replace(
+                        '"bollard_pull_kN": 539.36575', '"bollard_pull_kN": -5'
+                    )
+                )
+                and d / "neg.towboard"
+            ),
+            (),
+            "tugs[0].bollard_pull_kN: -5 kN must be above zero",
+        ),
+        (lambda d: TWIN, ("--paper", "a3"), "invalid choice: 'a3'"),
+        (lambda d: TWIN, ("-o", "/nonexistent/folder/plan.pdf"), "does not exist"),
+    ],
+)
+def test_cli_bad_input_exits_2_with_one_line_and_writes_nothing(tmp_path, make, args, message):
+    src = make(tmp_path)
+    out_dir = tmp_path / "out"
+    out_dir.mkdir()
+    argv = [str(src)]
+    if "-o" not in args:
+        argv += ["-o", str(out_dir / "plan.pdf")]
+    done = _brief(*argv, *args)
+    assert done.returncode == 2
+    assert done.stdout == ""
+    lines = done.stderr.strip().splitlines()
+    assert len(lines) == 1 and lines[0].startswith("towboard brief: "), done.stderr
+    assert message in lines[0]
+    assert "Traceback" not in done.stderr
+    assert list(out_dir.iterdir()) == []
+
+
+def test_cli_needs_an_output(tmp_path):
+    done = _brief(str(TWIN))
+    assert done.returncode == 2
+    assert "the following arguments are required: -o/--output" in done.stderr
+
+
+def test_units_follow_the_plan(tmp_path, qapp_module):
+    from app.briefing import write_pdf
+
+    project = load(TWIN)
+    kn = replace(project, units=DisplayUnits(force="kN", moment="kN*m", length="ft", speed="m/s"))
+    out = tmp_path / "kn.pdf"
+    write_pdf(kn, out)
+    text = " ".join(pages_text(out))
+    for c in check_plan(kn):
+        for b in c.balances:
+            for sh in b.shares:
+                assert kn.units.show(sh.pull_n, "force") in text
+    assert "force in kN, moment in kN·m, length in ft, speed in m/s" in text
