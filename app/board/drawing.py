@@ -1,0 +1,547 @@
+"""The drawing of one body on the board: hulls, marks, fittings, tugs and the balance.
+
+All of it is drawn in the body frame (x forward, y to port, m) as children of one
+root item that the body's pose places in the site frame. Items are made once and
+updated in place, so a drag only moves what changed.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable
+
+from PySide6.QtCore import QLineF, QPointF, Qt
+from PySide6.QtGui import QColor, QPainterPath, QPolygonF, QTransform
+from PySide6.QtWidgets import (
+    QGraphicsItem,
+    QGraphicsLineItem,
+    QGraphicsPathItem,
+    QGraphicsPolygonItem,
+    QGraphicsScene,
+)
+
+from app.board import style
+from app.board.items import (
+    ROLE,
+    Arrow,
+    FittingMark,
+    Handle,
+    Label,
+    Mark,
+    MomentArrow,
+    polygon_path,
+    tug_polygon,
+)
+from core.balance import Balance, TugShare
+from core.bodies import Body, Member
+from core.frames import turning_words
+from core.hull import Hull
+from core.plan import BodyPose
+from core.units import DisplayUnits, label
+
+Z_HULL, Z_LINE, Z_TUG, Z_FORCE, Z_BALANCE, Z_FITTING, Z_LABEL, Z_HANDLE = 0, 2, 3, 5, 6, 7, 10, 11
+
+
+class Root(QGraphicsItem):
+    """An empty item that carries a frame (a body's pose, a member's pose in its body)."""
+
+    def __init__(self, parent: QGraphicsItem | None = None) -> None:
+        super().__init__(parent)
+        self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemHasNoContents)
+
+    def boundingRect(self):  # type: ignore[no-untyped-def]
+        from PySide6.QtCore import QRectF
+
+        return QRectF()
+
+    def paint(self, *args: object) -> None:
+        return
+
+
+def _screen_angle(root: QGraphicsItem, v: tuple[float, float]) -> float:
+    """Screen angle (deg, clockwise, y down) of a direction ``v`` given in ``root``'s frame."""
+    t = root.sceneTransform()
+    sx = t.m11() * v[0] + t.m21() * v[1]
+    sy = t.m12() * v[0] + t.m22() * v[1]
+    return -math.degrees(math.atan2(sy, sx))  # the view flips y so north is up
+
+
+class HullDrawing:
+    """One hull: outline, centreline, bow/stern and side marks, fittings, vertex handles."""
+
+    def __init__(self, root: Root, member: Member) -> None:
+        self.frame = Root(root)
+        self.hull: Hull | None = None
+        self.outline = QGraphicsPathItem(self.frame)
+        self.outline.setZValue(Z_HULL)
+        self.outline.setBrush(style.HULL_FILL)
+        self.outline.setPen(style.pen(style.HULL_EDGE, 1.6))
+        self.invalid = QGraphicsPathItem(self.frame)
+        self.invalid.setZValue(Z_HULL + 1)
+        self.invalid.setPen(style.pen(style.INVALID, 2.0, Qt.PenStyle.DashLine))
+        self.invalid.setBrush(QColor(211, 47, 47, 40))
+        self.invalid.setVisible(False)
+        self.centreline = QGraphicsLineItem(self.frame)
+        self.centreline.setZValue(Z_HULL + 1)
+        self.centreline.setPen(style.pen(style.CENTRELINE, 1.0, Qt.PenStyle.DashDotLine))
+        self.port_side = QGraphicsLineItem(self.frame)
+        self.port_side.setPen(style.pen(style.PORT, 4.0))
+        self.stbd_side = QGraphicsLineItem(self.frame)
+        self.stbd_side.setPen(style.pen(style.STARBOARD, 4.0))
+        for item in (self.port_side, self.stbd_side):
+            item.setZValue(Z_HULL + 1)
+        bold = style.label_font(8.5, bold=True)
+        self.bow = Label("BOW", self.frame, style.HULL_EDGE, bold, (0, 0), "centre")
+        self.stern = Label("STERN", self.frame, style.HULL_EDGE, bold, (0, 0), "centre")
+        self.port = Label("PORT", self.frame, style.PORT, bold, (0, 0), "centre")
+        self.stbd = Label("STBD", self.frame, style.STARBOARD, bold, (0, 0), "centre")
+        self.name = Label(
+            "", self.frame, style.HULL_EDGE, style.label_font(9.5, True), (0, 0), "centre"
+        )
+        for item in (self.bow, self.stern, self.port, self.stbd, self.name):
+            item.setZValue(Z_LABEL)
+        self.reference = Mark("reference", self.frame, 10)
+        self.reference.setZValue(Z_FITTING)
+        self.reference.setToolTip("Reference point: the hull frame's origin")
+        self.fittings: dict[str, tuple[FittingMark, Label]] = {}
+        self.handles: list[Handle] = []
+        self.set_member(member)
+
+    def set_member(self, member: Member) -> None:
+        self.frame.setPos(member.x, member.y)
+        self.frame.setRotation(math.degrees(member.heading_rad))
+        self.outline.setData(ROLE, ("hull", member.hull.name))
+        if member.hull is not self.hull:
+            self.set_hull(member.hull)
+
+    def set_hull(self, hull: Hull) -> None:
+        old = self.hull
+        self.hull = hull
+        if old is None or old.outline != hull.outline:
+            self.outline.setPath(polygon_path(hull.outline))
+            self._place_marks(hull)
+            self._sync_handles(hull)
+        if old is None or old.fittings != hull.fittings:
+            self._sync_fittings(hull)
+        self.name.set_text(hull.name)
+
+    def _place_marks(self, hull: Hull) -> None:
+        g = hull.geometry
+        ys = [y for _, y in hull.outline]
+        y_port, y_stbd = max(ys), min(ys)
+        pad = 0.06 * max(g.length, 1.0)
+        self.centreline.setLine(QLineF(g.x_min - pad, 0.0, g.x_max + pad, 0.0))
+        self.bow.setPos(g.x_max - 1.2 * pad, 0.0)
+        self.stern.setPos(g.x_min - 1.1 * pad, 0.0)
+        # side marks along the middle of each side, just outside the outline
+        x0, x1 = g.x_min + 0.35 * g.length, g.x_min + 0.65 * g.length
+        gap = 0.012 * g.length
+        self.port_side.setLine(QLineF(x0, y_port + gap, x1, y_port + gap))
+        self.stbd_side.setLine(QLineF(x0, y_stbd - gap, x1, y_stbd - gap))
+        self.port.setPos(g.x_min + 0.5 * g.length, y_port + 0.5 * pad + gap)
+        self.stbd.setPos(g.x_min + 0.5 * g.length, y_stbd - 0.5 * pad - gap)
+        self.name.setPos(g.x_min + 0.27 * g.length, 0.45 * y_port)
+
+    def _sync_handles(self, hull: Hull) -> None:
+        n = len(hull.outline)
+        while len(self.handles) > n:
+            h = self.handles.pop()
+            h.setParentItem(None)
+            if h.scene() is not None:
+                h.scene().removeItem(h)
+        while len(self.handles) < n:
+            h = Handle(self.frame)
+            h.setZValue(Z_HANDLE)
+            h.setVisible(self.outline.isSelected())
+            self.handles.append(h)
+        for i, (h, (x, y)) in enumerate(zip(self.handles, hull.outline, strict=True)):
+            h.setPos(x, y)
+            h.setData(ROLE, ("vertex", hull.name, i))
+
+    def show_handles(self, on: bool, selected: int | None = None) -> None:
+        for i, h in enumerate(self.handles):
+            h.setVisible(on)
+            h.set_selected(i == selected)
+
+    def _sync_fittings(self, hull: Hull) -> None:
+        names = {f.name for f in hull.fittings}
+        for name in list(self.fittings):
+            if name not in names:
+                mark, lab = self.fittings.pop(name)
+                for item in (mark, lab):
+                    item.setParentItem(None)
+                    if item.scene() is not None:
+                        item.scene().removeItem(item)
+        for f in hull.fittings:
+            if f.name not in self.fittings or self.fittings[f.name][0].kind != f.kind:
+                if f.name in self.fittings:
+                    for item in self.fittings.pop(f.name):
+                        item.setParentItem(None)
+                        if item.scene() is not None:
+                            item.scene().removeItem(item)
+                mark = FittingMark(f.kind, self.frame)
+                mark.setZValue(Z_FITTING)
+                lab = Label("", self.frame, style.LINE_POINT, style.label_font(8), (9, 12))
+                lab.setZValue(Z_LABEL)
+                lab.setVisible(False)
+                self.fittings[f.name] = (mark, lab)
+            mark, lab = self.fittings[f.name]
+            mark.setPos(f.x, f.y)
+            mark.setData(ROLE, ("fitting", hull.name, f.name))
+            swl = "" if f.swl_n is None else f", SWL {f.swl_n / 9806.65:.0f} t"
+            mark.setToolTip(f"{f.name} ({'line point' if f.kind == 'line' else 'push point'}{swl})")
+            lab.setPos(f.x, f.y)
+            lab.set_text(f.name)
+            q = hull.geometry.nearest(f.x, f.y)
+            mark.angle_deg = _screen_angle(self.frame, (-q.normal[1], q.normal[0]))
+
+    def refresh_screen_angles(self) -> None:
+        """Re-aim the push pads after the body turned (their bar follows the hull edge)."""
+        if self.hull is None:
+            return
+        for f in self.hull.fittings:
+            mark, _ = self.fittings[f.name]
+            q = self.hull.geometry.nearest(f.x, f.y)
+            mark.angle_deg = _screen_angle(self.frame, (-q.normal[1], q.normal[0]))
+            mark.update()
+
+    def set_selection(self, selection: tuple[object, ...] | None) -> None:
+        name = self.hull.name if self.hull else None
+        hull_selected = (
+            bool(selection) and selection[1] == name and selection[0] in ("hull", "vertex")
+        )
+        self.outline.setPen(
+            style.pen(
+                style.HULL_SELECTED if hull_selected else style.HULL_EDGE,
+                2.4 if hull_selected else 1.6,
+            )
+        )
+        vertex = (
+            selection[2]
+            if selection and selection[0] == "vertex" and selection[1] == name
+            else None
+        )
+        self.show_handles(hull_selected, vertex)  # type: ignore[arg-type]
+        for fname, (mark, lab) in self.fittings.items():
+            on = bool(selection) and selection[0] == "fitting" and selection[1:] == (name, fname)
+            mark.set_selected(on)
+            lab.setVisible(on)
+
+    def show_invalid(self, outline: list[tuple[float, float]] | None) -> None:
+        if outline is None:
+            self.invalid.setVisible(False)
+            return
+        path = QPainterPath()
+        path.addPolygon(QPolygonF([QPointF(x, y) for x, y in outline]))
+        path.closeSubpath()
+        self.invalid.setPath(path)
+        self.invalid.setVisible(True)
+
+
+class TugDrawing:
+    """One tug: its shape where it works, the towline, the force arrow and a label."""
+
+    def __init__(self, root: Root, name: str) -> None:
+        self.name = name
+        self.towline = QGraphicsLineItem(root)
+        self.towline.setZValue(Z_LINE)
+        self.towline.setPen(style.pen(style.TOWLINE, 1.4))
+        self.glyph = QGraphicsPolygonItem(root)
+        self.glyph.setZValue(Z_TUG)
+        self.glyph.setBrush(style.TUG_FILL)
+        self.glyph.setPen(style.pen(style.TUG_EDGE, 1.3))
+        self.glyph.setData(ROLE, ("tug", name))
+        self.arrow = Arrow(style.TUG_FORCE, 2.6, root)
+        self.arrow.setZValue(Z_FORCE)
+        self.label = Label("", root, style.TEXT, style.label_font(8.5), (0, 0), "centre")
+        self.label.setZValue(Z_LABEL)
+        self._key: tuple[object, ...] | None = None
+        self._selected = False
+
+    def remove(self) -> None:
+        for item in (self.towline, self.glyph, self.arrow, self.label):
+            item.setParentItem(None)
+            if item.scene() is not None:
+                item.scene().removeItem(item)
+
+    def update(
+        self,
+        share: TugShare,
+        point: tuple[float, float],
+        direction: tuple[float, float],
+        force_scale: float,
+        head: float,
+        text: str,
+    ) -> None:
+        key = (share.position, point, direction, share.pull_n, force_scale, head, text, share.mode)
+        if key == self._key:
+            return
+        self._key = key
+        dx, dy = direction
+        heading = math.degrees(math.atan2(dy, dx))
+        if share.mode == "line":
+            tx, ty = share.position
+            self.towline.setLine(QLineF(point[0], point[1], tx, ty))
+            self.towline.setVisible(True)
+            # the tug lies along its line, stern to the hull, its towing point on the line's end
+            glyph_at = (tx, ty)
+        else:
+            self.towline.setVisible(False)
+            # bow against the push point, lying along the push
+            off = 0.65 * style.TUG_LENGTH_M + 0.5
+            glyph_at = (point[0] - dx * off, point[1] - dy * off)
+        t = QTransform()
+        t.translate(*glyph_at)
+        t.rotate(heading)
+        poly = tug_polygon(style.TUG_LENGTH_M, style.TUG_BEAM_M)
+        self.glyph.setPolygon(t.map(poly))
+        length = share.pull_n * force_scale
+        # the force arrow: on the line point, along the force; a push arrow ends at the hull
+        # the force arrow starts where the force acts on the hull and points along it
+        start, end = point, (point[0] + dx * length, point[1] + dy * length)
+        self.arrow.set_geometry(start, end, head)
+        self.arrow.setVisible(length > 1e-6)
+        # the label sits just beyond the tug, away from the hull
+        if share.mode == "line":
+            far = 0.65 * style.TUG_LENGTH_M + 5.0
+            lx, ly = glyph_at[0] + dx * far, glyph_at[1] + dy * far
+        else:
+            far = 0.35 * style.TUG_LENGTH_M + 5.0
+            lx, ly = glyph_at[0] - dx * far, glyph_at[1] - dy * far
+        self.label.setPos(lx, ly)
+        self.label.set_text(text)
+
+    def set_selected(self, on: bool) -> None:
+        if on == self._selected:
+            return
+        self._selected = on
+        self.glyph.setPen(style.pen(style.SELECTION if on else style.TUG_EDGE, 2.6 if on else 1.3))
+        self.glyph.setBrush(QColor("#ffe2a1") if on else style.TUG_FILL)
+
+
+class BalanceDrawing:
+    """The balance of one body: net force, yaw moment, line of action and what they mean."""
+
+    def __init__(self, root: Root) -> None:
+        self.root = root
+        self.centroid = Mark("centroid", root, 16)
+        self.cog = Mark("cog", root, 14)
+        self.centroid.setToolTip("Centroid of the outline (moments are taken about it)")
+        self.cog.setToolTip("Centre of gravity")
+        for m in (self.centroid, self.cog):
+            m.setZValue(Z_FITTING)
+        self.net = Arrow(style.NET_FORCE, 4.0, root)
+        self.net.setZValue(Z_BALANCE)
+        self.moment = MomentArrow(style.MOMENT, 3.2, root)
+        self.moment.setZValue(Z_BALANCE)
+        self.action = QGraphicsLineItem(root)
+        self.action.setPen(style.pen(style.LINE_OF_ACTION, 1.4, Qt.PenStyle.DashLine))
+        self.action.setZValue(Z_BALANCE - 0.5)
+        self.crossing = Mark("crossing", root, 14)
+        self.crossing.color = style.LINE_OF_ACTION
+        self.crossing.setZValue(Z_FITTING)
+        self.net_label = Label("", root, style.NET_FORCE, style.label_font(9, True), (10, 0))
+        self.moment_label = Label(
+            "", root, style.MOMENT, style.label_font(9, True), (-8, 0), "right"
+        )
+        self.cross_label = Label("", root, style.LINE_OF_ACTION, style.label_font(8.5), (10, 14))
+        self.state = Label("", root, style.TEXT, style.label_font(10, True), (0, 26), "centre")
+        self.stale = Label("", root, style.INVALID, style.label_font(10, True), (0, -30), "centre")
+        for lab in (self.net_label, self.moment_label, self.cross_label, self.state, self.stale):
+            lab.setZValue(Z_LABEL)
+        self.loads: list[tuple[Arrow, Label]] = []
+
+    def update(
+        self,
+        balance: Balance,
+        body: Body,
+        units: DisplayUnits,
+        force_scale: float,
+        moment_scale: float,
+        head: float,
+        stale: str | None,
+    ) -> None:
+        eq = balance.equivalent
+        cx, cy = balance.centroid
+        self.centroid.setPos(cx, cy)
+        gx, gy = balance.centre_of_gravity
+        self.cog.setPos(gx, gy)
+        self.cog.setVisible(math.hypot(gx - cx, gy - cy) > 1e-6 * max(body.length, 1.0))
+        colour = style.STALE if stale else None
+        fx, fy = eq.force
+        length = math.hypot(fx, fy) * force_scale
+        self.net.set_color(colour or style.NET_FORCE)
+        if eq.kind == "force":
+            tip = (cx + fx * force_scale, cy + fy * force_scale)
+            self.net.set_geometry((cx, cy), tip, head * 1.4)
+            self.net.setVisible(length > 1e-6)
+            self.net_label.setPos(*tip)
+            self.net_label.set_text(f"net force {units.show(eq.magnitude, 'force')}")
+            self.net_label.setVisible(True)
+        else:
+            self.net.setVisible(False)
+            self.net_label.setVisible(False)
+        # yaw moment: the arc sweeps in proportion to |M| against the fleet's largest moment
+        m = eq.moment
+        # square root: small moments still show, large ones do not wrap round
+        frac = math.sqrt(min(1.0, abs(m) / moment_scale)) if moment_scale > 0 else 0.0
+        tol = 1e-6 * max(moment_scale, 1.0)
+        radius = 0.18 * body.length
+        self.moment.set_color(colour or style.MOMENT)
+        if abs(m) > tol:
+            sweep = math.copysign(30.0 + 270.0 * frac, m)
+            start = 180.0 - sweep / 2  # centred astern of the centroid, clear of most arrows
+            r = radius * (0.7 + 0.5 * frac)
+            self.moment.set_geometry((cx, cy), r, start, sweep, head * 1.2)
+            self.moment.setVisible(True)
+            self.moment_label.setPos(cx - r, cy)
+            u = units.unit("moment")
+            self.moment_label.set_text(
+                f"yaw {units.value(m, 'moment'):+,.0f} {label(u)}\n{turning_words(m)}"
+            )
+            self.moment_label.setVisible(True)
+        else:
+            self.moment.setVisible(False)
+            self.moment_label.setVisible(False)
+        # the equivalent force's line of action, across the board
+        if eq.kind == "force" and eq.point is not None and eq.direction is not None:
+            px, py = eq.point
+            ux, uy = eq.direction
+            reach = 3.0 * (body.length + body.beam)
+            self.action.setLine(
+                QLineF(px - ux * reach, py - uy * reach, px + ux * reach, py + uy * reach)
+            )
+            self.action.setVisible(True)
+            self.action.setPen(style.pen(colour or style.LINE_OF_ACTION, 1.4, Qt.PenStyle.DashLine))
+            if balance.centreline_x is not None and abs(balance.centreline_x) < 10 * max(
+                body.length, 1
+            ):
+                self.crossing.setPos(balance.centreline_x, 0.0)
+                self.crossing.setVisible(True)
+                self.cross_label.setPos(balance.centreline_x, 0.0)
+                self.cross_label.set_text(
+                    f"line of action crosses centreline\nat x = {units.show(balance.centreline_x, 'length')}"
+                )
+                self.cross_label.setVisible(True)
+            else:
+                self.crossing.setVisible(False)
+                self.cross_label.setVisible(False)
+        else:
+            self.action.setVisible(False)
+            self.crossing.setVisible(False)
+            self.cross_label.setVisible(False)
+        self.state.setPos(cx, cy)
+        if eq.kind == "couple":
+            self.state.set_text("pure couple: no single equivalent force")
+        elif eq.kind == "balanced":
+            self.state.set_text("balanced: no net force, no yaw moment")
+        else:
+            self.state.set_text("")
+        self.state.setVisible(eq.kind != "force")
+        self.stale.setPos(cx, cy)
+        self.stale.set_text(f"STALE: {stale}" if stale else "")
+        self.stale.setVisible(bool(stale))
+        self._update_loads(balance, units, force_scale, head)
+
+    def _update_loads(
+        self, balance: Balance, units: DisplayUnits, scale: float, head: float
+    ) -> None:
+        while len(self.loads) > len(balance.loads):
+            for item in self.loads.pop():
+                item.setParentItem(None)
+                if item.scene() is not None:
+                    item.scene().removeItem(item)
+        while len(self.loads) < len(balance.loads):
+            a = Arrow(style.LOAD_FORCE, 3.0, self.root)
+            a.setZValue(Z_FORCE)
+            lab = Label(
+                "", self.root, style.LOAD_FORCE, style.label_font(8.5, True), (0, -12), "centre"
+            )
+            lab.setZValue(Z_LABEL)
+            self.loads.append((a, lab))
+        for (a, lab), ld in zip(self.loads, balance.loads, strict=True):
+            px, py = ld.point
+            fx, fy = ld.force
+            start = (px - fx * scale, py - fy * scale)  # a load is drawn arriving at its point
+            a.set_geometry(start, (px, py), head)
+            lab.setPos(*start)
+            lab.set_text(f"{ld.name} {units.show(math.hypot(fx, fy), 'force')}")
+
+    def hide(self) -> None:
+        for item in (
+            self.net,
+            self.moment,
+            self.action,
+            self.crossing,
+            self.net_label,
+            self.moment_label,
+            self.cross_label,
+            self.state,
+            self.stale,
+        ):
+            item.setVisible(False)
+
+
+TugText = Callable[[TugShare], str]
+
+
+class BodyDrawing:
+    """Everything about one body, under one root placed by the body's pose."""
+
+    def __init__(self, scene: QGraphicsScene, name: str) -> None:
+        self.name = name
+        self.root = Root()
+        scene.addItem(self.root)
+        self.hulls: dict[str, HullDrawing] = {}
+        self.tugs: dict[str, TugDrawing] = {}
+        self.balance = BalanceDrawing(self.root)
+        self.body: Body | None = None
+        self._pose: BodyPose | None = None
+
+    def set_pose(self, pose: BodyPose, site_angle_deg: float) -> None:
+        if pose == self._pose:
+            return
+        self._pose = pose
+        self.root.setPos(pose.x, pose.y)
+        self.root.setRotation(site_angle_deg)
+        for h in self.hulls.values():
+            h.refresh_screen_angles()
+
+    def set_body(self, body: Body) -> None:
+        self.body = body
+        names = {m.hull.name for m in body.members}
+        for name in list(self.hulls):
+            if name not in names:
+                d = self.hulls.pop(name)
+                d.frame.setParentItem(None)
+                if d.frame.scene() is not None:
+                    d.frame.scene().removeItem(d.frame)
+        for m in body.members:
+            if m.hull.name in self.hulls:
+                self.hulls[m.hull.name].set_member(m)
+            else:
+                self.hulls[m.hull.name] = HullDrawing(self.root, m)
+
+    def set_tugs(
+        self,
+        balance: Balance | None,
+        points: dict[str, tuple[tuple[float, float], tuple[float, float]]],
+        force_scale: float,
+        head: float,
+        text: TugText,
+    ) -> None:
+        shares = balance.shares if balance is not None else ()
+        names = {s.tug for s in shares}
+        for name in list(self.tugs):
+            if name not in names:
+                self.tugs.pop(name).remove()
+        for s in shares:
+            d = self.tugs.get(s.tug)
+            if d is None:
+                d = self.tugs[s.tug] = TugDrawing(self.root, s.tug)
+            point, direction = points[s.tug]
+            d.update(s, point, direction, force_scale, head, text(s))
+
+    def remove(self) -> None:
+        if self.root.scene() is not None:
+            self.root.scene().removeItem(self.root)

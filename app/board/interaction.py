@@ -1,0 +1,594 @@
+"""Editing the board with the mouse and the keys.
+
+Tools: ``select`` (drag tugs, slide points, move vertices; double-click an edge to
+insert a vertex; Delete removes the selection), ``draw`` (click vertices, click the
+first one again, double-click or press Enter to close; Backspace takes one back),
+``line_point`` and ``push_point`` (click the hull edge; the point snaps to it).
+
+Keys on a selected tug: + / - change its setting by 1 %, Page Up / Page Down by 10 %,
+the wheel over it by 5 % a notch; arrow keys nudge the selection 1 m (Shift: 10 m,
+vertices and points 0.5 m / 5 m). Consecutive nudges or steps of one item are one
+undo step. Every drag previews on every mouse move and records one undo step on
+release.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, replace
+from typing import TYPE_CHECKING
+
+from PySide6.QtCore import QPointF, Qt
+from PySide6.QtGui import QPainterPath, QTransform
+from PySide6.QtWidgets import QGraphicsPathItem
+
+from app.board import style
+from app.board.items import ROLE
+from app.board.poses import pose_in
+from app.controller import BodyResult
+from app.edits import hulls as hull_edits
+from app.edits import tugs as tug_edits
+from core.balance import analyse_layout, tug_layout
+from core.errors import OutlineError, TowboardError
+from core.hull import Hull
+from core.outlines import validate_outline
+from core.plan import BodyPose
+from core.tugs import Placement
+
+if TYPE_CHECKING:
+    from app.board.scene import BoardScene
+
+TOOLS = ("select", "draw", "line_point", "push_point")
+SNAP_PX = 14.0  # how near the hull edge a click must be to place a point, px
+EDGE_PX = 7.0  # how near an edge a double-click inserts a vertex, px
+
+
+@dataclass
+class _TugDrag:
+    body: str
+    index: int
+    placement: Placement
+    grab: tuple[float, float]  # from the tug's reference position to the grab point, body frame
+    result: BodyResult
+
+
+@dataclass
+class _FittingDrag:
+    hull: str
+    name: str
+
+
+@dataclass
+class _VertexDrag:
+    hull: str
+    index: int
+    moved: bool = False
+
+
+class Interaction:
+    """Mouse and key handling of one BoardScene (kept apart from the drawing)."""
+
+    def __init__(self, scene: BoardScene) -> None:
+        self.scene = scene
+        self.tool = "select"
+        self.drag: _TugDrag | _FittingDrag | _VertexDrag | None = None
+        self.draft: list[tuple[float, float]] = []  # site points of an outline being drawn
+        self._draft_item: QGraphicsPathItem | None = None
+        self._draft_target: str | None = None  # hull whose outline the draft replaces
+
+    @property
+    def controller(self):  # type: ignore[no-untyped-def]
+        return self.scene.controller
+
+    def _say(self, text: str) -> None:
+        self.controller.message.emit(text)
+
+    # -- tools --------------------------------------------------------------------
+    def set_tool(self, tool: str) -> None:
+        if tool not in TOOLS:
+            raise ValueError(f"unknown board tool {tool!r}")
+        if tool == self.tool:
+            return
+        self._clear_draft()
+        self.tool = tool
+        if tool == "draw":
+            self._draft_target = self.scene.selected_hull()
+            if self._draft_target:
+                self._say(
+                    f"Click the vertices of the new outline of {self._draft_target}; "
+                    "click the first vertex or press Enter to close, Esc to stop."
+                )
+            else:
+                self._say(
+                    "Click the vertices of a new hull (bow to the east, to the right); "
+                    "click the first vertex or press Enter to close, Esc to stop."
+                )
+        elif tool in ("line_point", "push_point"):
+            kind = "line point" if tool == "line_point" else "push point"
+            self._say(f"Click on the hull's edge to add a {kind}; Esc to stop.")
+        self.scene.tool_changed.emit(tool)
+
+    # -- geometry helpers ---------------------------------------------------------------
+    def _ppm(self) -> float:
+        return self.scene.pixels_per_metre()
+
+    def _hit(self, pos: QPointF) -> tuple[object, ...] | None:
+        views = self.scene.views()
+        t = views[0].transform() if views else QTransform()
+        for item in self.scene.items(
+            pos, Qt.ItemSelectionMode.IntersectsItemShape, Qt.SortOrder.DescendingOrder, t
+        ):
+            role = item.data(ROLE)
+            if role:
+                return tuple(role)
+        return None
+
+    def _nearest_edge(self, pos: QPointF) -> tuple[str, tuple[float, float], float, int] | None:
+        """(hull, hull-frame foot point, distance in px, edge) of the nearest hull edge."""
+        best = None
+        for d in self.scene.bodies.values():
+            for name, h in d.hulls.items():
+                if h.hull is None:
+                    continue
+                local = h.frame.mapFromScene(pos)
+                q = h.hull.geometry.nearest(local.x(), local.y())
+                px = q.distance * self._ppm()
+                if best is None or px < best[2]:
+                    best = (name, (q.x, q.y), px, q.edge)
+        return best
+
+    def _hull_frame_point(self, hull: str, pos: QPointF) -> tuple[float, float]:
+        for d in self.scene.bodies.values():
+            if hull in d.hulls:
+                p = d.hulls[hull].frame.mapFromScene(pos)
+                return (p.x(), p.y())
+        raise KeyError(hull)
+
+    def _body_of_hull(self, hull: str) -> str:
+        for name, d in self.scene.bodies.items():
+            if hull in d.hulls:
+                return name
+        raise KeyError(hull)
+
+    # -- mouse --------------------------------------------------------------------
+    def press(self, event) -> bool:  # type: ignore[no-untyped-def]
+        if event.button() != Qt.MouseButton.LeftButton or self.scene.fixed_stage is not None:
+            return False
+        pos = event.scenePos()
+        if self.tool == "draw":
+            self._draft_click(pos)
+            return True
+        if self.tool in ("line_point", "push_point"):
+            self._add_point(pos, "line" if self.tool == "line_point" else "push")
+            return True
+        hit = self._hit(pos)
+        if hit is None:
+            self.scene.select(None)
+            return False
+        kind = hit[0]
+        if kind == "tug":
+            self._start_tug_drag(str(hit[1]), pos)
+        elif kind == "fitting":
+            self.scene.select(hit)
+            self.drag = _FittingDrag(str(hit[1]), str(hit[2]))
+        elif kind == "vertex":
+            self.scene.select(hit)
+            self.drag = _VertexDrag(str(hit[1]), int(hit[2]))  # type: ignore[call-overload]
+        elif kind == "hull":
+            self.scene.select(hit)
+        return True
+
+    def move(self, event) -> bool:  # type: ignore[no-untyped-def]
+        pos = event.scenePos()
+        if self.tool == "draw" and self.draft:
+            self._show_draft(pos)
+            return True
+        drag = self.drag
+        if drag is None:
+            return False
+        if isinstance(drag, _TugDrag):
+            self._move_tug(drag, pos)
+        elif isinstance(drag, _FittingDrag):
+            self._move_fitting(drag, pos)
+        else:
+            self._move_vertex(drag, pos)
+        return True
+
+    def release(self, event) -> bool:  # type: ignore[no-untyped-def]
+        drag, self.drag = self.drag, None
+        if drag is None:
+            return False
+        c = self.controller
+        if isinstance(drag, _TugDrag):
+            c.commit_preview(f"Move {drag.placement.tug}")
+        elif isinstance(drag, _FittingDrag):
+            c.commit_preview(f"Slide {drag.name}")
+        else:
+            if self.scene.stale:
+                self._say(f"Outline not changed there: {self.scene.stale}")
+            self._clear_invalid()
+            c.commit_preview(f"Move vertex {drag.index} of {drag.hull}")
+        return True
+
+    def double_click(self, event) -> bool:  # type: ignore[no-untyped-def]
+        if event.button() != Qt.MouseButton.LeftButton:
+            return False
+        if self.tool == "draw":
+            if len(self.draft) >= 3:
+                self.close_draft()
+            return True
+        if self.tool != "select":
+            return False
+        pos = event.scenePos()
+        edge = self._nearest_edge(pos)
+        if edge is None or edge[2] > EDGE_PX:
+            return False
+        hull_name, foot, _, k = edge
+        hull = self.controller.project.hull(hull_name)
+        try:
+            new = hull_edits.inserted_vertex(hull, k, foot)
+        except TowboardError as e:
+            self._say(str(e))
+            return True
+        self.controller.apply(
+            self.controller.project.with_hull(new), f"Insert vertex in {hull_name}"
+        )
+        self.scene.select(("vertex", hull_name, k + 1))
+        return True
+
+    # -- tug drag -----------------------------------------------------------------
+    def _start_tug_drag(self, tug: str, pos: QPointF) -> None:
+        self.scene.select(("tug", tug))
+        for name, r in self.controller.results().items():
+            for i, p in enumerate(r.layout.placements):
+                if p.tug == tug:
+                    local = self.scene.bodies[name].root.mapFromScene(pos)
+                    if r.layout.is_push[i]:
+                        grab = (0.0, 0.0)  # a push tug follows the cursor round its point
+                    else:
+                        px, py = r.layout.positions[i]
+                        grab = (local.x() - px, local.y() - py)
+                    self.drag = _TugDrag(name, i, p, grab, r)
+                    return
+
+    def _move_tug(self, drag: _TugDrag, pos: QPointF) -> None:
+        c = self.controller
+        d = self.scene.bodies[drag.body]
+        local = d.root.mapFromScene(pos)
+        target = (local.x() - drag.grab[0], local.y() - drag.grab[1])
+        r = drag.result
+        placement = tug_edits.dragged_placement(r.body, drag.placement, target)
+        project = c.project
+        stage = c.stage
+        if stage is None:
+            return
+        stage = stage.with_placement(placement)
+        project = c.with_stage(stage, project)
+        # the fast path: the one tug's row of the arrays is made again, the rest are kept
+        one = tug_layout(project, replace(stage, placements=(placement,)), r.body)
+        lay = r.layout
+        i = drag.index
+        points, dirs, posn = lay.points.copy(), lay.directions.copy(), lay.positions.copy()
+        rated, usable, swl = lay.rated_n.copy(), lay.usable_n.copy(), lay.swl_n.copy()
+        points[i], dirs[i], posn[i] = one.points[0], one.directions[0], one.positions[0]
+        rated[i], usable[i], swl[i] = one.rated_n[0], one.usable_n[0], one.swl_n[0]
+        placements = list(lay.placements)
+        placements[i] = placement
+        layout = replace(
+            lay,
+            placements=tuple(placements),
+            points=points,
+            directions=dirs,
+            positions=posn,
+            rated_n=rated,
+            usable_n=usable,
+            swl_n=swl,
+        )
+        balance = analyse_layout(stage, r.body, layout, project.units, r.loads)
+        results = dict(c.results())
+        results[drag.body] = BodyResult(r.body, layout, r.loads, balance)
+        drag.result = results[drag.body]
+        drag.placement = placement
+        c.preview(project, results)
+
+    # -- fitting and vertex drags ---------------------------------------------------------
+    def _move_fitting(self, drag: _FittingDrag, pos: QPointF) -> None:
+        c = self.controller
+        p = self._hull_frame_point(drag.hull, pos)
+        hull = c.project.hull(drag.hull)
+        c.preview(c.project.with_hull(hull_edits.slid_fitting(hull, drag.name, p)))
+
+    def _move_vertex(self, drag: _VertexDrag, pos: QPointF) -> None:
+        c = self.controller
+        p = self._hull_frame_point(drag.hull, pos)
+        hull = c.project.hull(drag.hull)
+        try:
+            new = hull_edits.moved_vertex(hull, drag.index, p)
+        except OutlineError as e:
+            outline = hull_edits.moved_vertex_outline(hull, drag.index, p)
+            self._show_invalid(drag.hull, list(outline), str(e).split(": ", 1)[-1])
+            return
+        self._clear_invalid()
+        c.preview(c.project.with_hull(new))
+
+    def _show_invalid(self, hull: str, outline: list[tuple[float, float]], why: str) -> None:
+        self.scene.stale = f"outline invalid ({why}); balance shown is the last valid one"
+        for d in self.scene.bodies.values():
+            if hull in d.hulls:
+                d.hulls[hull].show_invalid(outline)
+        self.scene.refresh()
+
+    def _clear_invalid(self) -> None:
+        if self.scene.stale is None:
+            return
+        self.scene.stale = None
+        for d in self.scene.bodies.values():
+            for h in d.hulls.values():
+                h.show_invalid(None)
+        self.scene.refresh()
+
+    # -- adding points ----------------------------------------------------------------
+    def _add_point(self, pos: QPointF, kind: str) -> None:
+        edge = self._nearest_edge(pos)
+        if edge is None:
+            self._say("There is no hull to put a point on; draw or generate one first.")
+            return
+        hull_name, foot, px, _ = edge
+        if px > SNAP_PX:
+            self._say("Click on the hull's edge (nearer the outline) to add a point there.")
+            return
+        hull = self.controller.project.hull(hull_name)
+        new = hull_edits.added_fitting(hull, kind, foot)  # type: ignore[arg-type]
+        name = next(f.name for f in new.fittings if f.name not in {g.name for g in hull.fittings})
+        self.controller.apply(self.controller.project.with_hull(new), f"Add {name} to {hull_name}")
+        self.scene.select(("fitting", hull_name, name))
+        self._say(f"Added {name} on {hull_name}.")
+
+    # -- drawing an outline --------------------------------------------------------------
+    def _draft_click(self, pos: QPointF) -> None:
+        p = (pos.x(), pos.y())
+        if len(self.draft) >= 3:
+            fx, fy = self.draft[0]
+            if math.hypot(fx - p[0], fy - p[1]) * self._ppm() <= 10.0:
+                self.close_draft()
+                return
+        if (
+            self.draft
+            and math.hypot(self.draft[-1][0] - p[0], self.draft[-1][1] - p[1]) * self._ppm() < 2
+        ):
+            return  # the second click of a double-click lands on the same spot
+        self.draft.append(p)
+        self._show_draft(pos)
+
+    def _show_draft(self, pos: QPointF | None) -> None:
+        if self._draft_item is None:
+            self._draft_item = QGraphicsPathItem()
+            self._draft_item.setPen(style.pen(style.HULL_SELECTED, 2.0, Qt.PenStyle.DashLine))
+            self._draft_item.setZValue(50)
+            self.scene.addItem(self._draft_item)
+        path = QPainterPath()
+        if self.draft:
+            path.moveTo(*self.draft[0])
+            for p in self.draft[1:]:
+                path.lineTo(*p)
+            if pos is not None:
+                path.lineTo(pos)
+            r = 4.0 / self._ppm()
+            for p in self.draft:
+                path.addEllipse(QPointF(*p), r, r)
+        self._draft_item.setPath(path)
+
+    def _clear_draft(self) -> None:
+        self.draft = []
+        if self._draft_item is not None:
+            self.scene.removeItem(self._draft_item)
+            self._draft_item = None
+
+    def close_draft(self) -> None:
+        """Close the outline being drawn and make it a hull's outline."""
+        pts = list(self.draft)
+        if len(pts) < 3:
+            self._say("An outline needs at least three vertices.")
+            return
+        c = self.controller
+        project = c.project
+        try:
+            validate_outline(pts, "drawn outline")
+            target = self._draft_target
+            if target is not None and any(h.name == target for h in project.hulls):
+                hull = project.hull(target)
+                local = [self._hull_frame_point(target, QPointF(*p)) for p in pts]
+                project = project.with_hull(hull.with_outline(tuple(local)))
+                text = f"Draw outline of {target}"
+                name = target
+            else:
+                project, name = self._new_hull(project, pts)
+                text = f"Draw hull {name}"
+        except TowboardError as e:
+            self._say(f"Cannot use that outline: {e}")
+            return
+        self._clear_draft()
+        c.apply(project, text)
+        self.tool = "select"
+        self.scene.tool_changed.emit("select")
+        self.scene.select(("hull", name))
+        self._say(f"{text}: done.")
+
+    def _new_hull(self, project, pts):  # type: ignore[no-untyped-def]
+        names = {h.name for h in project.hulls} | {g.name for g in project.groups}
+        n = 1
+        while f"Hull {n}" in names:
+            n += 1
+        name = f"Hull {n}"
+        # the reference point goes to the aft end on the centreline (the middle of the beam)
+        xs, ys = [p[0] for p in pts], [p[1] for p in pts]
+        ox, oy = min(xs), 0.5 * (min(ys) + max(ys))
+        hull = Hull(name, tuple((x - ox, y - oy) for x, y in pts))
+        project, stage = self.controller.ensure_stage(project)
+        stage = hull_edits.with_pose(stage, BodyPose(name, ox, oy, 90.0))
+        project = project.with_hull(hull)
+        project = self.controller.with_stage(stage, project)
+        return project, name
+
+    # -- keys -----------------------------------------------------------------------
+    def key(self, event) -> bool:  # type: ignore[no-untyped-def]
+        k = event.key()
+        shift = bool(event.modifiers() & Qt.KeyboardModifier.ShiftModifier)
+        if k == Qt.Key.Key_Escape:
+            if self.drag is not None:
+                self.drag = None
+                self._clear_invalid()
+                self.controller.cancel_preview()
+            elif self.tool != "select":
+                self.set_tool("select")
+            else:
+                self.scene.select(None)
+            return True
+        if self.tool == "draw":
+            if k in (Qt.Key.Key_Return, Qt.Key.Key_Enter):
+                self.close_draft()
+                return True
+            if k == Qt.Key.Key_Backspace and self.draft:
+                self.draft.pop()
+                self._show_draft(None)
+                return True
+            return False
+        sel = self.scene.selection
+        if sel is None:
+            return False
+        if sel[0] == "tug":
+            steps = {
+                Qt.Key.Key_Plus: 0.01,
+                Qt.Key.Key_Equal: 0.01,
+                Qt.Key.Key_Minus: -0.01,
+                Qt.Key.Key_PageUp: 0.10,
+                Qt.Key.Key_PageDown: -0.10,
+            }
+            if k in steps:
+                self.step_setting(str(sel[1]), steps[k])
+                return True
+        arrows = {
+            Qt.Key.Key_Left: (-1.0, 0.0),
+            Qt.Key.Key_Right: (1.0, 0.0),
+            Qt.Key.Key_Up: (0.0, 1.0),
+            Qt.Key.Key_Down: (0.0, -1.0),
+        }
+        if k in arrows:
+            dx, dy = arrows[k]
+            self.nudge(dx, dy, big=shift)
+            return True
+        if k in (Qt.Key.Key_Delete, Qt.Key.Key_Backspace):
+            self.delete_selection()
+            return True
+        return False
+
+    def step_setting(self, tug: str, delta: float) -> None:
+        """Change a tug's setting by ``delta`` (fraction), kept within 0..100 %."""
+        c = self.controller
+        stage = c.stage
+        if stage is None:
+            return
+        try:
+            p = stage.placement(tug)
+        except TowboardError:
+            return
+        value = tug_edits.clamp_setting(round((p.setting + delta) * 1000) / 1000)
+        if value == p.setting:
+            return
+        c.apply(
+            c.with_stage(stage.with_placement(p.with_setting(value))),
+            f"Setting of {tug}",
+            merge_key=("setting", tug),
+        )
+
+    def nudge(self, dx: float, dy: float, big: bool = False) -> None:
+        """Move the selection by (dx, dy) screen steps (site east, north)."""
+        sel = self.scene.selection
+        c = self.controller
+        if sel is None:
+            return
+        try:
+            if sel[0] == "tug":
+                self._nudge_tug(str(sel[1]), dx * (10 if big else 1), dy * (10 if big else 1))
+            elif sel[0] == "vertex":
+                step = 5.0 if big else 0.5
+                hull = c.project.hull(str(sel[1]))
+                i = int(sel[2])  # type: ignore[call-overload]
+                x, y = self._site_step_in_hull(hull.name, dx * step, dy * step)
+                vx, vy = hull.outline[i]
+                new = hull_edits.moved_vertex(hull, i, (vx + x, vy + y))
+                c.apply(
+                    c.project.with_hull(new),
+                    f"Nudge vertex {i} of {hull.name}",
+                    merge_key=("nudge", "vertex", hull.name, i),
+                )
+            elif sel[0] == "fitting":
+                step = 5.0 if big else 0.5
+                hull = c.project.hull(str(sel[1]))
+                f = hull.fitting(str(sel[2]))
+                x, y = self._site_step_in_hull(hull.name, dx * step, dy * step)
+                new = hull_edits.slid_fitting(hull, f.name, (f.x + x, f.y + y))
+                if new.fitting(f.name) == f:  # the step ran into the outline: slide along it
+                    new = hull_edits.slid_fitting_by(hull, f.name, step if dx + dy > 0 else -step)
+                c.apply(
+                    c.project.with_hull(new),
+                    f"Nudge {f.name}",
+                    merge_key=("nudge", "fitting", hull.name, f.name),
+                )
+        except OutlineError as e:
+            self._say(f"Not moved: {e}")
+
+    def _site_step_in_hull(self, hull: str, dx: float, dy: float) -> tuple[float, float]:
+        d = self.scene.bodies[self._body_of_hull(hull)].hulls[hull].frame
+        a = d.mapFromScene(QPointF(0.0, 0.0))
+        b = d.mapFromScene(QPointF(dx, dy))
+        return (b.x() - a.x(), b.y() - a.y())
+
+    def _nudge_tug(self, tug: str, dx: float, dy: float) -> None:
+        c = self.controller
+        stage = c.stage
+        for name, r in c.results().items():
+            for i, p in enumerate(r.layout.placements):
+                if p.tug != tug or stage is None:
+                    continue
+                root = self.scene.bodies[name].root
+                a, b = root.mapFromScene(QPointF(0, 0)), root.mapFromScene(QPointF(dx, dy))
+                if r.layout.is_push[i]:
+                    # a push tug swings about its point: move its stand-off position
+                    base = r.layout.points[i] - r.layout.directions[i] * 10.0
+                else:
+                    base = r.layout.positions[i]
+                target = (base[0] + b.x() - a.x(), base[1] + b.y() - a.y())
+                new = tug_edits.dragged_placement(r.body, p, target)
+                c.apply(
+                    c.with_stage(stage.with_placement(new)),
+                    f"Nudge {tug}",
+                    merge_key=("nudge", "tug", tug),
+                )
+                return
+
+    def delete_selection(self) -> None:
+        sel = self.scene.selection
+        c = self.controller
+        if sel is None:
+            return
+        try:
+            if sel[0] == "vertex":
+                hull = c.project.hull(str(sel[1]))
+                new = hull_edits.deleted_vertex(hull, int(sel[2]))  # type: ignore[call-overload]
+                c.apply(c.project.with_hull(new), f"Delete vertex {sel[2]} of {hull.name}")
+                self.scene.select(("hull", hull.name))
+            elif sel[0] == "fitting":
+                c.apply(
+                    hull_edits.without_fitting(c.project, str(sel[1]), str(sel[2])),
+                    f"Delete {sel[2]}",
+                )
+                self.scene.select(("hull", sel[1]))
+            elif sel[0] == "tug" and c.stage is not None:
+                c.apply(c.with_stage(c.stage.without_placement(str(sel[1]))), f"Let go {sel[1]}")
+                self.scene.select(None)
+        except TowboardError as e:
+            self._say(f"Not deleted: {e}")
+
+    def pose_of(self, body: str) -> BodyPose:
+        return pose_in(self.scene.stage(), body)

@@ -1,0 +1,402 @@
+"""Graphics items of the board. They draw what they are given; they compute no physics.
+
+Geometry is in the parent's frame (a body frame: x forward, y to port, metres). Items
+that must stay readable at every zoom (labels, marks, vertex handles) ignore the view's
+transformations and are sized in pixels.
+"""
+
+from __future__ import annotations
+
+import math
+
+from PySide6.QtCore import QPointF, QRectF, Qt
+from PySide6.QtGui import (
+    QBrush,
+    QColor,
+    QFont,
+    QFontMetricsF,
+    QPainter,
+    QPainterPath,
+    QPen,
+    QPolygonF,
+)
+from PySide6.QtWidgets import QGraphicsItem, QStyleOptionGraphicsItem, QWidget
+
+from app.board import style
+
+#: Key of the item data slot that says what an item stands for, e.g. ("tug", "Gannet").
+ROLE = 0
+
+IGNORES = QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations
+
+
+class Label(QGraphicsItem):
+    """Text on a light box, fixed in pixels; ``offset`` (px, y down) from its anchor."""
+
+    def __init__(
+        self,
+        text: str = "",
+        parent: QGraphicsItem | None = None,
+        color: QColor = style.TEXT,
+        font: QFont | None = None,
+        offset: tuple[float, float] = (8.0, -8.0),
+        align: str = "left",
+    ) -> None:
+        super().__init__(parent)
+        self.setFlag(IGNORES)
+        self._font = font or style.label_font()
+        self._color = color
+        self._offset = offset
+        self._align = align
+        self._lines: list[str] = []
+        self._rect = QRectF()
+        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+        self.set_text(text)
+
+    @property
+    def text(self) -> str:
+        return "\n".join(self._lines)
+
+    def set_text(self, text: str) -> None:
+        lines = text.split("\n") if text else []
+        if lines == self._lines:
+            return
+        self.prepareGeometryChange()
+        self._lines = lines
+        fm = QFontMetricsF(self._font)
+        w = max((fm.horizontalAdvance(s) for s in lines), default=0.0)
+        h = fm.height() * len(lines)
+        dx, dy = self._offset
+        if self._align == "right":
+            dx -= w + 6
+        elif self._align == "centre":
+            dx -= (w + 6) / 2
+        self._rect = QRectF(dx, dy - h / 2 - 2, w + 6, h + 4)
+        self.update()
+
+    def set_color(self, color: QColor) -> None:
+        if color != self._color:
+            self._color = color
+            self.update()
+
+    def boundingRect(self) -> QRectF:
+        return self._rect
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        if not self._lines:
+            return
+        painter.setPen(Qt.PenStyle.NoPen)
+        painter.setBrush(style.LABEL_BG)
+        painter.drawRoundedRect(self._rect, 3, 3)
+        painter.setPen(self._color)
+        painter.setFont(self._font)
+        fm = QFontMetricsF(self._font)
+        y = self._rect.top() + 2 + fm.ascent()
+        for s in self._lines:
+            painter.drawText(QPointF(self._rect.left() + 3, y), s)
+            y += fm.height()
+
+
+class Mark(QGraphicsItem):
+    """A point symbol fixed in pixels: centroid, centre of gravity, crossing, reference."""
+
+    def __init__(self, kind: str, parent: QGraphicsItem | None = None, size: float = 14.0) -> None:
+        super().__init__(parent)
+        self.setFlag(IGNORES)
+        self.kind = kind
+        self.size = size
+        self.color = style.TEXT
+        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+
+    def boundingRect(self) -> QRectF:
+        s = self.size / 2 + 2
+        return QRectF(-s, -s, 2 * s, 2 * s)
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        r = self.size / 2
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        painter.setPen(QPen(self.color, 1.5))
+        if self.kind == "centroid":  # ring with a cross through it
+            painter.setBrush(Qt.BrushStyle.NoBrush)
+            painter.drawEllipse(QPointF(0, 0), r * 0.7, r * 0.7)
+            painter.drawLine(QPointF(-r, 0), QPointF(r, 0))
+            painter.drawLine(QPointF(0, -r), QPointF(0, r))
+        elif self.kind == "cog":  # quartered disc, the usual engineering symbol
+            rect = QRectF(-r * 0.8, -r * 0.8, r * 1.6, r * 1.6)
+            painter.setBrush(QColor("white"))
+            painter.drawEllipse(rect)
+            painter.setBrush(self.color)
+            painter.drawPie(rect, 0, 90 * 16)
+            painter.drawPie(rect, 180 * 16, 90 * 16)
+        elif self.kind == "crossing":  # diamond
+            painter.setBrush(QColor("white"))
+            painter.drawPolygon(
+                QPolygonF(
+                    [
+                        QPointF(0, -r * 0.8),
+                        QPointF(r * 0.8, 0),
+                        QPointF(0, r * 0.8),
+                        QPointF(-r * 0.8, 0),
+                    ]
+                )
+            )
+        elif self.kind == "reference":  # small square with a dot: the hull frame's origin
+            painter.setBrush(Qt.BrushStyle.NoBrush)
+            painter.drawRect(QRectF(-r * 0.5, -r * 0.5, r, r))
+            painter.setBrush(self.color)
+            painter.drawEllipse(QPointF(0, 0), 1.5, 1.5)
+
+
+class Handle(QGraphicsItem):
+    """A vertex handle of an outline, fixed in pixels."""
+
+    def __init__(self, parent: QGraphicsItem | None = None, size: float = 8.0) -> None:
+        super().__init__(parent)
+        self.setFlag(IGNORES)
+        self.size = size
+        self.selected = False
+
+    def boundingRect(self) -> QRectF:
+        s = self.size / 2 + 1
+        return QRectF(-s, -s, 2 * s, 2 * s)
+
+    def set_selected(self, on: bool) -> None:
+        if on != self.selected:
+            self.selected = on
+            self.update()
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        s = self.size / 2
+        painter.setPen(QPen(style.HULL_SELECTED, 1.2))
+        painter.setBrush(style.HULL_SELECTED if self.selected else QColor("white"))
+        painter.drawRect(QRectF(-s, -s, 2 * s, 2 * s))
+
+
+class FittingMark(QGraphicsItem):
+    """A line point (a bitt: ring with a dot) or a push point (a pad: a bar), in pixels."""
+
+    def __init__(self, kind: str, parent: QGraphicsItem | None = None) -> None:
+        super().__init__(parent)
+        self.setFlag(IGNORES)
+        self.kind = kind
+        self.selected = False
+        self.angle_deg = 0.0  # screen angle of the hull edge, for the push pad's bar
+
+    def boundingRect(self) -> QRectF:
+        return QRectF(-9, -9, 18, 18)
+
+    def set_selected(self, on: bool) -> None:
+        if on != self.selected:
+            self.selected = on
+            self.update()
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        edge = style.SELECTION if self.selected else QColor("white")
+        if self.selected:
+            painter.setPen(QPen(style.SELECTION, 2))
+            painter.setBrush(Qt.BrushStyle.NoBrush)
+            painter.drawEllipse(QPointF(0, 0), 8, 8)
+        if self.kind == "line":
+            painter.setPen(QPen(edge if self.selected else style.LINE_POINT, 1.5))
+            painter.setBrush(QColor("white"))
+            painter.drawEllipse(QPointF(0, 0), 4.5, 4.5)
+            painter.setBrush(style.LINE_POINT)
+            painter.drawEllipse(QPointF(0, 0), 2.0, 2.0)
+        else:
+            painter.rotate(self.angle_deg)
+            painter.setPen(QPen(style.PUSH_POINT, 1))
+            painter.setBrush(style.PUSH_POINT)
+            painter.drawRoundedRect(QRectF(-6, -2.5, 12, 5), 1.5, 1.5)
+
+
+class Arrow(QGraphicsItem):
+    """A straight arrow from ``start`` to ``end`` (parent frame, m), head sized in metres."""
+
+    def __init__(self, color: QColor, width: float, parent: QGraphicsItem | None = None) -> None:
+        super().__init__(parent)
+        self._pen = style.pen(color, width)
+        self._brush = QBrush(color)
+        self._shaft = QPainterPath()
+        self._head = QPolygonF()
+        self._rect = QRectF()
+        self._key: tuple[float, ...] | None = None
+        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+
+    def set_color(self, color: QColor) -> None:
+        if self._pen.color() != color:
+            self._pen.setColor(color)
+            self._brush = QBrush(color)
+            self.update()
+
+    def set_geometry(
+        self, start: tuple[float, float], end: tuple[float, float], head: float
+    ) -> None:
+        key = (start[0], start[1], end[0], end[1], head)
+        if key == self._key:
+            return
+        self._key = key
+        self.prepareGeometryChange()
+        dx, dy = end[0] - start[0], end[1] - start[1]
+        length = math.hypot(dx, dy)
+        self._shaft = QPainterPath()
+        self._head = QPolygonF()
+        if length < 1e-9:
+            self._rect = QRectF()
+            return
+        ux, uy = dx / length, dy / length
+        h = min(head, 0.6 * length)
+        w = 0.45 * h
+        bx, by = end[0] - ux * h, end[1] - uy * h
+        self._shaft.moveTo(*start)
+        self._shaft.lineTo(bx + ux * 0.2 * h, by + uy * 0.2 * h)
+        self._head = QPolygonF(
+            [
+                QPointF(*end),
+                QPointF(bx - uy * w, by + ux * w),
+                QPointF(bx + uy * w, by - ux * w),
+            ]
+        )
+        self._rect = (
+            self._shaft.boundingRect().united(self._head.boundingRect()).adjusted(-w, -w, w, w)
+        )
+        self.update()
+
+    def boundingRect(self) -> QRectF:
+        return self._rect
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        if self._head.isEmpty():
+            return
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        painter.setPen(self._pen)
+        painter.setBrush(Qt.BrushStyle.NoBrush)
+        painter.drawPath(self._shaft)
+        p = QPen(self._pen)
+        p.setWidthF(1.0)
+        painter.setPen(p)
+        painter.setBrush(self._brush)
+        painter.drawPolygon(self._head)
+
+
+class MomentArrow(QGraphicsItem):
+    """A curved arrow round ``centre``: ``sweep_deg`` > 0 counter-clockwise (seen from above)."""
+
+    def __init__(self, color: QColor, width: float, parent: QGraphicsItem | None = None) -> None:
+        super().__init__(parent)
+        self._pen = style.pen(color, width)
+        self._brush = QBrush(color)
+        self._path = QPainterPath()
+        self._head = QPolygonF()
+        self._rect = QRectF()
+        self._key: tuple[float, ...] | None = None
+        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+
+    def set_color(self, color: QColor) -> None:
+        if self._pen.color() != color:
+            self._pen.setColor(color)
+            self._brush = QBrush(color)
+            self.update()
+
+    def set_geometry(
+        self,
+        centre: tuple[float, float],
+        radius: float,
+        start_deg: float,
+        sweep_deg: float,
+        head: float,
+    ) -> None:
+        key = (centre[0], centre[1], radius, start_deg, sweep_deg, head)
+        if key == self._key:
+            return
+        self._key = key
+        self.prepareGeometryChange()
+        self._path = QPainterPath()
+        self._head = QPolygonF()
+        if abs(sweep_deg) < 1e-6 or radius <= 0:
+            self._rect = QRectF()
+            return
+        cx, cy = centre
+        n = max(8, int(abs(sweep_deg) / 4))
+        a0 = math.radians(start_deg)
+        # the head takes up the last part of the arc
+        head_angle = min(head / radius, abs(math.radians(sweep_deg)) * 0.5)
+        sign = 1.0 if sweep_deg > 0 else -1.0
+        a_end = a0 + math.radians(sweep_deg)
+        a_shaft = a_end - sign * head_angle * 0.8
+        for i in range(n + 1):
+            a = a0 + (a_shaft - a0) * i / n
+            pt = (cx + radius * math.cos(a), cy + radius * math.sin(a))
+            if i == 0:
+                self._path.moveTo(*pt)
+            else:
+                self._path.lineTo(*pt)
+        tip = (cx + radius * math.cos(a_end), cy + radius * math.sin(a_end))
+        base_a = a_end - sign * head_angle
+        w = 0.45 * head
+        bx, by = cx + radius * math.cos(base_a), cy + radius * math.sin(base_a)
+        rx, ry = math.cos(base_a), math.sin(base_a)  # radial unit at the head's base
+        self._head = QPolygonF(
+            [QPointF(*tip), QPointF(bx + rx * w, by + ry * w), QPointF(bx - rx * w, by - ry * w)]
+        )
+        self._rect = (
+            self._path.boundingRect().united(self._head.boundingRect()).adjusted(-w, -w, w, w)
+        )
+        self.update()
+
+    def boundingRect(self) -> QRectF:
+        return self._rect
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        if self._head.isEmpty():
+            return
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        painter.setPen(self._pen)
+        painter.setBrush(Qt.BrushStyle.NoBrush)
+        painter.drawPath(self._path)
+        p = QPen(self._pen)
+        p.setWidthF(1.0)
+        painter.setPen(p)
+        painter.setBrush(self._brush)
+        painter.drawPolygon(self._head)
+
+
+def polygon_path(
+    points: list[tuple[float, float]] | tuple[tuple[float, float], ...],
+) -> QPainterPath:
+    path = QPainterPath()
+    path.addPolygon(QPolygonF([QPointF(x, y) for x, y in points]))
+    path.closeSubpath()
+    return path
+
+
+def tug_polygon(length: float, beam: float) -> QPolygonF:
+    """A tug's plan shape, bow at +x, its towing point at the origin (aft of midships)."""
+    h = beam / 2
+    aft = -0.35 * length
+    fwd = 0.65 * length
+    shoulder = fwd - 0.3 * length
+    pts = [
+        (aft, -h * 0.85),
+        (aft + 0.08 * length, -h),
+        (shoulder, -h),
+        (fwd - 0.08 * length, -h * 0.45),
+        (fwd, 0.0),
+        (fwd - 0.08 * length, h * 0.45),
+        (shoulder, h),
+        (aft + 0.08 * length, h),
+        (aft, h * 0.85),
+    ]
+    return QPolygonF([QPointF(x, y) for x, y in pts])

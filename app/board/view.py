@@ -1,0 +1,144 @@
+"""The board's view: north up, zoom with the wheel round the cursor, pan, fit to hull."""
+
+from __future__ import annotations
+
+import math
+
+from PySide6.QtCore import QPointF, QRectF, Qt
+from PySide6.QtGui import QPainter, QTransform
+from PySide6.QtWidgets import QGraphicsView, QWidget
+
+from app.board.overlay import draw_north_arrow, draw_scale_bar
+from app.board.scene import BoardScene
+
+
+class BoardView(QGraphicsView):
+    """A view of a BoardScene with y flipped, so north is up and east to the right.
+
+    The wheel zooms round the cursor, except over the selected tug, where it changes
+    the tug's setting (5 % a notch). Drag empty water (or use the middle button) to pan.
+    """
+
+    def __init__(self, scene: BoardScene, parent: QWidget | None = None) -> None:
+        super().__init__(scene, parent)
+        self.board = scene
+        self.setRenderHint(QPainter.RenderHint.Antialiasing)
+        self.setRenderHint(QPainter.RenderHint.TextAntialiasing)
+        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorUnderMouse)
+        self.setResizeAnchor(QGraphicsView.ViewportAnchor.AnchorViewCenter)
+        self.setViewportUpdateMode(QGraphicsView.ViewportUpdateMode.SmartViewportUpdate)
+        self.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        self.setVerticalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        self.setFocusPolicy(Qt.FocusPolicy.StrongFocus)
+        self.setMouseTracking(True)
+        self.setMinimumSize(320, 240)
+        self.setTransform(QTransform.fromScale(1.0, -1.0))
+        self._pan: QPointF | None = None
+        self._fitted = False
+        self._wheel_rest = 0
+
+    # -- zoom and pan ---------------------------------------------------------------
+    def pixels_per_metre(self) -> float:
+        t = self.transform()
+        return math.hypot(t.m11(), t.m12())
+
+    def zoom(self, factor: float) -> None:
+        ppm = self.pixels_per_metre()
+        new = min(max(ppm * factor, 0.02), 200.0)
+        f = new / ppm
+        self.scale(f, f)
+
+    def fit_to_hull(self) -> None:
+        """Zoom so every body (with room for its tugs) fills the board."""
+        rect = self.board.fit_rect()
+        if rect.isNull() or self.viewport().width() < 10:
+            return
+        vw, vh = self.viewport().width(), self.viewport().height()
+        k = min(vw / rect.width(), vh / rect.height())
+        self.setTransform(QTransform.fromScale(k, -k))
+        self.centerOn(rect.center())
+        self._fitted = True
+
+    def showEvent(self, event) -> None:  # type: ignore[no-untyped-def]
+        super().showEvent(event)
+        if not self._fitted:
+            self.fit_to_hull()
+
+    def resizeEvent(self, event) -> None:  # type: ignore[no-untyped-def]
+        super().resizeEvent(event)
+        if not self._fitted or event.oldSize().width() <= 0:
+            self.fit_to_hull()
+
+    def wheelEvent(self, event) -> None:  # type: ignore[no-untyped-def]
+        tug = self.board.selected_tug()
+        if tug is not None and self._over_tug(event.position(), tug):
+            self._wheel_rest += event.angleDelta().y()
+            notches = int(self._wheel_rest / 120)
+            if notches:
+                self._wheel_rest -= notches * 120
+                self.board.interaction.step_setting(tug, 0.05 * notches)
+            event.accept()
+            return
+        steps = event.angleDelta().y() / 120.0
+        if steps:
+            self.zoom(1.2**steps)
+        event.accept()
+
+    def _over_tug(self, pos: QPointF, tug: str) -> bool:
+        for d in self.board.bodies.values():
+            t = d.tugs.get(tug)
+            if t is not None:
+                scene_pos = self.mapToScene(pos.toPoint())
+                local = t.glyph.mapFromScene(scene_pos)
+                return bool(t.glyph.contains(local))
+        return False
+
+    def mousePressEvent(self, event) -> None:  # type: ignore[no-untyped-def]
+        middle = event.button() == Qt.MouseButton.MiddleButton
+        if middle:
+            self._pan = event.position()
+            self.viewport().setCursor(Qt.CursorShape.ClosedHandCursor)
+            event.accept()
+            return
+        super().mousePressEvent(event)
+        if (
+            event.button() == Qt.MouseButton.LeftButton
+            and not event.isAccepted()
+            and self.board.tool == "select"
+        ):
+            self._pan = event.position()
+            self.viewport().setCursor(Qt.CursorShape.ClosedHandCursor)
+            event.accept()
+
+    def mouseMoveEvent(self, event) -> None:  # type: ignore[no-untyped-def]
+        if self._pan is not None:
+            d = event.position() - self._pan
+            self._pan = event.position()
+            self.horizontalScrollBar().setValue(self.horizontalScrollBar().value() - int(d.x()))
+            self.verticalScrollBar().setValue(self.verticalScrollBar().value() - int(d.y()))
+            event.accept()
+            return
+        super().mouseMoveEvent(event)
+
+    def mouseReleaseEvent(self, event) -> None:  # type: ignore[no-untyped-def]
+        if self._pan is not None:
+            self._pan = None
+            self.viewport().unsetCursor()
+            event.accept()
+            return
+        super().mouseReleaseEvent(event)
+
+    # -- on top: scale bar and north arrow ------------------------------------------------
+    def drawForeground(self, painter: QPainter, rect: QRectF) -> None:
+        painter.save()
+        painter.resetTransform()
+        h = self.viewport().height()
+        w = self.viewport().width()
+        draw_scale_bar(
+            painter,
+            QPointF(16, h - 14),
+            self.pixels_per_metre(),
+            self.board.controller.project.units,
+        )
+        draw_north_arrow(painter, QPointF(w - 36, 48))
+        painter.restore()

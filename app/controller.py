@@ -1,0 +1,294 @@
+"""The one controller of the window: the current project value, the stage shown, undo.
+
+Everything on screen reads :class:`Controller` and writes back through it:
+
+- ``controller.project`` is the current :class:`core.plan.Project` (a frozen value);
+  ``controller.stage_index`` / ``controller.stage`` the stage on the board (None when
+  the project has no stage).
+- ``controller.apply(new_project, text, merge_key=None)`` records one undoable edit.
+  Edits with the same ``merge_key`` pushed one after another merge into one undo step
+  (nudges, wheel steps of one tug).
+- ``controller.preview(new_project)`` shows a value live without recording it (a drag
+  in progress); ``controller.commit_preview(text)`` records the whole drag as one
+  undo step, ``controller.cancel_preview()`` puts the value from before the drag back.
+- ``changed`` is emitted whenever the value (or the stage shown) differs from before;
+  ``stage_changed(int)`` when another stage is shown; ``dirty_changed(bool)`` and
+  ``path_changed`` for the title bar.
+- ``controller.balances()`` is the balance of every body in the stage shown, computed
+  once per value by :func:`core.balance.analyse_layout`; other loads on a body (wind,
+  current) come from ``controller.load_providers``: callables
+  ``(project, stage, body) -> Sequence[core.balance.Load]`` that issue-4 code adds.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass, replace
+from pathlib import Path
+
+from PySide6.QtCore import QObject, Signal
+from PySide6.QtGui import QUndoCommand, QUndoStack
+
+from core.balance import Balance, Load, TugLayout, analyse_layout, tug_layout
+from core.bodies import Body, body_name_of_hull, body_of
+from core.plan import Project, Stage
+
+LoadProvider = Callable[[Project, Stage, Body], Sequence[Load]]
+
+
+@dataclass(frozen=True, slots=True)
+class BodyResult:
+    """One body in the stage shown: the body, its tugs as arrays, and its balance."""
+
+    body: Body
+    layout: TugLayout
+    loads: tuple[Load, ...]
+    balance: Balance
+
+
+_MERGE_IDS: dict[object, int] = {}
+
+
+def _merge_id(key: object) -> int:
+    """A stable small integer per merge key (QUndoCommand.id() must be an int)."""
+    return _MERGE_IDS.setdefault(key, 1000 + len(_MERGE_IDS))
+
+
+class ProjectCommand(QUndoCommand):
+    """Swap one project value for another (redo is safe when already applied)."""
+
+    def __init__(
+        self,
+        controller: Controller,
+        old: Project,
+        new: Project,
+        text: str,
+        merge_key: object | None = None,
+    ) -> None:
+        super().__init__(text)
+        self._controller = controller
+        self.old = old
+        self.new = new
+        self.merge_key = merge_key
+
+    def redo(self) -> None:
+        self._controller._set_project(self.new)
+
+    def undo(self) -> None:
+        self._controller._set_project(self.old)
+
+    def id(self) -> int:
+        return -1 if self.merge_key is None else _merge_id(self.merge_key)
+
+    def mergeWith(self, other: QUndoCommand) -> bool:
+        if not isinstance(other, ProjectCommand) or other.merge_key != self.merge_key:
+            return False
+        if self.merge_key is None:
+            return False
+        self.new = other.new
+        return True
+
+
+class Controller(QObject):
+    """Owns the project value, the stage shown, the file path and the undo stack."""
+
+    changed = Signal()
+    stage_changed = Signal(int)
+    dirty_changed = Signal(bool)
+    path_changed = Signal()
+    #: A message for the status bar (for example why an edit was refused).
+    message = Signal(str)
+
+    def __init__(self, project: Project | None = None, parent: QObject | None = None) -> None:
+        super().__init__(parent)
+        self._project = project if project is not None else Project()
+        self._stage_index = 0
+        self._path: Path | None = None
+        self._preview_base: Project | None = None
+        self._results: dict[str, BodyResult] | None = None
+        self._results_override: dict[str, BodyResult] | None = None
+        self.load_providers: list[LoadProvider] = []
+        self.undo_stack = QUndoStack(self)
+        self.undo_stack.cleanChanged.connect(lambda clean: self.dirty_changed.emit(not clean))
+
+    # -- reading ------------------------------------------------------------------
+    @property
+    def project(self) -> Project:
+        return self._project
+
+    @property
+    def stage_index(self) -> int:
+        return self._stage_index
+
+    @property
+    def stage(self) -> Stage | None:
+        stages = self._project.stages
+        if not stages:
+            return None
+        return stages[min(self._stage_index, len(stages) - 1)]
+
+    @property
+    def path(self) -> Path | None:
+        return self._path
+
+    @property
+    def dirty(self) -> bool:
+        return not self.undo_stack.isClean()
+
+    @property
+    def previewing(self) -> bool:
+        return self._preview_base is not None
+
+    # -- the balance ------------------------------------------------------------------
+    def loads_for(self, project: Project, stage: Stage, body: Body) -> list[Load]:
+        """Every non-tug load on ``body`` from the registered providers."""
+        out: list[Load] = []
+        for provider in self.load_providers:
+            out.extend(provider(project, stage, body))
+        return out
+
+    def results(self) -> dict[str, BodyResult]:
+        """Each body of the stage shown, by body name, with its balance (computed once)."""
+        if self._results_override is not None:
+            return self._results_override
+        if self._results is None:
+            self._results = self.compute_results(self._project, self.stage)
+        return self._results
+
+    def balances(self) -> dict[str, Balance]:
+        """The balance of each body in the stage shown, by body name."""
+        return {name: r.balance for name, r in self.results().items()}
+
+    def compute_results(self, project: Project, stage: Stage | None) -> dict[str, BodyResult]:
+        """Every body's result in ``stage`` of ``project`` (any stage, not only the one shown)."""
+        out: dict[str, BodyResult] = {}
+        if stage is None:
+            return out
+        for name in project.body_names():
+            body = body_of(project, name)
+            layout = tug_layout(project, stage, body)
+            loads = tuple(self.loads_for(project, stage, body))
+            balance = analyse_layout(stage, body, layout, project.units, loads)
+            out[name] = BodyResult(body, layout, loads, balance)
+        return out
+
+    def balance(self, body: str | None = None) -> Balance | None:
+        """The balance of ``body`` (default: the main body of the stage shown)."""
+        b = self.balances()
+        name = body if body is not None else self.main_body()
+        return b.get(name) if name is not None else None
+
+    def main_body(self) -> str | None:
+        """The body the stage's first tug works on, else the first body."""
+        names = self._project.body_names()
+        if not names:
+            return None
+        stage = self.stage
+        if stage is not None and stage.placements:
+            try:
+                return body_name_of_hull(self._project, stage.placements[0].hull)
+            except ValueError:
+                pass
+        return names[0]
+
+    # -- writing ------------------------------------------------------------------
+    def _set_project(self, project: Project, results: dict[str, BodyResult] | None = None) -> None:
+        if project is self._project and results is None:
+            return
+        self._project = project
+        self._results = None
+        self._results_override = results
+        if self._stage_index >= max(len(project.stages), 1):
+            self._stage_index = max(len(project.stages) - 1, 0)
+            self.stage_changed.emit(self._stage_index)
+        self.changed.emit()
+
+    def apply(self, new: Project, text: str, merge_key: object | None = None) -> None:
+        """Record an edit to ``new`` as one undo step (merging with the same key)."""
+        if self._preview_base is not None:
+            base, self._preview_base = self._preview_base, None
+            self._results_override = None
+            self._project = base  # the command's redo puts ``new`` in place
+            self._results = None
+            if new == base:
+                self.changed.emit()
+                return
+        if new == self._project:
+            return
+        self.undo_stack.push(ProjectCommand(self, self._project, new, text, merge_key))
+
+    def preview(self, new: Project, results: dict[str, BodyResult] | None = None) -> None:
+        """Show ``new`` live (a drag in progress) without recording it.
+
+        ``results`` may carry the bodies' results already computed for ``new`` (the
+        fast drag path), so they are not computed twice.
+        """
+        if self._preview_base is None:
+            self._preview_base = self._project
+        self._set_project(new, results)
+
+    def commit_preview(self, text: str, merge_key: object | None = None) -> None:
+        """Record the previewed value (the whole drag) as one undo step."""
+        if self._preview_base is None:
+            return
+        base, new = self._preview_base, self._project
+        self._preview_base = None
+        self._results_override = None
+        if new == base:
+            return
+        self._project = base
+        self.undo_stack.push(ProjectCommand(self, base, new, text, merge_key))
+
+    def cancel_preview(self) -> None:
+        """Put back the value from before the preview."""
+        if self._preview_base is None:
+            return
+        base, self._preview_base = self._preview_base, None
+        self._results_override = None
+        self._set_project(base)
+
+    def set_stage_index(self, index: int) -> None:
+        n = len(self._project.stages)
+        index = max(0, min(index, n - 1)) if n else 0
+        if index == self._stage_index:
+            return
+        self._stage_index = index
+        self._results = None
+        self._results_override = None
+        self.stage_changed.emit(index)
+        self.changed.emit()
+
+    def reset(self, project: Project, path: Path | None = None) -> None:
+        """Start afresh on ``project`` (file new / open): clears undo and marks clean."""
+        self._preview_base = None
+        self._results_override = None
+        self.undo_stack.clear()
+        self._path = path
+        self._stage_index = 0
+        self._project = project
+        self._results = None
+        self.undo_stack.setClean()
+        self.path_changed.emit()
+        self.stage_changed.emit(0)
+        self.changed.emit()
+        self.dirty_changed.emit(False)
+
+    def mark_saved(self, path: Path) -> None:
+        self._path = path
+        self.undo_stack.setClean()
+        self.path_changed.emit()
+
+    # -- helpers for edits ------------------------------------------------------------
+    def with_stage(self, stage: Stage, project: Project | None = None) -> Project:
+        """``project`` (default: current) with the stage shown replaced by ``stage``."""
+        p = self._project if project is None else project
+        if not p.stages:
+            return replace(p, stages=(stage,))
+        return p.with_stage(stage, min(self._stage_index, len(p.stages) - 1))
+
+    def ensure_stage(self, project: Project) -> tuple[Project, Stage]:
+        """``project`` with at least one stage, and the stage shown."""
+        if project.stages:
+            return project, project.stages[min(self._stage_index, len(project.stages) - 1)]
+        stage = Stage("Stage 1")
+        return replace(project, stages=(stage,)), stage

@@ -1,0 +1,1 @@
+"""Edits of the project value, as pure functions (no Qt): each returns a new project."""

@@ -1,0 +1,1 @@
+"""Panels beside the board: balance, tugs, hull and units."""

@@ -1,0 +1,128 @@
+"""The balance panel: the core's numbers for the body shown, in the display units.
+
+Every figure comes from :class:`core.balance.Balance` as computed for the board; the
+panel only formats it. The frame and the sign convention are stated on the panel.
+"""
+
+from __future__ import annotations
+
+import math
+
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import QFormLayout, QLabel, QVBoxLayout, QWidget
+
+from app import formatting as fmt
+from app.controller import Controller
+from core.balance import Balance
+from core.frames import turning_words, walking_words
+
+FRAME_TEXT = (
+    "Hull frame: x forward (ahead), y to port, origin at the hull's reference point. "
+    "Yaw moment positive counter-clockwise seen from above (bow to port). "
+    "Bearings are relative, degrees clockwise from ahead (090 = starboard beam)."
+)
+
+FIELDS = (
+    ("body", "Body"),
+    ("net", "Net force"),
+    ("net_bearing", "  towards (relative)"),
+    ("net_ahead", "  ahead (+) / astern (−)"),
+    ("net_abeam", "  to port (+) / stbd (−)"),
+    ("net_words", "  the body"),
+    ("moment_centroid", "Yaw moment about the centroid"),
+    ("moment_cog", "Yaw moment about the centre of gravity"),
+    ("equivalent", "Equivalent force"),
+    ("offset", "  line of action from the centroid"),
+    ("crossing", "  crosses the centreline at"),
+)
+
+
+class BalancePanel(QWidget):
+    """Net force, yaw moments, the equivalent force and the warnings, for one body."""
+
+    def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.controller = controller
+        layout = QVBoxLayout(self)
+        form = QFormLayout()
+        form.setLabelAlignment(Qt.AlignmentFlag.AlignLeft)
+        self.fields: dict[str, QLabel] = {}
+        for key, text in FIELDS:
+            lab = QLabel("—")
+            lab.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+            lab.setObjectName(f"balance_{key}")
+            self.fields[key] = lab
+            form.addRow(text, lab)
+        layout.addLayout(form)
+        self.stale = QLabel("")
+        self.stale.setStyleSheet("color: #b71c1c; font-weight: bold;")
+        self.stale.setWordWrap(True)
+        self.stale.setVisible(False)
+        layout.addWidget(self.stale)
+        self.warnings = QLabel("")
+        self.warnings.setWordWrap(True)
+        self.warnings.setStyleSheet("color: #b71c1c;")
+        self.warnings.setObjectName("balance_warnings")
+        layout.addWidget(self.warnings)
+        note = QLabel(FRAME_TEXT)
+        note.setWordWrap(True)
+        note.setStyleSheet("color: #455a64; font-size: 9pt;")
+        layout.addWidget(note)
+        layout.addStretch(1)
+        self.balance: Balance | None = None
+        controller.changed.connect(self.refresh)
+        self.refresh()
+
+    def set_stale(self, why: str | None) -> None:
+        self.stale.setText(f"Stale: {why}" if why else "")
+        self.stale.setVisible(bool(why))
+
+    def refresh(self) -> None:
+        b = self.controller.balance()
+        self.balance = b
+        u = self.controller.project.units
+        f = self.fields
+        if b is None:
+            for lab in f.values():
+                lab.setText("—")
+            self.warnings.setText("")
+            return
+        eq = b.equivalent
+        scale = sum(abs(s.pull_n) for s in b.shares) + sum(math.hypot(*ld.force) for ld in b.loads)
+        tol_f = 1e-6 * (scale or 1.0)
+        r = self.controller.results().get(b.body)
+        tol_m = tol_f * max(r.body.length if r is not None else 1.0, 1.0)
+        f["body"].setText(f"{b.body} — stage {b.stage}")
+        f["net"].setText(fmt.value(u, eq.magnitude, "force"))
+        f["net_bearing"].setText(fmt.bearing(b.net_bearing_deg))
+        f["net_ahead"].setText(fmt.signed(u, eq.force[0], "force"))
+        f["net_abeam"].setText(fmt.signed(u, eq.force[1], "force"))
+        f["net_words"].setText(walking_words(eq.force[0], eq.force[1], tol_f))
+        f["moment_centroid"].setText(
+            f"{fmt.signed(u, eq.moment, 'moment')}  {turning_words(eq.moment, tol_m)}"
+        )
+        f["moment_cog"].setText(
+            f"{fmt.signed(u, b.moment_cog_nm, 'moment')}  {turning_words(b.moment_cog_nm, tol_m)}"
+        )
+        if eq.kind == "couple":
+            f["equivalent"].setText("a pure couple: no single force, no line of action")
+            f["offset"].setText("—")
+            f["crossing"].setText("—")
+        elif eq.kind == "balanced":
+            f["equivalent"].setText("balanced: no net force and no yaw moment")
+            f["offset"].setText("—")
+            f["crossing"].setText("—")
+        else:
+            f["equivalent"].setText(fmt.value(u, eq.magnitude, "force"))
+            off = eq.offset_m or 0.0
+            side = "right" if off > 0 else "left"
+            f["offset"].setText(
+                f"{fmt.value(u, abs(off), 'length')}, to the {side} of it looking along the force"
+            )
+            f["crossing"].setText(
+                "parallel to the centreline"
+                if b.centreline_x is None
+                else f"x = {fmt.value(u, b.centreline_x, 'length')} from the reference point"
+            )
+        notices = [n.message for n in b.notices]
+        self.warnings.setText("\n".join(f"⚠ {m}" for m in notices))

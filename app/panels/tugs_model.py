@@ -1,0 +1,365 @@
+"""The tugs table's model: every tug of the plan, where it works in the stage shown.
+
+Cells show the core's numbers (assigned pull, yaw moment) in the display units;
+editing a cell writes a new project through the controller (one undo step).
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable
+from dataclasses import dataclass, replace
+
+from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt
+from PySide6.QtGui import QColor
+
+from app import formatting as fmt
+from app.controller import Controller
+from app.edits import tugs as tug_edits
+from core.balance import TugShare
+from core.bodies import body_name_of_hull
+from core.errors import TowboardError
+from core.tugs import Placement, Tug
+
+Index = QModelIndex | QPersistentModelIndex
+
+NOT_PLACED = "not placed"
+
+
+@dataclass(frozen=True, slots=True)
+class Column:
+    key: str
+    title: str  # "{force}" etc. are filled with the display unit
+    editable: bool = False
+    tip: str = ""
+
+
+COLUMNS: tuple[Column, ...] = (
+    Column("name", "Tug", True, "Name of the tug (particulars are the same in every stage)"),
+    Column("bp", "Rated BP ({force})", True, "Certified bollard pull ahead"),
+    Column("astern_bp", "Astern pull ({force})", True, "Rated pull astern"),
+    Column(
+        "point", "Works at", True, "The line point or push point the tug works at in this stage"
+    ),
+    Column("mode", "Line / push", False, "On a line (pulls) or pushing"),
+    Column("astern", "Astern", True, "The tug works astern (its astern pull applies)"),
+    Column(
+        "lead",
+        "Lead (rel. °)",
+        True,
+        "Relative bearing of the tug's force on the hull, degrees clockwise from ahead",
+    ),
+    Column(
+        "length",
+        "Line ({length})",
+        True,
+        "Horizontal length of towline from the line point to the tug",
+    ),
+    Column("setting", "Setting %", True, "Percent of the tug's usable pull asked for"),
+    Column("pull", "Assigned pull ({force})", False, "Setting × usable pull"),
+    Column(
+        "moment",
+        "Yaw moment ({moment})",
+        False,
+        "This tug's moment about the centroid, + swings the bow to port",
+    ),
+    Column(
+        "share", "Share of yaw %", False, "This tug's part of the net yaw moment about the centroid"
+    ),
+)
+KEYS = [c.key for c in COLUMNS]
+
+
+@dataclass(frozen=True, slots=True)
+class Row:
+    tug: Tug
+    placement: Placement | None
+    share: TugShare | None
+    body: str | None
+    net_moment: float
+
+
+class TugsModel(QAbstractTableModel):
+    """Rows are the plan's tugs; columns are :data:`COLUMNS`."""
+
+    #: Extra columns others may add: (title, function of the row's TugShare -> text).
+    extra: list[tuple[str, Callable[[TugShare | None], str]]]
+
+    def __init__(self, controller: Controller) -> None:
+        super().__init__()
+        self.controller = controller
+        self.extra = []
+        self.rows: list[Row] = []
+        self._build()
+        controller.changed.connect(self.refresh)
+
+    # -- rows -----------------------------------------------------------------------
+    def _build(self) -> None:
+        c = self.controller
+        stage = c.stage
+        placed = {p.tug: p for p in stage.placements} if stage is not None else {}
+        shares: dict[str, tuple[TugShare, str, float]] = {}
+        for body, b in c.balances().items():
+            for s in b.shares:
+                shares[s.tug] = (s, body, b.moment_centroid_nm)
+        rows = []
+        for t in c.project.tugs:
+            s = shares.get(t.name)
+            rows.append(
+                Row(
+                    t,
+                    placed.get(t.name),
+                    s[0] if s else None,
+                    s[1] if s else None,
+                    s[2] if s else 0.0,
+                )
+            )
+        self.rows = rows
+
+    def refresh(self) -> None:
+        old = [r.tug.name for r in self.rows]
+        self._build()
+        if [r.tug.name for r in self.rows] != old:
+            self.beginResetModel()
+            self.endResetModel()
+        elif self.rows:
+            self.dataChanged.emit(
+                self.index(0, 0), self.index(len(self.rows) - 1, self.columnCount() - 1)
+            )
+        self.headerDataChanged.emit(Qt.Orientation.Horizontal, 0, self.columnCount() - 1)
+
+    def row_of(self, tug: str) -> int:
+        for i, r in enumerate(self.rows):
+            if r.tug.name == tug:
+                return i
+        return -1
+
+    # -- Qt model ---------------------------------------------------------------------
+    def rowCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
+        return 0 if parent.isValid() else len(self.rows)
+
+    def columnCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
+        return 0 if parent.isValid() else len(COLUMNS) + len(self.extra)
+
+    def headerData(
+        self, section: int, orientation: Qt.Orientation, role: int = Qt.ItemDataRole.DisplayRole
+    ):  # type: ignore[no-untyped-def]
+        if orientation != Qt.Orientation.Horizontal:
+            return None
+        if section >= len(COLUMNS):
+            return (
+                self.extra[section - len(COLUMNS)][0]
+                if role == Qt.ItemDataRole.DisplayRole
+                else None
+            )
+        col = COLUMNS[section]
+        u = self.controller.project.units
+        if role == Qt.ItemDataRole.DisplayRole:
+            return col.title.format(
+                force=fmt.unit_label(u, "force"),
+                moment=fmt.unit_label(u, "moment"),
+                length=fmt.unit_label(u, "length"),
+            )
+        if role == Qt.ItemDataRole.ToolTipRole:
+            return col.tip
+        return None
+
+    def flags(self, index: Index) -> Qt.ItemFlag:
+        base = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
+        if not index.isValid() or index.column() >= len(COLUMNS):
+            return base
+        col = COLUMNS[index.column()]
+        row = self.rows[index.row()]
+        if not col.editable:
+            return base
+        if col.key in ("astern",):
+            return base | Qt.ItemFlag.ItemIsUserCheckable if row.placement else base
+        if col.key in ("lead", "setting") and row.placement is None:
+            return base
+        if col.key == "length" and (
+            row.placement is None or (row.share and row.share.mode == "push")
+        ):
+            return base
+        return base | Qt.ItemFlag.ItemIsEditable
+
+    def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
+        if not index.isValid():
+            return None
+        row = self.rows[index.row()]
+        if index.column() >= len(COLUMNS):
+            if role == Qt.ItemDataRole.DisplayRole:
+                return self.extra[index.column() - len(COLUMNS)][1](row.share)
+            return None
+        key = COLUMNS[index.column()].key
+        if role == Qt.ItemDataRole.DisplayRole:
+            return self._text(row, key)
+        if role == Qt.ItemDataRole.EditRole:
+            return self._edit_text(row, key)
+        if role == Qt.ItemDataRole.CheckStateRole and key == "astern" and row.placement:
+            return Qt.CheckState.Checked if row.placement.astern else Qt.CheckState.Unchecked
+        if role == Qt.ItemDataRole.TextAlignmentRole and key not in ("name", "point", "mode"):
+            return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
+        if role == Qt.ItemDataRole.ForegroundRole and row.placement is None and key != "name":
+            return QColor("#78909c")
+        if (
+            role == Qt.ItemDataRole.ForegroundRole
+            and key == "setting"
+            and row.placement
+            and row.placement.setting > 1
+        ):
+            return QColor("#b71c1c")
+        return None
+
+    def _text(self, row: Row, key: str) -> str:
+        u = self.controller.project.units
+        t, p, s = row.tug, row.placement, row.share
+        if key == "name":
+            return t.name
+        if key == "bp":
+            return fmt.number(u, t.bollard_pull_n, "force")
+        if key == "astern_bp":
+            return fmt.number(u, t.astern_pull, "force")
+        if key == "point":
+            return NOT_PLACED if p is None else f"{p.hull}: {p.point}"
+        if p is None or s is None:
+            return "—" if key not in ("astern",) else ""
+        if key == "mode":
+            return s.mode
+        if key == "astern":
+            return ""
+        if key == "lead":
+            return fmt.bearing(s.lead_bearing_deg)[:-1]
+        if key == "length":
+            return fmt.number(u, p.line_length_m, "length") if s.mode == "line" else "—"
+        if key == "setting":
+            return f"{p.setting * 100:.0f}"
+        if key == "pull":
+            return fmt.number(u, s.pull_n, "force")
+        if key == "moment":
+            return f"{u.value(s.moment_centroid_nm, 'moment'):+.0f}"
+        if key == "share":
+            total = row.net_moment
+            if abs(total) <= 1e-9 * max(abs(s.moment_centroid_nm), 1.0) or abs(total) < 1e-6:
+                return "—"
+            return f"{100.0 * s.moment_centroid_nm / total:+.0f}"
+        return ""
+
+    def _edit_text(self, row: Row, key: str) -> str:
+        u = self.controller.project.units
+        t, p, s = row.tug, row.placement, row.share
+        if key == "bp":
+            return f"{u.value(t.bollard_pull_n, 'force'):.6g}"
+        if key == "astern_bp":
+            return f"{u.value(t.astern_pull, 'force'):.6g}"
+        if key == "lead" and s is not None:
+            return f"{s.lead_bearing_deg:.6g}"
+        if key == "length" and p is not None:
+            return f"{u.value(p.line_length_m, 'length'):.6g}"
+        if key == "setting" and p is not None:
+            return f"{p.setting * 100:.6g}"
+        return self._text(row, key)
+
+    # -- editing ----------------------------------------------------------------------
+    def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
+        if not index.isValid() or index.column() >= len(COLUMNS):
+            return False
+        row = self.rows[index.row()]
+        key = COLUMNS[index.column()].key
+        try:
+            new, text = self._edited(row, key, value, role)
+        except (TowboardError, ValueError) as e:
+            self.controller.message.emit(f"Not changed: {e}")
+            return False
+        if new is None:
+            return False
+        self.controller.apply(new, text)
+        return True
+
+    def _edited(self, row: Row, key: str, value: object, role: int):  # type: ignore[no-untyped-def]
+        c = self.controller
+        project = c.project
+        u = project.units
+        t, p = row.tug, row.placement
+        if role == Qt.ItemDataRole.CheckStateRole and key == "astern" and p is not None:
+            on = value in (Qt.CheckState.Checked, Qt.CheckState.Checked.value, 2, True)
+            stage = c.stage
+            return c.with_stage(
+                stage.with_placement(replace(p, astern=bool(on)))
+            ), f"{t.name} astern"
+        if role != Qt.ItemDataRole.EditRole:
+            return None, ""
+        text = str(value).strip()
+        if key == "name":
+            if not text or text == t.name:
+                return None, ""
+            return tug_edits.renamed_tug(project, t.name, text), f"Rename {t.name}"
+        if key == "point":
+            return self._moved_to_point(row, text), f"{t.name} works at {text}"
+        number = _parse(text, COLUMNS[KEYS.index(key)].title.split(" (")[0])
+        if key == "bp":
+            return project.with_tug(
+                replace(t, bollard_pull_n=u.si(number, "force"))
+            ), f"{t.name} bollard pull"
+        if key == "astern_bp":
+            return project.with_tug(
+                replace(t, astern_pull_n=u.si(number, "force"))
+            ), f"{t.name} astern pull"
+        stage = c.stage
+        if p is None or stage is None:
+            return None, ""
+        if key == "setting":
+            if number < 0:
+                raise ValueError(f"setting {number} % must be zero or more")
+            return c.with_stage(
+                stage.with_placement(p.with_setting(number / 100.0))
+            ), f"Setting of {t.name}"
+        body = c.results()[row.body].body if row.body else None
+        if key == "lead" and body is not None:
+            return c.with_stage(
+                stage.with_placement(tug_edits.lead_from_bearing(body, p, number))
+            ), f"Lead of {t.name}"
+        if key == "length":
+            return c.with_stage(
+                stage.with_placement(p.with_lead(p.lead_rad, u.si(number, "length")))
+            ), f"Line of {t.name}"
+        return None, ""
+
+    def point_choices(self) -> list[str]:
+        out = [NOT_PLACED]
+        for h in self.controller.project.hulls:
+            out += [f"{h.name}: {f.name}" for f in h.fittings]
+        return out
+
+    def _moved_to_point(self, row: Row, text: str):  # type: ignore[no-untyped-def]
+        c = self.controller
+        project, stage = c.ensure_stage(c.project)
+        t, p = row.tug, row.placement
+        if text == NOT_PLACED:
+            return None if p is None else c.with_stage(stage.without_placement(t.name), project)
+        hull_name, _, point = text.partition(": ")
+        hull = project.hull(hull_name)
+        fitting = hull.fitting(point)
+        from core.bodies import body_of
+
+        body = body_of(project, body_name_of_hull(project, hull_name))
+        lead = tug_edits.outward_lead(body, hull_name, point) if fitting.kind == "line" else 0.0
+        if p is None:
+            new = Placement(
+                t.name, hull_name, point, setting=0.0, lead_rad=lead, line_length_m=30.0
+            )
+        else:
+            old_kind = project.hull(p.hull).fitting(p.point).kind
+            new = p.at_point(hull_name, point)
+            if old_kind != fitting.kind:
+                new = new.with_lead(lead)
+        return c.with_stage(stage.with_placement(new), project)
+
+
+def _parse(text: str, what: str) -> float:
+    try:
+        v = float(text.replace(",", "."))
+    except ValueError:
+        raise ValueError(f"{what}: {text!r} is not a number") from None
+    if not math.isfinite(v):
+        raise ValueError(f"{what}: {text!r} is not a finite number")
+    return v

@@ -1,0 +1,144 @@
+"""The tugs panel: the table of tugs, and add / duplicate / remove."""
+
+from __future__ import annotations
+
+from PySide6.QtCore import QModelIndex, QPersistentModelIndex, Qt, Signal
+from PySide6.QtWidgets import (
+    QAbstractItemView,
+    QComboBox,
+    QHBoxLayout,
+    QHeaderView,
+    QPushButton,
+    QStyledItemDelegate,
+    QStyleOptionViewItem,
+    QTableView,
+    QVBoxLayout,
+    QWidget,
+)
+
+from app.controller import Controller
+from app.edits import tugs as tug_edits
+from app.panels.tugs_model import KEYS, TugsModel
+from core.bodies import body_name_of_hull, body_of
+from core.tugs import Placement, Tug
+
+Index = QModelIndex | QPersistentModelIndex
+
+
+class PointDelegate(QStyledItemDelegate):
+    """A list of the line points and push points for the "Works at" column."""
+
+    def __init__(self, model: TugsModel, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.model = model
+
+    def createEditor(self, parent: QWidget, option: QStyleOptionViewItem, index: Index) -> QWidget:
+        box = QComboBox(parent)
+        box.addItems(self.model.point_choices())
+        return box
+
+    def setEditorData(self, editor: QWidget, index: Index) -> None:
+        assert isinstance(editor, QComboBox)
+        editor.setCurrentText(str(index.data(Qt.ItemDataRole.EditRole)))
+
+    def setModelData(self, editor: QWidget, model, index: Index) -> None:  # type: ignore[no-untyped-def]
+        assert isinstance(editor, QComboBox)
+        model.setData(index, editor.currentText(), Qt.ItemDataRole.EditRole)
+
+
+class TugsPanel(QWidget):
+    """Tugs of the plan and how each works in the stage shown."""
+
+    tug_selected = Signal(str)
+
+    def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.controller = controller
+        self.model = TugsModel(controller)
+        self.table = QTableView()
+        self.table.setModel(self.model)
+        self.table.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
+        self.table.setSelectionMode(QAbstractItemView.SelectionMode.SingleSelection)
+        self.table.setEditTriggers(
+            QAbstractItemView.EditTrigger.DoubleClicked
+            | QAbstractItemView.EditTrigger.EditKeyPressed
+            | QAbstractItemView.EditTrigger.AnyKeyPressed
+        )
+        self.table.setItemDelegateForColumn(KEYS.index("point"), PointDelegate(self.model, self))
+        self.table.verticalHeader().setVisible(False)
+        self.table.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.ResizeToContents)
+        self.table.horizontalHeader().setStretchLastSection(True)
+        self.table.setAlternatingRowColors(True)
+        self.table.selectionModel().currentRowChanged.connect(self._row_changed)
+        buttons = QHBoxLayout()
+        self.add_button = QPushButton("Add tug")
+        self.duplicate_button = QPushButton("Duplicate")
+        self.remove_button = QPushButton("Remove")
+        for b in (self.add_button, self.duplicate_button, self.remove_button):
+            buttons.addWidget(b)
+        buttons.addStretch(1)
+        self.add_button.clicked.connect(self.add_tug)
+        self.duplicate_button.clicked.connect(self.duplicate_tug)
+        self.remove_button.clicked.connect(self.remove_tug)
+        layout = QVBoxLayout(self)
+        layout.setContentsMargins(4, 4, 4, 4)
+        layout.addWidget(self.table)
+        layout.addLayout(buttons)
+
+    def _row_changed(self, current: QModelIndex, previous: QModelIndex) -> None:
+        if current.isValid() and current.row() < len(self.model.rows):
+            self.tug_selected.emit(self.model.rows[current.row()].tug.name)
+
+    def current_tug(self) -> str | None:
+        i = self.table.currentIndex()
+        if not i.isValid() or i.row() >= len(self.model.rows):
+            return None
+        return self.model.rows[i.row()].tug.name
+
+    def select_tug(self, name: str | None) -> None:
+        row = self.model.row_of(name) if name else -1
+        if row < 0:
+            self.table.clearSelection()
+            return
+        if self.table.currentIndex().row() != row:
+            self.table.blockSignals(True)
+            self.table.selectRow(row)
+            self.table.blockSignals(False)
+
+    # -- add, duplicate, remove ----------------------------------------------------------
+    def add_tug(self) -> None:
+        """A new tug of 40 t bollard pull, made fast at a free line point if there is one."""
+        c = self.controller
+        project, stage = c.ensure_stage(c.project)
+        name = tug_edits.next_tug_name(project)
+        tug = Tug(name, 40 * 9806.65)
+        placement = None
+        free = tug_edits.free_point(project, stage, None)
+        if free is not None:
+            hull, point = free
+            body = body_of(project, body_name_of_hull(project, hull))
+            kind = project.hull(hull).fitting(point).kind
+            lead = tug_edits.outward_lead(body, hull, point) if kind == "line" else 0.0
+            placement = Placement(name, hull, point, setting=0.0, lead_rad=lead, line_length_m=30.0)
+        new = project.with_tug(tug)
+        if placement is not None:
+            new = c.with_stage(stage.with_placement(placement), new)
+        c.apply(new, f"Add {name}")
+        self.select_tug(name)
+
+    def duplicate_tug(self) -> None:
+        name = self.current_tug()
+        if name is None:
+            self.controller.message.emit("Select a tug in the table to duplicate it.")
+            return
+        c = self.controller
+        project, new_name = tug_edits.duplicated_tug(c.project, c.stage_index, name)
+        c.apply(project, f"Duplicate {name}")
+        self.select_tug(new_name)
+
+    def remove_tug(self) -> None:
+        name = self.current_tug()
+        if name is None:
+            self.controller.message.emit("Select a tug in the table to remove it.")
+            return
+        self.controller.apply(self.controller.project.without_tug(name), f"Remove {name}")
