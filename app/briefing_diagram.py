@@ -18,7 +18,7 @@ from app.briefing_layout import FAIL, INK, MUTED, RULE, Ctx
 from core.balance import Balance
 from core.bodies import body_of
 from core.checks import StageCheck
-from core.clearance import Clearance, least_per_body
+from core.clearance import notable_clearances
 from core.frames import site_angle_to_true, true_to_site_angle
 from core.plan import Project, SiteFeature
 from core.site import PlacedBody, body_pose, place_body, placed_bodies
@@ -530,7 +530,7 @@ class StageDiagram:
                 p.setBrush(Qt.BrushStyle.NoBrush)
 
     def _clearances(self, p: QPainter, ctx: Ctx) -> None:
-        for c in shown_clearances(self.check.clearances):
+        for c in notable_clearances(self.check.clearances):
             a, b = self.to_px(c.at_body), self.to_px(c.at_other)
             col = FAIL if c.below_margin else QColor("#37474f")
             p.setPen(QPen(col, ctx.mm(0.3), Qt.PenStyle.DotLine))
@@ -540,7 +540,7 @@ class StageDiagram:
                 p.drawEllipse(q, ctx.mm(0.5), ctx.mm(0.5))
 
     def _clearance_labels(self, p: QPainter, ctx: Ctx) -> None:
-        for c in shown_clearances(self.check.clearances):
+        for c in notable_clearances(self.check.clearances):
             a, b = self.to_px(c.at_body), self.to_px(c.at_other)
             col = FAIL if c.below_margin else QColor("#37474f")
             text = self.units.show(c.distance_m, "length")
@@ -692,15 +692,6 @@ class StageDiagram:
         p.fillPath(path, INK)
 
 
-def shown_clearances(clearances: tuple[Clearance, ...]) -> list[Clearance]:
-    """The clearances drawn: every one below its margin, and each body's least."""
-    out = [c for c in clearances if c.below_margin and not c.outside_limit]
-    for c in least_per_body(clearances).values():
-        if c not in out and not c.outside_limit:
-            out.append(c)
-    return out
-
-
 def _unit(bearing_deg: float) -> Pt:
     a = -math.radians(bearing_deg)
     return (math.cos(a), math.sin(a))
@@ -716,4 +707,4 @@ def true_bearing_of(site_vector: Pt) -> float:
     return site_angle_to_true(math.atan2(site_vector[1], site_vector[0]))
 
 
-__all__ = ["StageDiagram", "force_step", "shown_clearances", "true_bearing_of"]
+__all__ = ["StageDiagram", "force_step", "true_bearing_of"]

@@ -476,11 +476,13 @@ def _balance(project: Project, b: Balance) -> list[Block]:
     elif eq.kind == "balanced":
         rows.append(["Equivalent", "balanced: no net force and no yaw moment"])
     else:
-        cross = (
-            "parallel to the centreline"
-            if b.centreline_x is None
-            else f"crossing the centreline at x = {u.show(b.centreline_x, 'length')}"
-        )
+        length = body_of(project, b.body).length
+        if b.centreline_x is None:
+            cross = "parallel to the centreline"
+        elif abs(b.centreline_x - b.centroid[0]) > 10 * length:
+            cross = "nearly parallel to the centreline (it crosses it far off the hull)"
+        else:
+            cross = f"crossing the centreline at x = {u.show(b.centreline_x, 'length')}"
         rows.append(
             [
                 "Equivalent force",
@@ -676,7 +678,7 @@ def _warnings(check: StageCheck) -> list[Block]:
     if not check.notices:
         return [Text("No warnings for this stage.", 8.5, color=QColor(GOOD))]
     lines = [f"FAILS: {n.message}" for n in check.failures]
-    lines += [n.message for n in check.warnings]
+    lines += [n.message[:1].upper() + n.message[1:] for n in check.warnings]
     fails = bool(check.failures)
     return [
         Boxed(

@@ -95,6 +95,19 @@ def least_per_body(clearances: tuple[Clearance, ...]) -> dict[str, Clearance]:
     return best
 
 
+def notable_clearances(clearances: tuple[Clearance, ...]) -> list[Clearance]:
+    """The clearances worth drawing: each one below its margin, and each body's least.
+
+    A body partly outside a basin limit has no meaningful pair of nearest points to
+    the limit, so that one is said in words only (see :func:`clearance_notices`).
+    """
+    out = [c for c in clearances if c.below_margin and not c.outside_limit]
+    for c in least_per_body(clearances).values():
+        if c not in out and not c.outside_limit:
+            out.append(c)
+    return out
+
+
 def clearance_notices(clearances: tuple[Clearance, ...], units: DisplayUnits) -> tuple[Notice, ...]:
     """A warning for each clearance below its margin, with the distance in display units."""
     out: list[Notice] = []

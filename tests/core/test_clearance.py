@@ -144,3 +144,19 @@ def test_clearances_agree_with_independent_shapely(heading, x, y):
         assert math.dist(c.at_body, c.at_other) == pytest.approx(c.distance_m, abs=1e-7)
         assert body.distance(shapely.Point(c.at_body)) < 1e-7
         assert geom.distance(shapely.Point(c.at_other)) < 1e-7
+
+
+def test_notable_clearances_are_those_below_margin_and_each_bodys_least():
+    from core.clearance import notable_clearances
+
+    feats = (
+        quay("North quay", (-50, 25), (150, 25)),  # 15 m
+        quay("South quay", (-50, -16), (150, -16)),  # 6 m
+        dolphin("Dolphin", (120, 0), 4.0),  # 38 m
+    )
+    p = one_barge(90.0, features=feats, margin=20.0)
+    cs = notable_clearances(stage_clearances(p, p.stages[0]))
+    assert sorted(c.other for c in cs) == ["North quay", "South quay"]  # both under 20 m
+    p = one_barge(90.0, features=feats, margin=5.0)
+    cs = notable_clearances(stage_clearances(p, p.stages[0]))
+    assert [c.other for c in cs] == ["South quay"]  # none under 5 m: the least only
