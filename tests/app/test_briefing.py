@@ -38,10 +38,9 @@ def pages_text(path: Path) -> list[str]:
 
 
 @pytest.fixture(scope="module")
-def qapp_module():
-    from PySide6.QtGui import QGuiApplication
-
-    return QGuiApplication.instance() or QGuiApplication([])
+def qapp_module(qapp):
+    """pytest-qt's one QApplication (a session fixture), for module-wide PDFs."""
+    return qapp
 
 
 @pytest.fixture(scope="module")
