@@ -12,13 +12,7 @@ from collections.abc import Callable
 
 from PySide6.QtCore import QLineF, QPointF, Qt
 from PySide6.QtGui import QColor, QPainterPath, QPolygonF, QTransform
-from PySide6.QtWidgets import (
-    QGraphicsItem,
-    QGraphicsLineItem,
-    QGraphicsPathItem,
-    QGraphicsPolygonItem,
-    QGraphicsScene,
-)
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
 from app.board import style
 from app.board.items import (
@@ -27,8 +21,11 @@ from app.board.items import (
     FittingMark,
     Handle,
     Label,
+    LineItem,
     Mark,
     MomentArrow,
+    PathItem,
+    PolygonItem,
     polygon_path,
     tug_polygon,
 )
@@ -72,21 +69,21 @@ class HullDrawing:
     def __init__(self, root: Root, member: Member) -> None:
         self.frame = Root(root)
         self.hull: Hull | None = None
-        self.outline = QGraphicsPathItem(self.frame)
+        self.outline = PathItem(self.frame)
         self.outline.setZValue(Z_HULL)
         self.outline.setBrush(style.HULL_FILL)
         self.outline.setPen(style.pen(style.HULL_EDGE, 1.6))
-        self.invalid = QGraphicsPathItem(self.frame)
+        self.invalid = PathItem(self.frame)
         self.invalid.setZValue(Z_HULL + 1)
         self.invalid.setPen(style.pen(style.INVALID, 2.0, Qt.PenStyle.DashLine))
         self.invalid.setBrush(QColor(211, 47, 47, 40))
         self.invalid.setVisible(False)
-        self.centreline = QGraphicsLineItem(self.frame)
+        self.centreline = LineItem(self.frame)
         self.centreline.setZValue(Z_HULL + 1)
         self.centreline.setPen(style.pen(style.CENTRELINE, 1.0, Qt.PenStyle.DashDotLine))
-        self.port_side = QGraphicsLineItem(self.frame)
+        self.port_side = LineItem(self.frame)
         self.port_side.setPen(style.pen(style.PORT, 4.0))
-        self.stbd_side = QGraphicsLineItem(self.frame)
+        self.stbd_side = LineItem(self.frame)
         self.stbd_side.setPen(style.pen(style.STARBOARD, 4.0))
         for item in (self.port_side, self.stbd_side):
             item.setZValue(Z_HULL + 1)
@@ -138,8 +135,9 @@ class HullDrawing:
         gap = 0.012 * g.length
         self.port_side.setLine(QLineF(x0, y_port + gap, x1, y_port + gap))
         self.stbd_side.setLine(QLineF(x0, y_stbd - gap, x1, y_stbd - gap))
-        self.port.setPos(g.x_min + 0.5 * g.length, y_port + 0.5 * pad + gap)
-        self.stbd.setPos(g.x_min + 0.5 * g.length, y_stbd - 0.5 * pad - gap)
+        self.port.setPos(g.x_min + 0.5 * g.length, y_port + gap)
+        self.stbd.setPos(g.x_min + 0.5 * g.length, y_stbd - gap)
+        self._aim_side_labels()
         self.name.setPos(g.x_min + 0.27 * g.length, 0.45 * y_port)
 
     def _sync_handles(self, hull: Hull) -> None:
@@ -195,10 +193,18 @@ class HullDrawing:
             q = hull.geometry.nearest(f.x, f.y)
             mark.angle_deg = _screen_angle(self.frame, (-q.normal[1], q.normal[0]))
 
+    def _aim_side_labels(self) -> None:
+        # PORT and STBD sit just outside their side, whichever way the body lies on screen
+        a = math.radians(_screen_angle(self.frame, (0.0, 1.0)))
+        ux, uy = math.cos(a), math.sin(a)  # port's direction on screen (y down)
+        self.port.set_offset((14 * ux, 12 * uy))
+        self.stbd.set_offset((-14 * ux, -12 * uy))
+
     def refresh_screen_angles(self) -> None:
         """Re-aim the push pads after the body turned (their bar follows the hull edge)."""
         if self.hull is None:
             return
+        self._aim_side_labels()
         for f in self.hull.fittings:
             mark, _ = self.fittings[f.name]
             q = self.hull.geometry.nearest(f.x, f.y)
@@ -243,10 +249,10 @@ class TugDrawing:
 
     def __init__(self, root: Root, name: str) -> None:
         self.name = name
-        self.towline = QGraphicsLineItem(root)
+        self.towline = LineItem(root)
         self.towline.setZValue(Z_LINE)
         self.towline.setPen(style.pen(style.TOWLINE, 1.4))
-        self.glyph = QGraphicsPolygonItem(root)
+        self.glyph = PolygonItem(root)
         self.glyph.setZValue(Z_TUG)
         self.glyph.setBrush(style.TUG_FILL)
         self.glyph.setPen(style.pen(style.TUG_EDGE, 1.3))
@@ -334,7 +340,7 @@ class BalanceDrawing:
         self.net.setZValue(Z_BALANCE)
         self.moment = MomentArrow(style.MOMENT, 3.2, root)
         self.moment.setZValue(Z_BALANCE)
-        self.action = QGraphicsLineItem(root)
+        self.action = LineItem(root)
         self.action.setPen(style.pen(style.LINE_OF_ACTION, 1.4, Qt.PenStyle.DashLine))
         self.action.setZValue(Z_BALANCE - 0.5)
         self.crossing = Mark("crossing", root, 14)
@@ -386,7 +392,7 @@ class BalanceDrawing:
         # square root: small moments still show, large ones do not wrap round
         frac = math.sqrt(min(1.0, abs(m) / moment_scale)) if moment_scale > 0 else 0.0
         tol = 1e-6 * max(moment_scale, 1.0)
-        radius = 0.18 * body.length
+        radius = min(0.18 * body.length, 0.4 * body.beam)  # stays inside the sides
         self.moment.set_color(colour or style.MOMENT)
         if abs(m) > tol:
             sweep = math.copysign(30.0 + 270.0 * frac, m)
@@ -394,7 +400,13 @@ class BalanceDrawing:
             r = radius * (0.7 + 0.5 * frac)
             self.moment.set_geometry((cx, cy), r, start, sweep, head * 1.2)
             self.moment.setVisible(True)
-            self.moment_label.setPos(cx - r, cy)
+            # the label sits just outside the arrow's head, on the side it points to
+            a_end = math.radians(start + sweep)
+            self.moment_label.setPos(cx + r * math.cos(a_end), cy + r * math.sin(a_end))
+            sa = math.radians(_screen_angle(self.root, (math.cos(a_end), math.sin(a_end))))
+            ux, uy = math.cos(sa), math.sin(sa)
+            self.moment_label.set_align("left" if ux >= 0 else "right")
+            self.moment_label.set_offset((16 * ux, 16 * uy))
             u = units.unit("moment")
             self.moment_label.set_text(
                 f"yaw {units.value(m, 'moment'):+,.0f} {label(u)}\n{turning_words(m)}"

@@ -20,7 +20,14 @@ from PySide6.QtGui import (
     QPen,
     QPolygonF,
 )
-from PySide6.QtWidgets import QGraphicsItem, QStyleOptionGraphicsItem, QWidget
+from PySide6.QtWidgets import (
+    QGraphicsItem,
+    QGraphicsLineItem,
+    QGraphicsPathItem,
+    QGraphicsPolygonItem,
+    QStyleOptionGraphicsItem,
+    QWidget,
+)
 
 from app.board import style
 
@@ -57,6 +64,18 @@ class Label(QGraphicsItem):
     def text(self) -> str:
         return "\n".join(self._lines)
 
+    def set_align(self, align: str) -> None:
+        if align != self._align:
+            self._align = align
+            lines, self._lines = self._lines, []
+            self.set_text("\n".join(lines))
+
+    def set_offset(self, offset: tuple[float, float]) -> None:
+        if offset != self._offset:
+            self._offset = offset
+            lines, self._lines = self._lines, []
+            self.set_text("\n".join(lines))
+
     def set_text(self, text: str) -> None:
         lines = text.split("\n") if text else []
         if lines == self._lines:
@@ -64,7 +83,8 @@ class Label(QGraphicsItem):
         self.prepareGeometryChange()
         self._lines = lines
         fm = QFontMetricsF(self._font)
-        w = max((fm.horizontalAdvance(s) for s in lines), default=0.0)
+        # a little spare width: printers' font metrics run wider than the screen's
+        w = 1.06 * max((fm.horizontalAdvance(s) for s in lines), default=0.0)
         h = fm.height() * len(lines)
         dx, dy = self._offset
         if self._align == "right":
@@ -87,6 +107,9 @@ class Label(QGraphicsItem):
     ) -> None:
         if not self._lines:
             return
+        k = style.device_scale(painter)
+        if k != 1.0:
+            painter.scale(k, k)
         painter.setPen(Qt.PenStyle.NoPen)
         painter.setBrush(style.LABEL_BG)
         painter.drawRoundedRect(self._rect, 3, 3)
@@ -118,6 +141,9 @@ class Mark(QGraphicsItem):
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
         r = self.size / 2
+        k = style.device_scale(painter)
+        if k != 1.0:
+            painter.scale(k, k)
         painter.setRenderHint(QPainter.RenderHint.Antialiasing)
         painter.setPen(QPen(self.color, 1.5))
         if self.kind == "centroid":  # ring with a cross through it
@@ -173,6 +199,9 @@ class Handle(QGraphicsItem):
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
         s = self.size / 2
+        k = style.device_scale(painter)
+        if k != 1.0:
+            painter.scale(k, k)
         painter.setPen(QPen(style.HULL_SELECTED, 1.2))
         painter.setBrush(style.HULL_SELECTED if self.selected else QColor("white"))
         painter.drawRect(QRectF(-s, -s, 2 * s, 2 * s))
@@ -199,6 +228,9 @@ class FittingMark(QGraphicsItem):
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
+        k = style.device_scale(painter)
+        if k != 1.0:
+            painter.scale(k, k)
         painter.setRenderHint(QPainter.RenderHint.Antialiasing)
         edge = style.SELECTION if self.selected else QColor("white")
         if self.selected:
@@ -278,12 +310,13 @@ class Arrow(QGraphicsItem):
     ) -> None:
         if self._head.isEmpty():
             return
+        k = style.device_scale(painter)
         painter.setRenderHint(QPainter.RenderHint.Antialiasing)
-        painter.setPen(self._pen)
+        painter.setPen(style.scaled_pen(self._pen, k))
         painter.setBrush(Qt.BrushStyle.NoBrush)
         painter.drawPath(self._shaft)
         p = QPen(self._pen)
-        p.setWidthF(1.0)
+        p.setWidthF(1.0 * k)
         painter.setPen(p)
         painter.setBrush(self._brush)
         painter.drawPolygon(self._head)
@@ -362,12 +395,13 @@ class MomentArrow(QGraphicsItem):
     ) -> None:
         if self._head.isEmpty():
             return
+        k = style.device_scale(painter)
         painter.setRenderHint(QPainter.RenderHint.Antialiasing)
-        painter.setPen(self._pen)
+        painter.setPen(style.scaled_pen(self._pen, k))
         painter.setBrush(Qt.BrushStyle.NoBrush)
         painter.drawPath(self._path)
         p = QPen(self._pen)
-        p.setWidthF(1.0)
+        p.setWidthF(1.0 * k)
         painter.setPen(p)
         painter.setBrush(self._brush)
         painter.drawPolygon(self._head)
@@ -400,3 +434,38 @@ def tug_polygon(length: float, beam: float) -> QPolygonF:
         (aft, h * 0.85),
     ]
     return QPolygonF([QPointF(x, y) for x, y in pts])
+
+
+class PathItem(QGraphicsPathItem):
+    """A path with a cosmetic pen that keeps its screen width on any device."""
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        painter.setPen(style.scaled_pen(self.pen(), style.device_scale(painter)))
+        painter.setBrush(self.brush())
+        painter.drawPath(self.path())
+
+
+class LineItem(QGraphicsLineItem):
+    """A line with a cosmetic pen that keeps its screen width on any device."""
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        painter.setPen(style.scaled_pen(self.pen(), style.device_scale(painter)))
+        painter.drawLine(self.line())
+
+
+class PolygonItem(QGraphicsPolygonItem):
+    """A polygon with a cosmetic pen that keeps its screen width on any device."""
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        painter.setPen(style.scaled_pen(self.pen(), style.device_scale(painter)))
+        painter.setBrush(self.brush())
+        painter.drawPolygon(self.polygon())

@@ -41,13 +41,14 @@ def nice_floor(raw: float) -> float:
 def draw_grid(painter: QPainter, rect: QRectF, min_px: float = 22.0) -> None:
     """Grid lines over ``rect`` (site m): minor every step, major every fifth."""
     t = painter.worldTransform()
-    ppm = math.hypot(t.m11(), t.m12()) or 1.0
+    k = style.device_scale(painter)
+    ppm = (math.hypot(t.m11(), t.m12()) or 1.0) / k
     step = nice_step(min_px / ppm)
     x0 = math.floor(rect.left() / step) * step
     y0 = math.floor(rect.top() / step) * step
     if (rect.width() / step) > 400 or (rect.height() / step) > 400:
         return
-    minor, major = style.pen(style.GRID_MINOR, 1.0), style.pen(style.GRID_MAJOR, 1.0)
+    minor, major = style.pen(style.GRID_MINOR, k), style.pen(style.GRID_MAJOR, k)
     x = x0
     while x <= rect.right():
         painter.setPen(major if abs(round(x / step) % 5) == 0 else minor)

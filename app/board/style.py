@@ -54,3 +54,24 @@ def label_font(point_size: float = 9.0, bold: bool = False) -> QFont:
     f.setPixelSize(max(1, round(point_size * 96 / 72)))
     f.setBold(bold)
     return f
+
+
+def device_scale(painter: object) -> float:
+    """Device pixels per 96-dpi screen pixel of the painter's device (1 on screen).
+
+    Sizes on the board given in pixels (pens, labels, marks) are multiplied by this,
+    so a board drawn into a 1200-dpi PDF looks as it does on screen.
+    """
+    dev = painter.device() if hasattr(painter, "device") else None  # type: ignore[attr-defined]
+    if dev is None:
+        return 1.0
+    dpi = dev.logicalDpiX()
+    return dpi / 96.0 if dpi > 0 else 1.0
+
+
+def scaled_pen(p: QPen, k: float) -> QPen:
+    if k == 1.0:
+        return p
+    q = QPen(p)
+    q.setWidthF(p.widthF() * k)
+    return q
