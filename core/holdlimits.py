@@ -68,6 +68,7 @@ def hold_limits_problem(
     project: Project,
     stage: Stage,
     body: str | None = None,
+    *,
     directions_deg: np.ndarray | None = None,
 ) -> HoldLimitsProblem:
     """Describe the sweep; raises InputError when the wind area cannot be found."""
@@ -105,15 +106,17 @@ def hold_limits_problem(
 class HoldLimits:
     """Limiting wind speed per direction, m/s, all tugs and with each tug lost.
 
-    A speed of 0 means the fleet cannot hold the body against the current alone (or
-    cannot resist any wind from that direction); inf, that the wind from there puts
-    no load the fleet cannot take.
+    A speed of 0 means the fleet cannot hold the body against any wind from that
+    direction. When the fleet cannot hold the current alone (``holds_current`` False),
+    a wind from some directions may help: there the body is held only between
+    ``all_tugs_min_ms`` and ``all_tugs_ms``.
     """
 
     problem: HoldLimitsProblem
     all_tugs_ms: np.ndarray  # (D,)
     lost_ms: np.ndarray  # (n, D): row i with tug i lost
     holds_current: bool
+    all_tugs_min_ms: np.ndarray | None = None  # (D,) below this the current wins (all tugs)
 
     @property
     def worst_lost_ms(self) -> np.ndarray:
@@ -173,14 +176,47 @@ def _rank(gens: np.ndarray) -> int:
     return int((sv > 1e-9 * max(float(sv[0]), 1e-300)).sum())
 
 
+@dataclass(frozen=True, slots=True, eq=False)
+class _Rays:
+    """The swept rays against one set of half-space normals (P normals, D directions)."""
+
+    den: np.ndarray  # (P, D): n . d
+    inv_den: np.ndarray  # (P, D): 1 / (n . d) where the ray leaves through n, else 0
+    blocked: np.ndarray  # (P, D): 0 where the ray leaves through n, else inf
+    tol: np.ndarray  # (D,) below this |n . d| the ray runs along the half-space's face
+
+
+def _rays(normals: np.ndarray, rays: np.ndarray) -> _Rays:
+    den = normals @ rays
+    tol = _DEN_TOL * np.linalg.norm(rays, axis=0)
+    leaves = den > tol
+    with np.errstate(divide="ignore"):
+        inv_den = np.where(leaves, 1.0 / np.where(leaves, den, 1.0), 0.0)
+    return _Rays(den, inv_den, np.where(leaves, 0.0, np.inf), tol)
+
+
 def _exit(
-    normals: np.ndarray, support: np.ndarray, start: np.ndarray, inv_den: np.ndarray
-) -> tuple[np.ndarray, bool]:
-    """Largest s per direction with start + s d inside {n.x <= h}; (D,), and whether start is inside."""
+    normals: np.ndarray, support: np.ndarray, start: np.ndarray, r: _Rays
+) -> tuple[np.ndarray, np.ndarray, bool]:
+    """Where each ray start + s d (s >= 0) is inside {n.x <= h}: (s_out, s_in, start inside).
+
+    s_out is the largest such s and s_in the smallest (both (D,)); where no s >= 0 is
+    inside, both are 0. When the start is inside, s_in = 0 everywhere.
+    """
     slack = support - normals @ start  # (P,)
-    if slack.min(initial=0.0) < -_SLACK_TOL:
-        return np.zeros(inv_den.shape[1]), False
-    return (np.maximum(slack, 0.0)[:, None] * inv_den).min(axis=0), True
+    slack[np.abs(slack) < 1e-13] = 0.0  # rounding on faces through the start
+    if slack.min(initial=0.0) >= -_SLACK_TOL:
+        s_out = (np.maximum(slack, 0.0)[:, None] * r.inv_den + r.blocked).min(axis=0)
+        return s_out, np.zeros_like(s_out), True
+    # The start is outside (the current alone cannot be held): some wind may help.
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        ratio = slack[:, None] / r.den
+    s_out = (np.maximum(slack, 0.0)[:, None] * r.inv_den + r.blocked).min(axis=0)
+    enters = r.den < -r.tol
+    s_in = np.maximum(np.where(enters, ratio, -np.inf).max(axis=0, initial=-np.inf), 0.0)
+    stuck = ((np.abs(r.den) <= r.tol) & (slack[:, None] < -_SLACK_TOL)).any(axis=0)
+    never = stuck | (s_in > s_out * (1 + 1e-9) + _SLACK_TOL)
+    return np.where(never, 0.0, s_out), np.where(never, 0.0, s_in), False
 
 
 def hold_limits(problem: HoldLimitsProblem, *, with_lost: bool = True) -> HoldLimits:
@@ -194,24 +230,19 @@ def hold_limits(problem: HoldLimitsProblem, *, with_lost: bool = True) -> HoldLi
     parts = np.maximum(normals @ gens, 0.0)  # (P, n)
     support = parts.sum(axis=1)
 
-    def inv(ns: np.ndarray) -> np.ndarray:
-        den = ns @ rays  # (P, D)
-        size = np.linalg.norm(rays, axis=0)
-        with np.errstate(divide="ignore"):
-            return np.where(den > _DEN_TOL * size, 1.0 / den, np.inf)
-
-    inv_den = inv(normals)
-    s_all, holds = _exit(normals, support, start, inv_den)
+    terms = _rays(normals, rays)
+    s_all, s_min, holds = _exit(normals, support, start, terms)
     full_rank = _rank(gens)
     lost = np.zeros((gens.shape[1] if with_lost else 0, rays.shape[1]))
     for k in range(len(lost)):
         rest = np.delete(gens, k, axis=1)
         if _rank(rest) == full_rank:
-            lost[k], _ = _exit(normals, support - parts[:, k], start, inv_den)
+            lost[k] = _exit(normals, support - parts[:, k], start, terms)[0]
         else:  # losing this tug flattens the zonotope: its own normals are needed
             ns = zonotope_normals(rest)
-            lost[k], _ = _exit(ns, np.maximum(ns @ rest, 0.0).sum(axis=1), start, inv(ns))
-    return HoldLimits(problem, np.sqrt(s_all), np.sqrt(lost), holds)
+            h = np.maximum(ns @ rest, 0.0).sum(axis=1)
+            lost[k] = _exit(ns, h, start, _rays(ns, rays))[0]
+    return HoldLimits(problem, np.sqrt(s_all), np.sqrt(lost), holds, np.sqrt(s_min))
 
 
 def limit_at(limits: HoldLimits, wind_from_deg: float, curve: np.ndarray | None = None) -> float:

@@ -14,7 +14,9 @@ from core.balance import Balance, Load, analyse_layout, tug_layout
 from core.bodies import Body, body_name_of_hull, body_of
 from core.conditions import ConditionLoads, condition_loads
 from core.errors import InputError
+from core.notices import Notice
 from core.plan import Project, Stage
+from core.usable import fitting_suits
 
 
 def stage_body(project: Project, stage: Stage, body: str | None = None) -> Body:
@@ -53,4 +55,30 @@ def analyse_stage(project: Project, stage: Stage, body: str | None = None) -> Ba
     b = stage_body(project, stage, body)
     cond = body_conditions(stage, b)
     bal = analyse_layout(stage, b, tug_layout(project, stage, b), project.units, cond.loads)
-    return replace(bal, notices=bal.notices + cond.notices) if cond.notices else bal
+    extra = cond.notices + fitting_notices(project, stage, b)
+    return replace(bal, notices=bal.notices + extra) if extra else bal
+
+
+def fitting_notices(project: Project, stage: Stage, body: Body) -> tuple[Notice, ...]:
+    """A tug made fast at a fitting whose SWL is below the tug's bollard pull (IMO rule)."""
+    out = []
+    members = {m.hull.name for m in body.members}
+    for p in stage.placements:
+        if p.hull not in members:
+            continue
+        fitting = body.fitting(p.hull, p.point)[1]
+        tug = project.tug(p.tug)
+        if fitting.kind != "line" or fitting.swl_n is None:
+            continue
+        if not fitting_suits(fitting.swl_n, tug.bollard_pull_n):
+            u = project.units
+            out.append(
+                Notice(
+                    "fitting_under_rated",
+                    p.tug,
+                    f"{p.tug}: bollard pull {u.show(tug.bollard_pull_n, 'force')} is above "
+                    f"the SWL {u.show(fitting.swl_n, 'force')} of {p.point}; the fitting is "
+                    "not rated for this tug",
+                )
+            )
+    return tuple(out)

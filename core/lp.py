@@ -89,7 +89,7 @@ class _Tableau:
             alpha = binv @ a[:, j]
             delta = -sgn * alpha  # change of the basic values per unit step
             xb, ub = x[self.basis], upper[self.basis]
-            with np.errstate(divide="ignore", invalid="ignore"):
+            with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
                 steps = np.where(
                     delta < -_PIVOT,
                     np.maximum(xb, 0.0) / -delta,

@@ -151,3 +151,30 @@ def usable_pull(
 ) -> UsablePull:
     """A tug's usable pull from its rated pull (ahead or astern) for the way it works."""
     return UsablePull(rated_n, table.efficiency(bollard_pull_n, sea_state), angle_rad)
+
+
+# -- fittings (IMO MSC.1/Circ.1175, 2005) -----------------------------------------------
+
+#: Design load of a towing fitting as a multiple of the intended maximum towing load.
+FITTING_DESIGN_FACTOR = 1.25
+#: Largest safe working load as a fraction of the design load.
+FITTING_SWL_FRACTION = 0.8
+
+
+def fitting_design_load_n(max_towing_load_n: float) -> float:
+    """Design load of a towing fitting: 1.25 x the intended maximum towing load (IMO)."""
+    return FITTING_DESIGN_FACTOR * max_towing_load_n
+
+
+def largest_swl_n(design_load_n: float) -> float:
+    """The largest SWL a fitting of this design load may carry: 80 % of it (IMO)."""
+    return FITTING_SWL_FRACTION * design_load_n
+
+
+def fitting_suits(swl_n: float, bollard_pull_n: float) -> bool:
+    """Whether a fitting of SWL ``swl_n`` suits a tug of this bollard pull.
+
+    A fitting designed for a tug of bollard pull P has design load 1.25 P and SWL up
+    to 0.8 x 1.25 P = P, so a fitting of SWL S suits tugs of bollard pull up to S.
+    """
+    return bollard_pull_n <= largest_swl_n(fitting_design_load_n(swl_n)) * (1 + 1e-9)

@@ -1,0 +1,220 @@
+"""The hold limits sweep against linprog, a closed form, and its laws."""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+from scipy.optimize import linprog
+
+from core.conditions import Conditions
+from core.holdlimits import hold_limits, hold_limits_problem, limit_at, zonotope_normals
+from core.plan import BodyPose, Project, Stage
+from core.tugs import Placement, Tug
+from tests.core.plan_builders import TF, box_hull
+
+# Leads as a planner enters them, in half degrees: lines a millionth of a degree apart make
+# the answer hang on the solvers' tolerances rather than on the layout.
+LEAD = st.integers(0, 719).map(lambda k: k / 2)
+
+HULL = box_hull("Barge", 80.0, 20.0, freeboard_m=4.0, draught_m=3.0)
+POINTS = ("bow", "stern", "port bow", "stbd bow", "port quarter", "stbd quarter")
+TIGHT = {"primal_feasibility_tolerance": 1e-10, "dual_feasibility_tolerance": 1e-10}
+
+
+def _plan(
+    leads_deg: list[float],
+    bps_t: list[float],
+    points: tuple[str, ...] = POINTS,
+    heading: float = 0.0,
+    conditions: Conditions | None = None,
+) -> tuple[Project, Stage]:
+    tugs = tuple(Tug(f"T{i}", bp * TF) for i, bp in enumerate(bps_t))
+    placements = tuple(
+        Placement(f"T{i}", "Barge", points[i % len(points)], 0.0, math.radians(lead), 60.0)
+        for i, lead in enumerate(leads_deg)
+    )
+    stage = Stage(
+        "s",
+        poses=(BodyPose("Barge", 0.0, 0.0, heading),),
+        placements=placements,
+        conditions=conditions or Conditions(wind_speed_ms=10.0),
+    )
+    return Project(hulls=(HULL,), tugs=tugs, stages=(stage,)), stage
+
+
+def _linprog_limit(gens: np.ndarray, fixed: np.ndarray, wind: np.ndarray) -> float:
+    """max s: G g + s w = -fixed, 0 <= g <= 1 (HiGHS), as V = sqrt(s)."""
+    n = gens.shape[1]
+    sc = np.array([1.0, 1.0, 1 / 80.0]) / max(np.abs(gens).max(), 1.0)
+    for options in (TIGHT, {}):  # tight tolerances, or HiGHS's own where they trip it up
+        r = linprog(
+            np.r_[np.zeros(n), -1.0],
+            A_eq=np.c_[gens * sc[:, None], wind * sc],
+            b_eq=-fixed * sc,
+            bounds=[(0, 1)] * n + [(0, None)],
+            method="highs",
+            options=options,
+        )
+        if r.status in (0, 2):
+            break
+    return math.sqrt(max(r.x[-1], 0.0)) if r.status == 0 else 0.0
+
+
+def test_closed_form_two_tugs_against_a_beam_wind() -> None:
+    # Wind from the starboard beam pushes the barge to port with q C A = 1/2 rho V^2 1.2 (80 x 4);
+    # tugs at the starboard bow and quarter lead square to starboard, 30 t each, symmetric
+    # about the centroid: they hold while 60 t >= 1/2 * 1.225 * 1.2 * 320 V^2.
+    project, stage = _plan([-90.0, -90.0], [30.0, 30.0], ("stbd bow", "stbd quarter"))
+    lim = hold_limits(hold_limits_problem(project, stage))
+    v = math.sqrt(60 * TF / (0.5 * 1.225 * 1.2 * 320.0))
+    assert limit_at(lim, 90.0) == pytest.approx(v, rel=1e-9)
+    # From the other beam the tugs cannot push: no wind can be held.
+    assert limit_at(lim, 270.0) == pytest.approx(0.0, abs=1e-9)
+
+
+@settings(max_examples=40, deadline=None)
+@given(
+    st.lists(LEAD, min_size=3, max_size=7),
+    st.lists(st.floats(10, 80), min_size=7, max_size=7),
+    st.one_of(st.just(0.0), st.floats(0.05, 1.5)),  # a current of 1e-5 kn is noise
+    st.floats(0, 360),
+)
+def test_agrees_with_linprog_direction_by_direction(
+    leads: list[float], bps: list[float], current_kn: float, current_to: float
+) -> None:
+    cond = Conditions(
+        wind_speed_ms=10.0,
+        current_speed_ms=current_kn * 0.514444,
+        current_towards_deg=current_to,
+    )
+    project, stage = _plan(leads, bps[: len(leads)], conditions=cond, heading=35.0)
+    problem = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 15.0))
+    lim = hold_limits(problem)
+    # Speeds agree to 1e-6 relative; near zero, to 1 mm/s (tolerances on flat cases).
+    for k in range(len(problem.directions_deg)):
+        ref = _linprog_limit(problem.generators, problem.fixed, problem.wind_unit[:, k])
+        assert lim.all_tugs_ms[k] == pytest.approx(ref, rel=1e-6, abs=1e-3)
+    for i in range(len(leads)):
+        g = np.delete(problem.generators, i, axis=1)
+        ref = _linprog_limit(g, problem.fixed, problem.wind_unit[:, 3])
+        assert lim.lost_ms[i, 3] == pytest.approx(ref, rel=1e-6, abs=1e-3)
+
+
+def test_flat_zonotope_when_no_tug_turns_the_body() -> None:
+    # Bow and stern tugs on the centreline leading fore and aft: no moment, no sideways
+    # pull: the reachable set is a segment; only head and stern winds can be held.
+    project, stage = _plan([0.0, 180.0], [40.0, 40.0], ("bow", "stern"))
+    problem = hold_limits_problem(project, stage, directions_deg=np.array([0.0, 45.0, 180.0]))
+    lim = hold_limits(problem)
+    v = math.sqrt(40 * TF / (0.5 * 1.225 * 0.8 * 20.0 * 4.0))  # head-on area 20 x 4, C 0.8
+    assert lim.all_tugs_ms == pytest.approx([v, 0.0, v], rel=1e-9, abs=1e-9)
+    # Bow tug lost: nothing pulls ahead, so a head wind (which pushes astern) cannot be held.
+    assert lim.lost_ms[0] == pytest.approx([0.0, 0.0, v], rel=1e-9, abs=1e-9)
+
+
+def test_zonotope_normals_bound_the_zonotope() -> None:
+    rng = np.random.default_rng(3)
+    gens = rng.normal(size=(3, 6))
+    normals = zonotope_normals(gens)
+    support = np.maximum(normals @ gens, 0).sum(axis=1)
+    # Every corner of the zonotope lies inside every half-space and on some of them.
+    for bits in range(64):
+        corner = gens @ np.array([(bits >> i) & 1 for i in range(6)], dtype=float)
+        slack = support - normals @ corner
+        assert slack.min() >= -1e-12
+
+
+def test_current_too_strong_alone_is_held_only_with_a_head_wind() -> None:
+    # A 3 m/s current sets the barge ahead with 1/2 rho C A V^2 = 0.5 * 1025 * 0.6 * (20 * 3) * 9;
+    # one 5 t stern tug pulls astern. Only a head wind (pushing astern, 1/2 rho C A per (m/s)^2
+    # = 0.5 * 1.225 * 0.8 * 80) can make up the rest: the body is held between two speeds.
+    cond = Conditions(wind_speed_ms=5.0, current_speed_ms=3.0, current_towards_deg=0.0)
+    project, stage = _plan([180.0], [5.0], ("stern",), conditions=cond)
+    lim = hold_limits(hold_limits_problem(project, stage))
+    assert not lim.holds_current
+    f_current, k_wind = 0.5 * 1025 * 0.6 * 60.0 * 9.0, 0.5 * 1.225 * 0.8 * 80.0
+    assert lim.all_tugs_ms[0] == pytest.approx(math.sqrt(f_current / k_wind), rel=1e-9)
+    assert lim.all_tugs_min_ms is not None
+    assert lim.all_tugs_min_ms[0] == pytest.approx(
+        math.sqrt((f_current - 5 * TF) / k_wind), rel=1e-9
+    )
+    assert np.all(lim.all_tugs_ms[1:] == 0.0)  # from anywhere else the wind cannot help
+
+
+leads = st.lists(LEAD, min_size=2, max_size=6)
+
+
+@settings(max_examples=40, deadline=None)
+@given(leads, st.floats(1.1, 4.0))
+def test_scaling_every_pull_scales_the_limit_by_its_root(lead: list[float], k: float) -> None:
+    # Wind load ~ V^2: with only wind on the body, k times the pulls holds sqrt(k) times the wind.
+    project, stage = _plan(lead, [40.0] * len(lead))
+    p = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 10.0))
+    base, more = hold_limits(p), hold_limits(p.scaled(k))
+    assert more.all_tugs_ms == pytest.approx(base.all_tugs_ms * math.sqrt(k), rel=1e-7, abs=1e-9)
+    assert more.worst_lost_ms == pytest.approx(
+        base.worst_lost_ms * math.sqrt(k), rel=1e-7, abs=1e-9
+    )
+
+
+def test_doubling_pulls_gives_root_two() -> None:
+    project, stage = _plan(
+        [-90.0, -90.0, 0.0], [30.0, 30.0, 20.0], ("stbd bow", "stbd quarter", "bow")
+    )
+    p = hold_limits_problem(project, stage)
+    base, double = hold_limits(p), hold_limits(p.scaled(2.0))
+    held = base.all_tugs_ms > 0
+    assert (double.all_tugs_ms[held] / base.all_tugs_ms[held]) == pytest.approx(math.sqrt(2.0))
+
+
+@settings(max_examples=30, deadline=None)
+@given(st.lists(st.tuples(st.sampled_from([0, 1, 2]), st.floats(0, 180)), min_size=1, max_size=3))
+def test_mirror_symmetric_layout_gives_a_mirror_symmetric_plot(
+    pairs: list[tuple[int, float]],
+) -> None:
+    # Each tug on the port side has its twin on the starboard side with the mirrored lead;
+    # heading 000 so that true and relative bearings agree; no current.
+    port = ("port bow", "port quarter", "bow")
+    stbd = ("stbd bow", "stbd quarter", "bow")
+    leads, points = [], []
+    for side, lead in pairs:
+        leads += [lead, -lead]
+        points += [port[side], stbd[side]]
+    project, stage = _plan(leads, [30.0] * len(leads), tuple(points))
+    lim = hold_limits(hold_limits_problem(project, stage))
+    v = lim.all_tugs_ms
+    mirrored = v[(-np.arange(360)) % 360]
+    assert v == pytest.approx(mirrored, rel=1e-7, abs=1e-9)
+    w = lim.worst_lost_ms
+    assert w == pytest.approx(w[(-np.arange(360)) % 360], rel=1e-7, abs=1e-9)
+
+
+@settings(max_examples=40, deadline=None)
+@given(leads, st.one_of(st.just(0.0), st.floats(0.05, 1.0)), st.floats(0, 360))
+def test_losing_a_tug_never_raises_the_limit(
+    lead: list[float], current_kn: float, current_to: float
+) -> None:
+    cond = Conditions(
+        wind_speed_ms=10.0, current_speed_ms=current_kn * 0.514444, current_towards_deg=current_to
+    )
+    project, stage = _plan(lead, [40.0] * len(lead), conditions=cond)
+    p = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 10.0))
+    lim = hold_limits(p)
+    assert np.all(
+        lim.lost_ms <= lim.all_tugs_ms * (1 + 1e-7) + 1e-9
+    )  # rounding on near-parallel lines
+    # And the lost rows are the sweeps of the problem without that tug.
+    for i, tug in enumerate(p.tugs):
+        alone = hold_limits(p.without(tug), with_lost=False)
+        assert alone.all_tugs_ms == pytest.approx(lim.lost_ms[i], rel=1e-7, abs=1e-9)
+
+
+def test_worst_lost_names_the_tug() -> None:
+    project, stage = _plan([-90.0, -90.0], [50.0, 20.0], ("stbd bow", "stbd quarter"))
+    lim = hold_limits(hold_limits_problem(project, stage))
+    assert lim.worst_lost_tug[90] in ("T0", "T1")
+    assert lim.worst_lost_ms[90] == pytest.approx(0.0, abs=1e-9)  # one tug alone turns the body
