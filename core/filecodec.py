@@ -9,6 +9,7 @@ stopping at the first. docs/file-format.md describes the format.
 
 from __future__ import annotations
 
+import itertools
 import math
 from collections.abc import Callable, Iterator
 from functools import partial
@@ -31,6 +32,7 @@ from core.plan import (
 )
 from core.tugs import Placement, Tug
 from core.units import CHOICES, DisplayUnits, factor
+from core.usable import EfficiencyTable
 
 FORMAT_NAME = "towboard"
 FORMAT_VERSION = 1
@@ -99,6 +101,11 @@ def encode(project: Project) -> Json:
             }
             for t in project.tugs
         ],
+        "tug_efficiency": {
+            "bollard_pull_kN": [num(v / KN) for v in project.tug_efficiency.bollard_pulls_n],
+            "sea_state": [num(v) for v in project.tug_efficiency.sea_states],
+            "efficiency": [[num(v) for v in row] for row in project.tug_efficiency.values],
+        },
         "site": {
             "name": project.site.name,
             "features": [
@@ -183,6 +190,18 @@ def _encode_stage(project: Project, s: Stage) -> Json:
             "current_towards_deg": num(c.current_towards_deg),
             "air_density_kg_m3": num(c.air_density),
             "water_density_kg_m3": num(c.water_density),
+            "wind_exponent": num(c.wind_exponent),
+            "wind_coefficient_head_on": num(c.wind_coeff_head),
+            "wind_coefficient_beam_on": num(c.wind_coeff_beam),
+            "current_coefficient_head_on": num(c.current_coeff_head),
+            "current_coefficient_beam_on": _opt(c.current_coeff_beam),
+            "wind_area_head_on_m2": _opt(c.wind_area_head_m2),
+            "wind_area_beam_on_m2": _opt(c.wind_area_beam_m2),
+            "current_area_head_on_m2": _opt(c.current_area_head_m2),
+            "current_area_beam_on_m2": _opt(c.current_area_beam_m2),
+            "wind_centre_m": None if c.wind_centre_m is None else _pt(c.wind_centre_m),
+            "current_centre_m": None if c.current_centre_m is None else _pt(c.current_centre_m),
+            "sea_state": num(c.sea_state),
         },
         "goal": None
         if s.goal is None
@@ -330,6 +349,7 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
             "hulls",
             "groups",
             "tugs",
+            "tug_efficiency",
             "site",
             "stages",
         ),
@@ -364,6 +384,7 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
         for p, item in r.items(top, "tugs", "")
         if (t := _decode_tug(r, item, p.lstrip("."))) is not None
     ]
+    efficiency = _decode_efficiency(r, top.get("tug_efficiency"), "tug_efficiency")
     site = _decode_site(r, top.get("site", {}))
     ctx = _Context(
         {h.name: h for h in hulls}, {t.name for t in tugs}, hull_names | {g.name for g in groups}
@@ -393,6 +414,7 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
             site=site or Site(),
             stages=tuple(stages),
             clearance_margin_m=margin if margin is not None else 10.0,
+            tug_efficiency=efficiency or EfficiencyTable(),
         ),
     )
     return (project if not r.problems else None), r.problems
@@ -676,6 +698,7 @@ def _decode_conditions(r: _Reader, value: Any, path: str) -> Conditions | None:
         "current_towards_deg",
         "air_density_kg_m3",
         "water_density_kg_m3",
+        *_LOAD_KEYS,
     )
     d = r.obj(value, path, (), keys)
     if d is None:
@@ -705,7 +728,109 @@ def _decode_conditions(r: _Reader, value: Any, path: str) -> Conditions | None:
         return None
     vals["wind_speed_ms"] = vals["wind_speed_ms"] * KNOT  # type: ignore[operator]
     vals["current_speed_ms"] = vals["current_speed_ms"] * KNOT  # type: ignore[operator]
-    return r.build(path, lambda: Conditions(**vals))  # type: ignore[arg-type]
+    extra = _decode_condition_loads(r, d, path)
+    if extra is None:
+        return None
+    return r.build(path, lambda: Conditions(**vals, **extra))  # type: ignore[arg-type]
+
+
+#: Keys of the loads part of the conditions (all optional) -> Conditions fields.
+_LOAD_KEYS = (
+    "wind_exponent",
+    "wind_coefficient_head_on",
+    "wind_coefficient_beam_on",
+    "current_coefficient_head_on",
+    "current_coefficient_beam_on",
+    "wind_area_head_on_m2",
+    "wind_area_beam_on_m2",
+    "current_area_head_on_m2",
+    "current_area_beam_on_m2",
+    "wind_centre_m",
+    "current_centre_m",
+    "sea_state",
+)
+_OPTIONAL_LOADS = {
+    "current_coefficient_beam_on": "current_coeff_beam",
+    "wind_area_head_on_m2": "wind_area_head_m2",
+    "wind_area_beam_on_m2": "wind_area_beam_m2",
+    "current_area_head_on_m2": "current_area_head_m2",
+    "current_area_beam_on_m2": "current_area_beam_m2",
+}
+
+
+def _decode_condition_loads(r: _Reader, d: Json, path: str) -> dict[str, object] | None:
+    """The coefficients, areas, centres of pressure and sea state of a stage's conditions."""
+    base = Conditions()
+    before = len(r.problems)
+    out: dict[str, object] = {
+        "wind_exponent": r.number(
+            d, "wind_exponent", path, default=base.wind_exponent, low=0.0, high=1.0
+        ),
+        "wind_coeff_head": r.number(
+            d, "wind_coefficient_head_on", path, default=base.wind_coeff_head, positive=True
+        ),
+        "wind_coeff_beam": r.number(
+            d, "wind_coefficient_beam_on", path, default=base.wind_coeff_beam, positive=True
+        ),
+        "current_coeff_head": r.number(
+            d, "current_coefficient_head_on", path, default=base.current_coeff_head, positive=True
+        ),
+        "sea_state": r.number(d, "sea_state", path, default=0.0, low=0.0, high=9.0),
+    }
+    for key, name in _OPTIONAL_LOADS.items():
+        out[name] = r.number(d, key, path, positive=True, unit="m^2" if key.endswith("m2") else "")
+    for key, name in (("wind_centre_m", "wind_centre_m"), ("current_centre_m", "current_centre_m")):
+        out[name] = None if d.get(key) is None else r.point(d[key], f"{path}.{key}")
+    return out if len(r.problems) == before else None
+
+
+def _decode_efficiency(r: _Reader, value: Any, path: str) -> EfficiencyTable | None:
+    """The tug efficiency table (bollard pull rows in kN, sea state columns)."""
+    if value is None:
+        return None
+    d = r.obj(value, path, ("bollard_pull_kN", "sea_state", "efficiency"))
+    if d is None:
+        return None
+    before = len(r.problems)
+    pulls = _numbers(r, d.get("bollard_pull_kN"), f"{path}.bollard_pull_kN")
+    seas = _numbers(r, d.get("sea_state"), f"{path}.sea_state")
+    rows_in = d.get("efficiency")
+    rows: list[list[float]] = []
+    if not isinstance(rows_in, list):
+        r.fail(f"{path}.efficiency", "must be a list of rows, one per bollard pull")
+    else:
+        for i, row in enumerate(rows_in):
+            nums = _numbers(r, row, f"{path}.efficiency[{i}]") or []
+            for j, v in enumerate(nums):
+                if not 0.0 <= v <= 1.0:
+                    r.fail(
+                        f"{path}.efficiency[{i}][{j}]", f"{v:g} is not an efficiency from 0 to 1"
+                    )
+            rows.append(nums)
+    for key, values in (("bollard_pull_kN", pulls), ("sea_state", seas)):
+        if values and any(b <= a for a, b in itertools.pairwise(values)):
+            r.fail(f"{path}.{key}", f"{values} must be in increasing order")
+    if len(r.problems) != before or pulls is None or seas is None:
+        return None
+    return r.build(
+        path,
+        lambda: EfficiencyTable(
+            tuple(v * KN for v in pulls), tuple(seas), tuple(tuple(row) for row in rows)
+        ),
+    )
+
+
+def _numbers(r: _Reader, value: Any, path: str) -> list[float] | None:
+    if not isinstance(value, list):
+        r.fail(path, "must be a list of numbers")
+        return None
+    out = []
+    for i, v in enumerate(value):
+        if isinstance(v, bool) or not isinstance(v, int | float) or not math.isfinite(v):
+            r.fail(f"{path}[{i}]", f"{v!r} is not a finite number")
+            return None
+        out.append(float(v))
+    return out
 
 
 def _decode_goal(r: _Reader, value: Any, path: str) -> Goal | None:

@@ -1,0 +1,103 @@
+"""The conditions' load fields and the tug efficiency table in the .towboard file."""
+
+from __future__ import annotations
+
+import json
+from dataclasses import replace
+from pathlib import Path
+
+import jsonschema
+import pytest
+
+from core.errors import ProjectFileError
+from core.projectfile import dumps, load, loads
+from core.usable import EfficiencyTable
+
+ROOT = Path(__file__).resolve().parents[2]
+SAMPLE = ROOT / "sample_projects" / "deck_barge_unberth.towboard"
+SCHEMA = json.loads((ROOT / "docs" / "towboard.schema.json").read_text())
+
+
+def _edited():  # type: ignore[no-untyped-def]
+    p = load(SAMPLE)
+    s0 = p.stages[0]
+    c = replace(
+        s0.conditions,
+        wind_exponent=0.14,
+        wind_coeff_head=0.7,
+        wind_coeff_beam=1.1,
+        current_coeff_head=0.5,
+        current_coeff_beam=0.75,
+        wind_area_head_m2=120.0,
+        wind_area_beam_m2=555.5,
+        current_area_head_m2=70.0,
+        current_area_beam_m2=260.0,
+        wind_centre_m=(60.0, 1.5),
+        current_centre_m=(40.0, 0.0),
+        sea_state=2.5,
+    )
+    table = EfficiencyTable((100e3, 300e3), (0.0, 3.0), ((1.0, 0.7), (1.0, 0.85)))
+    return replace(p.with_stage(replace(s0, conditions=c), 0), tug_efficiency=table)
+
+
+def test_every_new_field_round_trips_byte_identical() -> None:
+    project = _edited()
+    text = dumps(project)
+    jsonschema.validate(json.loads(text), SCHEMA)
+    again = loads(text)
+    assert again.stages[0].conditions == project.stages[0].conditions
+    assert again.tug_efficiency == project.tug_efficiency
+    assert dumps(again) == text
+
+
+def test_a_file_without_the_new_fields_gets_the_defaults() -> None:
+    data = json.loads(SAMPLE.read_text())
+    del data["tug_efficiency"]
+    for key in ("wind_exponent", "sea_state", "wind_area_beam_on_m2", "wind_centre_m"):
+        del data["stages"][0]["conditions"][key]
+    project = loads(json.dumps(data))
+    assert project.tug_efficiency == EfficiencyTable()
+    c = project.stages[0].conditions
+    assert (c.wind_exponent, c.sea_state, c.wind_area_beam_m2, c.wind_centre_m) == (
+        0.12,
+        0.0,
+        None,
+        None,
+    )
+
+
+def _problems(data: dict) -> list[str]:  # type: ignore[type-arg]
+    with pytest.raises(ProjectFileError) as e:
+        loads(json.dumps(data), "plan.towboard")
+    return [str(p) for p in e.value.problems]
+
+
+def test_bad_condition_fields_name_their_path() -> None:
+    data = json.loads(dumps(_edited()))
+    cond = data["stages"][0]["conditions"]
+    cond["wind_area_beam_on_m2"] = 0
+    cond["sea_state"] = 12
+    cond["wind_centre_m"] = [1]
+    cond["wind_coefficient_beam_on"] = -1
+    cond["wind_exponent"] = "steep"
+    assert _problems(data) == [
+        "stages[0].conditions.wind_exponent: 'steep' is not a number",
+        "stages[0].conditions.wind_coefficient_beam_on: -1 must be above zero",
+        "stages[0].conditions.sea_state: 12 is above 9",
+        "stages[0].conditions.wind_area_beam_on_m2: 0 m^2 must be above zero",
+        "stages[0].conditions.wind_centre_m: [1] is not a pair of numbers [x, y]",
+    ]
+
+
+def test_bad_efficiency_table_names_its_path() -> None:
+    data = json.loads(dumps(_edited()))
+    data["tug_efficiency"]["efficiency"][1] = [1, 1.5]
+    data["tug_efficiency"]["sea_state"] = [3, 0]
+    assert _problems(data) == [
+        "tug_efficiency.efficiency[1][1]: 1.5 is not an efficiency from 0 to 1",
+        "tug_efficiency.sea_state: [3.0, 0.0] must be in increasing order",
+    ]
+    data = json.loads(dumps(_edited()))
+    data["tug_efficiency"]["efficiency"] = [[1.0, 0.7]]
+    (problem,) = _problems(data)
+    assert problem.startswith("tug_efficiency: ") and "2 rows" in problem
