@@ -1,7 +1,8 @@
 """The ``towboard`` command.
 
 ``towboard [FILE]`` opens the window (the bundled sample when no file is given);
-``towboard report FILE [--json]`` prints each stage's balance without a window;
+``towboard report FILE [--json]`` prints each stage's balance, conditions, solved
+pulls, tug lost check and hold limits without a window;
 ``towboard brief FILE -o plan.pdf`` writes the printed briefing. Bad input exits 2
 with a one-line message on stderr, never a traceback.
 """
@@ -52,7 +53,10 @@ def main(argv: Sequence[str] | None = None) -> int:
     argv = list(sys.argv[1:] if argv is None else argv)
     try:
         if argv and argv[0] == "report":
-            p = _Parser(prog="towboard report", description="Print each stage's balance.")
+            p = _Parser(
+                prog="towboard report",
+                description="Print each stage's balance, conditions, solved pulls, tug lost check and hold limits.",
+            )
             p.add_argument("file", help="a .towboard file")
             p.add_argument("--json", action="store_true", help="print JSON in SI units")
             return _report(p.parse_args(argv[1:]))

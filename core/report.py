@@ -4,9 +4,19 @@ from __future__ import annotations
 
 from typing import Any
 
-from core.balance import Balance, analyse
+from core.balance import Balance
 from core.frames import turning_words, walking_words
+from core.loads import analyse_stage
 from core.plan import Project, Stage
+from core.report_conditions import (
+    conditions_json,
+    conditions_lines,
+    hold_limit_lines,
+    hold_limits_json,
+    solve_json,
+    solve_lines,
+    stage_extras,
+)
 from core.units import DisplayUnits, fmt, label
 
 FRAME_NOTE = (
@@ -22,10 +32,11 @@ CAUTION = (
 
 
 def stage_balances(project: Project) -> list[tuple[Stage, Balance | None]]:
-    """Each stage with the balance of the body its tugs work on (None if no hull)."""
+    """Each stage with the balance of the body its tugs work on, with the stage's wind and
+    current (None if no hull)."""
     out: list[tuple[Stage, Balance | None]] = []
     for s in project.stages:
-        out.append((s, analyse(project, s) if project.hulls else None))
+        out.append((s, analyse_stage(project, s) if project.hulls else None))
     return out
 
 
@@ -88,11 +99,23 @@ def report_json(project: Project) -> dict[str, Any]:
         "units": {"force": "N", "moment": "N*m", "length": "m", "angle": "deg"},
         "frame": FRAME_NOTE,
         "caution": CAUTION,
-        "stages": [
-            {"stage": s.name, "kind": s.kind, "balance": None if b is None else balance_json(b)}
-            for s, b in stage_balances(project)
-        ],
+        "stages": [_stage_json(project, s, b) for s, b in stage_balances(project)],
     }
+
+
+def _stage_json(project: Project, s: Stage, b: Balance | None) -> dict[str, Any]:
+    out: dict[str, Any] = {
+        "stage": s.name,
+        "kind": s.kind,
+        "balance": None if b is None else balance_json(b),
+    }
+    x = stage_extras(project, s)
+    if x is not None:
+        out["conditions"] = conditions_json(project, s, x.body)
+        out["solve"] = solve_json(x)
+        out["hold_limits"] = hold_limits_json(s, x.limits)
+        out["notes"] = list(x.notes)
+    return out
 
 
 def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
@@ -152,6 +175,11 @@ def report_text(project: Project) -> str:
             out.append("  no hull to work on")
         else:
             out.extend(_balance_lines(b, u))
+            x = stage_extras(project, s)
+            if x is not None:
+                out.extend(conditions_lines(s, x.body, u))
+                out.extend(solve_lines(x, u))
+                out.extend(hold_limit_lines(s, x.limits, u))
         out.append("")
     out.append(CAUTION)
     return "\n".join(out) + "\n"

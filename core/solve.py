@@ -38,12 +38,14 @@ import numpy as np
 
 from core.balance import Load, tug_direction, tug_layout
 from core.errors import InputError
+from core.frames import angle_to_bearing
 from core.goals import Goal
 from core.loads import body_conditions, loads_wrench, stage_body
 from core.lp import solve_lp
 from core.notices import Notice
 from core.plan import Project, Stage
 from core.tugs import Placement
+from core.units import DisplayUnits
 
 #: Spacing of candidate leads within a lead sector, degrees.
 SECTOR_STEP_DEG = 5.0
@@ -192,6 +194,7 @@ class PullsResult:
     leads_rad: np.ndarray  # (n,) the lead each tug works at (solved within a sector)
     achieved: np.ndarray  # (3,)
     shortfall: np.ndarray  # (3,)
+    directions: np.ndarray | None = None  # (n, 2) unit direction of each tug's force, body frame
 
     @property
     def utilisation(self) -> np.ndarray:
@@ -206,6 +209,11 @@ class PullsResult:
     @property
     def total_pull_n(self) -> float:
         return float(self.pulls_n.sum())
+
+    def bearing_deg(self, i: int) -> float:
+        """Relative bearing of tug ``i``'s force on the body (degrees clockwise from ahead)."""
+        d = self.directions[i] if self.directions is not None else (1.0, 0.0)
+        return angle_to_bearing(math.atan2(d[1], d[0]))
 
     @property
     def net(self) -> np.ndarray:
@@ -360,23 +368,26 @@ def solve_pulls(problem: PullsProblem) -> PullsResult:
     forces = problem.columns[:2] * pull_cols  # (2, k)
     pulls = np.zeros(n)
     leads = np.array([p.lead_rad for p in problem.placements], dtype=float)
+    dirs = np.zeros((n, 2))
     for i in range(n):
         sel = problem.column_tug == i
+        first = problem.columns[:2, sel][:, 0]
+        dirs[i] = first
         if sel.sum() == 1:
             pulls[i] = pull_cols[sel][0]
             continue
         f = forces[:, sel].sum(axis=1)
         pulls[i] = math.hypot(f[0], f[1])
         if pulls[i] > 0:
-            d0 = problem.columns[:2, sel][:, 0]
-            turn = math.atan2(d0[0] * f[1] - d0[1] * f[0], d0 @ f)
+            turn = math.atan2(first[0] * f[1] - first[1] * f[0], first @ f)
             leads[i] = float(problem.column_lead_rad[sel][0] + turn)
+            dirs[i] = f / pulls[i]
     pulls = np.minimum(pulls, problem.usable_n)
     achieved = problem.columns @ pull_cols if sc.k else np.zeros(3)
     shortfall = required - achieved
     scale = np.array([1.0, 1.0, sc.l_ref]) * max(sc.u_ref, 1.0)
     met = bool(np.all(np.abs(shortfall) <= GOAL_TOL * scale))
-    return PullsResult(problem, met, pulls, leads, achieved, np.where(met, 0.0, shortfall))
+    return PullsResult(problem, met, pulls, leads, achieved, np.where(met, 0.0, shortfall), dirs)
 
 
 # -- the tug lost check ---------------------------------------------------------------
@@ -437,3 +448,21 @@ def tug_lost_check(problem: PullsProblem) -> TugLostCheck:
     full = solve_pulls(problem)
     cases = tuple(TugLostCase(t, solve_pulls(problem.without(t))) for t in problem.tugs)
     return TugLostCheck(problem, full, cases)
+
+
+def shortfall_words(shortfall: np.ndarray, units: DisplayUnits) -> str:
+    """What the tugs would need on top of what they give, in words and display units.
+
+    ``shortfall`` is (force ahead, force to port, moment about the centroid), N and N*m.
+    """
+    fx, fy, m = (float(v) for v in shortfall)
+    parts = []
+    tol_f = 1e-9 * (abs(fx) + abs(fy)) + 1e-6
+    if abs(fx) > tol_f:
+        parts.append(f"{units.show(abs(fx), 'force')} more {'ahead' if fx > 0 else 'astern'}")
+    if abs(fy) > tol_f:
+        parts.append(f"{units.show(abs(fy), 'force')} more to {'port' if fy > 0 else 'starboard'}")
+    if abs(m) > 1e-6:
+        side = "port" if m > 0 else "starboard"
+        parts.append(f"{units.show(abs(m), 'moment')} more swinging the bow to {side}")
+    return "needs " + ", ".join(parts) if parts else "nothing missing"

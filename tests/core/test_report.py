@@ -15,7 +15,7 @@ import numpy as np
 import pytest
 import shapely
 
-from core.balance import analyse
+from core.loads import analyse_stage
 from core.projectfile import load
 from core.report import report_json, report_text
 
@@ -70,7 +70,64 @@ def _hand_balance(data: dict, stage: int) -> tuple[np.ndarray, float, tuple[floa
         force = pull * np.array([math.cos(angle), math.sin(angle)])
         net += force
         moment += (x - c[0]) * force[1] - (y - c[1]) * force[0]
+    for (x, y), force in _hand_conditions(data, stage):
+        net += force
+        moment += (x - c[0]) * force[1] - (y - c[1]) * force[0]
     return net, moment, c
+
+
+def _hand_conditions(data: dict, stage: int) -> list[tuple[tuple[float, float], np.ndarray]]:
+    """Wind and current by F = 1/2 rho C A V^2 on the head-on and side areas (outline
+    extent x freeboard or draught), cos|cos| ahead and sin|sin| abeam of the flow, acting
+    at the middle of the outline's extent; Hoerner's cross-flow table (REFERENCES.md) for
+    the current beam-on coefficient; wind power law U10 = U(z) / (z/10)^a."""
+    hull, st = data["hulls"][0], data["stages"][stage]
+    cond, heading = st["conditions"], st["poses"][0]["heading_deg"]
+    xs = [p[0] for p in hull["outline_m"]]
+    ys = [p[1] for p in hull["outline_m"]]
+    length, beam = max(xs) - min(xs), max(ys) - min(ys)
+    centre = ((max(xs) + min(xs)) / 2, (max(ys) + min(ys)) / 2)
+    knot = 1852 / 3600
+    out = []
+    v = cond["wind_speed_kn"] * knot / (cond["wind_height_m"] / 10) ** cond["wind_exponent"]
+    v *= cond["gust_factor"]
+    b = -math.radians((cond["wind_from_deg"] + 180 - heading) % 360)
+    q = 0.5 * cond["air_density_kg_m3"] * v * v
+    fb = hull["freeboard_m"]
+    out.append(
+        (
+            centre,
+            q
+            * np.array(
+                [
+                    cond["wind_coefficient_head_on"] * beam * fb * math.cos(b) * abs(math.cos(b)),
+                    cond["wind_coefficient_beam_on"] * length * fb * math.sin(b) * abs(math.sin(b)),
+                ]
+            ),
+        )
+    )
+    v = cond["current_speed_kn"] * knot
+    b = -math.radians((cond["current_towards_deg"] - heading) % 360)
+    q = 0.5 * cond["water_density_kg_m3"] * v * v
+    t = hull["draught_m"]
+    cd_beam = cond["current_coefficient_beam_on"]
+    if cd_beam is None:
+        cd_beam = float(
+            np.interp(beam / (2 * t), [0.99, 1.64, 3.01, 4.0], [0.828, 0.691, 0.587, 0.559])
+        )
+    out.append(
+        (
+            centre,
+            q
+            * np.array(
+                [
+                    cond["current_coefficient_head_on"] * beam * t * math.cos(b) * abs(math.cos(b)),
+                    cd_beam * length * t * math.sin(b) * abs(math.sin(b)),
+                ]
+            ),
+        )
+    )
+    return out
 
 
 @pytest.mark.parametrize("stage", [0, 1])
@@ -98,7 +155,7 @@ def test_report_json_numbers_are_the_cores() -> None:
         project = load(path)
         rep = report_json(project)
         for s, out in zip(project.stages, rep["stages"], strict=True):
-            b = analyse(project, s)
+            b = analyse_stage(project, s)  # the tugs with the stage's wind and current
             assert out["balance"]["yaw_moment_about_centroid_Nm"] == b.moment_centroid_nm
             assert [t["assigned_pull_N"] for t in out["balance"]["tugs"]] == [
                 sh.pull_n for sh in b.shares

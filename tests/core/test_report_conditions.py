@@ -1,0 +1,94 @@
+"""The report's conditions, solved pulls, tug lost table and hold limits (text and JSON)."""
+
+from __future__ import annotations
+
+import json
+import math
+
+import pytest
+
+from core.conditions import Conditions
+from core.goals import Goal
+from core.plan import BodyPose, Project, Stage
+from core.report import report_json, report_text
+from core.solve import shortfall_words
+from core.tugs import Placement, Tug
+from core.units import DisplayUnits
+from tests.core.plan_builders import TF, box_hull
+
+KNOT = 1852 / 3600
+
+
+def _plan(goal: Goal | None = None) -> Project:
+    # A beam wind from the port side (from 270 true, heading 000) on an 80 x 4 m side area;
+    # two 30 t tugs at the port bow and quarter leading square to port.
+    hull = box_hull("Barge", 80.0, 20.0, freeboard_m=4.0, draught_m=3.0)
+    tugs = (Tug("Gannet", 30 * TF), Tug("Puffin", 30 * TF))
+    stage = Stage(
+        "Hold at the berth",
+        "berth",
+        poses=(BodyPose("Barge", 0.0, 0.0, 0.0),),
+        placements=(
+            Placement("Gannet", "Barge", "port bow", 0.2, math.pi / 2, 50.0),
+            Placement("Puffin", "Barge", "port quarter", 0.2, math.pi / 2, 50.0),
+        ),
+        conditions=Conditions(wind_speed_ms=20.0, wind_from_deg=270.0),
+        goal=goal,
+    )
+    return Project(name="Report plan", hulls=(hull,), tugs=tugs, stages=(stage,))
+
+
+WIND = 0.5 * 1.225 * 1.2 * 320.0 * 20.0**2  # N: 1/2 rho C A V^2 (ISO 2533 air, C 1.2 beam-on)
+
+
+def test_json_has_the_conditions_the_solve_and_the_hold_limits() -> None:
+    rep = report_json(_plan())
+    st = rep["stages"][0]
+    json.dumps(rep, allow_nan=False)
+    cond = st["conditions"]
+    assert cond["wind_from_relative_deg"] == pytest.approx(270.0)
+    (wind,) = cond["loads"]
+    assert wind["force_N"]["to_port"] == pytest.approx(-WIND)
+    solve = st["solve"]
+    assert solve["goal"] == {
+        "kind": "hold",
+        "given_by_stage": False,
+        "force_ahead_N": 0.0,
+        "force_to_port_N": 0.0,
+        "yaw_moment_about_centroid_Nm": 0.0,
+    }
+    assert solve["solved"]["goal_met"] is True
+    assert [t["pull_N"] for t in solve["solved"]["tugs"]] == pytest.approx([WIND / 2] * 2)
+    # One tug alone cannot hold without swinging the barge: the check fails for both.
+    cases = solve["tug_lost"]["cases"]
+    assert [c["goal_still_met"] for c in cases] == [False, False]
+    assert solve["tug_lost"]["passes"] is False
+    hl = st["hold_limits"]
+    assert len(hl["directions_true_deg"]) == 360
+    # Closed form from the port beam: 60 t = 1/2 rho C A V^2.
+    v = math.sqrt(60 * TF / (0.5 * 1.225 * 1.2 * 320.0))
+    assert hl["all_tugs_ms"][270] == pytest.approx(v, rel=1e-9)
+    assert hl["at_planned_wind_direction"]["all_tugs_ms"] == pytest.approx(v, rel=1e-9)
+    assert hl["worst_tug_lost_ms"][270] == pytest.approx(0.0, abs=1e-9)
+
+
+def test_the_balance_includes_the_wind() -> None:
+    bal = report_json(_plan())["stages"][0]["balance"]
+    # 2 x 20 % of 30 t to port against the wind to starboard.
+    assert bal["net_force_N"]["to_port"] == pytest.approx(0.4 * 30 * TF - WIND)
+
+
+def test_text_says_it_in_display_units_and_words() -> None:
+    text = report_text(_plan(Goal("walk", 0.0, 100 * TF)))
+    assert "Wind            38.9 kn at 10 m from 270.0 true (270.0 relative)" in text
+    assert "goal walk: walks to port with 100.0 t: NOT MET" in text
+    assert "Tug lost check  not meaningful" in text
+    assert "Hold limits" in text and "1 lost" in text
+    assert "-0.0" not in text
+
+
+def test_shortfall_in_words() -> None:
+    u = DisplayUnits()
+    words = shortfall_words([0.0, -2 * TF, 50 * TF], u)  # type: ignore[arg-type]
+    assert words == "needs 2.0 t more to starboard, 50.0 t·m more swinging the bow to port"
+    assert shortfall_words([0.0, 0.0, 0.0], u) == "nothing missing"  # type: ignore[arg-type]
