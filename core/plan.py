@@ -168,10 +168,12 @@ class Stage:
         return replace(self, placements=tuple(p for p in self.placements if p.tug != tug))
 
     def pose_of(self, body: str) -> BodyPose:
+        """The body's pose; a body with no pose lies at the origin bow east (heading 090),
+        as the board draws it, so the conditions meet it as drawn."""
         for p in self.poses:
             if p.body == body:
                 return p
-        return BodyPose(body)
+        return BodyPose(body, 0.0, 0.0, 90.0)
 
 
 @dataclass(frozen=True, slots=True)
