@@ -44,7 +44,9 @@ from app.panels.balance_panel import BalancePanel
 from app.panels.hull_panel import HullPanel
 from app.panels.tugs_panel import TugsPanel
 from app.panels.units_panel import UnitsPanel
+from app.plan_ui import install as install_plan
 from app.recovery import RecoveryWriter, find_orphans
+from app.solve_ui import install as install_solve
 from core.errors import ProjectFileError, TowboardError
 from core.hull import Hull
 from core.plan import Project, Stage
@@ -92,6 +94,8 @@ class MainWindow(QMainWindow):
         self._build_menus()
         self._build_toolbar()
         self._connect()
+        install_plan(self)  # the stage list, the site on the board, print and PDF
+        install_solve(self)  # conditions, solve pulls, tug lost check, hold limits
         self.recovery = RecoveryWriter(self.controller)
         self.resize(1400, 900)
         self._update_title()
