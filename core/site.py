@@ -63,7 +63,8 @@ def body_pose(project: Project, stage: Stage, body: str) -> BodyPose:
 
     A pose may be given for the body itself or for one hull of a lashed group; in the
     second case the group's pose follows from where that member lies in the group.
-    A body with no pose in the stage lies at the site origin heading north.
+    A body with no pose in the stage lies as :meth:`Stage.pose_of` says (at the site
+    origin, bow east, as the board draws it).
     """
     for p in stage.poses:
         if p.body == body:
@@ -81,7 +82,7 @@ def body_pose(project: Project, stage: Stage, body: str) -> BodyPose:
             oy = p.y - (s * member.x + c * member.y)
             heading = (90.0 - math.degrees(angle)) % 360.0
             return BodyPose(body, ox, oy, heading)
-    return BodyPose(body)
+    return stage.pose_of(body)
 
 
 def posed_bodies(project: Project, stage: Stage) -> tuple[str, ...]:

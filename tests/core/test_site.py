@@ -115,3 +115,10 @@ def test_basin_limit_is_measured_to_its_boundary():
     assert feature_geometry(quay("Q", (0, 0), (1, 0))).geom_type == "LineString"
     with pytest.raises(InputError, match="corner 1"):
         basin("Bad", [(0, 0), (math.nan, 0), (1, 1)])
+
+
+def test_a_body_with_no_pose_lies_as_the_stage_says():
+    p = two_tug_plan()
+    stage = Stage("s")
+    assert body_pose(p, stage, "Barge") == stage.pose_of("Barge")
+    assert body_pose(p, stage, "Barge").heading_deg == 90.0  # bow east, as the board draws it
