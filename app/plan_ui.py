@@ -19,6 +19,8 @@ from PySide6.QtWidgets import QDialog, QFileDialog, QMessageBox
 
 from app.board.site_layer import SiteLayer
 from app.briefing import page_layout, render, write_pdf
+from app.site_panel import SitePanel
+from app.stage_details import StageDetails
 from app.stage_list import StageList
 from core.errors import TowboardError
 
@@ -39,7 +41,13 @@ class PlanUi:
         self.window = window
         self.controller = window.controller
         self.stage_list = StageList(self.controller)
-        window.add_panel("stages", self.stage_list, "Stages", Qt.DockWidgetArea.LeftDockWidgetArea)
+        self.stage_details = StageDetails(self.controller)
+        self.site_panel = SitePanel(self.controller)
+        left = Qt.DockWidgetArea.LeftDockWidgetArea
+        window.add_panel("stages", self.stage_list, "Stages", left)
+        window.add_panel("stage", self.stage_details, "Stage", left)
+        window.add_panel("site", self.site_panel, "Site", left, tabify_with="stage")
+        window.panels["stage"].raise_()
         self.site = SiteLayer(window.board)
         self.paper = default_paper()
         K = QKeySequence.StandardKey
@@ -63,6 +71,7 @@ class PlanUi:
             ("De&lete stage", sl.delete),
         ):
             plan.addAction(self._action(text, slot))
+        plan.addAction(self._action("Add site &feature…", self.site_panel.add))
         plan.addSeparator()
         paper_menu = plan.addMenu("Briefing &paper")
         group = QActionGroup(window)
