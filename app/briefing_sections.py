@@ -647,10 +647,10 @@ def _clearances(project: Project, check: StageCheck) -> list[Block]:
     if rest:
         rows.append(
             [
+                f"{len(rest)} more",
+                "farther off",
                 "",
-                f"{len(rest)} more, each at least {u.show(rest[0].distance_m, 'length')} away",
-                "",
-                "",
+                f"≥ {u.show(rest[0].distance_m, 'length')}",
                 "",
                 "",
             ]

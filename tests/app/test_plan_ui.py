@@ -160,3 +160,23 @@ def test_print_sends_the_briefing_to_the_printer(window, tmp_path, monkeypatch):
     n = len(reader.pages)
     assert f"page {n} of {n}" in norm(reader.pages[-1].extract_text())
     assert float(reader.pages[0].mediabox.height) == pytest.approx(842, abs=1)  # A4, 297 mm
+
+
+def test_the_briefing_numbers_are_the_boards(window):
+    from core.checks import check_plan
+
+    project = window.controller.project
+    u = project.units
+    for check in check_plan(project):
+        board = window.controller.compute_results(project, check.stage)
+        for b in check.balances:
+            shown = board[b.body].balance
+            assert u.show(shown.net_magnitude, "force") == u.show(b.net_magnitude, "force")
+            assert shown.net_force == pytest.approx(b.net_force, rel=1e-12, abs=1e-9)
+            assert shown.moment_centroid_nm == pytest.approx(
+                b.moment_centroid_nm, rel=1e-12, abs=1e-6
+            )
+            assert [(s.tug, u.show(s.pull_n, "force")) for s in shown.shares] == [
+                (s.tug, u.show(s.pull_n, "force")) for s in b.shares
+            ]
+            assert [ld.name for ld in shown.loads] == [ld.name for ld in b.loads]
