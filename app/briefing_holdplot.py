@@ -79,9 +79,8 @@ class HoldPlot:
             p.setPen(QPen(RULE, ctx.mm(0.15)))
             p.drawEllipse(centre, r, r)
             p.setPen(MUTED)
-            p.drawText(
-                QPointF(centre.x() + ctx.mm(0.6), centre.y() - r + ctx.mm(2.2)), fmt(k * ring, 0)
-            )
+            q = at(15.0, k * ring)  # along a spoke clear of north
+            p.drawText(QPointF(q.x() + ctx.mm(0.5), q.y() + ctx.mm(0.8)), fmt(k * ring, 0))
         for d in range(0, 360, 30):
             p.setPen(QPen(RULE, ctx.mm(0.12)))
             p.drawLine(centre, at(d, top))
@@ -127,13 +126,14 @@ class HoldPlot:
             lines.append((TUG_LOST, Qt.PenStyle.DashLine, "worst single tug lost"))
         if max_wind is not None:
             lines.append((FAIL, Qt.PenStyle.DotLine, f"stage limit {u.show(max_wind, 'speed')}"))
-        lines.append(
-            (
-                None,
-                None,
-                f"planned wind {u.show(c.wind_speed_ms, 'speed')} from {c.wind_from_deg:03.0f}° (dot)",
+        if planned > 0:
+            lines.append(
+                (
+                    None,
+                    None,
+                    f"planned wind {u.show(c.wind_speed_ms, 'speed')} from {c.wind_from_deg:03.0f}° (dot)",
+                )
             )
-        )
         p.setFont(ctx.font(7.0))
         for color, style, text in lines:
             if color is not None and style is not None:
@@ -163,6 +163,17 @@ class HoldPlot:
             facts.append(
                 f"From the planned direction {c.wind_from_deg:03.0f}°: {u.show(here, 'speed')} "
                 f"with all tugs (planned {u.show(c.wind_speed_ms, 'speed')})."
+                + (
+                    " The planned wind is more than the tugs can hold."
+                    if here < c.wind_speed_ms
+                    else ""
+                )
+            )
+        held = int(np.count_nonzero(np.asarray(lim.all_tugs_ms) > 0))
+        if held < len(dirs):
+            facts.append(
+                f"Some wind can be held from {held} of the {len(dirs)} directions swept; from the "
+                "others the tugs, at their leads as set, cannot resist any wind."
             )
         if not lim.holds_current:
             facts.append("The tugs cannot hold the body against the current alone.")

@@ -274,3 +274,37 @@ def test_units_follow_the_plan(tmp_path, qapp_module):
             for sh in b.shares:
                 assert kn.units.show(sh.pull_n, "force") in text
     assert "force in kN, moment in kN·m, length in ft, speed in m/s" in text
+
+
+def test_the_hold_limits_plot_states_the_cores_lowest_limits(tmp_path, qapp_module):
+    from app.briefing import write_pdf
+    from core.frames import bearing_to_angle
+    from core.goals import Goal
+    from core.holdlimits import hold_limits, hold_limits_problem
+    from core.tugs import Placement
+
+    project = load(TWIN)
+    # tugs that work every way: a bow line ahead, a stern line astern, a push on each side
+    hold = replace(
+        project.stages[2],
+        name="Hold in the basin",
+        goal=Goal("hold"),
+        placements=(
+            Placement("Rowan", "Lark 41", "Bow centre bitt", 0.2, bearing_to_angle(0), 60.0),
+            Placement("Alder", "Lark 41", "Stern centre bitt", 0.1, bearing_to_angle(180), 45.0),
+            Placement("Sedge", "Lark 42", "Stbd fwd pad", 0.0),
+            Placement("Hazel", "Lark 41", "Port aft pad", 0.0),
+        ),
+    )
+    plan = replace(project, stages=(hold,))
+    limits = hold_limits(hold_limits_problem(plan, hold, "Lark pair"))
+    assert limits.holds_current
+    out = tmp_path / "hold.pdf"
+    write_pdf(plan, out)
+    text = " ".join(pages_text(out))
+    u = plan.units
+    d, v = limits.lowest()
+    assert f"Lowest with all tugs: {u.show(v, 'speed')} from {d:03.0f}°." in text
+    d2, v2 = limits.lowest(limits.worst_lost_ms)
+    assert f"Lowest with the worst tug lost: {u.show(v2, 'speed')} from {d2:03.0f}°." in text
+    assert "worst single tug lost" in text and "stage limit 22.0 kn" in text
