@@ -108,6 +108,9 @@ class Controller(QObject):
         self._results: dict[str, BodyResult] | None = None
         self._results_override: dict[str, BodyResult] | None = None
         self.load_providers: list[LoadProvider] = []
+        #: Callables ``(project) -> project`` run on every edit and preview before it is
+        #: shown (live solving fills in the settings); the same object back means no change.
+        self.edit_filters: list[Callable[[Project], Project]] = []
         self.undo_stack = QUndoStack(self)
         self.undo_stack.cleanChanged.connect(lambda clean: self.dirty_changed.emit(not clean))
 
@@ -203,8 +206,19 @@ class Controller(QObject):
             self.stage_changed.emit(self._stage_index)
         self.changed.emit()
 
+    def _filtered(self, new: Project) -> Project:
+        for f in self.edit_filters:
+            new = f(new)
+        return new
+
+    def invalidate(self) -> None:
+        """Work the results out again (a load provider was added) and tell every widget."""
+        self._results = None
+        self.changed.emit()
+
     def apply(self, new: Project, text: str, merge_key: object | None = None) -> None:
         """Record an edit to ``new`` as one undo step (merging with the same key)."""
+        new = self._filtered(new)
         if self._preview_base is not None:
             base, self._preview_base = self._preview_base, None
             self._results_override = None
@@ -223,6 +237,9 @@ class Controller(QObject):
         ``results`` may carry the bodies' results already computed for ``new`` (the
         fast drag path), so they are not computed twice.
         """
+        filtered = self._filtered(new)
+        if filtered is not new:
+            new, results = filtered, None
         if self._preview_base is None:
             self._preview_base = self._project
         self._set_project(new, results)

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 
 from PySide6.QtCore import QPointF, QRectF, Qt
 from PySide6.QtGui import QPainter, QTransform
@@ -36,6 +37,8 @@ class BoardView(QGraphicsView):
         self._pan: QPointF | None = None
         self._fitted = False
         self._wheel_rest = 0
+        #: Callables ``(painter, width, height)`` drawing on top in viewport pixels.
+        self.foreground_hooks: list[Callable[[QPainter, int, int], None]] = []
 
     # -- zoom and pan ---------------------------------------------------------------
     def pixels_per_metre(self) -> float:
@@ -141,4 +144,6 @@ class BoardView(QGraphicsView):
             self.board.controller.project.units,
         )
         draw_north_arrow(painter, QPointF(w - 36, 48))
+        for hook in self.foreground_hooks:  # e.g. the wind and current card
+            hook(painter, w, h)
         painter.restore()

@@ -1,0 +1,482 @@
+"""The conditions panel: wind, current, sea state, and what their loads are computed with.
+
+Speeds are typed in the display speed unit, lengths in the display length unit, areas
+in its square; directions are true bearings (wind from, current towards). Optional
+fields left blank take the core's value (areas from the outline and freeboard or
+draught, Hoerner's coefficient, the centre of each projection), shown greyed in the
+field. Below the form the panel shows what the body feels: the relative directions
+and each load with its yaw moment about the centroid, from core.conditions.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, replace
+
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import (
+    QDialog,
+    QDialogButtonBox,
+    QFormLayout,
+    QGroupBox,
+    QHBoxLayout,
+    QLabel,
+    QLineEdit,
+    QMessageBox,
+    QPushButton,
+    QScrollArea,
+    QTableWidget,
+    QTableWidgetItem,
+    QVBoxLayout,
+    QWidget,
+)
+
+from app.controller import Controller
+from core.conditions import Conditions, hoerner_cross_flow, projection
+from core.errors import InputError, TowboardError
+from core.frames import turning_words
+from core.loads import body_conditions, loads_wrench, stage_body
+from core.units import DisplayUnits, label
+from core.usable import EfficiencyTable
+
+
+@dataclass(frozen=True, slots=True)
+class Field:
+    attr: str  # Conditions field
+    title: str
+    kind: str  # "speed", "bearing", "plain", "area", "density", "sea"
+    optional: bool = False
+    tip: str = ""
+
+
+WIND = (
+    Field("wind_speed_ms", "Mean speed", "speed", tip="Mean wind speed at the height below"),
+    Field("wind_height_m", "Measured at height (m)", "plain", tip="Height of the wind reading"),
+    Field("wind_from_deg", "From (° true)", "bearing", tip="True bearing the wind blows from"),
+    Field("gust_factor", "Gust factor", "plain", tip="Gust speed over mean speed (1 = mean)"),
+    Field(
+        "wind_exponent",
+        "Height exponent",
+        "plain",
+        tip="Power law U(z) = U10 (z/10)^a; 0.12 over open sea, 1/7 over land",
+    ),
+)
+CURRENT = (
+    Field("current_speed_ms", "Speed", "speed"),
+    Field(
+        "current_towards_deg",
+        "Sets towards (° true)",
+        "bearing",
+        tip="True bearing the current sets towards",
+    ),
+)
+SEA = (Field("sea_state", "Sea state (0-9)", "sea", tip="For the tug efficiency table"),)
+LOADS = (
+    Field("wind_coeff_head", "Wind coefficient head-on", "plain"),
+    Field("wind_coeff_beam", "Wind coefficient beam-on", "plain"),
+    Field("current_coeff_head", "Current coefficient head-on", "plain"),
+    Field(
+        "current_coeff_beam",
+        "Current coefficient beam-on",
+        "plain",
+        True,
+        "Blank: Hoerner's 2-D cross-flow value for the body's B/2T",
+    ),
+    Field("wind_area_head_m2", "Wind area head-on", "area", True, "Blank: beam × freeboard"),
+    Field("wind_area_beam_m2", "Wind area beam-on", "area", True, "Blank: length × freeboard"),
+    Field("current_area_head_m2", "Current area head-on", "area", True, "Blank: beam × draught"),
+    Field("current_area_beam_m2", "Current area beam-on", "area", True, "Blank: length × draught"),
+    Field("air_density", "Air density (kg/m³)", "density", tip="1.225: ISO 2533 at 15 °C"),
+    Field(
+        "water_density",
+        "Water density (kg/m³)",
+        "density",
+        tip="1025 seawater (common practice); 1026.02 ITTC at 15 °C; 999.1 fresh",
+    ),
+)
+CENTRES = (
+    ("wind_centre_m", "Wind centre of pressure (x, y)"),
+    ("current_centre_m", "Current centre of pressure (x, y)"),
+)
+
+
+def _parse(text: str) -> float:
+    t = text.strip().replace(",", ".")
+    try:
+        v = float(t)
+    except ValueError:
+        raise InputError("value", text, "is not a number") from None
+    if not math.isfinite(v):
+        raise InputError("value", text, "is not a finite number")
+    return v
+
+
+class ConditionsPanel(QWidget):
+    """Edits the conditions of the stage shown (one undo step per field)."""
+
+    def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.controller = controller
+        self.edits: dict[str, QLineEdit] = {}
+        self.labels: dict[str, QLabel] = {}
+        self.centre_edits: dict[str, tuple[QLineEdit, QLineEdit]] = {}
+        inner = QWidget()
+        col = QVBoxLayout(inner)
+        col.addWidget(self._group("Wind", WIND))
+        col.addWidget(self._group("Current", CURRENT))
+        sea = self._group("Sea and tugs", SEA)
+        self.efficiency_button = QPushButton("Tug efficiency table…")
+        self.efficiency_button.setToolTip(
+            "Share of its pull a tug can use, by bollard pull and sea state (your own figures)"
+        )
+        self.efficiency_button.clicked.connect(self.edit_efficiency)
+        sea.layout().addRow(self.efficiency_button)  # type: ignore[union-attr]
+        col.addWidget(sea)
+        loads = self._group("Loads are computed with", LOADS)
+        form = loads.layout()
+        for attr, title in CENTRES:
+            x, y = QLineEdit(), QLineEdit()
+            for w in (x, y):
+                w.setPlaceholderText("auto")
+                w.setToolTip("Blank: the centre of the projected area")
+                w.editingFinished.connect(lambda a=attr: self._set_centre(a))
+            row = QHBoxLayout()
+            row.addWidget(x)
+            row.addWidget(y)
+            lab = QLabel(title)
+            self.labels[attr] = lab
+            form.addRow(lab, row)  # type: ignore[union-attr]
+            self.centre_edits[attr] = (x, y)
+        col.addWidget(loads)
+        feel = QGroupBox("On the body")
+        self.effect = QLabel("—")
+        self.effect.setWordWrap(True)
+        self.effect.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+        QVBoxLayout(feel).addWidget(self.effect)
+        col.addWidget(feel)
+        note = QLabel(
+            "F = ½ ρ C A V² on the head-on and side areas (cos|cos| ahead, sin|sin| abeam of "
+            "the flow). Defaults are typical box-barge values (common practice): set your own."
+        )
+        note.setWordWrap(True)
+        note.setStyleSheet("color: #455a64;")
+        col.addWidget(note)
+        col.addStretch(1)
+        scroll = QScrollArea()
+        scroll.setWidgetResizable(True)
+        scroll.setWidget(inner)
+        outer = QVBoxLayout(self)
+        outer.setContentsMargins(0, 0, 0, 0)
+        outer.addWidget(scroll)
+        controller.changed.connect(self.refresh)
+        self.refresh()
+
+    def _group(self, title: str, fields: tuple[Field, ...]) -> QGroupBox:
+        box = QGroupBox(title)
+        form = QFormLayout(box)
+        for f in fields:
+            e = QLineEdit()
+            e.setToolTip(f.tip)
+            e.editingFinished.connect(lambda f=f: self._set(f))
+            lab = QLabel(f.title)
+            lab.setToolTip(f.tip)
+            self.edits[f.attr] = e
+            self.labels[f.attr] = lab
+            form.addRow(lab, e)
+        return box
+
+    # -- units ----------------------------------------------------------------------
+    def _units(self) -> DisplayUnits:
+        return self.controller.project.units
+
+    def _to_si(self, f: Field, v: float) -> float:
+        u = self._units()
+        if f.kind == "speed":
+            return u.si(v, "speed")
+        if f.kind == "area":
+            return v * u.si(1.0, "length") ** 2
+        return v
+
+    def _from_si(self, f: Field, v: float) -> float:
+        u = self._units()
+        if f.kind == "speed":
+            return u.value(v, "speed")
+        if f.kind == "area":
+            return v / u.si(1.0, "length") ** 2
+        return v
+
+    def _area_unit(self) -> str:
+        return f"{label(self._units().unit('length'))}²"
+
+    # -- reading the stage ------------------------------------------------------------
+    def conditions(self) -> Conditions | None:
+        stage = self.controller.stage
+        return None if stage is None else stage.conditions
+
+    def refresh(self) -> None:
+        c = self.conditions()
+        enabled = c is not None
+        for e in self.edits.values():
+            e.setEnabled(enabled)
+        for x, y in self.centre_edits.values():
+            x.setEnabled(enabled)
+            y.setEnabled(enabled)
+        self.efficiency_button.setEnabled(bool(self.controller.project.tugs) or enabled)
+        u = self._units()
+        speed, length = label(u.unit("speed")), label(u.unit("length"))
+        for f in WIND + CURRENT + SEA + LOADS:
+            if f.kind == "speed":
+                self.labels[f.attr].setText(f"{f.title} ({speed})")
+            elif f.kind == "area":
+                self.labels[f.attr].setText(f"{f.title} ({self._area_unit()})")
+        for attr, title in CENTRES:
+            self.labels[attr].setText(f"{title} ({length})")
+        if c is None:
+            self.effect.setText("No stage.")
+            return
+        derived = self._derived()
+        for f in WIND + CURRENT + SEA + LOADS:
+            e = self.edits[f.attr]
+            if e.hasFocus():
+                continue
+            v = getattr(c, f.attr)
+            e.blockSignals(True)
+            e.setText("" if v is None else f"{self._from_si(f, v):.6g}")
+            if f.optional:
+                e.setPlaceholderText(derived.get(f.attr, "from the hull"))
+            e.blockSignals(False)
+        ls = u.si(1.0, "length")
+        for attr, (x, y) in self.centre_edits.items():
+            v = getattr(c, attr)
+            for w, k in ((x, 0), (y, 1)):
+                if w.hasFocus():
+                    continue
+                w.blockSignals(True)
+                w.setText("" if v is None else f"{v[k] / ls:.6g}")
+                w.blockSignals(False)
+        self.effect.setText(self._effect_text())
+
+    def _derived(self) -> dict[str, str]:
+        """What a blank optional field stands for, in words."""
+        p, stage = self.controller.project, self.controller.stage
+        out: dict[str, str] = {}
+        if stage is None or not p.hulls:
+            return out
+        try:
+            body = stage_body(p, stage)
+        except TowboardError:
+            return out
+        k = self._units().si(1.0, "length") ** 2
+        for height, head, beam in (
+            ("freeboard", "wind_area_head_m2", "wind_area_beam_m2"),
+            ("draught", "current_area_head_m2", "current_area_beam_m2"),
+        ):
+            proj = projection(body, height)
+            if proj is None:
+                out[head] = out[beam] = f"needs {height}"
+            else:
+                out[head] = f"auto {proj.head_m2 / k:.1f}"
+                out[beam] = f"auto {proj.beam_m2 / k:.1f}"
+        draughts = [x.hull.draught_m for x in body.members if x.hull.draught_m is not None]
+        if draughts:
+            cd = hoerner_cross_flow(body.beam / (2 * max(draughts)))
+            out["current_coeff_beam"] = f"Hoerner {cd:.3f}"
+        else:
+            out["current_coeff_beam"] = "Hoerner (needs draught)"
+        return out
+
+    def _effect_text(self) -> str:
+        p, stage = self.controller.project, self.controller.stage
+        if stage is None or not p.hulls:
+            return "No hull."
+        u = self._units()
+        try:
+            body = stage_body(p, stage)
+        except TowboardError as e:
+            return str(e)
+        cl = body_conditions(stage, body)
+        c = stage.conditions
+        lines = [
+            f"Wind from {cl.wind_from_rel_deg:03.0f}° relative, "
+            f"{u.show(cl.wind_speed_10m_ms, 'speed')} at 10 m"
+            + (f", {u.show(cl.design_wind_ms, 'speed')} with gusts" if c.gust_factor > 1 else ""),
+            f"Current towards {cl.current_towards_rel_deg:03.0f}° relative",
+        ]
+        for ld in cl.loads:
+            m = float(loads_wrench((ld,), body.centroid)[2])
+            lines.append(
+                f"{ld.name.capitalize()} load {u.show(math.hypot(*ld.force), 'force')}: "
+                f"ahead {u.value(ld.force[0], 'force'):+.1f}, to port "
+                f"{u.value(ld.force[1], 'force'):+.1f} {label(u.unit('force'))}; "
+                f"{u.show(abs(m), 'moment')} about the centroid, {turning_words(m, 1e-6)}"
+            )
+        if not cl.loads:
+            lines.append("No wind or current load.")
+        lines.extend(n.message for n in cl.notices)
+        return "\n".join(lines)
+
+    # -- writing ----------------------------------------------------------------------
+    def _apply(self, new: Conditions, what: str, key: str) -> None:
+        c = self.controller
+        stage = c.stage
+        if stage is None or new == stage.conditions:
+            return
+        c.apply(c.with_stage(replace(stage, conditions=new)), what, ("conditions", key))
+
+    def _set(self, f: Field) -> None:
+        c = self.conditions()
+        if c is None:
+            return
+        text = self.edits[f.attr].text()
+        try:
+            if not text.strip():
+                if not f.optional:
+                    raise InputError(f.title, text, "must be given")
+                value = None
+            else:
+                value = self._to_si(f, _parse(text))
+            new = replace(c, **{f.attr: value})
+        except InputError as e:
+            self.controller.message.emit(f"{f.title}: {e.value!r} {e.reason}")
+            self.refresh_field(f)
+            return
+        self._apply(new, f"Set {f.title.lower()}", f.attr)
+
+    def refresh_field(self, f: Field) -> None:
+        c = self.conditions()
+        if c is None:
+            return
+        v = getattr(c, f.attr)
+        e = self.edits[f.attr]
+        e.blockSignals(True)
+        e.setText("" if v is None else f"{self._from_si(f, v):.6g}")
+        e.blockSignals(False)
+
+    def _set_centre(self, attr: str) -> None:
+        c = self.conditions()
+        if c is None:
+            return
+        x, y = self.centre_edits[attr]
+        tx, ty = x.text().strip(), y.text().strip()
+        if not tx and not ty:
+            value = None
+        elif not tx or not ty:
+            return  # wait for the other one
+        else:
+            try:
+                ls = self._units().si(1.0, "length")
+                value = (_parse(tx) * ls, _parse(ty) * ls)
+            except InputError as e:
+                self.controller.message.emit(f"Centre of pressure: {e.value!r} {e.reason}")
+                return
+        self._apply(replace(c, **{attr: value}), "Set centre of pressure", attr)
+
+    def edit_efficiency(self) -> None:
+        dlg = EfficiencyDialog(self.controller.project.tug_efficiency, self._units(), self)
+        if dlg.exec() != QDialog.DialogCode.Accepted or dlg.table is None:
+            return
+        c = self.controller
+        if dlg.table != c.project.tug_efficiency:
+            c.apply(replace(c.project, tug_efficiency=dlg.table), "Edit tug efficiency table")
+
+
+class EfficiencyDialog(QDialog):
+    """Edit the tug efficiency table: bollard pulls (rows), sea states (columns), values 0-1."""
+
+    def __init__(self, table: EfficiencyTable, units: DisplayUnits, parent: QWidget | None = None):
+        super().__init__(parent)
+        self.setWindowTitle("Tug efficiency table")
+        self.units = units
+        self.table: EfficiencyTable | None = None
+        f = label(units.unit("force"))
+        self.pulls = QLineEdit(
+            ", ".join(f"{units.value(v, 'force'):g}" for v in table.bollard_pulls_n)
+        )
+        self.seas = QLineEdit(", ".join(f"{v:g}" for v in table.sea_states))
+        self.grid = QTableWidget()
+        form = QFormLayout()
+        form.addRow(f"Bollard pulls ({f}), rows", self.pulls)
+        form.addRow("Sea states, columns", self.seas)
+        note = QLabel(
+            "The share of its rated pull a tug can use. These are your figures: the values "
+            "Towboard starts with are placeholders, not published data. Between rows and "
+            "columns the table is interpolated linearly; beyond them the edge values hold."
+        )
+        note.setWordWrap(True)
+        buttons = QDialogButtonBox(
+            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel
+        )
+        buttons.accepted.connect(self._accept)
+        buttons.rejected.connect(self.reject)
+        layout = QVBoxLayout(self)
+        layout.addLayout(form)
+        layout.addWidget(self.grid)
+        layout.addWidget(note)
+        layout.addWidget(buttons)
+        self.pulls.editingFinished.connect(self._reshape)
+        self.seas.editingFinished.connect(self._reshape)
+        self._fill(table)
+        self.resize(520, 360)
+
+    def _lists(self) -> tuple[list[float], list[float]]:
+        pulls = [_parse(t) for t in self.pulls.text().split(",") if t.strip()]
+        seas = [_parse(t) for t in self.seas.text().split(",") if t.strip()]
+        return pulls, seas
+
+    def _fill(self, table: EfficiencyTable) -> None:
+        g = self.grid
+        g.setRowCount(len(table.bollard_pulls_n))
+        g.setColumnCount(len(table.sea_states))
+        g.setHorizontalHeaderLabels([f"sea {v:g}" for v in table.sea_states])
+        f = label(self.units.unit("force"))
+        g.setVerticalHeaderLabels(
+            [f"{self.units.value(v, 'force'):g} {f}" for v in table.bollard_pulls_n]
+        )
+        for i, row in enumerate(table.values):
+            for j, v in enumerate(row):
+                g.setItem(i, j, QTableWidgetItem(f"{v:g}"))
+
+    def _values(self) -> list[list[float]]:
+        g = self.grid
+        out = []
+        for i in range(g.rowCount()):
+            row = []
+            for j in range(g.columnCount()):
+                item = g.item(i, j)
+                row.append(_parse(item.text() if item is not None else "1"))
+            out.append(row)
+        return out
+
+    def _reshape(self) -> None:
+        try:
+            pulls, seas = self._lists()
+            values = self._values()
+        except InputError:
+            return
+        g = self.grid
+        g.setRowCount(len(pulls))
+        g.setColumnCount(len(seas))
+        g.setHorizontalHeaderLabels([f"sea {v:g}" for v in seas])
+        f = label(self.units.unit("force"))
+        g.setVerticalHeaderLabels([f"{v:g} {f}" for v in pulls])
+        for i in range(len(pulls)):
+            for j in range(len(seas)):
+                if g.item(i, j) is None:
+                    near = values[min(i, len(values) - 1)] if values else [1.0]
+                    g.setItem(i, j, QTableWidgetItem(f"{near[min(j, len(near) - 1)]:g}"))
+
+    def build(self) -> EfficiencyTable:
+        pulls, seas = self._lists()
+        return EfficiencyTable(
+            tuple(self.units.si(v, "force") for v in pulls),
+            tuple(seas),
+            tuple(tuple(r) for r in self._values()),
+        )
+
+    def _accept(self) -> None:
+        try:
+            self.table = self.build()
+        except InputError as e:
+            QMessageBox.warning(self, "Table not valid", f"{e.field}: {e.value!r} {e.reason}")
+            return
+        self.accept()
