@@ -37,7 +37,7 @@ from core.checks import StageCheck, tug_lost_as_set
 from core.frames import turning_words, walking_words
 from core.holdlimits import HoldLimits
 from core.plan import Project, Stage
-from core.report import CAUTION
+from core.report import CAUTION, crossing_words
 from core.solve import TugLostCheck
 from core.units import DisplayUnits, fmt, label
 
@@ -476,13 +476,7 @@ def _balance(project: Project, b: Balance) -> list[Block]:
     elif eq.kind == "balanced":
         rows.append(["Equivalent", "balanced: no net force and no yaw moment"])
     else:
-        length = body_of(project, b.body).length
-        if b.centreline_x is None:
-            cross = "parallel to the centreline"
-        elif abs(b.centreline_x - b.centroid[0]) > 10 * length:
-            cross = "nearly parallel to the centreline (it crosses it far off the hull)"
-        else:
-            cross = f"crossing the centreline at x = {u.show(b.centreline_x, 'length')}"
+        cross = crossing_words(b, u)
         rows.append(
             [
                 "Equivalent force",

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from core.units import DisplayUnits, Quantity, label
+from core.units import DisplayUnits, Quantity, fmt, label
 
 
 def bearing(deg: float | None) -> str:
@@ -21,12 +21,12 @@ def value(units: DisplayUnits, si: float, quantity: Quantity, digits: int = 1) -
 def signed(units: DisplayUnits, si: float, quantity: Quantity, digits: int = 1) -> str:
     """With an explicit sign: ``"+12.5 t·m"``."""
     u = units.unit(quantity)
-    return f"{units.value(si, quantity):+.{digits}f} {label(u)}"
+    return f"{fmt(units.value(si, quantity), digits, signed=True)} {label(u)}"
 
 
 def number(units: DisplayUnits, si: float, quantity: Quantity, digits: int = 1) -> str:
     """The bare number in the display unit (for table cells whose header names the unit)."""
-    return f"{units.value(si, quantity):.{digits}f}"
+    return fmt(units.value(si, quantity), digits)
 
 
 def unit_label(units: DisplayUnits, quantity: Quantity) -> str:

@@ -26,6 +26,11 @@ from core.tugs import Placement
 from core.units import DisplayUnits
 from core.usable import STEEP_LINE_DEG, line_angle_rad
 
+#: A line of action that crosses the centreline further than this many body lengths from
+#: the centroid is, for people, "nearly parallel" to it: the crossing is real but says
+#: nothing useful, and near parallel it is mostly rounding.
+FAR_CROSSING_LENGTHS = 10.0
+
 #: Drawn distance from a push point to the pushing tug's centre, m.
 PUSH_STANDOFF_M = 8.0
 
@@ -149,6 +154,14 @@ class Balance:
     shares: tuple[TugShare, ...]
     loads: tuple[Load, ...]
     notices: tuple[Notice, ...]
+    length_m: float = 0.0  # the body's length overall, m
+
+    @property
+    def crossing_is_far(self) -> bool:
+        """True when the centreline crossing lies far off the hull (or there is none)."""
+        if self.centreline_x is None:
+            return True
+        return abs(self.centreline_x - self.centroid[0]) > FAR_CROSSING_LENGTHS * max(self.length_m, 1.0)
 
     @property
     def net_force(self) -> tuple[float, float]:
@@ -297,6 +310,7 @@ def analyse_layout(
         shares=shares,
         loads=tuple(loads),
         notices=tuple(_notices(layout, pulls, body, units)),
+        length_m=body.length,
     )
 
 

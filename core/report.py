@@ -40,6 +40,15 @@ def stage_balances(project: Project) -> list[tuple[Stage, Balance | None]]:
     return out
 
 
+def crossing_words(b: Balance, u: DisplayUnits) -> str:
+    """Where the line of action crosses the hull's centreline, in words for people."""
+    if b.centreline_x is None:
+        return "parallel to the centreline"
+    if b.crossing_is_far:
+        return "nearly parallel to the centreline (it crosses it far off the hull)"
+    return f"crosses the centreline at x = {u.show(b.centreline_x, 'length')}"
+
+
 def _tol(b: Balance) -> tuple[float, float]:
     scale = sum(abs(sh.pull_n) for sh in b.shares) or 1.0
     return 1e-6 * scale, 1e-6 * scale * 100.0
@@ -64,6 +73,7 @@ def balance_json(b: Balance) -> dict[str, Any]:
             "direction": None if eq.direction is None else list(eq.direction),
             "offset_from_centroid_m": eq.offset_m,
             "crosses_centreline_at_x_m": b.centreline_x,
+            "crossing_far_off_the_hull": b.crossing_is_far,
             "enters_outline_m": None if b.chord is None else list(b.chord[0]),
             "leaves_outline_m": None if b.chord is None else list(b.chord[1]),
         },
@@ -142,11 +152,7 @@ def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
     elif eq.kind == "balanced":
         lines.append("  Equivalent      balanced: no net force and no yaw moment")
     else:
-        cross = (
-            "parallel to the centreline"
-            if b.centreline_x is None
-            else f"crosses the centreline at x = {u.value(b.centreline_x, 'length'):.1f} {ln}"
-        )
+        cross = crossing_words(b, u)
         lines.append(
             f"  Equivalent      {u.show(eq.magnitude, 'force')} on a line "
             f"{abs(u.value(eq.offset_m or 0.0, 'length')):.1f} {ln} from the centroid; {cross}"

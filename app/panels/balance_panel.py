@@ -15,6 +15,7 @@ from app import formatting as fmt
 from app.controller import Controller
 from core.balance import Balance
 from core.frames import turning_words, walking_words
+from core.report import crossing_words
 
 FRAME_TEXT = (
     "Hull frame: x forward (ahead), y to port, origin at the hull's reference point. "
@@ -120,9 +121,8 @@ class BalancePanel(QWidget):
                 f"{fmt.value(u, abs(off), 'length')}, to the {side} of it looking along the force"
             )
             f["crossing"].setText(
-                "parallel to the centreline"
-                if b.centreline_x is None
-                else f"x = {fmt.value(u, b.centreline_x, 'length')} from the reference point"
+                crossing_words(b, u).replace("crosses the centreline at ", "")
+                + ("" if b.crossing_is_far else " from the reference point")
             )
         notices = [n.message for n in b.notices]
         self.warnings.setText("\n".join(f"⚠ {m}" for m in notices))
