@@ -112,7 +112,10 @@ class Controller(QObject):
         #: shown (live solving fills in the settings); the same object back means no change.
         self.edit_filters: list[Callable[[Project], Project]] = []
         self.undo_stack = QUndoStack(self)
-        self.undo_stack.cleanChanged.connect(lambda clean: self.dirty_changed.emit(not clean))
+        self.undo_stack.cleanChanged.connect(self._clean_changed)
+
+    def _clean_changed(self, clean: bool) -> None:
+        self.dirty_changed.emit(not clean)
 
     # -- reading ------------------------------------------------------------------
     @property

@@ -49,6 +49,7 @@ class Body:
     """A rigid body's outline and mass centre in its own frame (computed once)."""
 
     __slots__ = (
+        "_normals",
         "beam",
         "centre_of_gravity",
         "centroid",
@@ -61,6 +62,7 @@ class Body:
     )
 
     def __init__(self, name: str, members: tuple[Member, ...]) -> None:
+        self._normals: dict[tuple[str, str], tuple[float, float]] = {}
         self.name = name
         self.members = members
         polys = [shapely.Polygon([m.to_body(p) for p in m.hull.outline]) for m in members]
@@ -98,9 +100,13 @@ class Body:
 
     def inward_normal(self, hull: str, point: str) -> tuple[float, float]:
         """Unit inward normal of the hull at a fitting, in the body frame."""
-        m, f = self.fitting(hull, point)
-        nx, ny = m.hull.geometry.nearest(f.x, f.y).normal
-        return m.direction_to_body((-nx, -ny))
+        key = (hull, point)
+        cached = self._normals.get(key)
+        if cached is None:  # a body never changes, so each normal is worked out once
+            m, f = self.fitting(hull, point)
+            nx, ny = m.hull.geometry.nearest(f.x, f.y).normal
+            cached = self._normals[key] = m.direction_to_body((-nx, -ny))
+        return cached
 
     def outlines(self) -> list[list[tuple[float, float]]]:
         """Each member's outline in the body frame (for drawing)."""

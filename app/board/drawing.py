@@ -16,6 +16,8 @@ from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
 from app.board import style
 from app.board.items import (
+    CACHE,
+    NO_CACHE,
     ROLE,
     Arrow,
     FittingMark,
@@ -25,7 +27,7 @@ from app.board.items import (
     Mark,
     MomentArrow,
     PathItem,
-    PolygonItem,
+    TugItem,
     polygon_path,
     tug_polygon,
 )
@@ -73,6 +75,7 @@ class HullDrawing:
         self.outline.setZValue(Z_HULL)
         self.outline.setBrush(style.HULL_FILL)
         self.outline.setPen(style.pen(style.HULL_EDGE, 1.6))
+        self.outline.setCacheMode(CACHE)
         self.invalid = PathItem(self.frame)
         self.invalid.setZValue(Z_HULL + 1)
         self.invalid.setPen(style.pen(style.INVALID, 2.0, Qt.PenStyle.DashLine))
@@ -85,8 +88,9 @@ class HullDrawing:
         self.port_side.setPen(style.pen(style.PORT, 4.0))
         self.stbd_side = LineItem(self.frame)
         self.stbd_side.setPen(style.pen(style.STARBOARD, 4.0))
-        for item in (self.port_side, self.stbd_side):
+        for item in (self.port_side, self.stbd_side, self.centreline):
             item.setZValue(Z_HULL + 1)
+            item.setCacheMode(CACHE)
         bold = style.label_font(8.5, bold=True)
         self.bow = Label("BOW", self.frame, style.HULL_EDGE, bold, (0, 0), "centre")
         self.stern = Label("STERN", self.frame, style.HULL_EDGE, bold, (0, 0), "centre")
@@ -245,27 +249,21 @@ class HullDrawing:
 
 
 class TugDrawing:
-    """One tug: its shape where it works, the towline, the force arrow and a label."""
+    """One tug: its shape where it works, the towline, the force arrow (one item) and a label."""
 
     def __init__(self, root: Root, name: str) -> None:
         self.name = name
-        self.towline = LineItem(root)
-        self.towline.setZValue(Z_LINE)
-        self.towline.setPen(style.pen(style.TOWLINE, 1.4))
-        self.glyph = PolygonItem(root)
+        self.glyph = TugItem(root)
         self.glyph.setZValue(Z_TUG)
-        self.glyph.setBrush(style.TUG_FILL)
-        self.glyph.setPen(style.pen(style.TUG_EDGE, 1.3))
         self.glyph.setData(ROLE, ("tug", name))
-        self.arrow = Arrow(style.TUG_FORCE, 2.6, root)
-        self.arrow.setZValue(Z_FORCE)
+        self.glyph.setCacheMode(CACHE)  # a drag redraws only the tug that moves
         self.label = Label("", root, style.TEXT, style.label_font(8.5), (0, 0), "centre")
         self.label.setZValue(Z_LABEL)
         self._key: tuple[object, ...] | None = None
         self._selected = False
 
     def remove(self) -> None:
-        for item in (self.towline, self.glyph, self.arrow, self.label):
+        for item in (self.glyph, self.label):
             item.setParentItem(None)
             if item.scene() is not None:
                 item.scene().removeItem(item)
@@ -277,36 +275,41 @@ class TugDrawing:
         direction: tuple[float, float],
         force_scale: float,
         head: float,
-        text: str,
+        text: Callable[[TugShare], str],
     ) -> None:
-        key = (share.position, point, direction, share.pull_n, force_scale, head, text, share.mode)
+        key = (
+            share.position,
+            point,
+            direction,
+            share.pull_n,
+            share.setting,
+            force_scale,
+            head,
+            share.mode,
+        )
         if key == self._key:
-            return
+            return  # nothing about this tug changed (the drag moves one tug at a time)
         self._key = key
         dx, dy = direction
         heading = math.degrees(math.atan2(dy, dx))
+        towline = None
         if share.mode == "line":
             tx, ty = share.position
-            self.towline.setLine(QLineF(point[0], point[1], tx, ty))
-            self.towline.setVisible(True)
+            towline = QLineF(point[0], point[1], tx, ty)
             # the tug lies along its line, stern to the hull, its towing point on the line's end
             glyph_at = (tx, ty)
         else:
-            self.towline.setVisible(False)
             # bow against the push point, lying along the push
             off = 0.65 * style.TUG_LENGTH_M + 0.5
             glyph_at = (point[0] - dx * off, point[1] - dy * off)
         t = QTransform()
         t.translate(*glyph_at)
         t.rotate(heading)
-        poly = tug_polygon(style.TUG_LENGTH_M, style.TUG_BEAM_M)
-        self.glyph.setPolygon(t.map(poly))
-        length = share.pull_n * force_scale
-        # the force arrow: on the line point, along the force; a push arrow ends at the hull
+        glyph = t.map(tug_polygon(style.TUG_LENGTH_M, style.TUG_BEAM_M))
         # the force arrow starts where the force acts on the hull and points along it
-        start, end = point, (point[0] + dx * length, point[1] + dy * length)
-        self.arrow.set_geometry(start, end, head)
-        self.arrow.setVisible(length > 1e-6)
+        length = share.pull_n * force_scale
+        arrow = (point, (point[0] + dx * length, point[1] + dy * length)) if length > 1e-6 else None
+        self.glyph.set_geometry(towline, glyph, arrow, head)
         # the label sits just beyond the tug, away from the hull
         if share.mode == "line":
             far = 0.65 * style.TUG_LENGTH_M + 5.0
@@ -315,14 +318,18 @@ class TugDrawing:
             far = 0.35 * style.TUG_LENGTH_M + 5.0
             lx, ly = glyph_at[0] - dx * far, glyph_at[1] - dy * far
         self.label.setPos(lx, ly)
-        self.label.set_text(text)
+        self.label.set_text(text(share))
+
+    def set_dragging(self, on: bool) -> None:
+        """While dragged, the tug is drawn directly: a pixmap cache would be remade every move."""
+        for item in (self.glyph, self.label):
+            item.setCacheMode(NO_CACHE if on else CACHE)
 
     def set_selected(self, on: bool) -> None:
         if on == self._selected:
             return
         self._selected = on
-        self.glyph.setPen(style.pen(style.SELECTION if on else style.TUG_EDGE, 2.6 if on else 1.3))
-        self.glyph.setBrush(QColor("#ffe2a1") if on else style.TUG_FILL)
+        self.glyph.set_selected(on)
 
 
 class BalanceDrawing:
@@ -355,6 +362,7 @@ class BalanceDrawing:
         self.stale = Label("", root, style.INVALID, style.label_font(10, True), (0, -30), "centre")
         for lab in (self.net_label, self.moment_label, self.cross_label, self.state, self.stale):
             lab.setZValue(Z_LABEL)
+            lab.setCacheMode(NO_CACHE)  # their text changes on every move of a drag
         self.loads: list[tuple[Arrow, Label]] = []
 
     def update(
@@ -419,7 +427,8 @@ class BalanceDrawing:
         if eq.kind == "force" and eq.point is not None and eq.direction is not None:
             px, py = eq.point
             ux, uy = eq.direction
-            reach = 3.0 * (body.length + body.beam)
+            # long enough to cross the board round the body; a longer dashed line only costs
+            reach = 1.3 * (body.length + body.beam) + 2 * style.TUG_LENGTH_M
             self.action.setLine(
                 QLineF(px - ux * reach, py - uy * reach, px + ux * reach, py + uy * reach)
             )
@@ -552,7 +561,7 @@ class BodyDrawing:
             if d is None:
                 d = self.tugs[s.tug] = TugDrawing(self.root, s.tug)
             point, direction = points[s.tug]
-            d.update(s, point, direction, force_scale, head, text(s))
+            d.update(s, point, direction, force_scale, head, text)
 
     def remove(self) -> None:
         if self.root.scene() is not None:

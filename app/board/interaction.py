@@ -200,6 +200,9 @@ class Interaction:
             return False
         c = self.controller
         if isinstance(drag, _TugDrag):
+            tug = self.scene.bodies[drag.body].tugs.get(drag.placement.tug)
+            if tug is not None:
+                tug.set_dragging(False)
             c.commit_preview(f"Move {drag.placement.tug}")
         elif isinstance(drag, _FittingDrag):
             c.commit_preview(f"Slide {drag.name}")
@@ -249,6 +252,7 @@ class Interaction:
                         px, py = r.layout.positions[i]
                         grab = (local.x() - px, local.y() - py)
                     self.drag = _TugDrag(name, i, p, grab, r)
+                    self.scene.bodies[name].tugs[tug].set_dragging(True)
                     return
 
     def _move_tug(self, drag: _TugDrag, pos: QPointF) -> None:

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import math
 
-from PySide6.QtCore import QPointF, QRectF, Qt
+from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import (
     QBrush,
     QColor,
@@ -35,6 +35,9 @@ from app.board import style
 ROLE = 0
 
 IGNORES = QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations
+#: Fixed-size items are kept as pixmaps on screen (render_board turns this off to print).
+CACHE = QGraphicsItem.CacheMode.DeviceCoordinateCache
+NO_CACHE = QGraphicsItem.CacheMode.NoCache
 
 
 class Label(QGraphicsItem):
@@ -58,6 +61,7 @@ class Label(QGraphicsItem):
         self._lines: list[str] = []
         self._rect = QRectF()
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+        self.setCacheMode(CACHE)
         self.set_text(text)
 
     @property
@@ -132,6 +136,7 @@ class Mark(QGraphicsItem):
         self.size = size
         self.color = style.TEXT
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+        self.setCacheMode(CACHE)
 
     def boundingRect(self) -> QRectF:
         s = self.size / 2 + 2
@@ -185,6 +190,7 @@ class Handle(QGraphicsItem):
         self.setFlag(IGNORES)
         self.size = size
         self.selected = False
+        self.setCacheMode(CACHE)
 
     def boundingRect(self) -> QRectF:
         s = self.size / 2 + 1
@@ -216,6 +222,7 @@ class FittingMark(QGraphicsItem):
         self.kind = kind
         self.selected = False
         self.angle_deg = 0.0  # screen angle of the hull edge, for the push pad's bar
+        self.setCacheMode(CACHE)
 
     def boundingRect(self) -> QRectF:
         return QRectF(-9, -9, 18, 18)
@@ -277,29 +284,7 @@ class Arrow(QGraphicsItem):
             return
         self._key = key
         self.prepareGeometryChange()
-        dx, dy = end[0] - start[0], end[1] - start[1]
-        length = math.hypot(dx, dy)
-        self._shaft = QPainterPath()
-        self._head = QPolygonF()
-        if length < 1e-9:
-            self._rect = QRectF()
-            return
-        ux, uy = dx / length, dy / length
-        h = min(head, 0.6 * length)
-        w = 0.45 * h
-        bx, by = end[0] - ux * h, end[1] - uy * h
-        self._shaft.moveTo(*start)
-        self._shaft.lineTo(bx + ux * 0.2 * h, by + uy * 0.2 * h)
-        self._head = QPolygonF(
-            [
-                QPointF(*end),
-                QPointF(bx - uy * w, by + ux * w),
-                QPointF(bx + uy * w, by - ux * w),
-            ]
-        )
-        self._rect = (
-            self._shaft.boundingRect().united(self._head.boundingRect()).adjusted(-w, -w, w, w)
-        )
+        self._shaft, self._head, self._rect = arrow_parts(start, end, head)
         self.update()
 
     def boundingRect(self) -> QRectF:
@@ -311,7 +296,6 @@ class Arrow(QGraphicsItem):
         if self._head.isEmpty():
             return
         k = style.device_scale(painter)
-        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
         painter.setPen(style.scaled_pen(self._pen, k))
         painter.setBrush(Qt.BrushStyle.NoBrush)
         painter.drawPath(self._shaft)
@@ -320,6 +304,108 @@ class Arrow(QGraphicsItem):
         painter.setPen(p)
         painter.setBrush(self._brush)
         painter.drawPolygon(self._head)
+
+
+def arrow_parts(
+    start: tuple[float, float], end: tuple[float, float], head: float
+) -> tuple[QPainterPath, QPolygonF, QRectF]:
+    """Shaft, head and bounds of a straight arrow; empty when it has no length."""
+    dx, dy = end[0] - start[0], end[1] - start[1]
+    length = math.hypot(dx, dy)
+    shaft = QPainterPath()
+    if length < 1e-9:
+        return shaft, QPolygonF(), QRectF()
+    ux, uy = dx / length, dy / length
+    h = min(head, 0.6 * length)
+    w = 0.45 * h
+    bx, by = end[0] - ux * h, end[1] - uy * h
+    shaft.moveTo(*start)
+    shaft.lineTo(bx + ux * 0.2 * h, by + uy * 0.2 * h)
+    tip = QPolygonF(
+        [QPointF(*end), QPointF(bx - uy * w, by + ux * w), QPointF(bx + uy * w, by - ux * w)]
+    )
+    rect = shaft.boundingRect().united(tip.boundingRect()).adjusted(-w, -w, w, w)
+    return shaft, tip, rect
+
+
+class TugItem(QGraphicsItem):
+    """One tug in one item: its towline, its shape and its force arrow (body frame, m).
+
+    One item rather than three, so a board with many tugs has few items to draw; it is
+    grabbed by its shape only.
+    """
+
+    def __init__(self, parent: QGraphicsItem | None = None) -> None:
+        super().__init__(parent)
+        self._line_pen = style.pen(style.TOWLINE, 1.4)
+        self._edge_pen = style.pen(style.TUG_EDGE, 1.3)
+        self._arrow_pen = style.pen(style.TUG_FORCE, 2.6)
+        self._fill = QBrush(style.TUG_FILL)
+        self._towline: QLineF | None = None
+        self._glyph = QPolygonF()
+        self._shape = QPainterPath()
+        self._shaft = QPainterPath()
+        self._head = QPolygonF()
+        self._rect = QRectF()
+        #: (start, end) of the force arrow, m, for whoever checks the drawing
+        self.arrow_line: tuple[tuple[float, float], tuple[float, float]] | None = None
+
+    def set_geometry(
+        self,
+        towline: QLineF | None,
+        glyph: QPolygonF,
+        arrow: tuple[tuple[float, float], tuple[float, float]] | None,
+        head: float,
+    ) -> None:
+        self.prepareGeometryChange()
+        self._towline = towline
+        self._glyph = glyph
+        self._shape = QPainterPath()
+        self._shape.addPolygon(glyph)
+        self._shape.closeSubpath()
+        rect = glyph.boundingRect()
+        if towline is not None:
+            rect = rect.united(QRectF(towline.p1(), towline.p2()).normalized())
+        self.arrow_line = arrow
+        if arrow is not None:
+            self._shaft, self._head, r = arrow_parts(arrow[0], arrow[1], head)
+            rect = rect.united(r)
+        else:
+            self._shaft, self._head = QPainterPath(), QPolygonF()
+        self._rect = rect.adjusted(-1.0, -1.0, 1.0, 1.0)
+        self.update()
+
+    def set_selected(self, on: bool) -> None:
+        self._edge_pen = style.pen(style.SELECTION if on else style.TUG_EDGE, 2.6 if on else 1.3)
+        self._fill = QBrush(QColor("#ffe2a1") if on else style.TUG_FILL)
+        self.update()
+
+    def boundingRect(self) -> QRectF:
+        return self._rect
+
+    def shape(self) -> QPainterPath:
+        return self._shape
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        k = style.device_scale(painter)
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        if self._towline is not None:
+            painter.setPen(style.scaled_pen(self._line_pen, k))
+            painter.drawLine(self._towline)
+        painter.setPen(style.scaled_pen(self._edge_pen, k))
+        painter.setBrush(self._fill)
+        painter.drawPolygon(self._glyph)
+        if not self._head.isEmpty():
+            painter.setPen(style.scaled_pen(self._arrow_pen, k))
+            painter.setBrush(Qt.BrushStyle.NoBrush)
+            painter.drawPath(self._shaft)
+            p = QPen(self._arrow_pen)
+            p.setWidthF(1.0 * k)
+            painter.setPen(p)
+            painter.setBrush(self._arrow_pen.color())
+            painter.drawPolygon(self._head)
 
 
 class MomentArrow(QGraphicsItem):
@@ -396,7 +482,6 @@ class MomentArrow(QGraphicsItem):
         if self._head.isEmpty():
             return
         k = style.device_scale(painter)
-        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
         painter.setPen(style.scaled_pen(self._pen, k))
         painter.setBrush(Qt.BrushStyle.NoBrush)
         painter.drawPath(self._path)
@@ -442,21 +527,68 @@ class PathItem(QGraphicsPathItem):
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
-        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
         painter.setPen(style.scaled_pen(self.pen(), style.device_scale(painter)))
         painter.setBrush(self.brush())
         painter.drawPath(self.path())
 
 
+def clip_line(line: QLineF, rect: QRectF) -> QLineF | None:
+    """The part of ``line`` inside ``rect`` (Liang-Barsky), None when it misses."""
+    x0, y0 = line.x1(), line.y1()
+    dx, dy = line.x2() - x0, line.y2() - y0
+    t0, t1 = 0.0, 1.0
+    for p, q in (
+        (-dx, x0 - rect.left()),
+        (dx, rect.right() - x0),
+        (-dy, y0 - rect.top()),
+        (dy, rect.bottom() - y0),
+    ):
+        if p == 0:
+            if q < 0:
+                return None
+            continue
+        r = q / p
+        if p < 0:
+            t0 = max(t0, r)
+        else:
+            t1 = min(t1, r)
+        if t0 > t1:
+            return None
+    return QLineF(x0 + t0 * dx, y0 + t0 * dy, x0 + t1 * dx, y0 + t1 * dy)
+
+
 class LineItem(QGraphicsLineItem):
-    """A line with a cosmetic pen that keeps its screen width on any device."""
+    """A line with a cosmetic pen that keeps its screen width on any device.
+
+    Only the part inside the exposed area is drawn, so a line of action running far
+    off the board costs no more than its visible part.
+    """
+
+    def __init__(self, parent: QGraphicsItem | None = None) -> None:
+        super().__init__(parent)
+        self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemUsesExtendedStyleOption)
 
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
-        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
         painter.setPen(style.scaled_pen(self.pen(), style.device_scale(painter)))
-        painter.drawLine(self.line())
+        line = self.line()
+        exposed = option.exposedRect  # type: ignore[attr-defined]
+        if not exposed.isEmpty():
+            pad = 4.0 * max(exposed.width(), exposed.height()) / 1000.0
+            clipped = clip_line(line, exposed.adjusted(-pad, -pad, pad, pad))
+            if clipped is None:
+                return
+            if self.pen().style() != Qt.PenStyle.SolidLine:
+                # keep the dashes where they would be on the whole line
+                t = painter.worldTransform()
+                px = QLineF(line.p1(), clipped.p1()).length() * math.hypot(t.m11(), t.m12())
+                pen = painter.pen()
+                period = sum(pen.dashPattern()) or 1.0
+                pen.setDashOffset((px / max(pen.widthF(), 1.0)) % period)
+                painter.setPen(pen)
+            line = clipped
+        painter.drawLine(line)
 
 
 class PolygonItem(QGraphicsPolygonItem):
@@ -465,7 +597,6 @@ class PolygonItem(QGraphicsPolygonItem):
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
-        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
         painter.setPen(style.scaled_pen(self.pen(), style.device_scale(painter)))
         painter.setBrush(self.brush())
         painter.drawPolygon(self.polygon())

@@ -48,17 +48,27 @@ def draw_grid(painter: QPainter, rect: QRectF, min_px: float = 22.0) -> None:
     y0 = math.floor(rect.top() / step) * step
     if (rect.width() / step) > 400 or (rect.height() / step) > 400:
         return
-    minor, major = style.pen(style.GRID_MINOR, k), style.pen(style.GRID_MAJOR, k)
+    minor_lines: list[QLineF] = []
+    major_lines: list[QLineF] = []
     x = x0
     while x <= rect.right():
-        painter.setPen(major if abs(round(x / step) % 5) == 0 else minor)
-        painter.drawLine(QLineF(x, rect.top(), x, rect.bottom()))
+        (major_lines if round(x / step) % 5 == 0 else minor_lines).append(
+            QLineF(x, rect.top(), x, rect.bottom())
+        )
         x += step
     y = y0
     while y <= rect.bottom():
-        painter.setPen(major if abs(round(y / step) % 5) == 0 else minor)
-        painter.drawLine(QLineF(rect.left(), y, rect.right(), y))
+        (major_lines if round(y / step) % 5 == 0 else minor_lines).append(
+            QLineF(rect.left(), y, rect.right(), y)
+        )
         y += step
+    painter.save()
+    painter.setRenderHint(QPainter.RenderHint.Antialiasing, False)  # crisp, and cheaper
+    painter.setPen(style.pen(style.GRID_MINOR, k))
+    painter.drawLines(minor_lines)
+    painter.setPen(style.pen(style.GRID_MAJOR, k))
+    painter.drawLines(major_lines)
+    painter.restore()
 
 
 def draw_scale_bar(

@@ -15,10 +15,13 @@ from __future__ import annotations
 
 from PySide6.QtCore import QPointF, QRectF, Qt
 from PySide6.QtGui import QPainter
+from PySide6.QtWidgets import QGraphicsItem
 
 from app.board.overlay import draw_north_arrow, draw_scale_bar
 from app.board.scene import BoardScene
 from app.board.style import device_scale
+
+NO_CACHE = QGraphicsItem.CacheMode.NoCache
 
 
 def render_board(
@@ -45,11 +48,21 @@ def render_board(
         t.height() / s,
     )
     painter.save()
+    painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+    painter.setRenderHint(QPainter.RenderHint.TextAntialiasing)
     painter.setClipRect(t)
     # flip y: the scene's north (+y) goes up the page
     painter.translate(0.0, t.top() + t.bottom())
     painter.scale(1.0, -1.0)
-    scene.render(painter, t, src, Qt.AspectRatioMode.IgnoreAspectRatio)
+    # vector output: no item drawn from a cached pixmap
+    cached = [(item, item.cacheMode()) for item in scene.items() if item.cacheMode() != NO_CACHE]
+    for item, _ in cached:
+        item.setCacheMode(NO_CACHE)
+    try:
+        scene.render(painter, t, src, Qt.AspectRatioMode.IgnoreAspectRatio)
+    finally:
+        for item, mode in cached:
+            item.setCacheMode(mode)
     painter.restore()
     if overlays:
         painter.save()

@@ -58,6 +58,7 @@ class BoardScene(QGraphicsScene):
         self.stale: str | None = None
         self.interaction = Interaction(self)
         self._fixed_results: dict[str, BodyResult] | None = None
+        self._units = controller.project.units
         self.setBackgroundBrush(style.WATER)
         controller.changed.connect(self.refresh)
         self.refresh()
@@ -128,6 +129,11 @@ class BoardScene(QGraphicsScene):
             if name not in names:
                 self.bodies.pop(name).remove()
         force_scale, moment_scale, head = self.scales()
+        if project.units != self._units:  # every label is written again in the new units
+            self._units = project.units
+            for d in self.bodies.values():
+                for t in d.tugs.values():
+                    t._key = None
         for name in names:
             d = self.bodies.get(name)
             if d is None:

@@ -6,7 +6,7 @@ import math
 from collections.abc import Callable
 
 from PySide6.QtCore import QPointF, QRectF, Qt
-from PySide6.QtGui import QPainter, QTransform
+from PySide6.QtGui import QPainter, QPixmap, QTransform
 from PySide6.QtWidgets import QGraphicsView, QWidget
 
 from app.board.overlay import draw_north_arrow, draw_scale_bar
@@ -28,6 +28,8 @@ class BoardView(QGraphicsView):
         self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorUnderMouse)
         self.setResizeAnchor(QGraphicsView.ViewportAnchor.AnchorViewCenter)
         self.setViewportUpdateMode(QGraphicsView.ViewportUpdateMode.SmartViewportUpdate)
+        # the water and grid are drawn once per zoom or pan, not on every move of a drag
+        self.setCacheMode(QGraphicsView.CacheModeFlag.CacheBackground)
         self.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         self.setVerticalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         self.setFocusPolicy(Qt.FocusPolicy.StrongFocus)
@@ -37,6 +39,8 @@ class BoardView(QGraphicsView):
         self._pan: QPointF | None = None
         self._fitted = False
         self._wheel_rest = 0
+        self._overlay_key: tuple[object, ...] | None = None
+        self._overlay_pix: tuple[QPixmap, QPixmap] = (QPixmap(), QPixmap())
         #: Callables ``(painter, width, height)`` drawing on top in viewport pixels.
         self.foreground_hooks: list[Callable[[QPainter, int, int], None]] = []
 
@@ -137,13 +141,32 @@ class BoardView(QGraphicsView):
         painter.resetTransform()
         h = self.viewport().height()
         w = self.viewport().width()
-        draw_scale_bar(
-            painter,
-            QPointF(16, h - 14),
-            self.pixels_per_metre(),
-            self.board.controller.project.units,
-        )
-        draw_north_arrow(painter, QPointF(w - 36, 48))
+        bar, arrow = self._overlays()
+        painter.drawPixmap(0, h - 48, bar)
+        painter.drawPixmap(w - 72, 10, arrow)
         for hook in self.foreground_hooks:  # e.g. the wind and current card
             hook(painter, w, h)
         painter.restore()
+
+    def _overlays(self) -> tuple[QPixmap, QPixmap]:
+        """The scale bar and the north arrow as small pixmaps, drawn once per zoom and unit."""
+        units = self.board.controller.project.units
+        key = (round(self.pixels_per_metre(), 9), units.unit("length"), self.devicePixelRatioF())
+        if self._overlay_key != key:
+            ratio = self.devicePixelRatioF()
+
+            def canvas(w: int, h: int) -> tuple[QPixmap, QPainter]:
+                pix = QPixmap(int(w * ratio), int(h * ratio))
+                pix.setDevicePixelRatio(ratio)
+                pix.fill(Qt.GlobalColor.transparent)
+                return pix, QPainter(pix)
+
+            bar, p = canvas(220, 48)
+            draw_scale_bar(p, QPointF(16, 34), self.pixels_per_metre(), units)
+            p.end()
+            arrow, p = canvas(72, 76)
+            draw_north_arrow(p, QPointF(36, 38 + 6))
+            p.end()
+            self._overlay_pix = (bar, arrow)
+            self._overlay_key = key
+        return self._overlay_pix

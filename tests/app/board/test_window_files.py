@@ -104,7 +104,7 @@ def test_editing_a_table_cell_moves_the_board(window, qtbot) -> None:  # type: i
     assert c.project.units.show(share.pull_n, "force") in tug.label.text
     # the force arrow is drawn to the board's scale of the assigned pull
     force_scale, _, _ = window.board.scales()
-    sx, sy, ex, ey, _head = tug.arrow._key
+    (sx, sy), (ex, ey) = tug.glyph.arrow_line
     assert ((ex - sx) ** 2 + (ey - sy) ** 2) ** 0.5 == pytest.approx(share.pull_n * force_scale)
 
 
