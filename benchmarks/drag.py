@@ -24,14 +24,14 @@ import time
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
-from PySide6.QtCore import QEvent, QPointF, Qt  # noqa: E402
-from PySide6.QtGui import QMouseEvent  # noqa: E402
-from PySide6.QtWidgets import QApplication  # noqa: E402
+from PySide6.QtCore import QEvent, QPointF, Qt
+from PySide6.QtGui import QMouseEvent
+from PySide6.QtWidgets import QApplication
 
-from core.hull import Fitting, Hull  # noqa: E402
-from core.outlines import raked_outline  # noqa: E402
-from core.plan import BodyPose, Project, Stage  # noqa: E402
-from core.tugs import Placement, Tug  # noqa: E402
+from core.hull import Fitting, Hull
+from core.outlines import raked_outline
+from core.plan import BodyPose, Project, Stage
+from core.tugs import Placement, Tug
 
 TF = 9806.65
 
