@@ -348,7 +348,7 @@ class BalanceDrawing:
         self.moment = MomentArrow(style.MOMENT, 3.2, root)
         self.moment.setZValue(Z_BALANCE)
         self.action = LineItem(root)
-        self.action.setPen(style.pen(style.LINE_OF_ACTION, 1.4, Qt.PenStyle.DashLine))
+        self.action.setPen(style.pen(style.LINE_OF_ACTION, 1.0, Qt.PenStyle.DashLine))
         self.action.setZValue(Z_BALANCE - 0.5)
         self.crossing = Mark("crossing", root, 14)
         self.crossing.color = style.LINE_OF_ACTION
@@ -433,7 +433,7 @@ class BalanceDrawing:
                 QLineF(px - ux * reach, py - uy * reach, px + ux * reach, py + uy * reach)
             )
             self.action.setVisible(True)
-            self.action.setPen(style.pen(colour or style.LINE_OF_ACTION, 1.4, Qt.PenStyle.DashLine))
+            self.action.setPen(style.pen(colour or style.LINE_OF_ACTION, 1.0, Qt.PenStyle.DashLine))
             if balance.centreline_x is not None and abs(balance.centreline_x) < 10 * max(
                 body.length, 1
             ):

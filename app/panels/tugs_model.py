@@ -90,6 +90,7 @@ class TugsModel(QAbstractTableModel):
         self.controller = controller
         self.extra = []
         self.rows: list[Row] = []
+        self._units = controller.project.units
         self._build()
         controller.changed.connect(self.refresh)
 
@@ -117,16 +118,37 @@ class TugsModel(QAbstractTableModel):
         self.rows = rows
 
     def refresh(self) -> None:
-        old = [r.tug.name for r in self.rows]
+        """Tell the table what changed: all rows when tugs came or went, else the rows that did.
+
+        A drag changes one tug, and the yaw shares of all; the table is told just that,
+        so it never measures every cell on every mouse move.
+        """
+        old = self.rows
+        units = self._units
         self._build()
-        if [r.tug.name for r in self.rows] != old:
+        self._units = self.controller.project.units
+        if [r.tug.name for r in self.rows] != [r.tug.name for r in old]:
             self.beginResetModel()
             self.endResetModel()
-        elif self.rows:
-            self.dataChanged.emit(
-                self.index(0, 0), self.index(len(self.rows) - 1, self.columnCount() - 1)
-            )
-        self.headerDataChanged.emit(Qt.Orientation.Horizontal, 0, self.columnCount() - 1)
+            return
+        if self._units != units:
+            self.headerDataChanged.emit(Qt.Orientation.Horizontal, 0, self.columnCount() - 1)
+        last = self.columnCount() - 1
+        changed = [
+            i
+            for i, (a, b) in enumerate(zip(old, self.rows, strict=True))
+            if a.tug != b.tug
+            or a.placement != b.placement
+            or a.share != b.share
+            or self._units != units
+        ]
+        for first, end in _runs(changed):
+            self.dataChanged.emit(self.index(first, 0), self.index(end, last))
+        if self.rows and any(
+            a.net_moment != b.net_moment for a, b in zip(old, self.rows, strict=True)
+        ):
+            col = KEYS.index("share")
+            self.dataChanged.emit(self.index(0, col), self.index(len(self.rows) - 1, col))
 
     def row_of(self, tug: str) -> int:
         for i, r in enumerate(self.rows):
@@ -353,6 +375,17 @@ class TugsModel(QAbstractTableModel):
             if old_kind != fitting.kind:
                 new = new.with_lead(lead)
         return c.with_stage(stage.with_placement(new), project)
+
+
+def _runs(rows: list[int]) -> list[tuple[int, int]]:
+    """Consecutive runs of row numbers, as (first, last)."""
+    out: list[tuple[int, int]] = []
+    for r in rows:
+        if out and r == out[-1][1] + 1:
+            out[-1] = (out[-1][0], r)
+        else:
+            out.append((r, r))
+    return out
 
 
 def _parse(text: str, what: str) -> float:

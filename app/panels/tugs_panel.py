@@ -66,8 +66,12 @@ class TugsPanel(QWidget):
         )
         self.table.setItemDelegateForColumn(KEYS.index("point"), PointDelegate(self.model, self))
         self.table.verticalHeader().setVisible(False)
-        self.table.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.ResizeToContents)
+        # sized to the contents when the rows are made, not on every change (that would
+        # measure every cell on every mouse move of a drag)
+        self.table.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.Interactive)
         self.table.horizontalHeader().setStretchLastSection(True)
+        self.model.modelReset.connect(self.table.resizeColumnsToContents)
+        self.table.resizeColumnsToContents()
         self.table.setAlternatingRowColors(True)
         self.table.selectionModel().currentRowChanged.connect(self._row_changed)
         buttons = QHBoxLayout()
