@@ -496,12 +496,17 @@ class MainWindow(QMainWindow):
         )
 
 
+#: The windows ``run`` opened (kept referenced while the program runs).
+OPEN_WINDOWS: list[MainWindow] = []
+
+
 def run(file: str | None = None) -> int:
     """Open the window on ``file`` (default: the bundled sample) and run until it closes."""
     app = QApplication.instance() or QApplication(sys.argv[:1])
     app.setApplicationName("Towboard")
     app.setOrganizationName("Towboard")
     window = MainWindow()
+    OPEN_WINDOWS.append(window)
     window.show()
     if not window.offer_recovery():
         target = Path(file) if file else SAMPLE

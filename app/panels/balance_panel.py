@@ -9,7 +9,7 @@ from __future__ import annotations
 import math
 
 from PySide6.QtCore import Qt
-from PySide6.QtWidgets import QFormLayout, QLabel, QVBoxLayout, QWidget
+from PySide6.QtWidgets import QFormLayout, QFrame, QLabel, QScrollArea, QVBoxLayout, QWidget
 
 from app import formatting as fmt
 from app.controller import Controller
@@ -24,17 +24,17 @@ FRAME_TEXT = (
 )
 
 FIELDS = (
-    ("body", "Body"),
+    ("body", "Body and stage"),
     ("net", "Net force"),
-    ("net_bearing", "  towards (relative)"),
-    ("net_ahead", "  ahead (+) / astern (−)"),
-    ("net_abeam", "  to port (+) / stbd (−)"),
-    ("net_words", "  the body"),
+    ("net_bearing", "Net force towards (relative bearing)"),
+    ("net_ahead", "Net force ahead (+) / astern (−)"),
+    ("net_abeam", "Net force to port (+) / starboard (−)"),
+    ("net_words", "So the body"),
     ("moment_centroid", "Yaw moment about the centroid"),
     ("moment_cog", "Yaw moment about the centre of gravity"),
     ("equivalent", "Equivalent force"),
-    ("offset", "  line of action from the centroid"),
-    ("crossing", "  crosses the centreline at"),
+    ("offset", "Its line of action from the centroid"),
+    ("crossing", "Its line of action crosses the centreline"),
 )
 
 
@@ -44,14 +44,27 @@ class BalancePanel(QWidget):
     def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
         super().__init__(parent)
         self.controller = controller
-        layout = QVBoxLayout(self)
+        outer = QVBoxLayout(self)
+        outer.setContentsMargins(0, 0, 0, 0)
+        scroll = QScrollArea()  # a short panel scrolls; it never squeezes a line
+        scroll.setWidgetResizable(True)
+        scroll.setFrameShape(QFrame.Shape.NoFrame)
+        outer.addWidget(scroll)
+        inner = QWidget()
+        scroll.setWidget(inner)
+        layout = QVBoxLayout(inner)
         form = QFormLayout()
         form.setLabelAlignment(Qt.AlignmentFlag.AlignLeft)
+        # each value under its label: a narrow panel never cuts a number off
+        form.setRowWrapPolicy(QFormLayout.RowWrapPolicy.WrapAllRows)
+        form.setVerticalSpacing(2)
         self.fields: dict[str, QLabel] = {}
         for key, text in FIELDS:
             lab = QLabel("—")
+            lab.setWordWrap(True)
             lab.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
             lab.setObjectName(f"balance_{key}")
+            lab.setStyleSheet("font-weight: bold; padding-left: 10px; padding-bottom: 3px;")
             self.fields[key] = lab
             form.addRow(text, lab)
         layout.addLayout(form)
@@ -93,7 +106,7 @@ class BalancePanel(QWidget):
         tol_f = 1e-6 * (scale or 1.0)
         r = self.controller.results().get(b.body)
         tol_m = tol_f * max(r.body.length if r is not None else 1.0, 1.0)
-        f["body"].setText(f"{b.body} — stage {b.stage}")
+        f["body"].setText(f"{b.body}, stage “{b.stage}”")
         f["net"].setText(fmt.value(u, eq.magnitude, "force"))
         f["net_bearing"].setText(fmt.bearing(b.net_bearing_deg))
         f["net_ahead"].setText(fmt.signed(u, eq.force[0], "force"))

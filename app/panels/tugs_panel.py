@@ -73,6 +73,7 @@ class TugsPanel(QWidget):
         self.model.modelReset.connect(self.table.resizeColumnsToContents)
         self.table.resizeColumnsToContents()
         self.table.setAlternatingRowColors(True)
+        self.table.setMinimumHeight(130)  # four rows at least
         self.table.selectionModel().currentRowChanged.connect(self._row_changed)
         buttons = QHBoxLayout()
         self.add_button = QPushButton("Add tug")
