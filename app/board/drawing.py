@@ -460,7 +460,17 @@ class BalanceDrawing:
             self.state.set_text("")
         self.state.setVisible(eq.kind != "force")
         self.stale.setPos(cx, cy)
-        self.stale.set_text(f"STALE: {stale}" if stale else "")
+        # the board says it briefly; the balance panel gives the whole reason
+        short = stale.split(" (", 1)[0].split(":", 1)[0] if stale else ""
+        self.stale.set_text(
+            f"STALE: {short}\nthe balance shown is the last valid one" if stale else ""
+        )
+        for lab, normal in (
+            (self.net_label, style.NET_FORCE),
+            (self.moment_label, style.MOMENT),
+            (self.cross_label, style.LINE_OF_ACTION),
+        ):
+            lab.set_color(style.STALE if stale else normal)
         self.stale.setVisible(bool(stale))
         self._update_loads(balance, units, force_scale, head)
 

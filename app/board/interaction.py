@@ -316,7 +316,7 @@ class Interaction:
         c.preview(c.project.with_hull(new))
 
     def _show_invalid(self, hull: str, outline: list[tuple[float, float]], why: str) -> None:
-        self.scene.stale = f"outline invalid ({why}); balance shown is the last valid one"
+        self.scene.stale = f"outline invalid ({why}); the balance shown is the last valid one"
         for d in self.scene.bodies.values():
             if hull in d.hulls:
                 d.hulls[hull].show_invalid(outline)

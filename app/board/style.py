@@ -27,7 +27,7 @@ LINE_OF_ACTION = QColor("#8e24aa")
 LOAD_FORCE = QColor("#00838f")
 STALE = QColor("#9e9e9e")
 TEXT = QColor("#1d252d")
-LABEL_BG = QColor(255, 255, 255, 215)
+LABEL_BG = QColor(255, 255, 255, 235)
 SELECTION = QColor("#1565c0")
 
 #: Drawn size of a tug, m (a generic harbour tug; the board is to scale).
