@@ -8,9 +8,7 @@ laid out into pages first, so every page carries "page N of M".
 
 from __future__ import annotations
 
-import contextlib
 import os
-import tempfile
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -30,6 +28,7 @@ from core.checks import StageCheck, check_plan
 from core.errors import InputError, TowboardError
 from core.holdlimits import hold_limits, hold_limits_problem
 from core.plan import Project
+from core.projectfile import replacing
 from core.solve import pulls_problem, tug_lost_check
 
 PAPERS: dict[str, QPageSize.PageSizeId] = {
@@ -187,17 +186,8 @@ def write_pdf(project: Project, path: str | os.PathLike[str], paper: str = "a4")
     page_layout(paper)  # refuse a bad paper before touching the disk
     if not target.parent.is_dir():
         raise InputError("output folder", str(target.parent), "does not exist")
-    fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=target.parent)
-    os.close(fd)
-    try:
-        writer = pdf_writer(tmp, project, paper)
+    with replacing(target) as tmp:
+        writer = pdf_writer(str(tmp), project, paper)
         pages = render(writer, project)
         del writer  # flushes and closes the file
-        with open(tmp, "rb+") as f:
-            os.fsync(f.fileno())
-        os.replace(tmp, target)
-    except BaseException:
-        with contextlib.suppress(OSError):
-            os.unlink(tmp)
-        raise
     return pages

@@ -16,8 +16,7 @@ from dataclasses import dataclass
 import numpy as np
 import shapely
 
-from core.bodies import Body, body_name_of_hull, body_of
-from core.errors import InputError
+from core.bodies import Body, stage_body
 from core.forces import Equivalent, equivalent_of, moments_about, transfer_moment
 from core.frames import angle_to_bearing
 from core.notices import Notice
@@ -318,12 +317,5 @@ def analyse(
     project: Project, stage: Stage, body: str | None = None, loads: Sequence[Load] = ()
 ) -> Balance:
     """The balance of ``body`` (default: the body the stage's first tug works on)."""
-    if body is None:
-        if stage.placements:
-            body = body_name_of_hull(project, stage.placements[0].hull)
-        elif project.hulls:
-            body = project.body_names()[0]
-        else:
-            raise InputError(f"stage {stage.name}", "", "has no hull to work on")
-    b = body_of(project, body)
+    b = stage_body(project, stage, body)
     return analyse_layout(stage, b, tug_layout(project, stage, b), project.units, loads)

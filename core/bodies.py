@@ -15,7 +15,7 @@ import shapely
 
 from core.errors import InputError
 from core.hull import Fitting, Hull
-from core.plan import Project
+from core.plan import Project, Stage
 
 
 def _pair(a: np.ndarray) -> tuple[float, float]:
@@ -126,6 +126,18 @@ def body_of(project: Project, name: str) -> Body:
     if group is not None:
         return body_of(project, group.name)
     return Body(hull.name, (Member(hull, 0.0, 0.0, 0.0),))
+
+
+def stage_body(project: Project, stage: Stage, body: str | None = None) -> Body:
+    """The body a stage is about: ``body``, or the one its first tug works on."""
+    if body is None:
+        if stage.placements:
+            body = body_name_of_hull(project, stage.placements[0].hull)
+        elif project.hulls:
+            body = project.body_names()[0]
+        else:
+            raise InputError(f"stage {stage.name}", "", "has no hull to work on")
+    return body_of(project, body)
 
 
 def body_name_of_hull(project: Project, hull: str) -> str:

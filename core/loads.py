@@ -11,24 +11,11 @@ from dataclasses import replace
 import numpy as np
 
 from core.balance import Balance, Load, analyse_layout, tug_layout
-from core.bodies import Body, body_name_of_hull, body_of
+from core.bodies import Body, stage_body
 from core.conditions import ConditionLoads, condition_loads
-from core.errors import InputError
 from core.notices import Notice
 from core.plan import Project, Stage
 from core.usable import fitting_suits
-
-
-def stage_body(project: Project, stage: Stage, body: str | None = None) -> Body:
-    """The body a stage is about: ``body``, or the one its first tug works on."""
-    if body is None:
-        if stage.placements:
-            body = body_name_of_hull(project, stage.placements[0].hull)
-        elif project.hulls:
-            body = project.body_names()[0]
-        else:
-            raise InputError(f"stage {stage.name}", "", "has no hull to work on")
-    return body_of(project, body)
 
 
 def body_conditions(stage: Stage, body: Body, *, strict: bool = False) -> ConditionLoads:

@@ -13,6 +13,7 @@ import json
 import os
 import re
 import tempfile
+from collections.abc import Iterator
 from pathlib import Path
 from typing import Any
 
@@ -83,18 +84,25 @@ def load(path: str | os.PathLike[str]) -> Project:
     return loads(text, str(p))
 
 
-def write_atomic(path: Path, data: bytes) -> None:
-    """Write ``data`` to ``path`` so that a crash leaves either the old or the new file."""
-    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=path.parent)
+@contextlib.contextmanager
+def replacing(path: Path) -> Iterator[Path]:
+    """A temporary path beside ``path``; once the block has written it, it replaces ``path``.
+
+    The temporary file is fsynced and renamed over ``path`` only if the block ends
+    normally, so a crash or an error leaves either the old file or the new one, never
+    half of one; on an error the temporary file is removed.
+    """
+    fd, name = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=path.parent)
+    os.close(fd)
+    tmp = Path(name)
     try:
-        with os.fdopen(fd, "wb") as f:
-            f.write(data)
-            f.flush()
+        yield tmp
+        with open(tmp, "rb+") as f:
             os.fsync(f.fileno())
         os.replace(tmp, path)
     except BaseException:
         with contextlib.suppress(OSError):
-            os.unlink(tmp)
+            tmp.unlink()
         raise
     with contextlib.suppress(OSError):  # make the rename itself durable where the OS allows
         dir_fd = os.open(path.parent, os.O_RDONLY)
@@ -102,6 +110,12 @@ def write_atomic(path: Path, data: bytes) -> None:
             os.fsync(dir_fd)
         finally:
             os.close(dir_fd)
+
+
+def write_atomic(path: Path, data: bytes) -> None:
+    """Write ``data`` to ``path`` so that a crash leaves either the old or the new file."""
+    with replacing(path) as tmp:
+        tmp.write_bytes(data)
 
 
 def backup_path(path: str | os.PathLike[str]) -> Path:
