@@ -13,7 +13,16 @@ import math
 
 import numpy as np
 from PySide6.QtCore import QPointF, QRectF, QSize, Qt, QTimer
-from PySide6.QtGui import QColor, QFont, QPainter, QPainterPath, QPaintEvent, QPen
+from PySide6.QtGui import (
+    QColor,
+    QFont,
+    QPainter,
+    QPainterPath,
+    QPaintEvent,
+    QPen,
+    QPixmap,
+    QPolygonF,
+)
 from PySide6.QtWidgets import QLabel, QSizePolicy, QVBoxLayout, QWidget
 
 from app.controller import Controller
@@ -57,6 +66,8 @@ class HoldPlot(QWidget):
         self.units = DisplayUnits()
         self.message = "No hold limits yet."
         self.coarse = False
+        self._grid_cache: QPixmap | None = None
+        self._grid_key: object = None
         self.setMinimumSize(220, 220)
         self.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
 
@@ -121,24 +132,39 @@ class HoldPlot(QWidget):
         return QPointF(r.center().x(), 24.0 + spare / 2 + radius), radius
 
     # -- painting -------------------------------------------------------------------
+    def _grid_pixmap(self, centre: QPointF, radius: float, top: float, step: float) -> QPixmap:
+        """The background, rings and bearings, drawn once per size and scale."""
+        ratio = self.devicePixelRatioF()
+        key = (self.width(), self.height(), ratio, top, step, self.units.unit("speed"))
+        if self._grid_key != key or self._grid_cache is None:
+            pm = QPixmap(round(self.width() * ratio), round(self.height() * ratio))
+            pm.setDevicePixelRatio(ratio)
+            pm.fill(QColor("#ffffff"))
+            g = QPainter(pm)
+            g.setRenderHint(QPainter.RenderHint.Antialiasing)
+            g.setFont(self.font())
+            self._grid(g, centre, radius, top, step)
+            g.end()
+            self._grid_cache, self._grid_key = pm, key
+        return self._grid_cache
+
     def paintEvent(self, event: QPaintEvent) -> None:
         p = QPainter(self)
         p.setRenderHint(QPainter.RenderHint.Antialiasing)
-        p.fillRect(self.rect(), QColor("#ffffff"))
         centre, radius = self._frame()
         top, step = self.scale_top()
-        self._grid(p, centre, radius, top, step)
+        p.drawPixmap(0, 0, self._grid_pixmap(centre, radius, top, step))
         lim = self.limits
         if lim is None:
             self._message(p, centre, self.message or "No hold limits for this stage.")
             p.end()
             return
-        u = self.units
+        k = self.units.value(1.0, "speed")  # display units per m/s
         dirs = np.asarray(lim.problem.directions_deg, float)
-        all_v = np.array([u.value(float(v), "speed") for v in lim.all_tugs_ms])
+        all_v = np.asarray(lim.all_tugs_ms, float) * k
         self._curve(p, centre, radius, top, dirs, all_v, ALL_TUGS, Qt.PenStyle.SolidLine, True)
         if len(lim.lost_ms):
-            lost = np.array([u.value(float(v), "speed") for v in lim.worst_lost_ms])
+            lost = np.asarray(lim.worst_lost_ms, float) * k
             self._curve(p, centre, radius, top, dirs, lost, TUG_LOST, Qt.PenStyle.DashLine, False)
         self._heading(p, centre, radius)
         self._planned(p, centre, radius, top)
@@ -201,14 +227,14 @@ class HoldPlot(QWidget):
         style: Qt.PenStyle,
         fill: bool,
     ) -> None:
+        v = np.where(np.isfinite(values), values, top)
+        r = radius * np.clip(v, 0.0, top) / top if top > 0 else np.zeros_like(v)
+        a = np.radians(dirs)
+        xs, ys = centre.x() + r * np.sin(a), centre.y() - r * np.cos(a)
         path = QPainterPath()
-        for i, (d, v) in enumerate(zip(dirs, values, strict=True)):
-            v = top if not math.isfinite(v) else v
-            pt = self._at(centre, radius, top, float(d), float(v))
-            if i == 0:
-                path.moveTo(pt)
-            else:
-                path.lineTo(pt)
+        path.addPolygon(
+            QPolygonF([QPointF(x, y) for x, y in zip(xs.tolist(), ys.tolist(), strict=True)])
+        )
         path.closeSubpath()
         if fill:
             p.fillPath(path, HELD_FILL)
@@ -259,7 +285,7 @@ class HoldPlot(QWidget):
         p.drawText(box, Qt.AlignmentFlag.AlignCenter, text)
 
     def _legend(self, p: QPainter, centre: QPointF, radius: float, lost: bool) -> None:
-        y = min(centre.y() + radius + 30, self.height() - 8.0)
+        y = min(centre.y() + radius + 30, self.height() - 14.0)
         x = 8.0
         entries = [(ALL_TUGS, Qt.PenStyle.SolidLine, "all tugs")]
         if lost:
@@ -271,9 +297,9 @@ class HoldPlot(QWidget):
             p.drawText(QPointF(x + 27, y + 4), text)
             x += 40 + p.fontMetrics().horizontalAdvance(text)
         p.setPen(MUTED)
-        note = "5° steps (dragging)" if self.coarse else ""
+        note = "5° steps" if self.coarse else ""
         if self.clipped():
-            note = "beyond the outer ring: drawn on it" + (f"; {note}" if note else "")
+            note = "higher: on the rim" + (f"; {note}" if note else "")
         if note:
             p.drawText(QPointF(x, y + 4), note)
 

@@ -232,9 +232,52 @@ def hold_limits(problem: HoldLimitsProblem, *, with_lost: bool = True) -> HoldLi
 
     terms = _rays(normals, rays)
     s_all, s_min, holds = _exit(normals, support, start, terms)
+    n = gens.shape[1]
+    lost = np.zeros((n if with_lost else 0, rays.shape[1]))
+    if len(lost):
+        _lost_sweeps(lost, gens, normals, parts, support, start, rays, terms)
+    return HoldLimits(problem, np.sqrt(s_all), np.sqrt(lost), holds, np.sqrt(s_min))
+
+
+def _ranks_without_each(gens: np.ndarray) -> np.ndarray:
+    """(n,) rank of the generators with each one left out, in one batched SVD."""
+    n = gens.shape[1]
+    if n <= 1:
+        return np.zeros(n, dtype=int)
+    keep = np.array([[j for j in range(n) if j != k] for k in range(n)])  # (n, n - 1)
+    sv = np.linalg.svd(np.transpose(gens[:, keep], (1, 0, 2)), compute_uv=False)  # (n, m)
+    top = np.maximum(sv[:, :1], 1e-300)
+    return (sv > 1e-9 * top).sum(axis=1)
+
+
+def _lost_sweeps(
+    lost: np.ndarray,
+    gens: np.ndarray,
+    normals: np.ndarray,
+    parts: np.ndarray,
+    support: np.ndarray,
+    start: np.ndarray,
+    rays: np.ndarray,
+    terms: _Rays,
+) -> None:
+    """Fill ``lost`` (n, D): the sweep with each tug lost.
+
+    Where losing the tug keeps the zonotope solid and the current inside it (the usual
+    case), the half-spaces of the full set serve with that tug's part taken off their
+    support, for many tugs in one array operation; otherwise that tug gets its own sweep.
+    """
     full_rank = _rank(gens)
-    lost = np.zeros((gens.shape[1] if with_lost else 0, rays.shape[1]))
-    for k in range(len(lost)):
+    slack = (support - normals @ start)[:, None] - parts  # (P, n)
+    slack[np.abs(slack) < 1e-13] = 0.0
+    fast = (_ranks_without_each(gens) == full_rank) & (slack.min(axis=0) >= -_SLACK_TOL)
+    idx = np.flatnonzero(fast)
+    p, d = terms.inv_den.shape
+    chunk = max(1, 4_000_000 // max(p * d, 1))
+    for c0 in range(0, len(idx), chunk):
+        ks = idx[c0 : c0 + chunk]
+        sl = np.maximum(slack[:, ks], 0.0).T[:, :, None]  # (m, P, 1)
+        lost[ks] = (sl * terms.inv_den[None] + terms.blocked[None]).min(axis=1)
+    for k in np.flatnonzero(~fast):
         rest = np.delete(gens, k, axis=1)
         if _rank(rest) == full_rank:
             lost[k] = _exit(normals, support - parts[:, k], start, terms)[0]
@@ -242,7 +285,6 @@ def hold_limits(problem: HoldLimitsProblem, *, with_lost: bool = True) -> HoldLi
             ns = zonotope_normals(rest)
             h = np.maximum(ns @ rest, 0.0).sum(axis=1)
             lost[k] = _exit(ns, h, start, _rays(ns, rays))[0]
-    return HoldLimits(problem, np.sqrt(s_all), np.sqrt(lost), holds, np.sqrt(s_min))
 
 
 def limit_at(limits: HoldLimits, wind_from_deg: float, curve: np.ndarray | None = None) -> float:

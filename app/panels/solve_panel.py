@@ -309,7 +309,8 @@ class SolvePanel(QWidget):
             ]
             if r is not None and sh.tug in solved:
                 i = solved[sh.tug]
-                cells[2] += f"  (solved {u.show(float(r.pulls_n[i]), 'force')})"
+                if abs(float(r.pulls_n[i]) - sh.pull_n) > 0.005 * max(sh.usable_n, 1.0):
+                    cells[2] += f"  (solved {u.show(float(r.pulls_n[i]), 'force')})"
             for col, text in enumerate(cells):
                 item = QTableWidgetItem(text)
                 if col in (1, 2, 3):

@@ -1,0 +1,340 @@
+"""Conditions, solve pulls, live solving, checks and the hold limits plot in the window."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import numpy as np
+import pytest
+from PySide6.QtCore import QPointF, Qt
+from PySide6.QtGui import QColor, QImage, QPainter
+from PySide6.QtWidgets import QMessageBox
+
+from app.board.conditions_layer import draw_conditions_card
+from app.hold_plot import ALL_TUGS
+from app.panels.conditions import EfficiencyDialog
+from core.bodies import body_of
+from core.goals import Goal
+from core.holdlimits import hold_limits, hold_limits_problem
+from core.loads import analyse_stage, body_conditions
+from core.solve import pulls_problem, solve_pulls, tug_lost_check
+from core.units import DisplayUnits
+from tests.app.board.conftest import move_with_button, view_point
+
+KNOT = 1852 / 3600
+
+
+def _type(qtbot, edit, text: str) -> None:  # type: ignore[no-untyped-def]
+    edit.setFocus()
+    edit.selectAll()
+    if text:
+        qtbot.keyClicks(edit, text)  # replaces the selection
+    else:
+        qtbot.keyClick(edit, Qt.Key.Key_Delete)
+    qtbot.keyClick(edit, Qt.Key.Key_Return)
+    edit.clearFocus()
+
+
+# -- the conditions panel -------------------------------------------------------------
+
+
+def test_typing_the_wind_speed_edits_the_stage_as_one_undo_step(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = window.controller
+    panel = window.solve_ui.conditions
+    # The sample's first stage has 12 kn of wind; the panel shows it in knots.
+    assert panel.edits["wind_speed_ms"].text() == "12"
+    steps = c.undo_stack.count()
+    _type(qtbot, panel.edits["wind_speed_ms"], "20")
+    assert c.stage.conditions.wind_speed_ms == pytest.approx(20 * KNOT)
+    assert c.undo_stack.count() == steps + 1
+    c.undo_stack.undo()
+    assert c.stage.conditions.wind_speed_ms == pytest.approx(12 * KNOT)
+    assert panel.edits["wind_speed_ms"].text() == "12"
+
+
+def test_a_bad_number_is_refused_and_said(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = window.controller
+    before = c.project
+    panel = window.solve_ui.conditions
+    with qtbot.waitSignal(c.message, timeout=2000) as sig:
+        _type(qtbot, panel.edits["gust_factor"], "lots")
+    assert "is not a number" in sig.args[0]
+    assert c.project is before
+    with qtbot.waitSignal(c.message, timeout=2000) as sig:
+        _type(qtbot, panel.edits["gust_factor"], "0.5")
+    assert "must be 1 or more" in sig.args[0]
+    assert c.project is before
+
+
+def test_an_area_is_entered_and_cleared_back_to_auto(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = window.controller
+    e = window.solve_ui.conditions.edits["wind_area_beam_m2"]
+    # Blank: the outline's length times the freeboard (84 m x 2.9 m for the sample's hull).
+    assert e.text() == ""
+    assert "243.6" in e.placeholderText()
+    _type(qtbot, e, "500")
+    assert c.stage.conditions.wind_area_beam_m2 == pytest.approx(500.0)
+    _type(qtbot, e, "")
+    assert c.stage.conditions.wind_area_beam_m2 is None
+
+
+def test_the_wind_and_current_are_loads_in_the_balance(window) -> None:  # type: ignore[no-untyped-def]
+    c = window.controller
+    b = c.balance()
+    ref = analyse_stage(c.project, c.stage, b.body)
+    assert [ld.name for ld in b.loads] == ["wind", "current"]
+    assert b.net_force == pytest.approx(ref.net_force, rel=1e-12)
+    assert b.moment_centroid_nm == pytest.approx(ref.moment_centroid_nm, rel=1e-12)
+    u = c.project.units
+    assert window.balance_panel.fields["net"].text() == u.show(ref.net_magnitude, "force")
+
+
+def test_the_panel_says_what_the_body_feels(window) -> None:  # type: ignore[no-untyped-def]
+    text = window.solve_ui.conditions.effect.text()
+    c = window.controller
+    cl = body_conditions(c.stage, body_of(c.project, "Kestrel 3"))
+    assert f"Wind from {cl.wind_from_rel_deg:03.0f}° relative" in text
+    assert "Wind load" in text and "Current load" in text
+
+
+def test_the_efficiency_table_dialog_builds_and_refuses(qtbot, monkeypatch) -> None:  # type: ignore[no-untyped-def]
+    from core.usable import EfficiencyTable
+
+    u = DisplayUnits()
+    dlg = EfficiencyDialog(EfficiencyTable(), u)
+    qtbot.addWidget(dlg)
+    dlg.pulls.setText("30, 60")
+    dlg.seas.setText("0, 4")
+    dlg._reshape()
+    dlg.grid.item(1, 1).setText("0.75")
+    table = dlg.build()
+    assert table.bollard_pulls_n == pytest.approx((30 * 9806.65, 60 * 9806.65))
+    assert table.sea_states == (0.0, 4.0)
+    assert table.values[1][1] == pytest.approx(0.75)
+    said = []
+    monkeypatch.setattr(QMessageBox, "warning", lambda *a: said.append(a[2]))
+    dlg.grid.item(0, 1).setText("1.4")
+    dlg._accept()
+    assert dlg.table is None
+    assert said and "0 to 1" in said[0]
+
+
+# -- solving ----------------------------------------------------------------------------
+
+
+def test_solve_pulls_fills_every_setting_in_one_undo_step(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = holding.controller
+    panel = holding.solve_ui.solve_panel
+    before = c.project
+    steps = c.undo_stack.count()
+    qtbot.mouseClick(panel.solve_button, Qt.MouseButton.LeftButton)
+    assert c.undo_stack.count() == steps + 1
+    stage = c.stage
+    assert stage.goal == Goal("hold")
+    ref = solve_pulls(pulls_problem(before, before.stages[0], goal=Goal("hold")))
+    assert ref.feasible
+    settings = [stage.placement(p.tug).setting for p in ref.problem.placements]
+    assert settings == pytest.approx(list(ref.utilisation), abs=1e-12)
+    # The stage now holds: tugs plus conditions sum to nothing, on the board's balance.
+    b = c.balance()
+    tol = 1e-6 * 30 * 9806.65
+    assert np.abs(b.net_force).max() <= tol
+    assert abs(b.moment_centroid_nm) <= tol * 80
+    c.undo_stack.undo()
+    assert c.project == before
+
+
+def test_a_walk_goal_typed_in_the_display_units(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = holding.controller
+    panel = holding.solve_ui.solve_panel
+    panel.kind.setCurrentIndex(panel.kind.findData("walk"))
+    _type(qtbot, panel.fy, "10")  # 10 t to port on top of holding the wind
+    panel.solve()
+    assert c.stage.goal == Goal("walk", 0.0, 10 * 9806.65, 0.0)
+    b = c.balance()
+    assert b.net_force == pytest.approx((0.0, 10 * 9806.65), abs=1e-3)
+
+
+def test_an_impossible_goal_sets_the_closest_state_and_says_what_is_missing(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = holding.controller
+    panel = holding.solve_ui.solve_panel
+    panel.kind.setCurrentIndex(panel.kind.findData("walk"))
+    _type(qtbot, panel.fy, "-50")  # 50 t to starboard: nothing pulls that way
+    with qtbot.waitSignal(c.message, timeout=2000) as sig:
+        panel.solve()
+    assert "out of reach" in sig.args[0] and "more to starboard" in sig.args[0]
+    panel.recheck()
+    assert "out of reach" in panel.outcome.text()
+
+
+def test_live_solving_follows_a_drag(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = holding.controller
+    ui = holding.solve_ui
+    ui.solve_panel.live.setChecked(True)
+    assert ui.act_live.isChecked()
+    view = holding.view
+    share = next(s for s in c.balance().shares if s.tug == "Gannet")
+    from app.board.poses import pose_in, to_site
+
+    start = view_point(view, *to_site(pose_in(c.stage, "Barge"), share.position))
+    steps = c.undo_stack.count()
+    qtbot.mousePress(view.viewport(), Qt.MouseButton.LeftButton, pos=start)
+    for k in range(1, 8):
+        move_with_button(view, start + QPointF(-8 * k, -5 * k).toPoint())
+        stage = c.stage
+        ref = solve_pulls(pulls_problem(c.project, stage, goal=Goal("hold")))
+        for p, s in zip(ref.problem.placements, ref.utilisation, strict=True):
+            assert stage.placement(p.tug).setting == pytest.approx(float(s), abs=1e-9)
+    qtbot.mouseRelease(
+        view.viewport(), Qt.MouseButton.LeftButton, pos=start + QPointF(-56, -35).toPoint()
+    )
+    assert c.undo_stack.count() == steps + 1  # the whole drag, solved settings and all
+    ui.solve_panel.live.setChecked(False)
+    assert c.edit_filters == []
+
+
+def test_checks_flag_a_tug_over_100_percent_on_the_board_and_the_table(holding) -> None:  # type: ignore[no-untyped-def]
+    c = holding.controller
+    stage = c.stage
+    c.apply(c.with_stage(stage.with_placement(stage.placement("Tern").with_setting(1.2))), "over")
+    panel = holding.solve_ui.solve_panel
+    panel.recheck()
+    assert "over 100 %" in panel.notes["Tern"]
+    assert "over 100 %" in holding.board.tug_notes["Tern"]
+    model = holding.tugs_panel.model
+    col = model.columnCount() - 1
+    row = model.row_of("Tern")
+    assert "over 100 %" in model.data(model.index(row, col))
+
+
+def test_tug_lost_table_is_the_cores_check(holding) -> None:  # type: ignore[no-untyped-def]
+    c = holding.controller
+    panel = holding.solve_ui.solve_panel
+    panel.recheck()
+    ref = tug_lost_check(pulls_problem(c.project, c.stage, goal=Goal("hold")))
+    assert ref.full.feasible
+    rows = {panel.lost.item(r, 0).text(): panel.lost.item(r, 1).text() for r in range(4)}
+    assert rows == {case.tug: "holds" if case.holds else "fails" for case in ref.cases}
+    assert ("FAILS" in panel.lost_title.text()) is (not ref.passes)
+    assert ref.worst is not None and ref.worst.tug in panel.lost_title.text()
+    for case in ref.cases:
+        assert ("goal fails without it" in panel.notes.get(case.tug, [])) is (not case.holds)
+
+
+def test_losing_the_big_tug_fails_and_is_flagged(holding) -> None:  # type: ignore[no-untyped-def]
+    # A 36 m/s wind from the port beam pushes 0.5 * 1.225 * 1.2 * (80 * 4) * 36^2 = 31 t to
+    # starboard at the centroid. Without the bow or the quarter tug, the pair cannot pull
+    # to port without swinging the barge, and the 25 t pusher amidships is not enough.
+    c = holding.controller
+    from dataclasses import replace
+
+    stage = c.stage
+    c.apply(
+        c.with_stage(replace(stage, conditions=replace(stage.conditions, wind_speed_ms=36.0))),
+        "gale",
+    )
+    panel = holding.solve_ui.solve_panel
+    panel.recheck()
+    assert panel.check is not None and panel.check.full.feasible
+    assert "FAILS" in panel.lost_title.text()
+    for tug in ("Gannet", "Puffin"):
+        assert "goal fails without it" in holding.board.tug_notes[tug]
+    assert "Skua" not in holding.board.tug_notes or "fails" not in holding.board.tug_notes["Skua"]
+
+
+# -- the hold limits plot -----------------------------------------------------------------
+
+
+def test_the_plot_shows_the_cores_hold_limits(holding, tmp_path: Path) -> None:  # type: ignore[no-untyped-def]
+    hold = holding.solve_ui.hold
+    hold.update_now(coarse=False)
+    c = holding.controller
+    ref = hold_limits(hold_limits_problem(c.project, c.stage, "Barge"))
+    assert hold.limits is not None
+    assert hold.limits.all_tugs_ms == pytest.approx(ref.all_tugs_ms, rel=1e-12)
+    assert hold.limits.worst_lost_ms == pytest.approx(ref.worst_lost_ms, rel=1e-12)
+    # From the port beam (the planned wind's direction) the caption gives the core's number.
+    v = c.project.units.show(float(ref.all_tugs_ms[270]), "speed")
+    assert f"From 270°T: {v} with all tugs" in hold.caption.text()
+    hold.plot.resize(420, 440)
+    img = hold.plot.grab().toImage()
+    path = tmp_path / "hold.png"
+    assert img.save(str(path))
+    blue = sum(
+        1
+        for x in range(0, img.width(), 2)
+        for y in range(0, img.height(), 2)
+        if _near(img.pixelColor(x, y), ALL_TUGS)
+    )
+    assert blue > 50  # the all-tugs curve is drawn
+
+
+def test_the_plot_follows_a_drag_at_five_degrees(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = holding.controller
+    stage = c.stage
+    p = stage.placement("Gannet")
+    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    hold = holding.solve_ui.hold
+    assert hold.limits is not None
+    assert len(hold.limits.problem.directions_deg) == 72
+    assert hold.plot.coarse
+    c.commit_preview("turn")
+    qtbot.waitUntil(
+        lambda: hold.limits is not None and len(hold.limits.problem.directions_deg) == 360
+    )
+
+
+def test_no_wind_area_says_why_instead_of_a_plot(window) -> None:  # type: ignore[no-untyped-def]
+    from dataclasses import replace
+
+    c = window.controller
+    hull = c.project.hull("Kestrel 3")
+    c.apply(c.project.with_hull(replace(hull, freeboard_m=None)), "no freeboard")
+    hold = window.solve_ui.hold
+    hold.update_now(coarse=False)
+    assert hold.limits is None
+    assert "freeboard" in hold.plot.message
+
+
+# -- the board's card -------------------------------------------------------------------
+
+
+def test_the_conditions_card_says_wind_and_current() -> None:
+    from core.conditions import Conditions
+
+    img = QImage(300, 220, QImage.Format.Format_ARGB32)
+    img.fill(QColor("white"))
+    p = QPainter(img)
+    c = Conditions(wind_speed_ms=10 * KNOT, wind_from_deg=200.0, current_speed_ms=KNOT)
+    rect = draw_conditions_card(p, QPointF(290, 10), c, DisplayUnits())
+    p.end()
+    assert rect.width() > 100
+    dark = sum(
+        1
+        for x in range(int(rect.left()), int(rect.right()))
+        for y in range(int(rect.top()), int(rect.bottom()))
+        if img.pixelColor(x, y).lightness() < 120
+    )
+    assert dark > 200
+    from app.board.conditions_layer import card_lines
+
+    texts = [t for t, _ in card_lines(c, DisplayUnits())]
+    assert texts == ["Wind 10.0 kn from 200°T", "Current 1.0 kn to 000°T"]
+
+
+def test_window_screenshot_with_the_new_panels(holding, tmp_path: Path) -> None:  # type: ignore[no-untyped-def]
+    for key in ("conditions", "solve", "hold_limits"):
+        assert key in holding.panels
+    img = holding.grab().toImage()
+    path = tmp_path / "window.png"
+    assert img.save(str(path))
+    colours = {
+        img.pixelColor(x, y).rgb()
+        for x in range(0, img.width(), 25)
+        for y in range(0, img.height(), 25)
+    }
+    assert len(colours) > 20
+
+
+def _near(a: QColor, b: QColor, tol: int = 40) -> bool:
+    return abs(a.red() - b.red()) + abs(a.green() - b.green()) + abs(a.blue() - b.blue()) < tol
