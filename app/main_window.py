@@ -63,6 +63,23 @@ CAUTION_LINE = (
 )
 
 
+BOARD_HELP = """Select / drag: drag a tug to change its line's lead and length (a pushing tug
+swings round its push point); drag a line point or push point along the hull; select the
+hull (click inside it) to show its vertices, then drag one. Double-click the hull's edge to
+insert a vertex; Delete removes the selected vertex or point, or lets go the selected tug.
+
+A selected tug: + and − change its setting by 1 %, Page Up and Page Down by 10 %, the wheel
+over it by 5 % a notch (always within 0 to 100 %). Arrow keys nudge the selection (Shift:
+ten times as far). Drag empty water or use the middle button to pan; the wheel zooms
+round the cursor.
+
+Draw outline: click the vertices, then click the first one again (or press Enter) to close;
+Backspace takes the last vertex back, Esc stops. Add line point / push point: click the hull's
+edge; the point snaps onto it.
+
+A drag is one undo step; steps of the same tug or point in a row are one undo step too."""
+
+
 def new_project() -> Project:
     """An empty plan with one stage, ready for a hull to be drawn."""
     return Project(name="Untitled plan", stages=(Stage("Stage 1"),))
@@ -256,6 +273,7 @@ class MainWindow(QMainWindow):
         b.addSeparator()
         b.addAction(self.act_generate)
         self._menus["tugs"].addActions([self.act_add_tug, self.act_dup_tug, self.act_remove_tug])
+        self._menus["help"].addAction(self._action("Mouse and keys on the board", self._board_help))
         self._menus["help"].addAction(self._action("About Towboard", self._about))
         self._rebuild_recent()
 
@@ -487,6 +505,9 @@ class MainWindow(QMainWindow):
             event.accept()
         else:
             event.ignore()
+
+    def _board_help(self) -> None:
+        QMessageBox.information(self, "Mouse and keys on the board", BOARD_HELP)
 
     def _about(self) -> None:
         QMessageBox.about(
