@@ -108,9 +108,11 @@ class Controller(QObject):
         self._results: dict[str, BodyResult] | None = None
         self._results_override: dict[str, BodyResult] | None = None
         self.load_providers: list[LoadProvider] = []
-        #: Callables ``(project) -> project`` run on every edit and preview before it is
-        #: shown (live solving fills in the settings); the same object back means no change.
-        self.edit_filters: list[Callable[[Project], Project]] = []
+        #: Callables ``(project, results) -> project`` run on every edit and preview before
+        #: it is shown (live solving fills in the settings); ``results`` are the bodies'
+        #: results for ``project`` when the caller has them (a drag), else None. The same
+        #: object back means no change.
+        self.edit_filters: list[Callable[[Project, dict[str, BodyResult] | None], Project]] = []
         self.undo_stack = QUndoStack(self)
         self.undo_stack.cleanChanged.connect(self._clean_changed)
 
@@ -209,10 +211,33 @@ class Controller(QObject):
             self.stage_changed.emit(self._stage_index)
         self.changed.emit()
 
-    def _filtered(self, new: Project) -> Project:
+    def _filtered(self, new: Project, results: dict[str, BodyResult] | None = None) -> Project:
         for f in self.edit_filters:
-            new = f(new)
+            new = f(new, results)
         return new
+
+    def _with_settings(
+        self, results: dict[str, BodyResult], project: Project
+    ) -> dict[str, BodyResult] | None:
+        """``results`` brought up to ``project`` when only tug settings differ, else None.
+
+        A tug's pull is its setting times its usable pull, so the layouts keep every array
+        and only the balances are reduced again (the drag path stays fast).
+        """
+        stage = project.stages[min(self._stage_index, len(project.stages) - 1)]
+        placed = {p.tug: p for p in stage.placements}
+        out: dict[str, BodyResult] = {}
+        for name, r in results.items():
+            new = []
+            for p in r.layout.placements:
+                q = placed.get(p.tug)
+                if q is None or replace(q, setting=p.setting) != p:
+                    return None
+                new.append(q)
+            layout = replace(r.layout, placements=tuple(new))
+            balance = analyse_layout(stage, r.body, layout, project.units, r.loads)
+            out[name] = BodyResult(r.body, layout, r.loads, balance)
+        return out
 
     def invalidate(self) -> None:
         """Work the results out again (a load provider was added) and tell every widget."""
@@ -240,9 +265,10 @@ class Controller(QObject):
         ``results`` may carry the bodies' results already computed for ``new`` (the
         fast drag path), so they are not computed twice.
         """
-        filtered = self._filtered(new)
+        filtered = self._filtered(new, results)
         if filtered is not new:
-            new, results = filtered, None
+            results = None if results is None else self._with_settings(results, filtered)
+            new = filtered
         if self._preview_base is None:
             self._preview_base = self._project
         self._set_project(new, results)

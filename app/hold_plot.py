@@ -27,7 +27,13 @@ from PySide6.QtWidgets import QLabel, QSizePolicy, QVBoxLayout, QWidget
 
 from app.controller import Controller
 from core.errors import TowboardError
-from core.holdlimits import HoldLimits, hold_limits, hold_limits_problem, limit_at
+from core.holdlimits import (
+    HoldLimits,
+    hold_limits,
+    hold_limits_problem,
+    limit_at,
+    live_hold_limits,
+)
 from core.plan import Stage
 from core.units import DisplayUnits, label
 
@@ -66,6 +72,7 @@ class HoldPlot(QWidget):
         self.units = DisplayUnits()
         self.message = "No hold limits yet."
         self.coarse = False
+        self.lost_curve: tuple[np.ndarray, np.ndarray] | None = None
         self._grid_cache: QPixmap | None = None
         self._grid_key: object = None
         self.setMinimumSize(220, 220)
@@ -81,10 +88,14 @@ class HoldPlot(QWidget):
         units: DisplayUnits,
         message: str = "",
         coarse: bool = False,
+        lost_curve: tuple[np.ndarray, np.ndarray] | None = None,
     ) -> None:
+        """Show ``limits``; ``lost_curve`` (directions, m/s) replaces its worst-lost curve
+        (while dragging it is swept on fewer directions than the all-tugs curve)."""
         self.limits, self.stage, self.units = limits, stage, units
         self.message = message
         self.coarse = coarse
+        self.lost_curve = lost_curve
         self.update()
 
     # -- geometry -------------------------------------------------------------------
@@ -163,12 +174,18 @@ class HoldPlot(QWidget):
         dirs = np.asarray(lim.problem.directions_deg, float)
         all_v = np.asarray(lim.all_tugs_ms, float) * k
         self._curve(p, centre, radius, top, dirs, all_v, ALL_TUGS, Qt.PenStyle.SolidLine, True)
-        if len(lim.lost_ms):
-            lost = np.asarray(lim.worst_lost_ms, float) * k
-            self._curve(p, centre, radius, top, dirs, lost, TUG_LOST, Qt.PenStyle.DashLine, False)
+        lost_dirs, lost = None, None
+        if self.lost_curve is not None:
+            lost_dirs, lost = self.lost_curve
+        elif len(lim.lost_ms):
+            lost_dirs, lost = dirs, np.asarray(lim.worst_lost_ms, float)
+        if lost is not None and lost_dirs is not None:
+            self._curve(
+                p, centre, radius, top, lost_dirs, lost * k, TUG_LOST, Qt.PenStyle.DashLine, False
+            )
         self._heading(p, centre, radius)
         self._planned(p, centre, radius, top)
-        self._legend(p, centre, radius, bool(len(lim.lost_ms)))
+        self._legend(p, centre, radius, lost is not None)
         p.end()
 
     def _at(self, centre: QPointF, radius: float, top: float, from_deg: float, v: float) -> QPointF:
@@ -297,7 +314,7 @@ class HoldPlot(QWidget):
             p.drawText(QPointF(x + 27, y + 4), text)
             x += 40 + p.fontMetrics().horizontalAdvance(text)
         p.setPen(MUTED)
-        note = "5° steps" if self.coarse else ""
+        note = "5°/10° steps" if self.coarse else ""
         if self.clipped():
             note = "higher: on the rim" + (f"; {note}" if note else "")
         if note:
@@ -359,8 +376,19 @@ class HoldLimitsPanel(QWidget):
             self.caption.setText("")
             return
         dirs = np.arange(0.0, 360.0, 5.0 if coarse else 1.0)
+        lost_curve = None
         try:
-            lim = hold_limits(hold_limits_problem(c.project, stage, body, directions_deg=dirs))
+            r = c.results().get(body)
+            problem = hold_limits_problem(
+                c.project, stage, body, directions_deg=dirs, layout=r.layout if r else None
+            )
+            if coarse:
+                # While dragging: all tugs every 5 degrees, each tug lost every 10 degrees.
+                lim, lost_dirs, worst = live_hold_limits(problem, lost_step=2)
+                if len(problem.tugs):
+                    lost_curve = (lost_dirs, worst)
+            else:
+                lim = hold_limits(problem)
         except TowboardError as e:
             self.plot.set_data(None, stage, units, f"No hold limits: {e}")
             self.caption.setText("")
@@ -372,7 +400,7 @@ class HoldLimitsPanel(QWidget):
         elif float(np.min(lim.all_tugs_ms)) <= 0:
             msg = "From some directions the tugs as set cannot hold any wind."
         self.warning.setText(msg)
-        self.plot.set_data(lim, stage, units, msg, coarse)
+        self.plot.set_data(lim, stage, units, msg, coarse, lost_curve)
         self.caption.setText(summary(lim, stage, units))
 
 

@@ -28,7 +28,7 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
-from core.balance import tug_layout
+from core.balance import TugLayout, tug_layout
 from core.conditions import current_model, flow_angle_rad, wind_model
 from core.loads import stage_body
 from core.plan import Project, Stage
@@ -70,10 +70,14 @@ def hold_limits_problem(
     body: str | None = None,
     *,
     directions_deg: np.ndarray | None = None,
+    layout: TugLayout | None = None,
 ) -> HoldLimitsProblem:
-    """Describe the sweep; raises InputError when the wind area cannot be found."""
+    """Describe the sweep; raises InputError when the wind area cannot be found.
+
+    ``layout`` may lend the body's tug layout already worked out for this stage."""
     b = stage_body(project, stage, body)
-    layout = tug_layout(project, stage, b)
+    if layout is None:
+        layout = tug_layout(project, stage, b)
     c = stage.conditions
     heading = stage.pose_of(b.name).heading_deg
     dirs = np.arange(360.0) if directions_deg is None else np.asarray(directions_deg, float)
@@ -219,6 +223,35 @@ def _exit(
     return np.where(never, 0.0, s_out), np.where(never, 0.0, s_in), False
 
 
+def live_hold_limits(
+    problem: HoldLimitsProblem, lost_step: int = 2
+) -> tuple[HoldLimits, np.ndarray, np.ndarray]:
+    """For a plot that follows the mouse: all tugs on every direction of ``problem``, the
+    worst tug lost on every ``lost_step``-th, from one set of half-spaces.
+
+    Returns (limits without lost rows, lost directions (D',), worst lost m/s (D',)).
+    """
+    sc = _scales(problem)
+    gens = problem.generators * sc[:, None]
+    start = -problem.fixed * sc
+    rays = -problem.wind_unit * sc[:, None]
+    normals = zonotope_normals(gens)
+    parts = np.maximum(normals @ gens, 0.0)
+    support = parts.sum(axis=1)
+    terms = _rays(normals, rays)
+    s_all, s_min, holds = _exit(normals, support, start, terms)
+    limits = HoldLimits(
+        problem, np.sqrt(s_all), np.zeros((0, rays.shape[1])), holds, np.sqrt(s_min)
+    )
+    k = max(1, int(lost_step))
+    sub = _Rays(terms.den[:, ::k], terms.inv_den[:, ::k], terms.blocked[:, ::k], terms.tol[::k])
+    lost = np.zeros((gens.shape[1], sub.den.shape[1]))
+    if len(lost):
+        _lost_sweeps(lost, gens, normals, parts, support, start, rays[:, ::k], sub)
+    worst = np.sqrt(lost.min(axis=0)) if len(lost) else np.zeros(sub.den.shape[1])
+    return limits, problem.directions_deg[::k], worst
+
+
 def hold_limits(problem: HoldLimitsProblem, *, with_lost: bool = True) -> HoldLimits:
     """Sweep every direction, all tugs and (``with_lost``) each tug lost, by ray-zonotope
     intersection. Without ``with_lost`` the lost rows are left empty (n = 0)."""
@@ -272,7 +305,7 @@ def _lost_sweeps(
     fast = (_ranks_without_each(gens) == full_rank) & (slack.min(axis=0) >= -_SLACK_TOL)
     idx = np.flatnonzero(fast)
     p, d = terms.inv_den.shape
-    chunk = max(1, 4_000_000 // max(p * d, 1))
+    chunk = max(1, 100_000 // max(p * d, 1))
     for c0 in range(0, len(idx), chunk):
         ks = idx[c0 : c0 + chunk]
         sl = np.maximum(slack[:, ks], 0.0).T[:, :, None]  # (m, P, 1)

@@ -36,10 +36,11 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
-from core.balance import Load, tug_direction, tug_layout
+from core.balance import Load, TugLayout, tug_direction, tug_layout
 from core.errors import InputError
 from core.frames import angle_to_bearing
 from core.goals import Goal
+from core.holdlimits import zonotope_normals
 from core.loads import body_conditions, loads_wrench, stage_body
 from core.lp import solve_lp
 from core.notices import Notice
@@ -132,14 +133,19 @@ def pulls_problem(
     *,
     loads: tuple[Load, ...] | None = None,
     sector_step_deg: float = SECTOR_STEP_DEG,
+    layout: TugLayout | None = None,
 ) -> PullsProblem:
     """Describe the solve for ``body`` in ``stage`` (goal: given, the stage's, or hold).
 
     ``loads`` default to the stage's wind and current on the body; a load whose
-    area is unknown is left out and a notice in the problem says so.
+    area is unknown is left out and a notice in the problem says so. ``layout`` may
+    lend the body's tug layout already worked out for this stage (the drag path).
     """
     b = stage_body(project, stage, body)
-    layout = tug_layout(project, stage, b)
+    if layout is None or tuple(p.tug for p in layout.placements) != tuple(
+        p.tug for p in stage.placements if p.hull in {m.hull.name for m in b.members}
+    ):
+        layout = tug_layout(project, stage, b)
     notices: tuple[Notice, ...] = ()
     if loads is None:
         cond = body_conditions(stage, b)
@@ -271,7 +277,14 @@ class _Scaled:
         return rows
 
     def widest_reach(self, target: np.ndarray) -> float:
-        """Largest s with s * target reachable at full pull (inf for a zero target)."""
+        """Largest s with s * target reachable at full pull (inf for a zero target).
+
+        Without lead sectors the reachable wrenches are a zonotope and s is where the ray
+        along ``target`` leaves it (its half-spaces, as in core.holdlimits); with sectors
+        it is a small LP.
+        """
+        if not self.shared:
+            return self._ray_exit(target)
         s = len(self.shared)
         a = np.vstack(
             [
@@ -287,6 +300,21 @@ class _Scaled:
         if r.status == "unbounded":
             return math.inf
         return float(r.x[-1]) if r.ok else 0.0
+
+    def _ray_exit(self, target: np.ndarray) -> float:
+        normals = zonotope_normals(self.gen)  # (P, 3), unit
+        support = np.maximum(normals @ self.gen, 0.0).sum(axis=1)  # (P,)
+        along = normals @ target  # (P,)
+        size = float(np.linalg.norm(target))
+        if size == 0.0:
+            return math.inf
+        # A half-space through the origin that the target points out of: no s > 0 works.
+        if np.any((support <= 1e-12) & (along > 1e-10 * size)):
+            return 0.0
+        out = along > 1e-12 * size
+        if not np.any(out):
+            return math.inf
+        return float(np.min(support[out] / along[out]))
 
     def least_total(self, target: np.ndarray, cap: float) -> np.ndarray | None:
         """Fractions g (k,) meeting target with every tug at most ``cap``, least total pull."""

@@ -30,7 +30,8 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from app.controller import Controller
+from app.controller import BodyResult, Controller
+from core.balance import TugLayout
 from core.errors import InputError, TowboardError
 from core.goals import GOAL_KINDS, Goal
 from core.plan import Project, Stage
@@ -50,10 +51,14 @@ OK = QColor("#1b5e20")
 
 
 def solved_stage(
-    project: Project, stage: Stage, goal: Goal, leads: bool = True
+    project: Project,
+    stage: Stage,
+    goal: Goal,
+    leads: bool = True,
+    layout: TugLayout | None = None,
 ) -> tuple[Stage, PullsResult]:
     """``stage`` with every tug's setting (and, with ``leads``, solved lead) for ``goal``."""
-    result = solve_pulls(pulls_problem(project, stage, goal=goal))
+    result = solve_pulls(pulls_problem(project, stage, goal=goal, layout=layout))
     if leads:
         return result.applied_to(stage), result
     out = stage
@@ -209,8 +214,13 @@ class SolvePanel(QWidget):
                 + shortfall_words(result.shortfall, c.project.units)
             )
 
-    def live_filter(self, project: Project) -> Project:
-        """The project with the stage shown solved for the panel's goal (live mode)."""
+    def live_filter(
+        self, project: Project, results: dict[str, BodyResult] | None = None
+    ) -> Project:
+        """The project with the stage shown solved for the panel's goal (live mode).
+
+        ``results`` (the drag's fast path) lend the main body's layout, so it is not
+        worked out again."""
         c = self.controller
         if not project.stages:
             return project
@@ -218,8 +228,13 @@ class SolvePanel(QWidget):
         stage = project.stages[index]
         if not stage.placements:
             return project
+        layout = None
+        if results:
+            r = results.get(c.main_body() or "")
+            if r is not None:
+                layout = r.layout
         try:
-            new_stage, _ = solved_stage(project, stage, self.goal(), leads=False)
+            new_stage, _ = solved_stage(project, stage, self.goal(), leads=False, layout=layout)
         except TowboardError:
             return project
         return project if new_stage is stage else project.with_stage(new_stage, index)

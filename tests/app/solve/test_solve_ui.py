@@ -185,6 +185,11 @@ def test_live_solving_follows_a_drag(holding, qtbot) -> None:  # type: ignore[no
         ref = solve_pulls(pulls_problem(c.project, stage, goal=Goal("hold")))
         for p, s in zip(ref.problem.placements, ref.utilisation, strict=True):
             assert stage.placement(p.tug).setting == pytest.approx(float(s), abs=1e-9)
+        # The board's balance (patched on the drag's fast path) is the core's for this value.
+        b, core_b = c.balance(), analyse_stage(c.project, stage, "Barge")
+        assert b.net_force == pytest.approx(core_b.net_force, rel=1e-9, abs=1e-6)
+        assert b.moment_centroid_nm == pytest.approx(core_b.moment_centroid_nm, rel=1e-9, abs=1e-4)
+        assert [sh.pull_n for sh in b.shares] == pytest.approx([sh.pull_n for sh in core_b.shares])
     qtbot.mouseRelease(
         view.viewport(), Qt.MouseButton.LeftButton, pos=start + QPointF(-56, -35).toPoint()
     )
