@@ -218,3 +218,16 @@ def test_worst_lost_names_the_tug() -> None:
     lim = hold_limits(hold_limits_problem(project, stage))
     assert lim.worst_lost_tug[90] in ("T0", "T1")
     assert lim.worst_lost_ms[90] == pytest.approx(0.0, abs=1e-9)  # one tug alone turns the body
+
+
+def test_live_sweep_is_the_full_sweep_on_fewer_directions() -> None:
+    from core.holdlimits import live_hold_limits
+
+    cond = Conditions(wind_speed_ms=10.0, current_speed_ms=0.4, current_towards_deg=30.0)
+    project, stage = _plan([90.0, 270.0, 45.0, 180.0], [30.0, 40.0, 25.0, 20.0], conditions=cond)
+    p = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 5.0))
+    full = hold_limits(p)
+    lim, dirs, worst = live_hold_limits(p, lost_step=2)
+    assert lim.all_tugs_ms == pytest.approx(full.all_tugs_ms, rel=1e-12)
+    assert list(dirs) == list(p.directions_deg[::2])
+    assert worst == pytest.approx(full.worst_lost_ms[::2], rel=1e-12)
