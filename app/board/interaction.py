@@ -278,6 +278,10 @@ class Interaction:
         rated[i], usable[i], swl[i] = one.rated_n[0], one.usable_n[0], one.swl_n[0]
         placements = list(lay.placements)
         placements[i] = placement
+        angle = lay.line_angle_rad
+        if angle is not None and one.line_angle_rad is not None:
+            angle = angle.copy()  # the line's length changes its angle (steep line warning)
+            angle[i] = one.line_angle_rad[0]
         layout = replace(
             lay,
             placements=tuple(placements),
@@ -287,6 +291,7 @@ class Interaction:
             rated_n=rated,
             usable_n=usable,
             swl_n=swl,
+            line_angle_rad=angle,
         )
         balance = analyse_layout(stage, r.body, layout, project.units, r.loads)
         results = dict(c.results())
