@@ -156,7 +156,17 @@ def zonotope_normals(gens: np.ndarray) -> np.ndarray:
     three dimensions, also the directions out of their span and the crosses with them.
     """
     norms = np.linalg.norm(gens, axis=0)
-    g = gens[:, norms > 1e-12 * max(float(norms.max(initial=0.0)), 1e-300)].T  # (q, 3)
+    big = max(float(norms.max(initial=0.0)), 1e-300)
+    g = gens[:, norms > 1e-12 * big].T  # (q, 3)
+    if len(g) >= 3:  # the usual case first: the pairs' normals, if the set is solid
+        i, j = np.triu_indices(len(g), 1)
+        cr = np.cross(g[i], g[j])
+        size = np.linalg.norm(cr, axis=1)
+        keep = size > 1e-9 * norms[norms > 1e-12 * big][i] * norms[norms > 1e-12 * big][j]
+        if keep.any():
+            normals = cr[keep] / size[keep, None]
+            if float(np.abs(normals @ g.T).max()) > 1e-9 * big:
+                return np.vstack([normals, -normals])
     if len(g):
         u, sv, _ = np.linalg.svd(g.T)
         rank = int((sv > 1e-9 * sv[0]).sum())

@@ -303,18 +303,60 @@ class _Scaled:
 
     def _ray_exit(self, target: np.ndarray) -> float:
         normals = zonotope_normals(self.gen)  # (P, 3), unit
-        support = np.maximum(normals @ self.gen, 0.0).sum(axis=1)  # (P,)
+        proj = normals @ self.gen  # (P, k)
+        support = np.maximum(proj, 0.0).sum(axis=1)  # (P,)
         along = normals @ target  # (P,)
+        self._exit_facet = None
         size = float(np.linalg.norm(target))
         if size == 0.0:
             return math.inf
         # A half-space through the origin that the target points out of: no s > 0 works.
         if np.any((support <= 1e-12) & (along > 1e-10 * size)):
             return 0.0
-        out = along > 1e-12 * size
-        if not np.any(out):
+        out = np.flatnonzero(along > 1e-12 * size)
+        if not len(out):
             return math.inf
-        return float(np.min(support[out] / along[out]))
+        ratios = support[out] / along[out]
+        j = int(out[int(np.argmin(ratios))])
+        self._exit_facet = proj[j]  # (k,) each column's reach across the exit face
+        return float(ratios.min())
+
+    def on_exit_face(self, target: np.ndarray, t: float) -> np.ndarray | None:
+        """The one allocation with every tug at most ``t`` that meets ``target``, when the
+        target lies on the face of t x (reachable set) through which its ray left it.
+
+        On that face every column pointing out of it is at ``t``, every one pointing in
+        is at zero, and the columns along it make up the rest: with exactly two of those
+        the allocation is unique; with more (pushes on one flat side lie in one plane)
+        a small LP over them alone gives the least total pull. None when the face cannot
+        be used (the full LP decides then).
+        """
+        proj = getattr(self, "_exit_facet", None)
+        if proj is None or t <= 0:
+            return None
+        scale = float(np.abs(proj).max(initial=0.0)) or 1.0
+        along = np.abs(proj) <= 1e-9 * scale
+        if int(along.sum()) < 2:
+            return None
+        g = np.where(proj > 0, t, 0.0)
+        g[along] = 0.0
+        rest = target - self.gen @ g
+        cols = self.gen[:, along]  # (3, a)
+        if cols.shape[1] == 2:
+            part, *_ = np.linalg.lstsq(cols, rest, rcond=None)
+            if np.any(part < -1e-9 * t) or np.any(part > t * (1 + 1e-9)):
+                return None
+        else:  # several along the face (pushes on one flat side): least total among them
+            cap = t * (1 + 1e-9) + 1e-12
+            r = solve_lp(self.cost[along], cols, rest, np.full(cols.shape[1], cap))
+            if not r.ok:
+                return None
+            part = r.x
+        g[along] = np.clip(part, 0.0, t)
+        miss = np.abs(self.gen @ g - target).max()
+        if miss > 1e-9 * max(float(np.abs(target).max()), 1e-12):
+            return None
+        return g
 
     def least_total(self, target: np.ndarray, cap: float) -> np.ndarray | None:
         """Fractions g (k,) meeting target with every tug at most ``cap``, least total pull."""
@@ -368,6 +410,10 @@ def _spread(sc: _Scaled, target: np.ndarray) -> np.ndarray | None:
     if reach < 1.0 - 1e-9:
         return None
     t = 0.0 if math.isinf(reach) else min(1.0, 1.0 / reach)
+    if not sc.shared and reach >= 1.0:
+        g = sc.on_exit_face(target, t)
+        if g is not None:
+            return g
     g = sc.least_total(target, t * (1 + 1e-9) + 1e-12)
     if g is None:  # a hair of numerical slack was not enough: allow the full pull
         g = sc.least_total(target, 1.0)
