@@ -30,6 +30,7 @@ from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
 from app.board import style
 from app.board.drawing import BodyDrawing
+from app.board.items import Label
 from app.board.interaction import Interaction
 from app.board.poses import pose_in, site_angle_deg, to_site
 from app.controller import BodyResult, Controller
@@ -60,6 +61,16 @@ class BoardScene(QGraphicsScene):
         self._fixed_results: dict[str, BodyResult] | None = None
         self._units = controller.project.units
         self.setBackgroundBrush(style.WATER)
+        self._hint = Label(
+            "No hull yet: choose Draw outline and click its vertices,\n"
+            "or Outline from dimensions to make one from length and beam.",
+            None,
+            style.TEXT,
+            style.label_font(11),
+            (0, 0),
+            "centre",
+        )
+        self.addItem(self._hint)
         controller.changed.connect(self.refresh)
         self.refresh()
 
@@ -128,6 +139,7 @@ class BoardScene(QGraphicsScene):
         for name in list(self.bodies):
             if name not in names:
                 self.bodies.pop(name).remove()
+        self._hint.setVisible(not names and self.fixed_stage is None)
         force_scale, moment_scale, head = self.scales()
         if project.units != self._units:  # every label is written again in the new units
             self._units = project.units
