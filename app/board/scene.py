@@ -30,8 +30,8 @@ from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
 from app.board import style
 from app.board.drawing import BodyDrawing
-from app.board.items import Label
 from app.board.interaction import Interaction
+from app.board.items import Label
 from app.board.poses import pose_in, site_angle_deg, to_site
 from app.controller import BodyResult, Controller
 from core.balance import TugShare
