@@ -10,6 +10,7 @@ are the core's (core.holdlimits); the widget only draws them.
 from __future__ import annotations
 
 import math
+import time
 
 import numpy as np
 from PySide6.QtCore import QPointF, QRectF, QSize, Qt, QTimer
@@ -49,6 +50,9 @@ HELD_FILL = QColor(30, 99, 184, 28)
 
 #: Ring spacings offered, in the display speed unit.
 STEPS = (1.0, 2.0, 5.0, 10.0, 15.0, 20.0, 25.0, 50.0, 100.0)
+#: While a drag is in progress the worst-tug-lost curve is swept again at most this
+#: often, seconds (the all-tugs curve follows every mouse move).
+LOST_EVERY_S = 0.05
 #: The plot's outer ring never goes beyond this many m/s (about 78 kn): a harbour
 #: move is never planned in more wind, and higher limits would squeeze the rest.
 TOP_CAP_MS = 40.0
@@ -329,8 +333,9 @@ class HoldPlot(QWidget):
 class HoldLimitsPanel(QWidget):
     """The plot with a line of figures under it, kept up to date with the controller.
 
-    While a drag is in progress the sweep runs every 5 degrees so the plot follows the
-    mouse; once the edit settles it runs every degree.
+    While a drag is in progress the all-tugs sweep runs every 5 degrees on every mouse
+    move, and the worst-tug-lost sweep every 10 degrees up to 20 times a second, so the
+    plot follows the mouse; once the edit settles both run every degree.
     """
 
     def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
@@ -350,6 +355,8 @@ class HoldLimitsPanel(QWidget):
         layout.addWidget(self.caption)
         self.setToolTip(EXPLAIN)
         self.limits: HoldLimits | None = None
+        self._lost_at: float | None = None
+        self._lost_curve: tuple[np.ndarray, np.ndarray] | None = None
         self._timer = QTimer(self)
         self._timer.setSingleShot(True)
         self._timer.setInterval(0)
@@ -383,11 +390,17 @@ class HoldLimitsPanel(QWidget):
                 c.project, stage, body, directions_deg=dirs, layout=r.layout if r else None
             )
             if coarse:
-                # While dragging: all tugs every 5 degrees, each tug lost every 10 degrees.
-                lim, lost_dirs, worst = live_hold_limits(problem, lost_step=2)
-                if len(problem.tugs):
-                    lost_curve = (lost_dirs, worst)
+                # While dragging: all tugs every 5 degrees on every move; each tug lost
+                # every 10 degrees, at most LOST_EVERY_S apart (the costlier sweep).
+                now = time.perf_counter()
+                fresh = self._lost_at is None or now - self._lost_at >= LOST_EVERY_S
+                lim, lost_dirs, worst = live_hold_limits(problem, lost_step=2 if fresh else 0)
+                if fresh:
+                    self._lost_at = now
+                    self._lost_curve = (lost_dirs, worst) if len(problem.tugs) else None
+                lost_curve = self._lost_curve
             else:
+                self._lost_at = None
                 lim = hold_limits(problem)
         except TowboardError as e:
             self.plot.set_data(None, stage, units, f"No hold limits: {e}")

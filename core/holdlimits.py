@@ -237,7 +237,7 @@ def live_hold_limits(
     problem: HoldLimitsProblem, lost_step: int = 2
 ) -> tuple[HoldLimits, np.ndarray, np.ndarray]:
     """For a plot that follows the mouse: all tugs on every direction of ``problem``, the
-    worst tug lost on every ``lost_step``-th, from one set of half-spaces.
+    worst tug lost on every ``lost_step``-th (0: not at all), from one set of half-spaces.
 
     Returns (limits without lost rows, lost directions (D',), worst lost m/s (D',)).
     """
@@ -253,7 +253,9 @@ def live_hold_limits(
     limits = HoldLimits(
         problem, np.sqrt(s_all), np.zeros((0, rays.shape[1])), holds, np.sqrt(s_min)
     )
-    k = max(1, int(lost_step))
+    if lost_step <= 0:  # the all-tugs curve alone
+        return limits, problem.directions_deg[:0], np.zeros(0)
+    k = int(lost_step)
     sub = _Rays(terms.den[:, ::k], terms.inv_den[:, ::k], terms.blocked[:, ::k], terms.tol[::k])
     lost = np.zeros((gens.shape[1], sub.den.shape[1]))
     if len(lost):

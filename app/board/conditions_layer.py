@@ -15,7 +15,7 @@ from __future__ import annotations
 import math
 
 from PySide6.QtCore import QPointF, QRectF, Qt
-from PySide6.QtGui import QColor, QPainter, QPen, QPolygonF
+from PySide6.QtGui import QColor, QPainter, QPen, QPixmap, QPolygonF
 
 from app.board import style
 from app.board.view import BoardView
@@ -113,6 +113,9 @@ class ConditionsCard:
         view.foreground_hooks.append(self.paint)
         view.board.controller.changed.connect(self._changed)
         self._key: object = None
+        self._pixmap: QPixmap | None = None
+        self._pixmap_key: object = None
+        self._card = QRectF()
 
     def _changed(self) -> None:
         stage = self.view.board.stage()
@@ -129,4 +132,19 @@ class ConditionsCard:
         if stage is None:
             return
         units = self.view.board.controller.project.units
-        self.rect = draw_conditions_card(p, QPointF(width - 10, 84), stage.conditions, units)
+        # Drawn once per value into a pixmap: the board repaints on every move of a drag.
+        ratio = self.view.devicePixelRatioF()
+        key = (stage.conditions, units, ratio)
+        if key != self._pixmap_key or self._pixmap is None:
+            pm = QPixmap(round((CARD_WIDTH + 2) * ratio), round(140 * ratio))
+            pm.setDevicePixelRatio(ratio)
+            pm.fill(Qt.GlobalColor.transparent)
+            q = QPainter(pm)
+            self._card = draw_conditions_card(
+                q, QPointF(CARD_WIDTH + 1, 0), stage.conditions, units
+            )
+            q.end()
+            self._pixmap, self._pixmap_key = pm, key
+        x, y = width - 10 - CARD_WIDTH - 1, 84
+        p.drawPixmap(int(x), y, self._pixmap)
+        self.rect = self._card.translated(x, y)
