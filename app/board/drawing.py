@@ -10,6 +10,7 @@ from __future__ import annotations
 import math
 from collections.abc import Callable
 
+import shapely
 from PySide6.QtCore import QLineF, QPointF, Qt
 from PySide6.QtGui import QColor, QPainterPath, QPolygonF, QTransform
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
@@ -142,7 +143,7 @@ class HullDrawing:
         self.port.setPos(g.x_min + 0.5 * g.length, y_port + gap)
         self.stbd.setPos(g.x_min + 0.5 * g.length, y_stbd - gap)
         self._aim_side_labels()
-        self.name.setPos(g.x_min + 0.27 * g.length, 0.45 * y_port)
+        self.name.setPos(g.x_min + 0.75 * g.length, 0.45 * y_port)
 
     def _sync_handles(self, hull: Hull) -> None:
         n = len(hull.outline)
@@ -197,12 +198,29 @@ class HullDrawing:
             q = hull.geometry.nearest(f.x, f.y)
             mark.angle_deg = _screen_angle(self.frame, (-q.normal[1], q.normal[0]))
 
+    def hide_inner_sides(self, body: Body, member: Member) -> None:
+        """In a lashed group, a side that lies against another hull gets no side mark."""
+        if self.hull is None or len(body.members) < 2:
+            return
+        g = self.hull.geometry
+        ys = [y for _, y in self.hull.outline]
+        out = 0.02 * g.length + 1.0
+        mid = g.x_min + 0.5 * g.length
+        for y, items in (
+            (max(ys) + out, (self.port, self.port_side)),
+            (min(ys) - out, (self.stbd, self.stbd_side)),
+        ):
+            bx, by = member.to_body((mid, y))
+            inner = bool(shapely.contains_xy(body.polygon, bx, by))
+            for item in items:
+                item.setVisible(not inner)
+
     def _aim_side_labels(self) -> None:
         # PORT and STBD sit just outside their side, whichever way the body lies on screen
         a = math.radians(_screen_angle(self.frame, (0.0, 1.0)))
         ux, uy = math.cos(a), math.sin(a)  # port's direction on screen (y down)
-        self.port.set_offset((14 * ux, 12 * uy))
-        self.stbd.set_offset((-14 * ux, -12 * uy))
+        self.port.set_outward(ux, uy)
+        self.stbd.set_outward(-ux, -uy)
 
     def refresh_screen_angles(self) -> None:
         """Re-aim the push pads after the body turned (their bar follows the hull edge)."""
@@ -358,7 +376,7 @@ class BalanceDrawing:
             "", root, style.MOMENT, style.label_font(9, True), (-8, 0), "right"
         )
         self.cross_label = Label("", root, style.LINE_OF_ACTION, style.label_font(8.5), (10, 14))
-        self.state = Label("", root, style.TEXT, style.label_font(10, True), (0, 26), "centre")
+        self.state = Label("", root, style.TEXT, style.label_font(10, True), (0, 0), "centre")
         self.stale = Label("", root, style.INVALID, style.label_font(10, True), (0, -30), "centre")
         for lab in (self.net_label, self.moment_label, self.cross_label, self.state, self.stale):
             lab.setZValue(Z_LABEL)
@@ -408,17 +426,14 @@ class BalanceDrawing:
             r = radius * (0.7 + 0.5 * frac)
             self.moment.set_geometry((cx, cy), r, start, sweep, head * 1.2)
             self.moment.setVisible(True)
-            # the label sits just outside the arrow's head, on the side it points to
-            a_end = math.radians(start + sweep)
-            self.moment_label.setPos(cx + r * math.cos(a_end), cy + r * math.sin(a_end))
-            sa = math.radians(_screen_angle(self.root, (math.cos(a_end), math.sin(a_end))))
-            ux, uy = math.cos(sa), math.sin(sa)
-            self.moment_label.set_align("left" if ux >= 0 else "right")
-            self.moment_label.set_offset((16 * ux, 16 * uy))
+            # the label sits just outside the middle of the arc, astern of the centroid
+            self.moment_label.setPos(cx - r, cy)
             u = units.unit("moment")
             self.moment_label.set_text(
                 f"yaw {units.value(m, 'moment'):+,.0f} {label(u)}\n{turning_words(m)}"
             )
+            sa = math.radians(_screen_angle(self.root, (-1.0, 0.0)))
+            self.moment_label.set_outward(math.cos(sa), math.sin(sa), 6.0)
             self.moment_label.setVisible(True)
         else:
             self.moment.setVisible(False)
@@ -451,7 +466,8 @@ class BalanceDrawing:
             self.action.setVisible(False)
             self.crossing.setVisible(False)
             self.cross_label.setVisible(False)
-        self.state.setPos(cx, cy)
+        # ahead of the centroid to starboard, clear of the yaw arrow (drawn astern of it)
+        self.state.setPos(cx + 0.25 * body.length, cy - 0.22 * body.beam)
         if eq.kind == "couple":
             self.state.set_text("pure couple: no single equivalent force")
         elif eq.kind == "balanced":
@@ -552,6 +568,7 @@ class BodyDrawing:
                 self.hulls[m.hull.name].set_member(m)
             else:
                 self.hulls[m.hull.name] = HullDrawing(self.root, m)
+            self.hulls[m.hull.name].hide_inner_sides(body, m)
 
     def set_tugs(
         self,

@@ -68,6 +68,14 @@ class Label(QGraphicsItem):
     def text(self) -> str:
         return "\n".join(self._lines)
 
+    def set_outward(self, ux: float, uy: float, gap: float = 5.0) -> None:
+        """Centre the label just clear of its anchor in screen direction (ux, uy), y down."""
+        fm = QFontMetricsF(self._font)
+        w = 1.06 * max((fm.horizontalAdvance(s) for s in self._lines), default=0.0) + 6
+        h = fm.height() * max(len(self._lines), 1) + 4
+        self._align = "centre"
+        self.set_offset((ux * (w / 2 + gap), uy * (h / 2 + gap)))
+
     def set_align(self, align: str) -> None:
         if align != self._align:
             self._align = align
