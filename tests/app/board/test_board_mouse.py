@@ -311,3 +311,34 @@ def test_slide_a_line_point_along_the_hull(window, qtbot) -> None:  # type: igno
     qtbot.mouseRelease(
         view.viewport(), Qt.MouseButton.LeftButton, pos=view_point(view, *_site(pose, (30.0, 15.0)))
     )
+
+
+def test_drag_a_tug_on_a_lashed_group(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    from tests.conftest import SAMPLES
+
+    assert window.open_path(SAMPLES / "twin_barge_move.towboard", ask=False)
+    window.view.fit_to_hull()
+    c = window.controller
+    view = window.view
+    name = c.main_body()
+    assert len(body_of(c.project, name).members) == 2  # the sample's two lashed barges
+    pose = _pose(window, name)
+    share = c.balance().shares[0]
+    start = view_point(view, *_site(pose, share.position))
+    qtbot.mousePress(view.viewport(), Qt.MouseButton.LeftButton, pos=start)
+    assert window.board.selection == ("tug", share.tug)
+    s0 = view.mapToScene(start)
+    for k in range(1, 8):
+        px = start + QPointF(10 * k, 6 * k).toPoint()
+        move_with_button(view, px)
+        _panel_matches_core(window)
+        # the tug's end of the line moved with the cursor, in the site
+        now = next(s for s in c.balance().shares if s.tug == share.tug)
+        moved = _site(pose, now.position) - _site(pose, share.position)
+        m = view.mapToScene(px)
+        assert moved == pytest.approx(np.array([m.x() - s0.x(), m.y() - s0.y()]), abs=1e-6)
+    qtbot.mouseRelease(
+        view.viewport(), Qt.MouseButton.LeftButton, pos=start + QPointF(70, 42).toPoint()
+    )
+    assert c.balance().shares[0] != share
+    _panel_matches_core(window)
