@@ -168,6 +168,7 @@ class ConditionsPanel(QWidget):
         outer = QVBoxLayout(self)
         outer.setContentsMargins(0, 0, 0, 0)
         outer.addWidget(scroll)
+        self._key: object = None
         controller.changed.connect(self.refresh)
         self.refresh()
 
@@ -214,6 +215,18 @@ class ConditionsPanel(QWidget):
         return None if stage is None else stage.conditions
 
     def refresh(self) -> None:
+        p, stage = self.controller.project, self.controller.stage
+        key = (
+            None if stage is None else (stage.conditions, stage.poses),
+            p.hulls,
+            p.groups,
+            p.units,
+            bool(p.tugs),
+            self.controller.stage_index,
+        )
+        if key == self._key:
+            return  # a tug dragged or a setting changed: nothing here moves
+        self._key = key
         c = self.conditions()
         enabled = c is not None
         for e in self.edits.values():
