@@ -382,6 +382,7 @@ class BalanceDrawing:
             lab.setZValue(Z_LABEL)
             lab.setCacheMode(NO_CACHE)  # their text changes on every move of a drag
         self.loads: list[tuple[Arrow, Label]] = []
+        self._moment_label_key: tuple[float, str] | None = None
 
     def update(
         self,
@@ -433,7 +434,9 @@ class BalanceDrawing:
                 f"yaw {units.value(m, 'moment'):+,.0f} {label(u)}\n{turning_words(m)}"
             )
             sa = math.radians(_screen_angle(self.root, (-1.0, 0.0)))
-            self.moment_label.set_outward(math.cos(sa), math.sin(sa), 6.0)
+            if (sa, self.moment_label.text) != self._moment_label_key:
+                self._moment_label_key = (sa, self.moment_label.text)
+                self.moment_label.set_outward(math.cos(sa), math.sin(sa), 6.0)
             self.moment_label.setVisible(True)
         else:
             self.moment.setVisible(False)
