@@ -31,12 +31,12 @@ os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 os.environ.setdefault("TOWBOARD_RECOVERY_DIR", "/tmp/towboard-bench-recovery")
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 
-from drag import _send, synthetic_project  # noqa: E402
-from PySide6.QtCore import QEvent, QPointF, Qt  # noqa: E402
-from PySide6.QtWidgets import QApplication  # noqa: E402
+from drag import _send, synthetic_project
+from PySide6.QtCore import QEvent, QPointF, Qt
+from PySide6.QtWidgets import QApplication
 
-from core.conditions import Conditions  # noqa: E402
-from core.plan import Project  # noqa: E402
+from core.conditions import Conditions
+from core.plan import Project
 
 KNOT = 1852.0 / 3600.0
 
