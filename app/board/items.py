@@ -301,17 +301,24 @@ class Arrow(QGraphicsItem):
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
-        if self._head.isEmpty():
-            return
-        k = style.device_scale(painter)
-        painter.setPen(style.scaled_pen(self._pen, k))
-        painter.setBrush(Qt.BrushStyle.NoBrush)
-        painter.drawPath(self._shaft)
-        p = QPen(self._pen)
-        p.setWidthF(1.0 * k)
-        painter.setPen(p)
-        painter.setBrush(self._brush)
-        painter.drawPolygon(self._head)
+        paint_arrow(painter, self._pen, self._brush, self._shaft, self._head)
+
+
+def paint_arrow(
+    painter: QPainter, pen: QPen, brush: QBrush, shaft: QPainterPath, head: QPolygonF
+) -> None:
+    """Draw an arrow's shaft with its pen scaled to the device, and its filled head."""
+    if head.isEmpty():
+        return
+    k = style.device_scale(painter)
+    painter.setPen(style.scaled_pen(pen, k))
+    painter.setBrush(Qt.BrushStyle.NoBrush)
+    painter.drawPath(shaft)
+    outline = QPen(pen)
+    outline.setWidthF(1.0 * k)
+    painter.setPen(outline)
+    painter.setBrush(brush)
+    painter.drawPolygon(head)
 
 
 def arrow_parts(
@@ -487,17 +494,7 @@ class MomentArrow(QGraphicsItem):
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
-        if self._head.isEmpty():
-            return
-        k = style.device_scale(painter)
-        painter.setPen(style.scaled_pen(self._pen, k))
-        painter.setBrush(Qt.BrushStyle.NoBrush)
-        painter.drawPath(self._path)
-        p = QPen(self._pen)
-        p.setWidthF(1.0 * k)
-        painter.setPen(p)
-        painter.setBrush(self._brush)
-        painter.drawPolygon(self._head)
+        paint_arrow(painter, self._pen, self._brush, self._path, self._head)
 
 
 def polygon_path(
