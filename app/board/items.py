@@ -265,8 +265,8 @@ class FittingMark(QGraphicsItem):
             painter.drawRoundedRect(QRectF(-6, -2.5, 12, 5), 1.5, 1.5)
 
 
-class Arrow(QGraphicsItem):
-    """A straight arrow from ``start`` to ``end`` (parent frame, m), head sized in metres."""
+class _ArrowItem(QGraphicsItem):
+    """What the straight and the curved arrow share: pen, filled head, cached bounds."""
 
     def __init__(self, color: QColor, width: float, parent: QGraphicsItem | None = None) -> None:
         super().__init__(parent)
@@ -284,6 +284,18 @@ class Arrow(QGraphicsItem):
             self._brush = QBrush(color)
             self.update()
 
+    def boundingRect(self) -> QRectF:
+        return self._rect
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        paint_arrow(painter, self._pen, self._brush, self._shaft, self._head)
+
+
+class Arrow(_ArrowItem):
+    """A straight arrow from ``start`` to ``end`` (parent frame, m), head sized in metres."""
+
     def set_geometry(
         self, start: tuple[float, float], end: tuple[float, float], head: float
     ) -> None:
@@ -294,14 +306,6 @@ class Arrow(QGraphicsItem):
         self.prepareGeometryChange()
         self._shaft, self._head, self._rect = arrow_parts(start, end, head)
         self.update()
-
-    def boundingRect(self) -> QRectF:
-        return self._rect
-
-    def paint(
-        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
-    ) -> None:
-        paint_arrow(painter, self._pen, self._brush, self._shaft, self._head)
 
 
 def paint_arrow(
@@ -423,24 +427,8 @@ class TugItem(QGraphicsItem):
             painter.drawPolygon(self._head)
 
 
-class MomentArrow(QGraphicsItem):
+class MomentArrow(_ArrowItem):
     """A curved arrow round ``centre``: ``sweep_deg`` > 0 counter-clockwise (seen from above)."""
-
-    def __init__(self, color: QColor, width: float, parent: QGraphicsItem | None = None) -> None:
-        super().__init__(parent)
-        self._pen = style.pen(color, width)
-        self._brush = QBrush(color)
-        self._path = QPainterPath()
-        self._head = QPolygonF()
-        self._rect = QRectF()
-        self._key: tuple[float, ...] | None = None
-        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
-
-    def set_color(self, color: QColor) -> None:
-        if self._pen.color() != color:
-            self._pen.setColor(color)
-            self._brush = QBrush(color)
-            self.update()
 
     def set_geometry(
         self,
@@ -455,7 +443,7 @@ class MomentArrow(QGraphicsItem):
             return
         self._key = key
         self.prepareGeometryChange()
-        self._path = QPainterPath()
+        self._shaft = QPainterPath()
         self._head = QPolygonF()
         if abs(sweep_deg) < 1e-6 or radius <= 0:
             self._rect = QRectF()
@@ -472,9 +460,9 @@ class MomentArrow(QGraphicsItem):
             a = a0 + (a_shaft - a0) * i / n
             pt = (cx + radius * math.cos(a), cy + radius * math.sin(a))
             if i == 0:
-                self._path.moveTo(*pt)
+                self._shaft.moveTo(*pt)
             else:
-                self._path.lineTo(*pt)
+                self._shaft.lineTo(*pt)
         tip = (cx + radius * math.cos(a_end), cy + radius * math.sin(a_end))
         base_a = a_end - sign * head_angle
         w = 0.45 * head
@@ -484,17 +472,9 @@ class MomentArrow(QGraphicsItem):
             [QPointF(*tip), QPointF(bx + rx * w, by + ry * w), QPointF(bx - rx * w, by - ry * w)]
         )
         self._rect = (
-            self._path.boundingRect().united(self._head.boundingRect()).adjusted(-w, -w, w, w)
+            self._shaft.boundingRect().united(self._head.boundingRect()).adjusted(-w, -w, w, w)
         )
         self.update()
-
-    def boundingRect(self) -> QRectF:
-        return self._rect
-
-    def paint(
-        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
-    ) -> None:
-        paint_arrow(painter, self._pen, self._brush, self._path, self._head)
 
 
 def polygon_path(
