@@ -20,6 +20,7 @@ from core.balance import TugShare
 from core.bodies import body_name_of_hull
 from core.errors import TowboardError
 from core.tugs import Placement, Tug
+from core.units import fmt as plain
 
 Index = QModelIndex | QPersistentModelIndex
 
@@ -258,12 +259,12 @@ class TugsModel(QAbstractTableModel):
         if key == "pull":
             return fmt.number(u, s.pull_n, "force")
         if key == "moment":
-            return f"{u.value(s.moment_centroid_nm, 'moment'):+.0f}"
+            return plain(u.value(s.moment_centroid_nm, "moment"), 0, signed=True)
         if key == "share":
             total = row.net_moment
             if abs(total) <= 1e-9 * max(abs(s.moment_centroid_nm), 1.0) or abs(total) < 1e-6:
                 return "—"
-            return f"{100.0 * s.moment_centroid_nm / total:+.0f}"
+            return plain(100.0 * s.moment_centroid_nm / total, 0, signed=True)
         return ""
 
     def _edit_text(self, row: Row, key: str) -> str:
