@@ -16,7 +16,7 @@ from collections.abc import Sequence
 from pathlib import Path
 
 from core.errors import TowboardError
-from core.projectfile import load
+from core.io.projectfile import load
 
 SAMPLE = Path(__file__).resolve().parent.parent / "sample_projects" / "deck_barge_unberth.towboard"
 
@@ -27,7 +27,7 @@ class _Parser(argparse.ArgumentParser):
 
 
 def _report(args: argparse.Namespace) -> int:
-    from core.report import report_json, report_text
+    from core.io.report import report_json, report_text
 
     project = load(args.file)
     if args.json:
@@ -39,10 +39,10 @@ def _report(args: argparse.Namespace) -> int:
 
 def _open_window(file: str | None) -> int:
     try:
-        from app.main_window import run
+        from app.window.main_window import run
     except ImportError:  # the window is not built yet: show the report instead
         project = load(file or SAMPLE)
-        from core.report import report_text
+        from core.io.report import report_text
 
         print(report_text(project), end="")
         return 0
@@ -61,7 +61,7 @@ def main(argv: Sequence[str] | None = None) -> int:
             p.add_argument("--json", action="store_true", help="print JSON in SI units")
             return _report(p.parse_args(argv[1:]))
         if argv and argv[0] == "brief":
-            from app.briefing_cli import brief_command
+            from app.briefing.cli import brief_command
 
             return brief_command(argv[1:])
         p = _Parser(prog="towboard", description="Plan multi-tug moves.")

@@ -2,7 +2,7 @@
 
 Everything on screen reads :class:`Controller` and writes back through it:
 
-- ``controller.project`` is the current :class:`core.plan.Project` (a frozen value);
+- ``controller.project`` is the current :class:`core.model.plan.Project` (a frozen value);
   ``controller.stage_index`` / ``controller.stage`` the stage on the board (None when
   the project has no stage).
 - ``controller.apply(new_project, text, merge_key=None)`` records one undoable edit.
@@ -15,9 +15,9 @@ Everything on screen reads :class:`Controller` and writes back through it:
   ``stage_changed(int)`` when another stage is shown; ``dirty_changed(bool)`` and
   ``path_changed`` for the title bar.
 - ``controller.balances()`` is the balance of every body in the stage shown, computed
-  once per value by :func:`core.balance.analyse_layout`; other loads on a body (wind,
+  once per value by :func:`core.mechanics.balance.analyse_layout`; other loads on a body (wind,
   current) come from ``controller.load_providers``: callables
-  ``(project, stage, body) -> Sequence[core.balance.Load]`` that issue-4 code adds.
+  ``(project, stage, body) -> Sequence[core.mechanics.balance.Load]`` that issue-4 code adds.
 """
 
 from __future__ import annotations
@@ -29,9 +29,9 @@ from pathlib import Path
 from PySide6.QtCore import QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 
-from core.balance import Balance, Load, TugLayout, analyse_layout, tug_layout
-from core.bodies import Body, body_name_of_hull, body_of
-from core.plan import Project, Stage
+from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout, tug_layout
+from core.mechanics.bodies import Body, body_name_of_hull, body_of
+from core.model.plan import Project, Stage
 
 LoadProvider = Callable[[Project, Stage, Body], Sequence[Load]]
 

@@ -29,10 +29,10 @@ def median_ms(fn, runs: int) -> float:  # type: ignore[no-untyped-def]
 def main() -> None:
     from PySide6.QtGui import QGuiApplication
 
-    from app.briefing import write_pdf
-    from core.checks import check_plan, check_stage
-    from core.clearance import stage_clearances
-    from core.projectfile import load
+    from app.briefing.document import write_pdf
+    from core.analysis.checks import check_plan, check_stage
+    from core.io.projectfile import load
+    from core.mechanics.clearance import stage_clearances
 
     app = QGuiApplication.instance() or QGuiApplication([])
     project = load(ROOT / "sample_projects" / "twin_barge_move.towboard")

@@ -28,10 +28,10 @@ from PySide6.QtCore import QEvent, QPointF, Qt
 from PySide6.QtGui import QMouseEvent
 from PySide6.QtWidgets import QApplication
 
-from core.hull import Fitting, Hull
-from core.outlines import raked_outline
-from core.plan import BodyPose, Project, Stage
-from core.tugs import Placement, Tug
+from core.model.hull import Fitting, Hull
+from core.model.outlines import raked_outline
+from core.model.plan import BodyPose, Project, Stage
+from core.model.tugs import Placement, Tug
 
 TF = 9806.65
 
@@ -92,7 +92,7 @@ def run(n_tugs: int, moves: int, window: bool) -> tuple[float, float, float]:
     project = synthetic_project(n_tugs)
     if window:
         os.environ.setdefault("TOWBOARD_RECOVERY_DIR", "/tmp/towboard-bench-recovery")
-        from app.main_window import MainWindow
+        from app.window.main_window import MainWindow
 
         w = MainWindow(project)
         w.resize(1400, 900)

@@ -35,8 +35,8 @@ from drag import _send, synthetic_project
 from PySide6.QtCore import QEvent, QPointF, Qt
 from PySide6.QtWidgets import QApplication
 
-from core.conditions import Conditions
-from core.plan import Project
+from core.model.conditions import Conditions
+from core.model.plan import Project
 
 KNOT = 1852.0 / 3600.0
 
@@ -63,7 +63,7 @@ def _percentile(values: list[float], q: float) -> float:
 
 def run(n_tugs: int, moves: int) -> dict[str, float]:
     app = QApplication.instance() or QApplication([])
-    from app.main_window import MainWindow
+    from app.window.main_window import MainWindow
 
     w = MainWindow(live_project(n_tugs))
     w.resize(1400, 900)
@@ -81,7 +81,13 @@ def run(n_tugs: int, moves: int) -> dict[str, float]:
     i = next(k for k in range(len(r.layout.placements)) if not r.layout.is_push[k])
     tug = r.layout.placements[i].tug
     start = view.mapFromScene(QPointF(*r.layout.positions[i]))
-    _send(vp, QEvent.Type.MouseButtonPress, QPointF(start), Qt.MouseButton.LeftButton, Qt.MouseButton.LeftButton)
+    _send(
+        vp,
+        QEvent.Type.MouseButtonPress,
+        QPointF(start),
+        Qt.MouseButton.LeftButton,
+        Qt.MouseButton.LeftButton,
+    )
     assert scene.selected_tug() == tug, "the press did not land on the tug"
     frame, whole = [], []
     settings_changed = 0
@@ -101,7 +107,9 @@ def run(n_tugs: int, moves: int) -> dict[str, float]:
         settings = tuple(p.setting for p in controller.stage.placements)
         settings_changed += settings != last
         last = settings
-    _send(vp, QEvent.Type.MouseButtonRelease, pt, Qt.MouseButton.LeftButton, Qt.MouseButton.NoButton)
+    _send(
+        vp, QEvent.Type.MouseButtonRelease, pt, Qt.MouseButton.LeftButton, Qt.MouseButton.NoButton
+    )
     assert controller.undo_stack.count() >= 1
     assert ui.hold.limits is not None, "the hold limits plot had nothing to show"
     controller.undo_stack.setClean()

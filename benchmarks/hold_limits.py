@@ -24,7 +24,7 @@ sys.path.insert(0, str(Path(__file__).resolve().parent))
 
 from tug_fleet import fleet_project
 
-from core.holdlimits import hold_limits, hold_limits_problem
+from core.solve.holdlimits import hold_limits, hold_limits_problem
 
 KNOT = 1852.0 / 3600.0
 

@@ -22,7 +22,7 @@ sys.path.insert(0, str(Path(__file__).resolve().parent))
 
 from tug_fleet import fleet_project
 
-from core.solve import pulls_problem, solve_pulls, tug_lost_check
+from core.solve.pulls import pulls_problem, solve_pulls, tug_lost_check
 
 
 def _median_ms(fn, repeat: int) -> float:

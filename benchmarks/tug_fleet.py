@@ -9,11 +9,11 @@ from __future__ import annotations
 
 import math
 
-from core.conditions import Conditions
-from core.hull import Fitting, Hull
-from core.outlines import box_outline
-from core.plan import BodyPose, Project, Stage
-from core.tugs import Placement, Tug
+from core.model.conditions import Conditions
+from core.model.hull import Fitting, Hull
+from core.model.outlines import box_outline
+from core.model.plan import BodyPose, Project, Stage
+from core.model.tugs import Placement, Tug
 
 TF = 9806.65
 KNOT = 1852.0 / 3600.0

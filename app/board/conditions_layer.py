@@ -3,7 +3,7 @@
 The card shows the wind as an arrow blowing from the true bearing it comes from and
 the current as an arrow setting towards its true bearing, north up like the board,
 each labelled with its speed in the display unit and its bearing. The loads they put
-on the body are the core's (core.conditions) and are drawn on the body by the body's
+on the body are the core's (core.mechanics.loads) and are drawn on the body by the body's
 drawing, like the tug forces; this card only says what the conditions are.
 
 :func:`draw_conditions_card` paints into any QPainter (device pixels);
@@ -17,9 +17,9 @@ import math
 from PySide6.QtCore import QPointF, QRectF, Qt
 from PySide6.QtGui import QColor, QPainter, QPen, QPixmap, QPolygonF
 
-from app.board import style
 from app.board.view import BoardView
-from core.conditions import Conditions
+from app.paint import style
+from core.model.conditions import Conditions
 from core.units import DisplayUnits
 
 WIND = QColor("#455a64")

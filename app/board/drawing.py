@@ -15,7 +15,6 @@ from PySide6.QtCore import QLineF, QPointF, Qt
 from PySide6.QtGui import QColor, QPainterPath, QPolygonF, QTransform
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
-from app.board import style
 from app.board.items import (
     CACHE,
     NO_CACHE,
@@ -32,11 +31,12 @@ from app.board.items import (
     polygon_path,
     tug_polygon,
 )
-from core.balance import Balance, TugShare
-from core.bodies import Body, Member
+from app.paint import style
 from core.frames import turning_words
-from core.hull import Hull
-from core.plan import BodyPose
+from core.mechanics.balance import Balance, TugShare
+from core.mechanics.bodies import Body, Member
+from core.model.hull import Hull
+from core.model.plan import BodyPose
 from core.units import DisplayUnits, label
 
 Z_HULL, Z_LINE, Z_TUG, Z_FORCE, Z_BALANCE, Z_FITTING, Z_LABEL, Z_HANDLE = 0, 2, 3, 5, 6, 7, 10, 11

@@ -22,18 +22,18 @@ from PySide6.QtCore import QPointF, Qt
 from PySide6.QtGui import QPainterPath, QTransform
 from PySide6.QtWidgets import QGraphicsPathItem
 
-from app.board import style
 from app.board.items import ROLE
 from app.board.poses import pose_in
 from app.controller import BodyResult
 from app.edits import hulls as hull_edits
 from app.edits import tugs as tug_edits
-from core.balance import analyse_layout, tug_layout
+from app.paint import style
 from core.errors import OutlineError, TowboardError
-from core.hull import Hull
-from core.outlines import validate_outline
-from core.plan import BodyPose
-from core.tugs import Placement
+from core.mechanics.balance import analyse_layout, tug_layout
+from core.model.hull import Hull
+from core.model.outlines import validate_outline
+from core.model.plan import BodyPose
+from core.model.tugs import Placement
 
 if TYPE_CHECKING:
     from app.board.scene import BoardScene

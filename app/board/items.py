@@ -29,7 +29,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from app.board import style
+from app.paint import style
 
 #: Key of the item data slot that says what an item stands for, e.g. ("tug", "Gannet").
 ROLE = 0

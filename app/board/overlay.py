@@ -12,7 +12,7 @@ import math
 from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import QColor, QPainter, QPen, QPolygonF
 
-from app.board import style
+from app.paint import style
 from core.units import DisplayUnits, from_si, label
 
 

@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 
 from core.frames import true_to_site_angle
-from core.plan import BodyPose, Stage
+from core.model.plan import BodyPose, Stage
 
 #: A body with no pose in the stage lies at the site origin with its bow to the east.
 DEFAULT_HEADING_DEG = 90.0

@@ -19,7 +19,7 @@ from PySide6.QtWidgets import QGraphicsItem
 
 from app.board.overlay import draw_north_arrow, draw_scale_bar
 from app.board.scene import BoardScene
-from app.board.style import device_scale
+from app.paint.style import device_scale
 
 NO_CACHE = QGraphicsItem.CacheMode.NoCache
 

@@ -16,7 +16,7 @@ Hooks for other parts of the program:
 - ``refresh_hooks``: callables ``(scene) -> None`` run after every refresh, for
   extra items (wind and current arrows, clearances); ``body_root(name)`` is the item
   to parent body-frame drawings to.
-- Non-tug loads in the balance (core.balance.Load) are drawn as arrows with their name.
+- Non-tug loads in the balance (core.mechanics.balance.Load) are drawn as arrows with their name.
 """
 
 from __future__ import annotations
@@ -28,15 +28,15 @@ from PySide6.QtCore import QPointF, QRectF, Signal
 from PySide6.QtGui import QPainter
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
-from app.board import style
 from app.board.drawing import BodyDrawing
 from app.board.interaction import Interaction
 from app.board.items import Label
 from app.board.poses import pose_in, site_angle_deg, to_site
 from app.controller import BodyResult, Controller
-from core.balance import TugShare
-from core.bodies import body_of
-from core.plan import Stage
+from app.paint import style
+from core.mechanics.balance import TugShare
+from core.mechanics.bodies import body_of
+from core.model.plan import Stage
 
 Selection = tuple[object, ...] | None
 

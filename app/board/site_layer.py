@@ -3,7 +3,7 @@ clearances of the stage shown, drawn where they occur.
 
 ``SiteLayer(scene)`` adds itself to the scene's refresh hooks. Features are drawn in
 the site frame (x east, y north, m) under the bodies; the clearances are the core's
-(core.clearance) for the bodies as the board places them, and are worked out again
+(core.mechanics.clearance) for the bodies as the board places them, and are worked out again
 only when the poses, the hulls or the site change (not while a tug is dragged).
 """
 
@@ -13,14 +13,14 @@ from PySide6.QtCore import QPointF, Qt
 from PySide6.QtGui import QColor, QPainterPath, QPolygonF
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsLineItem, QGraphicsPathItem
 
-from app.board import style
 from app.board.items import Label
 from app.board.poses import pose_in
 from app.board.scene import BoardScene
-from core.bodies import body_of
-from core.clearance import Clearance, notable_clearances, stage_clearances
-from core.plan import SiteFeature
-from core.site import place_body
+from app.paint import style
+from core.mechanics.bodies import body_of
+from core.mechanics.clearance import Clearance, notable_clearances, stage_clearances
+from core.mechanics.site import place_body
+from core.model.plan import SiteFeature
 
 Z_SITE = -5.0
 Z_CLEARANCE = 1.0  # above the hulls' fill, under the tugs

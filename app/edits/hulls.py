@@ -9,11 +9,11 @@ from __future__ import annotations
 import math
 from dataclasses import replace
 
-from core.bodies import Member
 from core.errors import InputError
-from core.hull import Fitting, FittingKind, Hull
-from core.outlines import Outline
-from core.plan import BodyPose, Project, Stage
+from core.mechanics.bodies import Member
+from core.model.hull import Fitting, FittingKind, Hull
+from core.model.outlines import Outline
+from core.model.plan import BodyPose, Project, Stage
 
 Point = tuple[float, float]
 

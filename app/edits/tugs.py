@@ -1,6 +1,6 @@
 """Edits of tugs and their placements: drag a tug, change its setting, add or remove one.
 
-Leads follow the core's convention (core.tugs.Placement): a line's lead is the
+Leads follow the core's convention (core.model.tugs.Placement): a line's lead is the
 hull-frame angle of the towline from the line point towards the tug; a push's lead
 is the angle of the push off the inward normal, kept within +-85 degrees because a
 tug cannot push outwards.
@@ -11,11 +11,11 @@ from __future__ import annotations
 import math
 from dataclasses import replace
 
-from core.bodies import Body
 from core.errors import InputError
 from core.frames import bearing_to_angle, wrap_pi
-from core.plan import Project, Stage
-from core.tugs import Placement, Tug
+from core.mechanics.bodies import Body
+from core.model.plan import Project, Stage
+from core.model.tugs import Placement, Tug
 
 Point = tuple[float, float]
 

@@ -1,6 +1,6 @@
 """The balance panel: the core's numbers for the body shown, in the display units.
 
-Every figure comes from :class:`core.balance.Balance` as computed for the board; the
+Every figure comes from :class:`core.mechanics.balance.Balance` as computed for the board; the
 panel only formats it. The frame and the sign convention are stated on the panel.
 """
 
@@ -13,9 +13,9 @@ from PySide6.QtWidgets import QFormLayout, QFrame, QLabel, QScrollArea, QVBoxLay
 
 from app import formatting as fmt
 from app.controller import Controller
-from core.balance import Balance
 from core.frames import turning_words, walking_words
-from core.report import crossing_words
+from core.io.report import crossing_words
+from core.mechanics.balance import Balance
 
 FRAME_TEXT = (
     "Hull frame: x forward (ahead), y to port, origin at the hull's reference point. "

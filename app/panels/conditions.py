@@ -5,7 +5,7 @@ in its square; directions are true bearings (wind from, current towards). Option
 fields left blank take the core's value (areas from the outline and freeboard or
 draught, Hoerner's coefficient, the centre of each projection), shown greyed in the
 field. Below the form the panel shows what the body feels: the relative directions
-and each load with its yaw moment about the centroid, from core.conditions.
+and each load with its yaw moment about the centroid, from core.mechanics.loads.
 """
 
 from __future__ import annotations
@@ -32,12 +32,13 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
-from core.conditions import Conditions, hoerner_cross_flow, projection
 from core.errors import InputError, TowboardError
 from core.frames import turning_words
-from core.loads import body_conditions, loads_wrench, stage_body
+from core.mechanics.bodies import stage_body
+from core.mechanics.loads import body_conditions, hoerner_cross_flow, loads_wrench, projection
+from core.model.conditions import Conditions
+from core.model.efficiency import EfficiencyTable
 from core.units import DisplayUnits, label
-from core.usable import EfficiencyTable
 
 
 @dataclass(frozen=True, slots=True)

@@ -25,7 +25,7 @@ from app import formatting as fmt
 from app.controller import Controller
 from app.edits import hulls as hull_edits
 from core.errors import TowboardError
-from core.hull import Hull
+from core.model.hull import Hull
 
 
 class HullPanel(QWidget):

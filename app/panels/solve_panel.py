@@ -3,7 +3,7 @@
 "Solve pulls" fills in every tug's setting (and, for a tug with a lead sector, its lead)
 for the goal as one undo step, and keeps the goal with the stage. With "solve live"
 on, the settings follow the solver on every edit and every mouse move of a drag (the
-leads stay where the mouse puts them). The figures are core.solve's; the panel says
+leads stay where the mouse puts them). The figures are core.solve.pulls.pulls's; the panel says
 them in the display units.
 """
 
@@ -31,14 +31,14 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import BodyResult, Controller
-from core.balance import TugLayout
 from core.errors import InputError, TowboardError
-from core.goals import GOAL_KINDS, Goal
-from core.plan import Project, Stage
-from core.solve import PullsResult, TugLostCheck, pulls_problem, shortfall_words, solve_pulls
-from core.solve import tug_lost_check as run_tug_lost_check
+from core.mechanics.balance import TugLayout
+from core.mechanics.usable import fitting_suits
+from core.model.goals import GOAL_KINDS, Goal
+from core.model.plan import Project, Stage
+from core.solve.pulls import PullsResult, TugLostCheck, pulls_problem, shortfall_words, solve_pulls
+from core.solve.pulls import tug_lost_check as run_tug_lost_check
 from core.units import label
-from core.usable import fitting_suits
 
 GOAL_TITLES = {
     "hold": "Hold (stay put against the conditions)",

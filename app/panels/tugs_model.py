@@ -16,10 +16,10 @@ from PySide6.QtGui import QColor
 from app import formatting as fmt
 from app.controller import Controller
 from app.edits import tugs as tug_edits
-from core.balance import TugShare
-from core.bodies import body_name_of_hull
 from core.errors import TowboardError
-from core.tugs import Placement, Tug
+from core.mechanics.balance import TugShare
+from core.mechanics.bodies import body_name_of_hull
+from core.model.tugs import Placement, Tug
 from core.units import fmt as plain
 
 Index = QModelIndex | QPersistentModelIndex
@@ -362,7 +362,7 @@ class TugsModel(QAbstractTableModel):
         hull_name, _, point = text.partition(": ")
         hull = project.hull(hull_name)
         fitting = hull.fitting(point)
-        from core.bodies import body_of
+        from core.mechanics.bodies import body_of
 
         body = body_of(project, body_name_of_hull(project, hull_name))
         lead = tug_edits.outward_lead(body, hull_name, point) if fitting.kind == "line" else 0.0

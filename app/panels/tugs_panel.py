@@ -19,8 +19,8 @@ from PySide6.QtWidgets import (
 from app.controller import Controller
 from app.edits import tugs as tug_edits
 from app.panels.tugs_model import KEYS, TugsModel
-from core.bodies import body_name_of_hull, body_of
-from core.tugs import Placement, Tug
+from core.mechanics.bodies import body_name_of_hull, body_of
+from core.model.tugs import Placement, Tug
 
 Index = QModelIndex | QPersistentModelIndex
 

@@ -12,10 +12,10 @@ from pathlib import Path
 import pypdf
 import pytest
 
-from core.checks import check_plan
-from core.loads import analyse_stage
-from core.projectfile import load
-from core.tugs import Tug
+from core.analysis.checks import check_plan
+from core.io.projectfile import load
+from core.mechanics.loads import analyse_stage
+from core.model.tugs import Tug
 from core.units import DisplayUnits
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -45,7 +45,7 @@ def qapp_module(qapp):
 
 @pytest.fixture(scope="module")
 def twin_pdf(tmp_path_factory, qapp_module):
-    from app.briefing import write_pdf
+    from app.briefing.document import write_pdf
 
     project = load(TWIN)
     out = tmp_path_factory.mktemp("brief") / "twin.pdf"
@@ -135,7 +135,7 @@ def test_cover_has_the_sign_off_the_conditions_limits_and_cautions(twin_pdf):
 
 @pytest.mark.parametrize(("paper", "size"), [("a4", A4_PT), ("letter", LETTER_PT)])
 def test_a4_and_letter_page_sizes(tmp_path, qapp_module, paper, size):
-    from app.briefing import write_pdf
+    from app.briefing.document import write_pdf
 
     out = tmp_path / f"plan-{paper}.pdf"
     n = write_pdf(load(SAMPLES / "deck_barge_unberth.towboard"), out, paper)
@@ -149,8 +149,8 @@ def test_a4_and_letter_page_sizes(tmp_path, qapp_module, paper, size):
 
 
 def test_a_failing_stage_is_flagged_on_the_cover_and_its_page(tmp_path, qapp_module):
-    from app.briefing import write_pdf
-    from core.checks import substitute_tug
+    from app.briefing.document import write_pdf
+    from core.analysis.checks import substitute_tug
 
     project = load(TWIN)
     rowan = project.tug("Rowan")
@@ -170,8 +170,8 @@ def test_a_failing_stage_is_flagged_on_the_cover_and_its_page(tmp_path, qapp_mod
 
 
 def test_an_empty_plan_still_prints(tmp_path, qapp_module):
-    from app.briefing import write_pdf
-    from core.plan import Project
+    from app.briefing.document import write_pdf
+    from core.model.plan import Project
 
     out = tmp_path / "empty.pdf"
     n = write_pdf(Project(name="Nothing yet"), out)
@@ -179,7 +179,7 @@ def test_an_empty_plan_still_prints(tmp_path, qapp_module):
 
 
 def test_a_failure_while_writing_leaves_no_file(tmp_path, qapp_module, monkeypatch):
-    import app.briefing as briefing
+    import app.briefing.document as briefing
 
     out = tmp_path / "plan.pdf"
     out.write_bytes(b"the previous briefing")
@@ -262,7 +262,7 @@ def test_cli_needs_an_output(tmp_path):
 
 
 def test_units_follow_the_plan(tmp_path, qapp_module):
-    from app.briefing import write_pdf
+    from app.briefing.document import write_pdf
 
     project = load(TWIN)
     kn = replace(project, units=DisplayUnits(force="kN", moment="kN*m", length="ft", speed="m/s"))
@@ -277,11 +277,11 @@ def test_units_follow_the_plan(tmp_path, qapp_module):
 
 
 def test_the_hold_limits_plot_states_the_cores_lowest_limits(tmp_path, qapp_module):
-    from app.briefing import write_pdf
+    from app.briefing.document import write_pdf
     from core.frames import bearing_to_angle
-    from core.goals import Goal
-    from core.holdlimits import hold_limits, hold_limits_problem
-    from core.tugs import Placement
+    from core.model.goals import Goal
+    from core.model.tugs import Placement
+    from core.solve.holdlimits import hold_limits, hold_limits_problem
 
     project = load(TWIN)
     # tugs that work every way: a bow line ahead, a stern line astern, a push on each side

@@ -12,10 +12,10 @@ from PySide6.QtCore import Qt
 from PySide6.QtPrintSupport import QPrintDialog, QPrinter, QPrintPreviewDialog, QPrintPreviewWidget
 from PySide6.QtWidgets import QDialog, QFileDialog, QMessageBox
 
-from app.main_window import MainWindow
-from core.clearance import notable_clearances
-from core.plan import BodyPose
-from core.projectfile import load
+from app.window.main_window import MainWindow
+from core.io.projectfile import load
+from core.mechanics.clearance import notable_clearances
+from core.model.plan import BodyPose
 from tests.conftest import SAMPLES
 
 TWIN = SAMPLES / "twin_barge_move.towboard"
@@ -135,7 +135,7 @@ def test_print_preview_shows_every_page(window, monkeypatch):
 
     monkeypatch.setattr(QPrintPreviewDialog, "exec", fake_exec)
     window.plan_ui.act_preview.trigger()
-    from app.briefing import Document, content_of
+    from app.briefing.document import Document, content_of
 
     printer = window.plan_ui.printer()
     expected = len(Document(content_of(window.controller.project), printer).pages)
@@ -163,7 +163,7 @@ def test_print_sends_the_briefing_to_the_printer(window, tmp_path, monkeypatch):
 
 
 def test_the_briefing_numbers_are_the_boards(window):
-    from core.checks import check_plan
+    from core.analysis.checks import check_plan
 
     project = window.controller.project
     u = project.units

@@ -31,6 +31,8 @@ SCRIPT = textwrap.dedent(
 
 
 def test_ten_thousand_process_events_calls_exit_cleanly() -> None:
-    done = subprocess.run([sys.executable, "-c", SCRIPT], capture_output=True, text=True, timeout=300)
+    done = subprocess.run(
+        [sys.executable, "-c", SCRIPT], capture_output=True, text=True, timeout=300
+    )
     assert done.returncode == 0, f"exit {done.returncode}: {done.stderr[-2000:]}"
     assert done.stdout.strip() == "survived"

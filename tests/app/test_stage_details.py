@@ -8,9 +8,9 @@ from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QDialog, QLineEdit
 
 from app.controller import Controller
-from app.site_panel import FeatureDialog, SitePanel, make_features
-from app.stage_details import StageDetails
-from core.projectfile import load
+from app.panels.site_panel import FeatureDialog, SitePanel, make_features
+from app.panels.stage_details import StageDetails
+from core.io.projectfile import load
 from core.units import DisplayUnits
 from tests.conftest import SAMPLES
 

@@ -9,8 +9,8 @@ from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QLineEdit
 
 from app.controller import Controller
-from app.stage_list import StageList
-from core.projectfile import load
+from app.panels.stage_list import StageList
+from core.io.projectfile import load
 from tests.conftest import SAMPLES
 
 TWIN = SAMPLES / "twin_barge_move.towboard"
@@ -122,7 +122,7 @@ def test_a_weaker_tug_flags_the_stages_it_fails(panel, qtbot):
 
 
 def test_an_empty_plan(qtbot):
-    from core.plan import Project
+    from core.model.plan import Project
 
     controller = Controller(Project())
     w = StageList(controller)

@@ -4,10 +4,10 @@ from __future__ import annotations
 
 import math
 
-from core.hull import Fitting, Hull
-from core.outlines import box_outline
-from core.plan import BodyPose, GroupMember, LashedGroup, Project, Stage
-from core.tugs import Placement, Tug
+from core.model.hull import Fitting, Hull
+from core.model.outlines import box_outline
+from core.model.plan import BodyPose, GroupMember, LashedGroup, Project, Stage
+from core.model.tugs import Placement, Tug
 
 TF = 9806.65  # N per tonne-force (NIST SP 811, from memory; see REFERENCES.md)
 

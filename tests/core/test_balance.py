@@ -10,12 +10,12 @@ import math
 
 import pytest
 
-from core.balance import Load, analyse
 from core.frames import bearing_to_angle
-from core.hull import Fitting, Hull
-from core.outlines import box_outline
-from core.plan import GroupMember, LashedGroup, Project, Stage
-from core.tugs import Placement, Tug
+from core.mechanics.balance import Load, analyse
+from core.model.hull import Fitting, Hull
+from core.model.outlines import box_outline
+from core.model.plan import GroupMember, LashedGroup, Project, Stage
+from core.model.tugs import Placement, Tug
 
 TF = 9806.65  # N per tonne-force
 

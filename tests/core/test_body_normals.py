@@ -6,9 +6,9 @@ import math
 
 import pytest
 
-from core.bodies import Body, Member
-from core.hull import Fitting, Hull
-from core.outlines import box_outline
+from core.mechanics.bodies import Body, Member
+from core.model.hull import Fitting, Hull
+from core.model.outlines import box_outline
 
 
 def _hull() -> Hull:

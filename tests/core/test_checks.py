@@ -6,12 +6,12 @@ from dataclasses import replace
 
 import pytest
 
-from core.checks import check_plan, check_stage, substitute_tug
+from core.analysis.checks import check_plan, check_stage, substitute_tug
 from core.errors import InputError
-from core.goals import Goal
-from core.plan import Site, Stage, StageLimits
-from core.site import quay
-from core.tugs import Tug
+from core.mechanics.site import quay
+from core.model.goals import Goal
+from core.model.plan import Site, Stage, StageLimits
+from core.model.tugs import Tug
 from tests.core.plan_builders import TF, line, two_tug_plan
 
 KNOT = 1852 / 3600  # m/s (NIST SP 811, from memory)

@@ -11,9 +11,14 @@ import shapely.affinity
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from core.clearance import clearance_notices, least_per_body, stage_clearances, stage_margin
-from core.plan import BodyPose, Site, Stage, StageLimits
-from core.site import basin, dolphin, moored_vessel, quay
+from core.mechanics.clearance import (
+    clearance_notices,
+    least_per_body,
+    stage_clearances,
+    stage_margin,
+)
+from core.mechanics.site import basin, dolphin, moored_vessel, quay
+from core.model.plan import BodyPose, Site, Stage, StageLimits
 from core.units import DisplayUnits
 from tests.core.plan_builders import box_hull, two_tug_plan
 
@@ -147,7 +152,7 @@ def test_clearances_agree_with_independent_shapely(heading, x, y):
 
 
 def test_notable_clearances_are_those_below_margin_and_each_bodys_least():
-    from core.clearance import notable_clearances
+    from core.mechanics.clearance import notable_clearances
 
     feats = (
         quay("North quay", (-50, 25), (150, 25)),  # 15 m

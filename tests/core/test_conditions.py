@@ -8,25 +8,24 @@ from dataclasses import replace
 import pytest
 import shapely
 
-from core.bodies import body_of
-from core.conditions import (
+from core.errors import InputError
+from core.mechanics.bodies import body_of
+from core.mechanics.loads import (
     HOERNER_CROSS_FLOW,
-    Conditions,
+    analyse_stage,
     condition_loads,
     current_model,
     drag_force,
     dynamic_pressure,
     hoerner_cross_flow,
+    loads_wrench,
     projection,
-    wind_at_10m,
-    wind_at_height,
     wind_model,
 )
-from core.errors import InputError
-from core.hull import Hull
-from core.loads import analyse_stage, loads_wrench
-from core.outlines import box_outline
-from core.plan import BodyPose, GroupMember, LashedGroup, Project, Stage
+from core.model.conditions import Conditions, wind_at_10m, wind_at_height
+from core.model.hull import Hull
+from core.model.outlines import box_outline
+from core.model.plan import BodyPose, GroupMember, LashedGroup, Project, Stage
 from tests.core.plan_builders import box_hull
 
 RHO_AIR = 1.225  # kg/m^3, ISO 2533 standard atmosphere at 15 C (from memory)

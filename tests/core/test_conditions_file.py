@@ -10,8 +10,8 @@ import jsonschema
 import pytest
 
 from core.errors import ProjectFileError
-from core.projectfile import dumps, load, loads
-from core.usable import EfficiencyTable
+from core.io.projectfile import dumps, load, loads
+from core.model.efficiency import EfficiencyTable
 
 ROOT = Path(__file__).resolve().parents[2]
 SAMPLE = ROOT / "sample_projects" / "deck_barge_unberth.towboard"

@@ -16,7 +16,7 @@ from hypothesis import strategies as st
 from sympy import Rational
 from sympy.physics.vector import ReferenceFrame, cross
 
-from core.forces import NEGLIGIBLE, equivalent, moments_about, resultant, transfer_moment
+from core.mechanics.forces import NEGLIGIBLE, equivalent, moments_about, resultant, transfer_moment
 
 # -- sympy.physics.vector cross-check -------------------------------------------------
 

@@ -10,10 +10,10 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.optimize import linprog
 
-from core.conditions import Conditions
-from core.holdlimits import hold_limits, hold_limits_problem, limit_at, zonotope_normals
-from core.plan import BodyPose, Project, Stage
-from core.tugs import Placement, Tug
+from core.model.conditions import Conditions
+from core.model.plan import BodyPose, Project, Stage
+from core.model.tugs import Placement, Tug
+from core.solve.holdlimits import hold_limits, hold_limits_problem, limit_at, zonotope_normals
 from tests.core.plan_builders import TF, box_hull
 
 # Leads as a planner enters them, in half degrees: lines a millionth of a degree apart make
@@ -221,7 +221,7 @@ def test_worst_lost_names_the_tug() -> None:
 
 
 def test_live_sweep_is_the_full_sweep_on_fewer_directions() -> None:
-    from core.holdlimits import live_hold_limits
+    from core.solve.holdlimits import live_hold_limits
 
     cond = Conditions(wind_speed_ms=10.0, current_speed_ms=0.4, current_towards_deg=30.0)
     project, stage = _plan([90.0, 270.0, 45.0, 180.0], [30.0, 40.0, 25.0, 20.0], conditions=cond)

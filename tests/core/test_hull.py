@@ -15,8 +15,8 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 from core.errors import InputError, OutlineError
-from core.hull import Fitting, Hull
-from core.outlines import box_outline, raked_outline, ship_outline, validate_outline
+from core.model.hull import Fitting, Hull
+from core.model.outlines import box_outline, raked_outline, ship_outline, validate_outline
 
 
 def _hull(outline: object, **kw: object) -> Hull:

@@ -8,10 +8,10 @@ import math
 import pytest
 import shapely
 
-from core.balance import analyse
-from core.bodies import body_of
-from core.plan import BodyPose, Stage
-from core.site import placed_bodies
+from core.mechanics.balance import analyse
+from core.mechanics.bodies import body_of
+from core.mechanics.site import placed_bodies
+from core.model.plan import BodyPose, Stage
 from tests.core.plan_builders import TF, line, twin_group_project
 
 # Hand layout (see twin_group_project): A is 60 x 18 m at the group origin, x 0..60, y -9..9;

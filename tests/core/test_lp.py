@@ -8,7 +8,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.optimize import linprog
 
-from core.lp import solve_lp
+from core.solve.lp import solve_lp
 
 STATUS = {0: "optimal", 2: "infeasible", 3: "unbounded"}
 

@@ -12,9 +12,9 @@ from typing import Any
 import jsonschema
 import pytest
 
-from core import projectfile
 from core.errors import FormatVersionError, ProjectFileError
-from core.projectfile import backup_path, dumps, load, loads, save
+from core.io import projectfile
+from core.io.projectfile import backup_path, dumps, load, loads, save
 
 ROOT = Path(__file__).resolve().parents[2]
 SCHEMA = json.loads((ROOT / "docs" / "towboard.schema.json").read_text())

@@ -15,9 +15,9 @@ import numpy as np
 import pytest
 import shapely
 
-from core.loads import analyse_stage
-from core.projectfile import load
-from core.report import report_json, report_text
+from core.io.projectfile import load
+from core.io.report import report_json, report_text
+from core.mechanics.loads import analyse_stage
 
 ROOT = Path(__file__).resolve().parents[2]
 TF = 9806.65  # N per tonne-force (NIST SP 811)

@@ -7,12 +7,12 @@ import math
 
 import pytest
 
-from core.conditions import Conditions
-from core.goals import Goal
-from core.plan import BodyPose, Project, Stage
-from core.report import report_json, report_text
-from core.solve import shortfall_words
-from core.tugs import Placement, Tug
+from core.io.report import report_json, report_text
+from core.model.conditions import Conditions
+from core.model.goals import Goal
+from core.model.plan import BodyPose, Project, Stage
+from core.model.tugs import Placement, Tug
+from core.solve.pulls import shortfall_words
 from core.units import DisplayUnits
 from tests.core.plan_builders import TF, box_hull
 

@@ -8,8 +8,7 @@ import pytest
 import shapely
 
 from core.errors import InputError
-from core.plan import BodyPose, Stage
-from core.site import (
+from core.mechanics.site import (
     Placing,
     basin,
     body_pose,
@@ -20,6 +19,7 @@ from core.site import (
     placed_bodies,
     quay,
 )
+from core.model.plan import BodyPose, Stage
 from tests.core.plan_builders import twin_group_project, two_tug_plan
 
 

@@ -11,13 +11,13 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.optimize import linprog
 
-from core.conditions import Conditions
 from core.errors import InputError
-from core.goals import Goal
-from core.loads import analyse_stage
-from core.plan import BodyPose, Project, Stage
-from core.solve import GOAL_TOL, pulls_problem, solve_pulls, tug_lost_check
-from core.tugs import Placement, Tug
+from core.mechanics.loads import analyse_stage
+from core.model.conditions import Conditions
+from core.model.goals import Goal
+from core.model.plan import BodyPose, Project, Stage
+from core.model.tugs import Placement, Tug
+from core.solve.pulls import GOAL_TOL, pulls_problem, solve_pulls, tug_lost_check
 from tests.core.plan_builders import TF, box_hull
 
 # Leads as a planner enters them, in half degrees: lines a millionth of a degree apart make

@@ -6,10 +6,10 @@ from dataclasses import replace
 
 import pytest
 
-from core.balance import analyse
-from core.checks import check_plan
+from core.analysis.checks import check_plan
 from core.errors import InputError
-from core.stages import (
+from core.mechanics.balance import analyse
+from core.model.stages import (
     add_stage,
     copy_name,
     delete_stage,

@@ -8,10 +8,10 @@ import sys
 import pytest
 import shapely
 
-from core.bodies import body_of
-from core.checks import check_plan
-from core.projectfile import load
-from core.site import placed_bodies
+from core.analysis.checks import check_plan
+from core.io.projectfile import load
+from core.mechanics.bodies import body_of
+from core.mechanics.site import placed_bodies
 from tests.conftest import ROOT, SAMPLES
 
 PATH = SAMPLES / "twin_barge_move.towboard"

@@ -7,22 +7,22 @@ from dataclasses import replace
 
 import pytest
 
-from core.balance import analyse, tug_layout
-from core.bodies import body_of
-from core.conditions import Conditions
 from core.errors import InputError
-from core.hull import Fitting
-from core.loads import analyse_stage
-from core.plan import BodyPose, Project, Stage
-from core.tugs import Placement, Tug
-from core.usable import (
-    EfficiencyTable,
+from core.mechanics.balance import analyse, tug_layout
+from core.mechanics.bodies import body_of
+from core.mechanics.loads import analyse_stage
+from core.mechanics.usable import (
     fitting_design_load_n,
     fitting_suits,
     horizontal_factor,
     largest_swl_n,
     line_angle_rad,
 )
+from core.model.conditions import Conditions
+from core.model.efficiency import EfficiencyTable
+from core.model.hull import Fitting
+from core.model.plan import BodyPose, Project, Stage
+from core.model.tugs import Placement, Tug
 from tests.core.plan_builders import TF, box_hull
 
 # The table's numbers are user data (not verified); these tests check the mechanics only.

@@ -68,7 +68,7 @@ def dialogs(monkeypatch: pytest.MonkeyPatch) -> Dialogs:
 
 @pytest.fixture
 def window(qtbot):  # type: ignore[no-untyped-def]
-    from app.main_window import MainWindow
+    from app.window.main_window import MainWindow
 
     w = MainWindow()
     qtbot.addWidget(w)

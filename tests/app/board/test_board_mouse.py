@@ -9,10 +9,10 @@ import pytest
 from PySide6.QtCore import QPointF, Qt
 from PySide6.QtTest import QTest
 
-from app.main_window import new_project
-from core.balance import analyse
-from core.bodies import body_of
+from app.window.main_window import new_project
 from core.frames import true_to_site_angle
+from core.mechanics.balance import analyse
+from core.mechanics.bodies import body_of
 from tests.app.board.conftest import move_with_button, view_point
 
 

@@ -7,7 +7,7 @@ from dataclasses import replace
 import pytest
 
 from app.controller import Controller
-from core.projectfile import load
+from core.io.projectfile import load
 from tests.app.board.conftest import SAMPLE
 
 
@@ -82,7 +82,7 @@ def test_consecutive_edits_with_one_key_merge(controller: Controller) -> None:
 
 
 def test_results_are_the_cores_balance(controller: Controller) -> None:
-    from core.balance import analyse
+    from core.mechanics.balance import analyse
 
     b = controller.balance()
     ref = analyse(controller.project, controller.stage)

@@ -11,7 +11,7 @@ from pathlib import Path
 
 from PySide6.QtWidgets import QMessageBox
 
-from core.projectfile import load
+from core.io.projectfile import load
 from tests.app.board.conftest import SAMPLE
 from tests.conftest import ROOT
 
@@ -21,9 +21,9 @@ CHILD = textwrap.dedent(
     from PySide6.QtCore import Qt
     from PySide6.QtWidgets import QApplication
     app = QApplication([])
-    from app.main_window import MainWindow, SAMPLE
+    from app.window.main_window import MainWindow, SAMPLE
     from app.panels.tugs_model import KEYS
-    from core.projectfile import dumps
+    from core.io.projectfile import dumps
     w = MainWindow()
     w.show()
     w.open_path(SAMPLE, ask=False)
@@ -72,7 +72,7 @@ def test_a_killed_session_is_restored_to_its_last_edit(qtbot, isolated: Path, di
     stage = stage.with_placement(stage.placement("Puffin").with_setting(0.58))
     expected = expected.with_stage(stage, 0)
 
-    from app.main_window import MainWindow
+    from app.window.main_window import MainWindow
 
     dialogs.answer = QMessageBox.StandardButton.Yes
     w = MainWindow()
@@ -83,15 +83,15 @@ def test_a_killed_session_is_restored_to_its_last_edit(qtbot, isolated: Path, di
     assert w.controller.dirty  # restored work is not saved work
     assert w.controller.path == SAMPLE
     # offered once: the orphan is gone, and this window's own file is not an orphan
-    from app.recovery import find_orphans
+    from app.window.recovery import find_orphans
 
     assert find_orphans(w.recovery.folder) == []
     w.controller.undo_stack.setClean()
 
 
 def test_a_clean_close_leaves_nothing_to_recover(qtbot, dialogs) -> None:  # type: ignore[no-untyped-def]
-    from app.main_window import MainWindow
-    from app.recovery import find_orphans
+    from app.window.main_window import MainWindow
+    from app.window.recovery import find_orphans
 
     w = MainWindow()
     qtbot.addWidget(w)

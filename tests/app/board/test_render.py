@@ -10,8 +10,8 @@ from PySide6.QtGui import QColor, QImage, QPageSize, QPainter, QPdfWriter
 from app.board.render import render_board
 from app.board.scene import BoardScene
 from app.controller import Controller
-from core.balance import analyse
-from core.projectfile import load
+from core.io.projectfile import load
+from core.mechanics.balance import analyse
 from tests.app.board.conftest import SAMPLE
 
 

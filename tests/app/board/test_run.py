@@ -7,9 +7,9 @@ from pathlib import Path
 import pytest
 from PySide6.QtWidgets import QApplication, QDialog
 
-import app.main_window as main_window
-from core.outlines import raked_outline
-from core.projectfile import load, save
+import app.window.main_window as main_window
+from core.io.projectfile import load, save
+from core.model.outlines import raked_outline
 from tests.app.board.conftest import SAMPLE
 
 
@@ -41,7 +41,7 @@ def test_a_file_argument_opens_that_file(no_loop, tmp_path: Path) -> None:  # ty
 
 
 def test_outline_from_dimensions_replaces_the_hulls_outline(window, monkeypatch) -> None:  # type: ignore[no-untyped-def]
-    from app.outline_dialog import OutlineDialog
+    from app.window.outline_dialog import OutlineDialog
 
     def accept(dlg):  # type: ignore[no-untyped-def]
         dlg.shape.setCurrentIndex(dlg.shape.findData("raked"))

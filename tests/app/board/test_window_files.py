@@ -10,7 +10,7 @@ from PySide6.QtGui import QImage
 from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QFileDialog, QLineEdit
 
-from core.projectfile import load
+from core.io.projectfile import load
 from tests.app.board.conftest import SAMPLE
 
 

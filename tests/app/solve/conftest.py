@@ -7,9 +7,9 @@ import math
 
 import pytest
 
-from core.conditions import Conditions
-from core.plan import BodyPose, Project, Stage
-from core.tugs import Placement, Tug
+from core.model.conditions import Conditions
+from core.model.plan import BodyPose, Project, Stage
+from core.model.tugs import Placement, Tug
 from tests.app.board.conftest import isolated, window  # noqa: F401  (fixtures)
 from tests.core.plan_builders import TF, box_hull
 

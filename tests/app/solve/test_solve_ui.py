@@ -11,13 +11,13 @@ from PySide6.QtGui import QColor, QImage, QPainter
 from PySide6.QtWidgets import QMessageBox
 
 from app.board.conditions_layer import draw_conditions_card
-from app.hold_plot import ALL_TUGS
 from app.panels.conditions import EfficiencyDialog
-from core.bodies import body_of
-from core.goals import Goal
-from core.holdlimits import hold_limits, hold_limits_problem
-from core.loads import analyse_stage, body_conditions
-from core.solve import pulls_problem, solve_pulls, tug_lost_check
+from app.panels.hold_plot import ALL_TUGS
+from core.mechanics.bodies import body_of
+from core.mechanics.loads import analyse_stage, body_conditions
+from core.model.goals import Goal
+from core.solve.holdlimits import hold_limits, hold_limits_problem
+from core.solve.pulls import pulls_problem, solve_pulls, tug_lost_check
 from core.units import DisplayUnits
 from tests.app.board.conftest import move_with_button, view_point
 
@@ -98,7 +98,7 @@ def test_the_panel_says_what_the_body_feels(window) -> None:  # type: ignore[no-
 
 
 def test_the_efficiency_table_dialog_builds_and_refuses(qtbot, monkeypatch) -> None:  # type: ignore[no-untyped-def]
-    from core.usable import EfficiencyTable
+    from core.model.efficiency import EfficiencyTable
 
     u = DisplayUnits()
     dlg = EfficiencyDialog(EfficiencyTable(), u)
@@ -305,7 +305,7 @@ def test_no_wind_area_says_why_instead_of_a_plot(window) -> None:  # type: ignor
 
 
 def test_the_conditions_card_says_wind_and_current() -> None:
-    from core.conditions import Conditions
+    from core.model.conditions import Conditions
 
     img = QImage(300, 220, QImage.Format.Format_ARGB32)
     img.fill(QColor("white"))

@@ -1,0 +1,193 @@
+"""The printed briefing: the whole plan on paper, through Qt's print support.
+
+:func:`render` paints the briefing on any paged paint device (a QPdfWriter, or a
+QPrinter for a real printer or the print preview); :func:`write_pdf` writes a PDF
+atomically. Pages are A4 or US Letter, portrait, drawn as vectors. The content is
+laid out into pages first, so every page carries "page N of M".
+"""
+
+from __future__ import annotations
+
+import os
+from dataclasses import dataclass
+from pathlib import Path
+
+from PySide6.QtCore import QMarginsF, QPointF, QRectF
+from PySide6.QtGui import (
+    QPagedPaintDevice,
+    QPageLayout,
+    QPageSize,
+    QPainter,
+    QPdfWriter,
+    QPen,
+)
+
+from app.briefing.layout import INK, MUTED, RULE, Block, Ctx, Page, PageBreak, paginate
+from app.briefing.sections import StageExtras, conventions, cover, particulars, stage_blocks
+from core.analysis.checks import StageCheck, check_plan
+from core.errors import InputError, TowboardError
+from core.io.projectfile import replacing
+from core.model.plan import Project
+from core.solve.holdlimits import hold_limits, hold_limits_problem
+from core.solve.pulls import pulls_problem, tug_lost_check
+
+PAPERS: dict[str, QPageSize.PageSizeId] = {
+    "a4": QPageSize.PageSizeId.A4,
+    "letter": QPageSize.PageSizeId.Letter,
+}
+MARGIN_MM = (15.0, 16.0, 15.0, 15.0)  # left, top, right, bottom: room for header and footer
+RESOLUTION_DPI = 1200
+
+
+@dataclass(frozen=True, slots=True)
+class BriefingContent:
+    """What the briefing prints: the plan, every stage checked, and the solver's extras."""
+
+    project: Project
+    checks: tuple[StageCheck, ...]
+    extras: tuple[StageExtras, ...]
+
+
+def stage_extras(project: Project, check: StageCheck) -> StageExtras:
+    """The tug lost check (stages with a goal) and the hold limits, where they can be had."""
+    if not check.balances:
+        return StageExtras()
+    body = check.balances[0].body
+    stage = check.stage
+    tl = None
+    note = ""
+    if stage.goal is not None:
+        try:
+            tl = tug_lost_check(pulls_problem(project, stage, body))
+        except TowboardError as e:
+            note = f"Tug lost check not possible: {e}"
+    hl = None
+    if stage.placements:
+        try:
+            hl = hold_limits(hold_limits_problem(project, stage, body))
+        except TowboardError as e:
+            note = (note + " " if note else "") + f"Hold limits not possible: {e}"
+    return StageExtras(tl, hl, note)
+
+
+def content_of(project: Project) -> BriefingContent:
+    checks = check_plan(project)
+    return BriefingContent(project, checks, tuple(stage_extras(project, c) for c in checks))
+
+
+def blocks_of(content: BriefingContent, content_height_mm: float) -> list[Block]:
+    project = content.project
+    blocks: list[Block] = cover(project, content.checks)
+    blocks.append(PageBreak())
+    blocks += particulars(project)
+    blocks.append(PageBreak())
+    blocks += conventions(project)
+    diagram_mm = min(120.0, content_height_mm * 0.40)
+    for check, extra in zip(content.checks, content.extras, strict=True):
+        blocks += stage_blocks(project, check, extra, diagram_mm)
+    return blocks
+
+
+class Document:
+    """A laid-out briefing for one paint device."""
+
+    def __init__(self, content: BriefingContent, device: QPagedPaintDevice) -> None:
+        self.content = content
+        self.device = device
+        self.ctx = Ctx(device)
+        ml, mt, mr, mb = (self.ctx.mm(v) for v in MARGIN_MM)
+        w, h = float(device.width()), float(device.height())
+        self.body = QRectF(ml, mt, w - ml - mr, h - mt - mb)
+        blocks = blocks_of(content, self.body.height() / self.ctx.mm(1))
+        self.pages: list[Page] = paginate(blocks, self.ctx, self.body.width(), self.body.height())
+
+    def paint(self, painter: QPainter, first_page: int = 0) -> None:
+        n = len(self.pages)
+        for i, page in enumerate(self.pages):
+            if i > first_page:
+                self.device.newPage()
+            if i < first_page:
+                continue
+            self._frame(painter, i + 1, n)
+            for placed in page:
+                r = QRectF(
+                    self.body.left(), self.body.top() + placed.y, self.body.width(), placed.h
+                )
+                placed.block.paint(painter, self.ctx, r)
+
+    def _frame(self, p: QPainter, number: int, total: int) -> None:
+        ctx, project = self.ctx, self.content.project
+        left, right = self.body.left(), self.body.right()
+        top = self.body.top() - ctx.mm(5)
+        p.setFont(ctx.font(7.5, True))
+        p.setPen(INK)
+        p.drawText(QPointF(left, top - ctx.mm(1.2)), project.name)
+        rev = f"Revision {project.revision}" + (f"  ·  {project.date}" if project.date else "")
+        p.setFont(ctx.font(7.5))
+        w = ctx.metrics(7.5).horizontalAdvance(rev)
+        p.drawText(QPointF(right - w, top - ctx.mm(1.2)), rev)
+        p.setPen(QPen(RULE, ctx.mm(0.25)))
+        p.drawLine(QPointF(left, top), QPointF(right, top))
+        bottom = self.body.bottom() + ctx.mm(5)
+        p.drawLine(QPointF(left, bottom), QPointF(right, bottom))
+        p.setPen(MUTED)
+        p.setFont(ctx.font(7.0))
+        p.drawText(
+            QPointF(left, bottom + ctx.mm(3.8)),
+            f"{project.name}  ·  revision {project.revision}  ·  planning aid: see the cautions",
+        )
+        pn = f"page {number} of {total}"
+        p.setFont(ctx.font(7.5, True))
+        p.setPen(INK)
+        w = ctx.metrics(7.5, True).horizontalAdvance(pn)
+        p.drawText(QPointF(right - w, bottom + ctx.mm(3.8)), pn)
+
+
+def page_layout(paper: str) -> QPageLayout:
+    if paper not in PAPERS:
+        raise InputError("paper", paper, f"is not one of {', '.join(PAPERS)}")
+    return QPageLayout(
+        QPageSize(PAPERS[paper]),
+        QPageLayout.Orientation.Portrait,
+        QMarginsF(0, 0, 0, 0),
+        QPageLayout.Unit.Millimeter,
+    )
+
+
+def render(device: QPagedPaintDevice, project: Project) -> int:
+    """Paint the briefing of ``project`` on ``device`` (already sized); returns the page count."""
+    doc = Document(content_of(project), device)
+    painter = QPainter()
+    if not painter.begin(device):
+        raise OSError("cannot start painting on the print device")
+    try:
+        doc.paint(painter)
+    finally:
+        painter.end()
+    return len(doc.pages)
+
+
+def pdf_writer(path: str, project: Project, paper: str) -> QPdfWriter:
+    w = QPdfWriter(path)
+    w.setResolution(RESOLUTION_DPI)
+    w.setPageLayout(page_layout(paper))
+    w.setTitle(f"{project.name}, revision {project.revision}: briefing")
+    w.setCreator("Towboard")
+    return w
+
+
+def write_pdf(project: Project, path: str | os.PathLike[str], paper: str = "a4") -> int:
+    """Write the briefing to ``path`` as a PDF, atomically; returns the page count.
+
+    The PDF is written to a temporary file in the same folder and renamed over
+    ``path`` only once it is complete, so a failure never leaves a half-written file.
+    """
+    target = Path(path)
+    page_layout(paper)  # refuse a bad paper before touching the disk
+    if not target.parent.is_dir():
+        raise InputError("output folder", str(target.parent), "does not exist")
+    with replacing(target) as tmp:
+        writer = pdf_writer(str(tmp), project, paper)
+        pages = render(writer, project)
+        del writer  # flushes and closes the file
+    return pages

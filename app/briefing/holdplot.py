@@ -1,0 +1,185 @@
+"""The hold limits plot for the briefing: limiting wind speed against the true direction
+the wind blows from, north up and clockwise, drawn with QPainter from core.solve.pulls.holdlimits."""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+from PySide6.QtCore import QPointF, QRectF, Qt
+from PySide6.QtGui import QColor, QPainter, QPainterPath, QPen
+
+from app.briefing.layout import FAIL, INK, MUTED, RULE, Ctx
+from core.model.plan import Stage
+from core.solve.holdlimits import HoldLimits, limit_at
+from core.units import DisplayUnits, fmt, label
+
+ALL_TUGS = QColor("#1f5f8b")
+TUG_LOST = QColor("#c0561b")
+RING_STEPS = (1, 2, 5, 10, 15, 20, 25, 30, 40, 50, 60, 80, 100)
+
+
+def nice_ring(top: float) -> float:
+    """A ring spacing that gives 3 to 6 rings up to ``top`` (display units)."""
+    for s in RING_STEPS:
+        if top / s <= 6:
+            return float(s)
+    return float(RING_STEPS[-1])
+
+
+class HoldPlot:
+    """Paints one stage's hold limits (a core.solve.pulls.holdlimits.HoldLimits)."""
+
+    def __init__(self, limits: HoldLimits, stage: Stage, units: DisplayUnits) -> None:
+        self.limits = limits
+        self.stage = stage
+        self.units = units
+
+    @property
+    def has_curve(self) -> bool:
+        """False when there is nothing a planner could read off a plot: the tugs cannot
+        hold the body against the current alone, or can hold no wind from anywhere."""
+        v = np.asarray(self.limits.all_tugs_ms, float)
+        return bool(self.limits.holds_current and np.any(v > 0))
+
+    def _speed(self, v_ms: np.ndarray) -> np.ndarray:
+        return np.array([self.units.value(float(v), "speed") for v in v_ms])
+
+    def paint(self, p: QPainter, ctx: Ctx, rect: QRectF) -> None:
+        p.setRenderHint(QPainter.RenderHint.Antialiasing, True)
+        lim = self.limits
+        u = self.units
+        dirs = np.asarray(lim.problem.directions_deg, float)
+        all_v = self._speed(np.asarray(lim.all_tugs_ms))
+        lost_v = self._speed(np.asarray(lim.worst_lost_ms)) if len(lim.lost_ms) else None
+        c = self.stage.conditions
+        planned = u.value(c.wind_speed_ms, "speed")
+        max_wind = self.stage.limits.max_wind_ms
+        cap_v = [planned * 2.0, 10.0]
+        if max_wind is not None:
+            cap_v.append(u.value(max_wind, "speed") * 1.5)
+        finite = all_v[np.isfinite(all_v)]
+        top = max(cap_v)
+        if len(finite):
+            top = min(max(float(finite.max()), max(cap_v) * 0.5), max(cap_v) * 1.4)
+        ring = nice_ring(top)
+        top = ring * math.ceil(top / ring)
+        size = min(rect.height(), rect.width() * 0.55)
+        r_max = size / 2 - ctx.mm(6)
+        centre = QPointF(rect.left() + size / 2, rect.top() + size / 2)
+
+        def at(direction_deg: float, speed: float) -> QPointF:
+            r = r_max * min(speed, top) / top
+            a = math.radians(direction_deg)
+            return QPointF(centre.x() + r * math.sin(a), centre.y() - r * math.cos(a))
+
+        p.setFont(ctx.font(6.0))
+        for k in range(1, round(top / ring) + 1):
+            r = r_max * k * ring / top
+            p.setPen(QPen(RULE, ctx.mm(0.15)))
+            p.drawEllipse(centre, r, r)
+            p.setPen(MUTED)
+            q = at(15.0, k * ring)  # along a spoke clear of north
+            p.drawText(QPointF(q.x() + ctx.mm(0.5), q.y() + ctx.mm(0.8)), fmt(k * ring, 0))
+        for d in range(0, 360, 30):
+            p.setPen(QPen(RULE, ctx.mm(0.12)))
+            p.drawLine(centre, at(d, top))
+            q = at(d, top * 1.09)
+            text = {0: "N", 90: "E", 180: "S", 270: "W"}.get(d, f"{d:03d}")
+            p.setPen(INK)
+            w = ctx.metrics(6.0).horizontalAdvance(text)
+            p.drawText(QPointF(q.x() - w / 2, q.y() + ctx.mm(1)), text)
+
+        def curve(values: np.ndarray, color: QColor, style: Qt.PenStyle) -> None:
+            path = QPainterPath()
+            for i, (d, v) in enumerate(zip(dirs, values, strict=True)):
+                pt = at(float(d), float(v) if math.isfinite(v) else top)
+                if i == 0:
+                    path.moveTo(pt)
+                else:
+                    path.lineTo(pt)
+            path.closeSubpath()
+            p.setPen(QPen(color, ctx.mm(0.5), style))
+            p.drawPath(path)
+
+        curve(all_v, ALL_TUGS, Qt.PenStyle.SolidLine)
+        if lost_v is not None:
+            curve(lost_v, TUG_LOST, Qt.PenStyle.DashLine)
+        if max_wind is not None:
+            r = r_max * min(u.value(max_wind, "speed"), top) / top
+            p.setPen(QPen(FAIL, ctx.mm(0.3), Qt.PenStyle.DotLine))
+            p.drawEllipse(centre, r, r)
+        if planned > 0:
+            q = at(c.wind_from_deg, planned)
+            p.setPen(QPen(INK, ctx.mm(0.3)))
+            p.setBrush(INK)
+            p.drawEllipse(q, ctx.mm(1.0), ctx.mm(1.0))
+            p.setBrush(Qt.BrushStyle.NoBrush)
+        # legend and figures to the right
+        x = rect.left() + size + ctx.mm(4)
+        y = rect.top() + ctx.mm(4)
+        sp = label(u.unit("speed"))
+        lines: list[tuple[QColor | None, Qt.PenStyle | None, str]] = [
+            (ALL_TUGS, Qt.PenStyle.SolidLine, "all tugs"),
+        ]
+        if lost_v is not None:
+            lines.append((TUG_LOST, Qt.PenStyle.DashLine, "worst single tug lost"))
+        if max_wind is not None:
+            lines.append((FAIL, Qt.PenStyle.DotLine, f"stage limit {u.show(max_wind, 'speed')}"))
+        if planned > 0:
+            lines.append(
+                (
+                    None,
+                    None,
+                    f"planned wind {u.show(c.wind_speed_ms, 'speed')} from {c.wind_from_deg:03.0f}° (dot)",
+                )
+            )
+        p.setFont(ctx.font(7.0))
+        for color, style, text in lines:
+            if color is not None and style is not None:
+                p.setPen(QPen(color, ctx.mm(0.5), style))
+                p.drawLine(QPointF(x, y - ctx.mm(1)), QPointF(x + ctx.mm(8), y - ctx.mm(1)))
+            else:
+                p.setPen(QPen(INK))
+                p.setBrush(INK)
+                p.drawEllipse(QPointF(x + ctx.mm(4), y - ctx.mm(1)), ctx.mm(1), ctx.mm(1))
+                p.setBrush(Qt.BrushStyle.NoBrush)
+            p.setPen(INK)
+            p.drawText(QPointF(x + ctx.mm(10), y), text)
+            y += ctx.mm(4.5)
+        y += ctx.mm(2)
+        d_low, v_low = lim.lowest()
+        facts = [
+            f"Wind speed ({sp}) the tugs can hold the body against, by the true direction it "
+            "blows from, with the current as planned; same measure as the planned wind "
+            "(mean at its height, with its gust factor).",
+            f"Lowest with all tugs: {u.show(v_low, 'speed')} from {d_low:03.0f}°.",
+        ]
+        if lost_v is not None:
+            d2, v2 = lim.lowest(np.asarray(lim.worst_lost_ms))
+            facts.append(f"Lowest with the worst tug lost: {u.show(v2, 'speed')} from {d2:03.0f}°.")
+        if planned > 0:
+            here = limit_at(lim, c.wind_from_deg)
+            facts.append(
+                f"From the planned direction {c.wind_from_deg:03.0f}°: {u.show(here, 'speed')} "
+                f"with all tugs (planned {u.show(c.wind_speed_ms, 'speed')})."
+                + (
+                    " The planned wind is more than the tugs can hold."
+                    if here < c.wind_speed_ms
+                    else ""
+                )
+            )
+        held = int(np.count_nonzero(np.asarray(lim.all_tugs_ms) > 0))
+        if held < len(dirs):
+            facts.append(
+                f"Some wind can be held from {held} of the {len(dirs)} directions swept; from the "
+                "others the tugs, at their leads as set, cannot resist any wind."
+            )
+        if not lim.holds_current:
+            facts.append("The tugs cannot hold the body against the current alone.")
+        width = rect.right() - x
+        p.setFont(ctx.font(7.0))
+        for t in facts:
+            h = ctx.text_height(t, width, 7.0)
+            p.drawText(QRectF(x, y, width, h), int(Qt.TextFlag.TextWordWrap), t)
+            y += h + ctx.mm(1.2)

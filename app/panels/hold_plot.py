@@ -1,0 +1,446 @@
+"""The hold limits plot on screen: the highest wind the fleet can hold from each direction.
+
+A polar chart drawn with QPainter: north up, true directions clockwise, the distance
+from the centre is the limiting wind speed in the display speed unit (the same measure
+as the stage's wind: mean speed at its stated height, gusts as set). Two curves, all
+tugs and the worst single tug lost; the stage's planned wind is marked. The numbers
+are the core's (core.solve.pulls.holdlimits); the widget only draws them.
+"""
+
+from __future__ import annotations
+
+import math
+import time
+
+import numpy as np
+from PySide6.QtCore import QPointF, QRectF, QSize, Qt, QTimer
+from PySide6.QtGui import (
+    QColor,
+    QFont,
+    QPainter,
+    QPainterPath,
+    QPaintEvent,
+    QPen,
+    QPixmap,
+    QPolygonF,
+)
+from PySide6.QtWidgets import QLabel, QSizePolicy, QVBoxLayout, QWidget
+
+from app.controller import Controller
+from core.errors import TowboardError
+from core.model.plan import Stage
+from core.solve.holdlimits import (
+    HoldLimits,
+    hold_limits,
+    hold_limits_problem,
+    limit_at,
+    live_hold_limits,
+)
+from core.units import DisplayUnits, label
+
+ALL_TUGS = QColor("#1e63b8")
+TUG_LOST = QColor("#c0561b")
+PLANNED = QColor("#2b3440")
+PLANNED_MARK = QColor("#8e1b1b")
+RING = QColor("#c9d6e0")
+SPOKE = QColor("#e2eaf0")
+TEXT = QColor("#1d252d")
+MUTED = QColor("#607080")
+HELD_FILL = QColor(30, 99, 184, 28)
+
+#: Ring spacings offered, in the display speed unit.
+STEPS = (1.0, 2.0, 5.0, 10.0, 15.0, 20.0, 25.0, 50.0, 100.0)
+#: While a drag is in progress the worst-tug-lost curve is swept again at most this
+#: often, seconds (the all-tugs curve follows every mouse move).
+LOST_EVERY_S = 0.05
+#: The plot's outer ring never goes beyond this many m/s (about 78 kn): a harbour
+#: move is never planned in more wind, and higher limits would squeeze the rest.
+TOP_CAP_MS = 40.0
+
+
+def ring_step(top: float) -> float:
+    """A ring spacing giving three to six rings up to ``top``."""
+    for s in STEPS:
+        if top / s <= 6:
+            return s
+    return STEPS[-1]
+
+
+class HoldPlot(QWidget):
+    """Paints a :class:`core.solve.pulls.holdlimits.HoldLimits` (or a message when there is none)."""
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.limits: HoldLimits | None = None
+        self.stage: Stage | None = None
+        self.units = DisplayUnits()
+        self.message = "No hold limits yet."
+        self.coarse = False
+        self.lost_curve: tuple[np.ndarray, np.ndarray] | None = None
+        self._grid_cache: QPixmap | None = None
+        self._grid_key: object = None
+        self.setMinimumSize(220, 220)
+        self.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
+
+    def sizeHint(self) -> QSize:
+        return QSize(360, 380)
+
+    def set_data(
+        self,
+        limits: HoldLimits | None,
+        stage: Stage | None,
+        units: DisplayUnits,
+        message: str = "",
+        coarse: bool = False,
+        lost_curve: tuple[np.ndarray, np.ndarray] | None = None,
+    ) -> None:
+        """Show ``limits``; ``lost_curve`` (directions, m/s) replaces its worst-lost curve
+        (while dragging it is swept on fewer directions than the all-tugs curve)."""
+        self.limits, self.stage, self.units = limits, stage, units
+        self.message = message
+        self.coarse = coarse
+        self.lost_curve = lost_curve
+        self.update()
+
+    # -- geometry -------------------------------------------------------------------
+    def scale_top(self) -> tuple[float, float]:
+        """(outer ring, ring step) in the display speed unit.
+
+        The plot reaches past the planned wind and the stage's wind limit, and follows
+        the all-tugs curve up to 2.5 times the planned wind (at least 30 kn, at most
+        :data:`TOP_CAP_MS`): the region a planner reads stays large; a limit beyond
+        the outer ring is drawn on it.
+        """
+        knot = 1852.0 / 3600.0
+        base = 10.0 * knot
+        planned = 0.0
+        if self.stage is not None:
+            planned = self.stage.conditions.wind_speed_ms
+            base = max(base, planned * 1.25)
+            if self.stage.limits.max_wind_ms is not None:
+                base = max(base, self.stage.limits.max_wind_ms * 1.1)
+        cap = min(max(2.5 * planned, 30.0 * knot, base), max(TOP_CAP_MS, base))
+        top_ms = base
+        if self.limits is not None:
+            v = np.asarray(self.limits.all_tugs_ms, float)
+            finite = v[np.isfinite(v)]
+            if len(finite):
+                top_ms = max(base, min(float(finite.max()), cap))
+        top = self.units.value(top_ms, "speed")
+        step = ring_step(top)
+        return step * max(1, math.ceil(top / step - 1e-9)), step
+
+    def clipped(self) -> bool:
+        """True when part of the all-tugs curve lies beyond the outer ring."""
+        if self.limits is None:
+            return False
+        top, _ = self.scale_top()
+        v = [self.units.value(float(x), "speed") for x in self.limits.all_tugs_ms]
+        return any((not math.isfinite(x)) or x > top * (1 + 1e-9) for x in v)
+
+    def _frame(self) -> tuple[QPointF, float]:
+        """Centre and radius of the chart: room round it for bearings, under it for the legend."""
+        r = self.rect()
+        legend = 24.0
+        radius = max(min((r.width() - 64.0) / 2.0, (r.height() - legend - 48.0) / 2.0), 20.0)
+        spare = max(r.height() - legend - 48.0 - 2 * radius, 0.0)
+        return QPointF(r.center().x(), 24.0 + spare / 2 + radius), radius
+
+    # -- painting -------------------------------------------------------------------
+    def _grid_pixmap(self, centre: QPointF, radius: float, top: float, step: float) -> QPixmap:
+        """The background, rings and bearings, drawn once per size and scale."""
+        ratio = self.devicePixelRatioF()
+        key = (self.width(), self.height(), ratio, top, step, self.units.unit("speed"))
+        if self._grid_key != key or self._grid_cache is None:
+            pm = QPixmap(round(self.width() * ratio), round(self.height() * ratio))
+            pm.setDevicePixelRatio(ratio)
+            pm.fill(QColor("#ffffff"))
+            g = QPainter(pm)
+            g.setRenderHint(QPainter.RenderHint.Antialiasing)
+            g.setFont(self.font())
+            self._grid(g, centre, radius, top, step)
+            g.end()
+            self._grid_cache, self._grid_key = pm, key
+        return self._grid_cache
+
+    def paintEvent(self, event: QPaintEvent) -> None:
+        p = QPainter(self)
+        p.setRenderHint(QPainter.RenderHint.Antialiasing)
+        centre, radius = self._frame()
+        top, step = self.scale_top()
+        p.drawPixmap(0, 0, self._grid_pixmap(centre, radius, top, step))
+        lim = self.limits
+        if lim is None:
+            self._message(p, centre, self.message or "No hold limits for this stage.")
+            p.end()
+            return
+        k = self.units.value(1.0, "speed")  # display units per m/s
+        dirs = np.asarray(lim.problem.directions_deg, float)
+        all_v = np.asarray(lim.all_tugs_ms, float) * k
+        self._curve(p, centre, radius, top, dirs, all_v, ALL_TUGS, Qt.PenStyle.SolidLine, True)
+        lost_dirs, lost = None, None
+        if self.lost_curve is not None:
+            lost_dirs, lost = self.lost_curve
+        elif len(lim.lost_ms):
+            lost_dirs, lost = dirs, np.asarray(lim.worst_lost_ms, float)
+        if lost is not None and lost_dirs is not None:
+            self._curve(
+                p, centre, radius, top, lost_dirs, lost * k, TUG_LOST, Qt.PenStyle.DashLine, False
+            )
+        self._heading(p, centre, radius)
+        self._planned(p, centre, radius, top)
+        self._legend(p, centre, radius, lost is not None)
+        p.end()
+
+    def _at(self, centre: QPointF, radius: float, top: float, from_deg: float, v: float) -> QPointF:
+        r = radius * min(max(v, 0.0), top) / top if top > 0 else 0.0
+        a = math.radians(from_deg)
+        return QPointF(centre.x() + r * math.sin(a), centre.y() - r * math.cos(a))
+
+    def _grid(self, p: QPainter, centre: QPointF, radius: float, top: float, step: float) -> None:
+        small = QFont(self.font())
+        small.setPointSizeF(max(7.0, self.font().pointSizeF() - 1.0))
+        p.setFont(small)
+        for k in range(0, 360, 30):
+            p.setPen(QPen(SPOKE, 1.0))
+            p.drawLine(centre, self._at(centre, radius, top, k, top))
+            a = math.radians(k)
+            out = QPointF(
+                centre.x() + (radius + 14) * math.sin(a), centre.y() - (radius + 12) * math.cos(a)
+            )
+            text = {0: "N", 90: "E", 180: "S", 270: "W"}.get(k, f"{k:03d}")
+            p.setPen(TEXT if k % 90 == 0 else MUTED)
+            p.drawText(
+                QRectF(out.x() - 18, out.y() - 8, 36, 16), Qt.AlignmentFlag.AlignCenter, text
+            )
+        unit = label(self.units.unit("speed"))
+        n = round(top / step)
+        for i in range(1, n + 1):
+            r = radius * i / n
+            p.setPen(QPen(RING, 1.0))
+            p.setBrush(Qt.BrushStyle.NoBrush)
+            p.drawEllipse(centre, r, r)
+        # Ring values along the spoke 135 degrees true (south-east), every other one if crowded.
+        a = math.radians(135.0)
+        every = 1 if radius / n >= 24 else 2
+        for i in range(1, n + 1):
+            if (n - i) % every:
+                continue
+            r = radius * i / n
+            v = step * i
+            text = f"{v:g} {unit}" if i == n else f"{v:g}"
+            at = QPointF(centre.x() + r * math.sin(a), centre.y() - r * math.cos(a))
+            w = p.fontMetrics().horizontalAdvance(text) + 4
+            box = QRectF(at.x() + 2, at.y() - 2, w, p.fontMetrics().height())
+            p.fillRect(box, QColor(255, 255, 255, 210))
+            p.setPen(MUTED)
+            p.drawText(box, Qt.AlignmentFlag.AlignCenter, text)
+
+    def _curve(
+        self,
+        p: QPainter,
+        centre: QPointF,
+        radius: float,
+        top: float,
+        dirs: np.ndarray,
+        values: np.ndarray,
+        color: QColor,
+        style: Qt.PenStyle,
+        fill: bool,
+    ) -> None:
+        v = np.where(np.isfinite(values), values, top)
+        r = radius * np.clip(v, 0.0, top) / top if top > 0 else np.zeros_like(v)
+        a = np.radians(dirs)
+        xs, ys = centre.x() + r * np.sin(a), centre.y() - r * np.cos(a)
+        path = QPainterPath()
+        path.addPolygon(
+            QPolygonF([QPointF(x, y) for x, y in zip(xs.tolist(), ys.tolist(), strict=True)])
+        )
+        path.closeSubpath()
+        if fill:
+            p.fillPath(path, HELD_FILL)
+        pen = QPen(color, 2.2, style)
+        pen.setJoinStyle(Qt.PenJoinStyle.RoundJoin)
+        p.setPen(pen)
+        p.setBrush(Qt.BrushStyle.NoBrush)
+        p.drawPath(path)
+
+    def _heading(self, p: QPainter, centre: QPointF, radius: float) -> None:
+        """The body's heading: a small hull shape at the centre, bow towards the heading."""
+        if self.limits is None:
+            return
+        h = math.radians(self.limits.problem.heading_deg)
+        ux, uy = math.sin(h), -math.cos(h)  # screen y grows downwards
+        px, py = -uy, ux
+        half, beam = 0.11 * radius, 0.035 * radius
+        cx, cy = centre.x(), centre.y()
+        shape = QPainterPath()
+        shape.moveTo(cx + ux * half * 1.35, cy + uy * half * 1.35)
+        for sx, sy in ((half, beam), (-half, beam), (-half, -beam), (half, -beam)):
+            shape.lineTo(cx + ux * sx + px * sy, cy + uy * sx + py * sy)
+        shape.closeSubpath()
+        p.setPen(QPen(PLANNED, 1.2))
+        p.setBrush(QColor("#d9dde3"))
+        p.drawPath(shape)
+
+    def _planned(self, p: QPainter, centre: QPointF, radius: float, top: float) -> None:
+        """The stage's planned wind: a marked point at its direction and speed."""
+        if self.stage is None:
+            return
+        c = self.stage.conditions
+        v = self.units.value(c.wind_speed_ms, "speed")
+        pt = self._at(centre, radius, top, c.wind_from_deg, v)
+        p.setPen(QPen(PLANNED_MARK, 2.0))
+        p.setBrush(QColor("#ffffff"))
+        p.drawEllipse(pt, 6.0, 6.0)
+        p.setBrush(PLANNED_MARK)
+        p.drawEllipse(pt, 2.5, 2.5)
+        text = f"planned {self.units.show(c.wind_speed_ms, 'speed')} from {c.wind_from_deg:03.0f}°"
+        w = p.fontMetrics().horizontalAdvance(text) + 6
+        right = pt.x() < centre.x() + radius * 0.3
+        box = QRectF(
+            pt.x() + 9 if right else pt.x() - 9 - w, pt.y() - 20, w, p.fontMetrics().height() + 2
+        )
+        p.fillRect(box, QColor(255, 255, 255, 215))
+        p.setPen(PLANNED_MARK)
+        p.drawText(box, Qt.AlignmentFlag.AlignCenter, text)
+
+    def _legend(self, p: QPainter, centre: QPointF, radius: float, lost: bool) -> None:
+        y = min(centre.y() + radius + 30, self.height() - 14.0)
+        x = 8.0
+        entries = [(ALL_TUGS, Qt.PenStyle.SolidLine, "all tugs")]
+        if lost:
+            entries.append((TUG_LOST, Qt.PenStyle.DashLine, "worst tug lost"))
+        for color, style, text in entries:
+            p.setPen(QPen(color, 2.2, style))
+            p.drawLine(QPointF(x, y), QPointF(x + 22, y))
+            p.setPen(TEXT)
+            p.drawText(QPointF(x + 27, y + 4), text)
+            x += 40 + p.fontMetrics().horizontalAdvance(text)
+        p.setPen(MUTED)
+        note = "5°/10° steps" if self.coarse else ""
+        if self.clipped():
+            note = "higher: on the rim" + (f"; {note}" if note else "")
+        if note:
+            p.drawText(QPointF(x, y + 4), note)
+
+    def _message(self, p: QPainter, at: QPointF, text: str) -> None:
+        p.setPen(QColor("#b71c1c"))
+        rect = QRectF(at.x() - 150, at.y() - 30, 300, 60)
+        p.drawText(rect, Qt.AlignmentFlag.AlignCenter | Qt.TextFlag.TextWordWrap, text)
+
+
+class HoldLimitsPanel(QWidget):
+    """The plot with a line of figures under it, kept up to date with the controller.
+
+    While a drag is in progress the all-tugs sweep runs every 5 degrees on every mouse
+    move, and the worst-tug-lost sweep every 10 degrees up to 20 times a second, so the
+    plot follows the mouse; once the edit settles both run every degree.
+    """
+
+    def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.controller = controller
+        self.plot = HoldPlot()
+        self.warning = QLabel("")
+        self.warning.setWordWrap(True)
+        self.warning.setStyleSheet("color: #b71c1c;")
+        self.caption = QLabel("")
+        self.caption.setWordWrap(True)
+        self.caption.setStyleSheet("color: #37474f;")
+        layout = QVBoxLayout(self)
+        layout.setContentsMargins(4, 4, 4, 4)
+        layout.addWidget(self.plot, 1)
+        layout.addWidget(self.warning)
+        layout.addWidget(self.caption)
+        self.setToolTip(EXPLAIN)
+        self.limits: HoldLimits | None = None
+        self._lost_at: float | None = None
+        self._lost_curve: tuple[np.ndarray, np.ndarray] | None = None
+        self._timer = QTimer(self)
+        self._timer.setSingleShot(True)
+        self._timer.setInterval(0)
+        self._timer.timeout.connect(lambda: self.update_now(coarse=False))
+        controller.changed.connect(self._changed)
+        self.update_now(coarse=False)
+
+    def _changed(self) -> None:
+        if self.controller.previewing:
+            self._timer.stop()
+            self.update_now(coarse=True)
+        else:
+            self._timer.start()
+
+    def update_now(self, coarse: bool) -> None:
+        c = self.controller
+        stage = c.stage
+        units = c.project.units
+        body = c.main_body()
+        self.limits = None
+        self.warning.setText("")
+        if stage is None or body is None or not stage.placements:
+            self.plot.set_data(None, stage, units, "Place tugs to see what wind they can hold.")
+            self.caption.setText("")
+            return
+        dirs = np.arange(0.0, 360.0, 5.0 if coarse else 1.0)
+        lost_curve = None
+        try:
+            r = c.results().get(body)
+            problem = hold_limits_problem(
+                c.project, stage, body, directions_deg=dirs, layout=r.layout if r else None
+            )
+            if coarse:
+                # While dragging: all tugs every 5 degrees on every move; each tug lost
+                # every 10 degrees, at most LOST_EVERY_S apart (the costlier sweep).
+                now = time.perf_counter()
+                fresh = self._lost_at is None or now - self._lost_at >= LOST_EVERY_S
+                lim, lost_dirs, worst = live_hold_limits(problem, lost_step=2 if fresh else 0)
+                if fresh:
+                    self._lost_at = now
+                    self._lost_curve = (lost_dirs, worst) if len(problem.tugs) else None
+                lost_curve = self._lost_curve
+            else:
+                self._lost_at = None
+                lim = hold_limits(problem)
+        except TowboardError as e:
+            self.plot.set_data(None, stage, units, f"No hold limits: {e}")
+            self.caption.setText("")
+            return
+        self.limits = lim
+        msg = ""
+        if not lim.holds_current:
+            msg = "The tugs as set cannot hold the current alone (only some winds help)."
+        elif float(np.min(lim.all_tugs_ms)) <= 0:
+            msg = "From some directions the tugs as set cannot hold any wind."
+        self.warning.setText(msg)
+        self.plot.set_data(lim, stage, units, msg, coarse, lost_curve)
+        self.caption.setText(summary(lim, stage, units))
+
+
+def summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
+    """The plot's figures in two short sentences: from the planned direction, and the lowest."""
+    d_all, v_all = lim.lowest()
+    c = stage.conditions
+    at = limit_at(lim, c.wind_from_deg)
+    text = f"From {c.wind_from_deg:03.0f}°T: {_speed(at, units)} with all tugs"
+    if len(lim.lost_ms):
+        lost = limit_at(lim, c.wind_from_deg, lim.worst_lost_ms)
+        text += f", {_speed(lost, units)} with the worst tug lost"
+    text += f" (planned {units.show(c.wind_speed_ms, 'speed')}). "
+    text += f"Lowest: {_speed(v_all, units)} from {d_all:03.0f}°T"
+    if len(lim.lost_ms):
+        d_l, v_l = lim.lowest(lim.worst_lost_ms)
+        who = lim.worst_lost_tug[int(np.argmin(lim.worst_lost_ms))]
+        text += f"; {_speed(v_l, units)} from {d_l:03.0f}°T losing {who}"
+    return text + "."
+
+
+EXPLAIN = (
+    "The highest wind the tugs can hold the body against, by the true direction it blows "
+    "from (north up), with the current as set and the leads as set. Speeds are in the same "
+    "measure as the stage's wind: the mean at its stated height, with its gust factor."
+)
+
+
+def _speed(v: float, units: DisplayUnits) -> str:
+    return "any wind" if not math.isfinite(v) else units.show(v, "speed")

@@ -1,0 +1,275 @@
+"""The stage shown, in detail: its kind, notes, go / no-go limits and where the bodies lie.
+
+Every field is in the display units and writes back through the controller as one
+undoable edit when it is finished (Enter or leaving the field). A field left empty
+means "not set" for a limit. Bad input is refused with a message naming the field,
+and the field shows the plan's value again.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import replace
+
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import (
+    QComboBox,
+    QFormLayout,
+    QGroupBox,
+    QHBoxLayout,
+    QHeaderView,
+    QLabel,
+    QLineEdit,
+    QPlainTextEdit,
+    QTableWidget,
+    QTableWidgetItem,
+    QVBoxLayout,
+    QWidget,
+)
+
+from app.controller import Controller
+from core.errors import InputError
+from core.mechanics.site import body_pose
+from core.model.plan import STAGE_KINDS, BodyPose, Stage
+from core.units import Quantity, fmt, label
+
+
+def parse_number(text: str, field: str) -> float:
+    """A finite number typed by a person (a comma as the decimal mark is accepted)."""
+    t = text.strip().replace(",", ".")
+    try:
+        v = float(t)
+    except ValueError:
+        raise InputError(field, text, "is not a number") from None
+    if not math.isfinite(v):
+        raise InputError(field, text, "must be finite")
+    return v
+
+
+def _with_unit(field: QWidget, unit: QLabel) -> QWidget:
+    box = QWidget()
+    h = QHBoxLayout(box)
+    h.setContentsMargins(0, 0, 0, 0)
+    h.addWidget(field, 1)
+    h.addWidget(unit)
+    return box
+
+
+class _Notes(QPlainTextEdit):
+    """Notes that are written back when the field loses the focus."""
+
+    def __init__(self, done, parent: QWidget | None = None) -> None:  # type: ignore[no-untyped-def]
+        super().__init__(parent)
+        self._done = done
+
+    def focusOutEvent(self, event) -> None:  # type: ignore[no-untyped-def]
+        super().focusOutEvent(event)
+        self._done()
+
+
+class StageDetails(QWidget):
+    """Kind, notes, limits and poses of the stage shown; the plan's clearance margin."""
+
+    LIMITS: tuple[tuple[str, str, Quantity], ...] = (
+        ("max_wind_ms", "Max wind", "speed"),
+        ("max_current_ms", "Max current", "speed"),
+        ("min_clearance_m", "Min clearance", "length"),
+    )
+
+    def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.controller = controller
+        self._filling = False
+        self.setObjectName("stage_details")
+        self.title = QLabel(self)
+        self.kind = QComboBox(self)
+        self.kind.addItems(list(STAGE_KINDS))
+        self.kind.currentTextChanged.connect(self._kind_chosen)
+        self.notes = _Notes(self._notes_done, self)
+        self.notes.setPlaceholderText("Notes for the briefing: order of work, who does what…")
+        self.notes.setMaximumHeight(90)
+        self.limit_fields: dict[str, QLineEdit] = {}
+        self.limit_units: dict[str, QLabel] = {}
+        limits = QGroupBox("Go / no-go limits (empty: not set)", self)
+        form = QFormLayout(limits)
+        for key, text, _q in self.LIMITS:
+            f = QLineEdit(self)
+            f.setObjectName(f"limit_{key}")
+            f.editingFinished.connect(lambda k=key: self._limit_done(k))
+            unit = QLabel(self)
+            form.addRow(text, _with_unit(f, unit))
+            self.limit_fields[key] = f
+            self.limit_units[key] = unit
+        self.margin = QLineEdit(self)
+        self.margin.setObjectName("clearance_margin")
+        self.margin.editingFinished.connect(self._margin_done)
+        self.margin_unit = QLabel(self)
+        form.addRow("Plan clearance margin", _with_unit(self.margin, self.margin_unit))
+        self.poses = QTableWidget(0, 4, self)
+        self.poses.setObjectName("stage_poses")
+        self.poses.verticalHeader().setVisible(False)
+        self.poses.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.Stretch)
+        self.poses.itemChanged.connect(self._pose_edited)
+        self.poses.setMaximumHeight(110)
+        top = QFormLayout()
+        top.addRow("Kind", self.kind)
+        layout = QVBoxLayout(self)
+        layout.setContentsMargins(4, 4, 4, 4)
+        layout.addWidget(self.title)
+        layout.addLayout(top)
+        layout.addWidget(QLabel("Notes", self))
+        layout.addWidget(self.notes)
+        layout.addWidget(limits)
+        layout.addWidget(QLabel("Where the bodies lie (site: x east, y north; heading true)", self))
+        layout.addWidget(self.poses)
+        layout.addStretch(1)
+        controller.changed.connect(self._changed)
+        self.fill()
+
+    # -- showing -------------------------------------------------------------------------
+    def _stage(self) -> Stage | None:
+        return self.controller.stage
+
+    def _changed(self) -> None:
+        self.fill()
+
+    def fill(self, force: bool = False) -> None:
+        """Fields in line with the plan; a field being typed in is left alone unless ``force``."""
+        stage = self._stage()
+        project = self.controller.project
+        u = project.units
+        self._filling = True
+        try:
+            on = stage is not None
+            for w in (self.kind, self.notes, self.poses, *self.limit_fields.values()):
+                w.setEnabled(on)
+            i = self.controller.stage_index
+            self.title.setText(
+                f"<b>Stage {i + 1}: {stage.name}</b>" if stage is not None else "<b>No stage</b>"
+            )
+            if stage is not None:
+                self.kind.setCurrentText(stage.kind)
+                if (force or not self.notes.hasFocus()) and self.notes.toPlainText() != stage.notes:
+                    self.notes.setPlainText(stage.notes)
+                for key, _text, q in self.LIMITS:
+                    v = getattr(stage.limits, key)
+                    f = self.limit_fields[key]
+                    if force or not f.hasFocus():
+                        f.setText("" if v is None else fmt(u.value(v, q), 2))
+                    self.limit_units[key].setText(label(u.unit(q)))
+            if force or not self.margin.hasFocus():
+                self.margin.setText(fmt(u.value(project.clearance_margin_m, "length"), 2))
+            self.margin_unit.setText(label(u.unit("length")))
+            self._fill_poses(stage)
+        finally:
+            self._filling = False
+
+    def _fill_poses(self, stage: Stage | None) -> None:
+        project = self.controller.project
+        u = project.units
+        ln = label(u.unit("length"))
+        self.poses.setHorizontalHeaderLabels(["Body", f"x ({ln})", f"y ({ln})", "Heading (°)"])
+        if stage is None:
+            self.poses.setRowCount(0)
+            return
+        names = project.body_names()
+        self.poses.setRowCount(len(names))
+        for r, name in enumerate(names):
+            pose = body_pose(project, stage, name)
+            cells = [
+                name,
+                fmt(u.value(pose.x, "length"), 1),
+                fmt(u.value(pose.y, "length"), 1),
+                f"{pose.heading_deg % 360:05.1f}",
+            ]
+            for c, text in enumerate(cells):
+                item = self.poses.item(r, c)
+                if item is None:
+                    item = QTableWidgetItem()
+                    self.poses.setItem(r, c, item)
+                if c == 0:
+                    item.setFlags(item.flags() & ~Qt.ItemFlag.ItemIsEditable)
+                if item.text() != text:
+                    item.setText(text)
+
+    # -- editing -------------------------------------------------------------------------
+    def _refuse(self, e: InputError) -> None:
+        self.controller.message.emit(f"Not changed: {e.field} {e.value!r} {e.reason}")
+        self.fill(force=True)
+
+    def _write(self, stage: Stage, text: str) -> None:
+        new = self.controller.with_stage(stage)
+        self.controller.apply(new, text)
+
+    def _kind_chosen(self, kind: str) -> None:
+        stage = self._stage()
+        if self._filling or stage is None or kind == stage.kind:
+            return
+        self._write(replace(stage, kind=kind), f"Stage {stage.name}: kind {kind}")
+
+    def _notes_done(self) -> None:
+        stage = self._stage()
+        if self._filling or stage is None:
+            return
+        text = self.notes.toPlainText()
+        if text != stage.notes:
+            self._write(replace(stage, notes=text), f"Stage {stage.name}: notes")
+
+    def _limit_done(self, key: str) -> None:
+        stage = self._stage()
+        if self._filling or stage is None:
+            return
+        q = next(q for k, _t, q in self.LIMITS if k == key)
+        name = next(t for k, t, _q in self.LIMITS if k == key).lower()
+        text = self.limit_fields[key].text()
+        u = self.controller.project.units
+        try:
+            value = None if not text.strip() else u.si(parse_number(text, name), q)
+            limits = replace(stage.limits, **{key: value})
+        except InputError as e:
+            self._refuse(e)
+            return
+        if limits != stage.limits:
+            self._write(replace(stage, limits=limits), f"Stage {stage.name}: {name}")
+
+    def _margin_done(self) -> None:
+        if self._filling:
+            return
+        p = self.controller.project
+        try:
+            v = p.units.si(parse_number(self.margin.text(), "clearance margin"), "length")
+            new = replace(p, clearance_margin_m=v)
+        except InputError as e:
+            self._refuse(e)
+            return
+        if new != p:
+            self.controller.apply(new, "Clearance margin")
+
+    def _pose_edited(self, item: QTableWidgetItem) -> None:
+        stage = self._stage()
+        if self._filling or stage is None or item.column() == 0:
+            return
+        project = self.controller.project
+        u = project.units
+        name = self.poses.item(item.row(), 0).text()
+        pose = body_pose(project, stage, name)
+        field = {1: "x", 2: "y", 3: "heading"}[item.column()]
+        try:
+            v = parse_number(item.text(), f"{name}: {field}")
+            if field == "heading":
+                new = BodyPose(name, pose.x, pose.y, v % 360.0)
+            else:
+                si = u.si(v, "length")
+                new = (
+                    BodyPose(name, si, pose.y, pose.heading_deg)
+                    if field == "x"
+                    else BodyPose(name, pose.x, si, pose.heading_deg)
+                )
+        except InputError as e:
+            self._refuse(e)
+            return
+        if any(p.body == name for p in stage.poses):  # in its place, as the file had it
+            poses = tuple(new if p.body == name else p for p in stage.poses)
+        else:
+            poses = (*stage.poses, new)
+        self._write(replace(stage, poses=poses), f"Stage {stage.name}: move {name}")

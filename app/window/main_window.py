@@ -1,0 +1,536 @@
+"""Towboard's main window: the board in the middle, panels beside it, files and undo.
+
+Hooks for other parts of the program (keep them when editing):
+
+- ``window.menu(key)`` returns one of the menus: "file", "edit", "view", "board",
+  "tugs", "plan", "solve", "help" (plan: stages and the briefing; solve: conditions,
+  solving pulls, hold limits).
+- ``window.add_file_action(action)`` puts an action (print preview, export PDF) in the
+  File menu above Quit.
+- ``window.add_panel(key, widget, title, area, tabify_with=None)`` docks a panel and
+  lists it in the View menu; ``window.panels[key]`` are the docks
+  ("balance", "hull", "units", "tugs").
+- ``window.controller`` (app.controller.Controller), ``window.board`` (BoardScene),
+  ``window.view`` (BoardView), ``window.stage_box`` (the stage chooser on the toolbar).
+"""
+
+from __future__ import annotations
+
+import os
+import sys
+from pathlib import Path
+
+from PySide6.QtCore import QSettings, Qt
+from PySide6.QtGui import QAction, QActionGroup, QCloseEvent, QKeySequence
+from PySide6.QtWidgets import (
+    QApplication,
+    QComboBox,
+    QDockWidget,
+    QFileDialog,
+    QLabel,
+    QMainWindow,
+    QMenu,
+    QMessageBox,
+    QToolBar,
+    QVBoxLayout,
+    QWidget,
+)
+
+from app.board.scene import BoardScene
+from app.board.view import BoardView
+from app.controller import Controller
+from app.panels.balance_panel import BalancePanel
+from app.panels.hull_panel import HullPanel
+from app.panels.tugs_panel import TugsPanel
+from app.panels.units_panel import UnitsPanel
+from app.window.outline_dialog import OutlineDialog
+from app.window.plan_ui import install as install_plan
+from app.window.recovery import RecoveryWriter, find_orphans
+from app.window.solve_ui import install as install_solve
+from core.errors import ProjectFileError, TowboardError
+from core.io.projectfile import SUFFIX, load, save
+from core.io.report import CAUTION
+from core.model.hull import Hull
+from core.model.plan import Project, Stage
+
+SAMPLE = Path(__file__).resolve().parents[2] / "sample_projects" / "deck_barge_unberth.towboard"
+FILE_FILTER = f"Towboard plans (*{SUFFIX});;All files (*)"
+MAX_RECENT = 8
+
+CAUTION_LINE = (
+    "Planning aid only. Certified bollard pulls, fitting ratings, the master, the pilot "
+    "and local port rules govern."
+)
+
+
+BOARD_HELP = """Select / drag: drag a tug to change its line's lead and length (a pushing tug
+swings round its push point); drag a line point or push point along the hull; select the
+hull (click inside it) to show its vertices, then drag one. Double-click the hull's edge to
+insert a vertex; Delete removes the selected vertex or point, or lets go the selected tug.
+
+A selected tug: + and − change its setting by 1 %, Page Up and Page Down by 10 %, the wheel
+over it by 5 % a notch (always within 0 to 100 %). Arrow keys nudge the selection (Shift:
+ten times as far). Drag empty water or use the middle button to pan; the wheel zooms
+round the cursor.
+
+Draw outline: click the vertices, then click the first one again (or press Enter) to close;
+Backspace takes the last vertex back, Esc stops. Add line point / push point: click the hull's
+edge; the point snaps onto it.
+
+A drag is one undo step; steps of the same tug or point in a row are one undo step too."""
+
+
+def new_project() -> Project:
+    """An empty plan with one stage, ready for a hull to be drawn."""
+    return Project(name="Untitled plan", stages=(Stage("Stage 1"),))
+
+
+def settings() -> QSettings:
+    """The program's settings (``$TOWBOARD_SETTINGS_FILE`` makes them an ini file, for tests)."""
+    path = os.environ.get("TOWBOARD_SETTINGS_FILE")
+    if path:
+        return QSettings(path, QSettings.Format.IniFormat)
+    return QSettings("Towboard", "Towboard")
+
+
+class MainWindow(QMainWindow):
+    """The board, its panels, the menus and the file handling."""
+
+    def __init__(self, project: Project | None = None, path: Path | None = None) -> None:
+        super().__init__()
+        self.controller = Controller(project if project is not None else new_project(), self)
+        if path is not None:
+            self.controller.mark_saved(path)
+        self.board = BoardScene(self.controller)
+        self.view = BoardView(self.board)
+        self.panels: dict[str, QDockWidget] = {}
+        self._menus: dict[str, QMenu] = {}
+        self._build_central()
+        self._build_panels()
+        self._build_actions()
+        self._build_menus()
+        self._build_toolbar()
+        self._connect()
+        install_plan(self)  # the stage list, the site on the board, print and PDF
+        install_solve(self)  # conditions, solve pulls, tug lost check, hold limits
+        self.recovery = RecoveryWriter(self.controller)
+        self.resize(1400, 900)
+        self._update_title()
+
+    # -- layout -----------------------------------------------------------------------
+    def _build_central(self) -> None:
+        central = QWidget()
+        layout = QVBoxLayout(central)
+        layout.setContentsMargins(0, 0, 0, 0)
+        layout.setSpacing(0)
+        layout.addWidget(self.view, 1)
+        self.caution = QLabel(f"⚠ {CAUTION_LINE}")
+        self.caution.setObjectName("caution")
+        self.caution.setToolTip(CAUTION)
+        self.caution.setWordWrap(True)
+        self.caution.setStyleSheet(
+            "QLabel#caution { background: #fff4d6; color: #5d4a1f; padding: 4px 8px;"
+            " border-top: 1px solid #e0c98a; }"
+        )
+        layout.addWidget(self.caution)
+        self.setCentralWidget(central)
+
+    def add_panel(
+        self,
+        key: str,
+        widget: QWidget,
+        title: str,
+        area: Qt.DockWidgetArea = Qt.DockWidgetArea.RightDockWidgetArea,
+        tabify_with: str | None = None,
+    ) -> QDockWidget:
+        """Dock ``widget`` as a panel called ``title``; listed in the View menu."""
+        dock = QDockWidget(title, self)
+        dock.setObjectName(f"panel_{key}")
+        dock.setWidget(widget)
+        self.addDockWidget(area, dock)
+        if tabify_with is not None and tabify_with in self.panels:
+            self.tabifyDockWidget(self.panels[tabify_with], dock)
+        self.panels[key] = dock
+        if "view" in self._menus:
+            self._menus["view"].addAction(dock.toggleViewAction())
+        return dock
+
+    def _build_panels(self) -> None:
+        c = self.controller
+        self.balance_panel = BalancePanel(c)
+        self.hull_panel = HullPanel(c)
+        self.units_panel = UnitsPanel(c)
+        self.tugs_panel = TugsPanel(c)
+        self.add_panel("balance", self.balance_panel, "Balance")
+        self.add_panel("hull", self.hull_panel, "Hull", tabify_with="balance")
+        self.add_panel("units", self.units_panel, "Units", tabify_with="balance")
+        self.panels["balance"].raise_()
+        self.add_panel("tugs", self.tugs_panel, "Tugs", Qt.DockWidgetArea.BottomDockWidgetArea)
+        self.resizeDocks([self.panels["balance"]], [400], Qt.Orientation.Horizontal)
+        self.resizeDocks([self.panels["tugs"]], [230], Qt.Orientation.Vertical)
+
+    def _action(self, text: str, slot, shortcut=None, tip: str = "") -> QAction:  # type: ignore[no-untyped-def]
+        a = QAction(text, self)
+        if shortcut is not None:
+            a.setShortcut(QKeySequence(shortcut))
+        if tip:
+            a.setStatusTip(tip)
+            a.setToolTip(tip)
+        a.triggered.connect(slot)
+        return a
+
+    def _build_actions(self) -> None:
+        K = QKeySequence.StandardKey
+        self.act_new = self._action("&New", self.file_new, K.New, "Start a new plan")
+        self.act_open = self._action("&Open…", self.file_open, K.Open, "Open a .towboard file")
+        self.act_save = self._action("&Save", self.file_save, K.Save, "Save the plan")
+        self.act_save_as = self._action(
+            "Save &As…", self.file_save_as, K.SaveAs, "Save under a new name"
+        )
+        self.act_quit = self._action("&Quit", self.close, K.Quit)
+        self.act_undo = self.controller.undo_stack.createUndoAction(self, "&Undo")
+        self.act_undo.setShortcut(QKeySequence(K.Undo))
+        self.act_redo = self.controller.undo_stack.createRedoAction(self, "&Redo")
+        self.act_redo.setShortcut(QKeySequence(K.Redo))
+        self.act_delete = self._action(
+            "&Delete",
+            self.board.interaction.delete_selection,
+            K.Delete,
+            "Delete the selected vertex or point, or let go the selected tug",
+        )
+        self.act_delete.setShortcutContext(Qt.ShortcutContext.WidgetWithChildrenShortcut)
+        self.view.addAction(self.act_delete)
+        self.act_fit = self._action(
+            "&Fit to hull", self.view.fit_to_hull, "Ctrl+0", "Zoom to the bodies"
+        )
+        self.act_zoom_in = self._action("Zoom &in", lambda: self.view.zoom(1.25), K.ZoomIn)
+        self.act_zoom_out = self._action("Zoom &out", lambda: self.view.zoom(0.8), K.ZoomOut)
+        self.act_generate = self._action(
+            "Outline from &dimensions…",
+            self.generate_outline,
+            tip="Make an outline from length, beam and shape",
+        )
+        self.tool_actions: dict[str, QAction] = {}
+        group = QActionGroup(self)
+        for key, text, tip in (
+            ("select", "Select / drag", "Select and drag tugs, points and vertices"),
+            (
+                "draw",
+                "Draw outline",
+                "Click the vertices of an outline; click the first one to close",
+            ),
+            ("line_point", "Add line point", "Click the hull edge to add a line point"),
+            ("push_point", "Add push point", "Click the hull edge to add a push point"),
+        ):
+            a = self._action(text, lambda _=False, k=key: self.board.set_tool(k), tip=tip)
+            a.setCheckable(True)
+            group.addAction(a)
+            self.tool_actions[key] = a
+        self.tool_actions["select"].setChecked(True)
+        self.act_add_tug = self._action("&Add tug", self.tugs_panel.add_tug)
+        self.act_dup_tug = self._action("&Duplicate tug", self.tugs_panel.duplicate_tug)
+        self.act_remove_tug = self._action("&Remove tug", self.tugs_panel.remove_tug)
+
+    def menu(self, key: str) -> QMenu:
+        """One of the window's menus by key (see the module docstring)."""
+        return self._menus[key]
+
+    def add_file_action(self, action: QAction) -> None:
+        """Put ``action`` in the File menu, above Quit."""
+        self._menus["file"].insertAction(self._file_tail, action)
+
+    def _build_menus(self) -> None:
+        bar = self.menuBar()
+        for key, title in (
+            ("file", "&File"),
+            ("edit", "&Edit"),
+            ("view", "&View"),
+            ("board", "&Board"),
+            ("tugs", "&Tugs"),
+            ("plan", "&Plan"),
+            ("solve", "&Solve"),
+            ("help", "&Help"),
+        ):
+            self._menus[key] = bar.addMenu(title)
+        f = self._menus["file"]
+        f.addActions([self.act_new, self.act_open])
+        self.recent_menu = f.addMenu("Open &Recent")
+        f.addSeparator()
+        f.addActions([self.act_save, self.act_save_as])
+        self._file_tail = f.addSeparator()
+        f.addAction(self.act_quit)
+        e = self._menus["edit"]
+        e.addActions([self.act_undo, self.act_redo])
+        e.addSeparator()
+        e.addAction(self.act_delete)
+        v = self._menus["view"]
+        v.addActions([self.act_fit, self.act_zoom_in, self.act_zoom_out])
+        v.addSeparator()
+        for dock in self.panels.values():
+            v.addAction(dock.toggleViewAction())
+        b = self._menus["board"]
+        b.addActions(list(self.tool_actions.values()))
+        b.addSeparator()
+        b.addAction(self.act_generate)
+        self._menus["tugs"].addActions([self.act_add_tug, self.act_dup_tug, self.act_remove_tug])
+        self._menus["help"].addAction(self._action("Mouse and keys on the board", self._board_help))
+        self._menus["help"].addAction(self._action("About Towboard", self._about))
+        self._rebuild_recent()
+
+    def _build_toolbar(self) -> None:
+        tb = QToolBar("Board")
+        tb.setObjectName("toolbar_board")
+        self.addToolBar(tb)
+        tb.addActions([self.act_undo, self.act_redo])
+        tb.addSeparator()
+        tb.addActions(list(self.tool_actions.values()))
+        tb.addAction(self.act_generate)
+        tb.addSeparator()
+        tb.addAction(self.act_fit)
+        tb.addSeparator()
+        tb.addWidget(QLabel(" Stage "))
+        self.stage_box = QComboBox()
+        self.stage_box.setMinimumContentsLength(28)
+        self.stage_box.currentIndexChanged.connect(self.controller.set_stage_index)
+        tb.addWidget(self.stage_box)
+        self.toolbar = tb
+
+    def _connect(self) -> None:
+        c = self.controller
+        c.changed.connect(self._update_title)
+        c.changed.connect(self._sync_stage_box)
+        c.dirty_changed.connect(lambda _d: self._update_title())
+        c.path_changed.connect(self._update_title)
+        c.message.connect(lambda text: self.statusBar().showMessage(text, 8000))
+        self.board.selection_changed.connect(self._board_selection)
+        self.board.tool_changed.connect(self._tool_changed)
+        self.board.refresh_hooks.append(lambda s: self.balance_panel.set_stale(s.stale))
+        self.tugs_panel.tug_selected.connect(lambda name: self.board.select(("tug", name)))
+        self.hull_panel.generate_requested.connect(self.generate_outline)
+        self._sync_stage_box()
+
+    # -- keeping things in step -----------------------------------------------------------
+    def _update_title(self) -> None:
+        c = self.controller
+        where = c.path.name if c.path is not None else "not saved"
+        self.setWindowTitle(f"{c.project.name} — {where}[*] — Towboard")
+        self.setWindowModified(c.dirty)
+
+    def _sync_stage_box(self) -> None:
+        names = [f"{i + 1}. {s.name}" for i, s in enumerate(self.controller.project.stages)]
+        box = self.stage_box
+        box.blockSignals(True)
+        if [box.itemText(i) for i in range(box.count())] != names:
+            box.clear()
+            box.addItems(names)
+        box.setCurrentIndex(min(self.controller.stage_index, len(names) - 1))
+        box.blockSignals(False)
+
+    def _board_selection(self) -> None:
+        sel = self.board.selection
+        self.tugs_panel.select_tug(self.board.selected_tug())
+        hull = self.board.selected_hull()
+        if hull is not None:
+            self.hull_panel.show_hull(hull)
+        del sel
+
+    def _tool_changed(self, tool: str) -> None:
+        a = self.tool_actions.get(tool)
+        if a is not None and not a.isChecked():
+            a.setChecked(True)
+
+    # -- outline from dimensions ------------------------------------------------------------
+    def generate_outline(self) -> None:
+        c = self.controller
+        target = self.board.selected_hull() or self.hull_panel.current
+        hull = next((h for h in c.project.hulls if h.name == target), None)
+        dlg = OutlineDialog(self, *(hull.geometry.length, hull.geometry.beam) if hull else ())
+        if dlg.exec() != OutlineDialog.DialogCode.Accepted:
+            return
+        try:
+            outline = dlg.outline()
+            if hull is not None:
+                c.apply(
+                    c.project.with_hull(hull.with_outline(outline)), f"New outline of {hull.name}"
+                )
+            else:
+                names = {h.name for h in c.project.hulls}
+                n = 1
+                while f"Hull {n}" in names:
+                    n += 1
+                project, _stage = c.ensure_stage(c.project)
+                c.apply(project.with_hull(Hull(f"Hull {n}", outline)), f"Add Hull {n}")
+        except TowboardError as e:
+            QMessageBox.warning(self, "Outline not made", str(e))
+            return
+        self.view.fit_to_hull()
+
+    # -- files --------------------------------------------------------------------------
+    def maybe_discard(self) -> bool:
+        """True when the current plan may be replaced (saved, or the user said so)."""
+        if not self.controller.dirty:
+            return True
+        answer = QMessageBox.question(
+            self,
+            "Unsaved changes",
+            f"Save the changes to “{self.controller.project.name}” first?",
+            QMessageBox.StandardButton.Save
+            | QMessageBox.StandardButton.Discard
+            | QMessageBox.StandardButton.Cancel,
+            QMessageBox.StandardButton.Save,
+        )
+        if answer == QMessageBox.StandardButton.Save:
+            return self.file_save()
+        return answer == QMessageBox.StandardButton.Discard
+
+    def file_new(self) -> None:
+        if self.maybe_discard():
+            self.controller.reset(new_project())
+            self.view.fit_to_hull()
+
+    def file_open(self) -> None:
+        if not self.maybe_discard():
+            return
+        start = str(self.controller.path.parent) if self.controller.path else ""
+        name, _ = QFileDialog.getOpenFileName(self, "Open plan", start, FILE_FILTER)
+        if name:
+            self.open_path(Path(name), ask=False)
+
+    def open_path(self, path: Path, ask: bool = True) -> bool:
+        """Open ``path``; on failure show the file's problems and keep the current plan."""
+        if ask and not self.maybe_discard():
+            return False
+        try:
+            project = load(path)
+        except ProjectFileError as e:
+            self.show_load_error(e)
+            return False
+        self.controller.reset(project, Path(path))
+        self.add_recent(Path(path))
+        self.board.select(None)
+        self.view.fit_to_hull()
+        return True
+
+    def show_load_error(self, e: ProjectFileError) -> None:
+        box = QMessageBox(self)
+        box.setIcon(QMessageBox.Icon.Warning)
+        box.setWindowTitle("Cannot open the plan")
+        box.setText(f"{Path(e.source).name} cannot be opened; the plan on screen is unchanged.")
+        box.setInformativeText(e.details())
+        box.exec()
+
+    def file_save(self) -> bool:
+        if self.controller.path is None:
+            return self.file_save_as()
+        return self._save_to(self.controller.path)
+
+    def file_save_as(self) -> bool:
+        start = str(self.controller.path or Path.home() / f"{self.controller.project.name}{SUFFIX}")
+        name, _ = QFileDialog.getSaveFileName(self, "Save plan as", start, FILE_FILTER)
+        if not name:
+            return False
+        path = Path(name)
+        if path.suffix != SUFFIX:
+            path = path.with_name(path.name + SUFFIX)
+        return self._save_to(path)
+
+    def _save_to(self, path: Path) -> bool:
+        try:
+            save(self.controller.project, path)
+        except ProjectFileError as e:
+            QMessageBox.warning(self, "Not saved", f"{e}\n\n{e.details()}")
+            return False
+        self.controller.mark_saved(path)
+        self.add_recent(path)
+        self.statusBar().showMessage(f"Saved {path}", 5000)
+        return True
+
+    def recent_files(self) -> list[str]:
+        value = settings().value("recent_files", [])
+        if isinstance(value, str):
+            value = [value]
+        return [str(v) for v in (value or [])]
+
+    def add_recent(self, path: Path) -> None:
+        s = settings()
+        files = [str(path.resolve())] + [f for f in self.recent_files() if f != str(path.resolve())]
+        s.setValue("recent_files", files[:MAX_RECENT])
+        s.sync()
+        self._rebuild_recent()
+
+    def _rebuild_recent(self) -> None:
+        self.recent_menu.clear()
+        files = self.recent_files()
+        for f in files:
+            a = self.recent_menu.addAction(Path(f).name)
+            a.setToolTip(f)
+            a.triggered.connect(lambda _=False, f=f: self.open_path(Path(f)))
+        self.recent_menu.setEnabled(bool(files))
+
+    # -- recovery ------------------------------------------------------------------------
+    def offer_recovery(self) -> bool:
+        """If a crashed session left a plan behind, offer to restore it. True if restored."""
+        orphans = find_orphans(self.recovery.folder)
+        if not orphans:
+            return False
+        newest = orphans[0]
+        where = newest.source or "a plan that was not saved"
+        answer = QMessageBox.question(
+            self,
+            "Restore unsaved work?",
+            f"Towboard closed without saving changes to {where}. Restore them?",
+            QMessageBox.StandardButton.Yes | QMessageBox.StandardButton.No,
+            QMessageBox.StandardButton.Yes,
+        )
+        restored = False
+        if answer == QMessageBox.StandardButton.Yes:
+            try:
+                project = newest.project()
+            except ProjectFileError as e:
+                self.show_load_error(e)
+            else:
+                source = Path(newest.source) if newest.source else None
+                self.controller.reset(project, source)
+                self.controller.undo_stack.resetClean()  # restored work is unsaved work
+                self._update_title()
+                self.view.fit_to_hull()
+                restored = True
+        for o in orphans:
+            o.discard()
+        return restored
+
+    def closeEvent(self, event: QCloseEvent) -> None:
+        if self.maybe_discard():
+            self.recovery.close()
+            event.accept()
+        else:
+            event.ignore()
+
+    def _board_help(self) -> None:
+        QMessageBox.information(self, "Mouse and keys on the board", BOARD_HELP)
+
+    def _about(self) -> None:
+        QMessageBox.about(
+            self,
+            "About Towboard",
+            "Towboard plans moves of floating bodies with several tugs.\n\n" + CAUTION,
+        )
+
+
+#: The windows ``run`` opened (kept referenced while the program runs).
+OPEN_WINDOWS: list[MainWindow] = []
+
+
+def run(file: str | None = None) -> int:
+    """Open the window on ``file`` (default: the bundled sample) and run until it closes."""
+    app = QApplication.instance() or QApplication(sys.argv[:1])
+    app.setApplicationName("Towboard")
+    app.setOrganizationName("Towboard")
+    window = MainWindow()
+    OPEN_WINDOWS.append(window)
+    window.show()
+    if not window.offer_recovery():
+        target = Path(file) if file else SAMPLE
+        if not window.open_path(target, ask=False) and file is None:
+            window.controller.reset(new_project())
+    return app.exec()

@@ -1,0 +1,130 @@
+"""A dialog that makes an outline from parameters with the core's generators."""
+
+from __future__ import annotations
+
+from PySide6.QtWidgets import (
+    QComboBox,
+    QDialog,
+    QDialogButtonBox,
+    QDoubleSpinBox,
+    QFormLayout,
+    QLabel,
+    QVBoxLayout,
+    QWidget,
+)
+
+from core.errors import TowboardError
+from core.model.outlines import (
+    BOW_SHAPES,
+    STERN_SHAPES,
+    Outline,
+    box_outline,
+    raked_outline,
+    ship_outline,
+)
+
+SHAPES = {"box": "Box barge", "raked": "Raked barge", "ship": "Ship-shaped"}
+
+
+def _spin(
+    value: float, low: float = 0.0, high: float = 2000.0, step: float = 1.0
+) -> QDoubleSpinBox:
+    s = QDoubleSpinBox()
+    s.setRange(low, high)
+    s.setDecimals(2)
+    s.setSingleStep(step)
+    s.setValue(value)
+    return s
+
+
+class OutlineDialog(QDialog):
+    """Choose a shape and its dimensions (metres); ``outline()`` gives the result."""
+
+    def __init__(
+        self, parent: QWidget | None = None, length: float = 80.0, beam: float = 24.0
+    ) -> None:
+        super().__init__(parent)
+        self.setWindowTitle("Outline from dimensions")
+        self.shape = QComboBox()
+        for key, text in SHAPES.items():
+            self.shape.addItem(text, key)
+        self.length = _spin(length, 1.0)
+        self.beam = _spin(beam, 1.0)
+        self.bow_rake = _spin(0.1 * length)
+        self.stern_rake = _spin(0.05 * length)
+        self.end_fraction = _spin(0.7, 0.05, 1.0, 0.05)
+        self.parallel = _spin(0.5 * length)
+        self.bow_shape = QComboBox()
+        self.bow_shape.addItems(list(BOW_SHAPES))
+        self.bow_shape.setCurrentText("normal")
+        self.stern_shape = QComboBox()
+        self.stern_shape.addItems(list(STERN_SHAPES))
+        form = QFormLayout()
+        form.addRow("Shape", self.shape)
+        form.addRow("Length overall (m)", self.length)
+        form.addRow("Beam (m)", self.beam)
+        self.rows = {
+            "raked": [
+                ("Bow rake length (m)", self.bow_rake),
+                ("Stern rake length (m)", self.stern_rake),
+                ("Width of the ends / beam", self.end_fraction),
+            ],
+            "ship": [
+                ("Parallel body length (m)", self.parallel),
+                ("Bow", self.bow_shape),
+                ("Stern", self.stern_shape),
+            ],
+        }
+        self._labels: dict[QWidget, QLabel] = {}
+        for rows in self.rows.values():
+            for text, w in rows:
+                lab = QLabel(text)
+                self._labels[w] = lab
+                form.addRow(lab, w)
+        self.error = QLabel("")
+        self.error.setStyleSheet("color: #b71c1c;")
+        self.error.setWordWrap(True)
+        buttons = QDialogButtonBox(
+            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel
+        )
+        buttons.accepted.connect(self.accept)
+        buttons.rejected.connect(self.reject)
+        layout = QVBoxLayout(self)
+        layout.addLayout(form)
+        layout.addWidget(self.error)
+        layout.addWidget(buttons)
+        self.shape.currentIndexChanged.connect(self._shape_changed)
+        self._shape_changed()
+
+    def _shape_changed(self) -> None:
+        key = self.shape.currentData()
+        for shape, rows in self.rows.items():
+            for _, w in rows:
+                w.setVisible(shape == key)
+                self._labels[w].setVisible(shape == key)
+
+    def outline(self) -> Outline:
+        """The outline for the chosen parameters (raises the core's InputError / OutlineError)."""
+        key = self.shape.currentData()
+        L, B = self.length.value(), self.beam.value()
+        if key == "box":
+            return box_outline(L, B)
+        if key == "raked":
+            return raked_outline(
+                L, B, self.bow_rake.value(), self.stern_rake.value(), self.end_fraction.value()
+            )
+        return ship_outline(
+            L,
+            B,
+            self.parallel.value(),
+            self.bow_shape.currentText(),
+            self.stern_shape.currentText(),
+        )
+
+    def accept(self) -> None:
+        try:
+            self.outline()
+        except TowboardError as e:
+            self.error.setText(str(e))
+            return
+        super().accept()

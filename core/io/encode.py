@@ -1,0 +1,186 @@
+"""A Project to the JSON-ready tree of the ``.towboard`` format."""
+
+from __future__ import annotations
+
+import math
+
+from core.errors import InputError
+from core.frames import angle_to_bearing
+from core.io.fileformat import FORMAT_NAME, FORMAT_VERSION, KN, KNOT, Json
+from core.model.hull import Hull
+from core.model.plan import Project, Stage
+from core.model.tugs import Placement
+from core.units import CHOICES
+
+
+def num(v: float) -> float:
+    """A float written with 12 significant digits, so save -> load -> save is stable."""
+    return float(f"{v:.12g}") + 0.0
+
+
+def _opt(v: float | None, scale: float = 1.0) -> float | None:
+    return None if v is None else num(v / scale)
+
+
+def _pt(p: tuple[float, float]) -> list[float]:
+    return [num(p[0]), num(p[1])]
+
+
+def encode(project: Project) -> Json:
+    """The project as a JSON-ready dict, keys in a fixed order."""
+    return {
+        "format": FORMAT_NAME,
+        "format_version": FORMAT_VERSION,
+        "plan": {
+            "name": project.name,
+            "revision": project.revision,
+            "date": project.date,
+            "prepared_by": project.prepared_by,
+            "checked_by": project.checked_by,
+            "approved_by": project.approved_by,
+            "notes": project.notes,
+        },
+        "display_units": {q: project.units.unit(q) for q in CHOICES},
+        "clearance_margin_m": num(project.clearance_margin_m),
+        "hulls": [_encode_hull(h) for h in project.hulls],
+        "groups": [
+            {
+                "name": g.name,
+                "members": [
+                    {
+                        "hull": m.hull,
+                        "position_m": _pt((m.x, m.y)),
+                        "heading_deg": num(angle_to_bearing(m.heading_rad)),
+                    }
+                    for m in g.members
+                ],
+            }
+            for g in project.groups
+        ],
+        "tugs": [
+            {
+                "name": t.name,
+                "type": t.tug_type,
+                "role": t.role,
+                "bollard_pull_kN": num(t.bollard_pull_n / KN),
+                "astern_pull_kN": num(t.astern_pull / KN),
+                "towing_point_height_m": _opt(t.towing_point_height_m),
+            }
+            for t in project.tugs
+        ],
+        "tug_efficiency": {
+            "bollard_pull_kN": [num(v / KN) for v in project.tug_efficiency.bollard_pulls_n],
+            "sea_state": [num(v) for v in project.tug_efficiency.sea_states],
+            "efficiency": [[num(v) for v in row] for row in project.tug_efficiency.values],
+        },
+        "site": {
+            "name": project.site.name,
+            "features": [
+                {
+                    "name": f.name,
+                    "kind": f.kind,
+                    "closed": f.closed,
+                    "points_m": [_pt(p) for p in f.points],
+                }
+                for f in project.site.features
+            ],
+        },
+        "stages": [_encode_stage(project, s) for s in project.stages],
+    }
+
+
+def _encode_hull(h: Hull) -> Json:
+    return {
+        "name": h.name,
+        "outline_m": [_pt(p) for p in h.outline],
+        "draught_m": _opt(h.draught_m),
+        "freeboard_m": _opt(h.freeboard_m),
+        "displacement_t": _opt(h.displacement_kg, 1000.0),
+        "centre_of_gravity_m": None if h.cog is None else _pt(h.cog),
+        "fittings": [
+            {
+                "name": f.name,
+                "kind": f.kind,
+                "type": f.fitting_type,
+                "position_m": _pt((f.x, f.y)),
+                "swl_kN": _opt(f.swl_n, KN),
+            }
+            for f in h.fittings
+        ],
+    }
+
+
+def _fitting_kind(project: Project, p: Placement) -> str:
+    try:
+        return project.hull(p.hull).fitting(p.point).kind
+    except InputError:
+        return "line"
+
+
+def _encode_placement(project: Project, p: Placement) -> Json:
+    d: Json = {
+        "tug": p.tug,
+        "hull": p.hull,
+        "point": p.point,
+        "setting_percent": num(p.setting * 100),
+    }
+    if _fitting_kind(project, p) == "push":
+        d["push_angle_deg"] = num(-math.degrees(p.lead_rad))
+    else:
+        d["lead_deg"] = num(angle_to_bearing(p.lead_rad))
+        d["line_length_m"] = num(p.line_length_m)
+    d["astern"] = p.astern
+    if p.lead_sector_rad is not None:
+        lo, hi = p.lead_sector_rad
+        # Counter-clockwise from lo to hi is clockwise (in bearings) from hi to lo.
+        d["lead_sector_deg"] = [num(angle_to_bearing(hi)), num(angle_to_bearing(lo))]
+    return d
+
+
+def _encode_stage(project: Project, s: Stage) -> Json:
+    c, lim = s.conditions, s.limits
+    return {
+        "name": s.name,
+        "kind": s.kind,
+        "notes": s.notes,
+        "poses": [
+            {"body": p.body, "position_m": _pt((p.x, p.y)), "heading_deg": num(p.heading_deg)}
+            for p in s.poses
+        ],
+        "tugs": [_encode_placement(project, p) for p in s.placements],
+        "conditions": {
+            "wind_speed_kn": num(c.wind_speed_ms / KNOT),
+            "wind_height_m": num(c.wind_height_m),
+            "wind_from_deg": num(c.wind_from_deg),
+            "gust_factor": num(c.gust_factor),
+            "current_speed_kn": num(c.current_speed_ms / KNOT),
+            "current_towards_deg": num(c.current_towards_deg),
+            "air_density_kg_m3": num(c.air_density),
+            "water_density_kg_m3": num(c.water_density),
+            "wind_exponent": num(c.wind_exponent),
+            "wind_coefficient_head_on": num(c.wind_coeff_head),
+            "wind_coefficient_beam_on": num(c.wind_coeff_beam),
+            "current_coefficient_head_on": num(c.current_coeff_head),
+            "current_coefficient_beam_on": _opt(c.current_coeff_beam),
+            "wind_area_head_on_m2": _opt(c.wind_area_head_m2),
+            "wind_area_beam_on_m2": _opt(c.wind_area_beam_m2),
+            "current_area_head_on_m2": _opt(c.current_area_head_m2),
+            "current_area_beam_on_m2": _opt(c.current_area_beam_m2),
+            "wind_centre_m": None if c.wind_centre_m is None else _pt(c.wind_centre_m),
+            "current_centre_m": None if c.current_centre_m is None else _pt(c.current_centre_m),
+            "sea_state": num(c.sea_state),
+        },
+        "goal": None
+        if s.goal is None
+        else {
+            "kind": s.goal.kind,
+            "force_ahead_kN": num(s.goal.fx_n / KN),
+            "force_to_port_kN": num(s.goal.fy_n / KN),
+            "moment_kNm": num(s.goal.moment_nm / KN),
+        },
+        "limits": {
+            "max_wind_kn": _opt(lim.max_wind_ms, KNOT),
+            "max_current_kn": _opt(lim.max_current_ms, KNOT),
+            "min_clearance_m": _opt(lim.min_clearance_m),
+        },
+    }

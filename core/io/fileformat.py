@@ -1,0 +1,27 @@
+"""What the encoder and the decoder of the ``.towboard`` format share.
+
+Every quantity in the file is a plain number in the unit its key names
+(``bollard_pull_kN``, ``outline_m``, ``lead_deg``); directions people read are
+bearings in degrees clockwise (relative to the hull, or true for headings and
+conditions). docs/file-format.md describes the format.
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+from core.units import factor
+
+FORMAT_NAME = "towboard"
+
+
+FORMAT_VERSION = 1
+
+
+KN = 1000.0
+
+
+KNOT = factor("speed", "kn")
+
+
+Json = dict[str, Any]

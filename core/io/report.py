@@ -1,0 +1,191 @@
+"""The headless report: each stage's balance in words and numbers, or as JSON in SI."""
+
+from __future__ import annotations
+
+from typing import Any
+
+from core.frames import turning_words, walking_words
+from core.io.report_parts import (
+    conditions_json,
+    conditions_lines,
+    hold_limit_lines,
+    hold_limits_json,
+    solve_json,
+    solve_lines,
+    stage_extras,
+)
+from core.mechanics.balance import Balance
+from core.mechanics.loads import analyse_stage
+from core.model.plan import Project, Stage
+from core.units import DisplayUnits, fmt, label
+
+FRAME_NOTE = (
+    "Hull frame: origin at the hull's reference point on the centreline, x forward, y to port. "
+    "Yaw moment positive counter-clockwise seen from above (swings the bow to port). "
+    "Directions are relative bearings, degrees clockwise from ahead."
+)
+CAUTION = (
+    "Planning aid only, under the stated assumptions. Certified bollard pull, fitting ratings "
+    "and the conditions on the day govern; the master, the pilot, local port rules and "
+    "applicable standards decide."
+)
+
+
+def stage_balances(project: Project) -> list[tuple[Stage, Balance | None]]:
+    """Each stage with the balance of the body its tugs work on, with the stage's wind and
+    current (None if no hull)."""
+    out: list[tuple[Stage, Balance | None]] = []
+    for s in project.stages:
+        out.append((s, analyse_stage(project, s) if project.hulls else None))
+    return out
+
+
+def crossing_words(b: Balance, u: DisplayUnits) -> str:
+    """Where the line of action crosses the hull's centreline, in words for people."""
+    if b.centreline_x is None:
+        return "parallel to the centreline"
+    if b.crossing_is_far:
+        return "nearly parallel to the centreline (it crosses it far off the hull)"
+    return f"crosses the centreline at x = {u.show(b.centreline_x, 'length')}"
+
+
+def _tol(b: Balance) -> tuple[float, float]:
+    scale = sum(abs(sh.pull_n) for sh in b.shares) or 1.0
+    return 1e-6 * scale, 1e-6 * scale * 100.0
+
+
+def balance_json(b: Balance) -> dict[str, Any]:
+    eq = b.equivalent
+    tol_f, tol_m = _tol(b)
+    return {
+        "body": b.body,
+        "centroid_m": list(b.centroid),
+        "centre_of_gravity_m": list(b.centre_of_gravity),
+        "net_force_N": {"ahead": eq.force[0], "to_port": eq.force[1], "magnitude": eq.magnitude},
+        "net_force_bearing_deg": b.net_bearing_deg,
+        "net_force_words": walking_words(*eq.force, tol_f),
+        "yaw_moment_about_centroid_Nm": eq.moment,
+        "yaw_moment_about_centre_of_gravity_Nm": b.moment_cog_nm,
+        "turning": turning_words(eq.moment, tol_m),
+        "equivalent": {
+            "kind": eq.kind,
+            "point_on_line_m": None if eq.point is None else list(eq.point),
+            "direction": None if eq.direction is None else list(eq.direction),
+            "offset_from_centroid_m": eq.offset_m,
+            "crosses_centreline_at_x_m": b.centreline_x,
+            "crossing_far_off_the_hull": b.crossing_is_far,
+            "enters_outline_m": None if b.chord is None else list(b.chord[0]),
+            "leaves_outline_m": None if b.chord is None else list(b.chord[1]),
+        },
+        "tugs": [
+            {
+                "tug": sh.tug,
+                "hull": sh.hull,
+                "point": sh.point,
+                "mode": sh.mode,
+                "setting_percent": sh.setting * 100,
+                "assigned_pull_N": sh.pull_n,
+                "usable_pull_N": sh.usable_n,
+                "rated_pull_N": sh.rated_n,
+                "utilisation": sh.utilisation,
+                "force_N": {"ahead": sh.force[0], "to_port": sh.force[1]},
+                "force_bearing_deg": sh.lead_bearing_deg,
+                "yaw_moment_about_centroid_Nm": sh.moment_centroid_nm,
+                "tug_position_m": list(sh.position),
+            }
+            for sh in b.shares
+        ],
+        "warnings": [
+            {"code": n.code, "subject": n.subject, "message": n.message} for n in b.notices
+        ],
+    }
+
+
+def report_json(project: Project) -> dict[str, Any]:
+    """The report as a JSON-ready dict in SI units, with frame and units stated."""
+    return {
+        "plan": project.name,
+        "revision": project.revision,
+        "units": {"force": "N", "moment": "N*m", "length": "m", "angle": "deg"},
+        "frame": FRAME_NOTE,
+        "caution": CAUTION,
+        "stages": [_stage_json(project, s, b) for s, b in stage_balances(project)],
+    }
+
+
+def _stage_json(project: Project, s: Stage, b: Balance | None) -> dict[str, Any]:
+    out: dict[str, Any] = {
+        "stage": s.name,
+        "kind": s.kind,
+        "balance": None if b is None else balance_json(b),
+    }
+    x = stage_extras(project, s)
+    if x is not None:
+        out["conditions"] = conditions_json(project, s, x.body)
+        out["solve"] = solve_json(x)
+        out["hold_limits"] = hold_limits_json(s, x.limits)
+        out["notes"] = list(x.notes)
+    return out
+
+
+def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
+    eq = b.equivalent
+    tol_f, tol_m = _tol(b)
+    f, m, ln = u.unit("force"), u.unit("moment"), u.unit("length")
+    lines = []
+    bearing = "" if b.net_bearing_deg is None else f" towards {b.net_bearing_deg:05.1f} relative"
+    lines.append(
+        f"  Net force       {u.show(eq.magnitude, 'force')}{bearing}"
+        f"  (ahead {fmt(u.value(eq.force[0], 'force'), signed=True)} {label(f)}, "
+        f"to port {fmt(u.value(eq.force[1], 'force'), signed=True)} {label(f)})"
+        f"  {walking_words(*eq.force, tol_f)}"
+    )
+    lines.append(
+        f"  Yaw moment      {fmt(u.value(eq.moment, 'moment'), signed=True)} {label(m)} about the centroid, "
+        f"{turning_words(eq.moment, tol_m)}"
+    )
+    lines.append(
+        f"                  {fmt(u.value(b.moment_cog_nm, 'moment'), signed=True)} {label(m)} about the centre of gravity"
+    )
+    if eq.kind == "couple":
+        lines.append("  Equivalent      a pure couple: no single force, no line of action")
+    elif eq.kind == "balanced":
+        lines.append("  Equivalent      balanced: no net force and no yaw moment")
+    else:
+        cross = crossing_words(b, u)
+        lines.append(
+            f"  Equivalent      {u.show(eq.magnitude, 'force')} on a line "
+            f"{abs(u.value(eq.offset_m or 0.0, 'length')):.1f} {ln} from the centroid; {cross}"
+        )
+    lines.append(
+        f"  {'Tug':<14}{'Point':<22}{'Mode':<6}{'Setting':>8}{'Pull':>12}{'Bearing':>9}{'Moment':>14}{'Use':>6}"
+    )
+    for sh in b.shares:
+        lines.append(
+            f"  {sh.tug:<14}{sh.point:<22}{sh.mode:<6}{sh.setting * 100:>7.0f}%"
+            f"{u.value(sh.pull_n, 'force'):>8.1f} {label(f):<3}{sh.lead_bearing_deg:>8.0f} "
+            f"{fmt(u.value(sh.moment_centroid_nm, 'moment')):>9} {label(m):<4}{sh.utilisation * 100:>5.0f}%"
+        )
+    for n in b.notices:
+        lines.append(f"  WARNING: {n.message}")
+    return lines
+
+
+def report_text(project: Project) -> str:
+    """The report in the project's display units, for a terminal."""
+    u = project.units
+    out = [f"{project.name} (revision {project.revision})", FRAME_NOTE, ""]
+    for i, (s, b) in enumerate(stage_balances(project), start=1):
+        out.append(f"Stage {i}: {s.name} [{s.kind}]")
+        if b is None:
+            out.append("  no hull to work on")
+        else:
+            out.extend(_balance_lines(b, u))
+            x = stage_extras(project, s)
+            if x is not None:
+                out.extend(conditions_lines(s, x.body, u))
+                out.extend(solve_lines(x, u))
+                out.extend(hold_limit_lines(s, x.limits, u))
+        out.append("")
+    out.append(CAUTION)
+    return "\n".join(out) + "\n"

@@ -1,0 +1,323 @@
+"""The balance of one body in one stage: each tug's force, the net force, the yaw
+moment and the equivalent force with its line of action.
+
+This is the drag path: :func:`tug_layout` turns placements into numpy arrays once,
+and :func:`analyse` reduces them. Forces and moments are in the body frame (for a
+single hull, the hull frame: x forward, y to port), N and N*m, moments positive
+counter-clockwise seen from above.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+from dataclasses import dataclass
+
+import numpy as np
+import shapely
+
+from core.frames import angle_to_bearing
+from core.mechanics.bodies import Body, stage_body
+from core.mechanics.forces import Equivalent, equivalent_of, moments_about, transfer_moment
+from core.mechanics.usable import STEEP_LINE_DEG, line_angle_rad
+from core.model.plan import Project, Stage
+from core.model.tugs import Placement
+from core.notices import Notice
+from core.units import DisplayUnits
+
+#: A line of action that crosses the centreline further than this many body lengths from
+#: the centroid is, for people, "nearly parallel" to it: the crossing is real but says
+#: nothing useful, and near parallel it is mostly rounding.
+FAR_CROSSING_LENGTHS = 10.0
+
+#: Drawn distance from a push point to the pushing tug's centre, m.
+PUSH_STANDOFF_M = 8.0
+
+
+@dataclass(frozen=True, slots=True)
+class Load:
+    """A force on the body that is not a tug's (wind, current, a given load)."""
+
+    name: str
+    point: tuple[float, float]  # body frame, m
+    force: tuple[float, float]  # N
+    moment_nm: float = 0.0  # extra pure moment, N*m
+
+
+@dataclass(frozen=True, slots=True)
+class TugLayout:
+    """Placements of the tugs working on one body, as arrays. n = number of tugs."""
+
+    placements: tuple[Placement, ...]
+    points: np.ndarray  # (n, 2) application points, body frame, m
+    directions: np.ndarray  # (n, 2) unit direction of each tug's force on the body
+    positions: np.ndarray  # (n, 2) where each tug is (line: end of the towline), m
+    is_push: np.ndarray  # (n,) bool
+    rated_n: np.ndarray  # (n,) rated pull for the way the tug works (ahead or astern), N
+    usable_n: np.ndarray  # (n,) usable pull, N (rated x efficiency x line-angle factor)
+    swl_n: np.ndarray  # (n,) fitting rating, N; nan where none is given
+    line_angle_rad: np.ndarray | None = None  # (n,) towline angle off the horizontal, rad
+
+    @property
+    def pulls_n(self) -> np.ndarray:
+        """(n,) assigned pulls: setting x usable pull, N."""
+        return np.array([p.setting for p in self.placements]) * self.usable_n
+
+    def unit_effects(self, centroid: tuple[float, float]) -> np.ndarray:
+        """(3, n): force ahead, force abeam and moment about ``centroid`` per newton of pull."""
+        m = moments_about(self.points, self.directions, centroid)
+        return np.vstack([self.directions[:, 0], self.directions[:, 1], m])
+
+
+def tug_direction(
+    body: Body, placement: Placement
+) -> tuple[tuple[float, float], tuple[float, float], bool]:
+    """(application point, unit force direction, is_push) of a placement, body frame."""
+    member, fitting = body.fitting(placement.hull, placement.point)
+    point = member.to_body((fitting.x, fitting.y))
+    if fitting.kind == "push":
+        nx, ny = body.inward_normal(placement.hull, placement.point)
+        c, s = math.cos(placement.lead_rad), math.sin(placement.lead_rad)
+        return point, (c * nx - s * ny, s * nx + c * ny), True
+    lead = placement.lead_rad
+    return point, member.direction_to_body((math.cos(lead), math.sin(lead))), False
+
+
+def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
+    """Arrays of every tug placed on ``body`` in ``stage``, in placement order."""
+    members = {m.hull.name for m in body.members}
+    placed = tuple(p for p in stage.placements if p.hull in members)
+    n = len(placed)
+    points, dirs, pos = np.zeros((n, 2)), np.zeros((n, 2)), np.zeros((n, 2))
+    push, rated, swl = np.zeros(n, bool), np.zeros(n), np.full(n, np.nan)
+    bp, angle = np.zeros(n), np.zeros(n)
+    for i, p in enumerate(placed):
+        tug = project.tug(p.tug)
+        point, direction, is_push = tug_direction(body, p)
+        points[i], dirs[i], push[i] = point, direction, is_push
+        pos[i] = (
+            np.subtract(point, np.multiply(direction, PUSH_STANDOFF_M))
+            if is_push
+            else np.add(point, np.multiply(direction, p.line_length_m))
+        )
+        rated[i] = tug.rated_pull(p.astern)
+        bp[i] = tug.bollard_pull_n
+        member, f = body.fitting(p.hull, p.point)
+        if not is_push:
+            angle[i] = line_angle_rad(
+                member.hull.freeboard_m, tug.towing_point_height_m, p.line_length_m
+            )
+        if f.swl_n is not None:
+            swl[i] = f.swl_n
+    # Usable pull: rated x efficiency (sea state) x cos(towline angle); see core.mechanics.usable.
+    eff = project.tug_efficiency.efficiencies(bp, stage.conditions.sea_state)
+    usable = rated * eff * np.cos(angle)
+    return TugLayout(placed, points, dirs, pos, push, rated, usable, swl, angle)
+
+
+@dataclass(frozen=True, slots=True)
+class TugShare:
+    """One tug's part in the balance."""
+
+    tug: str
+    hull: str
+    point: str
+    mode: str  # "line" or "push"
+    setting: float
+    pull_n: float
+    usable_n: float
+    rated_n: float
+    force: tuple[float, float]
+    moment_centroid_nm: float
+    lead_bearing_deg: float  # relative bearing of the force on the body
+    position: tuple[float, float]
+
+    @property
+    def utilisation(self) -> float:
+        """Assigned pull as a fraction of the tug's rated pull (ahead or astern)."""
+        return self.pull_n / self.rated_n if self.rated_n > 0 else math.inf
+
+
+@dataclass(frozen=True, slots=True)
+class Balance:
+    """Everything the board and the report say about one body in one stage."""
+
+    stage: str
+    body: str
+    centroid: tuple[float, float]
+    centre_of_gravity: tuple[float, float]
+    equivalent: Equivalent  # about the centroid
+    moment_cog_nm: float
+    centreline_x: float | None  # where the line of action crosses y = 0, m
+    chord: tuple[tuple[float, float], tuple[float, float]] | None  # enters, leaves the outline
+    shares: tuple[TugShare, ...]
+    loads: tuple[Load, ...]
+    notices: tuple[Notice, ...]
+    length_m: float = 0.0  # the body's length overall, m
+
+    @property
+    def crossing_is_far(self) -> bool:
+        """True when the centreline crossing lies far off the hull (or there is none)."""
+        if self.centreline_x is None:
+            return True
+        return abs(self.centreline_x - self.centroid[0]) > FAR_CROSSING_LENGTHS * max(
+            self.length_m, 1.0
+        )
+
+    @property
+    def net_force(self) -> tuple[float, float]:
+        return self.equivalent.force
+
+    @property
+    def net_magnitude(self) -> float:
+        return self.equivalent.magnitude
+
+    @property
+    def net_bearing_deg(self) -> float | None:
+        """Relative bearing of the net force, None when it is negligible."""
+        if self.equivalent.kind != "force":
+            return None
+        return angle_to_bearing(math.atan2(self.net_force[1], self.net_force[0]))
+
+    @property
+    def moment_centroid_nm(self) -> float:
+        return self.equivalent.moment
+
+    def moment_about(self, point: tuple[float, float]) -> float:
+        return self.equivalent.moment_about(point)
+
+
+def _chord(body: Body, eq: Equivalent) -> tuple[tuple[float, float], tuple[float, float]] | None:
+    if eq.point is None or eq.direction is None:
+        return None
+    reach = 4 * (body.length + body.beam)
+    p, d = eq.point, eq.direction
+    line = shapely.LineString(
+        [(p[0] - reach * d[0], p[1] - reach * d[1]), (p[0] + reach * d[0], p[1] + reach * d[1])]
+    )
+    cut = body.polygon.intersection(line)
+    if cut.is_empty:
+        return None
+    coords = np.asarray(shapely.get_coordinates(cut))
+    t = (coords - np.asarray(p)) @ np.asarray(d)
+    a, b = coords[int(np.argmin(t))], coords[int(np.argmax(t))]
+    return ((float(a[0]), float(a[1])), (float(b[0]), float(b[1])))
+
+
+def _notices(layout: TugLayout, pulls: np.ndarray, body: Body, units: DisplayUnits) -> list[Notice]:
+    out: list[Notice] = []
+    seen: dict[tuple[str, str], str] = {}
+    for i, p in enumerate(layout.placements):
+        if p.setting > 1 + 1e-9:
+            out.append(
+                Notice(
+                    "setting_over",
+                    p.tug,
+                    f"{p.tug}: setting {p.setting * 100:.0f} % is above 100 %",
+                )
+            )
+        if not math.isnan(layout.swl_n[i]) and pulls[i] > layout.swl_n[i] * (1 + 1e-9):
+            out.append(
+                Notice(
+                    "over_swl",
+                    p.tug,
+                    f"{p.tug}: pull {units.show(pulls[i], 'force')} is over the SWL "
+                    f"{units.show(layout.swl_n[i], 'force')} of fitting {p.point}",
+                )
+            )
+        if layout.is_push[i]:
+            inward = body.inward_normal(p.hull, p.point)
+            if float(np.dot(layout.directions[i], inward)) <= 1e-9:
+                out.append(
+                    Notice(
+                        "push_outward",
+                        p.tug,
+                        f"{p.tug}: push at {p.point} points out of the hull; a tug cannot push that way",
+                    )
+                )
+        if layout.line_angle_rad is not None and not layout.is_push[i]:
+            deg = math.degrees(layout.line_angle_rad[i])
+            if deg > STEEP_LINE_DEG + 1e-9:
+                out.append(
+                    Notice(
+                        "steep_line",
+                        p.tug,
+                        f"{p.tug}: towline at {p.point} runs {deg:.0f} deg off the horizontal; "
+                        f"only {math.cos(layout.line_angle_rad[i]) * 100:.0f} % of the pull is "
+                        "horizontal (lengthen the line)",
+                    )
+                )
+        key = (p.hull, p.point)
+        if key in seen:
+            out.append(
+                Notice("shared_point", p.point, f"{seen[key]} and {p.tug} both work at {p.point}")
+            )
+        else:
+            seen[key] = p.tug
+    return out
+
+
+def analyse_layout(
+    stage: Stage,
+    body: Body,
+    layout: TugLayout,
+    units: DisplayUnits,
+    loads: Sequence[Load] = (),
+) -> Balance:
+    """Reduce a tug layout (and any other loads) to the body's balance."""
+    pulls = layout.pulls_n
+    forces = layout.directions * pulls[:, None]  # (n, 2)
+    c = body.centroid
+    tug_m = moments_about(layout.points, forces, c)  # (n,)
+    net = forces.sum(axis=0)
+    moment = float(tug_m.sum())
+    scale = float(pulls.sum())
+    for ld in loads:
+        net = net + np.asarray(ld.force)
+        moment += (
+            (ld.point[0] - c[0]) * ld.force[1] - (ld.point[1] - c[1]) * ld.force[0] + ld.moment_nm
+        )
+        scale += math.hypot(*ld.force)
+    eq = equivalent_of(net, moment, c, scale, body.length)
+    cog = body.centre_of_gravity
+    shares = tuple(
+        TugShare(
+            tug=p.tug,
+            hull=p.hull,
+            point=p.point,
+            mode="push" if layout.is_push[i] else "line",
+            setting=p.setting,
+            pull_n=float(pulls[i]),
+            usable_n=float(layout.usable_n[i]),
+            rated_n=float(layout.rated_n[i]),
+            force=(float(forces[i, 0]), float(forces[i, 1])),
+            moment_centroid_nm=float(tug_m[i]),
+            lead_bearing_deg=angle_to_bearing(
+                math.atan2(layout.directions[i, 1], layout.directions[i, 0])
+            ),
+            position=(float(layout.positions[i, 0]), float(layout.positions[i, 1])),
+        )
+        for i, p in enumerate(layout.placements)
+    )
+    return Balance(
+        stage=stage.name,
+        body=body.name,
+        centroid=c,
+        centre_of_gravity=cog,
+        equivalent=eq,
+        moment_cog_nm=transfer_moment(moment, c, cog, net),
+        centreline_x=eq.crossing_x(0.0),
+        chord=_chord(body, eq),
+        shares=shares,
+        loads=tuple(loads),
+        notices=tuple(_notices(layout, pulls, body, units)),
+        length_m=body.length,
+    )
+
+
+def analyse(
+    project: Project, stage: Stage, body: str | None = None, loads: Sequence[Load] = ()
+) -> Balance:
+    """The balance of ``body`` (default: the body the stage's first tug works on)."""
+    b = stage_body(project, stage, body)
+    return analyse_layout(stage, b, tug_layout(project, stage, b), project.units, loads)

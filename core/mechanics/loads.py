@@ -1,0 +1,312 @@
+"""The loads that wind and current put on a body, in the body frame.
+
+Loads follow the drag formula F = 1/2 rho C A V^2 on the projected area A normal to
+the flow. Direction dependence is a longitudinal/lateral decomposition with separate
+coefficients: for a flow at angle beta in the body frame (the direction it goes
+towards, counter-clockwise from ahead),
+
+    F_ahead = 1/2 rho C_head A_head V^2 cos(beta) |cos(beta)|
+    F_port  = 1/2 rho C_beam A_beam V^2 sin(beta) |sin(beta)|
+
+so head-on flow meets only the head-on area and beam-on flow only the side area. The
+lateral component acts at the centre of the side projection (x) and the longitudinal
+one at the centre of the end projection (y); a user-set centre of pressure (a
+deckhouse aft, a crane forward) replaces both. The yaw moment is that point's offset
+from the centroid crossed with the load.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from core.errors import InputError
+from core.mechanics.balance import Balance, Load, analyse_layout, tug_layout
+from core.mechanics.bodies import Body, stage_body
+from core.mechanics.usable import fitting_suits
+from core.model.conditions import Conditions
+from core.model.plan import Project, Stage
+from core.notices import Notice
+
+#: Hoerner, Fluid-Dynamic Drag: beam-on cross-flow drag of a 2-D rectangular section
+#: against B / (2T), via Leite et al. 1998 (read). Used for the beam-on current
+#: coefficient when the user sets none; linear between points, held at the ends.
+HOERNER_CROSS_FLOW: tuple[tuple[float, float], ...] = (
+    (0.99, 0.828),
+    (1.64, 0.691),
+    (3.01, 0.587),
+    (4.0, 0.559),
+)
+
+
+def dynamic_pressure(density: float, speed_ms: float) -> float:
+    """q = 1/2 rho V^2, Pa."""
+    return 0.5 * density * speed_ms * speed_ms
+
+
+def drag_force(density: float, coefficient: float, area_m2: float, speed_ms: float) -> float:
+    """F = 1/2 rho C A V^2, N."""
+    return dynamic_pressure(density, speed_ms) * coefficient * area_m2
+
+
+def hoerner_cross_flow(beam_over_twice_draught: float) -> float:
+    """Beam-on 2-D cross-flow drag coefficient for a rectangular section (Hoerner)."""
+    xs = [p[0] for p in HOERNER_CROSS_FLOW]
+    ys = [p[1] for p in HOERNER_CROSS_FLOW]
+    return float(np.interp(beam_over_twice_draught, xs, ys))
+
+
+def flow_angle_rad(flow_towards_true_deg: float, heading_deg: float) -> float:
+    """Body-frame angle (rad, counter-clockwise from ahead) of a flow going towards a true bearing."""
+    rel = (flow_towards_true_deg - heading_deg) % 360.0  # relative bearing, clockwise
+    return -math.radians(rel)
+
+
+@dataclass(frozen=True, slots=True)
+class Projection:
+    """A body's projected areas above or below the water and their centres, body frame.
+
+    ``head_m2`` is the area seen from ahead (flow along x), centred at y = ``head_y``;
+    ``beam_m2`` the area seen from the side (flow along y), centred at x = ``beam_x``.
+    """
+
+    head_m2: float
+    beam_m2: float
+    head_y: float
+    beam_x: float
+
+
+def projection(body: Body, height: str) -> Projection | None:
+    """Projected areas from each member's outline times its freeboard or draught.
+
+    ``height`` is ``"freeboard"`` or ``"draught"``. Lashed members are summed without
+    shielding (conservative). None when a member lacks the height.
+    """
+    head = beam = head_y = beam_x = 0.0
+    for m in body.members:
+        h = m.hull.freeboard_m if height == "freeboard" else m.hull.draught_m
+        if h is None:
+            return None
+        pts = np.array([m.to_body(p) for p in m.hull.outline])  # (k, 2)
+        x0, x1 = float(pts[:, 0].min()), float(pts[:, 0].max())
+        y0, y1 = float(pts[:, 1].min()), float(pts[:, 1].max())
+        a_head, a_beam = (y1 - y0) * h, (x1 - x0) * h
+        head += a_head
+        beam += a_beam
+        head_y += a_head * 0.5 * (y0 + y1)
+        beam_x += a_beam * 0.5 * (x0 + x1)
+    return Projection(head, beam, head_y / head, beam_x / beam)
+
+
+@dataclass(frozen=True, slots=True)
+class FlowModel:
+    """Everything needed for one flow's load except its speed and angle (body frame).
+
+    ``k_head`` and ``k_beam`` are 1/2 rho C A, N per (m/s)^2; ``point`` is where the
+    load acts.
+    """
+
+    name: str
+    k_head: float
+    k_beam: float
+    point: tuple[float, float]
+
+    def force(self, speed_ms: float, angle_rad: float) -> tuple[float, float]:
+        """Load (ahead, to port), N, for a flow of ``speed_ms`` going towards ``angle_rad``."""
+        c, s = math.cos(angle_rad), math.sin(angle_rad)
+        v2 = speed_ms * speed_ms
+        return (self.k_head * v2 * c * abs(c), self.k_beam * v2 * s * abs(s))
+
+    def wrenches(self, angles_rad: np.ndarray, centroid: tuple[float, float]) -> np.ndarray:
+        """(3, k): force ahead, to port and moment about ``centroid`` at 1 m/s, per angle."""
+        c, s = np.cos(angles_rad), np.sin(angles_rad)
+        fx, fy = self.k_head * c * np.abs(c), self.k_beam * s * np.abs(s)
+        dx, dy = self.point[0] - centroid[0], self.point[1] - centroid[1]
+        return np.vstack([fx, fy, dx * fy - dy * fx])
+
+
+def _area(given: float | None, derived: float | None, what: str, body: Body) -> float:
+    if given is not None:
+        return given
+    if derived is None or derived <= 0:
+        need = "freeboard" if what.startswith("wind") else "draught"
+        raise InputError(
+            f"{body.name}: {what}",
+            derived,
+            f"is unknown; enter the hull's {need} or the {what} in the conditions",
+        )
+    return derived
+
+
+def wind_model(body: Body, c: Conditions) -> FlowModel:
+    """The wind's load model for ``body`` under conditions ``c``."""
+    proj = projection(body, "freeboard")
+    a_head = _area(
+        c.wind_area_head_m2, None if proj is None else proj.head_m2, "wind area head-on", body
+    )
+    a_beam = _area(
+        c.wind_area_beam_m2, None if proj is None else proj.beam_m2, "wind area beam-on", body
+    )
+    point = c.wind_centre_m or _centre(proj, body)
+    return FlowModel(
+        "wind",
+        0.5 * c.air_density * c.wind_coeff_head * a_head,
+        0.5 * c.air_density * c.wind_coeff_beam * a_beam,
+        point,
+    )
+
+
+def current_model(body: Body, c: Conditions) -> FlowModel:
+    """The current's load model for ``body`` under conditions ``c``."""
+    proj = projection(body, "draught")
+    a_head = _area(
+        c.current_area_head_m2, None if proj is None else proj.head_m2, "current area head-on", body
+    )
+    a_beam = _area(
+        c.current_area_beam_m2, None if proj is None else proj.beam_m2, "current area beam-on", body
+    )
+    c_beam = c.current_coeff_beam
+    if c_beam is None:
+        c_beam = hoerner_cross_flow(_beam_over_twice_draught(body))
+    point = c.current_centre_m or _centre(proj, body)
+    return FlowModel(
+        "current",
+        0.5 * c.water_density * c.current_coeff_head * a_head,
+        0.5 * c.water_density * c_beam * a_beam,
+        point,
+    )
+
+
+def _beam_over_twice_draught(body: Body) -> float:
+    draughts = [m.hull.draught_m for m in body.members if m.hull.draught_m is not None]
+    if not draughts:
+        raise InputError(
+            f"{body.name}: draught",
+            None,
+            "is unknown; enter the hull's draught or the current coefficient beam-on",
+        )
+    return body.beam / (2 * max(draughts))
+
+
+def _centre(proj: Projection | None, body: Body) -> tuple[float, float]:
+    if proj is None:  # areas entered by hand: the centre of the outline's extent
+        x0, y0, x1, y1 = body.polygon.bounds
+        return (0.5 * (x0 + x1), 0.5 * (y0 + y1))
+    return (proj.beam_x, proj.head_y)
+
+
+@dataclass(frozen=True, slots=True)
+class ConditionLoads:
+    """The conditions of a stage seen from one body, and the loads they put on it.
+
+    Bearings are relative (degrees clockwise from ahead): the wind's is where it blows
+    from, the current's where it sets towards.
+    """
+
+    wind_from_rel_deg: float
+    current_towards_rel_deg: float
+    wind_speed_10m_ms: float
+    design_wind_ms: float
+    loads: tuple[Load, ...]  # wind and current, where they blow
+    notices: tuple[Notice, ...] = ()
+
+
+def _flow_load(body: Body, c: Conditions, heading_deg: float, which: str) -> Load | None:
+
+    if which == "wind":
+        if c.wind_speed_ms <= 0:
+            return None
+        wm = wind_model(body, c)
+        angle = flow_angle_rad(c.wind_from_deg + 180.0, heading_deg)
+        return Load("wind", wm.point, wm.force(c.design_wind_ms, angle))
+    if c.current_speed_ms <= 0:
+        return None
+    cm = current_model(body, c)
+    angle = flow_angle_rad(c.current_towards_deg, heading_deg)
+    return Load("current", cm.point, cm.force(c.current_speed_ms, angle))
+
+
+def condition_loads(
+    body: Body, c: Conditions, heading_deg: float, *, strict: bool = True
+) -> ConditionLoads:
+    """Wind and current loads on ``body`` lying at true ``heading_deg``.
+
+    With ``strict`` a load that is needed but whose area cannot be found raises
+    InputError; otherwise that load is left out and a notice says why (for the board
+    and the briefing, which must show something while data are missing).
+    """
+    loads: list[Load] = []
+    notices: list[Notice] = []
+    for which in ("wind", "current"):
+        try:
+            load = _flow_load(body, c, heading_deg, which)
+        except InputError as e:
+            if strict:
+                raise
+            notices.append(Notice(f"no_{which}_load", body.name, f"No {which} load: {e}"))
+            continue
+        if load is not None:
+            loads.append(load)
+    return ConditionLoads(
+        wind_from_rel_deg=(c.wind_from_deg - heading_deg) % 360.0,
+        current_towards_rel_deg=(c.current_towards_deg - heading_deg) % 360.0,
+        wind_speed_10m_ms=c.wind_speed_10m_ms,
+        design_wind_ms=c.design_wind_ms,
+        loads=tuple(loads),
+        notices=tuple(notices),
+    )
+
+
+def body_conditions(stage: Stage, body: Body, *, strict: bool = False) -> ConditionLoads:
+    """The stage's wind and current as loads on ``body`` at its pose's heading."""
+    heading = stage.pose_of(body.name).heading_deg
+    return condition_loads(body, stage.conditions, heading, strict=strict)
+
+
+def loads_wrench(loads: tuple[Load, ...], centroid: tuple[float, float]) -> np.ndarray:
+    """(3,): force ahead, force to port and moment about ``centroid`` of the loads."""
+    out = np.zeros(3)
+    for ld in loads:
+        fx, fy = ld.force
+        dx, dy = ld.point[0] - centroid[0], ld.point[1] - centroid[1]
+        out += (fx, fy, dx * fy - dy * fx + ld.moment_nm)
+    return out
+
+
+def analyse_stage(project: Project, stage: Stage, body: str | None = None) -> Balance:
+    """The balance of a body with its tugs *and* the stage's wind and current.
+
+    Missing areas do not stop it: the load is left out and a notice says so.
+    """
+    b = stage_body(project, stage, body)
+    cond = body_conditions(stage, b)
+    bal = analyse_layout(stage, b, tug_layout(project, stage, b), project.units, cond.loads)
+    extra = cond.notices + fitting_notices(project, stage, b)
+    return replace(bal, notices=bal.notices + extra) if extra else bal
+
+
+def fitting_notices(project: Project, stage: Stage, body: Body) -> tuple[Notice, ...]:
+    """A tug made fast at a fitting whose SWL is below the tug's bollard pull (IMO rule)."""
+    out = []
+    members = {m.hull.name for m in body.members}
+    for p in stage.placements:
+        if p.hull not in members:
+            continue
+        fitting = body.fitting(p.hull, p.point)[1]
+        tug = project.tug(p.tug)
+        if fitting.kind != "line" or fitting.swl_n is None:
+            continue
+        if not fitting_suits(fitting.swl_n, tug.bollard_pull_n):
+            u = project.units
+            out.append(
+                Notice(
+                    "fitting_under_rated",
+                    p.tug,
+                    f"{p.tug}: bollard pull {u.show(tug.bollard_pull_n, 'force')} is above "
+                    f"the SWL {u.show(fitting.swl_n, 'force')} of {p.point}; the fitting is "
+                    "not rated for this tug",
+                )
+            )
+    return tuple(out)
