@@ -41,6 +41,14 @@ def wrap_pi(angle_rad: float) -> float:
     return a - math.pi
 
 
+def angle_in_sector(angle_rad: float, low_rad: float, high_rad: float) -> bool:
+    """Whether ``angle_rad`` lies in the sector swept counter-clockwise from ``low_rad`` to
+    ``high_rad`` (edges included, to a nanoradian)."""
+    span = (high_rad - low_rad) % (2 * math.pi)
+    off = (angle_rad - low_rad) % (2 * math.pi)
+    return off <= span + 1e-9 or off >= 2 * math.pi - 1e-9
+
+
 def turning_words(moment_nm: float, tolerance_nm: float = 0.0) -> str:
     """Words for a yaw moment: positive (CCW seen from above) swings the bow to port."""
     if abs(moment_nm) <= tolerance_nm:

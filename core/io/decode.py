@@ -24,6 +24,7 @@ from core.model.plan import (
     GroupMember,
     LashedGroup,
     Project,
+    Revision,
     Site,
     SiteFeature,
     Stage,
@@ -176,10 +177,20 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
             top.get("plan", {}),
             "plan",
             (),
-            ("name", "revision", "date", "prepared_by", "checked_by", "approved_by", "notes"),
+            (
+                "name",
+                "revision",
+                "date",
+                "prepared_by",
+                "checked_by",
+                "approved_by",
+                "notes",
+                "history",
+            ),
         )
         or {}
     )
+    history = _decode_history(r, plan)
     units = _decode_units(r, top.get("display_units", {}))
     hulls = [
         h
@@ -220,6 +231,7 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
             checked_by=r.text(plan, "checked_by", "plan"),
             approved_by=r.text(plan, "approved_by", "plan"),
             notes=r.text(plan, "notes", "plan"),
+            history=tuple(history),
             units=units or DisplayUnits(),
             hulls=tuple(hulls),
             groups=tuple(groups),
@@ -231,6 +243,28 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
         ),
     )
     return (project if not r.problems else None), r.problems
+
+
+def _decode_history(r: _Reader, plan: Json) -> list[Revision]:
+    """The plan's revision history, one entry per revision."""
+    out = []
+    for p, item in r.items(plan, "history", "plan"):
+        d = r.obj(item, p, ("revision",), ("date", "by", "description"))
+        if d is None:
+            continue
+        rev = r.build(
+            p,
+            partial(
+                Revision,
+                r.text(d, "revision", p),
+                r.text(d, "date", p),
+                r.text(d, "by", p),
+                r.text(d, "description", p),
+            ),
+        )
+        if rev is not None:
+            out.append(rev)
+    return out
 
 
 def _decode_units(r: _Reader, value: Any) -> DisplayUnits | None:
@@ -266,11 +300,23 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
     )
     fittings: list[Fitting] = []
     for p, item in r.items(d, "fittings", path):
-        f = r.obj(item, p, ("name", "kind", "position_m"), ("type", "swl_kN"))
+        f = r.obj(
+            item,
+            p,
+            ("name", "kind", "position_m"),
+            ("type", "swl_kN", "tow_kN", "permitted_lead_deg"),
+        )
         if f is None:
             continue
         pos = r.point(f.get("position_m"), f"{p}.position_m")
         swl = r.number(f, "swl_kN", p, positive=True, unit="kN")
+        tow = r.number(f, "tow_kN", p, positive=True, unit="kN")
+        permitted = None
+        if f.get("permitted_lead_deg") is not None:
+            pair = r.point(f["permitted_lead_deg"], f"{p}.permitted_lead_deg")
+            if pair is None:
+                continue
+            permitted = _sector(pair)
         kind = f.get("kind")
         if kind not in ("line", "push"):
             r.fail(f"{p}.kind", f"{kind!r} is not 'line' or 'push'")
@@ -286,6 +332,8 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
                     pos[1],
                     r.text(f, "type", p, "bitt"),
                     None if swl is None else swl * KN,
+                    None if tow is None else tow * KN,
+                    permitted,
                 ),
             )
             if fitting is not None:
@@ -337,13 +385,25 @@ def _decode_tug(r: _Reader, value: Any, path: str) -> Tug | None:
         value,
         path,
         ("name", "bollard_pull_kN"),
-        ("type", "role", "astern_pull_kN", "towing_point_height_m"),
+        (
+            "type",
+            "role",
+            "astern_pull_kN",
+            "towing_point_height_m",
+            "certificate_date",
+            "towline_length_m",
+            "towline_mbl_kN",
+            "call_sign",
+            "working_channel",
+        ),
     )
     if d is None:
         return None
     bp = r.number(d, "bollard_pull_kN", path, positive=True, unit="kN")
     astern = r.number(d, "astern_pull_kN", path, low=0.0, unit="kN")
     height = r.number(d, "towing_point_height_m", path, low=0.0, unit="m")
+    towline = r.number(d, "towline_length_m", path, positive=True, unit="m")
+    mbl = r.number(d, "towline_mbl_kN", path, positive=True, unit="kN")
     if bp is None:
         return None
     return r.build(
@@ -355,6 +415,11 @@ def _decode_tug(r: _Reader, value: Any, path: str) -> Tug | None:
             r.text(d, "type", path),
             r.text(d, "role", path),
             height,
+            r.text(d, "certificate_date", path),
+            towline,
+            None if mbl is None else mbl * KN,
+            r.text(d, "call_sign", path),
+            r.text(d, "working_channel", path),
         ),
     )
 
@@ -380,6 +445,12 @@ def _decode_site(r: _Reader, value: Any) -> Site | None:
         if feature is not None:
             features.append(feature)
     return Site(r.text(d, "name", "site"), tuple(features))
+
+
+def _sector(pair: tuple[float, float]) -> tuple[float, float]:
+    """[from, to] relative bearings, clockwise, as a (low, high) counter-clockwise hull-frame
+    sector: clockwise from ``from`` to ``to`` is counter-clockwise from ``to`` to ``from``."""
+    return (bearing_to_angle(pair[1]), bearing_to_angle(pair[0]))
 
 
 class _Context:
@@ -444,7 +515,7 @@ def _decode_placement(r: _Reader, value: Any, path: str, ctx: _Context) -> Place
         elif kind == "push":
             sector = (-math.radians(pair[1]), -math.radians(pair[0]))
         else:
-            sector = (bearing_to_angle(pair[1]), bearing_to_angle(pair[0]))
+            sector = _sector(pair)
     if not ok or setting is None or lead is None or length is None:
         return None
     return r.build(

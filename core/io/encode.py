@@ -39,6 +39,10 @@ def encode(project: Project) -> Json:
             "checked_by": project.checked_by,
             "approved_by": project.approved_by,
             "notes": project.notes,
+            "history": [
+                {"revision": r.revision, "date": r.date, "by": r.by, "description": r.description}
+                for r in project.history
+            ],
         },
         "display_units": {q: project.units.unit(q) for q in CHOICES},
         "clearance_margin_m": num(project.clearance_margin_m),
@@ -65,6 +69,11 @@ def encode(project: Project) -> Json:
                 "bollard_pull_kN": num(t.bollard_pull_n / KN),
                 "astern_pull_kN": num(t.astern_pull / KN),
                 "towing_point_height_m": _opt(t.towing_point_height_m),
+                "certificate_date": t.certificate_date,
+                "towline_length_m": _opt(t.towline_length_m),
+                "towline_mbl_kN": _opt(t.towline_mbl_n, KN),
+                "call_sign": t.call_sign,
+                "working_channel": t.working_channel,
             }
             for t in project.tugs
         ],
@@ -104,10 +113,21 @@ def _encode_hull(h: Hull) -> Json:
                 "type": f.fitting_type,
                 "position_m": _pt((f.x, f.y)),
                 "swl_kN": _opt(f.swl_n, KN),
+                "tow_kN": _opt(f.tow_n, KN),
+                "permitted_lead_deg": _sector(f.permitted_lead_rad),
             }
             for f in h.fittings
         ],
     }
+
+
+def _sector(sector: tuple[float, float] | None) -> list[float] | None:
+    """A (low, high) counter-clockwise hull-frame sector as [from, to] relative bearings,
+    clockwise (counter-clockwise from low to high is clockwise from high to low)."""
+    if sector is None:
+        return None
+    lo, hi = sector
+    return [num(angle_to_bearing(hi)), num(angle_to_bearing(lo))]
 
 
 def _fitting_kind(project: Project, p: Placement) -> str:
@@ -131,9 +151,7 @@ def _encode_placement(project: Project, p: Placement) -> Json:
         d["line_length_m"] = num(p.line_length_m)
     d["astern"] = p.astern
     if p.lead_sector_rad is not None:
-        lo, hi = p.lead_sector_rad
-        # Counter-clockwise from lo to hi is clockwise (in bearings) from hi to lo.
-        d["lead_sector_deg"] = [num(angle_to_bearing(hi)), num(angle_to_bearing(lo))]
+        d["lead_sector_deg"] = _sector(p.lead_sector_rad)
     return d
 
 

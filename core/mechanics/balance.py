@@ -55,7 +55,7 @@ class TugLayout:
     is_push: np.ndarray  # (n,) bool
     rated_n: np.ndarray  # (n,) rated pull for the way the tug works (ahead or astern), N
     usable_n: np.ndarray  # (n,) usable pull, N (rated x efficiency x line-angle factor)
-    swl_n: np.ndarray  # (n,) fitting rating, N; nan where none is given
+    swl_n: np.ndarray  # (n,) fitting rating (TOW, else SWL), N; nan where none is given
     line_angle_rad: np.ndarray | None = None  # (n,) towline angle off the horizontal, rad
 
     @property
@@ -107,8 +107,9 @@ def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
             angle[i] = line_angle_rad(
                 member.hull.freeboard_m, tug.towing_point_height_m, p.line_length_m
             )
-        if f.swl_n is not None:
-            swl[i] = f.swl_n
+        rating = f.towing_rating_n
+        if rating is not None:
+            swl[i] = rating
     # Usable pull: rated x efficiency (sea state) x cos(towline angle); see core.mechanics.usable.
     eff = project.tug_efficiency.efficiencies(bp, stage.conditions.sea_state)
     usable = rated * eff * np.cos(angle)
@@ -217,11 +218,12 @@ def _notices(layout: TugLayout, pulls: np.ndarray, body: Body, units: DisplayUni
                 )
             )
         if not math.isnan(layout.swl_n[i]) and pulls[i] > layout.swl_n[i] * (1 + 1e-9):
+            rating = body.fitting(p.hull, p.point)[1].rating_label
             out.append(
                 Notice(
                     "over_swl",
                     p.tug,
-                    f"{p.tug}: pull {units.show(pulls[i], 'force')} is over the SWL "
+                    f"{p.tug}: pull {units.show(pulls[i], 'force')} is over the {rating} "
                     f"{units.show(layout.swl_n[i], 'force')} of fitting {p.point}",
                 )
             )

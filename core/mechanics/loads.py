@@ -23,6 +23,7 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from core.errors import InputError
+from core.frames import angle_to_bearing
 from core.mechanics.balance import Balance, Load, analyse_layout, tug_layout
 from core.mechanics.bodies import Body, stage_body
 from core.mechanics.usable import fitting_suits
@@ -288,25 +289,49 @@ def analyse_stage(project: Project, stage: Stage, body: str | None = None) -> Ba
 
 
 def fitting_notices(project: Project, stage: Stage, body: Body) -> tuple[Notice, ...]:
-    """A tug made fast at a fitting whose SWL is below the tug's bollard pull (IMO rule)."""
+    """Line points not fit for the tug made fast there.
+
+    - ``fitting_under_rated``: the fitting's towing rating (TOW, else SWL) is below the
+      tug's bollard pull (IMO MSC.1/Circ.1175: a fitting of rating S suits tugs of bollard
+      pull up to S).
+    - ``outside_permitted_angles``: the towline leads outside the directions the fitting
+      is rated for.
+    """
     out = []
     members = {m.hull.name for m in body.members}
+    u = project.units
     for p in stage.placements:
         if p.hull not in members:
             continue
         fitting = body.fitting(p.hull, p.point)[1]
-        tug = project.tug(p.tug)
-        if fitting.kind != "line" or fitting.swl_n is None:
+        if fitting.kind != "line":
             continue
-        if not fitting_suits(fitting.swl_n, tug.bollard_pull_n):
-            u = project.units
+        tug = project.tug(p.tug)
+        rating = fitting.towing_rating_n
+        if rating is not None and not fitting_suits(rating, tug.bollard_pull_n):
             out.append(
                 Notice(
                     "fitting_under_rated",
                     p.tug,
                     f"{p.tug}: bollard pull {u.show(tug.bollard_pull_n, 'force')} is above "
-                    f"the SWL {u.show(fitting.swl_n, 'force')} of {p.point}; the fitting is "
-                    "not rated for this tug",
+                    f"the {fitting.rating_label} {u.show(rating, 'force')} of {p.point}; "
+                    "the fitting is not rated for this tug",
+                )
+            )
+        if not fitting.permits_lead(p.lead_rad):
+            lo, hi = fitting.permitted_lead_rad or (0.0, 0.0)
+            out.append(
+                Notice(
+                    "outside_permitted_angles",
+                    p.tug,
+                    f"{p.tug}: towline leads at {_bearing(p.lead_rad)} relative, outside the "
+                    f"line angles {p.point} is rated for ({_bearing(hi)} to {_bearing(lo)} "
+                    "clockwise)",
                 )
             )
     return tuple(out)
+
+
+def _bearing(angle_rad: float) -> str:
+    """A hull-frame angle as a three-digit relative bearing: "045°"."""
+    return f"{round(angle_to_bearing(angle_rad)) % 360:03d}°"

@@ -14,6 +14,7 @@ import numpy as np
 import shapely
 
 from core.errors import InputError
+from core.frames import angle_in_sector, wrap_pi
 from core.model.outlines import Outline, validate_outline
 
 FittingKind = Literal["line", "push"]
@@ -24,7 +25,20 @@ FITTING_TYPES = ("bitt", "bollard", "fairlead", "chock", "pushing pad")
 class Fitting:
     """A line point (a towline is made fast here) or a push point, on the outline.
 
-    ``swl_n`` is the fitting's rated safe working load (or TOW) in newtons, if known.
+    Parameters
+    ----------
+    fitting_type:
+        Free text, usually one of :data:`FITTING_TYPES` (bitt, bollard, fairlead...).
+    swl_n:
+        Safe working load, N, where known (the rating marked for mooring and general use).
+    tow_n:
+        Safe towing load (TOW), N, where known: the rating for towing under IMO
+        MSC.1/Circ.1175. A towline is checked against TOW, or against SWL where no TOW
+        is given (:attr:`towing_rating_n`).
+    permitted_lead_rad:
+        The towline directions the fitting is rated for, (low, high): hull-frame angles of
+        the line from the fitting towards the tug, counter-clockwise from low to high (the
+        same frame as a placement's lead). None: any direction.
     """
 
     name: str
@@ -33,6 +47,8 @@ class Fitting:
     y: float
     fitting_type: str = "bitt"
     swl_n: float | None = None
+    tow_n: float | None = None
+    permitted_lead_rad: tuple[float, float] | None = None
 
     def __post_init__(self) -> None:
         if not self.name.strip():
@@ -44,8 +60,48 @@ class Fitting:
                 raise InputError(
                     f"fitting {self.name}: {attr}", getattr(self, attr), "must be finite"
                 )
-        if self.swl_n is not None and not (math.isfinite(self.swl_n) and self.swl_n > 0):
-            raise InputError(f"fitting {self.name}: SWL", self.swl_n, "must be a positive force")
+        for attr, label in (("swl_n", "SWL"), ("tow_n", "TOW")):
+            v = getattr(self, attr)
+            if v is not None and not (math.isfinite(v) and v > 0):
+                raise InputError(f"fitting {self.name}: {label}", v, "must be a positive force")
+        if self.permitted_lead_rad is not None:
+            if self.kind != "line":
+                raise InputError(
+                    f"fitting {self.name}: permitted line angles",
+                    self.permitted_lead_rad,
+                    "apply to line points only",
+                )
+            lo, hi = (float(v) for v in self.permitted_lead_rad)
+            if not (math.isfinite(lo) and math.isfinite(hi)):
+                raise InputError(
+                    f"fitting {self.name}: permitted line angles",
+                    self.permitted_lead_rad,
+                    "must be finite",
+                )
+            if abs(wrap_pi(hi - lo)) < 1e-9:
+                raise InputError(
+                    f"fitting {self.name}: permitted line angles",
+                    self.permitted_lead_rad,
+                    "must span more than one direction",
+                )
+            object.__setattr__(self, "permitted_lead_rad", (wrap_pi(lo), wrap_pi(hi)))
+
+    @property
+    def towing_rating_n(self) -> float | None:
+        """The rating a towline is checked against: TOW, else SWL, else None."""
+        return self.tow_n if self.tow_n is not None else self.swl_n
+
+    @property
+    def rating_label(self) -> str:
+        """What :attr:`towing_rating_n` is: "TOW" or "SWL" (or "" when no rating is given)."""
+        return "TOW" if self.tow_n is not None else "SWL" if self.swl_n is not None else ""
+
+    def permits_lead(self, lead_rad: float) -> bool:
+        """Whether a towline leading at ``lead_rad`` (hull frame) is within the permitted
+        line angles (always, where none are given)."""
+        if self.permitted_lead_rad is None:
+            return True
+        return angle_in_sector(lead_rad, *self.permitted_lead_rad)
 
     def moved_to(self, x: float, y: float) -> Fitting:
         return replace(self, x=float(x), y=float(y))

@@ -20,6 +20,17 @@ from core.model.outlines import Outline, validate_outline
 from core.model.tugs import Placement, Tug
 from core.units import DisplayUnits
 
+#: The plan's title block: what the plan details dialog edits and the briefing's cover shows.
+TITLE_BLOCK_FIELDS = (
+    "name",
+    "revision",
+    "date",
+    "prepared_by",
+    "checked_by",
+    "approved_by",
+    "notes",
+    "history",
+)
 STAGE_KINDS = ("unberth", "swing", "transit", "berth", "other")
 SiteFeatureKind = Literal["quay", "dolphin", "vessel", "limit"]
 SITE_FEATURE_KINDS: tuple[SiteFeatureKind, ...] = ("quay", "dolphin", "vessel", "limit")
@@ -29,6 +40,20 @@ def _finite(field_name: str, *values: float) -> None:
     for v in values:
         if not math.isfinite(v):
             raise InputError(field_name, v, "must be finite")
+
+
+@dataclass(frozen=True, slots=True)
+class Revision:
+    """One line of the plan's revision history: which revision, when, by whom, and why."""
+
+    revision: str
+    date: str = ""
+    by: str = ""
+    description: str = ""
+
+    def __post_init__(self) -> None:
+        if not self.revision.strip():
+            raise InputError("revision history: revision", self.revision, "must not be empty")
 
 
 @dataclass(frozen=True, slots=True)
@@ -187,6 +212,7 @@ class Project:
     checked_by: str = ""
     approved_by: str = ""
     notes: str = ""
+    history: tuple[Revision, ...] = ()
     units: DisplayUnits = field(default_factory=DisplayUnits)
     hulls: tuple[Hull, ...] = ()
     groups: tuple[LashedGroup, ...] = ()
@@ -197,6 +223,8 @@ class Project:
     tug_efficiency: EfficiencyTable = field(default_factory=EfficiencyTable)
 
     def __post_init__(self) -> None:
+        if not self.name.strip():
+            raise InputError("plan name", self.name, "must not be empty")
         for label, names in (
             ("hull", [h.name for h in self.hulls] + [g.name for g in self.groups]),
             ("tug", [t.name for t in self.tugs]),
@@ -290,3 +318,11 @@ class Project:
 
     def with_units(self, units: DisplayUnits) -> Project:
         return replace(self, units=units)
+
+    def with_title_block(self, **fields: object) -> Project:
+        """The project with title-block fields replaced (name, revision, date, prepared_by,
+        checked_by, approved_by, notes, history); any other field is refused."""
+        unknown = sorted(set(fields) - set(TITLE_BLOCK_FIELDS))
+        if unknown:
+            raise InputError("title block field", unknown[0], "is not part of the title block")
+        return replace(self, **fields)  # type: ignore[arg-type]

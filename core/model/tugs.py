@@ -37,6 +37,15 @@ class Tug:
         Free text for the briefing: "centre lead forward", "pushing starboard quarter".
     towing_point_height_m:
         Height of the tug's towing point (staple, winch or hook) above the water, m.
+    certificate_date:
+        Date of the bollard pull certificate, as written on it (free text, ISO date
+        preferred).
+    towline_length_m:
+        Length of the tug's towline, m, where known.
+    towline_mbl_n:
+        Minimum breaking load of the tug's towline, N, where known.
+    call_sign, working_channel:
+        The tug's radio call sign and the VHF channel it works on in this move.
     """
 
     name: str
@@ -45,6 +54,11 @@ class Tug:
     tug_type: str = ""
     role: str = ""
     towing_point_height_m: float | None = None
+    certificate_date: str = ""
+    towline_length_m: float | None = None
+    towline_mbl_n: float | None = None
+    call_sign: str = ""
+    working_channel: str = ""
 
     def __post_init__(self) -> None:
         if not self.name.strip():
@@ -57,6 +71,11 @@ class Tug:
         h = self.towing_point_height_m
         if h is not None and not (math.isfinite(h) and h >= 0):
             raise InputError(f"tug {self.name}: towing point height", h, "must be zero or positive")
+        n = self.towline_length_m
+        if n is not None and not (math.isfinite(n) and n > 0):
+            raise InputError(f"tug {self.name}: towline length", n, "must be a positive length")
+        if self.towline_mbl_n is not None:
+            _check_force(f"tug {self.name}: towline MBL", self.towline_mbl_n)
 
     @property
     def astern_pull(self) -> float:
