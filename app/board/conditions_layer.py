@@ -22,8 +22,8 @@ from app.paint import style
 from core.model.conditions import Conditions
 from core.units import DisplayUnits
 
-WIND = QColor("#455a64")
-CURRENT = QColor("#3949ab")
+WIND = style.WIND
+CURRENT = style.CURRENT
 CARD_WIDTH = 176.0
 
 
@@ -84,7 +84,7 @@ def draw_conditions_card(
     p.setBrush(style.LABEL_BG)
     p.drawRoundedRect(rect, 5, 5)
     centre = QPointF(rect.center().x(), rect.top() + 42)
-    p.setPen(QPen(QColor("#c9d6e0"), 1.0))
+    p.setPen(QPen(style.GRID_MAJOR, 1.0))
     p.setBrush(Qt.BrushStyle.NoBrush)
     p.drawEllipse(centre, 34, 34)
     p.setPen(style.TEXT)

@@ -12,7 +12,7 @@ from collections.abc import Callable
 
 import shapely
 from PySide6.QtCore import QLineF, QPointF, Qt
-from PySide6.QtGui import QColor, QPainterPath, QPolygonF, QTransform
+from PySide6.QtGui import QPainterPath, QPolygonF
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
 from app.board.items import (
@@ -29,9 +29,10 @@ from app.board.items import (
     PathItem,
     TugItem,
     polygon_path,
-    tug_polygon,
 )
 from app.paint import style
+from app.paint.shapes import TUG_LENGTH_M, placed_tug, tug_label_anchor, tug_origin
+from app.paint.symbols import polygon
 from core.frames import turning_words
 from core.mechanics.balance import Balance, TugShare
 from core.mechanics.bodies import Body, Member
@@ -80,7 +81,7 @@ class HullDrawing:
         self.invalid = PathItem(self.frame)
         self.invalid.setZValue(Z_HULL + 1)
         self.invalid.setPen(style.pen(style.INVALID, 2.0, Qt.PenStyle.DashLine))
-        self.invalid.setBrush(QColor(211, 47, 47, 40))
+        self.invalid.setBrush(style.INVALID_FILL)
         self.invalid.setVisible(False)
         self.centreline = LineItem(self.frame)
         self.centreline.setZValue(Z_HULL + 1)
@@ -309,32 +310,19 @@ class TugDrawing:
             return  # nothing about this tug changed (the drag moves one tug at a time)
         self._key = key
         dx, dy = direction
-        heading = math.degrees(math.atan2(dy, dx))
         towline = None
         if share.mode == "line":
             tx, ty = share.position
             towline = QLineF(point[0], point[1], tx, ty)
-            # the tug lies along its line, stern to the hull, its towing point on the line's end
-            glyph_at = (tx, ty)
-        else:
-            # bow against the push point, lying along the push
-            off = 0.65 * style.TUG_LENGTH_M + 0.5
-            glyph_at = (point[0] - dx * off, point[1] - dy * off)
-        t = QTransform()
-        t.translate(*glyph_at)
-        t.rotate(heading)
-        glyph = t.map(tug_polygon(style.TUG_LENGTH_M, style.TUG_BEAM_M))
+        # on a line the tug lies along it, stern to the hull; pushing, its bow on the point
+        origin = tug_origin(share.mode, point, share.position, direction)
+        glyph = polygon(placed_tug(origin, direction))
         # the force arrow starts where the force acts on the hull and points along it
         length = share.pull_n * force_scale
         arrow = (point, (point[0] + dx * length, point[1] + dy * length)) if length > 1e-6 else None
         self.glyph.set_geometry(towline, glyph, arrow, head)
         # the label sits just beyond the tug, away from the hull
-        if share.mode == "line":
-            far = 0.65 * style.TUG_LENGTH_M + 5.0
-            lx, ly = glyph_at[0] + dx * far, glyph_at[1] + dy * far
-        else:
-            far = 0.35 * style.TUG_LENGTH_M + 5.0
-            lx, ly = glyph_at[0] - dx * far, glyph_at[1] - dy * far
+        lx, ly = tug_label_anchor(share.mode, origin, direction)
         self.label.setPos(lx, ly)
         self.label.set_text(text(share))
 
@@ -446,7 +434,7 @@ class BalanceDrawing:
             px, py = eq.point
             ux, uy = eq.direction
             # long enough to cross the board round the body; a longer dashed line only costs
-            reach = 1.3 * (body.length + body.beam) + 2 * style.TUG_LENGTH_M
+            reach = 1.3 * (body.length + body.beam) + 2 * TUG_LENGTH_M
             self.action.setLine(
                 QLineF(px - ux * reach, py - uy * reach, px + ux * reach, py + uy * reach)
             )
@@ -514,6 +502,8 @@ class BalanceDrawing:
             fx, fy = ld.force
             start = (px - fx * scale, py - fy * scale)  # a load is drawn arriving at its point
             a.set_geometry(start, (px, py), head)
+            a.set_color(style.load_color(ld.name))
+            lab.set_color(style.load_color(ld.name))
             lab.setPos(*start)
             lab.set_text(f"{ld.name} {units.show(math.hypot(fx, fy), 'force')}")
 

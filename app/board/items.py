@@ -29,7 +29,16 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from app.paint import style
+from app.paint import style, symbols
+from app.paint.shapes import (
+    HEAD_HALF_WIDTH,
+    TUG_BEAM_M,
+    TUG_LENGTH_M,
+    arc_arrow,
+    arrow_head,
+    tug_outline,
+)
+from app.paint.symbols import draw_centroid, draw_cog, draw_crossing, polygon, polyline_path
 
 #: Key of the item data slot that says what an item stands for, e.g. ("tug", "Gannet").
 ROLE = 0
@@ -158,32 +167,15 @@ class Mark(QGraphicsItem):
         if k != 1.0:
             painter.scale(k, k)
         painter.setRenderHint(QPainter.RenderHint.Antialiasing)
-        painter.setPen(QPen(self.color, 1.5))
-        if self.kind == "centroid":  # ring with a cross through it
-            painter.setBrush(Qt.BrushStyle.NoBrush)
-            painter.drawEllipse(QPointF(0, 0), r * 0.7, r * 0.7)
-            painter.drawLine(QPointF(-r, 0), QPointF(r, 0))
-            painter.drawLine(QPointF(0, -r), QPointF(0, r))
-        elif self.kind == "cog":  # quartered disc, the usual engineering symbol
-            rect = QRectF(-r * 0.8, -r * 0.8, r * 1.6, r * 1.6)
-            painter.setBrush(QColor("white"))
-            painter.drawEllipse(rect)
-            painter.setBrush(self.color)
-            painter.drawPie(rect, 0, 90 * 16)
-            painter.drawPie(rect, 180 * 16, 90 * 16)
-        elif self.kind == "crossing":  # diamond
-            painter.setBrush(QColor("white"))
-            painter.drawPolygon(
-                QPolygonF(
-                    [
-                        QPointF(0, -r * 0.8),
-                        QPointF(r * 0.8, 0),
-                        QPointF(0, r * 0.8),
-                        QPointF(-r * 0.8, 0),
-                    ]
-                )
-            )
+        c = QPointF(0, 0)
+        if self.kind == "centroid":
+            draw_centroid(painter, c, r, self.color, 1.5)
+        elif self.kind == "cog":
+            draw_cog(painter, c, r, self.color, 1.5)
+        elif self.kind == "crossing":
+            draw_crossing(painter, c, r, self.color, 1.5)
         elif self.kind == "reference":  # small square with a dot: the hull frame's origin
+            painter.setPen(QPen(self.color, 1.5))
             painter.setBrush(Qt.BrushStyle.NoBrush)
             painter.drawRect(QRectF(-r * 0.5, -r * 0.5, r, r))
             painter.setBrush(self.color)
@@ -312,39 +304,24 @@ def paint_arrow(
     painter: QPainter, pen: QPen, brush: QBrush, shaft: QPainterPath, head: QPolygonF
 ) -> None:
     """Draw an arrow's shaft with its pen scaled to the device, and its filled head."""
-    if head.isEmpty():
-        return
     k = style.device_scale(painter)
-    painter.setPen(style.scaled_pen(pen, k))
-    painter.setBrush(Qt.BrushStyle.NoBrush)
-    painter.drawPath(shaft)
-    outline = QPen(pen)
-    outline.setWidthF(1.0 * k)
-    painter.setPen(outline)
-    painter.setBrush(brush)
-    painter.drawPolygon(head)
+    symbols.paint_arrow(painter, style.scaled_pen(pen, k), brush.color(), shaft, head, 1.0 * k)
 
 
 def arrow_parts(
     start: tuple[float, float], end: tuple[float, float], head: float
 ) -> tuple[QPainterPath, QPolygonF, QRectF]:
-    """Shaft, head and bounds of a straight arrow; empty when it has no length."""
-    dx, dy = end[0] - start[0], end[1] - start[1]
-    length = math.hypot(dx, dy)
-    shaft = QPainterPath()
-    if length < 1e-9:
-        return shaft, QPolygonF(), QRectF()
-    ux, uy = dx / length, dy / length
-    h = min(head, 0.6 * length)
-    w = 0.45 * h
-    bx, by = end[0] - ux * h, end[1] - uy * h
-    shaft.moveTo(*start)
-    shaft.lineTo(bx + ux * 0.2 * h, by + uy * 0.2 * h)
-    tip = QPolygonF(
-        [QPointF(*end), QPointF(bx - uy * w, by + ux * w), QPointF(bx + uy * w, by - ux * w)]
-    )
-    rect = shaft.boundingRect().united(tip.boundingRect()).adjusted(-w, -w, w, w)
-    return shaft, tip, rect
+    """Shaft, head and bounds of a straight arrow (:func:`app.paint.shapes.arrow_head`);
+    empty when it has no length."""
+    parts = arrow_head(start, end, head)
+    if parts is None:
+        return QPainterPath(), QPolygonF(), QRectF()
+    shaft_end, tip = parts
+    shaft = polyline_path([start, shaft_end])
+    head_poly = polygon(tip)
+    w = HEAD_HALF_WIDTH * head
+    rect = shaft.boundingRect().united(head_poly.boundingRect()).adjusted(-w, -w, w, w)
+    return shaft, head_poly, rect
 
 
 class TugItem(QGraphicsItem):
@@ -396,7 +373,7 @@ class TugItem(QGraphicsItem):
 
     def set_selected(self, on: bool) -> None:
         self._edge_pen = style.pen(style.SELECTION if on else style.TUG_EDGE, 2.6 if on else 1.3)
-        self._fill = QBrush(QColor("#ffe2a1") if on else style.TUG_FILL)
+        self._fill = QBrush(style.TUG_FILL_SELECTED if on else style.TUG_FILL)
         self.update()
 
     def boundingRect(self) -> QRectF:
@@ -416,15 +393,14 @@ class TugItem(QGraphicsItem):
         painter.setPen(style.scaled_pen(self._edge_pen, k))
         painter.setBrush(self._fill)
         painter.drawPolygon(self._glyph)
-        if not self._head.isEmpty():
-            painter.setPen(style.scaled_pen(self._arrow_pen, k))
-            painter.setBrush(Qt.BrushStyle.NoBrush)
-            painter.drawPath(self._shaft)
-            p = QPen(self._arrow_pen)
-            p.setWidthF(1.0 * k)
-            painter.setPen(p)
-            painter.setBrush(self._arrow_pen.color())
-            painter.drawPolygon(self._head)
+        symbols.paint_arrow(
+            painter,
+            style.scaled_pen(self._arrow_pen, k),
+            self._arrow_pen.color(),
+            self._shaft,
+            self._head,
+            1.0 * k,
+        )
 
 
 class MomentArrow(_ArrowItem):
@@ -443,34 +419,14 @@ class MomentArrow(_ArrowItem):
             return
         self._key = key
         self.prepareGeometryChange()
-        self._shaft = QPainterPath()
-        self._head = QPolygonF()
-        if abs(sweep_deg) < 1e-6 or radius <= 0:
-            self._rect = QRectF()
+        parts = arc_arrow(centre, radius, start_deg, sweep_deg, head)
+        if parts is None:
+            self._shaft, self._head, self._rect = QPainterPath(), QPolygonF(), QRectF()
             return
-        cx, cy = centre
-        n = max(8, int(abs(sweep_deg) / 4))
-        a0 = math.radians(start_deg)
-        # the head takes up the last part of the arc
-        head_angle = min(head / radius, abs(math.radians(sweep_deg)) * 0.5)
-        sign = 1.0 if sweep_deg > 0 else -1.0
-        a_end = a0 + math.radians(sweep_deg)
-        a_shaft = a_end - sign * head_angle * 0.8
-        for i in range(n + 1):
-            a = a0 + (a_shaft - a0) * i / n
-            pt = (cx + radius * math.cos(a), cy + radius * math.sin(a))
-            if i == 0:
-                self._shaft.moveTo(*pt)
-            else:
-                self._shaft.lineTo(*pt)
-        tip = (cx + radius * math.cos(a_end), cy + radius * math.sin(a_end))
-        base_a = a_end - sign * head_angle
-        w = 0.45 * head
-        bx, by = cx + radius * math.cos(base_a), cy + radius * math.sin(base_a)
-        rx, ry = math.cos(base_a), math.sin(base_a)  # radial unit at the head's base
-        self._head = QPolygonF(
-            [QPointF(*tip), QPointF(bx + rx * w, by + ry * w), QPointF(bx - rx * w, by - ry * w)]
-        )
+        shaft, tip = parts
+        self._shaft = polyline_path(shaft)
+        self._head = polygon(tip)
+        w = HEAD_HALF_WIDTH * head
         self._rect = (
             self._shaft.boundingRect().united(self._head.boundingRect()).adjusted(-w, -w, w, w)
         )
@@ -486,24 +442,9 @@ def polygon_path(
     return path
 
 
-def tug_polygon(length: float, beam: float) -> QPolygonF:
-    """A tug's plan shape, bow at +x, its towing point at the origin (aft of midships)."""
-    h = beam / 2
-    aft = -0.35 * length
-    fwd = 0.65 * length
-    shoulder = fwd - 0.3 * length
-    pts = [
-        (aft, -h * 0.85),
-        (aft + 0.08 * length, -h),
-        (shoulder, -h),
-        (fwd - 0.08 * length, -h * 0.45),
-        (fwd, 0.0),
-        (fwd - 0.08 * length, h * 0.45),
-        (shoulder, h),
-        (aft + 0.08 * length, h),
-        (aft, h * 0.85),
-    ]
-    return QPolygonF([QPointF(x, y) for x, y in pts])
+def tug_polygon(length: float = TUG_LENGTH_M, beam: float = TUG_BEAM_M) -> QPolygonF:
+    """A tug's plan shape (:func:`app.paint.shapes.tug_outline`), bow at +x, towing point at 0."""
+    return polygon(tug_outline(length, beam))
 
 
 class PathItem(QGraphicsPathItem):

@@ -10,9 +10,10 @@ from __future__ import annotations
 import math
 
 from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
-from PySide6.QtGui import QColor, QPainter, QPen, QPolygonF
+from PySide6.QtGui import QColor, QPainter, QPen
 
 from app.paint import style
+from app.paint.symbols import draw_north
 from core.units import DisplayUnits, from_si, label
 
 
@@ -100,31 +101,4 @@ def draw_scale_bar(
 
 def draw_north_arrow(painter: QPainter, centre: QPointF, size: float = 22.0) -> None:
     """A north arrow pointing up the device (the board always has north up)."""
-    painter.save()
-    painter.setRenderHint(QPainter.RenderHint.Antialiasing)
-    cx, cy = centre.x(), centre.y()
-    painter.setPen(Qt.PenStyle.NoPen)
-    painter.setBrush(style.LABEL_BG)
-    painter.drawEllipse(centre, size * 1.25, size * 1.25)
-    painter.setPen(QPen(style.TEXT, 1.2))
-    left = QPolygonF(
-        [
-            QPointF(cx, cy - size),
-            QPointF(cx - size * 0.4, cy + size * 0.7),
-            QPointF(cx, cy + size * 0.35),
-        ]
-    )
-    right = QPolygonF(
-        [
-            QPointF(cx, cy - size),
-            QPointF(cx + size * 0.4, cy + size * 0.7),
-            QPointF(cx, cy + size * 0.35),
-        ]
-    )
-    painter.setBrush(style.TEXT)
-    painter.drawPolygon(left)
-    painter.setBrush(QColor("white"))
-    painter.drawPolygon(right)
-    painter.setFont(style.label_font(9, bold=True))
-    painter.drawText(QRectF(cx - 10, cy - size - 17, 20, 14), Qt.AlignmentFlag.AlignCenter, "N")
-    painter.restore()
+    draw_north(painter, centre, size, style.label_font(9, bold=True), 1.2)

@@ -10,7 +10,7 @@ only when the poses, the hulls or the site change (not while a tug is dragged).
 from __future__ import annotations
 
 from PySide6.QtCore import QPointF, Qt
-from PySide6.QtGui import QColor, QPainterPath, QPolygonF
+from PySide6.QtGui import QPainterPath, QPolygonF
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsLineItem, QGraphicsPathItem
 
 from app.board.items import Label
@@ -25,12 +25,12 @@ from core.model.plan import SiteFeature
 Z_SITE = -5.0
 Z_CLEARANCE = 1.0  # above the hulls' fill, under the tugs
 
-QUAY = QColor("#454b52")
-DOLPHIN_FILL = QColor("#8d949b")
-VESSEL_FILL = QColor("#cfd4da")
-LIMIT = QColor("#2f6f9f")
-CLEAR_OK = QColor("#37474f")
-CLEAR_LOW = QColor("#c62828")
+QUAY = style.QUAY
+DOLPHIN_FILL = style.DOLPHIN_FILL
+VESSEL_FILL = style.VESSEL_FILL
+LIMIT = style.LIMIT
+CLEAR_OK = style.CLEARANCE
+CLEAR_LOW = style.CLEARANCE_LOW
 
 
 def feature_path(f: SiteFeature) -> QPainterPath:
@@ -89,9 +89,7 @@ class SiteLayer:
                 item.setPen(style.pen(QUAY, 1.0))
                 item.setBrush(style.brush(VESSEL_FILL if f.kind == "vessel" else DOLPHIN_FILL))
             self.scene.addItem(item)
-            lab = Label(
-                f.name, None, QColor("#5b6470"), style.label_font(8.0), (0.0, -10.0), "centre"
-            )
+            lab = Label(f.name, None, style.MUTED, style.label_font(8.0), (0.0, -10.0), "centre")
             lab.setPos(*label_point(f))
             lab.setZValue(Z_SITE + 0.5)
             self.scene.addItem(lab)

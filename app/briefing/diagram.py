@@ -15,6 +15,17 @@ from PySide6.QtCore import QPointF, QRectF, Qt
 from PySide6.QtGui import QColor, QPainter, QPainterPath, QPen, QPolygonF
 
 from app.briefing.layout import FAIL, INK, MUTED, RULE, Ctx
+from app.paint import style
+from app.paint.shapes import TUG_LENGTH_M, arrow_head, placed_tug, tug_label_anchor, tug_origin
+from app.paint.symbols import (
+    draw_centroid,
+    draw_cog,
+    draw_crossing,
+    draw_north,
+    paint_arrow,
+    polygon,
+    polyline_path,
+)
 from core.analysis.checks import StageCheck
 from core.frames import site_angle_to_true, true_to_site_angle
 from core.mechanics.balance import Balance
@@ -50,20 +61,13 @@ SCALES = (
 )
 #: Round force-arrow scales, display units per 10 mm of arrow.
 FORCE_STEPS = (1, 2, 2.5, 5, 10, 20, 25, 50, 100, 200, 250, 500, 1000)
-TUG_LENGTH_M, TUG_BEAM_M = 28.0, 10.0
 LEGEND_MM = 17.0  # the key strip under the map
 
-HULL_FILL = QColor("#dfe7ef")
-HULL_EDGE = QColor("#1f3b57")
-TUG_FILL = QColor("#f4d35e")
-TUG_FORCE = QColor("#c0561b")
-NET_FORCE = QColor("#5b2a86")
-LOAD_FORCE = QColor("#1f77a8")
-QUAY = QColor("#4a4f55")
-VESSEL_FILL = QColor("#cfd3d8")
-LIMIT = QColor("#2f6f9f")
-CURRENT = QColor("#00796b")
-PORT_RED, STBD_GREEN = QColor("#c62828"), QColor("#2e7d32")
+HULL_FILL, HULL_EDGE = style.HULL_FILL, style.HULL_EDGE
+TUG_FILL, TUG_EDGE, TUG_FORCE = style.TUG_FILL, style.TUG_EDGE, style.TUG_FORCE
+NET_FORCE, LOAD_FORCE, CURRENT = style.NET_FORCE, style.WIND, style.CURRENT
+QUAY, VESSEL_FILL, LIMIT = style.QUAY, style.VESSEL_FILL, style.LIMIT
+PORT_RED, STBD_GREEN = style.PORT, style.STARBOARD
 
 
 @dataclass(frozen=True, slots=True)
@@ -188,7 +192,7 @@ class StageDiagram:
         half_w, half_h = area.width() / 2 / s, area.height() / 2 / s
         self.view = shapely.box(cx - half_w, cy - half_h, cx + half_w, cy + half_h)
         p.setPen(QPen(RULE, ctx.mm(0.3)))
-        p.setBrush(QColor("#fbfcfd"))
+        p.setBrush(style.WATER)
         p.drawRect(area)
         p.setBrush(QColor("white"))
         p.drawRect(legend)
@@ -205,9 +209,10 @@ class StageDiagram:
         for _b, a, pos, d, push in self.tug_arrows:
             self._tug(p, ctx, a, pos, d, push)
         for a in self.load_arrows:
-            self._arrow(p, ctx, a.tail, a.force, LOAD_FORCE, 0.45)
+            col = style.load_color(a.label)
+            self._arrow(p, ctx, a.tail, a.force, col, 0.45)
             end = self._arrow_end(ctx, a.tail, a.force)
-            self._label(p, ctx, QPointF(end.x(), end.y() + ctx.mm(2.4)), a.label, 6.0, LOAD_FORCE)
+            self._label(p, ctx, QPointF(end.x(), end.y() + ctx.mm(2.4)), a.label, 6.0, col)
         for b, a in self.net_arrows:
             self._net(p, ctx, b, a)
         for pb in self.placed:
@@ -244,7 +249,7 @@ class StageDiagram:
         if halo:
             p.fillRect(
                 r.adjusted(-ctx.mm(0.6), -ctx.mm(0.1), ctx.mm(0.6), ctx.mm(0.1)),
-                QColor(255, 255, 255, 215),
+                style.LABEL_BG,
             )
         p.setPen(color)
         p.drawText(r, int(Qt.AlignmentFlag.AlignCenter), text)
@@ -263,7 +268,7 @@ class StageDiagram:
             else:
                 p.drawPolyline(self._poly(pts))
         else:
-            fill = VESSEL_FILL if f.kind == "vessel" else QColor("#8d949b")
+            fill = VESSEL_FILL if f.kind == "vessel" else style.DOLPHIN_FILL
             p.setPen(QPen(QUAY, ctx.mm(0.3)))
             p.setBrush(fill)
             p.drawPolygon(self._poly(pts))
@@ -357,15 +362,11 @@ class StageDiagram:
             self._label(p, ctx, at, text, 6.0, col, True)
         # centroid (circle and cross) and centre of gravity (quartered circle)
         c = self.to_px(pl.point(body.centroid))
-        r = ctx.mm(1.3)
-        p.setPen(QPen(INK, ctx.mm(0.25)))
-        p.setBrush(Qt.BrushStyle.NoBrush)
-        p.drawEllipse(c, r, r)
-        p.drawLine(QPointF(c.x() - r * 1.6, c.y()), QPointF(c.x() + r * 1.6, c.y()))
-        p.drawLine(QPointF(c.x(), c.y() - r * 1.6), QPointF(c.x(), c.y() + r * 1.6))
+        r = ctx.mm(2.0)
+        draw_centroid(p, c, r, INK, ctx.mm(0.25))
         gp = self.to_px(pl.point(body.centre_of_gravity))
         if math.hypot(gp.x() - c.x(), gp.y() - c.y()) > ctx.mm(0.4):
-            self._cog_symbol(p, gp, r)
+            draw_cog(p, gp, r, INK, ctx.mm(0.25))
 
     def _body_name(self, p: QPainter, ctx: Ctx, pb: PlacedBody) -> None:
         """The body's name just beyond its stern, on the centreline."""
@@ -378,21 +379,15 @@ class StageDiagram:
         self, p: QPainter, ctx: Ctx, tip: QPointF, d: Pt, color: QColor, size_mm: float
     ) -> None:
         # d is a site direction; on paper y is down
-        ux, uy = d[0], -d[1]
-        n = math.hypot(ux, uy) or 1.0
-        ux, uy = ux / n, uy / n
-        L, W = ctx.mm(size_mm), ctx.mm(size_mm * 0.45)
-        base = QPointF(tip.x() - ux * L, tip.y() - uy * L)
-        poly = QPolygonF(
-            [
-                tip,
-                QPointF(base.x() - uy * W, base.y() + ux * W),
-                QPointF(base.x() + uy * W, base.y() - ux * W),
-            ]
-        )
+        n = math.hypot(*d) or 1.0
+        L = ctx.mm(size_mm)
+        tail = QPointF(tip.x() - d[0] / n * L * 2, tip.y() + d[1] / n * L * 2)
+        parts = arrow_head((tail.x(), tail.y()), (tip.x(), tip.y()), L)
+        if parts is None:
+            return
         p.setPen(Qt.PenStyle.NoPen)
         p.setBrush(color)
-        p.drawPolygon(poly)
+        p.drawPolygon(polygon(parts[1]))
         p.setBrush(Qt.BrushStyle.NoBrush)
 
     def arrow_mm(self, force_n: float) -> float:
@@ -419,46 +414,31 @@ class StageDiagram:
         end = QPointF(t.x() + d[0] * length, t.y() - d[1] * length)
         if head_at_point:  # a push: the arrow ends at the point it pushes on
             start, end = QPointF(t.x() - d[0] * length, t.y() + d[1] * length), t
-        p.setPen(QPen(color, ctx.mm(width_mm), Qt.PenStyle.SolidLine, Qt.PenCapStyle.FlatCap))
-        head = ctx.mm(max(1.8, width_mm * 3.5))
-        if math.hypot(end.x() - start.x(), end.y() - start.y()) > head:
-            short = QPointF(end.x() - d[0] * head * 0.8, end.y() + d[1] * head * 0.8)
-            p.drawLine(start, short)
-        self._arrowhead(p, ctx, end, d, color, max(1.8, width_mm * 3.5) / 1.0)
+        parts = arrow_head(
+            (start.x(), start.y()), (end.x(), end.y()), ctx.mm(max(1.8, width_mm * 3.5))
+        )
+        if parts is not None:
+            pen = QPen(color, ctx.mm(width_mm), Qt.PenStyle.SolidLine, Qt.PenCapStyle.FlatCap)
+            shaft = polyline_path([(start.x(), start.y()), parts[0]])
+            paint_arrow(p, pen, color, shaft, polygon(parts[1]), ctx.mm(0.1))
         return end
 
     def _tug(self, p: QPainter, ctx: Ctx, a: Arrow, pos: Pt, d: Pt, push: bool) -> None:
-        # the tug's hull: bow pointing along its force (away on a line, into the hull on a push)
-        if push:
-            centre = (a.tail[0] - d[0] * TUG_LENGTH_M / 2, a.tail[1] - d[1] * TUG_LENGTH_M / 2)
-        else:
-            p.setPen(QPen(INK, ctx.mm(0.3)))
+        """The tug as on the board (app.paint.shapes), at least 5 mm long on paper."""
+        mode = "push" if push else "line"
+        if not push:
+            p.setPen(QPen(style.TOWLINE, ctx.mm(0.3)))
             p.drawLine(self.to_px(a.tail), self.to_px(pos))
-            centre = (pos[0] + d[0] * TUG_LENGTH_M / 2, pos[1] + d[1] * TUG_LENGTH_M / 2)
-        L = max(TUG_LENGTH_M, ctx.mm(5) / self.px_per_m)
-        B = max(TUG_BEAM_M, ctx.mm(2) / self.px_per_m)
-        nx, ny = -d[1], d[0]
-        shape = []
-        for fx, fy in ((-0.5, -0.5), (0.25, -0.5), (0.5, 0.0), (0.25, 0.5), (-0.5, 0.5)):
-            shape.append(
-                (centre[0] + d[0] * fx * L + nx * fy * B, centre[1] + d[1] * fx * L + ny * fy * B)
-            )
-        p.setPen(QPen(INK, ctx.mm(0.3)))
+        length = max(TUG_LENGTH_M, ctx.mm(5) / self.px_per_m)
+        origin = tug_origin(mode, a.tail, pos, d, length)
+        p.setPen(QPen(TUG_EDGE, ctx.mm(0.3)))
         p.setBrush(TUG_FILL)
-        p.drawPolygon(self._poly(shape))
+        p.drawPolygon(self._poly(placed_tug(origin, d, length)))
         p.setBrush(Qt.BrushStyle.NoBrush)
         self._arrow(p, ctx, a.tail, a.force, TUG_FORCE, 0.55, head_at_point=push)
-        # label beyond the tug, away from the hull
-        far = (
-            centre[0] + d[0] * (L * 0.5 + 6.0) * (1 if not push else -1),
-            centre[1] + d[1] * (L * 0.5 + 6.0) * (1 if not push else -1),
-        )
-        at = self.to_px(far)
-        off = ctx.mm(2.2)
-        at = QPointF(
-            at.x() + (d[0] if not push else -d[0]) * off,
-            at.y() - (d[1] if not push else -d[1]) * off,
-        )
+        # the name beyond the tug, away from the hull
+        gap = ctx.mm(3.0) / self.px_per_m
+        at = self.to_px(tug_label_anchor(mode, origin, d, length, gap))
         self._label(p, ctx, at, a.label, 6.5, INK, True)
 
     def _arrow_end(self, ctx: Ctx, tail: Pt, force: Pt) -> QPointF:
@@ -524,15 +504,12 @@ class StageDiagram:
         if b.centreline_x is not None:
             x = self.to_px(pl.point((b.centreline_x, 0.0)))
             if rect.contains(x):
-                p.setPen(QPen(NET_FORCE, ctx.mm(0.35)))
-                p.setBrush(QColor("white"))
-                p.drawEllipse(x, ctx.mm(1.0), ctx.mm(1.0))
-                p.setBrush(Qt.BrushStyle.NoBrush)
+                draw_crossing(p, x, ctx.mm(1.6), NET_FORCE, ctx.mm(0.3))
 
     def _clearances(self, p: QPainter, ctx: Ctx) -> None:
         for c in notable_clearances(self.check.clearances):
             a, b = self.to_px(c.at_body), self.to_px(c.at_other)
-            col = FAIL if c.below_margin else QColor("#37474f")
+            col = FAIL if c.below_margin else style.CLEARANCE
             p.setPen(QPen(col, ctx.mm(0.3), Qt.PenStyle.DotLine))
             p.drawLine(a, b)
             for q in (a, b):
@@ -542,7 +519,7 @@ class StageDiagram:
     def _clearance_labels(self, p: QPainter, ctx: Ctx) -> None:
         for c in notable_clearances(self.check.clearances):
             a, b = self.to_px(c.at_body), self.to_px(c.at_other)
-            col = FAIL if c.below_margin else QColor("#37474f")
+            col = FAIL if c.below_margin else style.CLEARANCE
             text = self.units.show(c.distance_m, "length")
             for t in (0.4, 0.25, 0.6, 0.15, 0.8):
                 at = QPointF(a.x() + t * (b.x() - a.x()), a.y() + t * (b.y() - a.y()))
@@ -550,31 +527,8 @@ class StageDiagram:
                     break
 
     def _north(self, p: QPainter, ctx: Ctx, rect: QRectF) -> None:
-        c = QPointF(rect.right() - ctx.mm(8), rect.top() + ctx.mm(11))
-        L = ctx.mm(6)
-        p.setPen(QPen(INK, ctx.mm(0.3)))
-        p.setBrush(QColor("white"))
-        p.drawEllipse(c, L * 0.75, L * 0.75)
-        half = QPolygonF(
-            [
-                QPointF(c.x(), c.y() - L),
-                QPointF(c.x() + L * 0.3, c.y() + L * 0.45),
-                QPointF(c.x(), c.y() + L * 0.2),
-            ]
-        )
-        p.setBrush(INK)
-        p.drawPolygon(half)
-        p.setBrush(QColor("white"))
-        other = QPolygonF(
-            [
-                QPointF(c.x(), c.y() - L),
-                QPointF(c.x() - L * 0.3, c.y() + L * 0.45),
-                QPointF(c.x(), c.y() + L * 0.2),
-            ]
-        )
-        p.drawPolygon(other)
-        p.setBrush(Qt.BrushStyle.NoBrush)
-        self._label(p, ctx, QPointF(c.x(), c.y() - L - ctx.mm(2.2)), "N", 8.0, INK, True)
+        c = QPointF(rect.right() - ctx.mm(8), rect.top() + ctx.mm(10))
+        draw_north(p, c, ctx.mm(4.5), ctx.font(7.5, True), ctx.mm(0.25))
 
     def _legend(self, p: QPainter, ctx: Ctx, rect: QRectF) -> None:
         """The key under the map: conditions, scale, force scale, symbols, the result."""
@@ -654,16 +608,13 @@ class StageDiagram:
         x = rect.left() + ctx.mm(104)
         x2 = rect.left() + ctx.mm(142)
         ys = [top - ctx.mm(0.3), top + ctx.mm(3.9), top + ctx.mm(8.1)]
-        p.setPen(QPen(INK, ctx.mm(0.25)))
-        c0 = QPointF(x + r, ys[0])
-        p.drawEllipse(c0, r, r)
-        p.drawLine(QPointF(c0.x() - 1.6 * r, c0.y()), QPointF(c0.x() + 1.6 * r, c0.y()))
-        p.drawLine(QPointF(c0.x(), c0.y() - 1.6 * r), QPointF(c0.x(), c0.y() + 1.6 * r))
+        draw_centroid(p, QPointF(x + r, ys[0]), 1.6 * r, INK, ctx.mm(0.25))
+        p.setPen(INK)
         p.drawText(QPointF(x + ctx.mm(3.5), ys[0] + ctx.mm(0.8)), "centroid")
-        self._cog_symbol(p, QPointF(x + r, ys[1]), r)
+        draw_cog(p, QPointF(x + r, ys[1]), 1.25 * r, INK, ctx.mm(0.25))
+        p.setPen(INK)
         p.drawText(QPointF(x + ctx.mm(3.5), ys[1] + ctx.mm(0.8)), "centre of gravity")
-        p.setPen(QPen(NET_FORCE, ctx.mm(0.35)))
-        p.drawEllipse(QPointF(x + r, ys[2]), r * 0.9, r * 0.9)
+        draw_crossing(p, QPointF(x + r, ys[2]), 1.6 * r, NET_FORCE, ctx.mm(0.3))
         p.setPen(INK)
         p.drawText(QPointF(x + ctx.mm(3.5), ys[2] + ctx.mm(0.8)), "crosses the centreline")
         p.setPen(QPen(NET_FORCE, ctx.mm(0.3), Qt.PenStyle.DashLine))
@@ -678,18 +629,6 @@ class StageDiagram:
         p.drawLine(QPointF(x2, ys[2]), QPointF(x2 + ctx.mm(6), ys[2]))
         p.setPen(INK)
         p.drawText(QPointF(x2 + ctx.mm(7.5), ys[2] + ctx.mm(0.8)), "least clearance")
-
-    def _cog_symbol(self, p: QPainter, g: QPointF, r: float) -> None:
-        p.setBrush(Qt.BrushStyle.NoBrush)
-        p.drawEllipse(g, r, r)
-        path = QPainterPath()
-        path.moveTo(g)
-        path.arcTo(QRectF(g.x() - r, g.y() - r, 2 * r, 2 * r), 0, 90)
-        path.closeSubpath()
-        path.moveTo(g)
-        path.arcTo(QRectF(g.x() - r, g.y() - r, 2 * r, 2 * r), 180, 90)
-        path.closeSubpath()
-        p.fillPath(path, INK)
 
 
 def _unit(bearing_deg: float) -> Pt:

@@ -10,21 +10,12 @@ from PySide6.QtCore import QPointF, QRectF, Qt
 from PySide6.QtGui import QColor, QPainter, QPainterPath, QPen
 
 from app.briefing.layout import FAIL, INK, MUTED, RULE, Ctx
+from app.paint.rings import polar_scale
+from app.paint.style import ALL_TUGS, ALL_TUGS_FILL, TUG_LOST
+from app.paint.symbols import draw_planned_wind
 from core.model.plan import Stage
 from core.solve.holdlimits import HoldLimits, limit_at
 from core.units import DisplayUnits, fmt, label
-
-ALL_TUGS = QColor("#1f5f8b")
-TUG_LOST = QColor("#c0561b")
-RING_STEPS = (1, 2, 5, 10, 15, 20, 25, 30, 40, 50, 60, 80, 100)
-
-
-def nice_ring(top: float) -> float:
-    """A ring spacing that gives 3 to 6 rings up to ``top`` (display units)."""
-    for s in RING_STEPS:
-        if top / s <= 6:
-            return float(s)
-    return float(RING_STEPS[-1])
 
 
 class HoldPlot:
@@ -55,15 +46,7 @@ class HoldPlot:
         c = self.stage.conditions
         planned = u.value(c.wind_speed_ms, "speed")
         max_wind = self.stage.limits.max_wind_ms
-        cap_v = [planned * 2.0, 10.0]
-        if max_wind is not None:
-            cap_v.append(u.value(max_wind, "speed") * 1.5)
-        finite = all_v[np.isfinite(all_v)]
-        top = max(cap_v)
-        if len(finite):
-            top = min(max(float(finite.max()), max(cap_v) * 0.5), max(cap_v) * 1.4)
-        ring = nice_ring(top)
-        top = ring * math.ceil(top / ring)
+        top, ring = polar_scale(lim.all_tugs_ms, c.wind_speed_ms, max_wind, u)
         size = min(rect.height(), rect.width() * 0.55)
         r_max = size / 2 - ctx.mm(6)
         centre = QPointF(rect.left() + size / 2, rect.top() + size / 2)
@@ -90,7 +73,7 @@ class HoldPlot:
             w = ctx.metrics(6.0).horizontalAdvance(text)
             p.drawText(QPointF(q.x() - w / 2, q.y() + ctx.mm(1)), text)
 
-        def curve(values: np.ndarray, color: QColor, style: Qt.PenStyle) -> None:
+        def curve(values: np.ndarray, color: QColor, dash: Qt.PenStyle, fill: bool) -> None:
             path = QPainterPath()
             for i, (d, v) in enumerate(zip(dirs, values, strict=True)):
                 pt = at(float(d), float(v) if math.isfinite(v) else top)
@@ -99,22 +82,20 @@ class HoldPlot:
                 else:
                     path.lineTo(pt)
             path.closeSubpath()
-            p.setPen(QPen(color, ctx.mm(0.5), style))
+            if fill:
+                p.fillPath(path, ALL_TUGS_FILL)
+            p.setPen(QPen(color, ctx.mm(0.5), dash))
             p.drawPath(path)
 
-        curve(all_v, ALL_TUGS, Qt.PenStyle.SolidLine)
+        curve(all_v, ALL_TUGS, Qt.PenStyle.SolidLine, True)
         if lost_v is not None:
-            curve(lost_v, TUG_LOST, Qt.PenStyle.DashLine)
+            curve(lost_v, TUG_LOST, Qt.PenStyle.DashLine, False)
         if max_wind is not None:
             r = r_max * min(u.value(max_wind, "speed"), top) / top
             p.setPen(QPen(FAIL, ctx.mm(0.3), Qt.PenStyle.DotLine))
             p.drawEllipse(centre, r, r)
         if planned > 0:
-            q = at(c.wind_from_deg, planned)
-            p.setPen(QPen(INK, ctx.mm(0.3)))
-            p.setBrush(INK)
-            p.drawEllipse(q, ctx.mm(1.0), ctx.mm(1.0))
-            p.setBrush(Qt.BrushStyle.NoBrush)
+            draw_planned_wind(p, at(c.wind_from_deg, planned), ctx.mm(1.4), ctx.mm(0.4))
         # legend and figures to the right
         x = rect.left() + size + ctx.mm(4)
         y = rect.top() + ctx.mm(4)
@@ -131,19 +112,18 @@ class HoldPlot:
                 (
                     None,
                     None,
-                    f"planned wind {u.show(c.wind_speed_ms, 'speed')} from {c.wind_from_deg:03.0f}° (dot)",
+                    f"planned wind {u.show(c.wind_speed_ms, 'speed')} from {c.wind_from_deg:03.0f}° (ringed dot)",
                 )
             )
         p.setFont(ctx.font(7.0))
-        for color, style, text in lines:
-            if color is not None and style is not None:
-                p.setPen(QPen(color, ctx.mm(0.5), style))
+        for color, dash, text in lines:
+            if color is not None and dash is not None:
+                p.setPen(QPen(color, ctx.mm(0.5), dash))
                 p.drawLine(QPointF(x, y - ctx.mm(1)), QPointF(x + ctx.mm(8), y - ctx.mm(1)))
             else:
-                p.setPen(QPen(INK))
-                p.setBrush(INK)
-                p.drawEllipse(QPointF(x + ctx.mm(4), y - ctx.mm(1)), ctx.mm(1), ctx.mm(1))
-                p.setBrush(Qt.BrushStyle.NoBrush)
+                draw_planned_wind(
+                    p, QPointF(x + ctx.mm(4), y - ctx.mm(1)), ctx.mm(1.4), ctx.mm(0.4)
+                )
             p.setPen(INK)
             p.drawText(QPointF(x + ctx.mm(10), y), text)
             y += ctx.mm(4.5)

@@ -14,15 +14,13 @@ from dataclasses import dataclass, field
 from PySide6.QtCore import QPointF, QRectF, Qt
 from PySide6.QtGui import QColor, QFont, QFontMetricsF, QPagedPaintDevice, QPainter, QPen
 
+from app.paint import style
+
 FONT_FAMILY = "DejaVu Sans"
 
-INK = QColor("#1b1f24")
-MUTED = QColor("#5b6470")
-RULE = QColor("#9aa3ad")
-SHADE = QColor("#eef1f4")
-FAIL = QColor("#b3261e")
-WARN = QColor("#8a5a00")
-GOOD = QColor("#1e6b35")
+# the plan's one palette (app.paint.style), under the names the page layout reads
+INK, MUTED, RULE, SHADE = style.INK, style.MUTED, style.RULE, style.SHADE
+FAIL, WARN, GOOD = style.NO_GO, style.CAUTION, style.GO
 
 
 class Ctx:

@@ -31,6 +31,7 @@ from app.briefing.layout import (
     Text,
     heading,
 )
+from app.paint import style
 from core.analysis.checks import StageCheck, tug_lost_as_set
 from core.frames import turning_words, walking_words
 from core.io.report import CAUTION, crossing_words
@@ -201,7 +202,7 @@ def cover(project: Project, checks: tuple[StageCheck, ...]) -> list[Block]:
         )
     )
     out.append(Spacer(2))
-    out.append(Boxed(CAUTIONS, 8.5, QColor(FAIL), QColor("#fdf3f2"), "Cautions"))
+    out.append(Boxed(CAUTIONS, 8.5, QColor(FAIL), QColor(style.NO_GO_FILL), "Cautions"))
     return out
 
 
@@ -679,7 +680,7 @@ def _warnings(check: StageCheck) -> list[Block]:
             lines,
             8.5,
             QColor(FAIL if fails else WARN),
-            QColor("#fdf3f2" if fails else "#fdf8ec"),
+            QColor(style.NO_GO_FILL if fails else style.CAUTION_FILL),
             "This stage fails its checks" if fails else "Warnings",
             QColor(FAIL if fails else INK),
         )

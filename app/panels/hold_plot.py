@@ -27,6 +27,9 @@ from PySide6.QtGui import (
 from PySide6.QtWidgets import QLabel, QSizePolicy, QVBoxLayout, QWidget
 
 from app.controller import Controller
+from app.paint import style
+from app.paint.rings import polar_scale
+from app.paint.symbols import draw_planned_wind
 from core.errors import TowboardError
 from core.model.plan import Stage
 from core.solve.holdlimits import (
@@ -38,32 +41,19 @@ from core.solve.holdlimits import (
 )
 from core.units import DisplayUnits, label
 
-ALL_TUGS = QColor("#1e63b8")
-TUG_LOST = QColor("#c0561b")
-PLANNED = QColor("#2b3440")
-PLANNED_MARK = QColor("#8e1b1b")
-RING = QColor("#c9d6e0")
-SPOKE = QColor("#e2eaf0")
-TEXT = QColor("#1d252d")
-MUTED = QColor("#607080")
-HELD_FILL = QColor(30, 99, 184, 28)
+ALL_TUGS = style.ALL_TUGS
+TUG_LOST = style.TUG_LOST
+PLANNED = style.HULL_EDGE
+PLANNED_MARK = style.PLANNED_WIND
+RING = style.GRID_MAJOR
+SPOKE = style.GRID_MINOR
+TEXT = style.INK
+MUTED = style.MUTED
+HELD_FILL = style.ALL_TUGS_FILL
 
-#: Ring spacings offered, in the display speed unit.
-STEPS = (1.0, 2.0, 5.0, 10.0, 15.0, 20.0, 25.0, 50.0, 100.0)
 #: While a drag is in progress the worst-tug-lost curve is swept again at most this
 #: often, seconds (the all-tugs curve follows every mouse move).
 LOST_EVERY_S = 0.05
-#: The plot's outer ring never goes beyond this many m/s (about 78 kn): a harbour
-#: move is never planned in more wind, and higher limits would squeeze the rest.
-TOP_CAP_MS = 40.0
-
-
-def ring_step(top: float) -> float:
-    """A ring spacing giving three to six rings up to ``top``."""
-    for s in STEPS:
-        if top / s <= 6:
-            return s
-    return STEPS[-1]
 
 
 class HoldPlot(QWidget):
@@ -104,31 +94,15 @@ class HoldPlot(QWidget):
 
     # -- geometry -------------------------------------------------------------------
     def scale_top(self) -> tuple[float, float]:
-        """(outer ring, ring step) in the display speed unit.
-
-        The plot reaches past the planned wind and the stage's wind limit, and follows
-        the all-tugs curve up to 2.5 times the planned wind (at least 30 kn, at most
-        :data:`TOP_CAP_MS`): the region a planner reads stays large; a limit beyond
-        the outer ring is drawn on it.
-        """
-        knot = 1852.0 / 3600.0
-        base = 10.0 * knot
-        planned = 0.0
-        if self.stage is not None:
-            planned = self.stage.conditions.wind_speed_ms
-            base = max(base, planned * 1.25)
-            if self.stage.limits.max_wind_ms is not None:
-                base = max(base, self.stage.limits.max_wind_ms * 1.1)
-        cap = min(max(2.5 * planned, 30.0 * knot, base), max(TOP_CAP_MS, base))
-        top_ms = base
-        if self.limits is not None:
-            v = np.asarray(self.limits.all_tugs_ms, float)
-            finite = v[np.isfinite(v)]
-            if len(finite):
-                top_ms = max(base, min(float(finite.max()), cap))
-        top = self.units.value(top_ms, "speed")
-        step = ring_step(top)
-        return step * max(1, math.ceil(top / step - 1e-9)), step
+        """(outer ring, ring step) in the display speed unit (:func:`app.paint.rings.polar_scale`,
+        the same scale as the printed plot)."""
+        stage = self.stage
+        return polar_scale(
+            None if self.limits is None else self.limits.all_tugs_ms,
+            0.0 if stage is None else stage.conditions.wind_speed_ms,
+            None if stage is None else stage.limits.max_wind_ms,
+            self.units,
+        )
 
     def clipped(self) -> bool:
         """True when part of the all-tugs curve lies beyond the outer ring."""
@@ -154,7 +128,7 @@ class HoldPlot(QWidget):
         if self._grid_key != key or self._grid_cache is None:
             pm = QPixmap(round(self.width() * ratio), round(self.height() * ratio))
             pm.setDevicePixelRatio(ratio)
-            pm.fill(QColor("#ffffff"))
+            pm.fill(QColor("white"))
             g = QPainter(pm)
             g.setRenderHint(QPainter.RenderHint.Antialiasing)
             g.setFont(self.font())
@@ -232,7 +206,7 @@ class HoldPlot(QWidget):
             at = QPointF(centre.x() + r * math.sin(a), centre.y() - r * math.cos(a))
             w = p.fontMetrics().horizontalAdvance(text) + 4
             box = QRectF(at.x() + 2, at.y() - 2, w, p.fontMetrics().height())
-            p.fillRect(box, QColor(255, 255, 255, 210))
+            p.fillRect(box, style.LABEL_BG)
             p.setPen(MUTED)
             p.drawText(box, Qt.AlignmentFlag.AlignCenter, text)
 
@@ -245,7 +219,7 @@ class HoldPlot(QWidget):
         dirs: np.ndarray,
         values: np.ndarray,
         color: QColor,
-        style: Qt.PenStyle,
+        dash: Qt.PenStyle,
         fill: bool,
     ) -> None:
         v = np.where(np.isfinite(values), values, top)
@@ -259,7 +233,7 @@ class HoldPlot(QWidget):
         path.closeSubpath()
         if fill:
             p.fillPath(path, HELD_FILL)
-        pen = QPen(color, 2.2, style)
+        pen = QPen(color, 2.2, dash)
         pen.setJoinStyle(Qt.PenJoinStyle.RoundJoin)
         p.setPen(pen)
         p.setBrush(Qt.BrushStyle.NoBrush)
@@ -280,7 +254,7 @@ class HoldPlot(QWidget):
             shape.lineTo(cx + ux * sx + px * sy, cy + uy * sx + py * sy)
         shape.closeSubpath()
         p.setPen(QPen(PLANNED, 1.2))
-        p.setBrush(QColor("#d9dde3"))
+        p.setBrush(style.HULL_FILL)
         p.drawPath(shape)
 
     def _planned(self, p: QPainter, centre: QPointF, radius: float, top: float) -> None:
@@ -290,18 +264,14 @@ class HoldPlot(QWidget):
         c = self.stage.conditions
         v = self.units.value(c.wind_speed_ms, "speed")
         pt = self._at(centre, radius, top, c.wind_from_deg, v)
-        p.setPen(QPen(PLANNED_MARK, 2.0))
-        p.setBrush(QColor("#ffffff"))
-        p.drawEllipse(pt, 6.0, 6.0)
-        p.setBrush(PLANNED_MARK)
-        p.drawEllipse(pt, 2.5, 2.5)
+        draw_planned_wind(p, pt, 6.0, 2.0)
         text = f"planned {self.units.show(c.wind_speed_ms, 'speed')} from {c.wind_from_deg:03.0f}°"
         w = p.fontMetrics().horizontalAdvance(text) + 6
         right = pt.x() < centre.x() + radius * 0.3
         box = QRectF(
             pt.x() + 9 if right else pt.x() - 9 - w, pt.y() - 20, w, p.fontMetrics().height() + 2
         )
-        p.fillRect(box, QColor(255, 255, 255, 215))
+        p.fillRect(box, style.LABEL_BG)
         p.setPen(PLANNED_MARK)
         p.drawText(box, Qt.AlignmentFlag.AlignCenter, text)
 
@@ -311,8 +281,8 @@ class HoldPlot(QWidget):
         entries = [(ALL_TUGS, Qt.PenStyle.SolidLine, "all tugs")]
         if lost:
             entries.append((TUG_LOST, Qt.PenStyle.DashLine, "worst tug lost"))
-        for color, style, text in entries:
-            p.setPen(QPen(color, 2.2, style))
+        for color, dash, text in entries:
+            p.setPen(QPen(color, 2.2, dash))
             p.drawLine(QPointF(x, y), QPointF(x + 22, y))
             p.setPen(TEXT)
             p.drawText(QPointF(x + 27, y + 4), text)
@@ -325,7 +295,7 @@ class HoldPlot(QWidget):
             p.drawText(QPointF(x, y + 4), note)
 
     def _message(self, p: QPainter, at: QPointF, text: str) -> None:
-        p.setPen(QColor("#b71c1c"))
+        p.setPen(style.NO_GO)
         rect = QRectF(at.x() - 150, at.y() - 30, 300, 60)
         p.drawText(rect, Qt.AlignmentFlag.AlignCenter | Qt.TextFlag.TextWordWrap, text)
 
@@ -344,10 +314,10 @@ class HoldLimitsPanel(QWidget):
         self.plot = HoldPlot()
         self.warning = QLabel("")
         self.warning.setWordWrap(True)
-        self.warning.setStyleSheet("color: #b71c1c;")
+        self.warning.setStyleSheet(f"color: {style.NO_GO.name()};")
         self.caption = QLabel("")
         self.caption.setWordWrap(True)
-        self.caption.setStyleSheet("color: #37474f;")
+        self.caption.setStyleSheet(f"color: {style.CLEARANCE.name()};")
         layout = QVBoxLayout(self)
         layout.setContentsMargins(4, 4, 4, 4)
         layout.addWidget(self.plot, 1)
