@@ -25,6 +25,7 @@ from PySide6.QtWidgets import QGraphicsPathItem
 from app.board.items import ROLE
 from app.board.poses import pose_in
 from app.controller import BodyResult
+from app.edits import bodies as body_edits
 from app.edits import hulls as hull_edits
 from app.edits import tugs as tug_edits
 from app.paint import style
@@ -38,7 +39,19 @@ from core.model.tugs import Placement
 if TYPE_CHECKING:
     from app.board.scene import BoardScene
 
-TOOLS = ("select", "draw", "line_point", "push_point")
+#: Each tool: (menu text, key, what it does). The window makes an action of each.
+TOOL_INFO: dict[str, tuple[str, str, str]] = {
+    "select": (
+        "Select / drag",
+        "S",
+        "Select and drag bodies, tugs, points and vertices; drag the knob ahead of a "
+        "selected body to turn it",
+    ),
+    "draw": ("Draw outline", "D", "Click the vertices of an outline; click the first one to close"),
+    "line_point": ("Add line point", "L", "Click the hull edge to add a line point"),
+    "push_point": ("Add push point", "P", "Click the hull edge to add a push point"),
+}
+TOOLS = tuple(TOOL_INFO)
 SNAP_PX = 14.0  # how near the hull edge a click must be to place a point, px
 EDGE_PX = 7.0  # how near an edge a double-click inserts a vertex, px
 
@@ -50,6 +63,23 @@ class _TugDrag:
     placement: Placement
     grab: tuple[float, float]  # from the tug's reference position to the grab point, body frame
     result: BodyResult
+
+
+@dataclass
+class _BodyDrag:
+    body: str
+    pose: BodyPose  # where the body lay when grabbed
+    grab: tuple[float, float]  # the site point grabbed, m
+    press_px: QPointF  # where the press landed on screen, px (a drag starts 3 px away)
+    moving: bool = False
+
+
+@dataclass
+class _TurnDrag:
+    body: str
+    pose: BodyPose
+    pivot: tuple[float, float]  # the body's centroid in the site, m (it stays put)
+    angle0: float  # site angle of the cursor round the pivot at the press, rad
 
 
 @dataclass
@@ -71,7 +101,7 @@ class Interaction:
     def __init__(self, scene: BoardScene) -> None:
         self.scene = scene
         self.tool = "select"
-        self.drag: _TugDrag | _FittingDrag | _VertexDrag | None = None
+        self.drag: _TugDrag | _FittingDrag | _VertexDrag | _BodyDrag | _TurnDrag | None = None
         self.draft: list[tuple[float, float]] = []  # site points of an outline being drawn
         self._draft_item: QGraphicsPathItem | None = None
         self._draft_target: str | None = None  # hull whose outline the draft replaces
@@ -176,6 +206,9 @@ class Interaction:
             self.drag = _VertexDrag(str(hit[1]), int(hit[2]))  # type: ignore[call-overload]
         elif kind == "hull":
             self.scene.select(hit)
+            self._start_body_drag(pos, event.screenPos())
+        elif kind == "turn":
+            self._start_turn_drag(str(hit[1]), pos)
         return True
 
     def move(self, event) -> bool:  # type: ignore[no-untyped-def]
@@ -188,6 +221,10 @@ class Interaction:
             return False
         if isinstance(drag, _TugDrag):
             self._move_tug(drag, pos)
+        elif isinstance(drag, _BodyDrag):
+            self._move_body(drag, pos, event.screenPos())
+        elif isinstance(drag, _TurnDrag):
+            self._turn_body(drag, pos, bool(event.modifiers() & Qt.KeyboardModifier.ShiftModifier))
         elif isinstance(drag, _FittingDrag):
             self._move_fitting(drag, pos)
         else:
@@ -204,6 +241,10 @@ class Interaction:
             if tug is not None:
                 tug.set_dragging(False)
             c.commit_preview(f"Move {drag.placement.tug}")
+        elif isinstance(drag, _BodyDrag):
+            c.commit_preview(f"Move {drag.body}")
+        elif isinstance(drag, _TurnDrag):
+            c.commit_preview(f"Turn {drag.body}")
         elif isinstance(drag, _FittingDrag):
             c.commit_preview(f"Slide {drag.name}")
         else:
@@ -299,6 +340,53 @@ class Interaction:
         drag.result = results[drag.body]
         drag.placement = placement
         c.preview(project, results)
+
+    # -- moving and turning a body ------------------------------------------------------
+    def _start_body_drag(self, pos: QPointF, screen: QPointF) -> None:
+        body = self.scene.selected_body()
+        if body is None or self.controller.stage is None:
+            return
+        self.drag = _BodyDrag(body, self.scene.pose(body), (pos.x(), pos.y()), QPointF(screen))
+
+    def _move_body(self, drag: _BodyDrag, pos: QPointF, screen: QPointF) -> None:
+        if not drag.moving:
+            d = QPointF(screen) - drag.press_px
+            if math.hypot(d.x(), d.y()) < 3.0:
+                return  # a click that wobbles is still a click, not a move
+            drag.moving = True
+        c = self.controller
+        to = (drag.pose.x + pos.x() - drag.grab[0], drag.pose.y + pos.y() - drag.grab[1])
+        to = self.scene.snap(to)
+        stage = c.stage
+        if stage is None:
+            return
+        project = c.project
+        c.preview(c.with_stage(body_edits.moved_body(project, stage, drag.body, to)))
+
+    def _start_turn_drag(self, body: str, pos: QPointF) -> None:
+        d = self.scene.bodies.get(body)
+        if d is None or d.body is None or self.controller.stage is None:
+            return
+        pose = self.scene.pose(body)
+        c = d.root.mapToScene(QPointF(*d.body.centroid))
+        pivot = (c.x(), c.y())
+        self.drag = _TurnDrag(body, pose, pivot, math.atan2(pos.y() - c.y(), pos.x() - c.x()))
+
+    def _turn_body(self, drag: _TurnDrag, pos: QPointF, coarse: bool) -> None:
+        c = self.controller
+        stage = c.stage
+        if stage is None:
+            return
+        a = math.atan2(pos.y() - drag.pivot[1], pos.x() - drag.pivot[0])
+        # the site angle grows counter-clockwise; the true heading clockwise
+        heading = drag.pose.heading_deg - math.degrees(a - drag.angle0)
+        step = 5.0 if coarse else 0.1
+        heading = round(heading / step) * step
+        project = c.project
+        # turned from the pose at the press, so the pivot never drifts with rounding
+        start = body_edits.posed(project, stage, drag.pose)
+        new = body_edits.turned_body(project, start, drag.body, heading, drag.pivot)
+        c.preview(c.with_stage(new))
 
     # -- fitting and vertex drags ---------------------------------------------------------
     def _move_fitting(self, drag: _FittingDrag, pos: QPointF) -> None:
@@ -476,6 +564,10 @@ class Interaction:
             if k in steps:
                 self.step_setting(str(sel[1]), steps[k])
                 return True
+        if sel[0] == "hull" and k in (Qt.Key.Key_BracketLeft, Qt.Key.Key_BracketRight):
+            step = 10.0 if shift else 1.0
+            self.turn_selected(-step if k == Qt.Key.Key_BracketLeft else step)
+            return True
         arrows = {
             Qt.Key.Key_Left: (-1.0, 0.0),
             Qt.Key.Key_Right: (1.0, 0.0),
@@ -517,7 +609,13 @@ class Interaction:
         if sel is None:
             return
         try:
-            if sel[0] == "tug":
+            if sel[0] == "hull":
+                body = self.scene.selected_body()
+                step = 10.0 if big else 1.0
+                if body is not None and c.stage is not None:
+                    stage = body_edits.shifted_body(c.project, c.stage, body, dx * step, dy * step)
+                    c.apply(c.with_stage(stage), f"Nudge {body}", merge_key=("nudge", "body", body))
+            elif sel[0] == "tug":
                 self._nudge_tug(str(sel[1]), dx * (10 if big else 1), dy * (10 if big else 1))
             elif sel[0] == "vertex":
                 step = 5.0 if big else 0.5
@@ -546,6 +644,16 @@ class Interaction:
                 )
         except OutlineError as e:
             self._say(f"Not moved: {e}")
+
+    def turn_selected(self, degrees: float) -> None:
+        """Turn the selected body by ``degrees`` clockwise (to starboard) about its centroid."""
+        c = self.controller
+        body = self.scene.selected_body()
+        if body is None or c.stage is None:
+            return
+        heading = self.scene.pose(body).heading_deg + degrees
+        stage = body_edits.turned_body(c.project, c.stage, body, heading)
+        c.apply(c.with_stage(stage), f"Turn {body}", merge_key=("nudge", "turn", body))
 
     def _site_step_in_hull(self, hull: str, dx: float, dy: float) -> tuple[float, float]:
         d = self.scene.bodies[self._body_of_hull(hull)].hulls[hull].frame

@@ -39,12 +39,21 @@ def nice_floor(raw: float) -> float:
     return k
 
 
-def draw_grid(painter: QPainter, rect: QRectF, min_px: float = 22.0) -> None:
-    """Grid lines over ``rect`` (site m): minor every step, major every fifth."""
+def draw_grid(
+    painter: QPainter, rect: QRectF, min_px: float = 22.0, base: float | None = None
+) -> None:
+    """Grid lines over ``rect`` (site m): minor every step, major every fifth.
+
+    With ``base`` (m, the snap step) the lines fall on whole 1-2-5 multiples of it, so
+    every line drawn is one a point can snap to; without, on a 1-2-5 step of metres.
+    """
     t = painter.worldTransform()
     k = style.device_scale(painter)
     ppm = (math.hypot(t.m11(), t.m12()) or 1.0) / k
-    step = nice_step(min_px / ppm)
+    if base is not None and base > 0:
+        step = base * nice_step(min_px / ppm / base) if base * ppm < min_px else base
+    else:
+        step = nice_step(min_px / ppm)
     x0 = math.floor(rect.left() / step) * step
     y0 = math.floor(rect.top() / step) * step
     if (rect.width() / step) > 400 or (rect.height() / step) > 400:

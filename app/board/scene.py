@@ -22,21 +22,24 @@ Hooks for other parts of the program:
 from __future__ import annotations
 
 import math
+import traceback
 from collections.abc import Callable
 
 from PySide6.QtCore import QPointF, QRectF, Signal
 from PySide6.QtGui import QPainter
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
-from app.board.drawing import BodyDrawing
+from app.board.drawing import BodyDrawing, _screen_angle
+from app.board.handles import TurnHandle
 from app.board.interaction import Interaction
 from app.board.items import Label
 from app.board.poses import pose_in, site_angle_deg, to_site
 from app.controller import BodyResult, Controller
 from app.paint import style
 from core.mechanics.balance import TugShare
-from core.mechanics.bodies import body_of
-from core.model.plan import Stage
+from core.mechanics.bodies import body_name_of_hull, body_of
+from core.mechanics.site import body_pose
+from core.model.plan import BodyPose, Project, Stage
 
 Selection = tuple[object, ...] | None
 
@@ -46,6 +49,7 @@ class BoardScene(QGraphicsScene):
 
     selection_changed = Signal()
     tool_changed = Signal(str)
+    grid_changed = Signal()
 
     def __init__(self, controller: Controller, stage_index: int | None = None) -> None:
         super().__init__()
@@ -60,6 +64,9 @@ class BoardScene(QGraphicsScene):
         self.interaction = Interaction(self)
         self._fixed_results: dict[str, BodyResult] | None = None
         self._units = controller.project.units
+        #: Grid snap: on or off, and the step in the display length unit.
+        self.snap_on = False
+        self.grid_step = 1.0
         self.setBackgroundBrush(style.WATER)
         self._hint = Label(
             "No hull yet: choose Draw outline and click its vertices,\n"
@@ -71,6 +78,8 @@ class BoardScene(QGraphicsScene):
             "centre",
         )
         self.addItem(self._hint)
+        self.turn_handle = TurnHandle()
+        self.addItem(self.turn_handle)
         controller.changed.connect(self.refresh)
         self.refresh()
 
@@ -96,6 +105,13 @@ class BoardScene(QGraphicsScene):
                 self.controller.project, self.stage()
             )
         return self._fixed_results
+
+    def pose(self, body: str, project: Project | None = None) -> BodyPose:
+        """Where ``body`` lies in the stage shown (a group posed through a hull too)."""
+        stage = self.stage()
+        if stage is None:
+            return pose_in(None, body)
+        return body_pose(project or self.controller.project, stage, body)
 
     def body_root(self, name: str) -> QGraphicsItem | None:
         d = self.bodies.get(name)
@@ -133,7 +149,6 @@ class BoardScene(QGraphicsScene):
         """Bring every item in line with the controller's value (in place)."""
         self._fixed_results = None
         project = self.controller.project
-        stage = self.stage()
         results = self.results()
         names = project.body_names()
         for name in list(self.bodies):
@@ -154,7 +169,7 @@ class BoardScene(QGraphicsScene):
             body = r.body if r is not None else body_of(project, name)
             if d.body is not body:
                 d.set_body(body)
-            pose = pose_in(stage, name)
+            pose = self.pose(name, project)
             d.set_pose(pose, site_angle_deg(pose))
             if r is None:
                 d.set_tugs(None, {}, force_scale, head, self.tug_text)
@@ -178,21 +193,33 @@ class BoardScene(QGraphicsScene):
             hook(self)
 
     def _update_rect(self) -> None:
+        # room to pan round the bodies and the whole site
         box = self.bodies_rect()
+        site = self.features_rect()
+        box = site if box.isNull() else (box if site.isNull() else box.united(site))
         if box.isNull():
             box = QRectF(-100, -100, 200, 200)
         span = max(box.width(), box.height(), 100.0)
         self.setSceneRect(box.adjusted(-3 * span, -3 * span, 3 * span, 3 * span))
 
+    def features_rect(self) -> QRectF:
+        """The site-frame box round every site feature, m (null when there is none)."""
+        box = QRectF()
+        for f in self.controller.project.site.features:
+            xs = [x for x, _ in f.points]
+            ys = [y for _, y in f.points]
+            r = QRectF(QPointF(min(xs), min(ys)), QPointF(max(xs), max(ys)))
+            box = r if box.isNull() else box.united(r)
+        return box
+
     def bodies_rect(self) -> QRectF:
         """The site-frame box round every body (outlines only), m."""
-        stage = self.stage()
         xs: list[float] = []
         ys: list[float] = []
         for name, d in self.bodies.items():
             if d.body is None:
                 continue
-            pose = pose_in(stage, name)
+            pose = self.pose(name)
             x0, y0, x1, y1 = d.body.polygon.bounds
             for p in ((x0, y0), (x1, y0), (x1, y1), (x0, y1)):
                 sx, sy = to_site(pose, p)
@@ -213,6 +240,17 @@ class BoardScene(QGraphicsScene):
         pad = 0.08 * max(box.width(), box.height()) + 10.0
         return box.adjusted(-pad, -pad, pad, pad)
 
+    def site_rect(self) -> QRectF:
+        """The box round every site feature and every body with its tugs, m, padded."""
+        box = self.fit_rect() if not self.bodies_rect().isNull() else QRectF()
+        site = self.features_rect()
+        if not site.isNull():
+            box = site if box.isNull() else box.united(site)
+        if box.isNull():
+            return self.fit_rect()
+        pad = 0.04 * max(box.width(), box.height()) + 5.0
+        return box.adjusted(-pad, -pad, pad, pad)
+
     # -- selection ------------------------------------------------------------------
     def select(self, selection: Selection) -> None:
         if selection == self.selection:
@@ -228,6 +266,32 @@ class BoardScene(QGraphicsScene):
                 h.set_selection(sel)
             for name, t in d.tugs.items():
                 t.set_selected(sel is not None and sel[0] == "tug" and sel[1] == name)
+        self._place_turn_handle()
+
+    def selected_body(self) -> str | None:
+        """The body of the selected hull (a lashed group for a lashed hull), or None."""
+        sel = self.selection
+        if not sel or sel[0] not in ("hull", "turn"):
+            return None
+        name = str(sel[1])
+        project = self.controller.project
+        if sel[0] == "turn" or name in {g.name for g in project.groups}:
+            return name
+        try:
+            return body_name_of_hull(project, name)
+        except ValueError:
+            return None
+
+    def _place_turn_handle(self) -> None:
+        """The turn handle ahead of the selected body's bow (hidden when none is selected)."""
+        name = self.selected_body() if self.fixed_stage is None else None
+        d = self.bodies.get(name) if name is not None else None
+        if d is None or d.body is None:
+            self.turn_handle.set_body(None)
+            return
+        self.turn_handle.set_body(name)
+        self.turn_handle.setPos(d.root.mapToScene(QPointF(d.body.x_max, d.body.centroid[1])))
+        self.turn_handle.set_direction(_screen_angle(d.root, (1.0, 0.0)))
 
     def selected_hull(self) -> str | None:
         sel = self.selection
@@ -239,40 +303,87 @@ class BoardScene(QGraphicsScene):
         sel = self.selection
         return str(sel[1]) if sel and sel[0] == "tug" else None
 
+    # -- the grid ------------------------------------------------------------------------
+    def grid_step_m(self) -> float:
+        """The grid step in metres (it is set in the display length unit)."""
+        return self.controller.project.units.si(self.grid_step, "length")
+
+    def set_grid(self, step: float | None = None, snap: bool | None = None) -> None:
+        """Set the grid step (display length unit, > 0) and whether points snap to it."""
+        if step is not None:
+            if not (math.isfinite(step) and step > 0):
+                raise ValueError(f"grid step {step!r} must be a positive length")
+            self.grid_step = float(step)
+        if snap is not None:
+            self.snap_on = bool(snap)
+        self.grid_changed.emit()
+        for v in self.views():
+            v.resetCachedContent()
+        self.update()
+
+    def snap(self, p: tuple[float, float]) -> tuple[float, float]:
+        """Site point ``p`` on the nearest grid node when snapping is on (else as it is).
+
+        The node is a whole number of steps in the display unit, so a hull drawn on a
+        1 m grid is a whole number of metres long.
+        """
+        if not self.snap_on:
+            return p
+        u = self.controller.project.units
+        step = self.grid_step
+        return tuple(  # type: ignore[return-value]
+            u.si(round(round(u.value(v, "length") / step) * step, 9), "length") for v in p
+        )
+
     # -- drawing helpers ------------------------------------------------------------
     def drawBackground(self, painter: QPainter, rect: QRectF) -> None:
         super().drawBackground(painter, rect)
         from app.board.overlay import draw_grid
 
-        draw_grid(painter, rect)
+        draw_grid(painter, rect, base=self.grid_step_m())
 
     # -- events go to the interaction -------------------------------------------------
+    def _handled(self, handler: Callable[[object], bool], event: object) -> bool:
+        """Run an interaction handler; an error is said in the status bar, never raised.
+
+        An exception escaping a Qt event override can take the whole program down, so
+        the edit in progress is dropped instead and the error is printed for a report.
+        """
+        try:
+            return handler(event)
+        except Exception as e:  # nothing may escape into Qt
+            traceback.print_exc()
+            self.interaction.drag = None
+            self.controller.cancel_preview()
+            self.controller.message.emit(f"That did not work ({type(e).__name__}: {e})")
+            return True
+
     def mousePressEvent(self, event):  # type: ignore[no-untyped-def]
-        if self.interaction.press(event):
+        if self._handled(self.interaction.press, event):
             event.accept()
         else:
             super().mousePressEvent(event)
 
     def mouseMoveEvent(self, event):  # type: ignore[no-untyped-def]
-        if self.interaction.move(event):
+        if self._handled(self.interaction.move, event):
             event.accept()
         else:
             super().mouseMoveEvent(event)
 
     def mouseReleaseEvent(self, event):  # type: ignore[no-untyped-def]
-        if self.interaction.release(event):
+        if self._handled(self.interaction.release, event):
             event.accept()
         else:
             super().mouseReleaseEvent(event)
 
     def mouseDoubleClickEvent(self, event):  # type: ignore[no-untyped-def]
-        if self.interaction.double_click(event):
+        if self._handled(self.interaction.double_click, event):
             event.accept()
         else:
             super().mouseDoubleClickEvent(event)
 
     def keyPressEvent(self, event):  # type: ignore[no-untyped-def]
-        if self.interaction.key(event):
+        if self._handled(self.interaction.key, event):
             event.accept()
         else:
             super().keyPressEvent(event)

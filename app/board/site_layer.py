@@ -14,7 +14,6 @@ from PySide6.QtGui import QPainterPath, QPolygonF
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsLineItem, QGraphicsPathItem
 
 from app.board.items import Label
-from app.board.poses import pose_in
 from app.board.scene import BoardScene
 from app.paint import style
 from core.mechanics.bodies import body_of
@@ -103,7 +102,7 @@ class SiteLayer:
         if stage is None or not project.hulls:
             return ()
         bodies = tuple(
-            place_body(body_of(project, name), pose_in(stage, name))
+            place_body(body_of(project, name), self.scene.pose(name))
             for name in project.body_names()
         )
         return stage_clearances(project, stage, bodies)

@@ -1,4 +1,9 @@
-"""The board's view: north up, zoom with the wheel round the cursor, pan, fit to hull."""
+"""The board's view: north up, zoom with the wheel round the cursor, pan, fit to hull.
+
+When another stage is shown the view fits it again, unless the user zoomed or panned
+since the last fit (then the view stays where the user put it). Fit to hull and fit to
+site clear that.
+"""
 
 from __future__ import annotations
 
@@ -38,11 +43,17 @@ class BoardView(QGraphicsView):
         self.setTransform(QTransform.fromScale(1.0, -1.0))
         self._pan: QPointF | None = None
         self._fitted = False
+        #: The user zoomed or panned since the last fit: a change of stage keeps the view.
+        self.user_zoomed = False
+        self._stage_shown: int | None = None
         self._wheel_rest = 0
         self._overlay_key: tuple[object, ...] | None = None
         self._overlay_pix: tuple[QPixmap, QPixmap] = (QPixmap(), QPixmap())
         #: Callables ``(painter, width, height)`` drawing on top in viewport pixels.
         self.foreground_hooks: list[Callable[[QPainter, int, int], None]] = []
+        # connected after the scene's own refresh, so a refit sees the new stage's items
+        scene.controller.changed.connect(self._controller_changed)
+        self._stage_shown = scene.controller.stage_index
 
     # -- zoom and pan ---------------------------------------------------------------
     def pixels_per_metre(self) -> float:
@@ -54,10 +65,18 @@ class BoardView(QGraphicsView):
         new = min(max(ppm * factor, 0.02), 200.0)
         f = new / ppm
         self.scale(f, f)
+        self.user_zoomed = True
 
     def fit_to_hull(self) -> None:
         """Zoom so every body (with room for its tugs) fills the board."""
-        rect = self.board.fit_rect()
+        self.fit_rect(self.board.fit_rect())
+
+    def fit_to_site(self) -> None:
+        """Zoom so the whole site (every feature) and every body fill the board."""
+        self.fit_rect(self.board.site_rect())
+
+    def fit_rect(self, rect: QRectF) -> None:
+        """Show site box ``rect`` (m) whole, centred, north up."""
         if rect.isNull() or self.viewport().width() < 10:
             return
         vw, vh = self.viewport().width(), self.viewport().height()
@@ -65,6 +84,15 @@ class BoardView(QGraphicsView):
         self.setTransform(QTransform.fromScale(k, -k))
         self.centerOn(rect.center())
         self._fitted = True
+        self.user_zoomed = False
+
+    def _controller_changed(self) -> None:
+        index = self.board.controller.stage_index
+        if index == self._stage_shown:
+            return
+        self._stage_shown = index
+        if not self.user_zoomed:
+            self.fit_to_hull()
 
     def showEvent(self, event) -> None:  # type: ignore[no-untyped-def]
         super().showEvent(event)
@@ -121,6 +149,8 @@ class BoardView(QGraphicsView):
         if self._pan is not None:
             d = event.position() - self._pan
             self._pan = event.position()
+            if d.x() or d.y():
+                self.user_zoomed = True
             self.horizontalScrollBar().setValue(self.horizontalScrollBar().value() - int(d.x()))
             self.verticalScrollBar().setValue(self.verticalScrollBar().value() - int(d.y()))
             event.accept()

@@ -27,6 +27,7 @@ from PySide6.QtWidgets import (
     QComboBox,
     QDockWidget,
     QFileDialog,
+    QInputDialog,
     QLabel,
     QMainWindow,
     QMenu,
@@ -36,6 +37,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app.board.interaction import TOOL_INFO
 from app.board.scene import BoardScene
 from app.board.view import BoardView
 from app.controller import Controller
@@ -52,6 +54,7 @@ from core.io.projectfile import SUFFIX, load, save
 from core.io.report import CAUTION
 from core.model.hull import Hull
 from core.model.plan import Project, Stage
+from core.units import label
 
 SAMPLE = Path(__file__).resolve().parents[2] / "sample_projects" / "deck_barge_unberth.towboard"
 FILE_FILTER = f"Towboard plans (*{SUFFIX});;All files (*)"
@@ -63,21 +66,30 @@ CAUTION_LINE = (
 )
 
 
-BOARD_HELP = """Select / drag: drag a tug to change its line's lead and length (a pushing tug
-swings round its push point); drag a line point or push point along the hull; select the
-hull (click inside it) to show its vertices, then drag one. Double-click the hull's edge to
-insert a vertex; Delete removes the selected vertex or point, or lets go the selected tug.
+BOARD_HELP = """Tools (the key works when the board has the focus): S select / drag, D draw outline,
+L add line point, P add push point. Esc goes back to select.
 
+Select / drag: drag a body to move it; the knob ahead of a selected body's bow turns it
+about its centroid (Shift: in steps of 5°). Drag a tug to change its line's lead and length
+(a pushing tug swings round its push point); drag a line point or push point along the
+hull; with the hull selected, drag a vertex. Double-click the hull's edge to insert a
+vertex; Delete removes the selected vertex or point, or lets go the selected tug.
+
+Keys: arrow keys nudge the selection (a body or tug 1 m, a vertex or point 0.5 m; Shift:
+ten times as far); [ and ] turn the selected body 1° to port or starboard (Shift: 10°).
 A selected tug: + and − change its setting by 1 %, Page Up and Page Down by 10 %, the wheel
-over it by 5 % a notch (always within 0 to 100 %). Arrow keys nudge the selection (Shift:
-ten times as far). Drag empty water or use the middle button to pan; the wheel zooms
-round the cursor.
+over it by 5 % a notch (always within 0 to 100 %).
+
+View: drag empty water or use the middle button to pan; the wheel zooms round the cursor.
+Another stage is fitted to the board unless you zoomed or panned; Fit to hull (Ctrl+0) and
+Fit to site (Ctrl+Shift+0) fit again. Snap to grid (Ctrl+G) puts drawn and dragged points
+on the grid; View > Grid step sets its step in the display length unit.
 
 Draw outline: click the vertices, then click the first one again (or press Enter) to close;
 Backspace takes the last vertex back, Esc stops. Add line point / push point: click the hull's
 edge; the point snaps onto it.
 
-A drag is one undo step; steps of the same tug or point in a row are one undo step too."""
+A drag is one undo step; nudges or steps of the same item in a row are one undo step too."""
 
 
 def new_project() -> Project:
@@ -201,7 +213,23 @@ class MainWindow(QMainWindow):
         self.act_delete.setShortcutContext(Qt.ShortcutContext.WidgetWithChildrenShortcut)
         self.view.addAction(self.act_delete)
         self.act_fit = self._action(
-            "&Fit to hull", self.view.fit_to_hull, "Ctrl+0", "Zoom to the bodies"
+            "&Fit to hull", self.view.fit_to_hull, "Ctrl+0", "Zoom to the bodies (Ctrl+0)"
+        )
+        self.act_fit_site = self._action(
+            "Fit to &site",
+            self.view.fit_to_site,
+            "Ctrl+Shift+0",
+            "Zoom to the whole site and every body (Ctrl+Shift+0)",
+        )
+        self.act_snap = self._action(
+            "S&nap to grid",
+            self._snap_toggled,
+            "Ctrl+G",
+            "Points drawn or dragged snap to the grid (Ctrl+G)",
+        )
+        self.act_snap.setCheckable(True)
+        self.act_grid_step = self._action(
+            "&Grid step…", self.ask_grid_step, tip="The grid's step in the display length unit"
         )
         self.act_zoom_in = self._action("Zoom &in", lambda: self.view.zoom(1.25), K.ZoomIn)
         self.act_zoom_out = self._action("Zoom &out", lambda: self.view.zoom(0.8), K.ZoomOut)
@@ -212,17 +240,14 @@ class MainWindow(QMainWindow):
         )
         self.tool_actions: dict[str, QAction] = {}
         group = QActionGroup(self)
-        for key, text, tip in (
-            ("select", "Select / drag", "Select and drag tugs, points and vertices"),
-            (
-                "draw",
-                "Draw outline",
-                "Click the vertices of an outline; click the first one to close",
-            ),
-            ("line_point", "Add line point", "Click the hull edge to add a line point"),
-            ("push_point", "Add push point", "Click the hull edge to add a push point"),
-        ):
-            a = self._action(text, lambda _=False, k=key: self.board.set_tool(k), tip=tip)
+        for key, (text, shortcut, tip) in TOOL_INFO.items():
+            a = self._action(
+                text, lambda _=False, k=key: self.board.set_tool(k), shortcut, f"{tip} ({shortcut})"
+            )
+            a.setToolTip(f"{text} ({shortcut})")
+            # a letter works on the board, so typing in a table or a field never changes tool
+            a.setShortcutContext(Qt.ShortcutContext.WidgetWithChildrenShortcut)
+            self.view.addAction(a)
             a.setCheckable(True)
             group.addAction(a)
             self.tool_actions[key] = a
@@ -264,7 +289,9 @@ class MainWindow(QMainWindow):
         e.addSeparator()
         e.addAction(self.act_delete)
         v = self._menus["view"]
-        v.addActions([self.act_fit, self.act_zoom_in, self.act_zoom_out])
+        v.addActions([self.act_fit, self.act_fit_site, self.act_zoom_in, self.act_zoom_out])
+        v.addSeparator()
+        v.addActions([self.act_snap, self.act_grid_step])
         v.addSeparator()
         for dock in self.panels.values():
             v.addAction(dock.toggleViewAction())
@@ -286,7 +313,7 @@ class MainWindow(QMainWindow):
         tb.addActions(list(self.tool_actions.values()))
         tb.addAction(self.act_generate)
         tb.addSeparator()
-        tb.addAction(self.act_fit)
+        tb.addActions([self.act_fit, self.act_fit_site, self.act_snap])
         tb.addSeparator()
         tb.addWidget(QLabel(" Stage "))
         self.stage_box = QComboBox()
@@ -333,6 +360,25 @@ class MainWindow(QMainWindow):
         if hull is not None:
             self.hull_panel.show_hull(hull)
         del sel
+
+    def _snap_toggled(self, on: bool) -> None:
+        self.board.set_grid(snap=on)
+        u = self.controller.project.units
+        state = "on" if on else "off"
+        self.statusBar().showMessage(
+            f"Snap to grid {state} (step {self.board.grid_step:g} {label(u.unit('length'))})", 5000
+        )
+
+    def ask_grid_step(self) -> None:
+        """Ask for the grid step in the display length unit."""
+        u = self.controller.project.units
+        unit = label(u.unit("length"))
+        value, ok = QInputDialog.getDouble(
+            self, "Grid step", f"Grid step ({unit}):", self.board.grid_step, 0.01, 1000.0, 2
+        )
+        if ok:
+            self.board.set_grid(step=value)
+            self.statusBar().showMessage(f"Grid step {value:g} {unit}", 5000)
 
     def _tool_changed(self, tool: str) -> None:
         a = self.tool_actions.get(tool)
