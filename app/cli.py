@@ -3,7 +3,11 @@
 ``towboard [FILE]`` opens the window (the bundled sample when no file is given);
 ``towboard report FILE [--json]`` prints each stage's balance, conditions, solved
 pulls, tug lost check and hold limits without a window;
-``towboard brief FILE -o plan.pdf`` writes the printed briefing. Bad input exits 2
+``towboard report FILE --csv [--table tugs|balance] [--display-units]`` prints the
+tug table and the balance of every stage as CSV, the report's numbers;
+``towboard brief FILE -o plan.pdf`` writes the printed briefing;
+``towboard import-outline`` and ``towboard export`` read drawings and write pictures
+(app.drawings.commands). Bad input exits 2
 with a one-line message on stderr, never a traceback.
 """
 
@@ -30,6 +34,14 @@ def _report(args: argparse.Namespace) -> int:
     from core.io.report import report_json, report_text
 
     project = load(args.file)
+    if args.csv:
+        from core.io.tables import TABLES, csv_text
+
+        report = report_json(project)
+        units = project.units if args.display_units else None
+        names = [args.table] if args.table else list(TABLES)
+        print("\n".join(csv_text(TABLES[t](report, units)) for t in names), end="")
+        return 0
     if args.json:
         print(json.dumps(report_json(project), indent=2, allow_nan=False))
     else:
@@ -59,7 +71,20 @@ def main(argv: Sequence[str] | None = None) -> int:
             )
             p.add_argument("file", help="a .towboard file")
             p.add_argument("--json", action="store_true", help="print JSON in SI units")
+            p.add_argument(
+                "--csv",
+                action="store_true",
+                help="print the tug table and the balance table as CSV (a blank line between)",
+            )
+            p.add_argument("--table", choices=("tugs", "balance"), help="with --csv: one table")
+            p.add_argument(
+                "--display-units", action="store_true", help="with --csv: the plan's units, not SI"
+            )
             return _report(p.parse_args(argv[1:]))
+        if argv and argv[0] in ("import-outline", "export"):
+            from app.drawings.commands import run
+
+            return run(argv[0], argv[1:])
         if argv and argv[0] == "brief":
             from app.briefing.cli import brief_command
 

@@ -87,3 +87,26 @@ class ProjectFileError(TowboardError, ValueError):
 
 class FormatVersionError(ProjectFileError):
     """The file was written by a newer Towboard than this one."""
+
+
+class DrawingError(TowboardError, ValueError):
+    """A drawing (DXF) or a table of offsets or points that cannot give what was asked.
+
+    ``source`` is the file; ``layer`` the drawing layer concerned (None for the whole
+    file or for a table); ``line`` the 1-based line of a table, where one is to blame.
+    """
+
+    def __init__(
+        self,
+        source: str,
+        message: str,
+        *,
+        layer: str | None = None,
+        line: int | None = None,
+    ) -> None:
+        self.source = source
+        self.layer = layer
+        self.line = line
+        self.reason = message
+        where = f"layer {layer}: " if layer is not None else f"line {line}: " if line else ""
+        super().__init__(f"{source}: {where}{message}")
