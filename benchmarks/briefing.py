@@ -1,56 +1,108 @@
-"""How long the stage checks and the printed briefing take for the four-stage sample.
+"""How the printed briefing grows with the number of stages.
 
-Run: python benchmarks/briefing.py   (prints medians over a few runs; not a test)
+A plan of N stages is made from the twin barge sample by repeating its four stages
+(each copy renamed); for N = 1, 2, 4, 8, 16, 32 and 64 the benchmark times:
+
+- layout: the briefing's content laid into pages (what grew as N squared when every
+  stage re-paginated the pages before it);
+- PDF: the whole ``write_pdf``, stage checks, solves and painting included.
+
+It prints the median of a few runs for each N, the exponent k of a fitted power law
+t ~ N^k (least squares on the logarithms, N >= 4), and each time as a ratio against the
+16-stage baseline measured in the same run. Linear growth gives 4.0 at 64 stages; the
+target is 4.5 or less.
+
+Run: .venv/bin/python benchmarks/briefing.py [--quick]   (--quick: layout only)
 """
 
 from __future__ import annotations
 
+import math
 import os
 import statistics
 import sys
 import tempfile
 import time
+from dataclasses import replace
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT))
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
+SIZES = (1, 2, 4, 8, 16, 32, 64)
+BASELINE = 16
 
-def median_ms(fn, runs: int) -> float:  # type: ignore[no-untyped-def]
+
+def plan_of(n: int):  # type: ignore[no-untyped-def]
+    """The twin barge sample with its stages repeated to ``n`` stages."""
+    from core.io.projectfile import load
+
+    project = load(ROOT / "sample_projects" / "twin_barge_move.towboard")
+    base = project.stages
+    stages = tuple(
+        replace(base[k % len(base)], name=f"{base[k % len(base)].name} ({k + 1})")
+        for k in range(n)
+    )
+    return replace(project, stages=stages)
+
+
+def median_s(fn, runs: int) -> float:  # type: ignore[no-untyped-def]
     times = []
     for _ in range(runs):
         t0 = time.perf_counter()
         fn()
-        times.append((time.perf_counter() - t0) * 1000)
+        times.append(time.perf_counter() - t0)
     return statistics.median(times)
 
 
-def main() -> None:
-    from PySide6.QtGui import QGuiApplication
+def fitted_exponent(sizes: list[int], times: list[float]) -> float:
+    """The slope of log t against log N (least squares)."""
+    xs = [math.log(n) for n in sizes]
+    ys = [math.log(t) for t in times]
+    mx, my = statistics.fmean(xs), statistics.fmean(ys)
+    return sum((x - mx) * (y - my) for x, y in zip(xs, ys, strict=True)) / sum(
+        (x - mx) ** 2 for x in xs
+    )
 
-    from app.briefing.document import write_pdf
-    from core.analysis.checks import check_plan, check_stage
-    from core.io.projectfile import load
-    from core.mechanics.clearance import stage_clearances
+
+def main() -> None:
+    from PySide6.QtGui import QGuiApplication, QPdfWriter
+
+    from app.briefing.document import Document, content_of, page_layout, write_pdf
 
     app = QGuiApplication.instance() or QGuiApplication([])
-    project = load(ROOT / "sample_projects" / "twin_barge_move.towboard")
-    stage = project.stages[0]
-    print(f"plan: {len(project.stages)} stages, {len(project.site.features)} site features")
-    print(
-        f"clearances of one stage:        {median_ms(lambda: stage_clearances(project, stage), 50):8.2f} ms"
-    )
-    print(
-        f"check of one stage (with goal): {median_ms(lambda: check_stage(project, 0), 20):8.2f} ms"
-    )
-    print(f"check of every stage:           {median_ms(lambda: check_plan(project), 10):8.2f} ms")
+    quick = "--quick" in sys.argv
+    plans = {n: plan_of(n) for n in SIZES}
+    contents = {n: content_of(p) for n, p in plans.items()}
+    rows: dict[str, dict[int, float]] = {"layout": {}, "PDF": {}}
     with tempfile.TemporaryDirectory() as d:
-        out = Path(d) / "plan.pdf"
-        pages = write_pdf(project, out)
-        ms = median_ms(lambda: write_pdf(project, out), 5)
+        device = QPdfWriter(str(Path(d) / "measure.pdf"))
+        device.setResolution(1200)
+        device.setPageLayout(page_layout("a4"))
+        pages = {}
+        for n in SIZES:
+            rows["layout"][n] = median_s(lambda n=n: Document(contents[n], device), 3)
+            pages[n] = len(Document(contents[n], device).pages)
+        if not quick:
+            out = Path(d) / "plan.pdf"
+            for n in SIZES:
+                rows["PDF"][n] = median_s(lambda n=n: write_pdf(plans[n], out), 1 if n > 16 else 2)
+        del device
+    print("stages  pages   layout s   PDF s")
+    for n in SIZES:
+        pdf = rows["PDF"].get(n)
+        pdf_txt = f"{pdf:8.2f}" if pdf is not None else "       -"
+        print(f"{n:6d} {pages[n]:6d} {rows['layout'][n]:10.4f} {pdf_txt}")
+    for name, row in rows.items():
+        if not row:
+            continue
+        sizes = [n for n in SIZES if n >= 4]
+        k = fitted_exponent(sizes, [row[n] for n in sizes])
+        ratio = row[64] / row[BASELINE]
         print(
-            f"briefing PDF ({pages} pages, A4):  {ms:8.1f} ms, {out.stat().st_size / 1024:.0f} KiB"
+            f"{name}: fitted exponent {k:.2f} (N = 4-64); 64 stages / {BASELINE} stages = "
+            f"{ratio:.2f}x (linear 4.00x, target <= 4.50x)"
         )
     del app
 

@@ -8,6 +8,7 @@ footer can say "page N of M".
 
 from __future__ import annotations
 
+from collections import deque
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 
@@ -30,6 +31,7 @@ class Ctx:
         self.device = device
         self.dpi = float(device.logicalDpiX())
         self._metrics: dict[tuple[float, bool, bool], QFontMetricsF] = {}
+        self._heights: dict[tuple[str, float, float, bool], float] = {}
 
     def mm(self, v: float) -> float:
         """Millimetres on paper -> device pixels."""
@@ -49,9 +51,15 @@ class Ctx:
         return self._metrics[key]
 
     def text_height(self, text: str, width: float, size_pt: float, bold: bool = False) -> float:
-        m = self.metrics(size_pt, bold)
-        r = m.boundingRect(QRectF(0, 0, width, 1e7), int(Qt.TextFlag.TextWordWrap), text)
-        return max(r.height(), m.height())
+        """Height of ``text`` word-wrapped to ``width`` device pixels, remembered: a
+        briefing measures the same cells when it lays out and again when it paints."""
+        key = (text, width, size_pt, bold)
+        h = self._heights.get(key)
+        if h is None:
+            m = self.metrics(size_pt, bold)
+            r = m.boundingRect(QRectF(0, 0, width, 1e7), int(Qt.TextFlag.TextWordWrap), text)
+            h = self._heights[key] = max(r.height(), m.height())
+        return h
 
 
 class Block:
@@ -333,81 +341,93 @@ def _first_unit_height(block: Block, ctx: Ctx, width: float) -> float:
 
 
 def paginate(blocks: Sequence[Block], ctx: Ctx, width: float, avail: float) -> list[Page]:
-    """Lay blocks down the page, starting a new page where the next one does not fit."""
-    pages: list[Page] = [[]]
-    y = 0.0
-    blocks = _expand_groups(blocks, ctx, width, avail)
+    """Lay blocks down the page, starting a new page where the next one does not fit.
 
-    def new_page() -> None:
-        nonlocal y
-        if pages[-1]:
-            pages.append([])
-        y = 0.0
+    One pass: a group is opened where it falls (with a page break and its "continued"
+    heading in front when it does not fit on the rest of the page), so the time grows
+    with the number of blocks, not with its square.
+    """
+    return _Paginator(ctx, width, avail).run(blocks)
 
-    for k, block in enumerate(blocks):
+
+class _Paginator:
+    """The state of one pass of :func:`paginate`: the pages so far and the height used."""
+
+    def __init__(self, ctx: Ctx, width: float, avail: float) -> None:
+        self.ctx, self.width, self.avail = ctx, width, avail
+        self.pages: list[Page] = [[]]
+        self.y = 0.0
+
+    def new_page(self) -> None:
+        if self.pages[-1]:
+            self.pages.append([])
+        self.y = 0.0
+
+    def run(self, blocks: Sequence[Block]) -> list[Page]:
+        todo: deque[Block] = deque(blocks)
+        while todo:
+            block = todo.popleft()
+            if isinstance(block, Group):
+                opened: list[Block] = list(block.blocks)
+                if self.y > 0.0 and self.y + block.height(self.ctx, self.width) > self.avail:
+                    opened[:0] = [PageBreak()] + ([block.continued] if block.continued else [])
+                todo.extendleft(reversed(opened))
+                continue
+            self.place(block, _first_of(todo[0]) if todo else None)
+        return self.pages
+
+    def place(self, block: Block, nxt: Block | None) -> None:
+        ctx, width, avail = self.ctx, self.width, self.avail
         if isinstance(block, PageBreak):
-            new_page()
-            continue
-        if isinstance(block, Spacer) and y == 0.0:
-            continue
-        if isinstance(block, Table) and 0 < len(block.rows) <= block.keep_rows:
-            h = block.height(ctx, width)
-            if y > 0.0 and y + h > avail and h <= avail:
-                new_page()
+            self.new_page()
+            return
+        if isinstance(block, Spacer) and self.y == 0.0:
+            return
         if isinstance(block, Table):
-            i = 0
-            n = len(block.rows)
-            while i < n or (n == 0 and i == 0):
-                head = block.header_height(ctx, width)
-                j = i
-                h = head + ctx.mm(2.5)
-                while j < n and y + h + block.row_height(ctx, width, j) <= avail:
-                    h += block.row_height(ctx, width, j)
-                    j += 1
-                if j == i and n > 0:  # not even one row fits here
-                    if y == 0.0:  # a single row taller than a page: place it anyway
-                        h += block.row_height(ctx, width, j)
-                        j += 1
-                    else:
-                        new_page()
-                        continue
-                pages[-1].append(Placed(TableSlice(block, i, j), y, h))
-                y += h
-                i = j
-                if n == 0:
-                    break
-                if i < n:
-                    new_page()
-            continue
+            self.place_table(block)
+            return
         h = block.height(ctx, width)
         need = h
-        if block.keep_with_next and k + 1 < len(blocks):
-            nxt = blocks[k + 1]
-            if not isinstance(nxt, PageBreak):
-                need += _first_unit_height(nxt, ctx, width)
-        if y > 0.0 and y + need > avail:
-            new_page()
-        pages[-1].append(Placed(block, y, h))
-        y += h
-    return pages
+        if block.keep_with_next and nxt is not None and not isinstance(nxt, PageBreak):
+            need += _first_unit_height(nxt, ctx, width)
+        if self.y > 0.0 and self.y + need > avail:
+            self.new_page()
+        self.pages[-1].append(Placed(block, self.y, h))
+        self.y += h
+
+    def place_table(self, block: Table) -> None:
+        ctx, width, avail = self.ctx, self.width, self.avail
+        if 0 < len(block.rows) <= block.keep_rows:
+            h = block.height(ctx, width)
+            if self.y > 0.0 and self.y + h > avail and h <= avail:
+                self.new_page()
+        i = 0
+        n = len(block.rows)
+        head = block.header_height(ctx, width)
+        while i < n or (n == 0 and i == 0):
+            j = i
+            h = head + ctx.mm(2.5)
+            while j < n and self.y + h + block.row_height(ctx, width, j) <= avail:
+                h += block.row_height(ctx, width, j)
+                j += 1
+            if j == i and n > 0:  # not even one row fits here
+                if self.y == 0.0:  # a single row taller than a page: place it anyway
+                    h += block.row_height(ctx, width, j)
+                    j += 1
+                else:
+                    self.new_page()
+                    continue
+            self.pages[-1].append(Placed(TableSlice(block, i, j), self.y, h))
+            self.y += h
+            i = j
+            if n == 0:
+                break
+            if i < n:
+                self.new_page()
 
 
-def _expand_groups(blocks: Sequence[Block], ctx: Ctx, width: float, avail: float) -> list[Block]:
-    """Groups replaced by their blocks, with a page break (and the "continued" heading)
-    in front of a group that would not fit on the page where it falls."""
-    if not any(isinstance(b, Group) for b in blocks):
-        return list(blocks)
-    out: list[Block] = []
-    for block in blocks:
-        if not isinstance(block, Group):
-            out.append(block)
-            continue
-        pages = paginate(out, ctx, width, avail) if out else [[]]
-        last = pages[-1]
-        y = (last[-1].y + last[-1].h) if last else 0.0
-        if y > 0.0 and y + block.height(ctx, width) > avail:
-            out.append(PageBreak())
-            if block.continued is not None:
-                out.append(block.continued)
-        out.extend(block.blocks)
-    return out
+def _first_of(block: Block) -> Block:
+    """The block that will be laid first of ``block`` (a group's first block)."""
+    while isinstance(block, Group) and block.blocks:
+        block = block.blocks[0]
+    return block
