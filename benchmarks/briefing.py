@@ -41,8 +41,7 @@ def plan_of(n: int):  # type: ignore[no-untyped-def]
     project = load(ROOT / "sample_projects" / "twin_barge_move.towboard")
     base = project.stages
     stages = tuple(
-        replace(base[k % len(base)], name=f"{base[k % len(base)].name} ({k + 1})")
-        for k in range(n)
+        replace(base[k % len(base)], name=f"{base[k % len(base)].name} ({k + 1})") for k in range(n)
     )
     return replace(project, stages=stages)
 
@@ -82,7 +81,7 @@ def main() -> None:
         device.setPageLayout(page_layout("a4"))
         pages = {}
         for n in SIZES:
-            rows["layout"][n] = median_s(lambda n=n: Document(contents[n], device), 3)
+            rows["layout"][n] = median_s(lambda n=n, dev=device: Document(contents[n], dev), 3)
             pages[n] = len(Document(contents[n], device).pages)
         if not quick:
             out = Path(d) / "plan.pdf"

@@ -39,7 +39,9 @@ def test_a_group_that_fits_stays_and_one_that_does_not_starts_a_page(ctx) -> Non
 
 def test_a_heading_is_kept_with_what_follows(ctx) -> None:  # type: ignore[no-untyped-def]
     width, avail = ctx.mm(180), ctx.mm(100)
-    pages = paginate([Text("top"), Spacer(88), heading("Balance", 2), Text("net force")], ctx, width, avail)
+    pages = paginate(
+        [Text("top"), Spacer(88), heading("Balance", 2), Text("net force")], ctx, width, avail
+    )
     assert _texts(pages[1]) == ["Balance", "net force"]
 
 
