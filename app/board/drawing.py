@@ -31,7 +31,7 @@ from app.board.items import (
     polygon_path,
 )
 from app.paint import style
-from app.paint.shapes import TUG_LENGTH_M, placed_tug, tug_label_anchor, tug_origin
+from app.paint.shapes import TUG_LENGTH_M, moment_arc, placed_tug, tug_label_anchor, tug_origin
 from app.paint.symbols import polygon
 from core.frames import turning_words
 from core.mechanics.balance import Balance, TugShare
@@ -404,15 +404,10 @@ class BalanceDrawing:
             self.net_label.setVisible(False)
         # yaw moment: the arc sweeps in proportion to |M| against the fleet's largest moment
         m = eq.moment
-        # square root: small moments still show, large ones do not wrap round
-        frac = math.sqrt(min(1.0, abs(m) / moment_scale)) if moment_scale > 0 else 0.0
-        tol = 1e-6 * max(moment_scale, 1.0)
-        radius = min(0.18 * body.length, 0.4 * body.beam)  # stays inside the sides
+        arc = moment_arc(m, moment_scale, body.length, body.beam)
         self.moment.set_color(colour or style.MOMENT)
-        if abs(m) > tol:
-            sweep = math.copysign(30.0 + 270.0 * frac, m)
-            start = 180.0 - sweep / 2  # centred astern of the centroid, clear of most arrows
-            r = radius * (0.7 + 0.5 * frac)
+        if arc is not None:
+            r, start, sweep = arc
             self.moment.set_geometry((cx, cy), r, start, sweep, head * 1.2)
             self.moment.setVisible(True)
             # the label sits just outside the middle of the arc, astern of the centroid

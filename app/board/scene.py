@@ -36,6 +36,7 @@ from app.board.items import Label
 from app.board.poses import pose_in, site_angle_deg, to_site
 from app.controller import BodyResult, Controller
 from app.paint import style
+from app.paint.shapes import drawing_scales
 from core.mechanics.balance import TugShare
 from core.mechanics.bodies import body_name_of_hull, body_of
 from core.mechanics.site import body_pose
@@ -120,16 +121,13 @@ class BoardScene(QGraphicsScene):
     def scales(self) -> tuple[float, float, float]:
         """(metres per newton of force arrows, moment for a full arc, arrow head, m)."""
         p = self.controller.project
-        lengths = [h.geometry.length for h in p.hulls] or [50.0]
-        lref = max(lengths)
-        fref = max((t.bollard_pull_n for t in p.tugs), default=500e3)
-        force_scale = 0.55 * lref / fref
         stage = self.stage()
         placed = {pl.tug for pl in stage.placements} if stage is not None else set()
-        total = sum(t.bollard_pull_n for t in p.tugs if t.name in placed) or fref
-        moment_scale = total * 0.5 * lref
-        head = max(2.0, min(0.035 * lref, 12.0))
-        return force_scale, moment_scale, head
+        return drawing_scales(
+            [h.geometry.length for h in p.hulls],
+            [t.bollard_pull_n for t in p.tugs],
+            [t.bollard_pull_n for t in p.tugs if t.name in placed],
+        )
 
     def tug_text(self, share: TugShare) -> str:
         u = self.controller.project.units

@@ -1,73 +1,59 @@
 """The stage diagram of the briefing: the site, the bodies, the tugs and the forces, to scale.
 
-Drawn with QPainter from the core's numbers in the site frame (x east, y north,
-north up on the paper). The drawing scale is a round ratio chosen to fit, and force
-arrows have their own stated scale, so a planner can read both off the paper.
+Drawn with QPainter from the core's numbers in the site frame (x east, y north, north
+up on the paper), with the board's shapes and colours (app.paint). The diagram is
+framed on the bodies, their tugs and the nearest site features: each body's least
+clearance (and every clearance under its margin) lies inside it, drawn as a dotted
+line labelled with what it measures. The drawing scale is a round ratio chosen to
+fit, and force arrows have their own stated scale, so a planner can read both off
+the paper.
 """
 
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import shapely
 from PySide6.QtCore import QPointF, QRectF, Qt
-from PySide6.QtGui import QColor, QPainter, QPainterPath, QPen, QPolygonF
+from PySide6.QtGui import QColor, QPainter, QPen
 
-from app.briefing.layout import FAIL, INK, MUTED, RULE, Ctx
+from app.briefing.diagram_key import draw_key
+from app.briefing.layout import INK, RULE, Ctx
+from app.briefing.mapframe import Box, MapFrame, box_of, grown
 from app.paint import style
-from app.paint.shapes import TUG_LENGTH_M, arrow_head, placed_tug, tug_label_anchor, tug_origin
+from app.paint.shapes import (
+    TUG_LENGTH_M,
+    arc_arrow,
+    arrow_head,
+    drawing_scales,
+    moment_arc,
+    placed_tug,
+    tug_label_anchor,
+    tug_origin,
+)
 from app.paint.symbols import (
     draw_centroid,
     draw_cog,
     draw_crossing,
-    draw_north,
     paint_arrow,
     polygon,
     polyline_path,
 )
-from core.analysis.checks import StageCheck
-from core.frames import site_angle_to_true, true_to_site_angle
+from core.frames import site_angle_to_true
 from core.mechanics.balance import Balance
 from core.mechanics.bodies import body_of
-from core.mechanics.clearance import notable_clearances
+from core.mechanics.clearance import Clearance, notable_clearances
 from core.mechanics.site import PlacedBody, body_pose, place_body, placed_bodies
-from core.model.plan import Project, SiteFeature
-from core.units import fmt, label
+from core.model.plan import Project, Stage
+from core.units import DisplayUnits, fmt, label
 
 Pt = tuple[float, float]
 
-#: Round drawing scales offered, 1 : N.
-SCALES = (
-    200,
-    250,
-    500,
-    750,
-    1000,
-    1250,
-    1500,
-    2000,
-    2500,
-    3000,
-    4000,
-    5000,
-    7500,
-    10000,
-    12500,
-    15000,
-    20000,
-    25000,
-    50000,
-)
 #: Round force-arrow scales, display units per 10 mm of arrow.
 FORCE_STEPS = (1, 2, 2.5, 5, 10, 20, 25, 50, 100, 200, 250, 500, 1000)
 LEGEND_MM = 17.0  # the key strip under the map
-
-HULL_FILL, HULL_EDGE = style.HULL_FILL, style.HULL_EDGE
-TUG_FILL, TUG_EDGE, TUG_FORCE = style.TUG_FILL, style.TUG_EDGE, style.TUG_FORCE
-NET_FORCE, LOAD_FORCE, CURRENT = style.NET_FORCE, style.WIND, style.CURRENT
-QUAY, VESSEL_FILL, LIMIT = style.QUAY, style.VESSEL_FILL, style.LIMIT
-PORT_RED, STBD_GREEN = style.PORT, style.STARBOARD
 
 
 @dataclass(frozen=True, slots=True)
@@ -77,20 +63,24 @@ class Arrow:
     label: str
 
 
-def stage_placed(project: Project, check: StageCheck) -> list[PlacedBody]:
+@dataclass(frozen=True, slots=True)
+class TugMark:
+    """One tug as drawn: its pull, where it lies, which way its bow points."""
+
+    arrow: Arrow
+    position: Pt  # the line's far end (site m)
+    direction: Pt  # unit, site frame: along the pull
+    mode: str  # "line" or "push"
+
+
+def stage_placed(project: Project, stage: Stage, balances: Sequence[Balance]) -> list[PlacedBody]:
     """Bodies posed in the stage, and any body worked on in it without a pose."""
-    stage = check.stage
     placed = list(placed_bodies(project, stage))
     names = {pb.name for pb in placed}
-    for b in check.balances:
+    for b in balances:
         if b.body not in names:
             placed.append(place_body(body_of(project, b.body), body_pose(project, stage, b.body)))
     return placed
-
-
-def _nice_scale(needed: float) -> int:
-    """The smallest round scale 1 : N with N >= needed."""
-    return next((s for s in SCALES if s >= needed), int(math.ceil(needed / 1000.0) * 1000))
 
 
 def force_step(max_force_display: float) -> float:
@@ -99,75 +89,91 @@ def force_step(max_force_display: float) -> float:
     return next((s for s in FORCE_STEPS if s >= want), FORCE_STEPS[-1])
 
 
-class StageDiagram:
-    """Everything needed to paint one stage, worked out from the core's results."""
+def clearance_text(c: Clearance, units: DisplayUnits) -> str:
+    """What a clearance line measures, in words: "12.0 m to Fitting-out quay"."""
+    if c.touching:
+        return f"touching {c.other}"
+    text = f"{units.show(c.distance_m, 'length')} to {c.other}"
+    if c.below_margin:
+        text += f", under the {units.show(c.margin_m, 'length')} margin"
+    return text
 
-    def __init__(self, project: Project, check: StageCheck) -> None:
+
+class StageDiagram:
+    """Everything needed to paint one stage, worked out from the core's results.
+
+    ``balances`` and ``clearances`` are the stage's, as the core computed them; the
+    diagram only lays them out.
+    """
+
+    def __init__(
+        self,
+        project: Project,
+        stage: Stage,
+        balances: Sequence[Balance],
+        clearances: Sequence[Clearance],
+    ) -> None:
         self.project = project
-        self.check = check
+        self.stage = stage
+        self.balances = tuple(balances)
         self.units = project.units
-        self.placed = stage_placed(project, check)
+        self.placed = stage_placed(project, stage, self.balances)
         self.by_name = {pb.name: pb for pb in self.placed}
-        self.tug_arrows: list[tuple[Balance, Arrow, Pt, Pt, bool]] = []  # arrow, tug pos, dir, push
+        #: The clearance lines drawn: each body's least and every one under its margin.
+        self.clearances = notable_clearances(tuple(clearances))
+        self.tugs: list[TugMark] = []
         self.net_arrows: list[tuple[Balance, Arrow]] = []
         self.load_arrows: list[Arrow] = []
-        for b in check.balances:
-            pb = self.by_name[b.body]
-            pl = pb.placing
-            for sh in b.shares:
-                layout_point = self._share_point(b, sh.tug)
-                tail = pl.point(layout_point)
-                f = pl.direction(sh.force)
-                mag = math.hypot(*sh.force)
-                d = (
-                    (f[0] / mag, f[1] / mag)
-                    if mag > 0
-                    else pl.direction(_unit(sh.lead_bearing_deg))
-                )
-                self.tug_arrows.append(
-                    (
-                        b,
-                        Arrow(tail, f, f"{sh.tug} {self.units.show(sh.pull_n, 'force')}"),
-                        pl.point(sh.position),
-                        d,
-                        sh.mode == "push",
-                    )
-                )
-            c = pl.point(b.centroid)
-            self.net_arrows.append((b, Arrow(c, pl.direction(b.net_force), "net")))
-            for ld in b.loads:
-                self.load_arrows.append(Arrow(pl.point(ld.point), pl.direction(ld.force), ld.name))
-        forces = [math.hypot(*a.force) for _, a, *_ in self.tug_arrows]
+        for b in self.balances:
+            self._add_balance(b)
+        forces = [math.hypot(*t.arrow.force) for t in self.tugs]
         forces += [math.hypot(*a.force) for _, a in self.net_arrows]
         forces += [math.hypot(*a.force) for a in self.load_arrows]
         top = max(forces, default=0.0)
         self.force_step = force_step(self.units.value(top, "force")) if top > 0 else 10.0
+        _, self.moment_scale, self.head_m = drawing_scales(
+            [h.geometry.length for h in project.hulls],
+            [t.bollard_pull_n for t in project.tugs],
+            [t.bollard_pull_n for t in project.tugs if t.name in {p.tug for p in stage.placements}],
+        )
         self.extent = self._extent()
 
-    def _share_point(self, b: Balance, tug: str) -> Pt:
-        stage = self.check.stage
-        placement = stage.placement(tug)
-        body = self.by_name[b.body].body
-        member, fitting = body.fitting(placement.hull, placement.point)
-        return member.to_body((fitting.x, fitting.y))
+    def _add_balance(self, b: Balance) -> None:
+        pb = self.by_name[b.body]
+        pl = pb.placing
+        for sh in b.shares:
+            placement = self.stage.placement(sh.tug)
+            member, fitting = pb.body.fitting(placement.hull, placement.point)
+            tail = pl.point(member.to_body((fitting.x, fitting.y)))
+            f = pl.direction(sh.force)
+            mag = math.hypot(*sh.force)
+            d = (f[0] / mag, f[1] / mag) if mag > 0 else pl.direction(_unit(sh.lead_bearing_deg))
+            text = f"{sh.tug} {self.units.show(sh.pull_n, 'force')}"
+            self.tugs.append(TugMark(Arrow(tail, f, text), pl.point(sh.position), d, sh.mode))
+        c = pl.point(b.centroid)
+        self.net_arrows.append((b, Arrow(c, pl.direction(b.net_force), "net")))
+        for ld in b.loads:
+            self.load_arrows.append(Arrow(pl.point(ld.point), pl.direction(ld.force), ld.name))
 
-    def _extent(self) -> tuple[float, float, float, float]:
-        xs: list[float] = []
-        ys: list[float] = []
+    def tug_outline(self, t: TugMark, length: float = TUG_LENGTH_M) -> tuple[Pt, ...]:
+        origin = tug_origin(t.mode, t.arrow.tail, t.position, t.direction, length)
+        return placed_tug(origin, t.direction, length)
+
+    def _extent(self) -> Box:
+        """The bodies, their tugs and the ends of every clearance line drawn, with room
+        round them for the labels."""
+        pts: list[Pt] = []
         size = 30.0
         for pb in self.placed:
             x0, y0, x1, y1 = pb.polygon.bounds
-            xs += [x0, x1]
-            ys += [y0, y1]
+            pts += [(x0, y0), (x1, y1)]
             size = max(size, pb.body.length, pb.body.beam)
-        for _b, _a, pos, d, push in self.tug_arrows:
-            far = (pos[0] + d[0] * TUG_LENGTH_M, pos[1] + d[1] * TUG_LENGTH_M) if not push else pos
-            xs += [pos[0], far[0]]
-            ys += [pos[1], far[1]]
-        if not xs:
-            xs, ys = [-50.0, 50.0], [-50.0, 50.0]
-        pad = 0.35 * size
-        return (min(xs) - pad, min(ys) - pad, max(xs) + pad, max(ys) + pad)
+        for t in self.tugs:
+            pts += list(self.tug_outline(t))
+        for c in self.clearances:
+            pts += [c.at_body, c.at_other]
+        box = box_of(pts) or (-50.0, -50.0, 50.0, 50.0)
+        return grown(box, 0.3 * size)
 
     # -- painting --------------------------------------------------------------------------
     def paint(self, p: QPainter, ctx: Ctx, rect: QRectF) -> None:
@@ -175,22 +181,8 @@ class StageDiagram:
         strip = ctx.mm(LEGEND_MM)
         area = QRectF(rect.left(), rect.top(), rect.width(), rect.height() - strip)
         legend = QRectF(rect.left(), area.bottom(), rect.width(), strip)
-        x0, y0, x1, y1 = self.extent
-        w_m, h_m = max(x1 - x0, 1.0), max(y1 - y0, 1.0)
-        # paper mm per metre must fit both ways; 1 : N means 1 m is 1000 / N mm
-        mm_per_m = min(area.width() / ctx.mm(1) / w_m, area.height() / ctx.mm(1) / h_m)
-        self.scale_n = _nice_scale(1000.0 / mm_per_m)
-        s = ctx.mm(1000.0 / self.scale_n)  # device px per metre
-        cx, cy = (x0 + x1) / 2, (y0 + y1) / 2
-        ox, oy = area.center().x(), area.center().y()
-
-        def to_px(pt: Pt) -> QPointF:
-            return QPointF(ox + (pt[0] - cx) * s, oy - (pt[1] - cy) * s)
-
-        self.to_px, self.px_per_m = to_px, s
-        self.taken: list[QRectF] = []
-        half_w, half_h = area.width() / 2 / s, area.height() / 2 / s
-        self.view = shapely.box(cx - half_w, cy - half_h, cx + half_w, cy + half_h)
+        self.frame = f = MapFrame(ctx, area, self.extent)
+        self.scale_n, self.px_per_m = f.scale_n, f.px_per_m
         p.setPen(QPen(RULE, ctx.mm(0.3)))
         p.setBrush(style.WATER)
         p.drawRect(area)
@@ -199,196 +191,98 @@ class StageDiagram:
         p.setBrush(Qt.BrushStyle.NoBrush)
         p.save()
         p.setClipRect(area)
-        for f in self.project.site.features:
-            self._feature(p, ctx, f)
+        f.features(p, self.project.site.features)
         for pb in self.placed:
             self._body(p, ctx, pb)
-        self._clearances(p, ctx)
+        self._clearance_lines(p, ctx)
         for b, _a in self.net_arrows:
-            self._line_of_action(p, ctx, b, area)
-        for _b, a, pos, d, push in self.tug_arrows:
-            self._tug(p, ctx, a, pos, d, push)
+            self._line_of_action(p, ctx, b)
+        for t in self.tugs:
+            self._tug(p, ctx, t)
         for a in self.load_arrows:
             col = style.load_color(a.label)
-            self._arrow(p, ctx, a.tail, a.force, col, 0.45)
-            end = self._arrow_end(ctx, a.tail, a.force)
-            self._label(p, ctx, QPointF(end.x(), end.y() + ctx.mm(2.4)), a.label, 6.0, col)
+            end = self._arrow(p, ctx, a.tail, a.force, col, 0.45)
+            f.label(p, QPointF(end.x(), end.y() + ctx.mm(2.4)), a.label, 6.0, col)
         for b, a in self.net_arrows:
             self._net(p, ctx, b, a)
+        f.north(p)
         for pb in self.placed:
             self._body_name(p, ctx, pb)
         self._clearance_labels(p, ctx)
-        self._feature_labels(p, ctx)
-        p.restore()
-        self._north(p, ctx, area)
-        self._legend(p, ctx, legend)
-
-    def _poly(self, pts: list[Pt] | tuple[Pt, ...]) -> QPolygonF:
-        return QPolygonF([self.to_px(pt) for pt in pts])
-
-    def _label(
-        self,
-        p: QPainter,
-        ctx: Ctx,
-        at: QPointF,
-        text: str,
-        size: float = 6.5,
-        color: QColor = INK,
-        bold: bool = False,
-        halo: bool = True,
-        avoid: bool = False,
-    ) -> bool:
-        """Draw a centred label; with ``avoid``, skip it (False) where it would cover another."""
-        p.setFont(ctx.font(size, bold))
-        m = ctx.metrics(size, bold)
-        w, h = m.horizontalAdvance(text), m.height()
-        r = QRectF(at.x() - w / 2, at.y() - h / 2, w, h)
-        if avoid and any(r.intersects(o) for o in self.taken):
-            return False
-        self.taken.append(r)
-        if halo:
-            p.fillRect(
-                r.adjusted(-ctx.mm(0.6), -ctx.mm(0.1), ctx.mm(0.6), ctx.mm(0.1)),
-                style.LABEL_BG,
-            )
-        p.setPen(color)
-        p.drawText(r, int(Qt.AlignmentFlag.AlignCenter), text)
-        return True
-
-    def _feature(self, p: QPainter, ctx: Ctx, f: SiteFeature) -> None:
-        pts = list(f.points)
-        if f.kind == "quay":
-            p.setPen(QPen(QUAY, ctx.mm(1.1), Qt.PenStyle.SolidLine, Qt.PenCapStyle.FlatCap))
-            p.drawPolyline(self._poly(pts))
-        elif f.kind == "limit":
-            p.setPen(QPen(LIMIT, ctx.mm(0.35), Qt.PenStyle.DashLine))
-            p.setBrush(Qt.BrushStyle.NoBrush)
-            if f.closed:
-                p.drawPolygon(self._poly(pts))
-            else:
-                p.drawPolyline(self._poly(pts))
-        else:
-            fill = VESSEL_FILL if f.kind == "vessel" else style.DOLPHIN_FILL
-            p.setPen(QPen(QUAY, ctx.mm(0.3)))
-            p.setBrush(fill)
-            p.drawPolygon(self._poly(pts))
-            p.setBrush(Qt.BrushStyle.NoBrush)
-
-    def _feature_labels(self, p: QPainter, ctx: Ctx) -> None:
-        """Each feature's name where it covers nothing already drawn, else left out."""
-        for f in self.project.site.features:
-            for at in self._feature_label_spots(ctx, f):
-                if self._label(p, ctx, at, f.name, 6.0, MUTED, avoid=True):
-                    break
-
-    def _feature_label_spots(self, ctx: Ctx, f: SiteFeature) -> list[QPointF]:
-        """Where a feature's name may go, best first: on its part inside the map, away from
-        the bodies."""
-        inset = 8.0 / (self.px_per_m / ctx.mm(1))  # 8 mm in from the map's edge, in metres
-        view = self.view.buffer(-inset)
-        if f.closed and f.kind != "limit":
-            part = shapely.Polygon(f.points).intersection(view)
-            if part.is_empty:
-                return []
-            q = part.representative_point()
-            return [self.to_px((q.x, q.y))]
-        line = shapely.LineString(f.points if not f.closed else [*f.points, f.points[0]])
-        part = line.intersection(view)
-        if part.is_empty or part.length <= 0:
-            return []
         bodies = shapely.union_all([pb.polygon for pb in self.placed]) if self.placed else None
-        centre = bodies.centroid if bodies is not None else None
-        off = 2.6 / (self.px_per_m / ctx.mm(1))
-        spots: list[tuple[float, QPointF]] = []
-        for seg in getattr(part, "geoms", [part]):
-            for t in (0.15, 0.5, 0.85, 0.3, 0.7):
-                q = seg.interpolate(t, normalized=True)
-                a = seg.interpolate(max(0.0, t - 0.01), normalized=True)
-                b = seg.interpolate(min(1.0, t + 0.01), normalized=True)
-                dx, dy = b.x - a.x, b.y - a.y
-                n = math.hypot(dx, dy) or 1.0
-                nx, ny = -dy / n, dx / n
-                if centre is not None and (centre.x - q.x) * nx + (centre.y - q.y) * ny > 0:
-                    nx, ny = -nx, -ny  # the side away from the bodies
-                d = bodies.distance(q) if bodies is not None else 0.0
-                spots.append((d, self.to_px((q.x + nx * off, q.y + ny * off))))
-        spots.sort(key=lambda s: -s[0])
-        return [pt for _, pt in spots]
+        f.feature_labels(p, self.project.site.features, bodies)
+        p.restore()
+        draw_key(p, ctx, legend, self)
 
     def _body(self, p: QPainter, ctx: Ctx, pb: PlacedBody) -> None:
-        pl = pb.placing
+        f, pl = self.frame, pb.placing
         for outline in pb.body.outlines():
-            p.setPen(QPen(HULL_EDGE, ctx.mm(0.25)))
-            p.setBrush(HULL_FILL)
-            p.drawPolygon(self._poly([pl.point(v) for v in outline]))
+            p.setPen(QPen(style.HULL_EDGE, ctx.mm(0.25)))
+            p.setBrush(style.HULL_FILL)
+            p.drawPolygon(f.poly([pl.point(v) for v in outline]))
         p.setBrush(Qt.BrushStyle.NoBrush)
-        ext = pb.polygon.exterior.coords
-        p.setPen(QPen(HULL_EDGE, ctx.mm(0.55)))
-        p.drawPolygon(self._poly([(x, y) for x, y in ext]))
+        p.setPen(QPen(style.HULL_EDGE, ctx.mm(0.55)))
+        p.drawPolygon(f.poly(list(pb.polygon.exterior.coords)))
         body = pb.body
         # centreline of each member, its bow marked with an arrowhead
-        pen = QPen(HULL_EDGE, ctx.mm(0.18), Qt.PenStyle.DashDotLine)
+        pen = QPen(style.CENTRELINE, ctx.mm(0.18), Qt.PenStyle.DashDotLine)
         for k, m in enumerate(body.members):
             g = m.hull.geometry
             a, b = m.to_body((g.x_min, 0.0)), m.to_body((g.x_max, 0.0))
             p.setPen(pen)
-            p.drawLine(self.to_px(pl.point(a)), self.to_px(pl.point(b)))
-            tip = m.to_body((g.x_max - 0.06 * g.length, 0.0))
-            self._arrowhead(
-                p,
-                ctx,
-                self.to_px(pl.point(tip)),
-                pl.direction(m.direction_to_body((1.0, 0.0))),
-                HULL_EDGE,
-                2.6,
-            )
+            p.drawLine(f.to_px(pl.point(a)), f.to_px(pl.point(b)))
+            tip = f.to_px(pl.point(m.to_body((g.x_max - 0.06 * g.length, 0.0))))
+            d = pl.direction(m.direction_to_body((1.0, 0.0)))
+            self._head(p, ctx, tip, d, style.HULL_EDGE, 2.6)
             if k == 0:
-                word = m.to_body((g.x_max - 0.2 * g.length, 0.0))
-                self._label(
-                    p, ctx, self.to_px(pl.point(word)), "BOW", 5.5, HULL_EDGE, True, halo=False
-                )
+                word = f.to_px(pl.point(m.to_body((g.x_max - 0.2 * g.length, 0.0))))
+                f.label(p, word, "BOW", 5.5, style.HULL_EDGE, True, halo=False)
         # port (red) and starboard (green) sides, just outside the outline at mid-length
         x0, y0, x1, y1 = body.polygon.bounds
-        off = max(0.06 * body.beam, 3.0)
-        mid = (x0 + x1) / 2
-        half = 0.15 * body.length
-        for y, text, col in ((y1 + off, "P", PORT_RED), (y0 - off, "S", STBD_GREEN)):
+        off = max(0.06 * body.beam, f.metres(1.2))
+        mid, half = (x0 + x1) / 2, 0.15 * body.length
+        for y, text, col in ((y1 + off, "P", style.PORT), (y0 - off, "S", style.STARBOARD)):
             a, b = pl.point((mid - half, y)), pl.point((mid + half, y))
             p.setPen(QPen(col, ctx.mm(0.8)))
-            p.drawLine(self.to_px(a), self.to_px(b))
-            end = self.to_px(b)
+            p.drawLine(f.to_px(a), f.to_px(b))
+            end = f.to_px(b)
             d = pl.direction((1.0, 0.0))
-            at = QPointF(end.x() + d[0] * ctx.mm(2.2), end.y() - d[1] * ctx.mm(2.2))
-            self._label(p, ctx, at, text, 6.0, col, True)
-        # centroid (circle and cross) and centre of gravity (quartered circle)
-        c = self.to_px(pl.point(body.centroid))
+            f.label(
+                p,
+                QPointF(end.x() + d[0] * ctx.mm(2.2), end.y() - d[1] * ctx.mm(2.2)),
+                text,
+                6.0,
+                col,
+                True,
+            )
+        c = f.to_px(pl.point(body.centroid))
         r = ctx.mm(2.0)
         draw_centroid(p, c, r, INK, ctx.mm(0.25))
-        gp = self.to_px(pl.point(body.centre_of_gravity))
+        gp = f.to_px(pl.point(body.centre_of_gravity))
         if math.hypot(gp.x() - c.x(), gp.y() - c.y()) > ctx.mm(0.4):
             draw_cog(p, gp, r, INK, ctx.mm(0.25))
 
     def _body_name(self, p: QPainter, ctx: Ctx, pb: PlacedBody) -> None:
-        """The body's name just beyond its stern, on the centreline."""
-        body = pb.body
-        gap = 5.0 / (self.px_per_m / ctx.mm(1))
-        at = pb.placing.point((body.x_min - gap, body.centroid[1]))
-        self._label(p, ctx, self.to_px(at), pb.name, 7.0, HULL_EDGE, True)
+        """The body's name just beyond its stern, on the centreline (or over its middle)."""
+        body, f = pb.body, self.frame
+        spots = [
+            f.to_px(pb.placing.point((body.x_min - f.metres(9.0), body.centroid[1]))),
+            f.to_px(pb.placing.point((body.x_max + f.metres(9.0), body.centroid[1]))),
+            f.to_px(pb.placing.point(body.centroid)),
+        ]
+        f.first_free(p, spots, pb.name, 7.0, style.HULL_EDGE, True)
 
-    def _arrowhead(
-        self, p: QPainter, ctx: Ctx, tip: QPointF, d: Pt, color: QColor, size_mm: float
-    ) -> None:
-        # d is a site direction; on paper y is down
+    def _head(self, p: QPainter, ctx: Ctx, tip: QPointF, d: Pt, color: QColor, mm: float) -> None:
+        """A filled arrowhead at ``tip`` (device px) pointing along site direction ``d``."""
         n = math.hypot(*d) or 1.0
-        L = ctx.mm(size_mm)
-        tail = QPointF(tip.x() - d[0] / n * L * 2, tip.y() + d[1] / n * L * 2)
-        parts = arrow_head((tail.x(), tail.y()), (tip.x(), tip.y()), L)
-        if parts is None:
-            return
-        p.setPen(Qt.PenStyle.NoPen)
-        p.setBrush(color)
-        p.drawPolygon(polygon(parts[1]))
-        p.setBrush(Qt.BrushStyle.NoBrush)
+        length = ctx.mm(mm)
+        tail = (tip.x() - d[0] / n * 2 * length, tip.y() + d[1] / n * 2 * length)
+        parts = arrow_head(tail, (tip.x(), tip.y()), length)
+        if parts is not None:
+            p.setPen(Qt.PenStyle.NoPen)
+            p.setBrush(color)
+            p.drawPolygon(polygon(parts[1]))
+            p.setBrush(Qt.BrushStyle.NoBrush)
 
     def arrow_mm(self, force_n: float) -> float:
         """Paper length of an arrow for a force, mm."""
@@ -404,112 +298,94 @@ class StageDiagram:
         width_mm: float,
         head_at_point: bool = False,
     ) -> QPointF:
+        """A force arrow from ``tail`` at the force scale; returns its tip (device px)."""
         mag = math.hypot(*force)
+        t = self.frame.to_px(tail)
         if mag <= 0:
-            return self.to_px(tail)
+            return t
         length = ctx.mm(self.arrow_mm(mag))
         d = (force[0] / mag, force[1] / mag)
-        t = self.to_px(tail)
-        start = t
-        end = QPointF(t.x() + d[0] * length, t.y() - d[1] * length)
+        start, end = t, QPointF(t.x() + d[0] * length, t.y() - d[1] * length)
         if head_at_point:  # a push: the arrow ends at the point it pushes on
             start, end = QPointF(t.x() - d[0] * length, t.y() + d[1] * length), t
-        parts = arrow_head(
-            (start.x(), start.y()), (end.x(), end.y()), ctx.mm(max(1.8, width_mm * 3.5))
-        )
+        head = ctx.mm(max(1.8, width_mm * 3.5))
+        parts = arrow_head((start.x(), start.y()), (end.x(), end.y()), head)
         if parts is not None:
             pen = QPen(color, ctx.mm(width_mm), Qt.PenStyle.SolidLine, Qt.PenCapStyle.FlatCap)
             shaft = polyline_path([(start.x(), start.y()), parts[0]])
             paint_arrow(p, pen, color, shaft, polygon(parts[1]), ctx.mm(0.1))
         return end
 
-    def _tug(self, p: QPainter, ctx: Ctx, a: Arrow, pos: Pt, d: Pt, push: bool) -> None:
+    def _tug(self, p: QPainter, ctx: Ctx, t: TugMark) -> None:
         """The tug as on the board (app.paint.shapes), at least 5 mm long on paper."""
-        mode = "push" if push else "line"
-        if not push:
+        f = self.frame
+        if t.mode == "line":
             p.setPen(QPen(style.TOWLINE, ctx.mm(0.3)))
-            p.drawLine(self.to_px(a.tail), self.to_px(pos))
-        length = max(TUG_LENGTH_M, ctx.mm(5) / self.px_per_m)
-        origin = tug_origin(mode, a.tail, pos, d, length)
-        p.setPen(QPen(TUG_EDGE, ctx.mm(0.3)))
-        p.setBrush(TUG_FILL)
-        p.drawPolygon(self._poly(placed_tug(origin, d, length)))
+            p.drawLine(f.to_px(t.arrow.tail), f.to_px(t.position))
+        length = max(TUG_LENGTH_M, f.metres(5.0))
+        p.setPen(QPen(style.TUG_EDGE, ctx.mm(0.3)))
+        p.setBrush(style.TUG_FILL)
+        p.drawPolygon(f.poly(self.tug_outline(t, length)))
         p.setBrush(Qt.BrushStyle.NoBrush)
-        self._arrow(p, ctx, a.tail, a.force, TUG_FORCE, 0.55, head_at_point=push)
-        # the name beyond the tug, away from the hull
-        gap = ctx.mm(3.0) / self.px_per_m
-        at = self.to_px(tug_label_anchor(mode, origin, d, length, gap))
-        self._label(p, ctx, at, a.label, 6.5, INK, True)
-
-    def _arrow_end(self, ctx: Ctx, tail: Pt, force: Pt) -> QPointF:
-        mag = math.hypot(*force)
-        t = self.to_px(tail)
-        if mag <= 0:
-            return t
-        length = ctx.mm(self.arrow_mm(mag))
-        return QPointF(t.x() + force[0] / mag * length, t.y() - force[1] / mag * length)
+        self._arrow(p, ctx, t.arrow.tail, t.arrow.force, style.TUG_FORCE, 0.55, t.mode == "push")
+        origin = tug_origin(t.mode, t.arrow.tail, t.position, t.direction, length)
+        at = f.to_px(tug_label_anchor(t.mode, origin, t.direction, length, f.metres(3.0)))
+        f.label(p, at, t.arrow.label, 6.5, INK, True)
 
     def _net(self, p: QPainter, ctx: Ctx, b: Balance, a: Arrow) -> None:
+        f, u = self.frame, self.units
         eq = b.equivalent
         if eq.kind == "force":
-            end = self._arrow(p, ctx, a.tail, a.force, NET_FORCE, 0.9)
+            end = self._arrow(p, ctx, a.tail, a.force, style.NET_FORCE, 0.9)
             mag = math.hypot(*a.force)
             d = (a.force[0] / mag, a.force[1] / mag)
             at = QPointF(end.x() + d[0] * ctx.mm(5), end.y() - d[1] * ctx.mm(3.5))
-            self._label(
-                p, ctx, at, f"net {self.units.show(eq.magnitude, 'force')}", 6.5, NET_FORCE, True
-            )
-        # yaw moment: a curved arrow round the centroid, its sweep growing with the moment
-        m = eq.moment
-        ref = max(sum(abs(sh.moment_centroid_nm) for sh in b.shares), abs(m), 1e-9)
-        if eq.kind == "balanced" or abs(m) < 0.02 * ref:
+            f.label(p, at, f"net {u.show(eq.magnitude, 'force')}", 6.5, style.NET_FORCE, True)
+        # the yaw moment as on the board: an arc astern of the centroid (app.paint.shapes)
+        pb = self.by_name[b.body]
+        arc = moment_arc(eq.moment, self.moment_scale, pb.body.length, pb.body.beam)
+        if eq.kind == "balanced" or arc is None:
             return
-        body = self.by_name[b.body].body
-        size = max(ctx.mm(5.0), min(ctx.mm(13.0), 0.3 * body.length * self.px_per_m))
-        c = self.to_px(a.tail)
-        sweep = 70.0 + 200.0 * min(1.0, abs(m) / ref)
-        rect = QRectF(c.x() - size, c.y() - size, 2 * size, 2 * size)
-        start = 210.0
-        sign = 1.0 if m > 0 else -1.0  # Qt's angles run counter-clockwise on paper, as the moment
-        path = QPainterPath()
-        path.arcMoveTo(rect, start)
-        path.arcTo(rect, start, sign * sweep)
-        p.setPen(QPen(NET_FORCE, ctx.mm(0.55)))
-        p.drawPath(path)
-        end_deg = math.radians(start + sign * sweep)
-        tip = QPointF(c.x() + size * math.cos(end_deg), c.y() - size * math.sin(end_deg))
-        tangent = (-math.sin(end_deg) * sign, math.cos(end_deg) * sign)  # y up, like the site
-        self._arrowhead(p, ctx, tip, tangent, NET_FORCE, 2.2)
-        mid = math.radians(start + sign * sweep / 2)
-        at = QPointF(
-            c.x() + (size + ctx.mm(4)) * math.cos(mid), c.y() - (size + ctx.mm(4)) * math.sin(mid)
-        )
-        self._label(p, ctx, at, self._moment_text(m), 6.0, NET_FORCE, True)
+        radius, start, sweep = arc
+        radius = max(radius, f.metres(4.0))
+        heading = math.degrees(math.atan2(*reversed(pb.placing.direction((1.0, 0.0)))))
+        head = max(self.head_m * 1.2, f.metres(2.2))
+        parts = arc_arrow(a.tail, radius, heading + start, sweep, head)
+        if parts is None:
+            return
+        shaft, tip = parts
+        pen = QPen(style.MOMENT, ctx.mm(0.55))
+        px = [(q.x(), q.y()) for q in (f.to_px(pt) for pt in shaft)]
+        head_px = [(q.x(), q.y()) for q in (f.to_px(pt) for pt in tip)]
+        paint_arrow(p, pen, style.MOMENT, polyline_path(px), polygon(head_px), ctx.mm(0.1))
+        mid = math.radians(heading + start + sweep / 2)
+        out = radius + f.metres(5.0)
+        at = f.to_px((a.tail[0] + out * math.cos(mid), a.tail[1] + out * math.sin(mid)))
+        text = f"yaw {fmt(u.value(eq.moment, 'moment'), 1, signed=True)} {label(u.unit('moment'))}"
+        f.first_free(p, [at], text, 6.0, style.MOMENT, True)
 
-    def _moment_text(self, m: float) -> str:
-        u = self.units
-        return f"{fmt(u.value(m, 'moment'), 1, signed=True)} {label(u.unit('moment'))}"
-
-    def _line_of_action(self, p: QPainter, ctx: Ctx, b: Balance, rect: QRectF) -> None:
+    def _line_of_action(self, p: QPainter, ctx: Ctx, b: Balance) -> None:
         eq = b.equivalent
         if eq.point is None or eq.direction is None:
             return
+        f = self.frame
         pl = self.by_name[b.body].placing
         pt, d = pl.point(eq.point), pl.direction(eq.direction)
         reach = 4 * max(self.extent[2] - self.extent[0], self.extent[3] - self.extent[1])
-        a = self.to_px((pt[0] - d[0] * reach, pt[1] - d[1] * reach))
-        c = self.to_px((pt[0] + d[0] * reach, pt[1] + d[1] * reach))
-        p.setPen(QPen(NET_FORCE, ctx.mm(0.3), Qt.PenStyle.DashLine))
+        a = f.to_px((pt[0] - d[0] * reach, pt[1] - d[1] * reach))
+        c = f.to_px((pt[0] + d[0] * reach, pt[1] + d[1] * reach))
+        p.setPen(QPen(style.LINE_OF_ACTION, ctx.mm(0.3), Qt.PenStyle.DashLine))
         p.drawLine(a, c)
         if b.centreline_x is not None:
-            x = self.to_px(pl.point((b.centreline_x, 0.0)))
-            if rect.contains(x):
-                draw_crossing(p, x, ctx.mm(1.6), NET_FORCE, ctx.mm(0.3))
+            x = f.to_px(pl.point((b.centreline_x, 0.0)))
+            if f.area.contains(x):
+                draw_crossing(p, x, ctx.mm(1.6), style.LINE_OF_ACTION, ctx.mm(0.3))
 
-    def _clearances(self, p: QPainter, ctx: Ctx) -> None:
-        for c in notable_clearances(self.check.clearances):
-            a, b = self.to_px(c.at_body), self.to_px(c.at_other)
-            col = FAIL if c.below_margin else style.CLEARANCE
+    def _clearance_lines(self, p: QPainter, ctx: Ctx) -> None:
+        f = self.frame
+        for c in self.clearances:
+            a, b = f.to_px(c.at_body), f.to_px(c.at_other)
+            col = style.CLEARANCE_LOW if c.below_margin else style.CLEARANCE
             p.setPen(QPen(col, ctx.mm(0.3), Qt.PenStyle.DotLine))
             p.drawLine(a, b)
             for q in (a, b):
@@ -517,118 +393,21 @@ class StageDiagram:
                 p.drawEllipse(q, ctx.mm(0.5), ctx.mm(0.5))
 
     def _clearance_labels(self, p: QPainter, ctx: Ctx) -> None:
-        for c in notable_clearances(self.check.clearances):
-            a, b = self.to_px(c.at_body), self.to_px(c.at_other)
-            col = FAIL if c.below_margin else style.CLEARANCE
-            text = self.units.show(c.distance_m, "length")
-            for t in (0.4, 0.25, 0.6, 0.15, 0.8):
-                at = QPointF(a.x() + t * (b.x() - a.x()), a.y() + t * (b.y() - a.y()))
-                if self._label(p, ctx, at, text, 6.0, col, True, avoid=True):
-                    break
-
-    def _north(self, p: QPainter, ctx: Ctx, rect: QRectF) -> None:
-        c = QPointF(rect.right() - ctx.mm(8), rect.top() + ctx.mm(10))
-        draw_north(p, c, ctx.mm(4.5), ctx.font(7.5, True), ctx.mm(0.25))
-
-    def _legend(self, p: QPainter, ctx: Ctx, rect: QRectF) -> None:
-        """The key under the map: conditions, scale, force scale, symbols, the result."""
-        x = rect.left() + ctx.mm(3)
-        top = rect.top() + ctx.mm(4.2)
-        # wind and current
-        c = self.check.stage.conditions
-        u = self.units
-        rows = [
-            (
-                "Wind",
-                c.wind_speed_ms,
-                (c.wind_from_deg + 180.0) % 360.0,
-                f"{u.show(c.wind_speed_ms, 'speed')} from {c.wind_from_deg:03.0f}°",
-                LOAD_FORCE,
-            ),
-            (
-                "Current",
-                c.current_speed_ms,
-                c.current_towards_deg,
-                f"{u.show(c.current_speed_ms, 'speed')} towards {c.current_towards_deg:03.0f}°",
-                CURRENT,
-            ),
-        ]
-        for i, (name, speed, towards, text, col) in enumerate(rows):
-            cy = top + ctx.mm(7.0 * i)
-            cx = x + ctx.mm(3.5)
-            if speed > 0:
-                ang = true_to_site_angle(towards)
-                d = (math.cos(ang), math.sin(ang))
-                L = ctx.mm(3.0)
-                a = QPointF(cx - d[0] * L, cy + d[1] * L)
-                b = QPointF(cx + d[0] * L, cy - d[1] * L)
-                p.setPen(QPen(col, ctx.mm(0.6)))
-                p.drawLine(a, QPointF(b.x() - d[0] * ctx.mm(1.2), b.y() + d[1] * ctx.mm(1.2)))
-                self._arrowhead(p, ctx, b, d, col, 1.9)
-            p.setPen(INK)
-            p.setFont(ctx.font(6.5, True))
-            p.drawText(QPointF(cx + ctx.mm(5), cy + ctx.mm(0.9)), name)
-            p.setFont(ctx.font(6.5))
-            w = ctx.metrics(6.5, True).horizontalAdvance(name)
-            p.drawText(QPointF(cx + ctx.mm(6) + w, cy + ctx.mm(0.9)), text if speed > 0 else "none")
-        # scale bar and force scale
-        x = rect.left() + ctx.mm(52)
-        unit_m = u.si(1.0, "length")
-        target_m = ctx.mm(28) / self.px_per_m
-        steps = [1, 2, 5, 10, 20, 25, 50, 100, 200, 250, 500, 1000, 2000, 5000]
-        n = max((s for s in steps if s * unit_m <= target_m), default=steps[0])
-        length = n * unit_m * self.px_per_m
-        y = top + ctx.mm(0.6)
-        p.setPen(QPen(INK, ctx.mm(0.25)))
-        for k in range(4):
-            seg = QRectF(x + k * length / 4, y - ctx.mm(1.1), length / 4, ctx.mm(1.1))
-            p.setBrush(INK if k % 2 == 0 else QColor("white"))
-            p.drawRect(seg)
-        p.setBrush(Qt.BrushStyle.NoBrush)
-        p.setFont(ctx.font(6.0))
-        p.drawText(QPointF(x + length + ctx.mm(1.5), y), f"{n} {u.unit('length')}")
-        p.drawText(
-            QPointF(x, y + ctx.mm(3.6)),
-            f"Scale 1 : {self.scale_n:,}".replace(",", " ") + " on this page size",
-        )
-        yy = top + ctx.mm(7.8)
-        fl = ctx.mm(10)
-        p.setPen(QPen(TUG_FORCE, ctx.mm(0.55)))
-        p.drawLine(QPointF(x, yy), QPointF(x + fl - ctx.mm(1.5), yy))
-        self._arrowhead(p, ctx, QPointF(x + fl, yy), (1.0, 0.0), TUG_FORCE, 1.9)
-        p.setPen(INK)
-        p.setFont(ctx.font(6.0))
-        step_txt = f"{self.force_step:g} {label(u.unit('force'))}"
-        p.drawText(
-            QPointF(x + fl + ctx.mm(1.5), yy + ctx.mm(0.9)), f"force arrows: 10 mm = {step_txt}"
-        )
-        # symbols, in two columns
-        r = ctx.mm(1.0)
-        p.setFont(ctx.font(6.0))
-        x = rect.left() + ctx.mm(104)
-        x2 = rect.left() + ctx.mm(142)
-        ys = [top - ctx.mm(0.3), top + ctx.mm(3.9), top + ctx.mm(8.1)]
-        draw_centroid(p, QPointF(x + r, ys[0]), 1.6 * r, INK, ctx.mm(0.25))
-        p.setPen(INK)
-        p.drawText(QPointF(x + ctx.mm(3.5), ys[0] + ctx.mm(0.8)), "centroid")
-        draw_cog(p, QPointF(x + r, ys[1]), 1.25 * r, INK, ctx.mm(0.25))
-        p.setPen(INK)
-        p.drawText(QPointF(x + ctx.mm(3.5), ys[1] + ctx.mm(0.8)), "centre of gravity")
-        draw_crossing(p, QPointF(x + r, ys[2]), 1.6 * r, NET_FORCE, ctx.mm(0.3))
-        p.setPen(INK)
-        p.drawText(QPointF(x + ctx.mm(3.5), ys[2] + ctx.mm(0.8)), "crosses the centreline")
-        p.setPen(QPen(NET_FORCE, ctx.mm(0.3), Qt.PenStyle.DashLine))
-        p.drawLine(QPointF(x2, ys[0]), QPointF(x2 + ctx.mm(6), ys[0]))
-        p.setPen(INK)
-        p.drawText(QPointF(x2 + ctx.mm(7.5), ys[0] + ctx.mm(0.8)), "line of action, net force")
-        p.setPen(QPen(NET_FORCE, ctx.mm(0.9)))
-        p.drawLine(QPointF(x2, ys[1]), QPointF(x2 + ctx.mm(6), ys[1]))
-        p.setPen(INK)
-        p.drawText(QPointF(x2 + ctx.mm(7.5), ys[1] + ctx.mm(0.8)), "net force, yaw moment")
-        p.setPen(QPen(FAIL, ctx.mm(0.3), Qt.PenStyle.DotLine))
-        p.drawLine(QPointF(x2, ys[2]), QPointF(x2 + ctx.mm(6), ys[2]))
-        p.setPen(INK)
-        p.drawText(QPointF(x2 + ctx.mm(7.5), ys[2] + ctx.mm(0.8)), "least clearance")
+        """Each clearance line's length and what it runs to, beside its middle."""
+        f = self.frame
+        for c in self.clearances:
+            a, b = f.to_px(c.at_body), f.to_px(c.at_other)
+            col = style.CLEARANCE_LOW if c.below_margin else style.CLEARANCE
+            dx, dy = b.x() - a.x(), b.y() - a.y()
+            n = math.hypot(dx, dy) or 1.0
+            nx, ny = -dy / n, dx / n  # across the line (device px)
+            spots = []
+            for t in (0.5, 0.35, 0.65, 0.2, 0.8):
+                at = QPointF(a.x() + t * dx, a.y() + t * dy)
+                for side in (0.0, 1.0, -1.0):
+                    off = side * ctx.mm(3.0)
+                    spots.append(QPointF(at.x() + nx * off, at.y() + ny * off))
+            f.first_free(p, spots, clearance_text(c, self.units), 6.0, col, True)
 
 
 def _unit(bearing_deg: float) -> Pt:
@@ -636,14 +415,8 @@ def _unit(bearing_deg: float) -> Pt:
     return (math.cos(a), math.sin(a))
 
 
-def _midpoint(pts: list[Pt]) -> Pt:
-    if len(pts) == 2:
-        return ((pts[0][0] + pts[1][0]) / 2, (pts[0][1] + pts[1][1]) / 2)
-    return pts[len(pts) // 2]
-
-
 def true_bearing_of(site_vector: Pt) -> float:
     return site_angle_to_true(math.atan2(site_vector[1], site_vector[0]))
 
 
-__all__ = ["StageDiagram", "force_step", "true_bearing_of"]
+__all__ = ["StageDiagram", "clearance_text", "force_step", "true_bearing_of"]

@@ -23,6 +23,7 @@ from PySide6.QtGui import (
 )
 
 from app.briefing.layout import INK, MUTED, RULE, Block, Ctx, Page, PageBreak, paginate
+from app.briefing.overview import overview_blocks
 from app.briefing.sections import StageExtras, conventions, cover, particulars, stage_blocks
 from core.analysis.checks import StageCheck, check_plan
 from core.errors import InputError, TowboardError
@@ -78,6 +79,9 @@ def content_of(project: Project) -> BriefingContent:
 def blocks_of(content: BriefingContent, content_height_mm: float) -> list[Block]:
     project = content.project
     blocks: list[Block] = cover(project, content.checks)
+    blocks.append(PageBreak())
+    clearances = [c.clearances for c in content.checks]
+    blocks += overview_blocks(project, clearances, min(165.0, content_height_mm * 0.62))
     blocks.append(PageBreak())
     blocks += particulars(project)
     blocks.append(PageBreak())

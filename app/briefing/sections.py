@@ -400,7 +400,7 @@ def stage_blocks(
     out += _warnings(check)
     if s.notes:
         out.append(Text(s.notes, 8.5))
-    diagram = StageDiagram(project, check)
+    diagram = StageDiagram(project, s, check.balances, check.clearances)
     out.append(Drawing(diagram_mm, diagram.paint))
     for b in check.balances:
         out += _tug_table(project, s, b)

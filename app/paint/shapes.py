@@ -138,3 +138,37 @@ def arc_arrow(
     bx, by = cx + radius * math.cos(base_a), cy + radius * math.sin(base_a)
     rx, ry = math.cos(base_a), math.sin(base_a)  # radial unit at the head's base
     return shaft, (tip, (bx + rx * w, by + ry * w), (bx - rx * w, by - ry * w))
+
+
+def drawing_scales(
+    hull_lengths: list[float], pulls_n: list[float], placed_pulls_n: list[float]
+) -> tuple[float, float, float]:
+    """(force arrows in m per N, the moment of a full yaw arc in N*m, arrowhead length in m).
+
+    Arrows scale with the plan, not the stage: the strongest tug's rated pull is drawn
+    0.55 times the longest hull, so a force looks the same size in every stage. A yaw
+    moment of half the longest hull times the placed tugs' rated pulls sweeps the arc
+    to its full length.
+    """
+    lref = max(hull_lengths, default=50.0)
+    fref = max(pulls_n, default=500e3)
+    total = sum(placed_pulls_n) or fref
+    return 0.55 * lref / fref, total * 0.5 * lref, max(2.0, min(0.035 * lref, 12.0))
+
+
+def moment_arc(
+    moment: float, moment_scale: float, length: float, beam: float
+) -> tuple[float, float, float] | None:
+    """(radius m, start, sweep degrees) of the yaw moment's arc round the centroid, in
+    the body frame (x forward, counter-clockwise positive); None for no moment.
+
+    The arc is centred astern of the centroid, clear of most arrows; it sweeps 30 to
+    300 degrees as the square root of the moment's share of ``moment_scale`` (small
+    moments still show, large ones never wrap round), and stays inside the sides.
+    """
+    frac = math.sqrt(min(1.0, abs(moment) / moment_scale)) if moment_scale > 0 else 0.0
+    if abs(moment) <= 1e-6 * max(moment_scale, 1.0):
+        return None
+    sweep = math.copysign(30.0 + 270.0 * frac, moment)
+    radius = min(0.18 * length, 0.4 * beam) * (0.7 + 0.5 * frac)
+    return radius, 180.0 - sweep / 2, sweep

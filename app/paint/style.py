@@ -72,6 +72,7 @@ DOLPHIN_FILL = QColor("#8d949b")
 VESSEL_FILL = QColor("#cfd4da")
 LIMIT = QColor("#2f6f9f")
 CLEARANCE = QColor("#37474f")
+TRACK = QColor("#37474f")
 
 # -- the hold limits plot ---------------------------------------------------------------
 ALL_TUGS = TUG_FORCE

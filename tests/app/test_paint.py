@@ -166,7 +166,8 @@ def test_the_board_and_the_printed_diagram_paint_tugs_and_pulls_alike(qtbot) -> 
     paper = QImage(900, 700, QImage.Format.Format_ARGB32)
     paper.fill(QColor("white"))
     p = QPainter(paper)
-    diagram = StageDiagram(project, check_plan(project)[1])
+    check = check_plan(project)[1]
+    diagram = StageDiagram(project, check.stage, check.balances, check.clearances)
     diagram.paint(p, Ctx(paper), QRectF(0, 0, 900, 700))
     p.end()
     for color in (style.TUG_FILL, style.TUG_FORCE, style.HULL_FILL):
