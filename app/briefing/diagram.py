@@ -329,8 +329,13 @@ class StageDiagram:
         p.setBrush(Qt.BrushStyle.NoBrush)
         self._arrow(p, ctx, t.arrow.tail, t.arrow.force, style.TUG_FORCE, 0.55, t.mode == "push")
         origin = tug_origin(t.mode, t.arrow.tail, t.position, t.direction, length)
-        at = f.to_px(tug_label_anchor(t.mode, origin, t.direction, length, f.metres(3.0)))
-        f.label(p, at, t.arrow.label, 6.5, INK, True)
+        at = f.to_px(tug_label_anchor(t.mode, origin, t.direction, length, f.metres(1.5)))
+        # the label's near edge, not its centre, just beyond the tug (away from the hull)
+        r = f.label_rect(at, t.arrow.label, 6.5, True)
+        out = 1.0 if t.mode == "line" else -1.0
+        ux, uy = out * t.direction[0], -out * t.direction[1]  # device px, y down
+        half = abs(ux) * r.width() / 2 + abs(uy) * r.height() / 2
+        f.label(p, QPointF(at.x() + ux * half, at.y() + uy * half), t.arrow.label, 6.5, INK, True)
 
     def _net(self, p: QPainter, ctx: Ctx, b: Balance, a: Arrow) -> None:
         f, u = self.frame, self.units

@@ -73,9 +73,9 @@ def _conditions(p: QPainter, ctx: Ctx, x: float, top: float, diagram: StageDiagr
 def _symbols(p: QPainter, ctx: Ctx, rect: QRectF, top: float) -> None:
     r = ctx.mm(1.0)
     p.setFont(ctx.font(6.0))
-    x, x2 = rect.left() + ctx.mm(104), rect.left() + ctx.mm(142)
+    x, x2 = rect.left() + ctx.mm(102), rect.left() + ctx.mm(141)
     ys = [top - ctx.mm(0.3), top + ctx.mm(3.9), top + ctx.mm(8.1)]
-    texts = ["centroid", "centre of gravity", "line of action crosses the centreline"]
+    texts = ["centroid", "centre of gravity", "crossing of the centreline"]
     draw_centroid(p, QPointF(x + r, ys[0]), 1.6 * r, INK, ctx.mm(0.25))
     draw_cog(p, QPointF(x + r, ys[1]), 1.25 * r, INK, ctx.mm(0.25))
     draw_crossing(p, QPointF(x + r, ys[2]), 1.6 * r, style.LINE_OF_ACTION, ctx.mm(0.3))
@@ -88,7 +88,7 @@ def _symbols(p: QPainter, ctx: Ctx, rect: QRectF, top: float) -> None:
             "line of action, net force",
         ),
         (QPen(style.NET_FORCE, ctx.mm(0.9)), "net force, yaw moment"),
-        (QPen(style.CLEARANCE, ctx.mm(0.3), Qt.PenStyle.DotLine), "clearance (least of each body)"),
+        (QPen(style.CLEARANCE, ctx.mm(0.3), Qt.PenStyle.DotLine), "clearance, to scale"),
     ]
     for y, (pen, text) in zip(ys, lines, strict=True):
         p.setPen(pen)
