@@ -137,7 +137,8 @@ def paint_picture(project: Project, spec: PictureSpec, p: QPainter, device: QPai
     area = QRectF(0, title_h, w, h - title_h - foot_h)
     if spec.kind == "board":
         return _paint_board(project, spec, p, area)
-    diagram = StageDiagram(project, check_stage(project, spec.stage_index))
+    check = check_stage(project, spec.stage_index)
+    diagram = StageDiagram(project, check.stage, check.balances, check.clearances)
     ctx = Ctx(device)  # type: ignore[arg-type]  # any paint device: only its dpi is read
     inner = area.adjusted(ctx.mm(2), 0, -ctx.mm(2), 0)
     diagram.paint(p, ctx, inner)
