@@ -22,9 +22,21 @@ from PySide6.QtGui import (
     QPen,
 )
 
-from app.briefing.layout import INK, MUTED, RULE, Block, Ctx, Page, PageBreak, paginate
+from app.briefing.layout import (
+    INK,
+    MUTED,
+    RULE,
+    Block,
+    Ctx,
+    Group,
+    Page,
+    PageBreak,
+    Spacer,
+    paginate,
+)
 from app.briefing.overview import overview_blocks
-from app.briefing.sections import StageExtras, conventions, cover, particulars, stage_blocks
+from app.briefing.particulars import particulars
+from app.briefing.sections import StageExtras, conventions, cover, stage_blocks
 from core.analysis.checks import StageCheck, check_plan
 from core.errors import InputError, TowboardError
 from core.io.projectfile import replacing
@@ -84,9 +96,9 @@ def blocks_of(content: BriefingContent, content_height_mm: float) -> list[Block]
     blocks += overview_blocks(project, clearances, min(165.0, content_height_mm * 0.62))
     blocks.append(PageBreak())
     blocks += particulars(project)
-    blocks.append(PageBreak())
-    blocks += conventions(project)
-    diagram_mm = min(120.0, content_height_mm * 0.40)
+    # the conventions follow the particulars, on a page of their own if they do not fit
+    blocks.append(Group([Spacer(4), *conventions(project)]))
+    diagram_mm = min(130.0, content_height_mm * 0.45)
     for check, extra in zip(content.checks, content.extras, strict=True):
         blocks += stage_blocks(project, check, extra, diagram_mm)
     return blocks

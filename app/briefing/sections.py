@@ -126,6 +126,22 @@ def cover(project: Project, checks: tuple[StageCheck, ...]) -> list[Block]:
             pad_mm=2.2,
         )
     )
+    if project.history:
+        out.append(heading("Revision history", 2))
+        out.append(
+            Table(
+                [
+                    Column("Rev.", 0.5),
+                    Column("Date", 1.0),
+                    Column("By", 1.6),
+                    Column("Change", 4.5),
+                ],
+                [
+                    [r.revision, r.date or "-", r.by or "-", r.description or "-"]
+                    for r in project.history
+                ],
+            )
+        )
     out.append(heading("Stages", 2))
     rows, colors = [], []
     for c in checks:
@@ -247,126 +263,6 @@ def conventions(project: Project) -> list[Block]:
     out: list[Block] = [heading("Units, frames and assumptions", 1)]
     out += [Text("•  " + t, 8.5, indent_mm=0.0) for t in items]
     out.append(Text(CAUTION, 8.5, True))
-    return out
-
-
-# -- particulars ----------------------------------------------------------------------------
-
-
-def particulars(project: Project) -> list[Block]:
-    u = project.units
-    out: list[Block] = []
-    out.append(heading("Tugs", 1))
-    out.append(
-        Table(
-            [
-                Column("Tug", 1.1),
-                Column("Type", 1.6),
-                Column("Rated BP", 0.9, "right"),
-                Column("Astern pull", 0.9, "right"),
-                Column("Towing point height", 1.0, "right"),
-                Column("Role", 2.6),
-            ],
-            [
-                [
-                    t.name,
-                    t.tug_type or "-",
-                    u.show(t.bollard_pull_n, "force"),
-                    u.show(t.astern_pull, "force"),
-                    "-"
-                    if t.towing_point_height_m is None
-                    else u.show(t.towing_point_height_m, "length"),
-                    t.role or "-",
-                ]
-                for t in project.tugs
-            ],
-        )
-    )
-    out.append(heading("Bodies, hulls and fittings", 1))
-    rows = []
-    for name in project.body_names():
-        b = body_of(project, name)
-        disp = [m.hull.displacement_kg for m in b.members]
-        known = [d for d in disp if d is not None]
-        total = "-" if len(known) < len(disp) else f"{sum(known) / 1000:,.0f} t".replace(",", " ")
-        rows.append(
-            [
-                name,
-                " + ".join(m.hull.name for m in b.members),
-                u.show(b.length, "length"),
-                u.show(b.beam, "length"),
-                f"{fmt(u.value(b.centroid[0], 'length'))}, {fmt(u.value(b.centroid[1], 'length'))}",
-                f"{fmt(u.value(b.centre_of_gravity[0], 'length'))}, "
-                f"{fmt(u.value(b.centre_of_gravity[1], 'length'))}",
-                total,
-            ]
-        )
-    out.append(
-        Table(
-            [
-                Column("Body", 1.4),
-                Column("Made of", 1.8),
-                Column("Length", 0.9, "right"),
-                Column("Beam", 0.9, "right"),
-                Column(f"Centroid x, y ({u.unit('length')})", 1.4, "right"),
-                Column(f"CoG x, y ({u.unit('length')})", 1.4, "right"),
-                Column("Displacement (mass)", 1.2, "right"),
-            ],
-            rows,
-        )
-    )
-    out.append(
-        Table(
-            [
-                Column("Hull", 1.4),
-                Column("Length", 0.9, "right"),
-                Column("Beam", 0.9, "right"),
-                Column("Draught", 0.9, "right"),
-                Column("Freeboard", 0.9, "right"),
-                Column("Displacement (mass)", 1.2, "right"),
-            ],
-            [
-                [
-                    h.name,
-                    u.show(h.geometry.length, "length"),
-                    u.show(h.geometry.beam, "length"),
-                    "-" if h.draught_m is None else u.show(h.draught_m, "length"),
-                    "-" if h.freeboard_m is None else u.show(h.freeboard_m, "length"),
-                    "-"
-                    if h.displacement_kg is None
-                    else f"{h.displacement_kg / 1000:,.0f} t".replace(",", " "),
-                ]
-                for h in project.hulls
-            ],
-        )
-    )
-    frows = []
-    for h in project.hulls:
-        for f in h.fittings:
-            frows.append(
-                [
-                    h.name,
-                    f.name,
-                    "line point" if f.kind == "line" else "push point",
-                    f.fitting_type,
-                    f"{fmt(u.value(f.x, 'length'))}, {fmt(u.value(f.y, 'length'))}",
-                    "not given" if f.swl_n is None else u.show(f.swl_n, "force"),
-                ]
-            )
-    out.append(heading("Fittings and their ratings", 2))
-    out.append(
-        Table(
-            [
-                Column("Hull", 1.1),
-                Column("Fitting", 1.8),
-                Column("Kind", 1.0),
-                Column("Type", 1.0),
-                Column(f"x, y ({u.unit('length')})", 1.1, "right"),
-                Column("SWL", 0.9, "right"),
-            ],
-            frows,
-        )
-    )
     return out
 
 
