@@ -16,9 +16,10 @@ from core.errors import InputError, OutlineError, Problem
 from core.frames import bearing_to_angle
 from core.io.fileformat import FORMAT_NAME, KN, KNOT, Json
 from core.model.conditions import Conditions
+from core.model.drift import DriftSettings
 from core.model.efficiency import EfficiencyTable
 from core.model.goals import GOAL_KINDS, Goal
-from core.model.hull import Fitting, Hull
+from core.model.hull import ADDED_MASS_METHODS, Fitting, Hull
 from core.model.plan import (
     BodyPose,
     GroupMember,
@@ -164,6 +165,7 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
             "groups",
             "tugs",
             "tug_efficiency",
+            "drift",
             "site",
             "stages",
         ),
@@ -209,6 +211,7 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
         if (t := _decode_tug(r, item, p.lstrip("."))) is not None
     ]
     efficiency = _decode_efficiency(r, top.get("tug_efficiency"), "tug_efficiency")
+    drift = _decode_drift(r, top.get("drift"), "drift")
     site = _decode_site(r, top.get("site", {}))
     ctx = _Context(
         {h.name: h for h in hulls}, {t.name for t in tugs}, hull_names | {g.name for g in groups}
@@ -240,6 +243,7 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
             stages=tuple(stages),
             clearance_margin_m=margin if margin is not None else 10.0,
             tug_efficiency=efficiency or EfficiencyTable(),
+            drift=drift or DriftSettings(),
         ),
     )
     return (project if not r.problems else None), r.problems
@@ -284,7 +288,15 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
         value,
         path,
         ("name", "outline_m"),
-        ("draught_m", "freeboard_m", "displacement_t", "centre_of_gravity_m", "fittings"),
+        (
+            "draught_m",
+            "freeboard_m",
+            "displacement_t",
+            "centre_of_gravity_m",
+            "yaw_radius_of_gyration_m",
+            "added_mass_method",
+            "fittings",
+        ),
     )
     if d is None:
         return None
@@ -293,6 +305,13 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
     draught = r.number(d, "draught_m", path, positive=True, unit="m")
     freeboard = r.number(d, "freeboard_m", path, positive=True, unit="m")
     disp = r.number(d, "displacement_t", path, positive=True, unit="t")
+    gyradius = r.number(d, "yaw_radius_of_gyration_m", path, positive=True, unit="m")
+    method = r.text(d, "added_mass_method", path, "sections")
+    if method not in ADDED_MASS_METHODS:
+        r.fail(
+            f"{path}.added_mass_method", f"{method!r} is not one of {', '.join(ADDED_MASS_METHODS)}"
+        )
+        method = "sections"
     cog = (
         None
         if d.get("centre_of_gravity_m") is None
@@ -350,6 +369,8 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
             None if disp is None else disp * 1000.0,
             cog,
             tuple(fittings),
+            gyradius,
+            method,
         ),
     )
     if hull is not None:
@@ -704,6 +725,25 @@ def _decode_efficiency(r: _Reader, value: Any, path: str) -> EfficiencyTable | N
             tuple(v * KN for v in pulls), tuple(seas), tuple(tuple(row) for row in rows)
         ),
     )
+
+
+def _decode_drift(r: _Reader, value: Any, path: str) -> DriftSettings | None:
+    """The drift preview's ghost times and look ahead."""
+    if value is None:
+        return None
+    d = r.obj(value, path, (), ("ghost_times_s", "horizon_s"))
+    if d is None:
+        return None
+    base = DriftSettings()
+    times = (
+        base.times_s
+        if d.get("ghost_times_s") is None
+        else _numbers(r, d["ghost_times_s"], f"{path}.ghost_times_s")
+    )
+    horizon = r.number(d, "horizon_s", path, default=base.horizon_s, positive=True, unit="s")
+    if times is None or horizon is None:
+        return None
+    return r.build(path, lambda: DriftSettings(tuple(times), horizon))
 
 
 def _numbers(r: _Reader, value: Any, path: str) -> list[float] | None:

@@ -82,6 +82,10 @@ def encode(project: Project) -> Json:
             "sea_state": [num(v) for v in project.tug_efficiency.sea_states],
             "efficiency": [[num(v) for v in row] for row in project.tug_efficiency.values],
         },
+        "drift": {
+            "ghost_times_s": [num(t) for t in project.drift.times_s],
+            "horizon_s": num(project.drift.horizon_s),
+        },
         "site": {
             "name": project.site.name,
             "features": [
@@ -106,6 +110,8 @@ def _encode_hull(h: Hull) -> Json:
         "freeboard_m": _opt(h.freeboard_m),
         "displacement_t": _opt(h.displacement_kg, 1000.0),
         "centre_of_gravity_m": None if h.cog is None else _pt(h.cog),
+        "yaw_radius_of_gyration_m": _opt(h.yaw_gyradius_m),
+        "added_mass_method": h.added_mass_method,
         "fittings": [
             {
                 "name": f.name,

@@ -20,6 +20,12 @@ from core.model.outlines import Outline, validate_outline
 FittingKind = Literal["line", "push"]
 FITTING_TYPES = ("bitt", "bollard", "fairlead", "chock", "pushing pad")
 
+#: How the drift preview estimates a hull's added mass (core.motion.added_mass):
+#: "sections" integrates DNV-RP-C205's 2-D rectangle values along the length (barges,
+#: pontoons, box-shaped modules); "ship" uses the Clarke, Gedling and Hine regressions
+#: for ship-shaped hulls. Both take the surge added mass from Soding's estimate.
+ADDED_MASS_METHODS = ("sections", "ship")
+
 
 @dataclass(frozen=True, slots=True)
 class Fitting:
@@ -231,6 +237,11 @@ class Hull:
         Centre of gravity (x, y), m, if it differs from the outline's centroid.
     fittings:
         Line points and push points; each is snapped onto the outline.
+    yaw_gyradius_m:
+        Radius of gyration in yaw about the centre of gravity, m, where known (the
+        drift preview's yaw inertia); None treats the plan as a uniform plate.
+    added_mass_method:
+        One of :data:`ADDED_MASS_METHODS`: how the drift preview estimates added mass.
     """
 
     name: str
@@ -240,6 +251,8 @@ class Hull:
     displacement_kg: float | None = None
     cog: tuple[float, float] | None = None
     fittings: tuple[Fitting, ...] = ()
+    yaw_gyradius_m: float | None = None
+    added_mass_method: str = "sections"
     geometry: HullGeometry = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
@@ -249,12 +262,19 @@ class Hull:
         object.__setattr__(self, "outline", outline)
         geometry = HullGeometry(outline)
         object.__setattr__(self, "geometry", geometry)
-        for attr in ("draught_m", "freeboard_m", "displacement_kg"):
+        for attr in ("draught_m", "freeboard_m", "displacement_kg", "yaw_gyradius_m"):
             value = getattr(self, attr)
             if value is not None and not (math.isfinite(value) and value > 0):
-                raise InputError(
-                    f"hull {self.name}: {attr.rsplit('_', 1)[0]}", value, "must be positive"
+                what = (
+                    "yaw radius of gyration" if attr == "yaw_gyradius_m" else attr.rsplit("_", 1)[0]
                 )
+                raise InputError(f"hull {self.name}: {what}", value, "must be positive")
+        if self.added_mass_method not in ADDED_MASS_METHODS:
+            raise InputError(
+                f"hull {self.name}: added mass method",
+                self.added_mass_method,
+                f"is not one of {', '.join(ADDED_MASS_METHODS)}",
+            )
         if self.cog is not None:
             cx, cy = (float(c) for c in self.cog)
             if not (math.isfinite(cx) and math.isfinite(cy)):

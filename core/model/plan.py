@@ -13,6 +13,7 @@ from typing import Literal
 
 from core.errors import InputError
 from core.model.conditions import Conditions
+from core.model.drift import DriftSettings
 from core.model.efficiency import EfficiencyTable
 from core.model.goals import Goal
 from core.model.hull import Hull
@@ -221,6 +222,7 @@ class Project:
     stages: tuple[Stage, ...] = ()
     clearance_margin_m: float = 10.0
     tug_efficiency: EfficiencyTable = field(default_factory=EfficiencyTable)
+    drift: DriftSettings = field(default_factory=DriftSettings)
 
     def __post_init__(self) -> None:
         if not self.name.strip():
