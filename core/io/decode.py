@@ -18,7 +18,7 @@ from core.io.fileformat import FORMAT_NAME, KN, KNOT, Json
 from core.model.conditions import Conditions
 from core.model.drift import DriftSettings
 from core.model.efficiency import EfficiencyTable
-from core.model.goals import GOAL_KINDS, Goal
+from core.model.goals import GOAL_KINDS, Goal, goal_from_parts
 from core.model.hull import ADDED_MASS_METHODS, Fitting, Hull
 from core.model.plan import (
     BodyPose,
@@ -773,7 +773,7 @@ def _decode_goal(r: _Reader, value: Any, path: str) -> Goal | None:
     mz = r.number(d, "moment_kNm", path, default=0.0)
     if fx is None or fy is None or mz is None:
         return None
-    return r.build(path, lambda: Goal(d["kind"], fx * KN, fy * KN, mz * KN))
+    return r.build(path, lambda: goal_from_parts(d["kind"], fx * KN, fy * KN, mz * KN))
 
 
 def _decode_limits(r: _Reader, value: Any, path: str) -> StageLimits | None:

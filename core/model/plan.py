@@ -32,7 +32,7 @@ TITLE_BLOCK_FIELDS = (
     "notes",
     "history",
 )
-STAGE_KINDS = ("unberth", "swing", "transit", "berth", "other")
+STAGE_KINDS = ("unberth", "hold", "swing", "transit", "berth", "other")
 SiteFeatureKind = Literal["quay", "dolphin", "vessel", "limit"]
 SITE_FEATURE_KINDS: tuple[SiteFeatureKind, ...] = ("quay", "dolphin", "vessel", "limit")
 

@@ -13,6 +13,7 @@ from dataclasses import replace
 
 from core.errors import InputError
 from core.model.conditions import Conditions
+from core.model.goals import default_goal
 from core.model.plan import Project, Stage, StageLimits
 
 _COPY = re.compile(r"^(?P<base>.*?) \(copy(?: (?P<n>\d+))?\)$")
@@ -62,7 +63,8 @@ def add_stage(
     """Insert a new stage after stage ``after`` (default: at the end).
 
     The new stage starts where the stage before it leaves off: the same body poses
-    and conditions, no tugs made fast yet. Returns the new project and the new index.
+    and conditions, no tugs made fast yet, and the goal its kind implies
+    (:func:`core.model.goals.default_goal`). Returns the new project and the new index.
     """
     if after is None:
         after = len(project.stages) - 1
@@ -78,6 +80,7 @@ def add_stage(
         poses=prev.poses if prev is not None else (),
         conditions=prev.conditions if prev is not None else Conditions(),
         limits=prev.limits if prev is not None else StageLimits(),
+        goal=default_goal(kind),
     )
     stages = list(project.stages)
     stages.insert(after + 1, stage)

@@ -14,7 +14,7 @@ from scipy.optimize import linprog
 from core.errors import InputError
 from core.mechanics.loads import analyse_stage
 from core.model.conditions import Conditions
-from core.model.goals import Goal
+from core.model.goals import Goal, goal_from_parts
 from core.model.plan import BodyPose, Project, Stage
 from core.model.tugs import Placement, Tug
 from core.solve.pulls import GOAL_TOL, pulls_problem, solve_pulls, tug_lost_check
@@ -130,7 +130,7 @@ def test_solved_pulls_match_an_independent_linprog(
     st.floats(0, 360),
     st.one_of(st.just(0.0), st.floats(0.05, 2.0)),
     st.floats(0, 360),
-    st.sampled_from(["hold", "walk", "swing", "force"]),
+    st.sampled_from(["hold", "walk", "swing", "transit", "force"]),
 )
 def test_laws_of_any_solve(
     leads_deg: list[float],
@@ -146,7 +146,7 @@ def test_laws_of_any_solve(
         current_speed_ms=current_kn * 0.514444,
         current_towards_deg=current_to,
     )
-    goal = Goal(kind, 5 * TF, -8 * TF, 300 * TF)  # type: ignore[arg-type]
+    goal = goal_from_parts(kind, 5 * TF, -8 * TF, 300 * TF)
     project, stage = _plan(leads_deg, [40.0] * len(leads_deg), cond, goal)
     problem = pulls_problem(project, stage)
     r = solve_pulls(problem)
