@@ -11,14 +11,20 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 import shapely
 
-from core.frames import angle_to_bearing
+from core.frames import angle_to_bearing, turning_words, walking_words
 from core.mechanics.bodies import Body, stage_body
-from core.mechanics.forces import Equivalent, equivalent_of, moments_about, transfer_moment
+from core.mechanics.forces import (
+    NEGLIGIBLE,
+    Equivalent,
+    equivalent_of,
+    moments_about,
+    transfer_moment,
+)
 from core.mechanics.usable import STEEP_LINE_DEG, line_angle_rad
 from core.model.plan import Project, Stage
 from core.model.tugs import Placement
@@ -116,6 +122,31 @@ def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
     return TugLayout(placed, points, dirs, pos, push, rated, usable, swl, angle)
 
 
+def with_placement_row(
+    layout: TugLayout, project: Project, stage: Stage, body: Body, placement: Placement
+) -> TugLayout:
+    """``layout`` with one tug's row made again for ``placement`` (the drag path).
+
+    The tug must already be in the layout; every other row is kept as it is, so a drag of
+    one tug costs one row, and gives the arrays :func:`tug_layout` would give for the
+    whole stage (tested).
+    """
+    i = next(k for k, p in enumerate(layout.placements) if p.tug == placement.tug)
+    one = tug_layout(project, replace(stage, placements=(placement,)), body)
+    rows = {}
+    for name in ("points", "directions", "positions", "is_push", "rated_n", "usable_n", "swl_n"):
+        arr = getattr(layout, name).copy()
+        arr[i] = getattr(one, name)[0]
+        rows[name] = arr
+    angle = layout.line_angle_rad
+    if angle is not None and one.line_angle_rad is not None:
+        angle = angle.copy()  # the line's length changes its angle (steep line warning)
+        angle[i] = one.line_angle_rad[0]
+    placements = list(layout.placements)
+    placements[i] = placement
+    return replace(layout, placements=tuple(placements), line_angle_rad=angle, **rows)
+
+
 @dataclass(frozen=True, slots=True)
 class TugShare:
     """One tug's part in the balance."""
@@ -164,6 +195,39 @@ class Balance:
         return abs(self.centreline_x - self.centroid[0]) > FAR_CROSSING_LENGTHS * max(
             self.length_m, 1.0
         )
+
+    @property
+    def tolerance(self) -> tuple[float, float]:
+        """(force N, moment N*m) below which a net force or moment is said as none in words:
+        :data:`core.mechanics.forces.NEGLIGIBLE` of the forces present (tugs and loads),
+        and that times the body's length for moments."""
+        scale = sum(abs(sh.pull_n) for sh in self.shares) + sum(
+            math.hypot(*ld.force) for ld in self.loads
+        )
+        tol_f = NEGLIGIBLE * (scale or 1.0)
+        return tol_f, tol_f * max(self.length_m, 1.0)
+
+    @property
+    def walking(self) -> str:
+        """Which way the net force moves the body, in words ("walks to port and moves ahead")."""
+        return walking_words(*self.equivalent.force, self.tolerance[0])
+
+    @property
+    def turning(self) -> str:
+        """Which way the yaw moment turns the body, in words ("swings bow to port")."""
+        return turning_words(self.equivalent.moment, self.tolerance[1])
+
+    @property
+    def turning_about_cog(self) -> str:
+        return turning_words(self.moment_cog_nm, self.tolerance[1])
+
+    def crossing_words(self, units: DisplayUnits) -> str:
+        """Where the line of action crosses the centreline, in words for people."""
+        if self.centreline_x is None:
+            return "parallel to the centreline"
+        if self.crossing_is_far:
+            return "nearly parallel to the centreline (it crosses it far off the hull)"
+        return f"crosses the centreline at x = {units.show(self.centreline_x, 'length')}"
 
     @property
     def net_force(self) -> tuple[float, float]:
@@ -215,16 +279,6 @@ def _notices(layout: TugLayout, pulls: np.ndarray, body: Body, units: DisplayUni
                     "setting_over",
                     p.tug,
                     f"{p.tug}: setting {p.setting * 100:.0f} % is above 100 %",
-                )
-            )
-        if not math.isnan(layout.swl_n[i]) and pulls[i] > layout.swl_n[i] * (1 + 1e-9):
-            rating = body.fitting(p.hull, p.point)[1].rating_label
-            out.append(
-                Notice(
-                    "over_swl",
-                    p.tug,
-                    f"{p.tug}: pull {units.show(pulls[i], 'force')} is over the {rating} "
-                    f"{units.show(layout.swl_n[i], 'force')} of fitting {p.point}",
                 )
             )
         if layout.is_push[i]:

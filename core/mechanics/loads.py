@@ -198,6 +198,22 @@ def _centre(proj: Projection | None, body: Body) -> tuple[float, float]:
     return (proj.beam_x, proj.head_y)
 
 
+def missing_inputs(body: Body, c: Conditions, which: str) -> tuple[str, ...]:
+    """What the planner must enter before the ``which`` ("wind" or "current") load on
+    ``body`` can be worked out, in words ("the freeboard of Barge 1"); empty when nothing
+    is missing."""
+    if which == "wind":
+        if c.wind_area_head_m2 is not None and c.wind_area_beam_m2 is not None:
+            return ()
+        return tuple(
+            f"the freeboard of {m.hull.name}" for m in body.members if m.hull.freeboard_m is None
+        )
+    areas_given = c.current_area_head_m2 is not None and c.current_area_beam_m2 is not None
+    if areas_given and c.current_coeff_beam is not None:
+        return ()
+    return tuple(f"the draught of {m.hull.name}" for m in body.members if m.hull.draught_m is None)
+
+
 @dataclass(frozen=True, slots=True)
 class ConditionLoads:
     """The conditions of a stage seen from one body, and the loads they put on it.
@@ -243,10 +259,18 @@ def condition_loads(
     for which in ("wind", "current"):
         try:
             load = _flow_load(body, c, heading_deg, which)
-        except InputError as e:
+        except InputError:
             if strict:
                 raise
-            notices.append(Notice(f"no_{which}_load", body.name, f"No {which} load: {e}"))
+            need = " and ".join(missing_inputs(body, c, which)) or f"the {which} areas"
+            notices.append(
+                Notice(
+                    f"no_{which}_load",
+                    body.name,
+                    f"the {which} load on {body.name} cannot be worked out: "
+                    f"enter {need} to include the {which}",
+                )
+            )
             continue
         if load is not None:
             loads.append(load)

@@ -73,11 +73,11 @@ def test_goal_met_then_missed_when_a_substitute_keeps_the_setting():
     sub = substitute_tug(p, "Puffin", Tug("Tern", 30 * TF, 30 * TF), keep="settings")
     assert [c.name for c in sub.now_failing] == ["Hold in the fairway"]
     (f,) = sub.after[3].failures
-    assert f.code == "goal_not_met"
+    assert f.code == "pulls_miss_goal"
     # 20 t ahead less 0.5 x 30 t = 15 t astern leaves 5 t ahead
-    assert "net force 5.0 t ahead of the goal" in f.message
-    # with no wind or current, any pulls that cancel hold it: re-solving would meet the goal
-    assert f.message.endswith("; solving the pulls again would meet it")
+    assert "net force 5.0 t ahead of it" in f.message
+    # with no wind or current, tugs that do not pull hold it: re-solving meets the goal
+    assert f.message.endswith("; Solve pulls would meet it (largest use 0 %)")
 
 
 def test_a_goal_the_substitute_cannot_meet_even_re_solved():
@@ -86,21 +86,20 @@ def test_a_goal_the_substitute_cannot_meet_even_re_solved():
         "Tow ahead",
         "transit",
         placements=(line("Gannet", "Barge", "bow", 0.6, 0.0),),  # 0.6 x 50 t = 30 t ahead
-        goal=Goal("walk", fx_n=30 * TF),
+        goal=Goal("transit", fx_n=30 * TF),
     )
     p = replace(p, stages=(walk,))
     assert not check_stage(p, 0).fails
     sub = substitute_tug(p, "Gannet", Tug("Skua", 20 * TF), keep="settings")
     (f,) = sub.after[0].failures
-    assert f.code == "goal_not_met"
-    # 0.6 x 20 t = 12 t of the 30 t wanted; at 100 % the substitute gives 20 t, 10 t short
-    assert "net force 18.0 t astern of the goal" in f.message
-    assert (
-        "cannot meet it even with the pulls solved again (short by 10.0 t and 0.0 t·m)" in f.message
+    assert f.code == "goal_cannot_be_met"
+    # at 100 % the substitute gives 20 t of the 30 t wanted: 10 t short
+    assert f.message == (
+        "Barge: the goal (transit) cannot be met with every tug: needs 10.0 t more ahead"
     )
 
 
-def test_stage_warnings_do_not_fail_it():
+def test_conditions_over_the_stage_limit_and_low_clearance_are_no_go():
     p = two_tug_plan()
     s = replace(
         p.stages[2],
@@ -109,11 +108,12 @@ def test_stage_warnings_do_not_fail_it():
     )
     p = replace(p.with_stage(s, 2), site=Site("", (quay("Q", (-15, 40), (-15, 200)),)))
     c = check_stage(p, 2)
-    assert not c.fails
-    codes = sorted(n.code for n in c.warnings)
+    assert c.fails
+    codes = sorted(n.code for n in c.failures)
     assert codes == ["conditions_over_limit", "low_clearance"]
     assert any(
-        "planned wind 25.0 kn is above the stage's limit 20.0 kn" in n.message for n in c.warnings
+        "planned wind 25.0 kn is above the stage's go / no-go limit 20.0 kn" in n.message
+        for n in c.failures
     )
 
 
@@ -123,7 +123,8 @@ def test_over_swl_fails_the_stage():
     bow = replace(hull.fitting("port bow"), swl_n=30 * TF)
     p = p.with_hull(hull.with_fitting(bow))
     c = check_stage(p, 0)  # Gannet pulls 40 t on the 30 t port bow bitt
-    assert [n.code for n in c.failures] == ["over_swl"]
+    assert [n.code for n in c.failures] == ["fitting_over_rating"]
+    assert c.failures[0].message.startswith("Gannet: line tension 40.0 t is over the SWL 30.0 t")
 
 
 def test_bad_keep_is_refused():

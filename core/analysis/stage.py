@@ -1,0 +1,249 @@
+"""The one result of a stage: everything Towboard works out about it, once, and its verdict.
+
+:func:`stage_result` turns a project and a stage index into a :class:`StageResult`: for
+every body in the stage its tugs as arrays, the wind and current loads (or why one
+could not be worked out), the balance with and without those loads, each tug's load on
+its fitting, and, for the bodies the tugs work on, the pulls solved for the stage's
+goal with the tug lost check and the hold limits; then the stage's clearances and its
+verdict (go, caution or no-go, with every reason). The board, the panels, the stage
+list, the report, the briefing and the command line all read this result and never
+work out a stage figure of their own.
+
+Results are cached by the project value (projects are immutable, so the same object
+always gives the same result).
+"""
+
+from __future__ import annotations
+
+import math
+from collections import OrderedDict
+from dataclasses import dataclass
+
+from core.analysis.verdict import Verdict, judge
+from core.errors import TowboardError
+from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout, tug_layout
+from core.mechanics.bodies import Body, body_name_of_hull, body_of
+from core.mechanics.clearance import Clearance, stage_clearances
+from core.mechanics.fittings import FittingLoad, fitting_loads
+from core.mechanics.loads import ConditionLoads, body_conditions
+from core.mechanics.site import posed_bodies
+from core.model.goals import Goal
+from core.model.plan import Project, Stage
+from core.solve.holdlimits import HoldLimits, hold_limits, hold_limits_problem
+from core.solve.pulls import PullsResult, TugLostCheck, pulls_problem, tug_lost_check
+
+#: A goal is met by the pulls as set when the residual force is within this fraction of
+#: the forces present (at least :data:`GOAL_FLOOR_N`) and the residual moment within that
+#: times the body's length (common practice, no source: a 1 % planning tolerance).
+GOAL_TOLERANCE = 0.01
+GOAL_FLOOR_N = 1000.0
+
+
+@dataclass(frozen=True, slots=True, eq=False)
+class BodyResult:
+    """One rigid body in one stage.
+
+    ``worked`` bodies have tugs on them (or are the stage's only body); for them the
+    goal is solved, the tug lost check made and the hold limits swept. ``notes`` say
+    why a part could not be worked out.
+    """
+
+    body: Body
+    worked: bool
+    layout: TugLayout
+    conditions: ConditionLoads
+    balance: Balance  # the tugs as set, with the wind and current
+    balance_tugs: Balance  # the tugs as set, alone
+    fittings: tuple[FittingLoad, ...]
+    goal: Goal | None
+    goal_residual: tuple[float, float, float] | None  # as set, less the goal's target
+    goal_tolerance: tuple[float, float]  # (force N, moment N*m) within which it is met
+    tug_lost: TugLostCheck | None  # the goal solved with every tug, and with each lost
+    lost_as_set: tuple[tuple[str, Balance], ...]  # each tug lost, the others as set
+    hold_limits: HoldLimits | None
+    notes: tuple[str, ...] = ()
+
+    @property
+    def name(self) -> str:
+        return self.body.name
+
+    @property
+    def loads(self) -> tuple[Load, ...]:
+        """The wind and current loads on the body (those that could be worked out)."""
+        return self.conditions.loads
+
+    @property
+    def solved(self) -> PullsResult | None:
+        """The pulls solved for the goal with every tug (None without a goal)."""
+        return None if self.tug_lost is None else self.tug_lost.full
+
+    @property
+    def goal_met_as_set(self) -> bool | None:
+        """Whether the pulls as set meet the goal (None without a goal)."""
+        if self.goal_residual is None:
+            return None
+        rx, ry, rm = self.goal_residual
+        tol_f, tol_m = self.goal_tolerance
+        return math.hypot(rx, ry) <= tol_f and abs(rm) <= tol_m
+
+
+@dataclass(frozen=True, slots=True, eq=False)
+class StageResult:
+    """Everything about one stage of one project, and its verdict."""
+
+    project: Project
+    index: int
+    stage: Stage
+    bodies: tuple[BodyResult, ...]  # the worked bodies (main first), then every other body
+    clearances: tuple[Clearance, ...]
+    verdict: Verdict
+
+    @property
+    def worked(self) -> tuple[BodyResult, ...]:
+        """The bodies the tugs work on (the stage's main body first)."""
+        return tuple(b for b in self.bodies if b.worked)
+
+    @property
+    def main(self) -> BodyResult | None:
+        """The body the stage's first tug works on, else the stage's first body."""
+        w = self.worked
+        return w[0] if w else None
+
+    def body(self, name: str) -> BodyResult:
+        for b in self.bodies:
+            if b.name == name:
+                return b
+        raise KeyError(name)
+
+
+def worked_bodies(project: Project, stage: Stage) -> tuple[str, ...]:
+    """Bodies with a tug placed on them in ``stage``, in placement order; else the posed
+    bodies; else the plan's first body."""
+    names: list[str] = []
+    for p in stage.placements:
+        n = body_name_of_hull(project, p.hull)
+        if n not in names:
+            names.append(n)
+    if not names:
+        names = list(posed_bodies(project, stage)[:1]) or list(project.body_names()[:1])
+    return tuple(names)
+
+
+def _goal_tolerance(balance: Balance, length_m: float) -> tuple[float, float]:
+    scale = sum(sh.pull_n for sh in balance.shares) + sum(
+        math.hypot(*ld.force) for ld in balance.loads
+    )
+    tol_f = max(GOAL_TOLERANCE * scale, GOAL_FLOOR_N)
+    return tol_f, tol_f * max(length_m, 1.0)
+
+
+def _residual(balance: Balance, goal: Goal) -> tuple[float, float, float]:
+    tx, ty, tm = goal.target()
+    fx, fy = balance.net_force
+    return (fx - tx, fy - ty, balance.moment_centroid_nm - tm)
+
+
+def body_balance(
+    project: Project, stage: Stage, body: Body
+) -> tuple[TugLayout, ConditionLoads, Balance]:
+    """A body's tugs as arrays, the wind and current on it, and its balance with them.
+
+    The light part of :func:`body_result`, for a drag in progress: the same function
+    gives the same numbers.
+    """
+    layout = tug_layout(project, stage, body)
+    cond = body_conditions(stage, body)
+    return layout, cond, analyse_layout(stage, body, layout, project.units, cond.loads)
+
+
+def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> BodyResult:
+    """One body's part of the stage result (the heavy parts only for a worked body)."""
+    layout, cond, balance = body_balance(project, stage, body)
+    units = project.units
+    tugs_only = analyse_layout(stage, body, layout, units, ())
+    fits = fitting_loads(project, body, layout)
+    goal = stage.goal if worked else None
+    notes: list[str] = []
+    check: TugLostCheck | None = None
+    limits: HoldLimits | None = None
+    lost: tuple[tuple[str, Balance], ...] = ()
+    if worked and goal is not None:
+        try:
+            problem = pulls_problem(
+                project, stage, body.name, goal, loads=cond.loads, layout=layout
+            )
+            check = tug_lost_check(problem)
+        except TowboardError as e:
+            notes.append(f"pulls not solved: {e}")
+    if worked and layout.placements:
+        try:
+            limits = hold_limits(hold_limits_problem(project, stage, body.name, layout=layout))
+        except TowboardError as e:
+            notes.append(f"hold limits not worked out: {e}")
+        lost = tuple(
+            (
+                p.tug,
+                analyse_layout(
+                    stage,
+                    body,
+                    tug_layout(project, stage.without_placement(p.tug), body),
+                    units,
+                    cond.loads,
+                ),
+            )
+            for p in layout.placements
+        )
+    return BodyResult(
+        body=body,
+        worked=worked,
+        layout=layout,
+        conditions=cond,
+        balance=balance,
+        balance_tugs=tugs_only,
+        fittings=fits,
+        goal=goal,
+        goal_residual=None if goal is None else _residual(balance, goal),
+        goal_tolerance=_goal_tolerance(balance, body.length),
+        tug_lost=check,
+        lost_as_set=lost,
+        hold_limits=limits,
+        notes=tuple(notes),
+    )
+
+
+def compute_stage_result(project: Project, index: int) -> StageResult:
+    """Work stage ``index`` of ``project`` out from scratch (see :func:`stage_result`)."""
+    stage = project.stages[index]
+    worked = worked_bodies(project, stage) if project.hulls else ()
+    order = [*worked, *(n for n in project.body_names() if n not in worked)]
+    bodies = tuple(
+        body_result(project, stage, body_of(project, name), name in worked) for name in order
+    )
+    clearances = stage_clearances(project, stage) if project.hulls else ()
+    verdict = judge(project, stage, bodies, clearances)
+    return StageResult(project, index, stage, bodies, clearances, verdict)
+
+
+_CACHE: OrderedDict[tuple[int, int], tuple[Project, StageResult]] = OrderedDict()
+_CACHE_SIZE = 256
+
+
+def stage_result(project: Project, index: int) -> StageResult:
+    """The result of stage ``index`` of ``project``, worked out once per project value."""
+    if not 0 <= index < len(project.stages):
+        raise IndexError(f"stage {index + 1} of {len(project.stages)}")
+    key = (id(project), index)
+    hit = _CACHE.get(key)
+    if hit is not None and hit[0] is project:
+        _CACHE.move_to_end(key)
+        return hit[1]
+    result = compute_stage_result(project, index)
+    _CACHE[key] = (project, result)
+    while len(_CACHE) > _CACHE_SIZE:
+        _CACHE.popitem(last=False)
+    return result
+
+
+def plan_results(project: Project) -> tuple[StageResult, ...]:
+    """Every stage's result, in the order of the move."""
+    return tuple(stage_result(project, i) for i in range(len(project.stages)))

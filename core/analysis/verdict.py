@@ -1,0 +1,337 @@
+"""A stage's verdict: go, caution or no-go, with every reason in words and as data.
+
+A stage is **no-go** when its goal cannot be met with every tug, or the pulls as set
+miss it; a setting is above 100 % or a push points out of the hull; a fitting's load
+(the line's tension) is above its rating; a clearance is under the margin; the planned
+wind or current is above what the fleet can hold (a hold stage) or above the stage's
+own go / no-go limit; or a load the conditions ask for cannot be worked out (the reason
+says which input is missing). It is a **caution** when it passes with every tug but not
+with the worst tug lost, when no goal is set ("the pulls as set"), and for every other
+warning (a steep line, a fitting not rated for the tug's bollard pull, two tugs at one
+point...). Otherwise it is **go**. Nothing says "go" that is not.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+from dataclasses import dataclass
+from typing import TYPE_CHECKING, Literal
+
+from core.frames import turning_words
+from core.mechanics.clearance import Clearance, clearance_notices
+from core.model.goals import GOAL_WORDS
+from core.model.plan import Project, Stage
+from core.notices import Notice
+from core.solve.holdlimits import limit_at
+from core.solve.pulls import shortfall_words
+from core.units import DisplayUnits
+
+if TYPE_CHECKING:  # the stage result builds the verdict from its own parts
+    from core.analysis.stage import BodyResult
+
+Status = Literal["go", "caution", "no-go"]
+STATUSES: tuple[Status, ...] = ("go", "caution", "no-go")
+
+#: Reason codes that make a stage no-go; every other reason is a caution.
+NO_GO_CODES = frozenset(
+    {
+        "no_hull",
+        "load_missing",
+        "goal_cannot_be_met",
+        "goal_not_solved",
+        "pulls_miss_goal",
+        "setting_over",
+        "push_outward",
+        "fitting_over_rating",
+        "low_clearance",
+        "conditions_over_limit",
+        "wind_over_hold_limit",
+        "current_not_held",
+        "pull_short",
+    }
+)
+
+
+@dataclass(frozen=True, slots=True)
+class Reason:
+    """One reason for a verdict: a stable ``code``, the sentence people read (display
+    units), whether it makes the stage ``no-go`` or a ``caution``, and what it is about."""
+
+    code: str
+    text: str
+    status: Status
+    subject: str = ""
+
+    def __str__(self) -> str:
+        return self.text
+
+
+@dataclass(frozen=True, slots=True)
+class Verdict:
+    """go, caution or no-go, and every reason (no-go reasons first)."""
+
+    status: Status
+    reasons: tuple[Reason, ...] = ()
+
+    @property
+    def is_go(self) -> bool:
+        return self.status == "go"
+
+    @property
+    def label(self) -> str:
+        """The status as printed: GO, CAUTION or NO-GO."""
+        return self.status.upper()
+
+    def headline(self) -> str:
+        """One line: the status and the first reason (and how many more)."""
+        if not self.reasons:
+            return f"{self.label}: within every limit checked"
+        more = len(self.reasons) - 1
+        tail = f" (and {more} more)" if more else ""
+        return f"{self.label}: {self.reasons[0].text}{tail}"
+
+
+def reason(code: str, text: str, subject: str = "") -> Reason:
+    """A reason, no-go or caution by its code."""
+    return Reason(code, text, "no-go" if code in NO_GO_CODES else "caution", subject)
+
+
+def verdict_of(reasons: Sequence[Reason]) -> Verdict:
+    ordered = sorted(reasons, key=lambda r: r.status != "no-go")
+    if any(r.status == "no-go" for r in ordered):
+        status: Status = "no-go"
+    elif ordered:
+        status = "caution"
+    else:
+        status = "go"
+    return Verdict(status, tuple(ordered))
+
+
+_NOTICE_CODES = {"no_wind_load": "load_missing", "no_current_load": "load_missing"}
+
+
+def _from_notice(n: Notice) -> Reason:
+    return reason(_NOTICE_CODES.get(n.code, n.code), n.message, n.subject)
+
+
+def judge(
+    project: Project,
+    stage: Stage,
+    bodies: Sequence[BodyResult],
+    clearances: Sequence[Clearance],
+) -> Verdict:
+    """The verdict of ``stage`` from its bodies' results and its clearances."""
+    u = project.units
+    out: list[Reason] = []
+    if not project.hulls:
+        out.append(reason("no_hull", "no hull to work on: draw one on the board or import it"))
+    for b in bodies:
+        if not b.worked:
+            continue
+        out.extend(_from_notice(n) for n in b.balance.notices)
+        out.extend(_load_reasons(stage, b))
+        out.extend(_fitting_reasons(b, u))
+        out.extend(_goal_reasons(stage, b, u))
+        out.extend(
+            reason("goal_not_solved", f"{b.name}: {n}", b.name)
+            for n in b.notes
+            if n.startswith("pulls not solved")
+        )
+    out.extend(_from_notice(n) for n in clearance_notices(tuple(clearances), u))
+    out.extend(_limit_reasons(stage, u))
+    return verdict_of(_unique(out))
+
+
+def _unique(reasons: list[Reason]) -> list[Reason]:
+    seen: set[tuple[str, str]] = set()
+    out = []
+    for r in reasons:
+        if (r.code, r.text) not in seen:
+            seen.add((r.code, r.text))
+            out.append(r)
+    return out
+
+
+def _load_reasons(stage: Stage, b: BodyResult) -> list[Reason]:
+    """A load the conditions ask for that cannot be worked out (which input is missing)."""
+    c = stage.conditions
+    wanted = {"no_wind_load": c.wind_speed_ms > 0, "no_current_load": c.current_speed_ms > 0}
+    return [_from_notice(n) for n in b.conditions.notices if wanted.get(n.code, True)]
+
+
+def _fitting_reasons(b: BodyResult, u: DisplayUnits) -> list[Reason]:
+    out = []
+    for f in b.fittings:
+        if f.over_rating and f.rating_n is not None:
+            what = "line tension" if f.mode == "line" else "push"
+            angle = (
+                f" (pull {u.show(f.pull_n, 'force')} on a line "
+                f"{math.degrees(f.line_angle_rad):.0f}° off the horizontal)"
+                if f.mode == "line" and f.line_angle_rad > 1e-9
+                else ""
+            )
+            out.append(
+                reason(
+                    "fitting_over_rating",
+                    f"{f.tug}: {what} {u.show(f.load_n, 'force')}{angle} is over the "
+                    f"{f.rating_label} {u.show(f.rating_n, 'force')} of {f.point}",
+                    f.tug,
+                )
+            )
+        if f.suits_tug is False and f.rating_n is not None:
+            out.append(
+                reason(
+                    "fitting_under_rated",
+                    f"{f.tug}: bollard pull {u.show(f.bollard_pull_n, 'force')} is above the "
+                    f"{f.rating_label} {u.show(f.rating_n, 'force')} of {f.point}; the fitting is "
+                    "not rated for this tug (IMO MSC.1/Circ.1175)",
+                    f.tug,
+                )
+            )
+    return out
+
+
+def _sides(fx: float, fy: float, tol: float) -> str:
+    parts = []
+    if abs(fx) > tol:
+        parts.append("ahead" if fx > 0 else "astern")
+    if abs(fy) > tol:
+        parts.append("to port" if fy > 0 else "to starboard")
+    return " and ".join(parts)
+
+
+def _goal_reasons(stage: Stage, b: BodyResult, u: DisplayUnits) -> list[Reason]:
+    goal = b.goal
+    if goal is None:
+        no_goal = reason(
+            "no_goal",
+            f"no goal set: the pulls as set on {b.name} (choose hold, walk, swing, "
+            "transit or a given force to have them checked)",
+            stage.name,
+        )
+        return [no_goal, *_current_alone(b, "caution")]
+    out: list[Reason] = []
+    solved = b.solved
+    words = GOAL_WORDS[goal.kind].split(":")[0]
+    if solved is not None and not solved.feasible:
+        text = (
+            f"{b.name}: the goal ({words}) cannot be met with every tug: "
+            f"{shortfall_words(solved.shortfall, u)}"
+        )
+        if goal.kind == "hold":
+            text += _hold_words(stage, b, u)
+        out.append(reason("goal_cannot_be_met", text, b.name))
+    elif b.goal_met_as_set is False:
+        out.append(reason("pulls_miss_goal", _miss_words(b, u, words, solved), b.name))
+    if solved is not None and solved.feasible and b.tug_lost is not None:
+        out.extend(_tug_lost(b, u, words))
+    if goal.kind == "hold" and not any(r.code == "goal_cannot_be_met" for r in out):
+        out.extend(_hold_limit_reasons(stage, b, u))
+    return out
+
+
+def _miss_words(b: BodyResult, u: DisplayUnits, words: str, solved: object) -> str:
+    rx, ry, rm = b.goal_residual or (0.0, 0.0, 0.0)
+    tol_f, tol_m = b.goal_tolerance
+    parts = []
+    if math.hypot(rx, ry) > tol_f:
+        parts.append(
+            f"net force {u.show(math.hypot(rx, ry), 'force')} {_sides(rx, ry, tol_f)} of it"
+        )
+    if abs(rm) > tol_m:
+        parts.append(f"yaw moment off by {u.show(abs(rm), 'moment')} ({turning_words(rm, tol_m)})")
+    fix = ""
+    if b.solved is not None and b.solved.feasible:
+        fix = f"; Solve pulls would meet it (largest use {b.solved.max_utilisation * 100:.0f} %)"
+    return f"{b.name}: the pulls as set miss the goal ({words}): " + "; ".join(parts) + fix
+
+
+def _tug_lost(b: BodyResult, u: DisplayUnits, words: str) -> list[Reason]:
+    check = b.tug_lost
+    if check is None or len(check.cases) < 2 or check.passes or check.worst is None:
+        return []
+    failing = [c.tug for c in check.cases if not c.holds]
+    worst = check.worst
+    return [
+        reason(
+            "tug_lost_fails",
+            f"{b.name}: no margin with a tug lost: the goal ({words}) is not met with "
+            f"{' or '.join(failing)} lost; worst {worst.tug} "
+            f"({shortfall_words(worst.result.shortfall, u)})",
+            b.name,
+        )
+    ]
+
+
+def _hold_words(stage: Stage, b: BodyResult, u: DisplayUnits) -> str:
+    lim = b.hold_limits
+    if lim is None:
+        return ""
+    if not lim.holds_current:
+        return "; the tugs cannot hold it against the current alone"
+    c = stage.conditions
+    v = limit_at(lim, c.wind_from_deg)
+    if not math.isfinite(v):
+        return ""
+    return (
+        f"; they hold at most {u.show(v, 'speed')} of wind from {c.wind_from_deg:03.0f}° true "
+        f"(planned {u.show(c.wind_speed_ms, 'speed')})"
+    )
+
+
+def _current_alone(b: BodyResult, status_hint: str) -> list[Reason]:
+    lim = b.hold_limits
+    if lim is None or lim.holds_current or b.conditions.loads == ():
+        return []
+    return [
+        Reason(
+            "current_not_held",
+            f"{b.name}: the tugs as placed cannot hold the body against the current alone",
+            "no-go" if status_hint == "no-go" else "caution",
+            b.name,
+        )
+    ]
+
+
+def _hold_limit_reasons(stage: Stage, b: BodyResult, u: DisplayUnits) -> list[Reason]:
+    lim = b.hold_limits
+    if lim is None:
+        return []
+    if not lim.holds_current:
+        return _current_alone(b, "no-go")
+    c = stage.conditions
+    if c.wind_speed_ms <= 0:
+        return []
+    v = limit_at(lim, c.wind_from_deg)
+    if v < c.wind_speed_ms * (1 - 1e-6):
+        return [
+            reason(
+                "wind_over_hold_limit",
+                f"{b.name}: planned wind {u.show(c.wind_speed_ms, 'speed')} from "
+                f"{c.wind_from_deg:03.0f}° true is above what the tugs can hold from there "
+                f"({u.show(v, 'speed')})",
+                b.name,
+            )
+        ]
+    return []
+
+
+def _limit_reasons(stage: Stage, u: DisplayUnits) -> list[Reason]:
+    """The planned conditions against the stage's own go / no-go limits."""
+    c, lim = stage.conditions, stage.limits
+    out = []
+    for what, planned, limit in (
+        ("wind", c.wind_speed_ms, lim.max_wind_ms),
+        ("current", c.current_speed_ms, lim.max_current_ms),
+    ):
+        if limit is not None and planned > limit * (1 + 1e-9):
+            out.append(
+                reason(
+                    "conditions_over_limit",
+                    f"planned {what} {u.show(planned, 'speed')} is above the stage's go / no-go "
+                    f"limit {u.show(limit, 'speed')}",
+                    stage.name,
+                )
+            )
+    return out

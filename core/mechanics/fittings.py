@@ -1,0 +1,106 @@
+"""What each tug puts on the fitting it works at: the line's tension against the rating.
+
+A towline from a fitting on a high deck runs down to the tug's towing point; the tug's
+pull on the body is the line's horizontal part, so the fitting (and the line) carry the
+tension T = H / cos(angle below the horizontal) (geometry: a 3-4-5 line at 36.87 degrees
+carries 1.25 H). A push point carries the push itself. The rating compared is the
+fitting's towing rating: its TOW (safe towing load) where given, else its SWL.
+
+Separately, IMO MSC.1/Circ.1175 (2005) sizes a towing fitting for the tug that will use
+it: design load 1.25 x the intended maximum towing load, SWL at most 80 % of that, so a
+fitting of SWL S suits tugs of bollard pull up to S (:func:`core.mechanics.usable.fitting_suits`).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from core.mechanics.balance import TugLayout
+from core.mechanics.bodies import Body
+from core.mechanics.usable import fitting_suits
+from core.model.plan import Project
+
+#: A load within this fraction above the rating still counts as at the rating (rounding).
+RATING_TOL = 1e-9
+
+
+def line_tension_n(horizontal_n: float, angle_rad: float) -> float:
+    """Tension of a line whose horizontal part is ``horizontal_n``, at ``angle_rad`` off the
+    horizontal: T = H / cos(angle), N."""
+    c = math.cos(angle_rad)
+    if c <= 0:
+        return math.inf if horizontal_n > 0 else 0.0
+    return horizontal_n / c
+
+
+@dataclass(frozen=True, slots=True)
+class FittingLoad:
+    """One tug's load on the fitting it works at, in one stage.
+
+    ``load_n`` is the line's tension for a line point and the push for a push point, N;
+    ``pull_n`` the horizontal pull on the body. ``rating_n`` is the fitting's towing
+    rating (TOW, else SWL; ``rating_label`` says which), None where none is given.
+    ``suits_tug`` is the IMO sizing rule (rating at least the tug's bollard pull) for line
+    points with a rating, else None.
+    """
+
+    tug: str
+    hull: str
+    point: str
+    mode: str  # "line" or "push"
+    fitting_type: str
+    pull_n: float
+    line_angle_rad: float
+    load_n: float
+    rating_n: float | None
+    rating_label: str  # "TOW", "SWL" or "" (no rating)
+    bollard_pull_n: float
+    suits_tug: bool | None
+
+    @property
+    def tension_n(self) -> float | None:
+        """The line's tension, N (None at a push point)."""
+        return self.load_n if self.mode == "line" else None
+
+    @property
+    def over_rating(self) -> bool:
+        return self.rating_n is not None and self.load_n > self.rating_n * (1 + RATING_TOL)
+
+    @property
+    def use_of_rating(self) -> float | None:
+        """Load as a fraction of the rating (None without a rating)."""
+        return None if self.rating_n is None else self.load_n / self.rating_n
+
+
+def fitting_loads(project: Project, body: Body, layout: TugLayout) -> tuple[FittingLoad, ...]:
+    """Each placed tug's load on its fitting, in placement order."""
+    pulls = layout.pulls_n
+    angles = layout.line_angle_rad
+    out = []
+    for i, p in enumerate(layout.placements):
+        fitting = body.fitting(p.hull, p.point)[1]
+        tug = project.tug(p.tug)
+        push = bool(layout.is_push[i])
+        angle = 0.0 if push or angles is None else float(angles[i])
+        pull = float(pulls[i])
+        rating = fitting.towing_rating_n
+        out.append(
+            FittingLoad(
+                tug=p.tug,
+                hull=p.hull,
+                point=p.point,
+                mode="push" if push else "line",
+                fitting_type=fitting.fitting_type,
+                pull_n=pull,
+                line_angle_rad=angle,
+                load_n=pull if push else line_tension_n(pull, angle),
+                rating_n=rating,
+                rating_label=fitting.rating_label,
+                bollard_pull_n=tug.bollard_pull_n,
+                suits_tug=None
+                if push or rating is None
+                else fitting_suits(rating, tug.bollard_pull_n),
+            )
+        )
+    return tuple(out)
