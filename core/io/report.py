@@ -4,19 +4,21 @@ from __future__ import annotations
 
 from typing import Any
 
-from core.frames import turning_words, walking_words
+from core.analysis.stage import StageResult, plan_results
+from core.analysis.verdict import Verdict
 from core.io.report_parts import (
     conditions_json,
     conditions_lines,
+    fitting_lines,
+    fittings_json,
+    goal_json,
     hold_limit_lines,
     hold_limits_json,
     solve_json,
     solve_lines,
-    stage_extras,
 )
 from core.mechanics.balance import Balance
-from core.mechanics.loads import analyse_stage
-from core.model.plan import Project, Stage
+from core.model.plan import Project
 from core.units import DisplayUnits, fmt, label
 
 FRAME_NOTE = (
@@ -31,42 +33,18 @@ CAUTION = (
 )
 
 
-def stage_balances(project: Project) -> list[tuple[Stage, Balance | None]]:
-    """Each stage with the balance of the body its tugs work on, with the stage's wind and
-    current (None if no hull)."""
-    out: list[tuple[Stage, Balance | None]] = []
-    for s in project.stages:
-        out.append((s, analyse_stage(project, s) if project.hulls else None))
-    return out
-
-
-def crossing_words(b: Balance, u: DisplayUnits) -> str:
-    """Where the line of action crosses the hull's centreline, in words for people."""
-    if b.centreline_x is None:
-        return "parallel to the centreline"
-    if b.crossing_is_far:
-        return "nearly parallel to the centreline (it crosses it far off the hull)"
-    return f"crosses the centreline at x = {u.show(b.centreline_x, 'length')}"
-
-
-def _tol(b: Balance) -> tuple[float, float]:
-    scale = sum(abs(sh.pull_n) for sh in b.shares) or 1.0
-    return 1e-6 * scale, 1e-6 * scale * 100.0
-
-
 def balance_json(b: Balance) -> dict[str, Any]:
     eq = b.equivalent
-    tol_f, tol_m = _tol(b)
     return {
         "body": b.body,
         "centroid_m": list(b.centroid),
         "centre_of_gravity_m": list(b.centre_of_gravity),
         "net_force_N": {"ahead": eq.force[0], "to_port": eq.force[1], "magnitude": eq.magnitude},
         "net_force_bearing_deg": b.net_bearing_deg,
-        "net_force_words": walking_words(*eq.force, tol_f),
+        "net_force_words": b.walking,
         "yaw_moment_about_centroid_Nm": eq.moment,
         "yaw_moment_about_centre_of_gravity_Nm": b.moment_cog_nm,
-        "turning": turning_words(eq.moment, tol_m),
+        "turning": b.turning,
         "equivalent": {
             "kind": eq.kind,
             "point_on_line_m": None if eq.point is None else list(eq.point),
@@ -109,28 +87,56 @@ def report_json(project: Project) -> dict[str, Any]:
         "units": {"force": "N", "moment": "N*m", "length": "m", "angle": "deg"},
         "frame": FRAME_NOTE,
         "caution": CAUTION,
-        "stages": [_stage_json(project, s, b) for s, b in stage_balances(project)],
+        "stages": [_stage_json(r) for r in plan_results(project)],
     }
 
 
-def _stage_json(project: Project, s: Stage, b: Balance | None) -> dict[str, Any]:
+def verdict_json(v: Verdict) -> dict[str, Any]:
+    return {
+        "status": v.status,
+        "reasons": [
+            {"code": r.code, "text": r.text, "status": r.status, "subject": r.subject}
+            for r in v.reasons
+        ],
+    }
+
+
+def _stage_json(r: StageResult) -> dict[str, Any]:
+    s, main = r.stage, r.main
     out: dict[str, Any] = {
         "stage": s.name,
         "kind": s.kind,
-        "balance": None if b is None else balance_json(b),
+        "verdict": verdict_json(r.verdict),
+        "goal": None if main is None else goal_json(main),
+        "balance": None if main is None else balance_json(main.balance),
     }
-    x = stage_extras(project, s)
-    if x is not None:
-        out["conditions"] = conditions_json(project, s, x.body)
-        out["solve"] = solve_json(x)
-        out["hold_limits"] = hold_limits_json(s, x.limits)
-        out["notes"] = list(x.notes)
+    if main is not None:
+        out["fittings"] = fittings_json(main)
+        out["conditions"] = conditions_json(s, main)
+        out["solve"] = solve_json(main)
+        out["hold_limits"] = hold_limits_json(s, main.hold_limits)
+        out["notes"] = list(main.notes)
+        others = [b for b in r.worked if b is not main]
+        if others:
+            out["other_bodies"] = [
+                {"balance": balance_json(b.balance), "fittings": fittings_json(b)} for b in others
+            ]
+    out["clearances"] = [
+        {
+            "body": c.body,
+            "other": c.other,
+            "other_kind": c.other_kind,
+            "distance_m": c.distance_m,
+            "margin_m": c.margin_m,
+            "below_margin": c.below_margin,
+        }
+        for c in r.clearances
+    ]
     return out
 
 
 def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
     eq = b.equivalent
-    tol_f, tol_m = _tol(b)
     f, m, ln = u.unit("force"), u.unit("moment"), u.unit("length")
     lines = []
     bearing = "" if b.net_bearing_deg is None else f" towards {b.net_bearing_deg:05.1f} relative"
@@ -138,11 +144,11 @@ def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
         f"  Net force       {u.show(eq.magnitude, 'force')}{bearing}"
         f"  (ahead {fmt(u.value(eq.force[0], 'force'), signed=True)} {label(f)}, "
         f"to port {fmt(u.value(eq.force[1], 'force'), signed=True)} {label(f)})"
-        f"  {walking_words(*eq.force, tol_f)}"
+        f"  {b.walking}"
     )
     lines.append(
         f"  Yaw moment      {fmt(u.value(eq.moment, 'moment'), signed=True)} {label(m)} about the centroid, "
-        f"{turning_words(eq.moment, tol_m)}"
+        f"{b.turning}"
     )
     lines.append(
         f"                  {fmt(u.value(b.moment_cog_nm, 'moment'), signed=True)} {label(m)} about the centre of gravity"
@@ -152,7 +158,7 @@ def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
     elif eq.kind == "balanced":
         lines.append("  Equivalent      balanced: no net force and no yaw moment")
     else:
-        cross = crossing_words(b, u)
+        cross = b.crossing_words(u)
         lines.append(
             f"  Equivalent      {u.show(eq.magnitude, 'force')} on a line "
             f"{abs(u.value(eq.offset_m or 0.0, 'length')):.1f} {ln} from the centroid; {cross}"
@@ -175,17 +181,21 @@ def report_text(project: Project) -> str:
     """The report in the project's display units, for a terminal."""
     u = project.units
     out = [f"{project.name} (revision {project.revision})", FRAME_NOTE, ""]
-    for i, (s, b) in enumerate(stage_balances(project), start=1):
-        out.append(f"Stage {i}: {s.name} [{s.kind}]")
-        if b is None:
+    for r in plan_results(project):
+        s = r.stage
+        out.append(f"Stage {r.index + 1}: {s.name} [{s.kind}]")
+        out.append(f"  Verdict         {r.verdict.label}")
+        out.extend(f"    {reason.status.upper():<8}{reason.text}" for reason in r.verdict.reasons)
+        for b in r.worked:
+            if len(r.worked) > 1:
+                out.append(f"  Body            {b.name}")
+            out.extend(_balance_lines(b.balance, u))
+            out.extend(fitting_lines(b, u))
+            out.extend(conditions_lines(s, b, u))
+            out.extend(solve_lines(b, u))
+            out.extend(hold_limit_lines(s, b.hold_limits, u))
+        if not r.worked:
             out.append("  no hull to work on")
-        else:
-            out.extend(_balance_lines(b, u))
-            x = stage_extras(project, s)
-            if x is not None:
-                out.extend(conditions_lines(s, x.body, u))
-                out.extend(solve_lines(x, u))
-                out.extend(hold_limit_lines(s, x.limits, u))
         out.append("")
     out.append(CAUTION)
     return "\n".join(out) + "\n"

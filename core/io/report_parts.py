@@ -1,72 +1,30 @@
-"""The report's parts about conditions, solved pulls, the tug lost check and hold limits.
+"""The report's parts about conditions, fittings, solved pulls, the tug lost check and
+hold limits, read from one body's part of the stage result (core.analysis.stage).
 
-:func:`stage_extras` computes them for one stage; the ``*_json`` functions give SI
-numbers, the ``*_lines`` functions text in the display units. Used by core.io.report.
+The ``*_json`` functions give SI numbers, the ``*_lines`` functions text in the display
+units. Used by core.io.report; nothing here works a figure out.
 """
 
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from typing import Any
 
 import numpy as np
 
-from core.errors import TowboardError
-from core.frames import angle_to_bearing, turning_words, walking_words
-from core.mechanics.bodies import Body, stage_body
-from core.mechanics.loads import body_conditions, loads_wrench
-from core.model.goals import Goal
-from core.model.plan import Project, Stage
-from core.solve.holdlimits import HoldLimits, hold_limits, hold_limits_problem, limit_at
+from core.analysis.stage import BodyResult
+from core.frames import angle_to_bearing, turning_words
+from core.mechanics.loads import loads_wrench
+from core.model.plan import Stage
+from core.solve.holdlimits import HoldLimits, limit_at
 from core.solve.pulls import (
     PullsResult,
-    TugLostCheck,
-    pulls_problem,
     shortfall_words,
-    tug_lost_check,
 )
 from core.units import DisplayUnits, fmt, label
 
 #: Directions listed in the text report's hold limits table, degrees true.
 TEXT_DIRECTIONS = tuple(range(0, 360, 30))
-
-
-@dataclass(frozen=True, slots=True)
-class StageExtras:
-    """Conditions, solve, tug lost check and hold limits of one stage (None where not possible)."""
-
-    body: Body
-    goal: Goal
-    goal_given: bool  # False: the stage sets no goal and "hold" was solved
-    check: TugLostCheck | None
-    limits: HoldLimits | None
-    notes: tuple[str, ...]
-
-    @property
-    def solved(self) -> PullsResult | None:
-        return None if self.check is None else self.check.full
-
-
-def stage_extras(project: Project, stage: Stage) -> StageExtras | None:
-    """Everything the solver adds to a stage; None for a stage with no hull."""
-    if not project.hulls:
-        return None
-    body = stage_body(project, stage)
-    goal = stage.goal or Goal("hold")
-    notes: list[str] = []
-    check = limits = None
-    try:
-        check = tug_lost_check(pulls_problem(project, stage, body.name, goal))
-        notes.extend(n.message for n in check.problem.notices)
-    except TowboardError as e:
-        notes.append(f"Pulls not solved: {e}")
-    if stage.placements:
-        try:
-            limits = hold_limits(hold_limits_problem(project, stage, body.name))
-        except TowboardError as e:
-            notes.append(f"Hold limits not computed: {e}")
-    return StageExtras(body, goal, stage.goal is not None, check, limits, tuple(notes))
 
 
 def _finite(v: float) -> float | None:
@@ -76,9 +34,9 @@ def _finite(v: float) -> float | None:
 # -- JSON (SI) --------------------------------------------------------------------------
 
 
-def conditions_json(project: Project, stage: Stage, body: Body) -> dict[str, Any]:
+def conditions_json(stage: Stage, br: BodyResult) -> dict[str, Any]:
     c = stage.conditions
-    cl = body_conditions(stage, body)
+    cl, body = br.conditions, br.body
     return {
         "wind_speed_ms": c.wind_speed_ms,
         "wind_height_m": c.wind_height_m,
@@ -132,19 +90,46 @@ def _result_json(r: PullsResult) -> dict[str, Any]:
     }
 
 
-def solve_json(x: StageExtras) -> dict[str, Any] | None:
-    if x.check is None:
+def goal_json(br: BodyResult) -> dict[str, Any] | None:
+    g = br.goal
+    if g is None:
         return None
-    c = x.check
+    return {
+        "kind": g.kind,
+        "force_ahead_N": g.fx_n,
+        "force_to_port_N": g.fy_n,
+        "yaw_moment_about_centroid_Nm": g.moment_nm,
+        "met_by_the_pulls_as_set": br.goal_met_as_set,
+    }
+
+
+def fittings_json(br: BodyResult) -> list[dict[str, Any]]:
+    """Each tug's load on its fitting: the line's tension (or the push) against the SWL."""
+    return [
+        {
+            "tug": f.tug,
+            "hull": f.hull,
+            "point": f.point,
+            "mode": f.mode,
+            "fitting_type": f.fitting_type,
+            "pull_N": f.pull_n,
+            "line_angle_deg": math.degrees(f.line_angle_rad),
+            "tension_N": f.tension_n,
+            "load_N": f.load_n,
+            "rating_N": f.rating_n,
+            "over_rating": f.over_rating,
+            "rated_for_the_tug": f.suits_tug,
+        }
+        for f in br.fittings
+    ]
+
+
+def solve_json(br: BodyResult) -> dict[str, Any] | None:
+    if br.tug_lost is None:
+        return None
+    c = br.tug_lost
     worst = c.worst
     return {
-        "goal": {
-            "kind": x.goal.kind,
-            "given_by_stage": x.goal_given,
-            "force_ahead_N": x.goal.fx_n,
-            "force_to_port_N": x.goal.fy_n,
-            "yaw_moment_about_centroid_Nm": x.goal.moment_nm,
-        },
         "solved": _result_json(c.full),
         "tug_lost": {
             "passes": c.passes,
@@ -195,9 +180,9 @@ def hold_limits_json(stage: Stage, lim: HoldLimits | None) -> dict[str, Any] | N
 # -- text (display units) ---------------------------------------------------------------
 
 
-def conditions_lines(stage: Stage, body: Body, u: DisplayUnits) -> list[str]:
+def conditions_lines(stage: Stage, br: BodyResult, u: DisplayUnits) -> list[str]:
     c = stage.conditions
-    cl = body_conditions(stage, body)
+    cl, body = br.conditions, br.body
     design = ""
     if abs(cl.design_wind_ms - c.wind_speed_ms) > 1e-9:
         design = f"; {u.show(cl.design_wind_ms, 'speed')} at 10 m with gusts for the load"
@@ -219,23 +204,26 @@ def conditions_lines(stage: Stage, body: Body, u: DisplayUnits) -> list[str]:
     return out
 
 
-def solve_lines(x: StageExtras, u: DisplayUnits) -> list[str]:
+def solve_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
     out: list[str] = []
-    if x.check is None:
-        return [f"  {n}" for n in x.notes]
-    r = x.check.full
-    g = x.goal
+    g = br.goal
+    if g is None:
+        return ["  Solved pulls    no goal set: the pulls as set are shown, not checked"]
+    if br.tug_lost is None:
+        return [f"  {n}" for n in br.notes]
+    r = br.tug_lost.full
     what = {
         "hold": "hold (tugs and conditions sum to nothing)",
-        "walk": f"walk: {walking_words(g.fx_n, g.fy_n)} with {u.show(math.hypot(g.fx_n, g.fy_n), 'force')}",
+        "walk": f"walk {u.show(abs(g.fy_n), 'force')} to {'port' if g.fy_n > 0 else 'starboard'}",
         "swing": f"swing: {u.show(abs(g.moment_nm), 'moment')}, {turning_words(g.moment_nm)}",
+        "transit": f"transit {u.show(abs(g.fx_n), 'force')} {'ahead' if g.fx_n >= 0 else 'astern'}",
         "force": "the given net force and moment",
     }[g.kind]
-    given = "" if x.goal_given else " (the stage sets no goal)"
+    given = ""
     state = (
-        f"met, largest use {r.max_utilisation * 100:.0f} %"
+        f"can be met, largest use {r.max_utilisation * 100:.0f} %"
         if r.feasible
-        else f"NOT MET: {shortfall_words(r.shortfall, u)}"
+        else f"CANNOT be met: {shortfall_words(r.shortfall, u)}"
     )
     out.append(f"  Solved pulls    goal {what}{given}: {state}")
     for i, pl in enumerate(r.problem.placements):
@@ -243,11 +231,11 @@ def solve_lines(x: StageExtras, u: DisplayUnits) -> list[str]:
             f"    {pl.tug:<14}{u.show(float(r.pulls_n[i]), 'force'):>10}  setting "
             f"{r.utilisation[i] * 100:>4.0f} %  pulling towards {r.bearing_deg(i):05.1f} relative"
         )
-    c = x.check
+    c = br.tug_lost
     worst = c.worst
     if not r.feasible:
         out.append("  Tug lost check  not meaningful: the goal is not met with every tug")
-        out.extend(f"  NOTE: {n}" for n in x.notes)
+        out.extend(f"  NOTE: {n}" for n in br.notes)
         return out
     out.append(
         "  Tug lost check  "
@@ -261,8 +249,27 @@ def solve_lines(x: StageExtras, u: DisplayUnits) -> list[str]:
             else f"does not hold: {shortfall_words(case.result.shortfall, u)}"
         )
         out.append(f"    without {case.tug:<14}{res}")
-    out.extend(f"  NOTE: {n}" for n in x.notes)
+    out.extend(f"  NOTE: {n}" for n in br.notes)
     return out
+
+
+def fitting_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
+    """Each tug's load on its fitting against the SWL, one line each."""
+    out = []
+    for f in br.fittings:
+        load = "push" if f.mode == "push" else "tension"
+        rating = "no SWL given" if f.rating_n is None else f"SWL {u.show(f.rating_n, 'force')}"
+        use = "" if f.use_of_rating is None else f" ({f.use_of_rating * 100:.0f} %)"
+        flag = "  OVER" if f.over_rating else ""
+        out.append(
+            f"    {f.tug:<14}{f.point:<22}{load} {u.show(f.load_n, 'force')} against "
+            f"{rating}{use}{flag}"
+        )
+    return (
+        ["  Fittings        each tug's load (line tension = pull / cos(line angle))", *out]
+        if out
+        else []
+    )
 
 
 def hold_limit_lines(stage: Stage, lim: HoldLimits | None, u: DisplayUnits) -> list[str]:

@@ -42,21 +42,21 @@ WIND = 0.5 * 1.225 * 1.2 * 320.0 * 20.0**2  # N: 1/2 rho C A V^2 (ISO 2533 air, 
 
 
 def test_json_has_the_conditions_the_solve_and_the_hold_limits() -> None:
-    rep = report_json(_plan())
+    rep = report_json(_plan(Goal("hold")))
     st = rep["stages"][0]
     json.dumps(rep, allow_nan=False)
     cond = st["conditions"]
     assert cond["wind_from_relative_deg"] == pytest.approx(270.0)
     (wind,) = cond["loads"]
     assert wind["force_N"]["to_port"] == pytest.approx(-WIND)
-    solve = st["solve"]
-    assert solve["goal"] == {
+    assert st["goal"] == {
         "kind": "hold",
-        "given_by_stage": False,
         "force_ahead_N": 0.0,
         "force_to_port_N": 0.0,
         "yaw_moment_about_centroid_Nm": 0.0,
+        "met_by_the_pulls_as_set": False,
     }
+    solve = st["solve"]
     assert solve["solved"]["goal_met"] is True
     assert [t["pull_N"] for t in solve["solved"]["tugs"]] == pytest.approx([WIND / 2] * 2)
     # One tug alone cannot hold without swinging the barge: the check fails for both.
@@ -81,7 +81,8 @@ def test_the_balance_includes_the_wind() -> None:
 def test_text_says_it_in_display_units_and_words() -> None:
     text = report_text(_plan(Goal("walk", 0.0, 100 * TF)))
     assert "Wind            38.9 kn at 10 m from 270.0 true (270.0 relative)" in text
-    assert "goal walk: walks to port with 100.0 t: NOT MET" in text
+    assert "goal walk 100.0 t to port: CANNOT be met: needs" in text
+    assert "Verdict         NO-GO" in text
     assert "Tug lost check  not meaningful" in text
     assert "Hold limits" in text and "1 lost" in text
     assert "-0.0" not in text
