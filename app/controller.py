@@ -14,26 +14,29 @@ Everything on screen reads :class:`Controller` and writes back through it:
 - ``changed`` is emitted whenever the value (or the stage shown) differs from before;
   ``stage_changed(int)`` when another stage is shown; ``dirty_changed(bool)`` and
   ``path_changed`` for the title bar.
-- ``controller.balances()`` is the balance of every body in the stage shown, computed
-  once per value by :func:`core.mechanics.balance.analyse_layout`; other loads on a body (wind,
-  current) come from ``controller.load_providers``: callables
-  ``(project, stage, body) -> Sequence[core.mechanics.balance.Load]`` that issue-4 code adds.
+- ``controller.stage_result()`` is the one result of the stage shown
+  (:func:`core.analysis.stage.stage_result`: balances, loads, fittings, solved pulls,
+  tug lost check, hold limits, clearances and the verdict), worked out once per project
+  value; every panel reads it and none works a stage figure out on its own.
+- ``controller.results()`` / ``balances()`` are each body's tugs, loads and balance in
+  the stage shown: the stage result's own, or during a drag the light part of it
+  (:func:`core.analysis.stage.body_balance`, or the drag's fast path, which the tests
+  hold equal to it).
 """
 
 from __future__ import annotations
 
-from collections.abc import Callable, Sequence
+from collections.abc import Callable
 from dataclasses import dataclass, replace
 from pathlib import Path
 
 from PySide6.QtCore import QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 
-from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout, tug_layout
+from core.analysis.stage import StageResult, body_balance, stage_result
+from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout
 from core.mechanics.bodies import Body, body_name_of_hull, body_of
 from core.model.plan import Project, Stage
-
-LoadProvider = Callable[[Project, Stage, Body], Sequence[Load]]
 
 
 @dataclass(frozen=True, slots=True)
@@ -107,7 +110,6 @@ class Controller(QObject):
         self._preview_base: Project | None = None
         self._results: dict[str, BodyResult] | None = None
         self._results_override: dict[str, BodyResult] | None = None
-        self.load_providers: list[LoadProvider] = []
         #: Callables ``(project, results) -> project`` run on every edit and preview before
         #: it is shown (live solving fills in the settings); ``results`` are the bodies'
         #: results for ``project`` when the caller has them (a drag), else None. The same
@@ -147,38 +149,42 @@ class Controller(QObject):
     def previewing(self) -> bool:
         return self._preview_base is not None
 
-    # -- the balance ------------------------------------------------------------------
-    def loads_for(self, project: Project, stage: Stage, body: Body) -> list[Load]:
-        """Every non-tug load on ``body`` from the registered providers."""
-        out: list[Load] = []
-        for provider in self.load_providers:
-            out.extend(provider(project, stage, body))
-        return out
+    # -- the stage's result ---------------------------------------------------------
+    def stage_result(self) -> StageResult | None:
+        """The one result of the stage shown (None when the plan has no stage)."""
+        stages = self._project.stages
+        if not stages:
+            return None
+        return stage_result(self._project, min(self._stage_index, len(stages) - 1))
 
     def results(self) -> dict[str, BodyResult]:
         """Each body of the stage shown, by body name, with its balance (computed once)."""
         if self._results_override is not None:
             return self._results_override
         if self._results is None:
-            self._results = self.compute_results(self._project, self.stage)
+            self._results = self._compute_results()
         return self._results
 
     def balances(self) -> dict[str, Balance]:
         """The balance of each body in the stage shown, by body name."""
         return {name: r.balance for name, r in self.results().items()}
 
-    def compute_results(self, project: Project, stage: Stage | None) -> dict[str, BodyResult]:
-        """Every body's result in ``stage`` of ``project`` (any stage, not only the one shown)."""
-        out: dict[str, BodyResult] = {}
+    def _compute_results(self) -> dict[str, BodyResult]:
+        stage = self.stage
         if stage is None:
-            return out
-        for name in project.body_names():
-            body = body_of(project, name)
-            layout = tug_layout(project, stage, body)
-            loads = tuple(self.loads_for(project, stage, body))
-            balance = analyse_layout(stage, body, layout, project.units, loads)
-            out[name] = BodyResult(body, layout, loads, balance)
-        return out
+            return {}
+        if self.previewing:  # a drag in progress: the light part of the stage result
+            return {
+                name: _light(self._project, stage, body_of(self._project, name))
+                for name in self._project.body_names()
+            }
+        return results_of(self.stage_result())
+
+    def results_for(self, index: int) -> dict[str, BodyResult]:
+        """Every body's result in stage ``index`` (any stage, not only the one shown)."""
+        if not 0 <= index < len(self._project.stages):
+            return {}
+        return results_of(stage_result(self._project, index))
 
     def balance(self, body: str | None = None) -> Balance | None:
         """The balance of ``body`` (default: the main body of the stage shown)."""
@@ -240,7 +246,7 @@ class Controller(QObject):
         return out
 
     def invalidate(self) -> None:
-        """Work the results out again (a load provider was added) and tell every widget."""
+        """Work the results out again and tell every widget."""
         self._results = None
         self.changed.emit()
 
@@ -280,7 +286,9 @@ class Controller(QObject):
         base, new = self._preview_base, self._project
         self._preview_base = None
         self._results_override = None
+        self._results = None
         if new == base:
+            self.changed.emit()
             return
         self._project = base
         self.undo_stack.push(ProjectCommand(self, base, new, text, merge_key))
@@ -338,3 +346,15 @@ class Controller(QObject):
             return project, project.stages[min(self._stage_index, len(project.stages) - 1)]
         stage = Stage("Stage 1")
         return replace(project, stages=(stage,)), stage
+
+
+def results_of(result: StageResult | None) -> dict[str, BodyResult]:
+    """The board's view of a stage result: each body's tugs, loads and balance."""
+    if result is None:
+        return {}
+    return {b.name: BodyResult(b.body, b.layout, b.loads, b.balance) for b in result.bodies}
+
+
+def _light(project: Project, stage: Stage, body: Body) -> BodyResult:
+    layout, cond, balance = body_balance(project, stage, body)
+    return BodyResult(body, layout, cond.loads, balance)

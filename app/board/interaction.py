@@ -15,7 +15,7 @@ release.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 from PySide6.QtCore import QPointF, Qt
@@ -30,7 +30,7 @@ from app.edits import hulls as hull_edits
 from app.edits import tugs as tug_edits
 from app.paint import style
 from core.errors import OutlineError, TowboardError
-from core.mechanics.balance import analyse_layout, tug_layout
+from core.mechanics.balance import analyse_layout, with_placement_row
 from core.model.hull import Hull
 from core.model.outlines import validate_outline
 from core.model.plan import BodyPose
@@ -310,30 +310,7 @@ class Interaction:
         stage = stage.with_placement(placement)
         project = c.with_stage(stage, project)
         # the fast path: the one tug's row of the arrays is made again, the rest are kept
-        one = tug_layout(project, replace(stage, placements=(placement,)), r.body)
-        lay = r.layout
-        i = drag.index
-        points, dirs, posn = lay.points.copy(), lay.directions.copy(), lay.positions.copy()
-        rated, usable, swl = lay.rated_n.copy(), lay.usable_n.copy(), lay.swl_n.copy()
-        points[i], dirs[i], posn[i] = one.points[0], one.directions[0], one.positions[0]
-        rated[i], usable[i], swl[i] = one.rated_n[0], one.usable_n[0], one.swl_n[0]
-        placements = list(lay.placements)
-        placements[i] = placement
-        angle = lay.line_angle_rad
-        if angle is not None and one.line_angle_rad is not None:
-            angle = angle.copy()  # the line's length changes its angle (steep line warning)
-            angle[i] = one.line_angle_rad[0]
-        layout = replace(
-            lay,
-            placements=tuple(placements),
-            points=points,
-            directions=dirs,
-            positions=posn,
-            rated_n=rated,
-            usable_n=usable,
-            swl_n=swl,
-            line_angle_rad=angle,
-        )
+        layout = with_placement_row(r.layout, project, stage, r.body, placement)
         balance = analyse_layout(stage, r.body, layout, project.units, r.loads)
         results = dict(c.results())
         results[drag.body] = BodyResult(r.body, layout, r.loads, balance)

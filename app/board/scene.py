@@ -102,9 +102,7 @@ class BoardScene(QGraphicsScene):
         if self.fixed_stage is None:
             return self.controller.results()
         if self._fixed_results is None:
-            self._fixed_results = self.controller.compute_results(
-                self.controller.project, self.stage()
-            )
+            self._fixed_results = self.controller.results_for(self.fixed_stage)
         return self._fixed_results
 
     def pose(self, body: str, project: Project | None = None) -> BodyPose:

@@ -34,7 +34,7 @@ from app.briefing.layout import (
 from app.paint import style
 from core.analysis.checks import StageCheck, tug_lost_as_set
 from core.frames import turning_words, walking_words
-from core.io.report import CAUTION, crossing_words
+from core.io.report import CAUTION
 from core.mechanics.balance import Balance
 from core.mechanics.bodies import body_of
 from core.model.plan import Project, Stage
@@ -373,7 +373,7 @@ def _balance(project: Project, b: Balance) -> list[Block]:
     elif eq.kind == "balanced":
         rows.append(["Equivalent", "balanced: no net force and no yaw moment"])
     else:
-        cross = crossing_words(b, u)
+        cross = b.crossing_words(u)
         rows.append(
             [
                 "Equivalent force",

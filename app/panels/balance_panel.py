@@ -1,20 +1,18 @@
-"""The balance panel: the core's numbers for the body shown, in the display units.
+"""The balance panel: the stage's verdict and the core's numbers for the body shown.
 
-Every figure comes from :class:`core.mechanics.balance.Balance` as computed for the board; the
-panel only formats it. The frame and the sign convention are stated on the panel.
+Every figure comes from the stage result (its :class:`core.mechanics.balance.Balance`, and
+the verdict with its reasons); the panel only formats it. The frame and the sign
+convention are stated on the panel.
 """
 
 from __future__ import annotations
-
-import math
 
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QFormLayout, QFrame, QLabel, QScrollArea, QVBoxLayout, QWidget
 
 from app import formatting as fmt
 from app.controller import Controller
-from core.frames import turning_words, walking_words
-from core.io.report import crossing_words
+from app.panels.verdict_view import VerdictView
 from core.mechanics.balance import Balance
 
 FRAME_TEXT = (
@@ -53,6 +51,8 @@ class BalancePanel(QWidget):
         inner = QWidget()
         scroll.setWidget(inner)
         layout = QVBoxLayout(inner)
+        self.verdict = VerdictView(controller)
+        layout.addWidget(self.verdict)
         form = QFormLayout()
         form.setLabelAlignment(Qt.AlignmentFlag.AlignLeft)
         # each value under its label: a narrow panel never cuts a number off
@@ -102,21 +102,15 @@ class BalancePanel(QWidget):
             self.warnings.setText("")
             return
         eq = b.equivalent
-        scale = sum(abs(s.pull_n) for s in b.shares) + sum(math.hypot(*ld.force) for ld in b.loads)
-        tol_f = 1e-6 * (scale or 1.0)
-        r = self.controller.results().get(b.body)
-        tol_m = tol_f * max(r.body.length if r is not None else 1.0, 1.0)
         f["body"].setText(f"{b.body}, stage “{b.stage}”")
         f["net"].setText(fmt.value(u, eq.magnitude, "force"))
         f["net_bearing"].setText(fmt.bearing(b.net_bearing_deg))
         f["net_ahead"].setText(fmt.signed(u, eq.force[0], "force"))
         f["net_abeam"].setText(fmt.signed(u, eq.force[1], "force"))
-        f["net_words"].setText(walking_words(eq.force[0], eq.force[1], tol_f))
-        f["moment_centroid"].setText(
-            f"{fmt.signed(u, eq.moment, 'moment')}  {turning_words(eq.moment, tol_m)}"
-        )
+        f["net_words"].setText(b.walking)
+        f["moment_centroid"].setText(f"{fmt.signed(u, eq.moment, 'moment')}  {b.turning}")
         f["moment_cog"].setText(
-            f"{fmt.signed(u, b.moment_cog_nm, 'moment')}  {turning_words(b.moment_cog_nm, tol_m)}"
+            f"{fmt.signed(u, b.moment_cog_nm, 'moment')}  {b.turning_about_cog}"
         )
         if eq.kind == "couple":
             f["equivalent"].setText("a pure couple: no single force, no line of action")
@@ -134,8 +128,9 @@ class BalancePanel(QWidget):
                 f"{fmt.value(u, abs(off), 'length')}, to the {side} of it looking along the force"
             )
             f["crossing"].setText(
-                crossing_words(b, u).replace("crosses the centreline at ", "")
+                b.crossing_words(u).replace("crosses the centreline at ", "")
                 + ("" if b.crossing_is_far else " from the reference point")
             )
-        notices = [n.message for n in b.notices]
+        # While a drag is in progress the verdict waits; the balance's own warnings follow it.
+        notices = [n.message for n in b.notices] if self.controller.previewing else []
         self.warnings.setText("\n".join(f"⚠ {m}" for m in notices))

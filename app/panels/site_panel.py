@@ -26,7 +26,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
-from app.panels.stage_details import parse_number
+from app.formatting import parse_number
 from core.errors import InputError
 from core.mechanics.site import basin, channel, dolphin, moored_vessel, quay
 from core.model.plan import SiteFeature

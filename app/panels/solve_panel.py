@@ -1,15 +1,17 @@
-"""The solve pulls panel: the goal, the solved pulls, each tug's use and the tug lost check.
+"""The solve pulls panel: the stage's goal, the solved pulls, each tug's use, the tug lost check.
 
-"Solve pulls" fills in every tug's setting (and, for a tug with a lead sector, its lead)
-for the goal as one undo step, and keeps the goal with the stage. With "solve live"
-on, the settings follow the solver on every edit and every mouse move of a drag (the
-leads stay where the mouse puts them). The figures are core.solve.pulls.pulls's; the panel says
-them in the display units.
+The goal belongs to the stage: choosing a kind or typing a figure is an undoable edit of
+the stage's goal ("no goal" shows the pulls as set, unchecked). Every figure shown is the
+stage result's (core.analysis.stage): the pulls solved for the goal, the tug lost check
+and the verdict's reasons for each tug; the panel says them in the display units.
+"Solve pulls" sets every tug's setting (and, for a tug with a lead sector, its lead) to
+the solved pulls in one undo step. With "solve live" on, the settings follow the solver
+on every edit and every mouse move of a drag (the leads stay where the mouse puts them);
+live solving needs a goal and changes nothing without one.
 """
 
 from __future__ import annotations
 
-import math
 from dataclasses import replace
 
 from PySide6.QtCore import Qt, QTimer, Signal
@@ -31,20 +33,42 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import BodyResult, Controller
-from core.errors import InputError, TowboardError
+from app.formatting import parse_number
+from core.analysis.stage import BodyResult as StageBody
+from core.analysis.stage import StageResult
+from core.errors import TowboardError
 from core.mechanics.balance import TugLayout
-from core.mechanics.usable import fitting_suits
-from core.model.goals import GOAL_KINDS, Goal
+from core.model.goals import GOAL_KINDS, GOAL_WORDS, Goal
 from core.model.plan import Project, Stage
 from core.solve.pulls import PullsResult, TugLostCheck, pulls_problem, shortfall_words, solve_pulls
-from core.solve.pulls import tug_lost_check as run_tug_lost_check
 from core.units import label
 
+NO_GOAL = "none"
 GOAL_TITLES = {
-    "hold": "Hold (stay put against the conditions)",
-    "walk": "Walk (a net force, no swing)",
-    "swing": "Swing (a yaw moment, no net force)",
-    "force": "Given force and moment",
+    NO_GOAL: "No goal: show the pulls as set",
+    "hold": "Hold: stay put against wind and current",
+    "walk": "Walk: move sideways, no swing",
+    "swing": "Swing: turn on the spot, no net force",
+    "transit": "Transit: ahead or astern, no swing",
+    "force": "Given net force and yaw moment",
+}
+#: Which figures each goal kind uses: force ahead, force to port, yaw moment.
+USES = {
+    NO_GOAL: (False, False, False),
+    "hold": (False, False, False),
+    "walk": (False, True, False),
+    "swing": (False, False, True),
+    "transit": (True, False, False),
+    "force": (True, True, True),
+}
+#: Short words for a tug's own reasons, shown beside the tug.
+TUG_NOTES = {
+    "setting_over": "over 100 %",
+    "fitting_over_rating": "over fitting SWL",
+    "fitting_under_rated": "fitting under-rated for its BP",
+    "steep_line": "steep towline",
+    "push_outward": "pushes outward",
+    "pull_short": "cannot give the pull",
 }
 FAIL = QColor("#b71c1c")
 OK = QColor("#1b5e20")
@@ -57,7 +81,8 @@ def solved_stage(
     leads: bool = True,
     layout: TugLayout | None = None,
 ) -> tuple[Stage, PullsResult]:
-    """``stage`` with every tug's setting (and, with ``leads``, solved lead) for ``goal``."""
+    """``stage`` with every tug's setting (and, with ``leads``, solved lead) for ``goal``
+    (the live path: the same problem and solver the stage result uses)."""
     result = solve_pulls(pulls_problem(project, stage, goal=goal, layout=layout))
     if leads:
         return result.applied_to(stage), result
@@ -68,8 +93,25 @@ def solved_stage(
     return out, result
 
 
+def tug_notes(result: StageResult) -> dict[str, list[str]]:
+    """Short warnings per tug from the stage's verdict and its tug lost check."""
+    notes: dict[str, list[str]] = {}
+    tugs = {t.name for t in result.project.tugs}
+    for r in result.verdict.reasons:
+        words = TUG_NOTES.get(r.code)
+        if words is not None and r.subject in tugs and words not in notes.get(r.subject, []):
+            notes.setdefault(r.subject, []).append(words)
+    for b in result.worked:
+        check = b.tug_lost
+        if check is not None and check.full.feasible:
+            for case in check.cases:
+                if not case.holds:
+                    notes.setdefault(case.tug, []).append("goal fails without it")
+    return notes
+
+
 class SolvePanel(QWidget):
-    """Goal, solve button, live switch, per-tug use and the tug lost check."""
+    """The stage's goal, solve button, live switch, per-tug use and the tug lost check."""
 
     #: The per-tug warnings changed: {tug: [short warning, ...]}.
     notes_changed = Signal(dict)
@@ -81,20 +123,28 @@ class SolvePanel(QWidget):
         self.check: TugLostCheck | None = None
         self.notes: dict[str, list[str]] = {}
         self.kind = QComboBox()
-        for k in GOAL_KINDS:
+        self.kind.setObjectName("goal_kind")
+        for k in (NO_GOAL, *GOAL_KINDS):
             self.kind.addItem(GOAL_TITLES[k], k)
-        self.kind.currentIndexChanged.connect(self._kind_changed)
+        self.kind.currentIndexChanged.connect(self._kind_chosen)
         self.fx, self.fy, self.mz = QLineEdit("0"), QLineEdit("0"), QLineEdit("0")
+        for w, name in ((self.fx, "goal_fx"), (self.fy, "goal_fy"), (self.mz, "goal_mz")):
+            w.setObjectName(name)
+            w.editingFinished.connect(self._figures_edited)
         self.fx_label, self.fy_label, self.mz_label = QLabel(), QLabel(), QLabel()
         self.solve_button = QPushButton("Solve pulls")
-        self.solve_button.setToolTip("Fill in every tug's setting for the goal (one undo step)")
+        self.solve_button.setToolTip(
+            "Set every tug's setting to the pulls solved for the goal (one undo step)"
+        )
         self.solve_button.clicked.connect(self.solve)
         self.live = QCheckBox("Solve live while editing and dragging")
         self.live.setToolTip(
-            "The settings follow the solver on every change; the leads stay where you put them"
+            "The settings follow the solver on every change (needs a goal); "
+            "the leads stay where you put them"
         )
         self.outcome = QLabel("—")
         self.outcome.setWordWrap(True)
+        self.outcome.setObjectName("solve_outcome")
         self.uses = QTableWidget(0, 5)
         self.uses.setHorizontalHeaderLabels(
             ["Tug", "Usable pull", "Pull", "Use of usable", "Checks"]
@@ -108,7 +158,7 @@ class SolvePanel(QWidget):
             t.setEditTriggers(QTableWidget.EditTrigger.NoEditTriggers)
             t.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.ResizeToContents)
             t.horizontalHeader().setStretchLastSection(True)
-        goal_box = QGroupBox("Goal for this stage")
+        goal_box = QGroupBox("Goal of this stage")
         form = QFormLayout(goal_box)
         form.addRow(self.kind)
         form.addRow(self.fx_label, self.fx)
@@ -135,34 +185,32 @@ class SolvePanel(QWidget):
         self._timer.setSingleShot(True)
         self._timer.setInterval(150)
         self._timer.timeout.connect(self.recheck)
-        self._shown_stage: object = None
+        self._shown_goal: object = None
         controller.changed.connect(self._changed)
         self._sync_goal()
         self.recheck()
 
-    # -- the goal -------------------------------------------------------------------
-    def _kind_changed(self) -> None:
-        k = self.kind.currentData()
-        self.fx.setEnabled(k in ("walk", "force"))
-        self.fy.setEnabled(k in ("walk", "force"))
-        self.mz.setEnabled(k in ("swing", "force"))
-        self._timer.start()
+    # -- the goal (the stage's own) -------------------------------------------------
+    def _enable_figures(self, kind: str) -> None:
+        for w, on in zip((self.fx, self.fy, self.mz), USES[kind], strict=True):
+            w.setEnabled(on)
 
     def _sync_goal(self) -> None:
-        """Show the stage's own goal when another stage comes on the board."""
+        """Show the goal of the stage on the board (without echoing it back)."""
         c = self.controller
         u = c.project.units
         self.fx_label.setText(f"Force ahead + / astern − ({label(u.unit('force'))})")
         self.fy_label.setText(f"Force to port + / starboard − ({label(u.unit('force'))})")
         self.mz_label.setText(f"Yaw moment, + bow to port ({label(u.unit('moment'))})")
         stage = c.stage
-        key = (c.stage_index, None if stage is None else stage.goal, u)
-        if key == self._shown_stage:
+        g = None if stage is None else stage.goal
+        key = (c.stage_index, g, u)
+        if key == self._shown_goal:
             return
-        self._shown_stage = key
-        g = stage.goal if stage is not None and stage.goal is not None else None
+        self._shown_goal = key
+        kind = NO_GOAL if g is None else g.kind
         self.kind.blockSignals(True)
-        self.kind.setCurrentIndex(GOAL_KINDS.index(g.kind) if g is not None else 0)
+        self.kind.setCurrentIndex(self.kind.findData(kind))
         self.kind.blockSignals(False)
         for w, v, q in (
             (self.fx, g.fx_n if g else 0.0, "force"),
@@ -170,54 +218,87 @@ class SolvePanel(QWidget):
             (self.mz, g.moment_nm if g else 0.0, "moment"),
         ):
             w.setText(f"{u.value(v, q):.6g}")  # type: ignore[arg-type]
-        self._kind_changed()
+        self._enable_figures(kind)
 
-    def goal(self) -> Goal:
-        """The goal as set in the panel; raises InputError naming a bad field."""
+    def goal(self) -> Goal | None:
+        """The goal as the panel shows it (None: no goal); raises InputError naming a bad
+        field, in the display units."""
+        kind = self.kind.currentData()
+        if kind == NO_GOAL:
+            return None
         u = self.controller.project.units
         vals = []
-        for w, what, q in (
-            (self.fx, "force ahead", "force"),
-            (self.fy, "force to port", "force"),
-            (self.mz, "yaw moment", "moment"),
+        for w, what, q, used in zip(
+            (self.fx, self.fy, self.mz),
+            ("goal force ahead", "goal force to port", "goal yaw moment"),
+            ("force", "force", "moment"),
+            USES[kind],
+            strict=True,
         ):
-            text = w.text().strip().replace(",", ".") or "0"
-            try:
-                v = float(text)
-            except ValueError:
-                raise InputError(what, w.text(), "is not a number") from None
-            if not math.isfinite(v):
-                raise InputError(what, w.text(), "is not a finite number")
-            vals.append(u.si(v, q))  # type: ignore[arg-type]
-        return Goal(self.kind.currentData(), *vals)
+            vals.append(u.si(parse_number(w.text() or "0", what), q) if used else 0.0)  # type: ignore[arg-type]
+        return Goal(kind, *vals)
+
+    def _kind_chosen(self) -> None:
+        self._enable_figures(self.kind.currentData())
+        self._set_goal()
+
+    def _figures_edited(self) -> None:
+        self._set_goal()
+
+    def _set_goal(self) -> None:
+        c = self.controller
+        stage = c.stage
+        if stage is None:
+            return
+        try:
+            goal = self.goal()
+        except TowboardError as e:
+            c.message.emit(f"Goal not changed: {e}")
+            self._shown_goal = None
+            self._sync_goal()
+            return
+        if goal == stage.goal:
+            return
+        what = "no goal" if goal is None else GOAL_WORDS[goal.kind].split(":")[0]
+        c.apply(c.with_stage(replace(stage, goal=goal)), f"Set the goal: {what}")
 
     # -- solving --------------------------------------------------------------------
     def solve(self) -> None:
-        """Fill in the settings for the goal and keep the goal with the stage (one undo step)."""
+        """Set the settings to the pulls solved for the stage's goal (one undo step)."""
         c = self.controller
         stage = c.stage
         if stage is None or not stage.placements:
             c.message.emit("No tugs are placed in this stage.")
             return
-        try:
-            goal = self.goal()
-            new_stage, result = solved_stage(c.project, replace(stage, goal=goal), goal)
-        except TowboardError as e:
-            c.message.emit(f"Pulls not solved: {e}")
+        if stage.goal is None:
+            c.message.emit(
+                "This stage has no goal: choose hold, walk, swing, transit or a given force first."
+            )
             return
-        c.apply(c.with_stage(new_stage), f"Solve pulls ({goal.kind})")
-        if result.feasible:
-            c.message.emit(f"Solved: largest use {result.max_utilisation * 100:.0f} %")
+        r = c.stage_result()
+        solved = [b.solved for b in (r.worked if r is not None else ()) if b.solved is not None]
+        if not solved:
+            notes = [n for b in (r.worked if r is not None else ()) for n in b.notes]
+            c.message.emit("Pulls not solved: " + ("; ".join(notes) or "nothing to solve"))
+            return
+        new = stage
+        for s in solved:
+            new = s.applied_to(new)
+        c.apply(c.with_stage(new), f"Solve pulls ({stage.goal.kind})")
+        worst = max(s.max_utilisation for s in solved)
+        if all(s.feasible for s in solved):
+            c.message.emit(f"Solved: largest use {worst * 100:.0f} %")
         else:
+            missing = next(s for s in solved if not s.feasible)
             c.message.emit(
                 "Goal out of reach: the closest state is set; it "
-                + shortfall_words(result.shortfall, c.project.units)
+                + shortfall_words(missing.shortfall, c.project.units)
             )
 
     def live_filter(
         self, project: Project, results: dict[str, BodyResult] | None = None
     ) -> Project:
-        """The project with the stage shown solved for the panel's goal (live mode).
+        """The project with the stage shown solved for its goal (live mode; no goal, no change).
 
         ``results`` (the drag's fast path) lend the main body's layout, so it is not
         worked out again."""
@@ -226,7 +307,7 @@ class SolvePanel(QWidget):
             return project
         index = min(c.stage_index, len(project.stages) - 1)
         stage = project.stages[index]
-        if not stage.placements:
+        if not stage.placements or stage.goal is None:
             return project
         layout = None
         if results:
@@ -234,7 +315,7 @@ class SolvePanel(QWidget):
             if r is not None:
                 layout = r.layout
         try:
-            new_stage, _ = solved_stage(project, stage, self.goal(), leads=False, layout=layout)
+            new_stage, _ = solved_stage(project, stage, stage.goal, leads=False, layout=layout)
         except TowboardError:
             return project
         return project if new_stage is stage else project.with_stage(new_stage, index)
@@ -246,41 +327,28 @@ class SolvePanel(QWidget):
             self._timer.start()
 
     def recheck(self) -> None:
-        """Solve for the goal as the plan stands, run the tug lost check, collect warnings."""
+        """Show the stage result: the solved pulls, the tug lost check, each tug's notes."""
+        c = self.controller
+        r = c.stage_result()
+        main = r.main if r is not None else None
+        self.result = None if main is None else main.solved
+        self.check = None if main is None else main.tug_lost
+        self._set_notes(tug_notes(r) if r is not None else {})
+        self.outcome.setText(self._outcome_text(main))
+        self._fill_uses(main)
+        self._fill_lost(main)
+
+    def _outcome_text(self, main: StageBody | None) -> str:
         c = self.controller
         stage = c.stage
-        self.result, self.check = None, None
-        notes: dict[str, list[str]] = {}
-        u = c.project.units
-        if stage is None or not stage.placements or not c.project.hulls:
-            self.outcome.setText("Place tugs to solve their pulls.")
-            self._fill_uses()
-            self._fill_lost()
-            self._set_notes(notes)
-            return
-        for b in c.balances().values():
-            for sh in b.shares:
-                if sh.setting > 1 + 1e-9:
-                    notes.setdefault(sh.tug, []).append("over 100 %")
-            for n in b.notices:
-                if n.code == "over_swl":
-                    notes.setdefault(n.subject, []).append("over fitting SWL")
-                elif n.code == "steep_line":
-                    notes.setdefault(n.subject, []).append("steep towline")
-        try:
-            goal = self.goal()
-            self.check = run_tug_lost_check(pulls_problem(c.project, stage, goal=goal))
-            self.result = self.check.full
-        except TowboardError as e:
-            self.outcome.setText(f"Cannot solve: {e}")
-            self._fill_uses()
-            self._fill_lost()
-            self._set_notes(notes)
-            return
-        for tug, swl, bp in _fittings(c.project, stage):
-            if not fitting_suits(swl, bp):  # IMO MSC.1/Circ.1175: SWL S suits BP up to S
-                notes.setdefault(tug, []).append("fitting under-rated for its BP")
+        if stage is None or main is None or not stage.placements:
+            return "Place tugs to solve their pulls."
+        if stage.goal is None:
+            return "No goal set: the pulls as set are shown, not checked. Choose a goal above."
         r = self.result
+        if r is None:
+            return "Cannot solve: " + "; ".join(main.notes)
+        u = c.project.units
         if r.feasible:
             text = (
                 f"The goal can be met: largest use {r.max_utilisation * 100:.0f} %, total pull "
@@ -288,31 +356,22 @@ class SolvePanel(QWidget):
             )
         else:
             text = f"The goal is out of reach: {shortfall_words(r.shortfall, u)}."
-        if r.feasible and not _same_settings(stage, r):
-            text += " The settings on the board differ: press Solve pulls to use these."
-        self.outcome.setText(text)
-        if r.feasible:
-            for case in self.check.cases:
-                if not case.holds:
-                    notes.setdefault(case.tug, []).append("goal fails without it")
-        self._fill_uses()
-        self._fill_lost()
-        self._set_notes(notes)
+        if main.goal_met_as_set is False and r.feasible:
+            text += " The pulls as set miss it: press Solve pulls to use these."
+        return text
 
     def _set_notes(self, notes: dict[str, list[str]]) -> None:
         if notes != self.notes:
             self.notes = notes
             self.notes_changed.emit(notes)
 
-    def _fill_uses(self) -> None:
+    def _fill_uses(self, main: StageBody | None) -> None:
         t = self.uses
         r = self.result
         u = self.controller.project.units
-        shares = [sh for b in self.controller.balances().values() for sh in b.shares]
+        shares = [] if main is None else list(main.balance.shares)
         t.setRowCount(len(shares))
-        solved = {}
-        if r is not None:
-            solved = {p.tug: i for i, p in enumerate(r.problem.placements)}
+        solved = {} if r is None else {p.tug: i for i, p in enumerate(r.problem.placements)}
         for row, sh in enumerate(shares):
             use = sh.pull_n / sh.usable_n if sh.usable_n > 0 else 0.0
             cells = [
@@ -336,13 +395,18 @@ class SolvePanel(QWidget):
                     item.setForeground(FAIL)
                 t.setItem(row, col, item)
 
-    def _fill_lost(self) -> None:
+    def _fill_lost(self, main: StageBody | None) -> None:
         t = self.lost
         c = self.check
         u = self.controller.project.units
+        self.lost_title.setStyleSheet("")
         if c is None:
             t.setRowCount(0)
-            self.lost_title.setText("Tug lost check")
+            self.lost_title.setText(
+                "Tug lost check: needs a goal."
+                if main is not None and main.goal is None
+                else "Tug lost check"
+            )
             return
         if not c.full.feasible:
             t.setRowCount(0)
@@ -377,29 +441,3 @@ class SolvePanel(QWidget):
                     f.setBold(True)
                     item.setFont(f)
                 t.setItem(row, col, item)
-
-
-def _same_settings(stage: Stage, r: PullsResult) -> bool:
-    placed = {p.tug: p.setting for p in stage.placements}
-    return all(
-        abs(placed.get(p.tug, -1.0) - float(s)) < 5e-3
-        for p, s in zip(r.problem.placements, r.utilisation, strict=True)
-    )
-
-
-def _fittings(project: Project, stage: Stage) -> list[tuple[str, float, float]]:
-    """(tug, fitting SWL, tug BP) for every tug on a line point with a rated fitting."""
-    out = []
-    hulls = {h.name: h for h in project.hulls}
-    for p in stage.placements:
-        h = hulls.get(p.hull)
-        if h is None:
-            continue
-        try:
-            f = h.fitting(p.point)
-            bp = project.tug(p.tug).bollard_pull_n
-        except TowboardError:
-            continue
-        if f.kind == "line" and f.swl_n is not None:
-            out.append((p.tug, f.swl_n, bp))
-    return out

@@ -8,7 +8,6 @@ and the field shows the plan's value again.
 
 from __future__ import annotations
 
-import math
 from dataclasses import replace
 
 from PySide6.QtCore import Qt
@@ -28,22 +27,11 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
+from app.formatting import parse_number
 from core.errors import InputError
 from core.mechanics.site import body_pose
 from core.model.plan import STAGE_KINDS, BodyPose, Stage
 from core.units import Quantity, fmt, label
-
-
-def parse_number(text: str, field: str) -> float:
-    """A finite number typed by a person (a comma as the decimal mark is accepted)."""
-    t = text.strip().replace(",", ".")
-    try:
-        v = float(t)
-    except ValueError:
-        raise InputError(field, text, "is not a number") from None
-    if not math.isfinite(v):
-        raise InputError(field, text, "must be finite")
-    return v
 
 
 def _with_unit(field: QWidget, unit: QLabel) -> QWidget:

@@ -1,10 +1,10 @@
-"""The stage list beside the board: the move's stages in order, each with its check.
+"""The stage list beside the board: the move's stages in order, each with its verdict.
 
 Selecting a stage shows it on the board. Add, duplicate, move up and down, rename
-(double-click or F2) and delete are undoable edits through the controller. Each
-row carries the stage's check (core.analysis.checks), recomputed shortly after every change
-(not on every mouse move of a drag): a red mark for a stage that fails, amber for
-warnings, with the notices in the row's tooltip.
+(double-click or F2) and delete are undoable edits through the controller. Each row
+carries the stage's verdict from the one stage result (core.analysis.stage), read again
+shortly after every change (not on every mouse move of a drag): NO-GO in red, CAUTION in
+amber, GO in green, with every reason in the row's tooltip.
 """
 
 from __future__ import annotations
@@ -34,8 +34,8 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
-from core.analysis.checks import StageCheck, check_plan
-from core.errors import InputError
+from core.analysis.stage import StageResult, plan_results
+from core.errors import InputError, TowboardError
 from core.model.stages import add_stage, delete_stage, duplicate_stage, move_stage, rename_stage
 
 FAIL = QColor("#b3261e")
@@ -46,15 +46,18 @@ OK = QColor("#1e6b35")
 CHECK_DELAY_MS = 150
 
 
-def row_mark(check: StageCheck | None) -> str:
-    """✖ fails, ! warnings, ✓ passes, … not checked yet."""
-    if check is None:
-        return "…"
-    return "✖" if check.fails else "!" if check.warnings else "✓"
+#: The mark and the word of each verdict in a row.
+MARKS = {"go": "✓ GO", "caution": "! CAUTION", "no-go": "✖ NO-GO"}
+COLOURS = {"go": OK, "caution": WARN, "no-go": FAIL}
 
 
-def row_text(index: int, check: StageCheck | None, name: str, kind: str) -> str:
-    return f"{row_mark(check)}  {index + 1}. {name}  [{kind}]"
+def row_mark(result: StageResult | None) -> str:
+    """The verdict's mark and word, or … while the stage is being worked out."""
+    return "…" if result is None else MARKS[result.verdict.status]
+
+
+def row_text(index: int, result: StageResult | None, name: str, kind: str) -> str:
+    return f"{index + 1}. {name}  [{kind}]\n{row_mark(result)}"
 
 
 class _NameEditor(QStyledItemDelegate):
@@ -85,7 +88,7 @@ class StageList(QWidget):
     def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
         super().__init__(parent)
         self.controller = controller
-        self.checks: tuple[StageCheck, ...] = ()
+        self.results: tuple[StageResult, ...] = ()
         self._filling = False
         self.setObjectName("stage_list")
         self.list = QListWidget(self)
@@ -141,9 +144,10 @@ class StageList(QWidget):
         return QSize(260, 320)
 
     # -- showing -----------------------------------------------------------------------
-    def _check_of(self, i: int) -> StageCheck | None:
-        if i < len(self.checks) and self.checks[i].stage == self.controller.project.stages[i]:
-            return self.checks[i]
+    def result_of(self, i: int) -> StageResult | None:
+        """The verdict shown for stage ``i``: the stage result of the project as it stands."""
+        if i < len(self.results) and self.results[i].project is self.controller.project:
+            return self.results[i]
         return None
 
     def fill(self) -> None:
@@ -159,17 +163,18 @@ class StageList(QWidget):
                 self.list.addItem(item)
             for i, s in enumerate(stages):
                 item = self.list.item(i)
-                check = self._check_of(i)
-                item.setText(row_text(i, check, s.name, s.kind))
+                result = self.result_of(i)
+                item.setText(row_text(i, result, s.name, s.kind))
                 item.setData(Qt.ItemDataRole.UserRole, s.name)
                 color = None
                 tip = [s.name]
-                if check is not None:
-                    color = FAIL if check.fails else WARN if check.warnings else None
-                    tip += [f"FAILS: {n.message}" for n in check.failures]
-                    tip += [f"Warning: {n.message}" for n in check.warnings]
-                    if not check.notices:
-                        tip.append("No warnings.")
+                if result is not None:
+                    v = result.verdict
+                    color = COLOURS[v.status]
+                    tip.append(v.label)
+                    tip += [f"{r.status.upper()}: {r.text}" for r in v.reasons]
+                    if not v.reasons:
+                        tip.append("Within every limit checked.")
                 item.setForeground(QBrush(color) if color is not None else QBrush())
                 item.setToolTip("\n".join(tip))
             if stages:
@@ -193,27 +198,25 @@ class StageList(QWidget):
 
     def _update_summary(self) -> None:
         stages = self.controller.project.stages
-        checks = [self._check_of(i) for i in range(len(stages))]
+        results = [self.result_of(i) for i in range(len(stages))]
         if not stages:
             self.summary.setText("No stages yet: Add makes the first.")
             return
-        if any(c is None for c in checks):
-            self.summary.setText("Checking the stages…")
+        if any(r is None for r in results):
+            self.summary.setText("Working the stages out…")
             return
-        failing = [c for c in checks if c is not None and c.fails]
-        warned = [c for c in checks if c is not None and c.warnings and not c.fails]
-        if failing:
-            nums = ", ".join(str(c.index + 1) for c in failing)
-            what = f"Stages {nums} fail their" if len(failing) > 1 else f"Stage {nums} fails its"
-            self.summary.setText(f"<span style='color:{FAIL.name()}'>{what} checks.</span>")
-        elif warned:
-            self.summary.setText(
-                f"<span style='color:{WARN.name()}'>All stages pass; {len(warned)} with warnings.</span>"
+        nogo = [r.index + 1 for r in results if r is not None and r.verdict.status == "no-go"]
+        caution = [r.index + 1 for r in results if r is not None and r.verdict.status == "caution"]
+        parts = []
+        if nogo:
+            parts.append(f"<span style='color:{FAIL.name()}'>NO-GO: stage {_nums(nogo)}</span>")
+        if caution:
+            parts.append(
+                f"<span style='color:{WARN.name()}'>CAUTION: stage {_nums(caution)}</span>"
             )
-        else:
-            self.summary.setText(
-                f"<span style='color:{OK.name()}'>Every stage passes its checks.</span>"
-            )
+        if not parts:
+            parts.append(f"<span style='color:{OK.name()}'>Every stage is GO.</span>")
+        self.summary.setText("<br>".join(parts))
 
     def _project_changed(self) -> None:
         self.fill()
@@ -228,13 +231,13 @@ class StageList(QWidget):
         self._update_buttons()
 
     def recheck(self) -> None:
-        """Check every stage now (normally run shortly after a change)."""
+        """Read every stage's result now (normally run shortly after a change)."""
         self._timer.stop()
         try:
-            self.checks = check_plan(self.controller.project)
-        except InputError as e:  # a half-made plan: say so, keep the list usable
-            self.checks = ()
-            self.summary.setText(f"Cannot check the stages: {e}")
+            self.results = plan_results(self.controller.project)
+        except TowboardError as e:  # a half-made plan: say so, keep the list usable
+            self.results = ()
+            self.summary.setText(f"Cannot work the stages out: {e}")
             return
         self.fill()
 
@@ -300,3 +303,7 @@ class StageList(QWidget):
             self.fill()
             return
         self.controller.apply(project, f"Rename stage {old} to {name.strip()}")
+
+
+def _nums(numbers: list[int]) -> str:
+    return ", ".join(str(n) for n in numbers)

@@ -45,6 +45,7 @@ from app.panels.balance_panel import BalancePanel
 from app.panels.hull_panel import HullPanel
 from app.panels.tugs_panel import TugsPanel
 from app.panels.units_panel import UnitsPanel
+from app.panels.verdict_view import VerdictView
 from app.window.outline_dialog import OutlineDialog
 from app.window.plan_ui import install as install_plan
 from app.window.recovery import RecoveryWriter, find_orphans
@@ -135,6 +136,12 @@ class MainWindow(QMainWindow):
         layout = QVBoxLayout(central)
         layout.setContentsMargins(0, 0, 0, 0)
         layout.setSpacing(0)
+        # the stage's verdict in one line above the board (the stage result's own)
+        self.verdict_line = VerdictView(self.controller, brief=True)
+        self.verdict_line.setStyleSheet(
+            "QLabel#verdict_brief { padding: 3px 8px; border-bottom: 1px solid #c9d6e0; }"
+        )
+        layout.addWidget(self.verdict_line)
         layout.addWidget(self.view, 1)
         self.caution = QLabel(f"⚠ {CAUTION_LINE}")
         self.caution.setObjectName("caution")

@@ -18,18 +18,10 @@ from app.board.conditions_layer import ConditionsCard
 from app.panels.conditions import ConditionsPanel
 from app.panels.hold_plot import HoldLimitsPanel
 from app.panels.solve_panel import SolvePanel
-from core.mechanics.balance import Load, TugShare
-from core.mechanics.bodies import Body
-from core.mechanics.loads import body_conditions
-from core.model.plan import Project, Stage
+from core.mechanics.balance import TugShare
 
 if TYPE_CHECKING:
     from app.window.main_window import MainWindow
-
-
-def condition_loads(project: Project, stage: Stage, body: Body) -> tuple[Load, ...]:
-    """The stage's wind and current as loads on ``body`` (a missing area leaves one out)."""
-    return body_conditions(stage, body).loads
 
 
 class SolveUi:
@@ -38,8 +30,6 @@ class SolveUi:
     def __init__(self, window: MainWindow) -> None:
         self.window = window
         c = self.controller = window.controller
-        c.load_providers.append(condition_loads)
-        c.invalidate()
         self.conditions = ConditionsPanel(c)
         self.solve_panel = SolvePanel(c)
         self.hold = HoldLimitsPanel(c)
@@ -82,6 +72,11 @@ class SolveUi:
         f = self.solve_panel.live_filter
         if on and f not in filters:
             filters.append(f)
+            stage = self.controller.stage
+            if stage is not None and stage.goal is None:
+                self.controller.message.emit(
+                    "Live solving waits for a goal: choose one in the Solve pulls panel."
+                )
             self.controller.apply(f(self.controller.project), "Solve pulls (live)")
         elif not on and f in filters:
             filters.remove(f)

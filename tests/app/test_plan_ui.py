@@ -168,7 +168,7 @@ def test_the_briefing_numbers_are_the_boards(window):
     project = window.controller.project
     u = project.units
     for check in check_plan(project):
-        board = window.controller.compute_results(project, check.stage)
+        board = window.controller.results_for(check.index)
         for b in check.balances:
             shown = board[b.body].balance
             assert u.show(shown.net_magnitude, "force") == u.show(b.net_magnitude, "force")

@@ -10,6 +10,7 @@ from PySide6.QtWidgets import QLineEdit
 
 from app.controller import Controller
 from app.panels.stage_list import StageList
+from core.analysis.stage import stage_result
 from core.io.projectfile import load
 from tests.conftest import SAMPLES
 
@@ -35,14 +36,18 @@ def click_row(qtbot, w, row):
     qtbot.mouseClick(w.list.viewport(), Qt.MouseButton.LeftButton, pos=rect.center())
 
 
-def test_rows_follow_the_plan_with_their_checks(panel):
-    _controller, w = panel
+MARK = {"go": "✓ GO", "caution": "! CAUTION", "no-go": "✖ NO-GO"}
+
+
+def test_rows_follow_the_plan_with_their_verdicts(panel):
+    controller, w = panel
     assert w.list.count() == 4
-    for i, c in enumerate(w.checks):
-        mark = "✖" if c.fails else "!" if c.warnings else "✓"
-        assert w.list.item(i).text() == f"{mark}  {i + 1}. {c.name}  [{c.stage.kind}]"
-        for n in c.notices:
-            assert n.message in w.list.item(i).toolTip()
+    for i, r in enumerate(w.results):
+        assert r.verdict is stage_result(controller.project, i).verdict  # the one result
+        text = w.list.item(i).text()
+        assert text == f"{i + 1}. {r.stage.name}  [{r.stage.kind}]\n{MARK[r.verdict.status]}"
+        for reason in r.verdict.reasons:
+            assert reason.text in w.list.item(i).toolTip()
 
 
 def test_clicking_a_row_shows_that_stage(panel, qtbot):
@@ -93,7 +98,7 @@ def test_rename_by_typing_and_a_taken_name_is_refused(panel, qtbot):
     qtbot.keyClicks(editor, "Swing clear of Northern Wren")
     qtbot.keyClick(editor, Qt.Key.Key_Return)  # the view commits the edit on its next turn
     qtbot.waitUntil(lambda: names(controller)[1] == "Swing clear of Northern Wren", timeout=2000)
-    assert w.list.item(1).text().endswith("2. Swing clear of Northern Wren  [swing]")
+    assert w.list.item(1).text().startswith("2. Swing clear of Northern Wren  [swing]")
     controller.undo_stack.undo()
     assert names(controller)[1] == "Swing: bows round to north"
 
@@ -106,19 +111,21 @@ def test_rename_by_typing_and_a_taken_name_is_refused(panel, qtbot):
 
 def test_a_weaker_tug_flags_the_stages_it_fails(panel, qtbot):
     controller, w = panel
-    assert not any(c.fails for c in w.checks)
+    assert not any(r.verdict.status == "no-go" for r in w.results)
     rowan = controller.project.tug("Rowan")
     weak = replace(
         rowan, bollard_pull_n=rowan.bollard_pull_n * 0.2, astern_pull_n=rowan.astern_pull * 0.2
     )
     controller.apply(controller.project.with_tug(weak), "Substitute Rowan")
-    qtbot.waitUntil(lambda: any(c.fails for c in w.checks), timeout=3000)
-    for i, c in enumerate(w.checks):
-        assert w.list.item(i).text().startswith("✖" if c.fails else "!" if c.warnings else "✓")
-        if c.fails:
+    qtbot.waitUntil(lambda: any(r.verdict.status == "no-go" for r in w.results), timeout=3000)
+    nogo = []
+    for i, r in enumerate(w.results):
+        assert w.list.item(i).text().endswith(MARK[r.verdict.status])
+        if r.verdict.status == "no-go":
+            nogo.append(str(i + 1))
             assert w.list.item(i).foreground().color().name() == "#b3261e"
             assert "goal" in w.list.item(i).toolTip()
-    assert "checks." in w.summary.text() and "fail" in w.summary.text()
+    assert f"NO-GO: stage {', '.join(nogo)}" in w.summary.text()
 
 
 def test_an_empty_plan(qtbot):

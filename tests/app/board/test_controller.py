@@ -81,11 +81,14 @@ def test_consecutive_edits_with_one_key_merge(controller: Controller) -> None:
     assert controller.stage.placement("Gannet").setting == 0.45  # the sample's value
 
 
-def test_results_are_the_cores_balance(controller: Controller) -> None:
-    from core.mechanics.balance import analyse
+def test_results_are_the_stage_results_balance(controller: Controller) -> None:
+    from core.analysis.stage import compute_stage_result
 
     b = controller.balance()
-    ref = analyse(controller.project, controller.stage)
-    assert b == ref
+    ref = compute_stage_result(controller.project, 0).main
+    assert ref is not None and b == ref.balance
+    assert [ld.name for ld in b.loads] == ["wind", "current"]  # the stage's conditions
     controller.set_stage_index(1)
-    assert controller.balance() == analyse(controller.project, controller.project.stages[1])
+    ref = compute_stage_result(controller.project, 1).main
+    assert ref is not None and controller.balance() == ref.balance
+    assert controller.stage_result() is controller.stage_result()  # worked out once

@@ -10,8 +10,8 @@ from PySide6.QtGui import QColor, QImage, QPageSize, QPainter, QPdfWriter
 from app.board.render import render_board
 from app.board.scene import BoardScene
 from app.controller import Controller
+from core.analysis.stage import stage_result
 from core.io.projectfile import load
-from core.mechanics.balance import analyse
 from tests.app.board.conftest import SAMPLE
 
 
@@ -25,8 +25,7 @@ def test_a_fixed_stage_scene_draws_that_stage(qtbot, tmp_path: Path) -> None:  #
     c = Controller(load(SAMPLE))
     scene = BoardScene(c, stage_index=1)
     assert c.stage_index == 0  # the controller's own stage is not touched
-    stage = c.project.stages[1]
-    ref = analyse(c.project, stage)
+    ref = stage_result(c.project, 1).body("Kestrel 3").balance
     tugs = scene.bodies["Kestrel 3"].tugs
     for share in ref.shares:
         assert c.project.units.show(share.pull_n, "force") in tugs[share.tug].label.text
@@ -58,6 +57,8 @@ def test_a_pdf_page_gets_readable_labels(qtbot, tmp_path: Path) -> None:  # type
 
     raw = unicodedata.normalize("NFKC", PdfReader(str(pdf)).pages[0].extract_text())
     text = " ".join(raw.split())  # the PDF's text breaks words with tabs
-    net = c.project.units.show(analyse(c.project, c.project.stages[0]).net_magnitude, "force")
+    main = stage_result(c.project, 0).main
+    assert main is not None
+    net = c.project.units.show(main.balance.net_magnitude, "force")
     for name in ("Gannet", "Puffin", "Tern", "BOW", "STERN", f"net force {net}"):
         assert name in text

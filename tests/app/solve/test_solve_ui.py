@@ -122,9 +122,33 @@ def test_the_efficiency_table_dialog_builds_and_refuses(qtbot, monkeypatch) -> N
 # -- solving ----------------------------------------------------------------------------
 
 
+def _choose_goal(qtbot, panel, kind: str) -> None:  # type: ignore[no-untyped-def]
+    """Pick a goal kind in the combo box with the keyboard, as a person would."""
+    box = panel.kind
+    box.setFocus()
+    while box.currentData() != kind:
+        qtbot.keyClick(box, Qt.Key.Key_Down)
+        assert box.currentIndex() < box.count()
+
+
+def test_solve_pulls_without_a_goal_asks_for_one(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = holding.controller
+    panel = holding.solve_ui.solve_panel
+    before = c.project
+    assert c.stage.goal is None
+    with qtbot.waitSignal(c.message, timeout=2000) as sig:
+        qtbot.mouseClick(panel.solve_button, Qt.MouseButton.LeftButton)
+    assert "no goal" in sig.args[0]
+    assert c.project is before
+    panel.recheck()
+    assert panel.outcome.text().startswith("No goal set: the pulls as set")
+
+
 def test_solve_pulls_fills_every_setting_in_one_undo_step(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     c = holding.controller
     panel = holding.solve_ui.solve_panel
+    _choose_goal(qtbot, panel, "hold")
+    assert c.stage.goal == Goal("hold")  # choosing the goal is an edit of the stage
     before = c.project
     steps = c.undo_stack.count()
     qtbot.mouseClick(panel.solve_button, Qt.MouseButton.LeftButton)
@@ -147,8 +171,10 @@ def test_solve_pulls_fills_every_setting_in_one_undo_step(holding, qtbot) -> Non
 def test_a_walk_goal_typed_in_the_display_units(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     c = holding.controller
     panel = holding.solve_ui.solve_panel
-    panel.kind.setCurrentIndex(panel.kind.findData("walk"))
+    _choose_goal(qtbot, panel, "walk")
+    assert not panel.fx.isEnabled() and not panel.mz.isEnabled()  # a walk is sideways only
     _type(qtbot, panel.fy, "10")  # 10 t to port on top of holding the wind
+    assert c.stage.goal == Goal("walk", 0.0, 10 * 9806.65, 0.0)
     panel.solve()
     assert c.stage.goal == Goal("walk", 0.0, 10 * 9806.65, 0.0)
     b = c.balance()
@@ -158,7 +184,7 @@ def test_a_walk_goal_typed_in_the_display_units(holding, qtbot) -> None:  # type
 def test_an_impossible_goal_sets_the_closest_state_and_says_what_is_missing(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     c = holding.controller
     panel = holding.solve_ui.solve_panel
-    panel.kind.setCurrentIndex(panel.kind.findData("walk"))
+    _choose_goal(qtbot, panel, "walk")
     _type(qtbot, panel.fy, "-50")  # 50 t to starboard: nothing pulls that way
     with qtbot.waitSignal(c.message, timeout=2000) as sig:
         panel.solve()
@@ -170,6 +196,7 @@ def test_an_impossible_goal_sets_the_closest_state_and_says_what_is_missing(hold
 def test_live_solving_follows_a_drag(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     c = holding.controller
     ui = holding.solve_ui
+    _choose_goal(qtbot, ui.solve_panel, "hold")  # live solving needs a goal
     ui.solve_panel.live.setChecked(True)
     assert ui.act_live.isChecked()
     view = holding.view
@@ -212,9 +239,10 @@ def test_checks_flag_a_tug_over_100_percent_on_the_board_and_the_table(holding) 
     assert "over 100 %" in model.data(model.index(row, col))
 
 
-def test_tug_lost_table_is_the_cores_check(holding) -> None:  # type: ignore[no-untyped-def]
+def test_tug_lost_table_is_the_cores_check(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     c = holding.controller
     panel = holding.solve_ui.solve_panel
+    _choose_goal(qtbot, panel, "hold")
     panel.recheck()
     ref = tug_lost_check(pulls_problem(c.project, c.stage, goal=Goal("hold")))
     assert ref.full.feasible
@@ -226,7 +254,7 @@ def test_tug_lost_table_is_the_cores_check(holding) -> None:  # type: ignore[no-
         assert ("goal fails without it" in panel.notes.get(case.tug, [])) is (not case.holds)
 
 
-def test_losing_the_big_tug_fails_and_is_flagged(holding) -> None:  # type: ignore[no-untyped-def]
+def test_losing_the_big_tug_fails_and_is_flagged(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     # A 36 m/s wind from the port beam pushes 0.5 * 1.225 * 1.2 * (80 * 4) * 36^2 = 31 t to
     # starboard at the centroid. Without the bow or the quarter tug, the pair cannot pull
     # to port without swinging the barge, and the 25 t pusher amidships is not enough.
@@ -239,6 +267,7 @@ def test_losing_the_big_tug_fails_and_is_flagged(holding) -> None:  # type: igno
         "gale",
     )
     panel = holding.solve_ui.solve_panel
+    _choose_goal(qtbot, panel, "hold")
     panel.recheck()
     assert panel.check is not None and panel.check.full.feasible
     assert "FAILS" in panel.lost_title.text()

@@ -1,0 +1,86 @@
+"""The stage's verdict on screen: GO, CAUTION or NO-GO in its colour, with every reason.
+
+:class:`VerdictView` reads the verdict of the stage shown from the one stage result
+(``controller.stage_result()``) shortly after each change, never during a drag's mouse
+moves (it says "updating" then), and never works anything out itself.
+"""
+
+from __future__ import annotations
+
+from html import escape
+
+from PySide6.QtCore import Qt, QTimer
+from PySide6.QtGui import QColor
+from PySide6.QtWidgets import QLabel, QWidget
+
+from app.controller import Controller
+from core.analysis.verdict import Verdict
+
+#: Colours of the verdicts (chosen for contrast on white, in print and on screen).
+COLOURS = {"go": QColor("#1e6b35"), "caution": QColor("#8a5a00"), "no-go": QColor("#b3261e")}
+#: Delay after the last change before the verdict is read again, ms.
+DELAY_MS = 120
+
+
+def verdict_html(verdict: Verdict, reasons: bool = True, limit: int = 8) -> str:
+    """The verdict as rich text: the status in its colour, then each reason."""
+    colour = COLOURS[verdict.status].name()
+    head = f"<b style='color:{colour}'>{verdict.label}</b>"
+    if not verdict.reasons:
+        return head + " — within every limit checked"
+    if not reasons:
+        first = escape(verdict.reasons[0].text)
+        more = len(verdict.reasons) - 1
+        return head + f" — {first}" + (f" (and {more} more)" if more else "")
+    items = []
+    for r in verdict.reasons[:limit]:
+        c = COLOURS[r.status].name()
+        items.append(f"<li><span style='color:{c}'>{r.status.upper()}</span> {escape(r.text)}</li>")
+    more = len(verdict.reasons) - limit
+    if more > 0:
+        items.append(f"<li>… and {more} more (see the stage list)</li>")
+    return head + "<ul style='margin-left:-24px'>" + "".join(items) + "</ul>"
+
+
+class VerdictView(QLabel):
+    """A label showing the verdict of the stage on the board (``brief``: one line)."""
+
+    def __init__(
+        self, controller: Controller, brief: bool = False, parent: QWidget | None = None
+    ) -> None:
+        super().__init__(parent)
+        self.controller = controller
+        self.brief = brief
+        self.verdict: Verdict | None = None
+        self._stale = False
+        self.setObjectName("verdict_brief" if brief else "verdict")
+        self.setTextFormat(Qt.TextFormat.RichText)
+        self.setWordWrap(not brief)
+        self.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+        self._timer = QTimer(self)
+        self._timer.setSingleShot(True)
+        self._timer.setInterval(DELAY_MS)
+        self._timer.timeout.connect(self.refresh)
+        controller.changed.connect(self._changed)
+        self.refresh()
+
+    def _changed(self) -> None:
+        if self.controller.previewing:
+            if self.verdict is not None and not self._stale:
+                self._stale = True
+                self.setText(self.text() + " <i style='color:#607d8b'>(updating…)</i>")
+            return
+        self._timer.start()
+
+    def refresh(self) -> None:
+        self._timer.stop()
+        self._stale = False
+        r = self.controller.stage_result()
+        self.verdict = None if r is None else r.verdict
+        if r is None:
+            self.setText("No stage.")
+            self.setToolTip("")
+            return
+        prefix = f"Stage {r.index + 1}: " if self.brief else ""
+        self.setText(prefix + verdict_html(r.verdict, reasons=not self.brief))
+        self.setToolTip("\n".join(f"{x.status.upper()}: {x.text}" for x in r.verdict.reasons))
