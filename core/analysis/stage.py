@@ -22,7 +22,7 @@ from dataclasses import dataclass
 from core.analysis.verdict import Verdict, judge
 from core.errors import TowboardError
 from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout, tug_layout
-from core.mechanics.bodies import Body, body_name_of_hull, body_of
+from core.mechanics.bodies import Body, body_name_of_hull, body_of, stage_body
 from core.mechanics.clearance import Clearance, stage_clearances
 from core.mechanics.fittings import FittingLoad, fitting_loads
 from core.mechanics.loads import ConditionLoads, body_conditions
@@ -154,6 +154,12 @@ def body_balance(
     layout = tug_layout(project, stage, body)
     cond = body_conditions(stage, body)
     return layout, cond, analyse_layout(stage, body, layout, project.units, cond.loads)
+
+
+def balance_of(project: Project, stage: Stage, body: str | None = None) -> Balance:
+    """The balance of ``body`` (default: the body the first tug works on) in ``stage``, a
+    stage value that need not be in the project (a what-if): :func:`body_balance`'s."""
+    return body_balance(project, stage, stage_body(project, stage, body))[2]
 
 
 def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> BodyResult:

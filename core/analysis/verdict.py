@@ -18,7 +18,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Literal
 
-from core.frames import turning_words
+from core.frames import angle_to_bearing, turning_words
 from core.mechanics.clearance import Clearance, clearance_notices
 from core.model.goals import GOAL_WORDS
 from core.model.plan import Project, Stage
@@ -44,6 +44,7 @@ NO_GO_CODES = frozenset(
         "setting_over",
         "push_outward",
         "fitting_over_rating",
+        "outside_permitted_angles",
         "low_clearance",
         "conditions_over_limit",
         "wind_over_hold_limit",
@@ -179,6 +180,17 @@ def _fitting_reasons(b: BodyResult, u: DisplayUnits) -> list[Reason]:
                     f.tug,
                 )
             )
+        if not f.lead_permitted and f.permitted_lead_rad is not None:
+            lo, hi = f.permitted_lead_rad
+            out.append(
+                reason(
+                    "outside_permitted_angles",
+                    f"{f.tug}: towline leads at {_bearing(f.lead_rad)} relative, outside the "
+                    f"line angles {f.point} is rated for ({_bearing(hi)} to {_bearing(lo)} "
+                    "clockwise)",
+                    f.tug,
+                )
+            )
         if f.suits_tug is False and f.rating_n is not None:
             out.append(
                 reason(
@@ -190,6 +202,11 @@ def _fitting_reasons(b: BodyResult, u: DisplayUnits) -> list[Reason]:
                 )
             )
     return out
+
+
+def _bearing(angle_rad: float) -> str:
+    """A hull-frame angle as a three-digit relative bearing: "045°"."""
+    return f"{round(angle_to_bearing(angle_rad)) % 360:03d}°"
 
 
 def _sides(fx: float, fy: float, tol: float) -> str:

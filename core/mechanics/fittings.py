@@ -57,6 +57,9 @@ class FittingLoad:
     rating_label: str  # "TOW", "SWL" or "" (no rating)
     bollard_pull_n: float
     suits_tug: bool | None
+    lead_rad: float = 0.0  # the towline's lead, hull frame (line points)
+    permitted_lead_rad: tuple[float, float] | None = None  # the fitting's rated leads
+    lead_permitted: bool = True  # the lead is within the permitted line angles (or none given)
 
     @property
     def tension_n(self) -> float | None:
@@ -101,6 +104,9 @@ def fitting_loads(project: Project, body: Body, layout: TugLayout) -> tuple[Fitt
                 suits_tug=None
                 if push or rating is None
                 else fitting_suits(rating, tug.bollard_pull_n),
+                lead_rad=p.lead_rad,
+                permitted_lead_rad=None if push else fitting.permitted_lead_rad,
+                lead_permitted=push or fitting.permits_lead(p.lead_rad),
             )
         )
     return tuple(out)

@@ -18,17 +18,15 @@ from the centroid crossed with the load.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 
 import numpy as np
 
 from core.errors import InputError
-from core.frames import angle_to_bearing
-from core.mechanics.balance import Balance, Load, analyse_layout, tug_layout
-from core.mechanics.bodies import Body, stage_body
-from core.mechanics.usable import fitting_suits
+from core.mechanics.balance import Load
+from core.mechanics.bodies import Body
 from core.model.conditions import Conditions
-from core.model.plan import Project, Stage
+from core.model.plan import Stage
 from core.notices import Notice
 
 #: Hoerner, Fluid-Dynamic Drag: beam-on cross-flow drag of a 2-D rectangular section
@@ -298,64 +296,3 @@ def loads_wrench(loads: tuple[Load, ...], centroid: tuple[float, float]) -> np.n
         dx, dy = ld.point[0] - centroid[0], ld.point[1] - centroid[1]
         out += (fx, fy, dx * fy - dy * fx + ld.moment_nm)
     return out
-
-
-def analyse_stage(project: Project, stage: Stage, body: str | None = None) -> Balance:
-    """The balance of a body with its tugs *and* the stage's wind and current.
-
-    Missing areas do not stop it: the load is left out and a notice says so.
-    """
-    b = stage_body(project, stage, body)
-    cond = body_conditions(stage, b)
-    bal = analyse_layout(stage, b, tug_layout(project, stage, b), project.units, cond.loads)
-    extra = cond.notices + fitting_notices(project, stage, b)
-    return replace(bal, notices=bal.notices + extra) if extra else bal
-
-
-def fitting_notices(project: Project, stage: Stage, body: Body) -> tuple[Notice, ...]:
-    """Line points not fit for the tug made fast there.
-
-    - ``fitting_under_rated``: the fitting's towing rating (TOW, else SWL) is below the
-      tug's bollard pull (IMO MSC.1/Circ.1175: a fitting of rating S suits tugs of bollard
-      pull up to S).
-    - ``outside_permitted_angles``: the towline leads outside the directions the fitting
-      is rated for.
-    """
-    out = []
-    members = {m.hull.name for m in body.members}
-    u = project.units
-    for p in stage.placements:
-        if p.hull not in members:
-            continue
-        fitting = body.fitting(p.hull, p.point)[1]
-        if fitting.kind != "line":
-            continue
-        tug = project.tug(p.tug)
-        rating = fitting.towing_rating_n
-        if rating is not None and not fitting_suits(rating, tug.bollard_pull_n):
-            out.append(
-                Notice(
-                    "fitting_under_rated",
-                    p.tug,
-                    f"{p.tug}: bollard pull {u.show(tug.bollard_pull_n, 'force')} is above "
-                    f"the {fitting.rating_label} {u.show(rating, 'force')} of {p.point}; "
-                    "the fitting is not rated for this tug",
-                )
-            )
-        if not fitting.permits_lead(p.lead_rad):
-            lo, hi = fitting.permitted_lead_rad or (0.0, 0.0)
-            out.append(
-                Notice(
-                    "outside_permitted_angles",
-                    p.tug,
-                    f"{p.tug}: towline leads at {_bearing(p.lead_rad)} relative, outside the "
-                    f"line angles {p.point} is rated for ({_bearing(hi)} to {_bearing(lo)} "
-                    "clockwise)",
-                )
-            )
-    return tuple(out)
-
-
-def _bearing(angle_rad: float) -> str:
-    """A hull-frame angle as a three-digit relative bearing: "045°"."""
-    return f"{round(angle_to_bearing(angle_rad)) % 360:03d}°"

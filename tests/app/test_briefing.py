@@ -13,8 +13,8 @@ import pypdf
 import pytest
 
 from core.analysis.checks import check_plan
+from core.analysis.stage import balance_of
 from core.io.projectfile import load
-from core.mechanics.loads import analyse_stage
 from core.model.tugs import Tug
 from core.units import DisplayUnits
 
@@ -85,7 +85,7 @@ def test_every_tug_and_assigned_pull_of_every_stage_is_the_core_value(twin_pdf):
         assert check.balances
         for b in check.balances:
             # the briefing's stage balance is the one the board shows (tugs with conditions)
-            assert b == analyse_stage(project, check.stage, b.body)
+            assert b == balance_of(project, check.stage, b.body)
             for sh in b.shares:
                 row = (
                     re.escape(f"{sh.tug} {sh.hull}: {sh.point} ")

@@ -8,11 +8,11 @@ from dataclasses import replace
 import pytest
 import shapely
 
+from core.analysis.stage import balance_of
 from core.errors import InputError
 from core.mechanics.bodies import body_of
 from core.mechanics.loads import (
     HOERNER_CROSS_FLOW,
-    analyse_stage,
     condition_loads,
     current_model,
     drag_force,
@@ -206,7 +206,7 @@ def test_lashed_pair_areas_add_without_shielding() -> None:
 def test_balance_with_conditions_includes_the_loads() -> None:
     hull = box_hull("Barge", 80.0, 20.0, freeboard_m=4.0, draught_m=3.0)
     project, stage = _project(hull, 0.0, Conditions(wind_speed_ms=20.0, wind_from_deg=90.0))
-    bal = analyse_stage(project, stage)
+    bal = balance_of(project, stage)
     assert bal.net_force == pytest.approx((0.0, 245.0 * 1.2 * 320.0), abs=1e-6)
     assert [ld.name for ld in bal.loads] == ["wind"]
 

@@ -225,8 +225,8 @@ def test_a_pull_over_the_tow_names_tow() -> None:
     # Gannet at 40 % of 50 t x efficiency pulls about 20 t; a TOW of 10 t is exceeded.
     plan = _with_bow(two_tug_plan(), tow_n=10 * TF)
     notes = check_stage(plan, 2).notices
-    msg = next(n.message for n in notes if n.code == "over_swl")
-    assert "over the TOW 10.0 t of fitting bow" in msg
+    msg = next(n.message for n in notes if n.code == "fitting_over_rating")
+    assert "is over the TOW 10.0 t of bow" in msg
 
 
 def test_a_towline_outside_the_permitted_angles_is_warned() -> None:

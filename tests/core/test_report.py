@@ -15,9 +15,9 @@ import numpy as np
 import pytest
 import shapely
 
+from core.analysis.stage import balance_of
 from core.io.projectfile import load
 from core.io.report import report_json, report_text
-from core.mechanics.loads import analyse_stage
 
 ROOT = Path(__file__).resolve().parents[2]
 TF = 9806.65  # N per tonne-force (NIST SP 811)
@@ -155,7 +155,7 @@ def test_report_json_numbers_are_the_cores() -> None:
         project = load(path)
         rep = report_json(project)
         for s, out in zip(project.stages, rep["stages"], strict=True):
-            b = analyse_stage(project, s)  # the tugs with the stage's wind and current
+            b = balance_of(project, s)  # the tugs with the stage's wind and current
             assert out["balance"]["yaw_moment_about_centroid_Nm"] == b.moment_centroid_nm
             assert [t["assigned_pull_N"] for t in out["balance"]["tugs"]] == [
                 sh.pull_n for sh in b.shares

@@ -11,8 +11,8 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.optimize import linprog
 
+from core.analysis.stage import balance_of
 from core.errors import InputError
-from core.mechanics.loads import analyse_stage
 from core.model.conditions import Conditions
 from core.model.goals import Goal, goal_from_parts
 from core.model.plan import BodyPose, Project, Stage
@@ -163,7 +163,7 @@ def test_laws_of_any_solve(
         assert abs(r.net[2] - target[2]) <= tol_m
         if kind == "hold":
             # A solved hold leaves tugs plus conditions at zero: check through the balance.
-            bal = analyse_stage(project, r.applied_to(stage))
+            bal = balance_of(project, r.applied_to(stage))
             assert np.abs(bal.net_force).max() <= tol_f
             assert abs(bal.moment_centroid_nm) <= tol_m
     else:
@@ -245,7 +245,7 @@ def test_lead_sector_is_solved_within_the_sector() -> None:
     assert r.feasible
     assert r.leads_rad == pytest.approx([-math.pi / 2, -math.pi / 2], abs=1e-6)
     assert r.pulls_n == pytest.approx([15 * TF, 15 * TF], rel=1e-6)
-    bal = analyse_stage(project, r.applied_to(stage))
+    bal = balance_of(project, r.applied_to(stage))
     assert bal.net_force == pytest.approx((0.0, -30 * TF), abs=1e-3)
     assert bal.moment_centroid_nm == pytest.approx(0.0, abs=1e-2)
 

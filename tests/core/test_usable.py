@@ -7,10 +7,10 @@ from dataclasses import replace
 
 import pytest
 
+from core.analysis.stage import stage_result
 from core.errors import InputError
 from core.mechanics.balance import analyse, tug_layout
 from core.mechanics.bodies import body_of
-from core.mechanics.loads import analyse_stage
 from core.mechanics.usable import (
     fitting_design_load_n,
     fitting_suits,
@@ -141,6 +141,8 @@ def test_under_rated_fitting_is_flagged_on_the_stage() -> None:
     bow = hull.fitting("bow")
     small = Fitting(bow.name, bow.kind, bow.x, bow.y, swl_n=40 * TF)
     project = project.with_hull(hull.with_fitting(small))
-    notes = analyse_stage(project, stage).notices
-    assert [n.code for n in notes if n.code == "fitting_under_rated"] == ["fitting_under_rated"]
-    assert "Gannet" in next(n.message for n in notes if n.code == "fitting_under_rated")
+    project = replace(project, stages=(stage,))
+    reasons = stage_result(project, 0).verdict.reasons
+    (r,) = [r for r in reasons if r.code == "fitting_under_rated"]
+    assert r.subject == "Gannet" and r.status == "caution"
+    assert "bollard pull 50.0 t is above the SWL 40.0 t of bow" in r.text

@@ -13,8 +13,9 @@ from PySide6.QtWidgets import QMessageBox
 from app.board.conditions_layer import draw_conditions_card
 from app.panels.conditions import EfficiencyDialog
 from app.panels.hold_plot import ALL_TUGS
+from core.analysis.stage import balance_of
 from core.mechanics.bodies import body_of
-from core.mechanics.loads import analyse_stage, body_conditions
+from core.mechanics.loads import body_conditions
 from core.model.goals import Goal
 from core.solve.holdlimits import hold_limits, hold_limits_problem
 from core.solve.pulls import pulls_problem, solve_pulls, tug_lost_check
@@ -81,7 +82,7 @@ def test_an_area_is_entered_and_cleared_back_to_auto(window, qtbot) -> None:  # 
 def test_the_wind_and_current_are_loads_in_the_balance(window) -> None:  # type: ignore[no-untyped-def]
     c = window.controller
     b = c.balance()
-    ref = analyse_stage(c.project, c.stage, b.body)
+    ref = balance_of(c.project, c.stage, b.body)
     assert [ld.name for ld in b.loads] == ["wind", "current"]
     assert b.net_force == pytest.approx(ref.net_force, rel=1e-12)
     assert b.moment_centroid_nm == pytest.approx(ref.moment_centroid_nm, rel=1e-12)
@@ -213,7 +214,7 @@ def test_live_solving_follows_a_drag(holding, qtbot) -> None:  # type: ignore[no
         for p, s in zip(ref.problem.placements, ref.utilisation, strict=True):
             assert stage.placement(p.tug).setting == pytest.approx(float(s), abs=1e-9)
         # The board's balance (patched on the drag's fast path) is the core's for this value.
-        b, core_b = c.balance(), analyse_stage(c.project, stage, "Barge")
+        b, core_b = c.balance(), balance_of(c.project, stage, "Barge")
         assert b.net_force == pytest.approx(core_b.net_force, rel=1e-9, abs=1e-6)
         assert b.moment_centroid_nm == pytest.approx(core_b.moment_centroid_nm, rel=1e-9, abs=1e-4)
         assert [sh.pull_n for sh in b.shares] == pytest.approx([sh.pull_n for sh in core_b.shares])
