@@ -35,8 +35,8 @@ COMMANDS: dict[str, str] = {
     "report": "app.cli:report_command",
     "check": "app.cli:check_command",
     "brief": "app.briefing.cli:brief_command",
-    "import-outline": "app.drawings.commands:import_outline_command",
-    "export": "app.drawings.commands:export_command",
+    "import-outline": "app.cli:import_outline_command",
+    "export": "app.cli:export_command",
 }
 
 
@@ -122,6 +122,18 @@ def check_command(argv: Sequence[str]) -> int:
         else:
             print("Every stage is go.")
     return 1 if not_go or not results else 0
+
+
+def import_outline_command(argv: Sequence[str]) -> int:
+    from app.drawings.commands import run
+
+    return run("import-outline", list(argv))
+
+
+def export_command(argv: Sequence[str]) -> int:
+    from app.drawings.commands import run
+
+    return run("export", list(argv))
 
 
 def _open_window(file: str | None) -> int:
