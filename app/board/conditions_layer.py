@@ -14,8 +14,8 @@ from __future__ import annotations
 
 import math
 
-from PySide6.QtCore import QPointF, QRectF, Qt
-from PySide6.QtGui import QColor, QPainter, QPen, QPixmap, QPolygonF
+from PySide6.QtCore import QPointF, QRectF, QSizeF, Qt
+from PySide6.QtGui import QColor, QFontMetricsF, QPainter, QPen, QPixmap, QPolygonF
 
 from app.board.view import BoardView
 from app.paint import style
@@ -104,12 +104,22 @@ def draw_conditions_card(
     return rect
 
 
+def card_height() -> float:
+    """The card's height in pixels (its two lines of text under the rose)."""
+    return 84.0 + QFontMetricsF(style.label_font(8.5, True)).height() * 2
+
+
 class ConditionsCard:
-    """Draws the stage's wind and current on a BoardView, under the north arrow."""
+    """Draws the stage's wind and current on a BoardView, in a corner it leaves free.
+
+    The view puts the card in the first corner that covers no item (under the north
+    arrow if it can) and keeps the labels off it (:meth:`BoardView.choose_corner`).
+    """
 
     def __init__(self, view: BoardView) -> None:
         self.view = view
         self.rect = QRectF()
+        view.corner_size = QSizeF(CARD_WIDTH + 2, card_height())
         view.foreground_hooks.append(self.paint)
         view.board.controller.changed.connect(self._changed)
         self._key: object = None
@@ -145,6 +155,9 @@ class ConditionsCard:
             )
             q.end()
             self._pixmap, self._pixmap_key = pm, key
-        x, y = width - 10 - CARD_WIDTH - 1, 84
-        p.drawPixmap(int(x), y, self._pixmap)
+        corner = self.view.corner_rect
+        if corner.isNull():
+            corner = QRectF(width - 10 - CARD_WIDTH - 2, 86, CARD_WIDTH + 2, card_height())
+        x, y = round(corner.left()), round(corner.top())
+        p.drawPixmap(x, y, self._pixmap)
         self.rect = self._card.translated(x, y)

@@ -17,6 +17,7 @@ from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
 from app.board.items import (
     CACHE,
+    GUIDE,
     NO_CACHE,
     ROLE,
     Arrow,
@@ -103,6 +104,10 @@ class HullDrawing:
         )
         for item in (self.bow, self.stern, self.port, self.stbd, self.name):
             item.setZValue(Z_LABEL)
+        for item in (self.bow, self.stern, self.name):
+            item.on_hull = True  # they name the hull: on it is their place
+            item.priority = 6
+        self.port.priority = self.stbd.priority = 5
         self.reference = Mark("reference", self.frame, 10)
         self.reference.setZValue(Z_FITTING)
         self.reference.setToolTip("Reference point: the hull frame's origin")
@@ -187,6 +192,7 @@ class HullDrawing:
                 mark.setZValue(Z_FITTING)
                 lab = Label("", self.frame, style.LINE_POINT, style.label_font(8), (9, 12))
                 lab.setZValue(Z_LABEL)
+                lab.priority = 3
                 lab.setVisible(False)
                 self.fittings[f.name] = (mark, lab)
             mark, lab = self.fittings[f.name]
@@ -278,6 +284,7 @@ class TugDrawing:
         self.glyph.setCacheMode(CACHE)  # a drag redraws only the tug that moves
         self.label = Label("", root, style.TEXT, style.label_font(8.5), (0, 0), "centre")
         self.label.setZValue(Z_LABEL)
+        self.label.priority = 1
         self._key: tuple[object, ...] | None = None
         self._selected = False
 
@@ -321,10 +328,13 @@ class TugDrawing:
         length = share.pull_n * force_scale
         arrow = (point, (point[0] + dx * length, point[1] + dy * length)) if length > 1e-6 else None
         self.glyph.set_geometry(towline, glyph, arrow, head)
-        # the label sits just beyond the tug, away from the hull
-        lx, ly = tug_label_anchor(share.mode, origin, direction)
+        # the label sits just beyond the tug's far end, away from the hull
+        lx, ly = tug_label_anchor(share.mode, origin, direction, gap=0.0)
         self.label.setPos(lx, ly)
         self.label.set_text(text(share))
+        away = direction if share.mode == "line" else (-dx, -dy)
+        a = math.radians(_screen_angle(self.label.parentItem(), away))
+        self.label.set_outward(math.cos(a), math.sin(a), 4.0)
 
     def set_dragging(self, on: bool) -> None:
         """While dragged, the tug is drawn directly: a pixmap cache would be remade every move."""
@@ -369,6 +379,10 @@ class BalanceDrawing:
         for lab in (self.net_label, self.moment_label, self.cross_label, self.state, self.stale):
             lab.setZValue(Z_LABEL)
             lab.setCacheMode(NO_CACHE)  # their text changes on every move of a drag
+        self.state.priority = self.stale.priority = 0
+        self.net_label.priority = self.moment_label.priority = 2
+        self.cross_label.priority = 4
+        self.action.setData(GUIDE, True)  # it runs across the board
         self.loads: list[tuple[Arrow, Label]] = []
         self._moment_label_key: tuple[float, str] | None = None
 
@@ -491,6 +505,7 @@ class BalanceDrawing:
                 "", self.root, style.LOAD_FORCE, style.label_font(8.5, True), (0, -12), "centre"
             )
             lab.setZValue(Z_LABEL)
+            lab.priority = 3
             self.loads.append((a, lab))
         for (a, lab), ld in zip(self.loads, balance.loads, strict=True):
             px, py = ld.point
@@ -541,6 +556,8 @@ class BodyDrawing:
         self.root.setRotation(site_angle_deg)
         for h in self.hulls.values():
             h.refresh_screen_angles()
+        for t in self.tugs.values():
+            t._key = None  # the labels' side on screen turned with the body
 
     def set_body(self, body: Body) -> None:
         self.body = body

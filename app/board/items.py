@@ -42,6 +42,9 @@ from app.paint.symbols import draw_centroid, draw_cog, draw_crossing, polygon, p
 
 #: Key of the item data slot that says what an item stands for, e.g. ("tug", "Gannet").
 ROLE = 0
+#: Key of the item data slot set True on a guide that runs across the board (the line of
+#: action, a quay face, a limit): the conditions card may lie over it.
+GUIDE = 1
 
 IGNORES = QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations
 #: Fixed-size items are kept as pixmaps on screen (render_board turns this off to print).
@@ -66,9 +69,17 @@ class Label(QGraphicsItem):
         self._font = font or style.label_font()
         self._color = color
         self._offset = offset
+        self._outward: tuple[float, float, float] | None = None
         self._align = align
         self._lines: list[str] = []
         self._rect = QRectF()
+        #: Where the label placer moved the box from its home (px, y down).
+        self._shift = (0.0, 0.0)
+        self._leader: Leader | None = None
+        #: Placing order: lower is placed first and moves least (see app.board.placement).
+        self.priority = 5
+        #: True for a label that belongs on its hull (a name, BOW): the hull is no obstacle.
+        self.on_hull = False
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
         self.setCacheMode(CACHE)
         self.set_text(text)
@@ -78,24 +89,30 @@ class Label(QGraphicsItem):
         return "\n".join(self._lines)
 
     def set_outward(self, ux: float, uy: float, gap: float = 5.0) -> None:
-        """Centre the label just clear of its anchor in screen direction (ux, uy), y down."""
-        fm = QFontMetricsF(self._font)
-        w = 1.06 * max((fm.horizontalAdvance(s) for s in self._lines), default=0.0) + 6
-        h = fm.height() * max(len(self._lines), 1) + 4
-        self._align = "centre"
-        self.set_offset((ux * (w / 2 + gap), uy * (h / 2 + gap)))
+        """Centre the label just clear of its anchor in screen direction (ux, uy), y down.
+
+        The box stays clear as its text changes (it is worked out with the text's size).
+        """
+        outward = (ux, uy, gap)
+        if outward != self._outward or self._align != "centre":
+            self._outward = outward
+            self._align = "centre"
+            self._relayout()
 
     def set_align(self, align: str) -> None:
         if align != self._align:
             self._align = align
-            lines, self._lines = self._lines, []
-            self.set_text("\n".join(lines))
+            self._relayout()
 
     def set_offset(self, offset: tuple[float, float]) -> None:
-        if offset != self._offset:
+        if offset != self._offset or self._outward is not None:
             self._offset = offset
-            lines, self._lines = self._lines, []
-            self.set_text("\n".join(lines))
+            self._outward = None
+            self._relayout()
+
+    def _relayout(self) -> None:
+        lines, self._lines = self._lines, []
+        self.set_text("\n".join(lines))
 
     def set_text(self, text: str) -> None:
         lines = text.split("\n") if text else []
@@ -107,17 +124,63 @@ class Label(QGraphicsItem):
         # a little spare width: printers' font metrics run wider than the screen's
         w = 1.06 * max((fm.horizontalAdvance(s) for s in lines), default=0.0)
         h = fm.height() * len(lines)
-        dx, dy = self._offset
+        if self._outward is not None:
+            ux, uy, gap = self._outward
+            dx, dy = ux * ((w + 6) / 2 + gap), uy * ((h + 4) / 2 + gap)
+        else:
+            dx, dy = self._offset
         if self._align == "right":
             dx -= w + 6
         elif self._align == "centre":
             dx -= (w + 6) / 2
-        self._rect = QRectF(dx, dy - h / 2 - 2, w + 6, h + 4)
+        self._rect = QRectF(dx, dy - h / 2 - 2, w + 6, h + 4).translated(*self._shift)
+        self._aim_leader()
         self.update()
+
+    def home_rect(self) -> QRectF:
+        """The box where its owner put it, before the placer moved it (px from the anchor)."""
+        return self._rect.translated(-self._shift[0], -self._shift[1])
+
+    @property
+    def shift(self) -> tuple[float, float]:
+        return self._shift
+
+    def set_shift(self, dx: float, dy: float) -> None:
+        """Move the box (dx, dy) px from its home; a leader joins a box moved off its anchor."""
+        if (dx, dy) == self._shift:
+            return
+        self.prepareGeometryChange()
+        home = self.home_rect()
+        self._shift = (dx, dy)
+        self._rect = home.translated(dx, dy)
+        self._aim_leader()
+        self.update()
+
+    def _aim_leader(self) -> None:
+        far = self._shift != (0.0, 0.0) and not self._rect.adjusted(-12, -12, 12, 12).contains(
+            QPointF(0, 0)
+        )
+        if not far:
+            if self._leader is not None:
+                self._leader.setVisible(False)
+            return
+        if self._leader is None:
+            self._leader = Leader(self)
+        r = self._rect
+        near = QPointF(min(max(0.0, r.left()), r.right()), min(max(0.0, r.top()), r.bottom()))
+        self._leader.set_line(near, self._color)
+        self._leader.setVisible(True)
+
+    @property
+    def leader(self) -> Leader | None:
+        """The line from the anchor to the moved box (None or hidden when not moved far)."""
+        return self._leader
 
     def set_color(self, color: QColor) -> None:
         if color != self._color:
             self._color = color
+            if self._leader is not None:
+                self._leader.set_line(self._leader.end, color)
             self.update()
 
     def boundingRect(self) -> QRectF:
@@ -141,6 +204,35 @@ class Label(QGraphicsItem):
         for s in self._lines:
             painter.drawText(QPointF(self._rect.left() + 3, y), s)
             y += fm.height()
+
+
+class Leader(QGraphicsItem):
+    """A thin line from a label's anchor (its parent's origin) to its moved box, in pixels."""
+
+    def __init__(self, parent: QGraphicsItem) -> None:
+        super().__init__(parent)
+        self.end = QPointF()
+        self._pen = QPen(style.MUTED, 1.0)
+        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+
+    def set_line(self, end: QPointF, color: QColor) -> None:
+        self.prepareGeometryChange()
+        self.end = QPointF(end)
+        self._pen = QPen(color, 1.0)
+        self.update()
+
+    def boundingRect(self) -> QRectF:
+        return QRectF(QPointF(0, 0), self.end).normalized().adjusted(-3, -3, 3, 3)
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        k = style.device_scale(painter)
+        if k != 1.0:
+            painter.scale(k, k)
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        painter.setPen(self._pen)
+        painter.drawLine(QPointF(0, 0), self.end)
 
 
 class Mark(QGraphicsItem):
@@ -279,6 +371,10 @@ class _ArrowItem(QGraphicsItem):
     def boundingRect(self) -> QRectF:
         return self._rect
 
+    def parts(self) -> tuple[QPainterPath, QPolygonF]:
+        """The shaft and the head, in the parent's frame (m)."""
+        return self._shaft, self._head
+
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -370,6 +466,19 @@ class TugItem(QGraphicsItem):
             self._shaft, self._head = QPainterPath(), QPolygonF()
         self._rect = rect.adjusted(-1.0, -1.0, 1.0, 1.0)
         self.update()
+
+    @property
+    def glyph(self) -> QPolygonF:
+        """The tug's outline in the body frame, m."""
+        return self._glyph
+
+    @property
+    def towline(self) -> QLineF | None:
+        return self._towline
+
+    def arrow_parts(self) -> tuple[QPainterPath, QPolygonF]:
+        """The force arrow's shaft and head in the body frame, m (empty when no pull)."""
+        return self._shaft, self._head
 
     def set_selected(self, on: bool) -> None:
         self._edge_pen = style.pen(style.SELECTION if on else style.TUG_EDGE, 2.6 if on else 1.3)

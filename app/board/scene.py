@@ -78,6 +78,7 @@ class BoardScene(QGraphicsScene):
             (0, 0),
             "centre",
         )
+        self._hint.priority = 0
         self.addItem(self._hint)
         self.turn_handle = TurnHandle()
         self.addItem(self.turn_handle)

@@ -13,7 +13,7 @@ from PySide6.QtCore import QPointF, Qt
 from PySide6.QtGui import QPainterPath, QPolygonF
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsLineItem, QGraphicsPathItem
 
-from app.board.items import Label
+from app.board.items import GUIDE, Label
 from app.board.scene import BoardScene
 from app.paint import style
 from core.mechanics.bodies import body_of
@@ -82,8 +82,10 @@ class SiteLayer:
             item.setData(0, ("site", f.name))
             if f.kind == "quay":
                 item.setPen(style.pen(QUAY, 4.0))
+                item.setData(GUIDE, True)
             elif f.kind == "limit":
                 item.setPen(style.pen(LIMIT, 1.3, Qt.PenStyle.DashLine))
+                item.setData(GUIDE, True)
             else:
                 item.setPen(style.pen(QUAY, 1.0))
                 item.setBrush(style.brush(VESSEL_FILL if f.kind == "vessel" else DOLPHIN_FILL))
@@ -91,6 +93,7 @@ class SiteLayer:
             lab = Label(f.name, None, style.MUTED, style.label_font(8.0), (0.0, -10.0), "centre")
             lab.setPos(*label_point(f))
             lab.setZValue(Z_SITE + 0.5)
+            lab.priority = 8
             self.scene.addItem(lab)
             self.features.append((f, item, lab))
 
@@ -127,6 +130,7 @@ class SiteLayer:
             )
             lab.setPos((c.at_body[0] + c.at_other[0]) / 2, (c.at_body[1] + c.at_other[1]) / 2)
             lab.setZValue(Z_CLEARANCE + 0.5)
+            lab.priority = 4
             self.scene.addItem(lab)
             self.clearance_items += [line, lab]
             self.clearance_labels.append(lab)

@@ -10,12 +10,21 @@ from __future__ import annotations
 import math
 from collections.abc import Callable
 
-from PySide6.QtCore import QPointF, QRectF, Qt
+from PySide6.QtCore import QPointF, QRectF, QSizeF, Qt, QTimer
 from PySide6.QtGui import QPainter, QPixmap, QTransform
 from PySide6.QtWidgets import QGraphicsView, QWidget
 
+from app.board.items import GUIDE, Label, Leader
 from app.board.overlay import draw_north_arrow, draw_scale_bar
+from app.board.placement import device_rect, free_corner, place_labels
 from app.board.scene import BoardScene
+
+#: The overlays drawn on top, in viewport pixels from the corners they sit in.
+SCALE_BAR = QSizeF(220, 48)  # bottom left
+NORTH_ARROW = QSizeF(72, 86)  # top right
+MARGIN = 10.0
+#: How many times a fit may zoom out to leave a corner free for the card.
+FIT_TRIES = 8
 
 
 class BoardView(QGraphicsView):
@@ -51,6 +60,15 @@ class BoardView(QGraphicsView):
         self._overlay_pix: tuple[QPixmap, QPixmap] = (QPixmap(), QPixmap())
         #: Callables ``(painter, width, height)`` drawing on top in viewport pixels.
         self.foreground_hooks: list[Callable[[QPainter, int, int], None]] = []
+        #: The size of a card (the wind and current) that wants a corner free of items,
+        #: px; ``corner_rect`` is where it goes (see :meth:`choose_corner`).
+        self.corner_size: QSizeF | None = None
+        self.corner_rect = QRectF()
+        self._place_timer = QTimer(self)
+        self._place_timer.setSingleShot(True)
+        self._place_timer.setInterval(0)
+        self._place_timer.timeout.connect(self.place_labels)
+        scene.refresh_hooks.append(lambda _s: self.schedule_placement())
         # connected after the scene's own refresh, so a refit sees the new stage's items
         scene.controller.changed.connect(self._controller_changed)
         self._stage_shown = scene.controller.stage_index
@@ -66,6 +84,7 @@ class BoardView(QGraphicsView):
         f = new / ppm
         self.scale(f, f)
         self.user_zoomed = True
+        self.schedule_placement()
 
     def fit_to_hull(self) -> None:
         """Zoom so every body (with room for its tugs) fills the board."""
@@ -83,8 +102,102 @@ class BoardView(QGraphicsView):
         k = min(vw / rect.width(), vh / rect.height())
         self.setTransform(QTransform.fromScale(k, -k))
         self.centerOn(rect.center())
+        centre = rect.center()
+        # labels keep their size in pixels: zoom out until they are in view as well
+        for _ in range(4):
+            content = self._content_rect()
+            if content.isNull() or self.viewport().rect().toRectF().contains(content):
+                break
+            f = 0.97 * min(vw / max(content.width(), 1.0), vh / max(content.height(), 1.0), 1.0)
+            centre = self.mapToScene(content.center().toPoint())
+            k *= f if f < 1.0 else 0.97
+            self.setTransform(QTransform.fromScale(k, -k))
+            self.centerOn(centre)
+        # a little further out until a corner is free for the card
+        for _ in range(FIT_TRIES if self.corner_size is not None else 0):
+            if self.choose_corner()[1] == 0:
+                break
+            k *= 0.88
+            self.setTransform(QTransform.fromScale(k, -k))
+            self.centerOn(centre)
         self._fitted = True
         self.user_zoomed = False
+        self.place_labels()
+
+    def _content_rect(self) -> QRectF:
+        """The pixel box round the bodies' items, their labels where their owners put them."""
+        vt = self.viewportTransform()
+        roots = {d.root for d in self.board.bodies.values()}
+        box = QRectF()
+        for item in self.board.items():
+            if item.topLevelItem() not in roots or not item.isVisible() or item.data(GUIDE):
+                continue
+            if isinstance(item, Leader):
+                continue
+            if isinstance(item, Label):
+                if not item.text:
+                    continue
+                r = item.deviceTransform(vt).mapRect(item.home_rect())
+            else:
+                r = device_rect(item, vt)
+            if r.isEmpty():
+                continue
+            box = r if box.isNull() else box.united(r)
+        return box
+
+    # -- what is drawn on top, and the labels clear of it all ------------------------------
+    def corners(self) -> list[QRectF]:
+        """Where a card of ``corner_size`` may go, in order of preference (viewport px)."""
+        if self.corner_size is None:
+            return []
+        w, h = self.viewport().width(), self.viewport().height()
+        cw, ch = self.corner_size.width(), self.corner_size.height()
+        m = MARGIN
+        return [
+            QRectF(w - m - cw, NORTH_ARROW.height(), cw, ch),  # under the north arrow
+            QRectF(m, m, cw, ch),  # top left
+            QRectF(w - m - cw, h - m - ch, cw, ch),  # bottom right
+            QRectF(m, h - SCALE_BAR.height() - m - ch, cw, ch),  # above the scale bar
+        ]
+
+    def choose_corner(self) -> tuple[QRectF, float]:
+        """Put the card in the first corner that covers no item; the area it covers, px²."""
+        corners = self.corners()
+        if not corners:
+            self.corner_rect = QRectF()
+            return QRectF(), 0.0
+        items = [i for i in self.board.items() if not isinstance(i, (Label, Leader))]
+        rect, covered = free_corner(items, self.viewportTransform(), corners)
+        if rect != self.corner_rect:
+            self.corner_rect = rect
+            self.viewport().update()
+        return rect, covered
+
+    def overlay_rects(self) -> list[QRectF]:
+        """The pixel boxes of the scale bar, the north arrow and the card."""
+        w, h = self.viewport().width(), self.viewport().height()
+        out = [
+            QRectF(0, h - SCALE_BAR.height(), SCALE_BAR.width(), SCALE_BAR.height()),
+            QRectF(w - NORTH_ARROW.width(), 0, NORTH_ARROW.width(), NORTH_ARROW.height()),
+        ]
+        if not self.corner_rect.isNull():
+            out.append(self.corner_rect)
+        return out
+
+    def schedule_placement(self) -> None:
+        """Place the labels once the events in hand are done (not during a drag)."""
+        if not self.board.controller.previewing:
+            self._place_timer.start()
+
+    def place_labels(self) -> None:
+        """Choose the card's corner, then move every label clear of the rest (now)."""
+        self._place_timer.stop()
+        if self.viewport().width() < 10:
+            return
+        self.choose_corner()
+        place_labels(
+            self.board, self.viewportTransform(), self.viewport().size(), self.overlay_rects()
+        )
 
     def _controller_changed(self) -> None:
         index = self.board.controller.stage_index
@@ -103,6 +216,8 @@ class BoardView(QGraphicsView):
         super().resizeEvent(event)
         if not self._fitted or event.oldSize().width() <= 0:
             self.fit_to_hull()
+        else:
+            self.schedule_placement()
 
     def wheelEvent(self, event) -> None:  # type: ignore[no-untyped-def]
         tug = self.board.selected_tug()
@@ -151,6 +266,7 @@ class BoardView(QGraphicsView):
             self._pan = event.position()
             if d.x() or d.y():
                 self.user_zoomed = True
+                self.schedule_placement()
             self.horizontalScrollBar().setValue(self.horizontalScrollBar().value() - int(d.x()))
             self.verticalScrollBar().setValue(self.verticalScrollBar().value() - int(d.y()))
             event.accept()
