@@ -22,6 +22,7 @@ from PySide6.QtGui import (
     QPen,
 )
 
+from app.briefing.cover import conventions, cover
 from app.briefing.layout import (
     INK,
     MUTED,
@@ -36,13 +37,11 @@ from app.briefing.layout import (
 )
 from app.briefing.overview import overview_blocks
 from app.briefing.particulars import particulars
-from app.briefing.sections import StageExtras, conventions, cover, stage_blocks
-from core.analysis.checks import StageCheck, check_plan
-from core.errors import InputError, TowboardError
+from app.briefing.stage_page import stage_blocks
+from core.analysis.stage import StageResult, plan_results
+from core.errors import InputError
 from core.io.projectfile import replacing
 from core.model.plan import Project
-from core.solve.holdlimits import hold_limits, hold_limits_problem
-from core.solve.pulls import pulls_problem, tug_lost_check
 
 PAPERS: dict[str, QPageSize.PageSizeId] = {
     "a4": QPageSize.PageSizeId.A4,
@@ -54,53 +53,29 @@ RESOLUTION_DPI = 1200
 
 @dataclass(frozen=True, slots=True)
 class BriefingContent:
-    """What the briefing prints: the plan, every stage checked, and the solver's extras."""
+    """What the briefing prints: the plan and every stage's result (the core's, read as is)."""
 
     project: Project
-    checks: tuple[StageCheck, ...]
-    extras: tuple[StageExtras, ...]
-
-
-def stage_extras(project: Project, check: StageCheck) -> StageExtras:
-    """The tug lost check (stages with a goal) and the hold limits, where they can be had."""
-    if not check.balances:
-        return StageExtras()
-    body = check.balances[0].body
-    stage = check.stage
-    tl = None
-    note = ""
-    if stage.goal is not None:
-        try:
-            tl = tug_lost_check(pulls_problem(project, stage, body))
-        except TowboardError as e:
-            note = f"Tug lost check not possible: {e}"
-    hl = None
-    if stage.placements:
-        try:
-            hl = hold_limits(hold_limits_problem(project, stage, body))
-        except TowboardError as e:
-            note = (note + " " if note else "") + f"Hold limits not possible: {e}"
-    return StageExtras(tl, hl, note)
+    results: tuple[StageResult, ...]
 
 
 def content_of(project: Project) -> BriefingContent:
-    checks = check_plan(project)
-    return BriefingContent(project, checks, tuple(stage_extras(project, c) for c in checks))
+    return BriefingContent(project, plan_results(project))
 
 
 def blocks_of(content: BriefingContent, content_height_mm: float) -> list[Block]:
     project = content.project
-    blocks: list[Block] = cover(project, content.checks)
+    blocks: list[Block] = cover(project, content.results)
     blocks.append(PageBreak())
-    clearances = [c.clearances for c in content.checks]
+    clearances = [r.clearances for r in content.results]
     blocks += overview_blocks(project, clearances, min(165.0, content_height_mm * 0.62))
     blocks.append(PageBreak())
     blocks += particulars(project)
     # the conventions follow the particulars, on a page of their own if they do not fit
     blocks.append(Group([Spacer(4), *conventions(project)]))
     diagram_mm = min(130.0, content_height_mm * 0.45)
-    for check, extra in zip(content.checks, content.extras, strict=True):
-        blocks += stage_blocks(project, check, extra, diagram_mm)
+    for result in content.results:
+        blocks += stage_blocks(project, result, diagram_mm)
     return blocks
 
 

@@ -12,8 +12,7 @@ from pathlib import Path
 import pypdf
 import pytest
 
-from core.analysis.checks import check_plan
-from core.analysis.stage import balance_of
+from core.analysis.stage import plan_results
 from core.io.projectfile import load
 from core.model.tugs import Tug
 from core.units import DisplayUnits
@@ -79,40 +78,45 @@ def test_page_count_and_page_n_of_m_agree(twin_pdf):
 def test_every_tug_and_assigned_pull_of_every_stage_is_the_core_value(twin_pdf):
     project, _, _, texts = twin_pdf
     u = project.units
-    checks = check_plan(project)
-    assert len(checks) == 4
-    for check, text in zip(checks, stage_texts(project, texts), strict=True):
-        assert check.balances
-        for b in check.balances:
-            # the briefing's stage balance is the one the board shows (tugs with conditions)
-            assert b == balance_of(project, check.stage, b.body)
-            for sh in b.shares:
+    results = plan_results(project)
+    assert len(results) == 4
+    for r, text in zip(results, stage_texts(project, texts), strict=True):
+        assert r.worked
+        for body in r.worked:
+            for sh in body.balance.shares:
                 row = (
                     re.escape(f"{sh.tug} {sh.hull}: {sh.point} ")
                     + r"[^%]*? "
                     + re.escape(f"{sh.setting * 100:.0f} % {u.show(sh.pull_n, 'force')} ")
                     + re.escape(f"{u.show(sh.usable_n, 'force')} ")
                 )
-                assert re.search(row, text), (check.name, sh.tug, u.show(sh.pull_n, "force"))
-            assert f"Net force {u.show(b.net_magnitude, 'force')}" in text
+                assert re.search(row, text), (r.stage.name, sh.tug, u.show(sh.pull_n, "force"))
+            assert f"Net force {u.show(body.balance.net_magnitude, 'force')}" in text
 
 
-def test_stage_warnings_and_clearances_are_printed_with_their_stage(twin_pdf):
+def test_each_stage_page_shows_its_verdict_and_every_reason(twin_pdf):
     project, _, _, texts = twin_pdf
     u = project.units
-    checks = check_plan(project)
-    for check, text in zip(checks, stage_texts(project, texts), strict=True):
-        for n in check.notices:
-            assert norm(n.message)[1:] in text  # the first letter may be capitalised
-        nearest = min(check.clearances, key=lambda c: c.distance_m)
+    for r, text in zip(plan_results(project), stage_texts(project, texts), strict=True):
+        assert f"Verdict: {r.verdict.label}" in text
+        for reason in r.verdict.reasons:
+            prefix = "NO-GO: " if reason.status == "no-go" else "Caution: "
+            assert norm(prefix + reason.text[:1].upper() + reason.text[1:]) in text
+        nearest = min(r.clearances, key=lambda c: c.distance_m)
         assert (
             f"{nearest.other} {nearest.other_kind} {u.show(nearest.distance_m, 'length')}" in text
         )
 
 
+def cover_text(texts: list[str]) -> str:
+    """The cover's pages: everything before the overview of the move."""
+    end = next(k for k, t in enumerate(texts) if "Overview of the move" in t)
+    return " ".join(texts[:end])
+
+
 def test_cover_has_the_sign_off_the_conditions_limits_and_cautions(twin_pdf):
     project, _, _, texts = twin_pdf
-    cover = texts[0]
+    cover = cover_text(texts)
     for needle in (
         project.name,
         f"Revision {project.revision}",
@@ -127,6 +131,12 @@ def test_cover_has_the_sign_off_the_conditions_limits_and_cautions(twin_pdf):
         "The master, the pilot, local port rules and applicable standards decide",
     ):
         assert needle in cover, needle
+    # one line per stage with its verdict, word first, then its first reason
+    for r in plan_results(project):
+        line = f"{r.index + 1} {r.stage.name} {r.stage.kind}"
+        assert line in cover
+        after = cover[cover.index(line) :]
+        assert norm(r.verdict.headline()) in after
     whole = " ".join(texts)
     assert "Units, frames and assumptions" in whole
     for t in project.tugs:
@@ -148,7 +158,7 @@ def test_a4_and_letter_page_sizes(tmp_path, qapp_module, paper, size):
     assert f"page {n} of {n}" in norm(reader.pages[-1].extract_text())
 
 
-def test_a_failing_stage_is_flagged_on_the_cover_and_its_page(tmp_path, qapp_module):
+def test_a_no_go_stage_is_flagged_on_the_cover_and_its_page(tmp_path, qapp_module):
     from app.briefing.document import write_pdf
     from core.analysis.checks import substitute_tug
 
@@ -156,17 +166,37 @@ def test_a_failing_stage_is_flagged_on_the_cover_and_its_page(tmp_path, qapp_mod
     rowan = project.tug("Rowan")
     weak = Tug("Rowan", rowan.bollard_pull_n * 0.2, rowan.astern_pull * 0.2, rowan.tug_type)
     sub = substitute_tug(project, "Rowan", weak, keep="settings")
-    failing = [c for c in sub.after if c.fails]
-    assert failing  # a fifth of the pull misses the solved goals
+    results = plan_results(sub.project)
+    no_go = [r for r in results if r.verdict.status == "no-go"]
+    assert no_go  # a fifth of the pull misses the solved goals
     out = tmp_path / "weak.pdf"
     write_pdf(sub.project, out)
     texts = pages_text(out)
-    assert "FAILS" in texts[0]
+    assert "NO-GO: " in cover_text(texts)
     per_stage = stage_texts(sub.project, texts)
-    for c in failing:
-        assert "This stage fails its checks" in per_stage[c.index]
-        for n in c.failures:
-            assert norm(f"FAILS: {n.message}") in per_stage[c.index]
+    for r in no_go:
+        assert "Verdict: NO-GO" in per_stage[r.index]
+        for reason in r.verdict.reasons:
+            if reason.status == "no-go":
+                text = reason.text[:1].upper() + reason.text[1:]
+                assert norm(f"NO-GO: {text}") in per_stage[r.index]
+
+
+@pytest.mark.parametrize("sample", sorted(SAMPLES.glob("*.towboard")), ids=lambda p: p.stem)
+def test_nothing_says_ok_or_passes_unless_the_verdict_is_go(tmp_path, qapp_module, sample):
+    from app.briefing.document import write_pdf
+
+    project = load(sample)
+    out = tmp_path / "plan.pdf"
+    write_pdf(project, out)
+    texts = pages_text(out)
+    results = plan_results(project)
+    words = re.compile(r"\b(OK|ok|passes|pass)\b")
+    if not all(r.verdict.is_go for r in results):
+        assert not words.search(cover_text(texts))
+    for r, text in zip(results, stage_texts(project, texts), strict=True):
+        if not r.verdict.is_go:
+            assert not words.search(text), (r.stage.name, words.search(text))
 
 
 def test_an_empty_plan_still_prints(tmp_path, qapp_module):
@@ -269,9 +299,9 @@ def test_units_follow_the_plan(tmp_path, qapp_module):
     out = tmp_path / "kn.pdf"
     write_pdf(kn, out)
     text = " ".join(pages_text(out))
-    for c in check_plan(kn):
-        for b in c.balances:
-            for sh in b.shares:
+    for r in plan_results(kn):
+        for body in r.worked:
+            for sh in body.balance.shares:
                 assert kn.units.show(sh.pull_n, "force") in text
     assert "force in kN, moment in kN·m, length in ft, speed in m/s" in text
 

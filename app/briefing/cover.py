@@ -1,0 +1,221 @@
+"""The briefing's front matter: the cover with one verdict line per stage, and the page
+of units, frames and assumptions.
+
+Verdicts are the stage results' own (core.analysis.stage); nothing here judges a stage.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+from PySide6.QtGui import QColor
+
+from app.briefing.layout import (
+    FAIL,
+    MUTED,
+    Block,
+    Boxed,
+    Column,
+    Spacer,
+    Table,
+    Text,
+    heading,
+)
+from app.paint import style
+from core.analysis.stage import StageResult
+from core.analysis.verdict import Verdict
+from core.io.report import CAUTION
+from core.mechanics.bodies import body_of
+from core.model.plan import Project, Stage
+from core.units import label
+
+CAUTIONS = (
+    "This briefing is a planning aid. Its figures hold only under the assumptions stated "
+    "in it (quasi-static forces, the conditions as entered, the pulls and ratings as "
+    "entered).",
+    "Certified bollard pulls, the fittings' certified ratings and the conditions on the "
+    "day govern over any figure here.",
+    "The master, the pilot, local port rules and applicable standards decide how the move "
+    "is made; stop and re-plan when the day differs from the plan.",
+)
+
+
+def verdict_color(v: Verdict) -> QColor:
+    """The verdict's colour: go green, caution amber-brown, no-go red."""
+    return QColor({"go": style.GO, "caution": style.CAUTION}.get(v.status, style.NO_GO))
+
+
+def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
+    u = project.units
+    out: list[Block] = [
+        Text("MOVE PLAN BRIEFING", 9.0, True, QColor(MUTED), 1.5),
+        heading(project.name, 0),
+        Text(
+            f"Revision {project.revision}" + (f"  ·  {project.date}" if project.date else ""),
+            11.0,
+            False,
+            space_after_mm=1.0,
+        ),
+    ]
+    bodies = []
+    for name in project.body_names():
+        b = body_of(project, name)
+        made = " + ".join(m.hull.name for m in b.members)
+        bodies.append(f"{name} ({made}, lashed)" if b.is_group else name)
+    if project.site.name:
+        out.append(Text(f"Site: {project.site.name}", 9.5))
+    out.append(Text(f"Bodies: {'; '.join(bodies) or 'none'}", 9.5))
+    out.append(Text(f"Tugs: {', '.join(t.name for t in project.tugs) or 'none'}", 9.5))
+    if project.notes:
+        out.append(Text(project.notes, 8.5, color=QColor(MUTED)))
+    out.append(Spacer(3))
+    out.append(
+        Table(
+            [Column("", 1.5), Column("Name", 3.0), Column("Signature", 2.4), Column("Date", 1.3)],
+            [
+                ["Prepared by", project.prepared_by or "", "", ""],
+                ["Checked by", project.checked_by or "", "", ""],
+                ["Approved by", project.approved_by or "", "", ""],
+            ],
+            size_pt=9.0,
+            first_bold=True,
+            pad_mm=2.2,
+        )
+    )
+    if project.history:
+        out.append(heading("Revision history", 2))
+        out.append(
+            Table(
+                [
+                    Column("Rev.", 0.5),
+                    Column("Date", 1.0),
+                    Column("By", 1.6),
+                    Column("Change", 4.5),
+                ],
+                [
+                    [r.revision, r.date or "-", r.by or "-", r.description or "-"]
+                    for r in project.history
+                ],
+            )
+        )
+    out.append(heading("Stages and their verdicts", 2))
+    rows, colors = [], []
+    for r in results:
+        v = r.verdict
+        tugs = ", ".join(p.tug for p in r.stage.placements if p.setting > 0) or "-"
+        rows.append([str(r.index + 1), r.stage.name, r.stage.kind, tugs, v.headline()])
+        colors.append(None if v.is_go else verdict_color(v))
+    out.append(
+        Table(
+            [
+                Column("#", 0.3),
+                Column("Stage", 2.6),
+                Column("Kind", 0.8),
+                Column("Tugs working", 1.6),
+                Column("Verdict", 3.6),
+            ],
+            rows,
+            row_colors=colors,
+        )
+    )
+    out.append(heading("Conditions planned for", 2))
+    out.append(
+        Table(
+            [
+                Column("#", 0.3),
+                Column("Stage", 3.0),
+                Column("Wind (mean, from)", 2.0),
+                Column("At height / gust", 1.5),
+                Column("Current (towards)", 2.0),
+                Column("Sea state", 0.9),
+            ],
+            [
+                [
+                    str(i + 1),
+                    s.name,
+                    f"{u.show(s.conditions.wind_speed_ms, 'speed')} from {s.conditions.wind_from_deg:03.0f}°",
+                    f"{u.show(s.conditions.wind_height_m, 'length')} / x{s.conditions.gust_factor:.2f}",
+                    f"{u.show(s.conditions.current_speed_ms, 'speed')} towards "
+                    f"{s.conditions.current_towards_deg:03.0f}°",
+                    _sea_state(s),
+                ]
+                for i, s in enumerate(project.stages)
+            ],
+        )
+    )
+    out.append(heading("Go / no-go limits", 2))
+    out.append(
+        Table(
+            [
+                Column("#", 0.3),
+                Column("Stage", 3.0),
+                Column("Max wind", 1.2),
+                Column("Max current", 1.2),
+                Column("Min clearance", 1.3),
+            ],
+            [
+                [
+                    str(i + 1),
+                    s.name,
+                    "-" if s.limits.max_wind_ms is None else u.show(s.limits.max_wind_ms, "speed"),
+                    "-"
+                    if s.limits.max_current_ms is None
+                    else u.show(s.limits.max_current_ms, "speed"),
+                    u.show(_margin(project, s), "length"),
+                ]
+                for i, s in enumerate(project.stages)
+            ],
+        )
+    )
+    out.append(
+        Text(
+            "Each stage's verdict above says whether its planned conditions are within these "
+            "limits and what its tugs can hold.",
+            8.0,
+            color=QColor(MUTED),
+        )
+    )
+    out.append(Spacer(2))
+    out.append(Boxed(CAUTIONS, 8.5, QColor(FAIL), QColor(style.NO_GO_FILL), "Cautions"))
+    return out
+
+
+def _sea_state(s: Stage) -> str:
+    v = getattr(s.conditions, "sea_state", None)
+    return "-" if v is None else f"{v:g}"
+
+
+def _margin(project: Project, s: Stage) -> float:
+    m = s.limits.min_clearance_m
+    return project.clearance_margin_m if m is None else m
+
+
+def conventions(project: Project) -> list[Block]:
+    u = project.units
+    units = ", ".join(f"{q} in {label(u.unit(q))}" for q in ("force", "moment", "length", "speed"))
+    items = [
+        f"Units: {units}. A force in t is the tonne-force (9.80665 kN).",
+        "Body frame: origin at the hull's reference point on the centreline (for a lashed "
+        "group, the first hull's), x forward, y to port. Yaw moment positive counter-clockwise "
+        "seen from above, which swings the bow to port; each moment names the point it is "
+        "taken about.",
+        "Site frame: x east, y north, metres; the diagrams are drawn north up, to the scale "
+        "printed on each, with force arrows at their own printed scale.",
+        "Directions on the body are relative bearings, degrees clockwise from ahead (000 ahead, "
+        "090 starboard beam, 180 astern, 270 port beam). Headings and the conditions are true "
+        "bearings. Wind is given as the direction it blows from; current as the direction it "
+        "sets towards.",
+        "A tug's assigned pull is its setting times its usable pull (rated bollard pull, or "
+        "astern pull when it works astern, times its efficiency and the towline angle factor). "
+        "Use is the assigned pull as a share of the rated pull.",
+        "Forces are quasi-static: no inertia, waves, squat or interaction with other vessels "
+        "are included. Wind and current loads follow F = 1/2 rho C A V^2 with the areas and "
+        "coefficients of each stage.",
+        f"Clearances are the least plan-view distances between the outlines at each stage's "
+        f"pose; below the stage's minimum (or the plan's {u.show(project.clearance_margin_m, 'length')} "
+        "margin) they are warned about. Tugs, fenders and overhangs are not included.",
+    ]
+    out: list[Block] = [heading("Units, frames and assumptions", 1)]
+    out += [Text("•  " + t, 8.5, indent_mm=0.0) for t in items]
+    out.append(Text(CAUTION, 8.5, True))
+    return out
