@@ -68,7 +68,8 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
     out.append(Text(f"Tugs: {', '.join(t.name for t in project.tugs) or 'none'}", 9.5))
     if project.notes:
         out.append(Text(project.notes, 8.5, color=QColor(MUTED)))
-    out.append(Spacer(3))
+    out.append(Spacer(2))
+    out.append(Boxed(CAUTIONS, 8.0, QColor(FAIL), QColor(style.NO_GO_FILL), "Cautions"))
     out.append(
         Table(
             [Column("", 1.5), Column("Name", 3.0), Column("Signature", 2.4), Column("Date", 1.3)],
@@ -79,7 +80,7 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
             ],
             size_pt=9.0,
             first_bold=True,
-            pad_mm=2.2,
+            pad_mm=1.8,
         )
     )
     if project.history:
@@ -118,16 +119,19 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
             row_colors=colors,
         )
     )
-    out.append(heading("Conditions planned for", 2))
+    out.append(heading("Conditions planned for, and the Go / no-go limits", 2))
     out.append(
         Table(
             [
                 Column("#", 0.3),
-                Column("Stage", 3.0),
-                Column("Wind (mean, from)", 2.0),
-                Column("At height / gust", 1.5),
-                Column("Current (towards)", 2.0),
-                Column("Sea state", 0.9),
+                Column("Stage", 2.2),
+                Column("Wind (mean, from)", 1.6),
+                Column("At height / gust", 1.3),
+                Column("Current (towards)", 1.6),
+                Column("Sea state", 0.6),
+                Column("Max wind", 0.9),
+                Column("Max current", 0.9),
+                Column("Min clearance", 1.1),
             ],
             [
                 [
@@ -138,25 +142,6 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
                     f"{u.show(s.conditions.current_speed_ms, 'speed')} towards "
                     f"{s.conditions.current_towards_deg:03.0f}°",
                     _sea_state(s),
-                ]
-                for i, s in enumerate(project.stages)
-            ],
-        )
-    )
-    out.append(heading("Go / no-go limits", 2))
-    out.append(
-        Table(
-            [
-                Column("#", 0.3),
-                Column("Stage", 3.0),
-                Column("Max wind", 1.2),
-                Column("Max current", 1.2),
-                Column("Min clearance", 1.3),
-            ],
-            [
-                [
-                    str(i + 1),
-                    s.name,
                     "-" if s.limits.max_wind_ms is None else u.show(s.limits.max_wind_ms, "speed"),
                     "-"
                     if s.limits.max_current_ms is None
@@ -169,14 +154,13 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
     )
     out.append(
         Text(
-            "Each stage's verdict above says whether its planned conditions are within these "
-            "limits and what its tugs can hold.",
+            "The limits are the stage's own (min clearance: the stage's, else the plan's margin). "
+            "Each stage's verdict above says whether its planned conditions are within them "
+            "and what its tugs can hold.",
             8.0,
             color=QColor(MUTED),
         )
     )
-    out.append(Spacer(2))
-    out.append(Boxed(CAUTIONS, 8.5, QColor(FAIL), QColor(style.NO_GO_FILL), "Cautions"))
     return out
 
 
