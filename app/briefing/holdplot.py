@@ -157,6 +157,12 @@ class HoldPlot:
             )
         if not lim.holds_current:
             facts.append("The tugs cannot hold the body against the current alone.")
+        beyond = ~np.isfinite(all_v) | (all_v > top * (1 + 1e-9))
+        if np.any(beyond):
+            facts.append(
+                f"From {int(np.count_nonzero(beyond))} directions the limit is beyond the outer "
+                f"ring ({fmt(top, 0)} {sp}) and is drawn on it."
+            )
         width = rect.right() - x
         p.setFont(ctx.font(7.0))
         for t in facts:

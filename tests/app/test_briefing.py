@@ -338,3 +338,20 @@ def test_the_hold_limits_plot_states_the_cores_lowest_limits(tmp_path, qapp_modu
     d2, v2 = limits.lowest(limits.worst_lost_ms)
     assert f"Lowest with the worst tug lost: {u.show(v2, 'speed')} from {d2:03.0f}°." in text
     assert "worst single tug lost" in text and "stage limit 22.0 kn" in text
+
+
+def test_each_fitting_s_line_tension_and_rating_is_printed(twin_pdf):
+    project, _, _, texts = twin_pdf
+    u = project.units
+    for r, text in zip(plan_results(project), stage_texts(project, texts), strict=True):
+        for body in r.worked:
+            for fl in body.fittings:
+                rating = "not given" if fl.rating_n is None else u.show(fl.rating_n, "force")
+                row = (
+                    re.escape(f"{fl.tug} {fl.hull}: {fl.point} ")
+                    + r".*?"
+                    + re.escape(f" {u.show(fl.load_n, 'force')} ")
+                    + r"(SWL |TOW )?"
+                    + re.escape(rating)
+                )
+                assert re.search(row, text), (r.stage.name, fl.tug)
