@@ -81,7 +81,7 @@ def main() -> None:
         device.setPageLayout(page_layout("a4"))
         pages = {}
         for n in SIZES:
-            rows["layout"][n] = median_s(lambda n=n, dev=device: Document(contents[n], dev), 3)
+            rows["layout"][n] = median_s(lambda n=n, dev=device: Document(contents[n], dev), 5)
             pages[n] = len(Document(contents[n], device).pages)
         if not quick:
             out = Path(d) / "plan.pdf"
