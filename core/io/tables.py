@@ -13,13 +13,16 @@ from __future__ import annotations
 
 import csv
 import io
+import os
 from collections.abc import Sequence
 from dataclasses import dataclass
+from pathlib import Path
 from typing import Any
 
+from core.io.projectfile import write_atomic
 from core.units import DisplayUnits, Quantity, label
 
-Path = tuple[str | int, ...]
+KeyPath = tuple[str | int, ...]
 
 
 @dataclass(frozen=True, slots=True)
@@ -27,7 +30,7 @@ class Column:
     """One column: its heading (without unit), where it comes from, and its quantity."""
 
     heading: str
-    path: Path  # keys into the row's JSON object (a stage, or one tug of it)
+    path: KeyPath  # keys into the row's JSON object (a stage, or one tug of it)
     quantity: Quantity | None = None  # None: a number without a unit choice, or text
     unit: str = ""  # the SI unit, or a fixed unit such as "%" or "deg"
 
@@ -103,7 +106,7 @@ BALANCE_COLUMNS: tuple[Column, ...] = (
 )
 
 
-def lookup(obj: Any, path: Path) -> Any:
+def lookup(obj: Any, path: KeyPath) -> Any:
     """The value at ``path`` in nested dicts and lists; None where the path stops."""
     for key in path:
         if isinstance(obj, dict) and isinstance(key, str):
@@ -180,3 +183,11 @@ def csv_text(rows: Sequence[Sequence[str]]) -> str:
     buf = io.StringIO()
     csv.writer(buf, lineterminator="\n").writerows(rows)
     return buf.getvalue()
+
+
+def write_csv(path: str | os.PathLike[str], rows: Sequence[Sequence[str]]) -> Path:
+    """Write a table atomically as UTF-8 with a byte-order mark (so spreadsheets read
+    "t·m" and "²" right); raises OSError when it cannot be written."""
+    p = Path(path)
+    write_atomic(p, csv_text(rows).encode("utf-8-sig"))
+    return p
