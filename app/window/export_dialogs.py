@@ -212,7 +212,7 @@ class TablesDialog(QDialog):
         self.setWindowTitle("Export tables")
         self.tugs = QCheckBox("Tugs of every stage (setting, pulls, forces, moments)")
         self.balance = QCheckBox(
-            "Balance of every stage (net force, yaw moment, solve, hold limits)"
+            "Balance of every stage (verdict, net force, yaw moment, goal, solved pulls, hold limits)"
         )
         self.tugs.setChecked(True)
         self.balance.setChecked(True)

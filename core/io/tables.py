@@ -42,7 +42,8 @@ class Column:
 
 STAGE_COLUMNS = (Column("Stage no.", ("_number",)), Column("Stage", ("stage",)))
 
-#: One row a tug of a stage: the tug as set (the balance) and the pull solved for the goal.
+#: One row a tug of a stage: the tug as set (the balance), the pull solved for the goal, and
+#: the line's load on its fitting.
 TUG_COLUMNS: tuple[Column, ...] = (
     *STAGE_COLUMNS,
     Column("Tug", ("tug",)),
@@ -62,6 +63,11 @@ TUG_COLUMNS: tuple[Column, ...] = (
     Column("Tug y", ("tug_position_m", 1), "length", "m"),
     Column("Solved pull", ("_solved", "pull_N"), "force", "N"),
     Column("Solved setting", ("_solved", "setting_percent"), unit="%"),
+    Column("Fitting", ("_fitting", "fitting_type")),
+    Column("Line angle below the horizontal", ("_fitting", "line_angle_deg"), unit="deg"),
+    Column("Line tension", ("_fitting", "tension_N"), "force", "N"),
+    Column("Fitting rating", ("_fitting", "rating_N"), "force", "N"),
+    Column("Over the fitting's rating", ("_fitting", "over_rating")),
 )
 
 _B = ("balance",)
@@ -69,10 +75,13 @@ _EQ = ("balance", "equivalent")
 _SOLVED = ("solve", "solved")
 _HOLD = ("hold_limits",)
 
-#: One row a stage: the balance as set, the solved goal, the tug lost check, hold limits.
+#: One row a stage: the verdict, the balance as set, the goal and the solved pulls, the tug
+#: lost check, hold limits.
 BALANCE_COLUMNS: tuple[Column, ...] = (
     *STAGE_COLUMNS,
     Column("Kind", ("kind",)),
+    Column("Verdict", ("verdict", "status")),
+    Column("Reasons", ("_reasons",)),
     Column("Body", (*_B, "body")),
     Column("Centroid x", (*_B, "centroid_m", 0), "length", "m"),
     Column("Centroid y", (*_B, "centroid_m", 1), "length", "m"),
@@ -92,8 +101,9 @@ BALANCE_COLUMNS: tuple[Column, ...] = (
     Column("Equivalent", (*_EQ, "kind")),
     Column("Line of action from the centroid", (*_EQ, "offset_from_centroid_m"), "length", "m"),
     Column("Line crosses the centreline at x", (*_EQ, "crosses_centreline_at_x_m"), "length", "m"),
-    Column("Goal", ("solve", "goal", "kind")),
-    Column("Goal met", (*_SOLVED, "goal_met")),
+    Column("Goal", ("goal", "kind")),
+    Column("Goal met by the pulls as set", ("goal", "met_by_the_pulls_as_set")),
+    Column("Goal met by the solved pulls", (*_SOLVED, "goal_met")),
     Column("Total solved pull", (*_SOLVED, "total_pull_N"), "force", "N"),
     Column("Largest use", (*_SOLVED, "largest_utilisation"), unit="fraction"),
     Column("Tug lost check passes", ("solve", "tug_lost", "passes")),
@@ -134,23 +144,43 @@ def cell(value: Any, quantity: Quantity | None, units: DisplayUnits | None) -> s
     return str(value)
 
 
+def _joined(items: Any, key: str) -> str | None:
+    """The ``key`` of each object in a list, joined with " | " (None for none)."""
+    texts = [str(x.get(key, "")) for x in items or [] if isinstance(x, dict)]
+    return " | ".join(texts) or None
+
+
 def stage_rows(report: dict[str, Any]) -> list[dict[str, Any]]:
-    """Each stage's JSON with its number and its warnings joined (for the balance table)."""
+    """Each stage's JSON with its number, and its verdict's reasons and its warnings joined."""
     rows = []
     for i, s in enumerate(report.get("stages", []), start=1):
-        warnings = [w.get("message", "") for w in lookup(s, ("balance", "warnings")) or []]
-        rows.append({**s, "_number": i, "_warnings": " | ".join(warnings) or None})
+        rows.append(
+            {
+                **s,
+                "_number": i,
+                "_reasons": _joined(lookup(s, ("verdict", "reasons")), "text"),
+                "_warnings": _joined(lookup(s, ("balance", "warnings")), "message"),
+            }
+        )
     return rows
 
 
 def tug_rows(report: dict[str, Any]) -> list[dict[str, Any]]:
-    """One object a tug of a stage: the balance's tug, with the stage and its solved pull."""
+    """One object a tug of a stage: the balance's tug, with the stage, its solved pull and
+    the load on its fitting."""
     rows = []
     for s in stage_rows(report):
         solved = {t.get("tug"): t for t in lookup(s, ("solve", "solved", "tugs")) or []}
+        fittings = {f.get("tug"): f for f in s.get("fittings") or [] if isinstance(f, dict)}
         for t in lookup(s, ("balance", "tugs")) or []:
             rows.append(
-                {**t, "_number": s["_number"], "stage": s["stage"], "_solved": solved.get(t["tug"])}
+                {
+                    **t,
+                    "_number": s["_number"],
+                    "stage": s["stage"],
+                    "_solved": solved.get(t["tug"]),
+                    "_fitting": fittings.get(t["tug"]),
+                }
             )
     return rows
 

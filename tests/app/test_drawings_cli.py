@@ -220,5 +220,5 @@ def test_report_csv_both_tables_in_display_units(capsys: pytest.CaptureFixture[s
     plan = load(PONTOON)
     assert plan.units.force == "kN"  # the plan's own choice, not the default t
     assert tugs.startswith("Stage no.,Stage,Tug,") and "Assigned pull (kN)" in tugs
-    assert balance.startswith("Stage no.,Stage,Kind,Body,") and "(kN·m)" in balance
+    assert balance.startswith("Stage no.,Stage,Kind,Verdict,Reasons,Body,") and "(kN·m)" in balance
     assert len(balance.strip().splitlines()) == 1 + len(plan.stages)

@@ -72,9 +72,14 @@ def test_tables_are_filled_from_the_report() -> None:
         assert names == {p.tug for p in stage.placements}
     pull = heads.index("Assigned pull (N)")
     assert all(r[pull] != "" for r in tugs[1:])
+    tension = heads.index("Line tension (N)")
+    assert all(r[tension] != "" for r in tugs[1:] if r[heads.index("Mode")] == "line")
     bal = _parse(csv_text(balance_table(report)))
     assert len(bal) - 1 == len(project.stages)
     assert all(r[bal[0].index("Yaw moment about the centroid (N*m)")] != "" for r in bal[1:])
+    verdicts = [r[bal[0].index("Verdict")] for r in bal[1:]]
+    assert verdicts == [s["verdict"]["status"] for s in report["stages"]]
+    assert all(v in ("go", "caution", "no-go") for v in verdicts)
 
 
 def test_display_units_are_the_report_converted() -> None:
