@@ -6,8 +6,9 @@ fittings, solved pulls, tug lost check and hold limits without a window;
 ``towboard report FILE --csv [--table tugs|balance] [--display-units]`` prints the
 tug table and the balance of every stage as CSV, the report's numbers;
 ``towboard check FILE [--json]`` prints each stage's verdict and its reasons and exits 0
-only when every stage is go; ``towboard brief FILE -o plan.pdf`` writes the printed
-briefing; ``towboard import-outline`` and ``towboard export`` read drawings and write
+only when every stage is go; ``towboard drift FILE --stage N [--lose TUG | --let-go]
+[--seconds S] [--json]`` prints one stage's drift preview (the track and the first
+contact); ``towboard brief FILE -o plan.pdf`` writes the printed briefing; ``towboard import-outline`` and ``towboard export`` read drawings and write
 pictures (app.drawings.commands). Bad input exits 2 with a one-line message on stderr,
 never a traceback.
 
@@ -34,6 +35,7 @@ SAMPLE = Path(__file__).resolve().parent.parent / "sample_projects" / "deck_barg
 COMMANDS: dict[str, str] = {
     "report": "app.cli:report_command",
     "check": "app.cli:check_command",
+    "drift": "app.cli:drift_command",
     "brief": "app.briefing.cli:brief_command",
     "import-outline": "app.cli:import_outline_command",
     "export": "app.cli:export_command",
@@ -122,6 +124,38 @@ def check_command(argv: Sequence[str]) -> int:
         else:
             print("Every stage is go.")
     return 1 if not_go or not results else 0
+
+
+def drift_command(argv: Sequence[str]) -> int:
+    """The drift preview of one stage: the track and the first contact."""
+    p = Parser(
+        prog="towboard drift",
+        description="Print the drift preview of one stage: the body's track (time, centroid "
+        "east and north, heading, speed, rate of turn) and its first contact. Without --lose "
+        "or --let-go the pulls stay as set.",
+    )
+    p.add_argument("file", help="a .towboard file")
+    p.add_argument("--stage", required=True, type=int, metavar="N", help="stage number, 1 first")
+    lost = p.add_mutually_exclusive_group()
+    lost.add_argument("--lose", metavar="TUG", help="this tug is lost; the others stay as set")
+    lost.add_argument("--let-go", action="store_true", help="every line is let go")
+    p.add_argument(
+        "--seconds", type=float, metavar="S", help="how long to look ahead (default: the plan's)"
+    )
+    p.add_argument(
+        "--every", type=float, default=10.0, metavar="S", help="print the track every S s (10)"
+    )
+    p.add_argument("--json", action="store_true", help="print JSON in SI units")
+    args = p.parse_args(list(argv))
+    from core.io.report_drift import drift_command_json, drift_command_text
+
+    project = load(args.file)
+    options = (args.stage, args.lose, args.let_go, args.seconds, args.every)
+    if args.json:
+        print(json.dumps(drift_command_json(project, *options), indent=2, allow_nan=False))
+    else:
+        print(drift_command_text(project, *options), end="")
+    return 0
 
 
 def import_outline_command(argv: Sequence[str]) -> int:

@@ -19,6 +19,7 @@ import math
 from collections import OrderedDict
 from dataclasses import dataclass
 
+from core.analysis.drift import drift_of
 from core.analysis.verdict import Verdict, judge
 from core.errors import TowboardError
 from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout, tug_layout
@@ -29,6 +30,7 @@ from core.mechanics.loads import ConditionLoads, body_conditions
 from core.mechanics.site import posed_bodies
 from core.model.goals import Goal
 from core.model.plan import Project, Stage
+from core.motion.summary import StageDrift
 from core.solve.holdlimits import HoldLimits, hold_limits, hold_limits_problem
 from core.solve.pulls import PullsResult, TugLostCheck, pulls_problem, tug_lost_check
 
@@ -108,6 +110,12 @@ class StageResult:
         """The body the stage's first tug works on, else the stage's first body."""
         w = self.worked
         return w[0] if w else None
+
+    @property
+    def drift(self) -> StageDrift:
+        """The stage's drift preview (worst tug lost, lines let go), worked out on first
+        use and kept (core.analysis.drift)."""
+        return drift_of(self)
 
     def body(self, name: str) -> BodyResult:
         for b in self.bodies:

@@ -6,6 +6,7 @@ from typing import Any
 
 from core.analysis.stage import StageResult, plan_results
 from core.analysis.verdict import Verdict
+from core.io.report_drift import drift_json, drift_lines
 from core.io.report_parts import (
     conditions_json,
     conditions_lines,
@@ -19,6 +20,7 @@ from core.io.report_parts import (
 )
 from core.mechanics.balance import Balance
 from core.model.plan import Project
+from core.motion.drift import DRIFT_CAUTION
 from core.units import DisplayUnits, fmt, label
 
 FRAME_NOTE = (
@@ -87,7 +89,10 @@ def report_json(project: Project) -> dict[str, Any]:
         "units": {"force": "N", "moment": "N*m", "length": "m", "angle": "deg"},
         "frame": FRAME_NOTE,
         "caution": CAUTION,
-        "stages": [_stage_json(r) for r in plan_results(project)],
+        "drift_caution": DRIFT_CAUTION,
+        "stages": [
+            {**_stage_json(r), "drift": drift_json(project, r.index)} for r in plan_results(project)
+        ],
     }
 
 
@@ -196,6 +201,9 @@ def report_text(project: Project) -> str:
             out.extend(hold_limit_lines(s, b.hold_limits, u))
         if not r.worked:
             out.append("  no hull to work on")
+        else:
+            out.extend(drift_lines(project, r.index))
         out.append("")
     out.append(CAUTION)
+    out.append(DRIFT_CAUTION)
     return "\n".join(out) + "\n"

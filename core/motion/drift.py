@@ -163,16 +163,17 @@ class DriftResult:
         c, s = math.cos(psi), math.sin(psi)
         return Placing(float(state[0]) - c * gx + s * gy, float(state[1]) - s * gx - c * gy, psi)
 
-    def ground_velocity(self) -> np.ndarray:
-        """(k, 2) G's velocity over the ground, site frame, m/s."""
-        psi, u, v = self.states[:, 2], self.states[:, 3], self.states[:, 4]
+    def ground_velocity(self, states: np.ndarray | None = None) -> np.ndarray:
+        """(k, 2) G's velocity over the ground along the track (or for ``states``), m/s."""
+        y = self.states if states is None else np.atleast_2d(states)
+        psi, u, v = y[:, 2], y[:, 3], y[:, 4]
         c, s = np.cos(psi), np.sin(psi)
         cx, cy = self.problem.motion.current_velocity
         return np.column_stack([c * u - s * v + cx, s * u + c * v + cy])
 
-    def speed_ms(self) -> np.ndarray:
-        """(k,) G's speed over the ground, m/s."""
-        vel = self.ground_velocity()
+    def speed_ms(self, states: np.ndarray | None = None) -> np.ndarray:
+        """(k,) G's speed over the ground along the track (or for ``states``), m/s."""
+        vel = self.ground_velocity(states)
         return np.hypot(vel[:, 0], vel[:, 1])
 
     def heading_deg(self) -> np.ndarray:
@@ -183,9 +184,10 @@ class DriftResult:
         """(k,) rate of turn, degrees a minute, positive when the bow swings to port."""
         return np.degrees(self.states[:, 5]) * 60.0
 
-    def centroid_track(self) -> np.ndarray:
-        """(k, 2) the plan centroid's site position along the track, m."""
-        return self._body_point(self.states, self.problem.centroid)
+    def centroid_track(self, states: np.ndarray | None = None) -> np.ndarray:
+        """(k, 2) the plan centroid's site position along the track (or for ``states``), m."""
+        y = self.states if states is None else np.atleast_2d(states)
+        return self._body_point(y, self.problem.centroid)
 
     def _body_point(self, states: np.ndarray, p: tuple[float, float]) -> np.ndarray:
         gx, gy = self.problem.cog

@@ -7,8 +7,8 @@ import math
 import numpy as np
 import pytest
 
-from core.analysis.stage import balance_of
 from core.io.projectfile import load
+from core.analysis.stage import stage_result
 from core.mechanics.site import Placing
 from core.motion.drift import solve_drift
 from core.motion.dynamics import Motion, Strip, WaterDrag, strip_integrals
@@ -140,7 +140,7 @@ def test_at_the_start_the_body_feels_the_statics(index: int) -> None:
     p = setup.base
     y0 = p.motion.start_state(p.start)
     dy = p.motion.derivative()(0.0, y0)
-    b = balance_of(project, stage, setup.body.name)
+    b = stage_result(project, index).body(setup.body.name).balance
     fx, fy = b.net_force
     scale = b.net_magnitude + sum(abs(sh.pull_n) for sh in b.shares)
     assert dy[3] * p.motion.inertia.surge_kg == pytest.approx(fx, abs=1e-9 * scale)
