@@ -7,8 +7,8 @@ import math
 import numpy as np
 import pytest
 
-from core.io.projectfile import load
 from core.analysis.stage import stage_result
+from core.io.projectfile import load
 from core.mechanics.site import Placing
 from core.motion.drift import solve_drift
 from core.motion.dynamics import Motion, Strip, WaterDrag, strip_integrals
