@@ -1,24 +1,11 @@
-"""How numbers are written on screen and read back: the core's SI values in the display units."""
+"""How numbers are written on screen: the core's SI values in the display units.
+
+(Numbers typed by people are read back by app/numbers.py, the one parser.)"""
 
 from __future__ import annotations
 
-import math
 
-from core.errors import InputError
 from core.units import DisplayUnits, Quantity, fmt, label
-
-
-def parse_number(text: str, field: str) -> float:
-    """A finite number typed by a person (a comma as the decimal mark is accepted).
-    Raises InputError naming ``field``."""
-    t = text.strip().replace(",", ".")
-    try:
-        v = float(t)
-    except ValueError:
-        raise InputError(field, text, "is not a number") from None
-    if not math.isfinite(v):
-        raise InputError(field, text, "must be finite")
-    return v
 
 
 def bearing(deg: float | None) -> str:

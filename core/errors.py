@@ -27,13 +27,17 @@ class InputError(TowboardError, ValueError):
         The offending value.
     reason:
         Why it is wrong, in words.
+    shown:
+        The value as people read it, in their display unit (``"-5.0 kN"``); by default
+        the value's ``repr``.
     """
 
-    def __init__(self, field: str, value: object, reason: str) -> None:
+    def __init__(self, field: str, value: object, reason: str, *, shown: str | None = None) -> None:
         self.field = field
         self.value = value
         self.reason = reason
-        super().__init__(f"{field}: {value!r} {reason}")
+        self.shown = repr(value) if shown is None else shown
+        super().__init__(f"{field}: {self.shown} {reason}")
 
 
 class OutlineError(TowboardError, ValueError):

@@ -32,12 +32,15 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
+from app.numbers import message, parse_number, parse_optional, parse_value
 from core.errors import InputError, TowboardError
 from core.frames import turning_words
 from core.mechanics.bodies import stage_body
 from core.mechanics.loads import body_conditions, hoerner_cross_flow, loads_wrench, projection
-from core.model.conditions import Conditions
+from core.model import rules
+from core.model.conditions import Conditions, rule
 from core.model.efficiency import EfficiencyTable
+from core.model.rules import unit_of
 from core.units import DisplayUnits, label
 
 
@@ -52,7 +55,7 @@ class Field:
 
 WIND = (
     Field("wind_speed_ms", "Mean speed", "speed", tip="Mean wind speed at the height below"),
-    Field("wind_height_m", "Measured at height (m)", "plain", tip="Height of the wind reading"),
+    Field("wind_height_m", "Measured at height", "length", tip="Height of the wind reading"),
     Field("wind_from_deg", "From (° true)", "bearing", tip="True bearing the wind blows from"),
     Field("gust_factor", "Gust factor", "plain", tip="Gust speed over mean speed (1 = mean)"),
     Field(
@@ -102,14 +105,7 @@ CENTRES = (
 
 
 def _parse(text: str) -> float:
-    t = text.strip().replace(",", ".")
-    try:
-        v = float(t)
-    except ValueError:
-        raise InputError("value", text, "is not a number") from None
-    if not math.isfinite(v):
-        raise InputError("value", text, "is not a finite number")
-    return v
+    return parse_number(text)
 
 
 class ConditionsPanel(QWidget):
@@ -191,21 +187,8 @@ class ConditionsPanel(QWidget):
     def _units(self) -> DisplayUnits:
         return self.controller.project.units
 
-    def _to_si(self, f: Field, v: float) -> float:
-        u = self._units()
-        if f.kind == "speed":
-            return u.si(v, "speed")
-        if f.kind == "area":
-            return v * u.si(1.0, "length") ** 2
-        return v
-
     def _from_si(self, f: Field, v: float) -> float:
-        u = self._units()
-        if f.kind == "speed":
-            return u.value(v, "speed")
-        if f.kind == "area":
-            return v / u.si(1.0, "length") ** 2
-        return v
+        return v / unit_of(rule(f.attr).kind, self._units())[0]
 
     def _area_unit(self) -> str:
         return f"{label(self._units().unit('length'))}²"
@@ -239,8 +222,8 @@ class ConditionsPanel(QWidget):
         u = self._units()
         speed, length = label(u.unit("speed")), label(u.unit("length"))
         for f in WIND + CURRENT + SEA + LOADS:
-            if f.kind == "speed":
-                self.labels[f.attr].setText(f"{f.title} ({speed})")
+            if f.kind in ("speed", "length"):
+                self.labels[f.attr].setText(f"{f.title} ({speed if f.kind == 'speed' else length})")
             elif f.kind == "area":
                 self.labels[f.attr].setText(f"{f.title} ({self._area_unit()})")
         for attr, title in CENTRES:
@@ -343,15 +326,12 @@ class ConditionsPanel(QWidget):
             return
         text = self.edits[f.attr].text()
         try:
-            if not text.strip():
-                if not f.optional:
-                    raise InputError(f.title, text, "must be given")
-                value = None
-            else:
-                value = self._to_si(f, _parse(text))
+            if not text.strip() and not f.optional:
+                raise InputError(f.title, text, "must be given")
+            value = parse_optional(text, rule(f.attr), self._units())
             new = replace(c, **{f.attr: value})
         except InputError as e:
-            self.controller.message.emit(f"{f.title}: {e.value!r} {e.reason}")
+            self.controller.message.emit(message(e, self._units()))
             self.refresh_field(f)
             return
         self._apply(new, f"Set {f.title.lower()}", f.attr)
@@ -378,10 +358,13 @@ class ConditionsPanel(QWidget):
             return  # wait for the other one
         else:
             try:
-                ls = self._units().si(1.0, "length")
-                value = (_parse(tx) * ls, _parse(ty) * ls)
+                where = rules.COORDINATE.named("centre of pressure")
+                value = (
+                    parse_value(tx, where, self._units()),
+                    parse_value(ty, where, self._units()),
+                )
             except InputError as e:
-                self.controller.message.emit(f"Centre of pressure: {e.value!r} {e.reason}")
+                self.controller.message.emit(message(e, self._units()))
                 return
         self._apply(replace(c, **{attr: value}), "Set centre of pressure", attr)
 
@@ -491,6 +474,6 @@ class EfficiencyDialog(QDialog):
         try:
             self.table = self.build()
         except InputError as e:
-            QMessageBox.warning(self, "Table not valid", f"{e.field}: {e.value!r} {e.reason}")
+            QMessageBox.warning(self, "Table not valid", message(e, self.units))
             return
         self.accept()

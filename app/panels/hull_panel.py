@@ -6,7 +6,6 @@ typed in the display length unit (displacement in tonnes of mass).
 
 from __future__ import annotations
 
-import math
 from dataclasses import replace
 
 from PySide6.QtCore import Signal
@@ -24,7 +23,9 @@ from PySide6.QtWidgets import (
 from app import formatting as fmt
 from app.controller import Controller
 from app.edits import hulls as hull_edits
+from app.numbers import message, parse_optional
 from core.errors import TowboardError
+from core.model import rules
 from core.model.hull import Hull
 
 
@@ -179,23 +180,17 @@ class HullPanel(QWidget):
         c = self.controller
         c.apply(c.project.with_hull(hull), text)
 
-    def _number(self, edit: QLineEdit, what: str) -> float | None:
-        text = edit.text().strip().replace(",", ".")
-        if not text:
-            return None
-        try:
-            v = float(text)
-        except ValueError:
-            raise ValueError(f"{what}: {text!r} is not a number") from None
-        if not math.isfinite(v):
-            raise ValueError(f"{what}: {text!r} is not a finite number")
-        return v
+    def _number(self, edit: QLineEdit, rule: rules.Range) -> float | None:
+        """The SI value typed in ``edit`` (None if blank), checked by the core's ``rule``."""
+        return parse_optional(edit.text(), rule, self.controller.project.units)
 
     def _guard(self, fn) -> None:  # type: ignore[no-untyped-def]
         try:
             fn()
         except (TowboardError, ValueError) as e:
-            self.controller.message.emit(f"Not changed: {e}")
+            self.controller.message.emit(
+                f"Not changed: {message(e, self.controller.project.units)}"
+            )
             self.refresh()
 
     def _rename(self) -> None:
@@ -217,8 +212,7 @@ class HullPanel(QWidget):
             return
 
         def go() -> None:
-            v = self._number(edit, attr.split("_")[0])
-            si = None if v is None else self.controller.project.units.si(v, "length")
+            si = self._number(edit, rules.DRAUGHT if attr == "draught_m" else rules.FREEBOARD)
             if si != getattr(h, attr):
                 self._apply(replace(h, **{attr: si}), f"{attr.split('_')[0].title()} of {h.name}")
 
@@ -230,8 +224,7 @@ class HullPanel(QWidget):
             return
 
         def go() -> None:
-            v = self._number(self.displacement, "displacement")
-            kg = None if v is None else v * 1000.0
+            kg = self._number(self.displacement, rules.DISPLACEMENT)
             if kg != h.displacement_kg:
                 self._apply(replace(h, displacement_kg=kg), f"Displacement of {h.name}")
 
@@ -243,17 +236,13 @@ class HullPanel(QWidget):
             return
 
         def go() -> None:
-            x = self._number(self.cog_x, "centre of gravity x")
-            y = self._number(self.cog_y, "centre of gravity y")
-            u = self.controller.project.units
+            x = self._number(self.cog_x, rules.COORDINATE.named("centre of gravity x"))
+            y = self._number(self.cog_y, rules.COORDINATE.named("centre of gravity y"))
             if x is None and y is None:
                 cog = None
             else:
                 cx, cy = h.geometry.centroid
-                cog = (
-                    cx if x is None else u.si(x, "length"),
-                    cy if y is None else u.si(y, "length"),
-                )
+                cog = (cx if x is None else x, cy if y is None else y)
             if cog != h.cog:
                 self._apply(replace(h, cog=cog), f"Centre of gravity of {h.name}")
 

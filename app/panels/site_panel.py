@@ -26,7 +26,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
-from app.formatting import parse_number
+from app.numbers import message, parse_number
 from core.errors import InputError
 from core.mechanics.site import basin, channel, dolphin, moored_vessel, quay
 from core.model.plan import SiteFeature
@@ -168,7 +168,7 @@ class FeatureDialog(QDialog):
         try:
             self.features = self.build()
         except InputError as e:
-            self.error.setText(f"{e.field}: {e.value!r} {e.reason}")
+            self.error.setText(message(e, self.units))
             return
         self.accept()
 

@@ -33,11 +33,12 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import BodyResult, Controller
-from app.formatting import parse_number
+from app.numbers import message, parse_value
 from core.analysis.stage import BodyResult as StageBody
 from core.analysis.stage import StageResult
 from core.errors import TowboardError
 from core.mechanics.balance import TugLayout
+from core.model import rules
 from core.model.goals import GOAL_KINDS, GOAL_WORDS, Goal
 from core.model.plan import Project, Stage
 from core.solve.pulls import PullsResult, TugLostCheck, pulls_problem, shortfall_words, solve_pulls
@@ -228,14 +229,13 @@ class SolvePanel(QWidget):
             return None
         u = self.controller.project.units
         vals = []
-        for w, what, q, used in zip(
+        for w, rule, used in zip(
             (self.fx, self.fy, self.mz),
-            ("goal force ahead", "goal force to port", "goal yaw moment"),
-            ("force", "force", "moment"),
+            (rules.GOAL_FORCE_AHEAD, rules.GOAL_FORCE_TO_PORT, rules.GOAL_MOMENT),
             USES[kind],
             strict=True,
         ):
-            vals.append(u.si(parse_number(w.text() or "0", what), q) if used else 0.0)  # type: ignore[arg-type]
+            vals.append(parse_value(w.text() or "0", rule, u, "goal") if used else 0.0)
         return Goal(kind, *vals)
 
     def _kind_chosen(self) -> None:
@@ -253,7 +253,7 @@ class SolvePanel(QWidget):
         try:
             goal = self.goal()
         except TowboardError as e:
-            c.message.emit(f"Goal not changed: {e}")
+            c.message.emit(f"Goal not changed: {message(e, c.project.units)}")
             self._shown_goal = None
             self._sync_goal()
             return

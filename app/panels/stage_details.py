@@ -27,11 +27,20 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
-from app.formatting import parse_number
+from app.numbers import message, parse_optional, parse_value
 from core.errors import InputError
 from core.mechanics.site import body_pose
+from core.model import rules
 from core.model.plan import STAGE_KINDS, BodyPose, Stage
 from core.units import Quantity, fmt, label
+
+
+#: The rule (core.model.rules) of each stage limit.
+_LIMIT_RULES = {
+    "max_wind_ms": rules.WIND_LIMIT,
+    "max_current_ms": rules.CURRENT_LIMIT,
+    "min_clearance_m": rules.LEAST_CLEARANCE,
+}
 
 
 def _with_unit(field: QWidget, unit: QLabel) -> QWidget:
@@ -182,7 +191,7 @@ class StageDetails(QWidget):
 
     # -- editing -------------------------------------------------------------------------
     def _refuse(self, e: InputError) -> None:
-        self.controller.message.emit(f"Not changed: {e.field} {e.value!r} {e.reason}")
+        self.controller.message.emit(f"Not changed: {message(e, self.controller.project.units)}")
         self.fill(force=True)
 
     def _write(self, stage: Stage, text: str) -> None:
@@ -207,12 +216,11 @@ class StageDetails(QWidget):
         stage = self._stage()
         if self._filling or stage is None:
             return
-        q = next(q for k, _t, q in self.LIMITS if k == key)
         name = next(t for k, t, _q in self.LIMITS if k == key).lower()
         text = self.limit_fields[key].text()
         u = self.controller.project.units
         try:
-            value = None if not text.strip() else u.si(parse_number(text, name), q)
+            value = parse_optional(text, _LIMIT_RULES[key], u)
             limits = replace(stage.limits, **{key: value})
         except InputError as e:
             self._refuse(e)
@@ -225,7 +233,7 @@ class StageDetails(QWidget):
             return
         p = self.controller.project
         try:
-            v = p.units.si(parse_number(self.margin.text(), "clearance margin"), "length")
+            v = parse_value(self.margin.text(), rules.CLEARANCE_MARGIN, p.units)
             new = replace(p, clearance_margin_m=v)
         except InputError as e:
             self._refuse(e)
@@ -243,11 +251,11 @@ class StageDetails(QWidget):
         pose = body_pose(project, stage, name)
         field = {1: "x", 2: "y", 3: "heading"}[item.column()]
         try:
-            v = parse_number(item.text(), f"{name}: {field}")
             if field == "heading":
+                v = parse_value(item.text(), rules.HEADING, u, name)
                 new = BodyPose(name, pose.x, pose.y, v % 360.0)
             else:
-                si = u.si(v, "length")
+                si = parse_value(item.text(), rules.COORDINATE.named(field), u, name)
                 new = (
                     BodyPose(name, si, pose.y, pose.heading_deg)
                     if field == "x"

@@ -6,7 +6,6 @@ editing a cell writes a new project through the controller (one undo step).
 
 from __future__ import annotations
 
-import math
 from collections.abc import Callable
 from dataclasses import dataclass, replace
 
@@ -16,9 +15,11 @@ from PySide6.QtGui import QColor
 from app import formatting as fmt
 from app.controller import Controller
 from app.edits import tugs as tug_edits
+from app.numbers import message, parse_value
 from core.errors import TowboardError
 from core.mechanics.balance import TugShare
 from core.mechanics.bodies import body_name_of_hull
+from core.model import rules
 from core.model.tugs import Placement, Tug
 from core.units import fmt as plain
 
@@ -291,7 +292,9 @@ class TugsModel(QAbstractTableModel):
         try:
             new, text = self._edited(row, key, value, role)
         except (TowboardError, ValueError) as e:
-            self.controller.message.emit(f"Not changed: {e}")
+            self.controller.message.emit(
+                f"Not changed: {message(e, self.controller.project.units)}"
+            )
             return False
         if new is None:
             return False
@@ -318,32 +321,26 @@ class TugsModel(QAbstractTableModel):
             return tug_edits.renamed_tug(project, t.name, text), f"Rename {t.name}"
         if key == "point":
             return self._moved_to_point(row, text), f"{t.name} works at {text}"
-        number = _parse(text, COLUMNS[KEYS.index(key)].title.split(" (")[0])
+        if key not in _RULES:
+            return None, ""
+        value = parse_value(text, _RULES[key], u, f"tug {t.name}")
         if key == "bp":
-            return project.with_tug(
-                replace(t, bollard_pull_n=u.si(number, "force"))
-            ), f"{t.name} bollard pull"
+            return project.with_tug(replace(t, bollard_pull_n=value)), f"{t.name} bollard pull"
         if key == "astern_bp":
-            return project.with_tug(
-                replace(t, astern_pull_n=u.si(number, "force"))
-            ), f"{t.name} astern pull"
+            return project.with_tug(replace(t, astern_pull_n=value)), f"{t.name} astern pull"
         stage = c.stage
         if p is None or stage is None:
             return None, ""
         if key == "setting":
-            if number < 0:
-                raise ValueError(f"setting {number} % must be zero or more")
-            return c.with_stage(
-                stage.with_placement(p.with_setting(number / 100.0))
-            ), f"Setting of {t.name}"
+            return c.with_stage(stage.with_placement(p.with_setting(value))), f"Setting of {t.name}"
         body = c.results()[row.body].body if row.body else None
         if key == "lead" and body is not None:
             return c.with_stage(
-                stage.with_placement(tug_edits.lead_from_bearing(body, p, number))
+                stage.with_placement(tug_edits.lead_from_bearing(body, p, value))
             ), f"Lead of {t.name}"
         if key == "length":
             return c.with_stage(
-                stage.with_placement(p.with_lead(p.lead_rad, u.si(number, "length")))
+                stage.with_placement(p.with_lead(p.lead_rad, value))
             ), f"Line of {t.name}"
         return None, ""
 
@@ -389,11 +386,11 @@ def _runs(rows: list[int]) -> list[tuple[int, int]]:
     return out
 
 
-def _parse(text: str, what: str) -> float:
-    try:
-        v = float(text.replace(",", "."))
-    except ValueError:
-        raise ValueError(f"{what}: {text!r} is not a number") from None
-    if not math.isfinite(v):
-        raise ValueError(f"{what}: {text!r} is not a finite number")
-    return v
+#: The rule (core.model.rules) of each editable numeric column.
+_RULES: dict[str, rules.Range] = {
+    "bp": rules.BOLLARD_PULL,
+    "astern_bp": rules.ASTERN_PULL,
+    "setting": rules.SETTING,
+    "lead": rules.BEARING.named("lead"),
+    "length": rules.LINE_LENGTH,
+}

@@ -1,7 +1,11 @@
 """The JSON tree of a ``.towboard`` file to a Project.
 
 Decoding collects every problem with its field path instead of stopping at the
-first, and turns the core's own validation errors into file problems.
+first, and turns the core's own validation errors into file problems. Every number is
+checked against its rule (core.model.rules) in the file's own units, every name as
+text that can be written back; nothing hostile (deep nesting, huge integers, a list
+where a name is expected, a null where a number is expected) gets past the loader to
+fail later in a report, a briefing or a save.
 """
 
 from __future__ import annotations
@@ -14,13 +18,16 @@ from typing import Any, TypeVar
 
 from core.errors import InputError, OutlineError, Problem
 from core.frames import bearing_to_angle
-from core.io.fileformat import FORMAT_NAME, KN, KNOT, Json
+from core.io.fileformat import FILE_UNITS, FORMAT_NAME, Json
+from core.model import rules
 from core.model.conditions import Conditions
+from core.model.conditions import rule as condition_rule
 from core.model.drift import DriftSettings
 from core.model.efficiency import EfficiencyTable
 from core.model.goals import GOAL_KINDS, Goal, goal_from_parts
 from core.model.hull import ADDED_MASS_METHODS, Fitting, Hull
 from core.model.plan import (
+    STAGE_KINDS,
     BodyPose,
     GroupMember,
     LashedGroup,
@@ -36,6 +43,43 @@ from core.units import CHOICES, DisplayUnits
 
 T = TypeVar("T")
 
+_NUMBER_TYPES = (int, float)
+_LO, _HI = rules.COORDINATE.low, rules.COORDINATE.high
+
+
+def describe(value: Any) -> str:
+    """A value from the file as a message shows it, short and safe to print."""
+    if value is None:
+        return "null"
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, int):
+        digits = len(str(abs(value))) if abs(value) < 10**300 else None
+        return repr(value) if digits is not None and digits <= 20 else "a very long integer"
+    if isinstance(value, float):
+        return repr(value)
+    if isinstance(value, str):
+        text = value if len(value) <= 40 else f"{value[:37]}..."
+        return ascii(text) if not text.isprintable() else repr(text)
+    if isinstance(value, list):
+        if len(value) <= 4 and not any(isinstance(v, list | dict) for v in value):
+            return f"[{', '.join(describe(v) for v in value)}]"
+        return "a list"
+    if isinstance(value, dict):
+        return "an object"
+    return type(value).__name__
+
+
+def _key(key: str) -> str:
+    """A field name for a path: as written when plain, escaped otherwise."""
+    if len(key) <= 40 and key.isprintable():
+        return key
+    return ascii(key[:40])
+
+
+def _join(path: str, key: str) -> str:
+    return f"{path}.{_key(key)}" if path else _key(key)
+
 
 class _Reader:
     """Reads a JSON tree, collecting every problem with its field path."""
@@ -49,94 +93,150 @@ class _Reader:
     def obj(
         self, value: Any, path: str, required: tuple[str, ...], optional: tuple[str, ...] = ()
     ) -> Json | None:
+        """``value`` if it is an object holding every required key; else None.
+
+        Unknown keys are problems (so nothing is dropped by open and save), but the
+        object is still read for the problems it holds.
+        """
         if not isinstance(value, dict):
-            self.fail(path, f"must be an object, not {type(value).__name__}")
+            self.fail(path, f"must be an object, not {describe(value)}")
             return None
         for key in value:
             if key not in required and key not in optional:
-                self.fail(f"{path}.{key}" if path else key, "is not a known field")
-        for key in required:
-            if key not in value:
-                self.fail(f"{path}.{key}" if path else key, "is missing")
-        return value
+                self.fail(_join(path, key), "is not a known field")
+        missing = [key for key in required if key not in value]
+        for key in missing:
+            self.fail(_join(path, key), "is missing")
+        return None if missing else value
 
     def items(self, d: Json, key: str, path: str) -> Iterator[tuple[str, Any]]:
         value = d.get(key, [])
         if not isinstance(value, list):
-            self.fail(f"{path}.{key}", "must be a list")
+            self.fail(_join(path, key), f"must be a list, not {describe(value)}")
             return
+        base = _join(path, key)
         for i, item in enumerate(value):
-            yield f"{path}.{key}[{i}]", item
+            yield f"{base}[{i}]", item
 
-    def text(self, d: Json, key: str, path: str, default: str = "") -> str:
+    def text(
+        self, d: Json, key: str, path: str, rule: rules.Text = rules.LABEL, default: str = ""
+    ) -> str:
+        """The text at ``key`` if it keeps ``rule``; else ``default``, with a problem."""
         v = d.get(key, default)
-        if not isinstance(v, str):
-            self.fail(f"{path}.{key}", f"{v!r} is not text")
+        reason = rule.problem(v)
+        if reason is not None:
+            self.fail(_join(path, key), f"{describe(v)} {reason}" if isinstance(v, str) else reason)
             return default
-        return v
+        return v  # type: ignore[no-any-return]
+
+    def name(self, d: Json, key: str, path: str) -> str | None:
+        """A name (one line, not empty); None with a problem if it is not one."""
+        v = d.get(key)
+        reason = rules.NAME.problem(v)
+        if reason is not None:
+            self.fail(_join(path, key), f"{describe(v)} {reason}" if isinstance(v, str) else reason)
+            return None
+        return v  # type: ignore[no-any-return]
 
     def number(
         self,
         d: Json,
         key: str,
         path: str,
+        rule: rules.Range,
         *,
         default: float | None = None,
-        low: float | None = None,
-        high: float | None = None,
-        positive: bool = False,
-        unit: str = "",
+        nullable: bool = False,
     ) -> float | None:
-        v = d.get(key, default)
-        p = f"{path}.{key}" if path else key
+        """The number at ``key``, converted from the file's unit to SI and checked by
+        ``rule``; ``default`` (SI) when the key is absent, None with a problem when it
+        is bad (or when it is null and ``nullable``)."""
+        if key not in d:
+            return default
+        return self.value(d[key], _join(path, key), rule, nullable=nullable)
+
+    def value(
+        self, v: Any, path: str, rule: rules.Range, *, nullable: bool = False
+    ) -> float | None:
+        """One number of the file in SI, checked by ``rule``; see :meth:`number`."""
         if v is None:
+            if not nullable:
+                self.fail(path, "must be a number, not null")
             return None
-        if isinstance(v, bool) or not isinstance(v, int | float):
-            self.fail(p, f"{v!r} is not a number")
+        if type(v) not in _NUMBER_TYPES:
+            self.fail(path, f"{describe(v)} is not a number")
             return None
-        v = float(v)
-        u = f" {unit}" if unit else ""
-        if not math.isfinite(v):
-            self.fail(p, f"{v} is not a finite number")
-        elif positive and v <= 0:
-            self.fail(p, f"{v:g}{u} must be above zero")
-        elif low is not None and v < low:
-            self.fail(p, f"{v:g}{u} is below {low:g}{u}")
-        elif high is not None and v > high:
-            self.fail(p, f"{v:g}{u} is above {high:g}{u}")
-        else:
-            return v
+        try:
+            x = float(v)
+        except OverflowError:
+            self.fail(path, f"{describe(v)} is too large a number")
+            return None
+        factor = rules.unit_of(rule.kind, FILE_UNITS)[0]
+        si = x * factor
+        if rule.holds(si):
+            return si
+        reason, shown = rule.explain(si, FILE_UNITS)
+        self.fail(path, f"{shown} {reason}")
         return None
 
     def flag(self, d: Json, key: str, path: str, default: bool = False) -> bool:
         v = d.get(key, default)
         if not isinstance(v, bool):
-            self.fail(f"{path}.{key}", f"{v!r} is not true or false")
+            self.fail(_join(path, key), f"{describe(v)} is not true or false")
             return default
         return v
 
-    def point(self, value: Any, path: str) -> tuple[float, float] | None:
-        if (
-            not isinstance(value, list)
-            or len(value) != 2
-            or not all(isinstance(c, int | float) and not isinstance(c, bool) for c in value)
-        ):
-            self.fail(path, f"{value!r} is not a pair of numbers [x, y]")
+    def choice(self, d: Json, key: str, path: str, options: tuple[str, ...]) -> str | None:
+        v = d.get(key)
+        if not isinstance(v, str) or v not in options:
+            self.fail(_join(path, key), f"{describe(v)} is not one of {', '.join(options)}")
             return None
-        x, y = float(value[0]), float(value[1])
-        if not (math.isfinite(x) and math.isfinite(y)):
-            self.fail(path, f"{value!r} is not finite")
+        return v
+
+    def point(
+        self, value: Any, path: str, rule: rules.Range = rules.COORDINATE
+    ) -> tuple[float, float] | None:
+        """A pair [x, y] in SI, each checked by ``rule`` (metres by default)."""
+        if not isinstance(value, list) or len(value) != 2:
+            self.fail(path, f"{describe(value)} is not a pair of numbers [x, y]")
             return None
-        return (x, y)
+        if not all(type(c) in _NUMBER_TYPES for c in value):
+            self.fail(
+                path,
+                f"[{describe(value[0])}, {describe(value[1])}] is not a pair of numbers [x, y]",
+            )
+            return None
+        x = self.value(value[0], f"{path}[0]", rule)
+        y = self.value(value[1], f"{path}[1]", rule)
+        return None if x is None or y is None else (x, y)
 
     def points(self, d: Json, key: str, path: str) -> list[tuple[float, float]] | None:
+        """A list of coordinate pairs, m; None (with problems) if any is bad."""
+        value = d.get(key, [])
+        if not isinstance(value, list):
+            self.fail(_join(path, key), f"must be a list, not {describe(value)}")
+            return None
+        if len(value) > rules.MAX_OUTLINE_VERTICES:
+            self.fail(
+                _join(path, key), f"has {len(value)} points, more than {rules.MAX_OUTLINE_VERTICES}"
+            )
+            return None
         out: list[tuple[float, float]] = []
         ok = True
-        for p, item in self.items(d, key, path):
-            pt = self.point(item, p)
+        for i, p in enumerate(value):
+            # The fast path: a pair of plain numbers within the coordinate range.
+            if type(p) is list and len(p) == 2:
+                x, y = p
+                if (
+                    type(x) in _NUMBER_TYPES
+                    and type(y) in _NUMBER_TYPES
+                    and _LO <= x <= _HI
+                    and _LO <= y <= _HI
+                ):
+                    out.append((float(x), float(y)))
+                    continue
+            pt = self.point(p, f"{_join(path, key)}[{i}]")
             ok = ok and pt is not None
-            if pt is not None:
-                out.append(pt)
         return out if ok else None
 
     def build(self, path: str, make: Callable[[], T]) -> T | None:
@@ -145,8 +245,10 @@ class _Reader:
             return make()
         except OutlineError as e:
             self.fail(path, str(e).split(": ", 1)[-1] if e.vertex is None else f"{e}")
+        except rules.RangeError as e:
+            self.fail(path, e.in_units(FILE_UNITS))
         except InputError as e:
-            self.fail(path, f"{e.field}: {e.value!r} {e.reason}")
+            self.fail(path, str(e))
         return None
 
 
@@ -173,68 +275,35 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
     if top is None:
         return None, r.problems
     if top.get("format") != FORMAT_NAME:
-        r.fail("format", f"{top.get('format')!r} is not {FORMAT_NAME!r}")
-    plan = (
-        r.obj(
-            top.get("plan", {}),
-            "plan",
-            (),
-            (
-                "name",
-                "revision",
-                "date",
-                "prepared_by",
-                "checked_by",
-                "approved_by",
-                "notes",
-                "history",
-            ),
-        )
-        or {}
-    )
-    history = _decode_history(r, plan)
+        r.fail("format", f"{describe(top.get('format'))} is not {FORMAT_NAME!r}")
+    plan = _decode_plan(r, top.get("plan", {}))
     units = _decode_units(r, top.get("display_units", {}))
     hulls = [
-        h
-        for p, item in r.items(top, "hulls", "")
-        if (h := _decode_hull(r, item, p.lstrip("."))) is not None
+        h for p, item in r.items(top, "hulls", "") if (h := _decode_hull(r, item, p)) is not None
     ]
     hull_names = {h.name for h in hulls}
     groups = [
         g
         for p, item in r.items(top, "groups", "")
-        if (g := _decode_group(r, item, p.lstrip("."), hull_names))
+        if (g := _decode_group(r, item, p, hull_names)) is not None
     ]
-    tugs = [
-        t
-        for p, item in r.items(top, "tugs", "")
-        if (t := _decode_tug(r, item, p.lstrip("."))) is not None
-    ]
+    tugs = [t for p, item in r.items(top, "tugs", "") if (t := _decode_tug(r, item, p)) is not None]
     efficiency = _decode_efficiency(r, top.get("tug_efficiency"), "tug_efficiency")
     drift = _decode_drift(r, top.get("drift"), "drift")
     site = _decode_site(r, top.get("site", {}))
-    ctx = _Context(
-        {h.name: h for h in hulls}, {t.name for t in tugs}, hull_names | {g.name for g in groups}
-    )
+    ctx = _Context(hulls, {t.name for t in tugs}, hull_names | {g.name for g in groups})
     stages = [
         s
         for p, item in r.items(top, "stages", "")
-        if (s := _decode_stage(r, item, p.lstrip("."), ctx))
+        if (s := _decode_stage(r, item, p, ctx)) is not None
     ]
-    margin = r.number(top, "clearance_margin_m", "", default=10.0, low=0.0, unit="m")
+    margin = r.number(top, "clearance_margin_m", "", rules.CLEARANCE_MARGIN, default=10.0)
     if r.problems:
         return None, r.problems
     project = r.build(
         "",
         lambda: Project(
-            name=r.text(plan, "name", "plan", "Untitled plan"),
-            revision=r.text(plan, "revision", "plan", "A"),
-            date=r.text(plan, "date", "plan"),
-            prepared_by=r.text(plan, "prepared_by", "plan"),
-            checked_by=r.text(plan, "checked_by", "plan"),
-            approved_by=r.text(plan, "approved_by", "plan"),
-            notes=r.text(plan, "notes", "plan"),
-            history=tuple(history),
+            **plan,
             units=units or DisplayUnits(),
             hulls=tuple(hulls),
             groups=tuple(groups),
@@ -247,6 +316,20 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
         ),
     )
     return (project if not r.problems else None), r.problems
+
+
+_PLAN_TEXT = ("name", "revision", "date", "prepared_by", "checked_by", "approved_by")
+
+
+def _decode_plan(r: _Reader, value: Any) -> dict[str, Any]:
+    d = r.obj(value, "plan", (), (*_PLAN_TEXT, "notes", "history"))
+    if d is None:
+        return {}
+    out: dict[str, Any] = {key: r.text(d, key, "plan") for key in _PLAN_TEXT if key in d}
+    if "notes" in d:
+        out["notes"] = r.text(d, "notes", "plan", rules.NOTES)
+    out["history"] = tuple(_decode_history(r, d))
+    return out
 
 
 def _decode_history(r: _Reader, plan: Json) -> list[Revision]:
@@ -263,7 +346,7 @@ def _decode_history(r: _Reader, plan: Json) -> list[Revision]:
                 r.text(d, "revision", p),
                 r.text(d, "date", p),
                 r.text(d, "by", p),
-                r.text(d, "description", p),
+                r.text(d, "description", p, rules.NOTES),
             ),
         )
         if rev is not None:
@@ -277,8 +360,8 @@ def _decode_units(r: _Reader, value: Any) -> DisplayUnits | None:
         return None
     ok = True
     for q, choices in CHOICES.items():
-        if q in d and d[q] not in choices:
-            r.fail(f"display_units.{q}", f"{d[q]!r} is not one of {', '.join(choices)}")
+        if q in d and (not isinstance(d[q], str) or d[q] not in choices):
+            r.fail(f"display_units.{q}", f"{describe(d[q])} is not one of {', '.join(choices)}")
             ok = False
     return DisplayUnits(**{q: d[q] for q in CHOICES if q in d}) if ok else None
 
@@ -300,77 +383,27 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
     )
     if d is None:
         return None
-    name = r.text(d, "name", path)
+    name = r.name(d, "name", path)
     outline = r.points(d, "outline_m", path)
-    draught = r.number(d, "draught_m", path, positive=True, unit="m")
-    freeboard = r.number(d, "freeboard_m", path, positive=True, unit="m")
-    disp = r.number(d, "displacement_t", path, positive=True, unit="t")
-    gyradius = r.number(d, "yaw_radius_of_gyration_m", path, positive=True, unit="m")
-    method = r.text(d, "added_mass_method", path, "sections")
-    if method not in ADDED_MASS_METHODS:
-        r.fail(
-            f"{path}.added_mass_method", f"{method!r} is not one of {', '.join(ADDED_MASS_METHODS)}"
-        )
-        method = "sections"
+    draught = r.number(d, "draught_m", path, rules.DRAUGHT, nullable=True)
+    freeboard = r.number(d, "freeboard_m", path, rules.FREEBOARD, nullable=True)
+    disp = r.number(d, "displacement_t", path, rules.DISPLACEMENT, nullable=True)
+    gyradius = r.number(d, "yaw_radius_of_gyration_m", path, rules.YAW_GYRADIUS, nullable=True)
+    method = "sections" if "added_mass_method" not in d else r.choice(
+        d, "added_mass_method", path, ADDED_MASS_METHODS
+    )
     cog = (
         None
         if d.get("centre_of_gravity_m") is None
         else r.point(d["centre_of_gravity_m"], f"{path}.centre_of_gravity_m")
     )
-    fittings: list[Fitting] = []
-    for p, item in r.items(d, "fittings", path):
-        f = r.obj(
-            item,
-            p,
-            ("name", "kind", "position_m"),
-            ("type", "swl_kN", "tow_kN", "permitted_lead_deg"),
-        )
-        if f is None:
-            continue
-        pos = r.point(f.get("position_m"), f"{p}.position_m")
-        swl = r.number(f, "swl_kN", p, positive=True, unit="kN")
-        tow = r.number(f, "tow_kN", p, positive=True, unit="kN")
-        permitted = None
-        if f.get("permitted_lead_deg") is not None:
-            pair = r.point(f["permitted_lead_deg"], f"{p}.permitted_lead_deg")
-            if pair is None:
-                continue
-            permitted = _sector(pair)
-        kind = f.get("kind")
-        if kind not in ("line", "push"):
-            r.fail(f"{p}.kind", f"{kind!r} is not 'line' or 'push'")
-            continue
-        if pos is not None:
-            fitting = r.build(
-                p,
-                partial(
-                    Fitting,
-                    r.text(f, "name", p),
-                    kind,
-                    pos[0],
-                    pos[1],
-                    r.text(f, "type", p, "bitt"),
-                    None if swl is None else swl * KN,
-                    None if tow is None else tow * KN,
-                    permitted,
-                ),
-            )
-            if fitting is not None:
-                fittings.append(fitting)
-    if outline is None:
+    fittings = [f for p, item in r.items(d, "fittings", path) if (f := _decode_fitting(r, item, p))]
+    if outline is None or name is None or method is None:
         return None
     hull = r.build(
         path,
         lambda: Hull(
-            name,
-            tuple(outline),
-            draught,
-            freeboard,
-            None if disp is None else disp * 1000.0,
-            cog,
-            tuple(fittings),
-            gyradius,
-            method,
+            name, tuple(outline), draught, freeboard, disp, cog, tuple(fittings), gyradius, method
         ),
     )
     if hull is not None:
@@ -382,23 +415,58 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
     return hull
 
 
+def _decode_fitting(r: _Reader, value: Any, path: str) -> Fitting | None:
+    f = r.obj(
+        value,
+        path,
+        ("name", "kind", "position_m"),
+        ("type", "swl_kN", "tow_kN", "permitted_lead_deg"),
+    )
+    if f is None:
+        return None
+    name = r.name(f, "name", path)
+    pos = r.point(f["position_m"], f"{path}.position_m")
+    swl = r.number(f, "swl_kN", path, rules.SWL, nullable=True)
+    tow = r.number(f, "tow_kN", path, rules.TOW, nullable=True)
+    kind = r.choice(f, "kind", path, ("line", "push"))
+    fitting_type = r.text(f, "type", path, default="bitt")
+    permitted = None
+    if f.get("permitted_lead_deg") is not None:
+        pair = r.point(f["permitted_lead_deg"], f"{path}.permitted_lead_deg", rules.BEARING)
+        if pair is None:
+            return None
+        permitted = _sector(pair)
+    if name is None or kind is None or pos is None:
+        return None
+    return r.build(
+        path,
+        partial(Fitting, name, kind, pos[0], pos[1], fitting_type, swl, tow, permitted),  # type: ignore[arg-type]
+    )
+
+
 def _decode_group(r: _Reader, value: Any, path: str, hulls: set[str]) -> LashedGroup | None:
     d = r.obj(value, path, ("name", "members"))
     if d is None:
         return None
+    name = r.name(d, "name", path)
     members = []
     for p, item in r.items(d, "members", path):
         m = r.obj(item, p, ("hull",), ("position_m", "heading_deg"))
         if m is None:
             continue
-        if m["hull"] not in hulls:
-            r.fail(f"{p}.hull", f"{m['hull']!r} is not a hull of this plan")
+        hull = r.name(m, "hull", p)
+        if hull is None:
+            continue
+        if hull not in hulls:
+            r.fail(f"{p}.hull", f"{describe(hull)} is not a hull of this plan")
             continue
         pos = r.point(m.get("position_m", [0, 0]), f"{p}.position_m")
-        hdg = r.number(m, "heading_deg", p, default=0.0)
+        hdg = r.number(m, "heading_deg", p, rules.HEADING, default=0.0)
         if pos is not None and hdg is not None:
-            members.append(GroupMember(m["hull"], pos[0], pos[1], bearing_to_angle(hdg)))
-    return r.build(path, lambda: LashedGroup(r.text(d, "name", path), tuple(members)))
+            members.append(GroupMember(hull, pos[0], pos[1], bearing_to_angle(hdg)))
+    if name is None:
+        return None
+    return r.build(path, lambda: LashedGroup(name, tuple(members)))
 
 
 def _decode_tug(r: _Reader, value: Any, path: str) -> Tug | None:
@@ -420,27 +488,23 @@ def _decode_tug(r: _Reader, value: Any, path: str) -> Tug | None:
     )
     if d is None:
         return None
-    bp = r.number(d, "bollard_pull_kN", path, positive=True, unit="kN")
-    astern = r.number(d, "astern_pull_kN", path, low=0.0, unit="kN")
-    height = r.number(d, "towing_point_height_m", path, low=0.0, unit="m")
-    towline = r.number(d, "towline_length_m", path, positive=True, unit="m")
-    mbl = r.number(d, "towline_mbl_kN", path, positive=True, unit="kN")
-    if bp is None:
+    name = r.name(d, "name", path)
+    bp = r.number(d, "bollard_pull_kN", path, rules.BOLLARD_PULL)
+    astern = r.number(d, "astern_pull_kN", path, rules.ASTERN_PULL, nullable=True)
+    height = r.number(d, "towing_point_height_m", path, rules.TOWING_POINT_HEIGHT, nullable=True)
+    towline = r.number(d, "towline_length_m", path, rules.TOWLINE_LENGTH, nullable=True)
+    mbl = r.number(d, "towline_mbl_kN", path, rules.TOWLINE_MBL, nullable=True)
+    texts = [
+        r.text(d, key, path)
+        for key in ("type", "role", "certificate_date", "call_sign", "working_channel")
+    ]
+    if bp is None or name is None:
         return None
+    tug_type, role, certificate, call_sign, channel = texts
     return r.build(
         path,
         lambda: Tug(
-            r.text(d, "name", path),
-            bp * KN,
-            None if astern is None else astern * KN,
-            r.text(d, "type", path),
-            r.text(d, "role", path),
-            height,
-            r.text(d, "certificate_date", path),
-            towline,
-            None if mbl is None else mbl * KN,
-            r.text(d, "call_sign", path),
-            r.text(d, "working_channel", path),
+            name, bp, astern, tug_type, role, height, certificate, towline, mbl, call_sign, channel
         ),
     )
 
@@ -454,18 +518,16 @@ def _decode_site(r: _Reader, value: Any) -> Site | None:
         f = r.obj(item, p, ("name", "kind", "points_m"), ("closed",))
         if f is None:
             continue
+        name = r.name(f, "name", p)
+        kind = r.choice(f, "kind", p, ("quay", "dolphin", "vessel", "limit"))
         pts = r.points(f, "points_m", p)
-        if pts is None:
+        closed = r.flag(f, "closed", p)
+        if pts is None or name is None or kind is None:
             continue
-        feature = r.build(
-            p,
-            partial(
-                SiteFeature, r.text(f, "name", p), f["kind"], tuple(pts), r.flag(f, "closed", p)
-            ),
-        )
+        feature = r.build(p, partial(SiteFeature, name, kind, tuple(pts), closed))  # type: ignore[arg-type]
         if feature is not None:
             features.append(feature)
-    return Site(r.text(d, "name", "site"), tuple(features))
+    return r.build("site", lambda: Site(r.text(d, "name", "site"), tuple(features)))
 
 
 def _sector(pair: tuple[float, float]) -> tuple[float, float]:
@@ -475,76 +537,91 @@ def _sector(pair: tuple[float, float]) -> tuple[float, float]:
 
 
 class _Context:
-    def __init__(self, hulls: dict[str, Hull], tugs: set[str], bodies: set[str]) -> None:
-        self.hulls, self.tugs, self.bodies = hulls, tugs, bodies
+    """What a stage's entries are checked against: the plan's hulls, tugs and bodies."""
+
+    def __init__(self, hulls: list[Hull], tugs: set[str], bodies: set[str]) -> None:
+        self.hulls = {h.name: h for h in hulls}
+        self.kinds = {h.name: {f.name: f.kind for f in h.fittings} for h in hulls}
+        self.tugs, self.bodies = tugs, bodies
+
+
+_PLACEMENT_KEYS = ("lead_deg", "line_length_m", "push_angle_deg", "astern", "lead_sector_deg")
 
 
 def _decode_placement(r: _Reader, value: Any, path: str, ctx: _Context) -> Placement | None:
-    d = r.obj(
-        value,
-        path,
-        ("tug", "hull", "point", "setting_percent"),
-        ("lead_deg", "line_length_m", "push_angle_deg", "astern", "lead_sector_deg"),
-    )
+    d = r.obj(value, path, ("tug", "hull", "point", "setting_percent"), _PLACEMENT_KEYS)
     if d is None:
         return None
     tug, hull_name, point = (
-        r.text(d, "tug", path),
-        r.text(d, "hull", path),
-        r.text(d, "point", path),
+        r.name(d, "tug", path),
+        r.name(d, "hull", path),
+        r.name(d, "point", path),
     )
-    ok = True
-    if tug not in ctx.tugs:
-        r.fail(f"{path}.tug", f"{tug!r} is not a tug of this plan")
+    ok = tug is not None and hull_name is not None and point is not None
+    if tug is not None and tug not in ctx.tugs:
+        r.fail(f"{path}.tug", f"{describe(tug)} is not a tug of this plan")
         ok = False
-    hull = ctx.hulls.get(hull_name)
+    kinds = ctx.kinds.get(hull_name) if hull_name is not None else None
     kind = "line"
-    if hull is None:
-        r.fail(f"{path}.hull", f"{hull_name!r} is not a hull of this plan")
+    if hull_name is not None and kinds is None:
+        r.fail(f"{path}.hull", f"{describe(hull_name)} is not a hull of this plan")
         ok = False
-    else:
-        names = {f.name: f.kind for f in hull.fittings}
-        if point not in names:
-            r.fail(f"{path}.point", f"{point!r} is not a fitting of hull {hull_name}")
+    elif kinds is not None and point is not None:
+        if point not in kinds:
+            r.fail(f"{path}.point", f"{describe(point)} is not a fitting of hull {hull_name}")
             ok = False
         else:
-            kind = names[point]
+            kind = kinds[point]
     # A setting is a share of the tug's usable pull: above 100 % cannot be asked of a tug, so a
-    # file that says so is refused (issue 2 names this very message). A substitute tug short of
-    # pull shows up as a shortfall of the stage's goal or a warning, not as a setting over 100 %.
-    setting = r.number(d, "setting_percent", path, low=0.0, high=100.0, unit="%")
+    # file that says so is refused. A substitute tug short of pull shows up as a shortfall of the
+    # stage's goal or a warning, not as a setting over 100 %.
+    setting = r.number(d, "setting_percent", path, rules.SETTING)
+    length: float | None = 30.0
     if kind == "push":
         for key in ("lead_deg", "line_length_m"):
             if key in d:
                 r.fail(f"{path}.{key}", f"does not apply at push point {point}; use push_angle_deg")
-        angle = r.number(
-            d, "push_angle_deg", path, default=0.0, low=-89.999, high=89.999, unit="deg"
-        )
+        angle = r.number(d, "push_angle_deg", path, rules.PUSH_ANGLE, default=0.0)
         lead = None if angle is None else -math.radians(angle)
-        length: float | None = 30.0
     else:
         if "push_angle_deg" in d:
             r.fail(f"{path}.push_angle_deg", f"does not apply at line point {point}; use lead_deg")
-        bearing = r.number(d, "lead_deg", path, default=0.0)
+        bearing = r.number(d, "lead_deg", path, rules.BEARING, default=0.0)
         lead = None if bearing is None else bearing_to_angle(bearing)
-        length = r.number(d, "line_length_m", path, default=30.0, positive=True, unit="m")
+        length = r.number(d, "line_length_m", path, rules.LINE_LENGTH, default=30.0)
     sector = None
     if d.get("lead_sector_deg") is not None:
-        pair = r.point(d["lead_sector_deg"], f"{path}.lead_sector_deg")
+        pair = r.point(d["lead_sector_deg"], f"{path}.lead_sector_deg", rules.BEARING)
         if pair is None:
             ok = False
         elif kind == "push":
             sector = (-math.radians(pair[1]), -math.radians(pair[0]))
         else:
             sector = _sector(pair)
+    astern = r.flag(d, "astern", path)
     if not ok or setting is None or lead is None or length is None:
         return None
     return r.build(
         path,
-        lambda: Placement(
-            tug, hull_name, point, setting / 100.0, lead, length, r.flag(d, "astern", path), sector
-        ),
+        lambda: Placement(tug, hull_name, point, setting, lead, length, astern, sector),  # type: ignore[arg-type]
     )
+
+
+def _decode_pose(r: _Reader, value: Any, path: str, ctx: _Context) -> BodyPose | None:
+    m = r.obj(value, path, ("body",), ("position_m", "heading_deg"))
+    if m is None:
+        return None
+    body = r.name(m, "body", path)
+    if body is None:
+        return None
+    if body not in ctx.bodies:
+        r.fail(f"{path}.body", f"{describe(body)} is not a hull or group of this plan")
+        return None
+    pos = r.point(m.get("position_m", [0, 0]), f"{path}.position_m")
+    hdg = r.number(m, "heading_deg", path, rules.HEADING, default=0.0)
+    if pos is None or hdg is None:
+        return None
+    return BodyPose(body, pos[0], pos[1], hdg % 360.0)
 
 
 def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | None:
@@ -553,18 +630,12 @@ def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | N
     )
     if d is None:
         return None
-    poses = []
-    for p, item in r.items(d, "poses", path):
-        m = r.obj(item, p, ("body",), ("position_m", "heading_deg"))
-        if m is None:
-            continue
-        if m["body"] not in ctx.bodies:
-            r.fail(f"{p}.body", f"{m['body']!r} is not a hull or group of this plan")
-            continue
-        pos = r.point(m.get("position_m", [0, 0]), f"{p}.position_m")
-        hdg = r.number(m, "heading_deg", p, default=0.0)
-        if pos is not None and hdg is not None:
-            poses.append(BodyPose(m["body"], pos[0], pos[1], hdg % 360.0))
+    name = r.name(d, "name", path)
+    kind = "other" if "kind" not in d else r.choice(d, "kind", path, STAGE_KINDS)
+    notes = r.text(d, "notes", path, rules.NOTES)
+    poses = [
+        pose for p, item in r.items(d, "poses", path) if (pose := _decode_pose(r, item, p, ctx))
+    ]
     placements = [
         pl
         for p, item in r.items(d, "tugs", path)
@@ -578,12 +649,14 @@ def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | N
     conditions = _decode_conditions(r, d.get("conditions", {}), f"{path}.conditions")
     goal = _decode_goal(r, d.get("goal"), f"{path}.goal")
     limits = _decode_limits(r, d.get("limits", {}), f"{path}.limits")
+    if name is None or kind is None:
+        return None
     return r.build(
         path,
         lambda: Stage(
-            r.text(d, "name", path),
-            r.text(d, "kind", path, "other"),
-            r.text(d, "notes", path),
+            name,
+            kind,
+            notes,
             tuple(poses),
             tuple(placements),
             conditions or Conditions(),
@@ -593,102 +666,60 @@ def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | N
     )
 
 
-def _decode_conditions(r: _Reader, value: Any, path: str) -> Conditions | None:
-    keys = (
-        "wind_speed_kn",
-        "wind_height_m",
-        "wind_from_deg",
-        "gust_factor",
-        "current_speed_kn",
-        "current_towards_deg",
-        "air_density_kg_m3",
-        "water_density_kg_m3",
-        *_LOAD_KEYS,
-    )
-    d = r.obj(value, path, (), keys)
-    if d is None:
-        return None
-    base = Conditions()
-    vals = {
-        "wind_speed_ms": r.number(d, "wind_speed_kn", path, default=0.0, low=0.0, unit="kn"),
-        "wind_height_m": r.number(
-            d, "wind_height_m", path, default=base.wind_height_m, positive=True, unit="m"
-        ),
-        "wind_from_deg": r.number(
-            d, "wind_from_deg", path, default=0.0, low=0.0, high=360.0, unit="deg"
-        ),
-        "gust_factor": r.number(d, "gust_factor", path, default=1.0, low=1.0),
-        "current_speed_ms": r.number(d, "current_speed_kn", path, default=0.0, low=0.0, unit="kn"),
-        "current_towards_deg": r.number(
-            d, "current_towards_deg", path, default=0.0, low=0.0, high=360.0, unit="deg"
-        ),
-        "air_density": r.number(
-            d, "air_density_kg_m3", path, default=base.air_density, positive=True
-        ),
-        "water_density": r.number(
-            d, "water_density_kg_m3", path, default=base.water_density, positive=True
-        ),
-    }
-    if any(v is None for v in vals.values()):
-        return None
-    vals["wind_speed_ms"] = vals["wind_speed_ms"] * KNOT  # type: ignore[operator]
-    vals["current_speed_ms"] = vals["current_speed_ms"] * KNOT  # type: ignore[operator]
-    extra = _decode_condition_loads(r, d, path)
-    if extra is None:
-        return None
-    return r.build(path, lambda: Conditions(**vals, **extra))  # type: ignore[arg-type]
-
-
-#: Keys of the loads part of the conditions (all optional) -> Conditions fields.
-_LOAD_KEYS = (
-    "wind_exponent",
-    "wind_coefficient_head_on",
-    "wind_coefficient_beam_on",
-    "current_coefficient_head_on",
-    "current_coefficient_beam_on",
-    "wind_area_head_on_m2",
-    "wind_area_beam_on_m2",
-    "current_area_head_on_m2",
-    "current_area_beam_on_m2",
-    "wind_centre_m",
-    "current_centre_m",
-    "sea_state",
-)
-
-
-_OPTIONAL_LOADS = {
+#: The file's keys of a stage's conditions -> the Conditions fields (each with its rule).
+_CONDITION_KEYS = {
+    "wind_speed_kn": "wind_speed_ms",
+    "wind_height_m": "wind_height_m",
+    "wind_from_deg": "wind_from_deg",
+    "gust_factor": "gust_factor",
+    "current_speed_kn": "current_speed_ms",
+    "current_towards_deg": "current_towards_deg",
+    "air_density_kg_m3": "air_density",
+    "water_density_kg_m3": "water_density",
+    "wind_exponent": "wind_exponent",
+    "wind_coefficient_head_on": "wind_coeff_head",
+    "wind_coefficient_beam_on": "wind_coeff_beam",
+    "current_coefficient_head_on": "current_coeff_head",
     "current_coefficient_beam_on": "current_coeff_beam",
     "wind_area_head_on_m2": "wind_area_head_m2",
     "wind_area_beam_on_m2": "wind_area_beam_m2",
     "current_area_head_on_m2": "current_area_head_m2",
     "current_area_beam_on_m2": "current_area_beam_m2",
+    "sea_state": "sea_state",
 }
+_CENTRE_KEYS = ("wind_centre_m", "current_centre_m")
 
 
-def _decode_condition_loads(r: _Reader, d: Json, path: str) -> dict[str, object] | None:
-    """The coefficients, areas, centres of pressure and sea state of a stage's conditions."""
-    base = Conditions()
+def _decode_conditions(r: _Reader, value: Any, path: str) -> Conditions | None:
+    d = r.obj(value, path, (), (*_CONDITION_KEYS, *_CENTRE_KEYS))
+    if d is None:
+        return None
     before = len(r.problems)
-    out: dict[str, object] = {
-        "wind_exponent": r.number(
-            d, "wind_exponent", path, default=base.wind_exponent, low=0.0, high=1.0
-        ),
-        "wind_coeff_head": r.number(
-            d, "wind_coefficient_head_on", path, default=base.wind_coeff_head, positive=True
-        ),
-        "wind_coeff_beam": r.number(
-            d, "wind_coefficient_beam_on", path, default=base.wind_coeff_beam, positive=True
-        ),
-        "current_coeff_head": r.number(
-            d, "current_coefficient_head_on", path, default=base.current_coeff_head, positive=True
-        ),
-        "sea_state": r.number(d, "sea_state", path, default=0.0, low=0.0, high=9.0),
+    base = Conditions()
+    vals: dict[str, object] = {}
+    for key, name in _CONDITION_KEYS.items():
+        if key in d:
+            vals[name] = r.value(
+                d[key], f"{path}.{key}", condition_rule(name), nullable=name in _NULLABLE
+            )
+        else:
+            vals[name] = getattr(base, name)
+    for key in _CENTRE_KEYS:
+        vals[key] = None if d.get(key) is None else r.point(d[key], f"{path}.{key}")
+    if len(r.problems) != before:
+        return None
+    return r.build(path, lambda: Conditions(**vals))  # type: ignore[arg-type]
+
+
+_NULLABLE = frozenset(
+    {
+        "current_coeff_beam",
+        "wind_area_head_m2",
+        "wind_area_beam_m2",
+        "current_area_head_m2",
+        "current_area_beam_m2",
     }
-    for key, name in _OPTIONAL_LOADS.items():
-        out[name] = r.number(d, key, path, positive=True, unit="m^2" if key.endswith("m2") else "")
-    for key, name in (("wind_centre_m", "wind_centre_m"), ("current_centre_m", "current_centre_m")):
-        out[name] = None if d.get(key) is None else r.point(d[key], f"{path}.{key}")
-    return out if len(r.problems) == before else None
+)
 
 
 def _decode_efficiency(r: _Reader, value: Any, path: str) -> EfficiencyTable | None:
@@ -699,31 +730,23 @@ def _decode_efficiency(r: _Reader, value: Any, path: str) -> EfficiencyTable | N
     if d is None:
         return None
     before = len(r.problems)
-    pulls = _numbers(r, d.get("bollard_pull_kN"), f"{path}.bollard_pull_kN")
-    seas = _numbers(r, d.get("sea_state"), f"{path}.sea_state")
-    rows_in = d.get("efficiency")
+    pulls = _numbers(r, d["bollard_pull_kN"], f"{path}.bollard_pull_kN", rules.BOLLARD_PULL)
+    seas = _numbers(r, d["sea_state"], f"{path}.sea_state", rules.SEA_STATE)
+    rows_in = d["efficiency"]
     rows: list[list[float]] = []
-    if not isinstance(rows_in, list):
+    if not isinstance(rows_in, list) or len(rows_in) > rules.MAX_TABLE_SIZE:
         r.fail(f"{path}.efficiency", "must be a list of rows, one per bollard pull")
     else:
         for i, row in enumerate(rows_in):
-            nums = _numbers(r, row, f"{path}.efficiency[{i}]") or []
-            for j, v in enumerate(nums):
-                if not 0.0 <= v <= 1.0:
-                    r.fail(
-                        f"{path}.efficiency[{i}][{j}]", f"{v:g} is not an efficiency from 0 to 1"
-                    )
-            rows.append(nums)
+            rows.append(_numbers(r, row, f"{path}.efficiency[{i}]", rules.EFFICIENCY) or [])
     for key, values in (("bollard_pull_kN", pulls), ("sea_state", seas)):
         if values and any(b <= a for a, b in itertools.pairwise(values)):
-            r.fail(f"{path}.{key}", f"{values} must be in increasing order")
+            r.fail(f"{path}.{key}", f"{describe(d[key])} must be in increasing order")
     if len(r.problems) != before or pulls is None or seas is None:
         return None
     return r.build(
         path,
-        lambda: EfficiencyTable(
-            tuple(v * KN for v in pulls), tuple(seas), tuple(tuple(row) for row in rows)
-        ),
+        lambda: EfficiencyTable(tuple(pulls), tuple(seas), tuple(tuple(row) for row in rows)),
     )
 
 
@@ -738,25 +761,21 @@ def _decode_drift(r: _Reader, value: Any, path: str) -> DriftSettings | None:
     times = (
         base.times_s
         if d.get("ghost_times_s") is None
-        else _numbers(r, d["ghost_times_s"], f"{path}.ghost_times_s")
+        else _numbers(r, d["ghost_times_s"], f"{path}.ghost_times_s", rules.DRIFT_TIME)
     )
-    horizon = r.number(d, "horizon_s", path, default=base.horizon_s, positive=True, unit="s")
+    horizon = r.number(d, "horizon_s", path, rules.DRIFT_HORIZON, default=base.horizon_s)
     if times is None or horizon is None:
         return None
     return r.build(path, lambda: DriftSettings(tuple(times), horizon))
 
 
-def _numbers(r: _Reader, value: Any, path: str) -> list[float] | None:
-    if not isinstance(value, list):
-        r.fail(path, "must be a list of numbers")
+def _numbers(r: _Reader, value: Any, path: str, rule: rules.Range) -> list[float] | None:
+    """A list of numbers in SI, each checked by ``rule``; None (with problems) if any is bad."""
+    if not isinstance(value, list) or len(value) > rules.MAX_TABLE_SIZE:
+        r.fail(path, f"must be a list of at most {rules.MAX_TABLE_SIZE} numbers")
         return None
-    out = []
-    for i, v in enumerate(value):
-        if isinstance(v, bool) or not isinstance(v, int | float) or not math.isfinite(v):
-            r.fail(f"{path}[{i}]", f"{v!r} is not a finite number")
-            return None
-        out.append(float(v))
-    return out
+    out = [r.value(v, f"{path}[{i}]", rule) for i, v in enumerate(value)]
+    return None if any(v is None for v in out) else out  # type: ignore[return-value]
 
 
 def _decode_goal(r: _Reader, value: Any, path: str) -> Goal | None:
@@ -765,26 +784,20 @@ def _decode_goal(r: _Reader, value: Any, path: str) -> Goal | None:
     d = r.obj(value, path, ("kind",), ("force_ahead_kN", "force_to_port_kN", "moment_kNm"))
     if d is None:
         return None
-    if d["kind"] not in GOAL_KINDS:
-        r.fail(f"{path}.kind", f"{d['kind']!r} is not one of {', '.join(GOAL_KINDS)}")
+    kind = r.choice(d, "kind", path, GOAL_KINDS)
+    fx = r.number(d, "force_ahead_kN", path, rules.GOAL_FORCE_AHEAD, default=0.0)
+    fy = r.number(d, "force_to_port_kN", path, rules.GOAL_FORCE_TO_PORT, default=0.0)
+    mz = r.number(d, "moment_kNm", path, rules.GOAL_MOMENT, default=0.0)
+    if kind is None or fx is None or fy is None or mz is None:
         return None
-    fx = r.number(d, "force_ahead_kN", path, default=0.0)
-    fy = r.number(d, "force_to_port_kN", path, default=0.0)
-    mz = r.number(d, "moment_kNm", path, default=0.0)
-    if fx is None or fy is None or mz is None:
-        return None
-    return r.build(path, lambda: goal_from_parts(d["kind"], fx * KN, fy * KN, mz * KN))
+    return r.build(path, lambda: goal_from_parts(kind, fx, fy, mz))
 
 
 def _decode_limits(r: _Reader, value: Any, path: str) -> StageLimits | None:
     d = r.obj(value, path, (), ("max_wind_kn", "max_current_kn", "min_clearance_m"))
     if d is None:
         return None
-    wind = r.number(d, "max_wind_kn", path, low=0.0, unit="kn")
-    current = r.number(d, "max_current_kn", path, low=0.0, unit="kn")
-    clearance = r.number(d, "min_clearance_m", path, low=0.0, unit="m")
-    return StageLimits(
-        None if wind is None else wind * KNOT,
-        None if current is None else current * KNOT,
-        clearance,
-    )
+    wind = r.number(d, "max_wind_kn", path, rules.WIND_LIMIT, nullable=True)
+    current = r.number(d, "max_current_kn", path, rules.CURRENT_LIMIT, nullable=True)
+    clearance = r.number(d, "min_clearance_m", path, rules.LEAST_CLEARANCE, nullable=True)
+    return r.build(path, lambda: StageLimits(wind, current, clearance))

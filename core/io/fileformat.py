@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from typing import Any
 
-from core.units import factor
+from core.units import DisplayUnits, factor
 
 FORMAT_NAME = "towboard"
 
@@ -25,3 +25,7 @@ KNOT = factor("speed", "kn")
 
 
 Json = dict[str, Any]
+
+#: The units the file's numbers are in, as display units: problems with a file's numbers
+#: are phrased in these (``"-5.0 kN must be positive"``), whatever the user shows on screen.
+FILE_UNITS = DisplayUnits(force="kN", moment="kN*m", length="m", speed="kn")

@@ -46,6 +46,12 @@ def loads(text: str, source: str = "<text>") -> Project:
         raise ProjectFileError(
             source, [Problem("", f"not valid JSON: {e.msg} at line {e.lineno}, column {e.colno}")]
         ) from None
+    except RecursionError:
+        raise ProjectFileError(source, [Problem("", "is nested too deeply to be a plan")]) from None
+    except ValueError:  # an integer of thousands of digits (Python's own limit)
+        raise ProjectFileError(
+            source, [Problem("", "holds an integer too long to read (over 4300 digits)")]
+        ) from None
     if isinstance(data, dict):
         version = data.get("format_version")
         if isinstance(version, int) and not isinstance(version, bool) and version > FORMAT_VERSION:
@@ -79,11 +85,16 @@ def load(path: str | os.PathLike[str]) -> Project:
         raise ProjectFileError(
             str(p), [Problem("", f"cannot be read: {e.strerror or e}")]
         ) from None
+    return load_bytes(raw, str(p))
+
+
+def load_bytes(raw: bytes, source: str = "<bytes>") -> Project:
+    """A project from the bytes of a file (UTF-8 JSON); raises ProjectFileError."""
     try:
         text = raw.decode("utf-8")
     except UnicodeDecodeError:
-        raise ProjectFileError(str(p), [Problem("", "is not UTF-8 text")]) from None
-    return loads(text, str(p))
+        raise ProjectFileError(source, [Problem("", "is not UTF-8 text")]) from None
+    return loads(text, source)
 
 
 @contextlib.contextmanager

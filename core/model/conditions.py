@@ -11,21 +11,49 @@ power law U(z) = U10 (z / 10)^a (a = 0.12 over open sea, DNV-RP-C205, from memor
 
 from __future__ import annotations
 
-import math
-from dataclasses import dataclass, field, fields
+from dataclasses import dataclass, field
 
 from core.errors import InputError
+from core.model import rules
 
-_OPTIONAL_POSITIVE = (
-    "wind_coeff_head",
-    "wind_coeff_beam",
-    "current_coeff_head",
-    "current_coeff_beam",
-    "wind_area_head_m2",
-    "wind_area_beam_m2",
-    "current_area_head_m2",
-    "current_area_beam_m2",
+#: Each field's rule (core.model.rules), with the label it is shown under.
+_RULES: dict[str, rules.Range] = {
+    "wind_speed_ms": rules.WIND_SPEED,
+    "wind_height_m": rules.WIND_HEIGHT,
+    "wind_from_deg": rules.DIRECTION.named("wind direction (from)"),
+    "gust_factor": rules.GUST_FACTOR,
+    "current_speed_ms": rules.CURRENT_SPEED,
+    "current_towards_deg": rules.DIRECTION.named("current direction (towards)"),
+    "air_density": rules.AIR_DENSITY,
+    "water_density": rules.WATER_DENSITY,
+    "wind_exponent": rules.WIND_EXPONENT,
+    "wind_coeff_head": rules.COEFFICIENT.named("wind coefficient head-on"),
+    "wind_coeff_beam": rules.COEFFICIENT.named("wind coefficient beam-on"),
+    "current_coeff_head": rules.COEFFICIENT.named("current coefficient head-on"),
+    "current_coeff_beam": rules.COEFFICIENT.named("current coefficient beam-on"),
+    "wind_area_head_m2": rules.AREA.named("wind area head-on"),
+    "wind_area_beam_m2": rules.AREA.named("wind area beam-on"),
+    "current_area_head_m2": rules.AREA.named("current area head-on"),
+    "current_area_beam_m2": rules.AREA.named("current area beam-on"),
+    "sea_state": rules.SEA_STATE,
+}
+#: Fields that may be None (worked out from the body instead).
+OPTIONAL = frozenset(
+    {
+        "current_coeff_beam",
+        "wind_area_head_m2",
+        "wind_area_beam_m2",
+        "current_area_head_m2",
+        "current_area_beam_m2",
+        "wind_centre_m",
+        "current_centre_m",
+    }
 )
+
+
+def rule(name: str) -> rules.Range:
+    """The rule of the conditions field ``name`` (for the window and the file)."""
+    return _RULES[name]
 
 
 @dataclass(frozen=True, slots=True)
@@ -89,35 +117,19 @@ class Conditions:
     sea_state: float = 0.0
 
     def __post_init__(self) -> None:
-        for f in fields(self):
-            v = getattr(self, f.name)
-            if isinstance(v, bool):
-                raise InputError(f"conditions {f.name}", v, "must be a number")
-            if isinstance(v, float | int) and not math.isfinite(v):
-                raise InputError(f"conditions {f.name}", v, "must be finite")
-        for name in ("wind_speed_ms", "current_speed_ms"):
-            if getattr(self, name) < 0:
-                raise InputError(f"conditions {name}", getattr(self, name), "must not be negative")
-        for name in ("wind_height_m", "air_density", "water_density"):
-            if getattr(self, name) <= 0:
-                raise InputError(f"conditions {name}", getattr(self, name), "must be positive")
-        if self.gust_factor < 1:
-            raise InputError("conditions gust_factor", self.gust_factor, "must be 1 or more")
-        if not 0 <= self.wind_exponent <= 1:
-            raise InputError("conditions wind_exponent", self.wind_exponent, "must be 0 to 1")
-        for name in _OPTIONAL_POSITIVE:
-            v = getattr(self, name)
-            if v is not None and not (math.isfinite(v) and v > 0):
-                raise InputError(f"conditions {name}", v, "must be positive")
+        for name, r in _RULES.items():
+            value = getattr(self, name)
+            if value is None and name in OPTIONAL:
+                continue
+            r.check(value, "conditions")
         for name in ("wind_centre_m", "current_centre_m"):
             v = getattr(self, name)
             if v is not None:
-                x, y = (float(c) for c in v)
-                if not (math.isfinite(x) and math.isfinite(y)):
-                    raise InputError(f"conditions {name}", v, "must be finite")
-                object.__setattr__(self, name, (x, y))
-        if not 0 <= self.sea_state <= 9:
-            raise InputError("conditions sea_state", self.sea_state, "must be 0 to 9")
+                if not (isinstance(v, tuple | list) and len(v) == 2):
+                    raise InputError(f"conditions: {name}", v, "must be a point (x, y)")
+                where = f"conditions: {name}"
+                xy = (rules.COORDINATE.check(v[0], where), rules.COORDINATE.check(v[1], where))
+                object.__setattr__(self, name, xy)
 
     @property
     def wind_speed_10m_ms(self) -> float:
@@ -132,13 +144,11 @@ class Conditions:
 
 def wind_at_height(u10_ms: float, height_m: float, exponent: float) -> float:
     """Power law U(z) = U10 (z / 10)^a, m/s."""
-    if not (math.isfinite(height_m) and height_m > 0):
-        raise InputError("wind height", height_m, "must be a positive height")
+    rules.WIND_HEIGHT.check(height_m)
     return u10_ms * (height_m / 10.0) ** exponent
 
 
 def wind_at_10m(speed_ms: float, height_m: float, exponent: float) -> float:
     """A wind speed measured at ``height_m`` brought to 10 m by the power law, m/s."""
-    if not (math.isfinite(height_m) and height_m > 0):
-        raise InputError("wind height", height_m, "must be a positive height")
+    rules.WIND_HEIGHT.check(height_m)
     return speed_ms / (height_m / 10.0) ** exponent

@@ -18,6 +18,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from core.errors import InputError
+from core.model import rules
 
 TONNE_FORCE = 9806.65
 
@@ -35,6 +36,10 @@ def _default_values() -> tuple[tuple[float, ...], ...]:
     )
 
 
+_PULLS = rules.BOLLARD_PULL.named("bollard pulls")
+_SEA_STATES = rules.SEA_STATE.named("sea states")
+
+
 @dataclass(frozen=True, slots=True)
 class EfficiencyTable:
     """Tug efficiency (0-1) by rated bollard pull (rows, N) and sea state (columns, 0-9)."""
@@ -44,9 +49,17 @@ class EfficiencyTable:
     values: tuple[tuple[float, ...], ...] = field(default_factory=_default_values)
 
     def __post_init__(self) -> None:
-        bp = tuple(float(v) for v in self.bollard_pulls_n)
-        ss = tuple(float(v) for v in self.sea_states)
-        vals = tuple(tuple(float(v) for v in row) for row in self.values)
+        for name, seq in (("bollard pulls", self.bollard_pulls_n), ("sea states", self.sea_states)):
+            if len(seq) > rules.MAX_TABLE_SIZE:
+                raise InputError(
+                    f"efficiency table {name}", len(seq), f"must be at most {rules.MAX_TABLE_SIZE}"
+                )
+        bp = tuple(_PULLS.check(v, "efficiency table") for v in self.bollard_pulls_n)
+        ss = tuple(_SEA_STATES.check(v, "efficiency table") for v in self.sea_states)
+        vals = tuple(
+            tuple(rules.EFFICIENCY.check(v, f"efficiency table row {i + 1}") for v in row)
+            for i, row in enumerate(self.values)
+        )
         _ascending("efficiency table bollard pulls", bp, low=0.0, strict_low=True)
         _ascending("efficiency table sea states", ss, low=0.0, high=9.0)
         if len(vals) != len(bp):

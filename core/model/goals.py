@@ -2,11 +2,11 @@
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 from typing import Literal
 
 from core.errors import InputError
+from core.model import rules
 
 GoalKind = Literal["hold", "walk", "swing", "transit", "force"]
 GOAL_KINDS: tuple[GoalKind, ...] = ("hold", "walk", "swing", "transit", "force")
@@ -49,9 +49,9 @@ class Goal:
     def __post_init__(self) -> None:
         if self.kind not in GOAL_KINDS:
             raise InputError("goal", self.kind, f"is not one of {', '.join(GOAL_KINDS)}")
-        for attr in ("fx_n", "fy_n", "moment_nm"):
-            if not math.isfinite(getattr(self, attr)):
-                raise InputError(f"goal {attr}", getattr(self, attr), "must be finite")
+        rules.GOAL_FORCE_AHEAD.check(self.fx_n, "goal")
+        rules.GOAL_FORCE_TO_PORT.check(self.fy_n, "goal")
+        rules.GOAL_MOMENT.check(self.moment_nm, "goal")
         unused = {
             "hold": ("fx_n", "fy_n", "moment_nm"),
             "walk": ("fx_n", "moment_nm"),

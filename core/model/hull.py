@@ -15,6 +15,7 @@ import shapely
 
 from core.errors import InputError
 from core.frames import angle_in_sector, wrap_pi
+from core.model import rules
 from core.model.outlines import Outline, validate_outline
 
 FittingKind = Literal["line", "push"]
@@ -57,19 +58,15 @@ class Fitting:
     permitted_lead_rad: tuple[float, float] | None = None
 
     def __post_init__(self) -> None:
-        if not self.name.strip():
-            raise InputError("fitting name", self.name, "must not be empty")
+        rules.NAME.check(self.name, "fitting")
+        subject = f"fitting {self.name}"
         if self.kind not in ("line", "push"):
-            raise InputError(f"fitting {self.name}: kind", self.kind, "must be 'line' or 'push'")
-        for attr in ("x", "y"):
-            if not math.isfinite(getattr(self, attr)):
-                raise InputError(
-                    f"fitting {self.name}: {attr}", getattr(self, attr), "must be finite"
-                )
-        for attr, label in (("swl_n", "SWL"), ("tow_n", "TOW")):
-            v = getattr(self, attr)
-            if v is not None and not (math.isfinite(v) and v > 0):
-                raise InputError(f"fitting {self.name}: {label}", v, "must be a positive force")
+            raise InputError(f"{subject}: kind", self.kind, "must be 'line' or 'push'")
+        rules.LABEL.check(self.fitting_type, f"{subject}: type")
+        rules.COORDINATE.check(self.x, f"{subject}: x")
+        rules.COORDINATE.check(self.y, f"{subject}: y")
+        rules.SWL.check_optional(self.swl_n, subject)
+        rules.TOW.check_optional(self.tow_n, subject)
         if self.permitted_lead_rad is not None:
             if self.kind != "line":
                 raise InputError(
@@ -77,13 +74,11 @@ class Fitting:
                     self.permitted_lead_rad,
                     "apply to line points only",
                 )
-            lo, hi = (float(v) for v in self.permitted_lead_rad)
-            if not (math.isfinite(lo) and math.isfinite(hi)):
-                raise InputError(
-                    f"fitting {self.name}: permitted line angles",
-                    self.permitted_lead_rad,
-                    "must be finite",
-                )
+            sector = self.permitted_lead_rad
+            where = f"{subject}: permitted line angles"
+            if not (isinstance(sector, tuple | list) and len(sector) == 2):
+                raise InputError(where, sector, "must be two angles")
+            lo, hi = rules.ANGLE.check(sector[0], where), rules.ANGLE.check(sector[1], where)
             if abs(wrap_pi(hi - lo)) < 1e-9:
                 raise InputError(
                     f"fitting {self.name}: permitted line angles",
@@ -256,19 +251,16 @@ class Hull:
     geometry: HullGeometry = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        if not self.name.strip():
-            raise InputError("hull name", self.name, "must not be empty")
-        outline = validate_outline(self.outline, f"hull {self.name} outline")
+        rules.NAME.check(self.name, "hull")
+        subject = f"hull {self.name}"
+        rules.DRAUGHT.check_optional(self.draught_m, subject)
+        rules.FREEBOARD.check_optional(self.freeboard_m, subject)
+        rules.DISPLACEMENT.check_optional(self.displacement_kg, subject)
+        outline = validate_outline(self.outline, f"{subject} outline")
         object.__setattr__(self, "outline", outline)
         geometry = HullGeometry(outline)
         object.__setattr__(self, "geometry", geometry)
-        for attr in ("draught_m", "freeboard_m", "displacement_kg", "yaw_gyradius_m"):
-            value = getattr(self, attr)
-            if value is not None and not (math.isfinite(value) and value > 0):
-                what = (
-                    "yaw radius of gyration" if attr == "yaw_gyradius_m" else attr.rsplit("_", 1)[0]
-                )
-                raise InputError(f"hull {self.name}: {what}", value, "must be positive")
+        rules.YAW_GYRADIUS.check_optional(self.yaw_gyradius_m, subject)
         if self.added_mass_method not in ADDED_MASS_METHODS:
             raise InputError(
                 f"hull {self.name}: added mass method",
@@ -276,14 +268,17 @@ class Hull:
                 f"is not one of {', '.join(ADDED_MASS_METHODS)}",
             )
         if self.cog is not None:
-            cx, cy = (float(c) for c in self.cog)
-            if not (math.isfinite(cx) and math.isfinite(cy)):
-                raise InputError(f"hull {self.name}: centre of gravity", self.cog, "must be finite")
-            object.__setattr__(self, "cog", (cx, cy))
-        names = [f.name for f in self.fittings]
-        dup = next((n for n in names if names.count(n) > 1), None)
-        if dup is not None:
-            raise InputError(f"hull {self.name}: fitting name", dup, "is used twice")
+            cog = self.cog
+            if not (isinstance(cog, tuple | list) and len(cog) == 2):
+                raise InputError(f"{subject}: centre of gravity", cog, "must be a point (x, y)")
+            where = f"{subject}: centre of gravity"
+            cog = (rules.COORDINATE.check(cog[0], where), rules.COORDINATE.check(cog[1], where))
+            object.__setattr__(self, "cog", cog)
+        seen: set[str] = set()
+        for f in self.fittings:
+            if f.name in seen:
+                raise InputError(f"{subject}: fitting name", f.name, "is used twice")
+            seen.add(f.name)
         snapped = tuple(f.moved_to(*self._snap(f.x, f.y)) for f in self.fittings)
         object.__setattr__(self, "fittings", snapped)
 

@@ -13,6 +13,7 @@ from collections.abc import Iterable, Sequence
 import numpy as np
 
 from core.errors import InputError, OutlineError
+from core.model.rules import COORDINATE, MAX_OUTLINE_VERTICES
 
 Vertex = tuple[float, float]
 Outline = tuple[Vertex, ...]
@@ -30,19 +31,31 @@ def validate_outline(points: Iterable[Sequence[float]], name: str = "outline") -
     Raises
     ------
     OutlineError
-        A vertex that is not a pair of finite numbers, fewer than three distinct
+        A vertex that is not a pair of finite numbers, one farther than
+        :data:`core.model.rules.MAX_COORDINATE_M` from the origin, more than
+        :data:`core.model.rules.MAX_OUTLINE_VERTICES` vertices, fewer than three distinct
         vertices, a self-crossing outline (naming the two edges), or zero area.
     """
     raw: list[Vertex] = []
     for i, p in enumerate(points):
+        if i >= MAX_OUTLINE_VERTICES:
+            raise OutlineError(
+                f"has more than {MAX_OUTLINE_VERTICES} vertices", outline=name, vertex=i
+            )
         try:
             x, y = (float(v) for v in p)
-        except (TypeError, ValueError):
+        except (TypeError, ValueError, OverflowError):
             raise OutlineError(
-                f"vertex {i} is not a pair of numbers: {p!r}", outline=name, vertex=i
+                f"vertex {i} is not a pair of numbers: {_short(p)}", outline=name, vertex=i
             ) from None
         if not (math.isfinite(x) and math.isfinite(y)):
             raise OutlineError(f"vertex {i} is not finite: ({x}, {y})", outline=name, vertex=i)
+        if not (COORDINATE.holds(x) and COORDINATE.holds(y)):
+            raise OutlineError(
+                f"vertex {i} ({x:g}, {y:g}) is farther than {COORDINATE.high:g} m from the origin",
+                outline=name,
+                vertex=i,
+            )
         raw.append((x, y))
     # Drop repeats of the previous vertex and a closing repeat of the first.
     verts: list[Vertex] = []
@@ -77,6 +90,11 @@ def validate_outline(points: Iterable[Sequence[float]], name: str = "outline") -
     if area < 0:
         verts.reverse()
     return tuple((x + 0.0, y + 0.0) for x, y in verts)  # + 0.0 turns -0.0 into 0.0
+
+
+def _short(value: object) -> str:
+    text = repr(value)
+    return text if len(text) <= 40 else f"{text[:37]}..."
 
 
 def first_crossing(v: np.ndarray) -> tuple[int, int] | None:

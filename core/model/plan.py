@@ -7,11 +7,12 @@ returns a new project, so undo is a swap of two values.
 
 from __future__ import annotations
 
-import math
+from collections.abc import Iterable
 from dataclasses import dataclass, field, replace
 from typing import Literal
 
 from core.errors import InputError
+from core.model import rules
 from core.model.conditions import Conditions
 from core.model.drift import DriftSettings
 from core.model.efficiency import EfficiencyTable
@@ -37,10 +38,20 @@ SiteFeatureKind = Literal["quay", "dolphin", "vessel", "limit"]
 SITE_FEATURE_KINDS: tuple[SiteFeatureKind, ...] = ("quay", "dolphin", "vessel", "limit")
 
 
-def _finite(field_name: str, *values: float) -> None:
-    for v in values:
-        if not math.isfinite(v):
-            raise InputError(field_name, v, "must be finite")
+def _point(where: str, p: object) -> tuple[float, float]:
+    """A site point (x east, y north), each coordinate within its rule."""
+    if not (isinstance(p, tuple | list) and len(p) == 2):
+        raise InputError(where, p, "must be a point (x, y)")
+    return (rules.COORDINATE.check(p[0], where), rules.COORDINATE.check(p[1], where))
+
+
+def _first_repeat(names: Iterable[str]) -> str | None:
+    seen: set[str] = set()
+    for n in names:
+        if n in seen:
+            return n
+        seen.add(n)
+    return None
 
 
 @dataclass(frozen=True, slots=True)
@@ -53,8 +64,10 @@ class Revision:
     description: str = ""
 
     def __post_init__(self) -> None:
-        if not self.revision.strip():
-            raise InputError("revision history: revision", self.revision, "must not be empty")
+        rules.NAME.named("revision").check(self.revision, "revision history")
+        rules.LABEL.check(self.date, f"revision {self.revision}: date")
+        rules.LABEL.check(self.by, f"revision {self.revision}: by")
+        rules.NOTES.check(self.description, f"revision {self.revision}: description")
 
 
 @dataclass(frozen=True, slots=True)
@@ -67,7 +80,11 @@ class GroupMember:
     heading_rad: float = 0.0
 
     def __post_init__(self) -> None:
-        _finite(f"group member {self.hull}: pose", self.x, self.y, self.heading_rad)
+        subject = f"group member {self.hull}"
+        rules.NAME.check(self.hull, "group member")
+        rules.COORDINATE.check(self.x, f"{subject}: x")
+        rules.COORDINATE.check(self.y, f"{subject}: y")
+        rules.MEMBER_HEADING.check(self.heading_rad, subject)
 
 
 @dataclass(frozen=True, slots=True)
@@ -78,10 +95,14 @@ class LashedGroup:
     members: tuple[GroupMember, ...]
 
     def __post_init__(self) -> None:
+        rules.NAME.check(self.name, "group")
         if len(self.members) < 2:
             raise InputError(
                 f"group {self.name}: members", len(self.members), "must be two or more hulls"
             )
+        dup = _first_repeat(m.hull for m in self.members)
+        if dup is not None:
+            raise InputError(f"group {self.name}: member", dup, "is listed twice")
 
 
 @dataclass(frozen=True, slots=True)
@@ -98,6 +119,7 @@ class SiteFeature:
     closed: bool = False
 
     def __post_init__(self) -> None:
+        rules.NAME.check(self.name, "site feature")
         if self.kind not in SITE_FEATURE_KINDS:
             raise InputError(
                 f"site {self.name}: kind",
@@ -107,11 +129,15 @@ class SiteFeature:
         if self.closed:
             object.__setattr__(self, "points", validate_outline(self.points, f"site {self.name}"))
         else:
-            pts = tuple((float(x), float(y)) for x, y in self.points)
+            pts = tuple(_point(f"site {self.name}: point", p) for p in self.points)
             if len(pts) < 2:
                 raise InputError(f"site {self.name}: points", len(pts), "must be two or more")
-            for x, y in pts:
-                _finite(f"site {self.name}: point", x, y)
+            if len(pts) > rules.MAX_OUTLINE_VERTICES:
+                raise InputError(
+                    f"site {self.name}: points",
+                    len(pts),
+                    f"must be at most {rules.MAX_OUTLINE_VERTICES}",
+                )
             object.__setattr__(self, "points", pts)
 
 
@@ -121,6 +147,9 @@ class Site:
 
     name: str = ""
     features: tuple[SiteFeature, ...] = ()
+
+    def __post_init__(self) -> None:
+        rules.LABEL.check(self.name, "site name")
 
 
 @dataclass(frozen=True, slots=True)
@@ -137,7 +166,11 @@ class BodyPose:
     heading_deg: float = 0.0
 
     def __post_init__(self) -> None:
-        _finite(f"pose of {self.body}", self.x, self.y, self.heading_deg)
+        subject = f"pose of {self.body}"
+        rules.NAME.check(self.body, "pose")
+        rules.COORDINATE.check(self.x, f"{subject}: x")
+        rules.COORDINATE.check(self.y, f"{subject}: y")
+        rules.HEADING.check(self.heading_deg, subject)
 
 
 @dataclass(frozen=True, slots=True)
@@ -149,10 +182,9 @@ class StageLimits:
     min_clearance_m: float | None = None
 
     def __post_init__(self) -> None:
-        for name in ("max_wind_ms", "max_current_ms", "min_clearance_m"):
-            v = getattr(self, name)
-            if v is not None and not (math.isfinite(v) and v >= 0):
-                raise InputError(f"limits {name}", v, "must be zero or positive")
+        rules.WIND_LIMIT.check_optional(self.max_wind_ms, "limits")
+        rules.CURRENT_LIMIT.check_optional(self.max_current_ms, "limits")
+        rules.LEAST_CLEARANCE.check_optional(self.min_clearance_m, "limits")
 
 
 @dataclass(frozen=True, slots=True)
@@ -169,8 +201,8 @@ class Stage:
     limits: StageLimits = field(default_factory=StageLimits)
 
     def __post_init__(self) -> None:
-        if not self.name.strip():
-            raise InputError("stage name", self.name, "must not be empty")
+        rules.NAME.check(self.name, "stage")
+        rules.NOTES.check(self.notes, f"stage {self.name}")
         if self.kind not in STAGE_KINDS:
             raise InputError(
                 f"stage {self.name}: kind", self.kind, f"is not one of {', '.join(STAGE_KINDS)}"
@@ -223,47 +255,51 @@ class Project:
     clearance_margin_m: float = 10.0
     tug_efficiency: EfficiencyTable = field(default_factory=EfficiencyTable)
     drift: DriftSettings = field(default_factory=DriftSettings)
+    _lookup: _Index | None = field(default=None, init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        if not self.name.strip():
-            raise InputError("plan name", self.name, "must not be empty")
+        rules.PLAN_NAME.check(self.name)
+        for what in ("revision", "date", "prepared_by", "checked_by", "approved_by"):
+            rules.LABEL.check(getattr(self, what), f"plan {what.replace('_', ' ')}")
+        rules.NOTES.check(self.notes, "plan")
         for label, names in (
             ("hull", [h.name for h in self.hulls] + [g.name for g in self.groups]),
             ("tug", [t.name for t in self.tugs]),
             ("stage", [s.name for s in self.stages]),
         ):
-            dup = next((n for n in names if names.count(n) > 1), None)
+            dup = _first_repeat(names)
             if dup is not None:
                 raise InputError(f"{label} name", dup, "is used twice")
-        if not (math.isfinite(self.clearance_margin_m) and self.clearance_margin_m >= 0):
-            raise InputError(
-                "clearance margin", self.clearance_margin_m, "must be zero or positive"
-            )
+        rules.CLEARANCE_MARGIN.check(self.clearance_margin_m)
 
-    # -- look-ups ---------------------------------------------------------------------
+    # -- look-ups (by name, through an index built once per project value) -------------
+    def _index(self) -> _Index:
+        index = self._lookup
+        if index is None:
+            index = _Index(self)
+            object.__setattr__(self, "_lookup", index)
+        return index
+
     def hull(self, name: str) -> Hull:
-        for h in self.hulls:
-            if h.name == name:
-                return h
-        raise InputError("hull", name, "does not exist")
+        h = self._index().hulls.get(name)
+        if h is None:
+            raise InputError("hull", name, "does not exist")
+        return h
 
     def tug(self, name: str) -> Tug:
-        for t in self.tugs:
-            if t.name == name:
-                return t
-        raise InputError("tug", name, "does not exist")
+        t = self._index().tugs.get(name)
+        if t is None:
+            raise InputError("tug", name, "does not exist")
+        return t
 
     def stage(self, name: str) -> Stage:
-        for s in self.stages:
-            if s.name == name:
-                return s
-        raise InputError("stage", name, "does not exist")
+        s = self._index().stages.get(name)
+        if s is None:
+            raise InputError("stage", name, "does not exist")
+        return s
 
     def group_of(self, hull: str) -> LashedGroup | None:
-        for g in self.groups:
-            if any(m.hull == hull for m in g.members):
-                return g
-        return None
+        return self._index().group_of.get(hull)
 
     def body_names(self) -> tuple[str, ...]:
         """Every rigid body: each lashed group, and each hull in no group."""
@@ -328,3 +364,18 @@ class Project:
         if unknown:
             raise InputError("title block field", unknown[0], "is not part of the title block")
         return replace(self, **fields)  # type: ignore[arg-type]
+
+
+class _Index:
+    """Name look-ups of one project value (built on first use; the value never changes)."""
+
+    __slots__ = ("group_of", "hulls", "stages", "tugs")
+
+    def __init__(self, project: Project) -> None:
+        self.hulls = {h.name: h for h in project.hulls}
+        self.tugs = {t.name: t for t in project.tugs}
+        self.stages = {s.name: s for s in project.stages}
+        self.group_of: dict[str, LashedGroup] = {}
+        for g in project.groups:
+            for m in g.members:
+                self.group_of.setdefault(m.hull, g)

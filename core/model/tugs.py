@@ -7,18 +7,10 @@ how its line leads and how hard it is asked to work (its setting).
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, replace
 
 from core.errors import InputError
-
-
-def _check_force(field: str, value: float, *, allow_zero: bool = False) -> None:
-    ok = math.isfinite(value) and (value >= 0 if allow_zero else value > 0)
-    if not ok:
-        raise InputError(
-            field, value, "must be a positive force" if not allow_zero else "must not be negative"
-        )
+from core.model import rules
 
 
 @dataclass(frozen=True, slots=True)
@@ -61,21 +53,24 @@ class Tug:
     working_channel: str = ""
 
     def __post_init__(self) -> None:
-        if not self.name.strip():
-            raise InputError("tug name", self.name, "must not be empty")
-        _check_force(f"tug {self.name}: bollard pull", self.bollard_pull_n)
+        rules.NAME.check(self.name, "tug")
+        subject = f"tug {self.name}"
+        for attr, label in (
+            ("tug_type", "type"),
+            ("role", "role"),
+            ("certificate_date", "certificate date"),
+            ("call_sign", "call sign"),
+            ("working_channel", "working channel"),
+        ):
+            rules.LABEL.check(getattr(self, attr), f"{subject}: {label}")
+        rules.BOLLARD_PULL.check(self.bollard_pull_n, subject)
         if self.astern_pull_n is None:
             object.__setattr__(self, "astern_pull_n", self.bollard_pull_n)
         else:
-            _check_force(f"tug {self.name}: astern pull", self.astern_pull_n, allow_zero=True)
-        h = self.towing_point_height_m
-        if h is not None and not (math.isfinite(h) and h >= 0):
-            raise InputError(f"tug {self.name}: towing point height", h, "must be zero or positive")
-        n = self.towline_length_m
-        if n is not None and not (math.isfinite(n) and n > 0):
-            raise InputError(f"tug {self.name}: towline length", n, "must be a positive length")
-        if self.towline_mbl_n is not None:
-            _check_force(f"tug {self.name}: towline MBL", self.towline_mbl_n)
+            rules.ASTERN_PULL.check(self.astern_pull_n, subject)
+        rules.TOWING_POINT_HEIGHT.check_optional(self.towing_point_height_m, subject)
+        rules.TOWLINE_LENGTH.check_optional(self.towline_length_m, subject)
+        rules.TOWLINE_MBL.check_optional(self.towline_mbl_n, subject)
 
     @property
     def astern_pull(self) -> float:
@@ -97,7 +92,7 @@ class Placement:
     hull, point:
         The hull and the fitting (line point or push point) the tug works at.
     setting:
-        Fraction of the tug's usable pull asked for (1.0 is 100 %; above 1 warns).
+        Fraction of the tug's usable pull asked for, 0 to 1 (1.0 is 100 %).
     lead_rad:
         Line point: direction of the towline from the point towards the tug, hull-frame
         angle (rad, counter-clockwise from ahead). Push point: angle of the push off
@@ -121,20 +116,19 @@ class Placement:
     lead_sector_rad: tuple[float, float] | None = None
 
     def __post_init__(self) -> None:
-        if not (math.isfinite(self.setting) and self.setting >= 0):
-            raise InputError(f"tug {self.tug}: setting", self.setting, "must be zero or more")
-        if not math.isfinite(self.lead_rad):
-            raise InputError(f"tug {self.tug}: lead", self.lead_rad, "must be finite")
-        if not (math.isfinite(self.line_length_m) and self.line_length_m > 0):
-            raise InputError(
-                f"tug {self.tug}: line length", self.line_length_m, "must be a positive length"
-            )
+        rules.NAME.check(self.tug, "placement: tug")
+        rules.NAME.check(self.hull, f"tug {self.tug}: hull")
+        rules.NAME.check(self.point, f"tug {self.tug}: point")
+        subject = f"tug {self.tug}"
+        rules.SETTING.check(self.setting, subject)
+        rules.LEAD.check(self.lead_rad, subject)
+        rules.LINE_LENGTH.check(self.line_length_m, subject)
         if self.lead_sector_rad is not None:
-            lo, hi = (float(v) for v in self.lead_sector_rad)
-            if not (math.isfinite(lo) and math.isfinite(hi)):
-                raise InputError(
-                    f"tug {self.tug}: lead sector", self.lead_sector_rad, "must be finite"
-                )
+            sector = self.lead_sector_rad
+            if not (isinstance(sector, tuple) and len(sector) == 2):
+                raise InputError(f"{subject}: lead sector", sector, "must be two angles")
+            lo = rules.LEAD.check(sector[0], f"{subject}: lead sector")
+            hi = rules.LEAD.check(sector[1], f"{subject}: lead sector")
             object.__setattr__(self, "lead_sector_rad", (lo, hi))
 
     def with_setting(self, setting: float) -> Placement:

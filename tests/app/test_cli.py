@@ -59,5 +59,5 @@ def test_broken_file_names_the_field(tmp_path: Path) -> None:
     bad.write_text(json.dumps(data))
     done = _run("report", str(bad))
     assert done.returncode == 2
-    assert "stages[0].tugs[0].setting_percent: 130 % is above 100 %" in done.stderr
+    assert "stages[0].tugs[0].setting_percent: 130.0 % must be at most 100 %" in done.stderr
     assert "Traceback" not in done.stderr

@@ -82,9 +82,9 @@ def test_bad_condition_fields_name_their_path() -> None:
     cond["wind_exponent"] = "steep"
     assert _problems(data) == [
         "stages[0].conditions.wind_exponent: 'steep' is not a number",
-        "stages[0].conditions.wind_coefficient_beam_on: -1 must be above zero",
-        "stages[0].conditions.sea_state: 12 is above 9",
-        "stages[0].conditions.wind_area_beam_on_m2: 0 m^2 must be above zero",
+        "stages[0].conditions.wind_coefficient_beam_on: -1.0 must be positive",
+        "stages[0].conditions.wind_area_beam_on_m2: 0.0 m² must be positive",
+        "stages[0].conditions.sea_state: 12.0 must be at most 9",
         "stages[0].conditions.wind_centre_m: [1] is not a pair of numbers [x, y]",
     ]
 
@@ -94,8 +94,8 @@ def test_bad_efficiency_table_names_its_path() -> None:
     data["tug_efficiency"]["efficiency"][1] = [1, 1.5]
     data["tug_efficiency"]["sea_state"] = [3, 0]
     assert _problems(data) == [
-        "tug_efficiency.efficiency[1][1]: 1.5 is not an efficiency from 0 to 1",
-        "tug_efficiency.sea_state: [3.0, 0.0] must be in increasing order",
+        "tug_efficiency.efficiency[1][1]: 1.5 must be at most 1",
+        "tug_efficiency.sea_state: [3, 0] must be in increasing order",
     ]
     data = json.loads(dumps(_edited()))
     data["tug_efficiency"]["efficiency"] = [[1.0, 0.7]]

@@ -58,9 +58,9 @@ def test_vectorised_lookup_matches_single() -> None:
         ({"sea_states": (0.0, 12.0)}, "sea states"),
         ({"values": ((1.0, 0.6),)}, "2 rows"),
         ({"values": ((1.0,), (1.0, 0.8))}, "row 1"),
-        ({"values": ((1.0, 1.2), (1.0, 0.8))}, "0 to 1"),
+        ({"values": ((1.0, 1.2), (1.0, 0.8))}, "row 1: efficiency: 1.2 must be at most 1"),
         ({"bollard_pulls_n": (0.0, 100.0)}, "bollard pulls"),
-        ({"values": ((1.0, math.nan), (1.0, 0.8))}, "0 to 1"),
+        ({"values": ((1.0, math.nan), (1.0, 0.8))}, "NaN must be a finite number"),
     ],
 )
 def test_bad_tables_are_refused(kwargs: dict[str, object], match: str) -> None:

@@ -14,6 +14,7 @@ from app.board.conditions_layer import draw_conditions_card
 from app.panels.conditions import EfficiencyDialog
 from app.panels.hold_plot import ALL_TUGS
 from core.analysis.stage import balance_of
+from core.errors import InputError
 from core.mechanics.bodies import body_of
 from core.mechanics.loads import body_conditions
 from core.model.goals import Goal
@@ -63,7 +64,7 @@ def test_a_bad_number_is_refused_and_said(window, qtbot) -> None:  # type: ignor
     assert c.project is before
     with qtbot.waitSignal(c.message, timeout=2000) as sig:
         _type(qtbot, panel.edits["gust_factor"], "0.5")
-    assert "must be 1 or more" in sig.args[0]
+    assert "gust factor: 0.5 must be at least 1" in sig.args[0]
     assert c.project is before
 
 
@@ -117,7 +118,7 @@ def test_the_efficiency_table_dialog_builds_and_refuses(qtbot, monkeypatch) -> N
     dlg.grid.item(0, 1).setText("1.4")
     dlg._accept()
     assert dlg.table is None
-    assert said and "0 to 1" in said[0]
+    assert said and "efficiency table row 1: efficiency: 1.4 must be at most 1" in said[0]
 
 
 # -- solving ----------------------------------------------------------------------------
@@ -226,18 +227,28 @@ def test_live_solving_follows_a_drag(holding, qtbot) -> None:  # type: ignore[no
     assert c.edit_filters == []
 
 
-def test_checks_flag_a_tug_over_100_percent_on_the_board_and_the_table(holding) -> None:  # type: ignore[no-untyped-def]
+def test_checks_flag_a_tug_over_its_fitting_on_the_board_and_the_table(holding) -> None:  # type: ignore[no-untyped-def]
     c = holding.controller
     stage = c.stage
-    c.apply(c.with_stage(stage.with_placement(stage.placement("Tern").with_setting(1.2))), "over")
+    hull = c.project.hull("Barge")
+    weak = hull.with_fitting(replace(hull.fitting("bow"), swl_n=5 * 9806.65))
+    project = c.project.with_hull(weak)
+    tern = stage.placement("Tern").with_setting(1.0)  # 20 t on a 5 t fitting
+    c.apply(project.with_stage(stage.with_placement(tern), c.stage_index), "over")
     panel = holding.solve_ui.solve_panel
     panel.recheck()
-    assert "over 100 %" in panel.notes["Tern"]
-    assert "over 100 %" in holding.board.tug_notes["Tern"]
+    assert "over fitting SWL" in panel.notes["Tern"]
+    assert "over fitting SWL" in holding.board.tug_notes["Tern"]
     model = holding.tugs_panel.model
     col = model.columnCount() - 1
     row = model.row_of("Tern")
-    assert "over 100 %" in model.data(model.index(row, col))
+    assert "over fitting SWL" in model.data(model.index(row, col))
+
+
+def test_a_setting_over_100_percent_cannot_be_made(holding) -> None:  # type: ignore[no-untyped-def]
+    stage = holding.controller.stage
+    with pytest.raises(InputError, match=r"tug Tern: setting: 120\.0 % must be at most 100 %"):
+        stage.placement("Tern").with_setting(1.2)
 
 
 def test_tug_lost_table_is_the_cores_check(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
