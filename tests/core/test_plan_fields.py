@@ -113,11 +113,11 @@ def test_bad_new_fields_are_reported_with_their_paths() -> None:
     problems = [str(p) for p in e.value.problems]
     assert "plan.history[0]: revision history: revision: '' must not be empty" in problems, problems
     assert "plan.history[1].revision: is missing" in problems
-    assert "hulls[0].fittings[0].tow_kN: -3 kN must be above zero" in problems
+    assert "hulls[0].fittings[0].tow_kN: -3.0 kN must be positive" in problems
     assert (
         "hulls[0].fittings[0].permitted_lead_deg: [10] is not a pair of numbers [x, y]" in problems
     )
-    assert "tugs[0].towline_mbl_kN: 0 kN must be above zero" in problems
+    assert "tugs[0].towline_mbl_kN: 0.0 kN must be positive" in problems
     assert "tugs[0].towline_length_m: 'long' is not a number" in problems
 
 
