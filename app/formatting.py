@@ -4,7 +4,6 @@
 
 from __future__ import annotations
 
-
 from core.units import DisplayUnits, Quantity, fmt, label
 
 

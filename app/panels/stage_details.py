@@ -34,7 +34,6 @@ from core.model import rules
 from core.model.plan import STAGE_KINDS, BodyPose, Stage
 from core.units import Quantity, fmt, label
 
-
 #: The rule (core.model.rules) of each stage limit.
 _LIMIT_RULES = {
     "max_wind_ms": rules.WIND_LIMIT,

@@ -389,8 +389,10 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
     freeboard = r.number(d, "freeboard_m", path, rules.FREEBOARD, nullable=True)
     disp = r.number(d, "displacement_t", path, rules.DISPLACEMENT, nullable=True)
     gyradius = r.number(d, "yaw_radius_of_gyration_m", path, rules.YAW_GYRADIUS, nullable=True)
-    method = "sections" if "added_mass_method" not in d else r.choice(
-        d, "added_mass_method", path, ADDED_MASS_METHODS
+    method = (
+        "sections"
+        if "added_mass_method" not in d
+        else r.choice(d, "added_mass_method", path, ADDED_MASS_METHODS)
     )
     cog = (
         None

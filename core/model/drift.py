@@ -26,7 +26,9 @@ class DriftSettings:
         if not self.times_s:
             raise InputError("drift times", self.times_s, "must hold at least one time")
         if len(self.times_s) > MAX_GHOSTS:
-            raise InputError("drift times", len(self.times_s), f"must be at most {MAX_GHOSTS} times")
+            raise InputError(
+                "drift times", len(self.times_s), f"must be at most {MAX_GHOSTS} times"
+            )
         times = tuple(rules.DRIFT_TIME.check(t) for t in self.times_s)
         if list(times) != sorted(set(times)):
             raise InputError("drift times", times, "must be in increasing order, each once")

@@ -104,10 +104,6 @@ def _cond_value(attr: str) -> Callable[[Project], float | None]:
     return lambda p: getattr(_stage(p).conditions, attr)
 
 
-def _solve(w) -> None:  # type: ignore[no-untyped-def]
-    w.solve_ui.solve_panel.solve()
-
-
 def _goal_kind(w, kind: str) -> None:  # type: ignore[no-untyped-def]
     box = w.solve_ui.solve_panel.kind
     box.setCurrentIndex(box.findData(kind))
@@ -409,7 +405,7 @@ CASES = [
         lambda p: _stage(p).poses[0].heading_deg,
         45.0,
     ),
-    # the solve panel's goal (read when the pulls are solved)
+    # the solve panel's goal (kept with the stage as it is typed)
     *(
         Case(
             f"goal: {label}",
@@ -419,7 +415,6 @@ CASES = [
             "7",
             lambda p, field=field: getattr(_stage(p).goal, field),
             7 * TF,  # t or t·m
-            _solve,
             setup=lambda w: _goal_kind(w, "force"),
         )
         for attr, field, label, unit, bound in (

@@ -94,9 +94,9 @@ def test_the_caution_says_what_is_left_out() -> None:
 def test_settings_are_checked() -> None:
     with pytest.raises(InputError, match="drift times: .* must be in increasing order"):
         DriftSettings((60.0, 30.0))
-    with pytest.raises(InputError, match="drift time: -5.0 must be a positive"):
+    with pytest.raises(InputError, match="drift time: -5.0 s must be positive"):
         DriftSettings((-5.0,))
-    with pytest.raises(InputError, match="drift horizon: 7200.0 must be above 0 and at most 3600"):
+    with pytest.raises(InputError, match="drift horizon: 7200.0 s must be at most 3600 s"):
         DriftSettings(horizon_s=7200.0)
 
 
@@ -119,5 +119,5 @@ def test_bad_drift_inputs_in_a_file_are_reported_with_their_paths(twin) -> None:
     assert project is None
     text = "\n".join(str(p) for p in problems)
     assert "hulls[0].added_mass_method: 'strips' is not one of sections, ship" in text
-    assert "hulls[1].yaw_radius_of_gyration_m: -3 m must be above zero" in text
-    assert "drift.horizon_s: 0 s must be above zero" in text
+    assert "hulls[1].yaw_radius_of_gyration_m: -3.0 m must be positive" in text
+    assert "drift.horizon_s: 0.0 s must be positive" in text
