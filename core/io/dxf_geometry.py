@@ -96,10 +96,14 @@ class Drawing:
             raise DrawingError(p.name, f"cannot be read: {e.strerror or e}") from None
         if head.startswith(b"AC10"):
             raise DrawingError(p.name, "is a DWG file; save it as DXF from the drawing program")
+        bad = (ezdxf.DXFStructureError, ezdxf.DXFError, UnicodeError, ValueError, OSError)
         try:
-            doc, _auditor = recover.readfile(p)
-        except (ezdxf.DXFStructureError, ezdxf.DXFError, UnicodeError, ValueError) as e:
-            raise DrawingError(p.name, f"is not a readable DXF drawing ({e})") from None
+            doc = ezdxf.readfile(p)
+        except bad:
+            try:  # a damaged file: ezdxf's slower recovering reader mends what it can
+                doc, _auditor = recover.readfile(p)
+            except bad as e:
+                raise DrawingError(p.name, f"is not a readable DXF drawing ({e})") from None
         return cls(p.name, doc)
 
     def layers(self) -> tuple[str, ...]:

@@ -326,6 +326,18 @@ def test_files_that_are_not_drawings(tmp_path: Path) -> None:
         Drawing.open(tmp_path / "missing.dxf")
 
 
+def test_a_damaged_file_is_mended(tmp_path: Path) -> None:
+    """A file cut off before its EOF marker: ezdxf's recovering reader reads it."""
+    path = dd.box_barge(tmp_path / "cut.dxf")
+    text = path.read_text()
+    assert text.endswith("  0\nEOF\n")
+    path.write_text(text[: -len("  0\nEOF\n")])
+    with pytest.raises(ezdxf.DXFStructureError):
+        ezdxf.readfile(path)  # the plain reader refuses it
+    got = import_outline(Drawing.open(path), "HULL", "m")
+    assert got.area_m2 == pytest.approx(60 * 18)
+
+
 def test_new_plan_holds_the_hull(tmp_path: Path) -> None:
     got = import_outline(Drawing.open(dd.box_barge(tmp_path / "box.dxf")), "HULL", "m")
     plan = new_plan(got, "Barge Hesper")
@@ -379,3 +391,27 @@ def test_ezdxf_reads_back_what_it_wrote(tmp_path: Path) -> None:
     kinds = sorted(e.dxftype() for e in doc.modelspace())
     assert kinds == ["ARC", "ARC", "ARC", "LINE", "LINE", "LINE"]
     assert doc.header["$INSUNITS"] == dd.MM
+
+
+def test_old_style_polylines(tmp_path: Path) -> None:
+    """POLYLINE entities: a 2-D one with a bulge and a 3-D one (DXF R12 style)."""
+    doc = dd.new_doc(dd.M, ("HULL", "DECK3D"))
+    msp = doc.modelspace()
+    p2 = msp.add_polyline2d(
+        [(0, -8, 0, 0, 0), (50, -8, 0, 0, 1.0), (50, 8, 0, 0, 0), (0, 8, 0, 0, 0)],
+        format="xyseb",
+        close=True,
+        dxfattribs={"layer": "HULL"},
+    )
+    assert p2.is_2d_polyline
+    msp.add_polyline3d(
+        [(0, 0, 5), (30, 0, 5), (30, 10, 6), (0, 10, 6)], close=True, dxfattribs={"layer": "DECK3D"}
+    )
+    doc.saveas(tmp_path / "r12.dxf")
+    d = Drawing.open(tmp_path / "r12.dxf")
+    e = 0.01
+    got = import_outline(d, "HULL", "m", chord_error_m=e)
+    area = 50 * 16 + math.pi * 64 / 2  # rectangle plus semicircle (handbook, from memory)
+    assert 0 < area - got.area_m2 <= shapely.Polygon(got.outline).length * e
+    flat = import_outline(d, "DECK3D", "m")
+    assert flat.area_m2 == pytest.approx(300.0)  # the plan view of the 3-D polyline
