@@ -23,6 +23,7 @@ from PySide6.QtGui import (
 )
 
 from app.briefing.cover import conventions, cover
+from app.briefing.drift_section import drift_blocks
 from app.briefing.layout import (
     INK,
     MUTED,
@@ -76,6 +77,7 @@ def blocks_of(content: BriefingContent, content_height_mm: float) -> list[Block]
     diagram_mm = min(130.0, content_height_mm * 0.45)
     for result in content.results:
         blocks += stage_blocks(project, result, diagram_mm)
+        blocks += drift_blocks(project, result.index)
     return blocks
 
 

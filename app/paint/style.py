@@ -74,6 +74,10 @@ LIMIT = QColor("#2f6f9f")
 CLEARANCE = QColor("#37474f")
 TRACK = QColor("#37474f")
 
+# -- the drift preview -------------------------------------------------------------------
+DRIFT = QColor("#a0522d")  # ghost outlines and the centroid's track, dashed and dotted
+DRIFT_CONTACT = QColor("#b3261e")  # where the drifting body first touches
+
 # -- the hold limits plot ---------------------------------------------------------------
 ALL_TUGS = TUG_FORCE
 ALL_TUGS_FILL = QColor(30, 95, 180, 28)

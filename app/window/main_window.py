@@ -47,6 +47,7 @@ from app.panels.tugs_panel import TugsPanel
 from app.panels.units_panel import UnitsPanel
 from app.panels.verdict_view import VerdictView
 from app.window.drawings_ui import install as install_drawings
+from app.window.drift_ui import install as install_drift
 from app.window.outline_dialog import OutlineDialog
 from app.window.plan_ui import install as install_plan
 from app.window.recovery import RecoveryWriter, find_orphans
@@ -128,6 +129,7 @@ class MainWindow(QMainWindow):
         install_plan(self)  # the stage list, the site on the board, print and PDF
         install_solve(self)  # conditions, solve pulls, tug lost check, hold limits
         install_drawings(self)  # File > Import outline / site, Export picture / tables
+        install_drift(self)  # the drift preview: ghosts on the board, its panel
         self.recovery = RecoveryWriter(self.controller)
         self.resize(1400, 900)
         self._update_title()

@@ -320,7 +320,14 @@ class _ContactSearch:
             def g(t: float) -> float:
                 return float(self._gap(np.array([t]), which)[0])
 
-            return float(brentq(g, ta, tb, xtol=1e-9, rtol=1e-12)) if ga > 0 else ta
+            # Evaluated afresh: at a step's end the dense solution's two pieces agree only
+            # to rounding, which may flip the sign of a gap a hair from zero.
+            fa, fb = g(ta), g(tb)
+            if fa <= 0.0:
+                return ta
+            if fb > 0.0:
+                return tb
+            return float(brentq(g, ta, tb, xtol=1e-9, rtol=1e-12))
         travel = self.p_speed * (tb - ta)
         if (ga + gb - travel) / 2.0 > 0.0 or travel < 1e-4:
             return None  # cannot touch in between (or only by less than 0.1 mm)

@@ -81,11 +81,11 @@ def summarise(setup: DriftSetup, index: int, stage: str) -> StageDrift:
 
 
 def time_words(seconds: float) -> str:
-    """A time for people: "45 s", "3 min 20 s"."""
+    """A time for people: "45 s", "3 min 20 s", "10 min"."""
     s = max(0, round(seconds))
     if s < 120:
         return f"{s} s"
-    return f"{s // 60} min {s % 60:02d} s"
+    return f"{s // 60} min" if s % 60 == 0 else f"{s // 60} min {s % 60:02d} s"
 
 
 def contact_words(r: DriftResult, units: DisplayUnits) -> str:
@@ -143,3 +143,24 @@ def ghost_rows(r: DriftResult) -> list[GhostRow]:
         )
         for k, (t, _) in enumerate(states)
     ]
+
+
+def ghost_groups(r: DriftResult, apart: float = 0.12) -> list[list[int]]:
+    """The ghost times in runs whose centroids lie within ``apart`` of the body's size of
+    the run's first: one label each ("30, 60 s") where ghosts lie almost on each other."""
+    if not r.ghost_times:
+        return []
+    cents = r.centroid_track(r.ghost_states)
+    size = 2.0 * max(float(np.hypot(o[:, 0], o[:, 1]).max()) for o in r.problem.outlines)
+    groups: list[list[int]] = []
+    for k in range(len(r.ghost_times)):
+        if groups and np.hypot(*(cents[k] - cents[groups[-1][0]])) < apart * size:
+            groups[-1].append(k)
+        else:
+            groups.append([k])
+    return groups
+
+
+def group_words(r: DriftResult, group: list[int]) -> str:
+    """ "30, 60 s" for a run of ghost times."""
+    return ", ".join(f"{r.ghost_times[i]:g}" for i in group) + " s"

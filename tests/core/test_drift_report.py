@@ -73,7 +73,8 @@ def test_ghost_rows_follow_the_track(twin) -> None:  # type: ignore[no-untyped-d
 
 
 @pytest.mark.parametrize(
-    ("seconds", "words"), [(0.4, "0 s"), (45.2, "45 s"), (119.6, "2 min 00 s"), (200, "3 min 20 s")]
+    ("seconds", "words"),
+    [(0.4, "0 s"), (45.2, "45 s"), (119.6, "2 min"), (600.0, "10 min"), (200, "3 min 20 s")],
 )
 def test_time_words(seconds: float, words: str) -> None:
     assert time_words(seconds) == words
