@@ -103,6 +103,8 @@ class DriftLayer(QObject):
             result, note = self.compute()
         except TowboardError as e:  # bad input on the way: say so, draw nothing
             result, note = None, str(e)
+        except (ValueError, ArithmeticError) as e:  # never a traceback from a drag
+            result, note = None, f"drift not worked out: {e}"
         self.pending = False
         self._show(result, note)
 
