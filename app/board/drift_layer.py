@@ -224,7 +224,7 @@ class DriftLayer(QObject):
         self._add(ring, Z_NOTE - 1)
         units = self.scene.controller.project.units
         lab = Label(
-            contact_words(r, units).capitalize(),
+            _sentence(contact_words(r, units)),
             None,
             style.DRIFT_CONTACT,
             style.label_font(8.5, True),
@@ -232,3 +232,8 @@ class DriftLayer(QObject):
         )
         lab.setPos(*c.point)
         self._add(lab, Z_NOTE)
+
+
+def _sentence(text: str) -> str:
+    """``text`` with a capital first letter (names in it keep theirs)."""
+    return text[:1].upper() + text[1:]
