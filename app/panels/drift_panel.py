@@ -10,6 +10,7 @@ a message naming the field. The caution is always in view.
 
 from __future__ import annotations
 
+import re
 from dataclasses import replace
 
 from PySide6.QtCore import Qt
@@ -29,8 +30,9 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
-from app.formatting import parse_number
+from app.numbers import message, parse_optional, parse_value
 from core.errors import TowboardError
+from core.model import rules
 from core.model.drift import DriftSettings
 from core.model.hull import ADDED_MASS_METHODS
 from core.motion.drift import DRIFT_CAUTION, DriftResult
@@ -84,7 +86,10 @@ class DriftPanel(QWidget):
         self.notes.setWordWrap(True)
         self.notes.setStyleSheet("color: #8a5a00;")
         self.times = QLineEdit()
-        self.times.setToolTip("Seconds after the tug is lost or the lines let go, e.g. 30, 60, 120")
+        self.times.setToolTip(
+            "Seconds after the tug is lost or the lines let go, apart by commas or spaces: "
+            "30, 60, 120"
+        )
         self.horizon = QLineEdit()
         self.horizon.setToolTip("How long to look ahead for a contact, s (at most 3600)")
         self.times.editingFinished.connect(self._set_times)
@@ -222,14 +227,15 @@ class DriftPanel(QWidget):
         _fit_height(self.hulls)
 
     def _refuse(self, e: Exception) -> None:
-        self.controller.message.emit(f"Not changed: {e}")
+        self.controller.message.emit(f"Not changed: {message(e, self.controller.project.units)}")
         self.refresh_inputs()
 
     def _set_times(self) -> None:
         p = self.controller.project
         try:
-            parts = [s for s in self.times.text().replace(";", ",").split(",") if s.strip()]
-            times = tuple(parse_number(s, "drift time") for s in parts)
+            # commas, semicolons or spaces part the times (so a comma is no decimal mark here)
+            parts = [s for s in re.split(r"[,;\s]+", self.times.text()) if s]
+            times = tuple(parse_value(s, rules.DRIFT_TIME, p.units, "drift") for s in parts)
             new = DriftSettings(times, p.drift.horizon_s)
         except TowboardError as e:
             self._refuse(e)
@@ -240,7 +246,8 @@ class DriftPanel(QWidget):
     def _set_horizon(self) -> None:
         p = self.controller.project
         try:
-            new = DriftSettings(p.drift.times_s, parse_number(self.horizon.text(), "drift horizon"))
+            horizon = parse_value(self.horizon.text(), rules.DRIFT_HORIZON, p.units, "drift")
+            new = DriftSettings(p.drift.times_s, horizon)
         except TowboardError as e:
             self._refuse(e)
             return
@@ -255,13 +262,8 @@ class DriftPanel(QWidget):
         if row >= len(p.hulls):
             return
         h = p.hulls[row]
-        text = item.text().strip()
         try:
-            k = (
-                None
-                if not text
-                else p.units.si(parse_number(text, f"{h.name}: yaw radius of gyration"), "length")
-            )
+            k = parse_optional(item.text(), rules.YAW_GYRADIUS, p.units, f"hull {h.name}")
             new = replace(h, yaw_gyradius_m=k)
         except TowboardError as e:
             self._refuse(e)

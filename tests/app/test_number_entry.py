@@ -405,6 +405,34 @@ CASES = [
         lambda p: _stage(p).poses[0].heading_deg,
         45.0,
     ),
+    # the drift panel: ghost times, look ahead, each hull's yaw radius of gyration
+    Case(
+        "drift: ghost times",
+        lambda w: w.drift_ui.panel.times,  # type: ignore[attr-defined]
+        "0, 60",
+        "drift: drift time: 0.0 s must be positive",
+        "20, 40",
+        lambda p: p.drift.times_s[0],
+        20.0,
+    ),
+    Case(
+        "drift: look ahead",
+        lambda w: w.drift_ui.panel.horizon,  # type: ignore[attr-defined]
+        "5000",
+        "drift: drift horizon: 5000.0 s must be at most 3600 s",
+        "300",
+        lambda p: p.drift.horizon_s,
+        300.0,
+    ),
+    Case(
+        "drift: yaw radius of gyration",
+        lambda w: (w.drift_ui.panel.hulls, w.drift_ui.panel.hulls.model().index(0, 1)),  # type: ignore[attr-defined]
+        "-4",
+        "hull Kestrel 3: yaw radius of gyration: -4.0 m must be positive",
+        "18",
+        lambda p: p.hulls[0].yaw_gyradius_m,
+        18.0,
+    ),
     # the solve panel's goal (kept with the stage as it is typed)
     *(
         Case(
@@ -524,6 +552,7 @@ def _numeric_fields(w) -> dict[str, object]:  # type: ignore[no-untyped-def]
         "conditions": w.solve_ui.conditions,
         "solve_panel": w.solve_ui.solve_panel,
         "stage_details": w.plan_ui.stage_details,
+        "drift_panel": w.drift_ui.panel,
     }
     out: dict[str, object] = {}
     for name, panel in panels.items():
