@@ -1,9 +1,12 @@
 """Editing the board with the mouse and the keys.
 
-Tools: ``select`` (drag tugs, slide points, move vertices; double-click an edge to
-insert a vertex; Delete removes the selection), ``draw`` (click vertices, click the
-first one again, double-click or press Enter to close; Backspace takes one back),
-``line_point`` and ``push_point`` (click the hull edge; the point snaps to it).
+Tools: ``select`` (drag bodies, tugs, points, vertices and site features; double-click
+an edge to insert a vertex; Delete removes the selection), ``draw`` (click vertices,
+click the first one again, double-click or press Enter to close; Backspace takes one
+back), ``line_point`` and ``push_point`` (click the hull edge; the point snaps to it),
+and the site's drawing tools ``quay``, ``limit``, ``dolphin`` and ``vessel`` (see
+:mod:`app.board.drafting`; the site's editing with the select tool is in
+:mod:`app.board.site_tools`).
 
 Keys on a selected tug: + / - change its setting by 1 %, Page Up / Page Down by 10 %,
 the wheel over it by 5 % a notch; arrow keys nudge the selection 1 m (Shift: 10 m,
@@ -19,16 +22,17 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 from PySide6.QtCore import QPointF, Qt
-from PySide6.QtGui import QPainterPath, QTransform
-from PySide6.QtWidgets import QGraphicsPathItem
+from PySide6.QtGui import QTransform
 
+from app.board.drafting import DRAW_TOOLS, Draft
 from app.board.items import ROLE
 from app.board.poses import pose_in
+from app.board.site_tools import FeatureDrag, PointDrag, SiteTools
 from app.controller import BodyResult
 from app.edits import bodies as body_edits
 from app.edits import hulls as hull_edits
+from app.edits import site as site_edits
 from app.edits import tugs as tug_edits
-from app.paint import style
 from core.errors import OutlineError, TowboardError
 from core.mechanics.balance import analyse_layout, with_placement_row
 from core.model.hull import Hull
@@ -50,6 +54,30 @@ TOOL_INFO: dict[str, tuple[str, str, str]] = {
     "draw": ("Draw outline", "D", "Click the vertices of an outline; click the first one to close"),
     "line_point": ("Add line point", "L", "Click the hull edge to add a line point"),
     "push_point": ("Add push point", "P", "Click the hull edge to add a push point"),
+    "quay": (
+        "Draw quay",
+        "Q",
+        "Click the points of a quay face; Enter or a double-click ends it",
+    ),
+    "dolphin": ("Draw dolphin", "O", "Click a dolphin's centre, then a point on its edge"),
+    "vessel": (
+        "Draw moored vessel",
+        "V",
+        "Click the vessel's stern and bow on its centreline, then a point on its side",
+    ),
+    "limit": (
+        "Draw basin limit",
+        "B",
+        "Click the points of a limit; click the first one to close it, Enter leaves it open",
+    ),
+}
+#: What each drawing tool says on the status bar when it is chosen.
+TOOL_HINTS = {
+    "quay": "Click the points of the quay face; Enter or a double-click ends it, Esc stops.",
+    "dolphin": "Click the dolphin's centre, then a point on its edge; Esc stops.",
+    "vessel": "Click the moored vessel's stern, then its bow, then a point on its side.",
+    "limit": "Click the points of the limit; click the first point to close it, "
+    "Enter to leave it open; Esc stops.",
 }
 TOOLS = tuple(TOOL_INFO)
 SNAP_PX = 14.0  # how near the hull edge a click must be to place a point, px
@@ -101,10 +129,19 @@ class Interaction:
     def __init__(self, scene: BoardScene) -> None:
         self.scene = scene
         self.tool = "select"
-        self.drag: _TugDrag | _FittingDrag | _VertexDrag | _BodyDrag | _TurnDrag | None = None
-        self.draft: list[tuple[float, float]] = []  # site points of an outline being drawn
-        self._draft_item: QGraphicsPathItem | None = None
+        self.drag: (
+            _TugDrag
+            | _FittingDrag
+            | _VertexDrag
+            | _BodyDrag
+            | _TurnDrag
+            | PointDrag
+            | FeatureDrag
+            | None
+        ) = None
+        self.draft: Draft | None = None  # the shape being drawn with a drawing tool
         self._draft_target: str | None = None  # hull whose outline the draft replaces
+        self.site = SiteTools(self)
 
     @property
     def controller(self):  # type: ignore[no-untyped-def]
@@ -136,6 +173,8 @@ class Interaction:
         elif tool in ("line_point", "push_point"):
             kind = "line point" if tool == "line_point" else "push point"
             self._say(f"Click on the hull's edge to add a {kind}; Esc to stop.")
+        elif tool in TOOL_HINTS:
+            self._say(TOOL_HINTS[tool])
         self.scene.tool_changed.emit(tool)
 
     # -- geometry helpers ---------------------------------------------------------------
@@ -185,14 +224,16 @@ class Interaction:
         if event.button() != Qt.MouseButton.LeftButton or self.scene.fixed_stage is not None:
             return False
         pos = event.scenePos()
-        if self.tool == "draw":
+        if self.tool in DRAW_TOOLS:
             self._draft_click(pos)
             return True
         if self.tool in ("line_point", "push_point"):
             self._add_point(pos, "line" if self.tool == "line_point" else "push")
             return True
         hit = self._hit(pos)
-        if hit is None:
+        if hit is None or hit[0] not in ("tug", "fitting", "vertex", "hull", "turn", "site_point"):
+            if self.site.press(pos, event.screenPos()):
+                return True
             self.scene.select(None)
             return False
         kind = hit[0]
@@ -209,12 +250,14 @@ class Interaction:
             self._start_body_drag(pos, event.screenPos())
         elif kind == "turn":
             self._start_turn_drag(str(hit[1]), pos)
+        elif kind == "site_point":
+            self.site.press_point(hit)
         return True
 
     def move(self, event) -> bool:  # type: ignore[no-untyped-def]
         pos = event.scenePos()
-        if self.tool == "draw" and self.draft:
-            self._show_draft(pos)
+        if self.tool in DRAW_TOOLS and self.draft is not None and self.draft.points:
+            self.draft.hover((pos.x(), pos.y()))
             return True
         drag = self.drag
         if drag is None:
@@ -227,6 +270,8 @@ class Interaction:
             self._turn_body(drag, pos, bool(event.modifiers() & Qt.KeyboardModifier.ShiftModifier))
         elif isinstance(drag, _FittingDrag):
             self._move_fitting(drag, pos)
+        elif isinstance(drag, (PointDrag, FeatureDrag)):
+            self.site.move(drag, pos, event.screenPos())
         else:
             self._move_vertex(drag, pos)
         return True
@@ -247,6 +292,8 @@ class Interaction:
             c.commit_preview(f"Turn {drag.body}")
         elif isinstance(drag, _FittingDrag):
             c.commit_preview(f"Slide {drag.name}")
+        elif isinstance(drag, (PointDrag, FeatureDrag)):
+            self.site.release(drag)
         else:
             if self.scene.stale:
                 self._say(f"Outline not changed there: {self.scene.stale}")
@@ -257,13 +304,14 @@ class Interaction:
     def double_click(self, event) -> bool:  # type: ignore[no-untyped-def]
         if event.button() != Qt.MouseButton.LeftButton:
             return False
-        if self.tool == "draw":
-            if len(self.draft) >= 3:
-                self.close_draft()
+        if self.tool in DRAW_TOOLS:
+            self.finish_draft()
             return True
         if self.tool != "select":
             return False
         pos = event.scenePos()
+        if self.site.double_click(pos):
+            return True
         edge = self._nearest_edge(pos)
         if edge is None or edge[2] > EDGE_PX:
             return False
@@ -374,7 +422,7 @@ class Interaction:
 
     def _move_vertex(self, drag: _VertexDrag, pos: QPointF) -> None:
         c = self.controller
-        p = self._hull_frame_point(drag.hull, pos)
+        p = self.scene.snap(self._hull_frame_point(drag.hull, pos))  # on the hull's own grid
         hull = c.project.hull(drag.hull)
         try:
             new = hull_edits.moved_vertex(hull, drag.index, p)
@@ -420,47 +468,53 @@ class Interaction:
 
     # -- drawing an outline --------------------------------------------------------------
     def _draft_click(self, pos: QPointF) -> None:
-        p = (pos.x(), pos.y())
-        if len(self.draft) >= 3:
-            fx, fy = self.draft[0]
-            if math.hypot(fx - p[0], fy - p[1]) * self._ppm() <= 10.0:
-                self.close_draft()
-                return
-        if (
-            self.draft
-            and math.hypot(self.draft[-1][0] - p[0], self.draft[-1][1] - p[1]) * self._ppm() < 2
-        ):
-            return  # the second click of a double-click lands on the same spot
-        self.draft.append(p)
-        self._show_draft(pos)
-
-    def _show_draft(self, pos: QPointF | None) -> None:
-        if self._draft_item is None:
-            self._draft_item = QGraphicsPathItem()
-            self._draft_item.setPen(style.pen(style.HULL_SELECTED, 2.0, Qt.PenStyle.DashLine))
-            self._draft_item.setZValue(50)
-            self.scene.addItem(self._draft_item)
-        path = QPainterPath()
-        if self.draft:
-            path.moveTo(*self.draft[0])
-            for p in self.draft[1:]:
-                path.lineTo(*p)
-            if pos is not None:
-                path.lineTo(pos)
-            r = 4.0 / self._ppm()
-            for p in self.draft:
-                path.addEllipse(QPointF(*p), r, r)
-        self._draft_item.setPath(path)
+        if self.draft is None:
+            self.draft = Draft(self.scene, self.tool)
+        if self.draft.click((pos.x(), pos.y()), self._ppm()):
+            self.finish_draft()
 
     def _clear_draft(self) -> None:
-        self.draft = []
-        if self._draft_item is not None:
-            self.scene.removeItem(self._draft_item)
-            self._draft_item = None
+        if self.draft is not None:
+            self.draft.clear()
+            self.draft = None
+
+    def finish_draft(self) -> None:
+        """End the shape being drawn: a hull's outline, or a site feature."""
+        if self.tool == "draw":
+            self.close_draft()
+        elif self.tool in DRAW_TOOLS:
+            self._add_site_feature()
+
+    def _add_site_feature(self) -> None:
+        d = self.draft
+        if d is None or not d.points:
+            return
+        c = self.controller
+        kind = {"quay": "quay", "limit": "limit", "dolphin": "dolphin", "vessel": "vessel"}[
+            self.tool
+        ]
+        name = site_edits.next_name(c.project, kind)  # type: ignore[arg-type]
+        try:
+            feature = d.feature(name)
+            project = site_edits.added(c.project, feature)
+        except (TowboardError, IndexError, ZeroDivisionError) as e:
+            need = {"dolphin": "its centre and a point on its edge", "vessel": "three points"}
+            why = (
+                str(e)
+                if isinstance(e, TowboardError)
+                else f"it needs {need.get(self.tool, 'more points')}"
+            )
+            self._say(f"Cannot use that {kind}: {why}")
+            return
+        self._clear_draft()
+        c.apply(project, f"Draw {name}")
+        self.set_tool("select")
+        self.scene.select(("site", name))
+        self._say(f"Drew {name}; double-click a line to add a point, right-click to rename.")
 
     def close_draft(self) -> None:
         """Close the outline being drawn and make it a hull's outline."""
-        pts = list(self.draft)
+        pts = list(self.draft.points) if self.draft is not None else []
         if len(pts) < 3:
             self._say("An outline needs at least three vertices.")
             return
@@ -518,13 +572,12 @@ class Interaction:
             else:
                 self.scene.select(None)
             return True
-        if self.tool == "draw":
+        if self.tool in DRAW_TOOLS:
             if k in (Qt.Key.Key_Return, Qt.Key.Key_Enter):
-                self.close_draft()
+                self.finish_draft()
                 return True
-            if k == Qt.Key.Key_Backspace and self.draft:
-                self.draft.pop()
-                self._show_draft(None)
+            if k == Qt.Key.Key_Backspace and self.draft is not None:
+                self.draft.back()
                 return True
             return False
         sel = self.scene.selection
@@ -586,7 +639,9 @@ class Interaction:
         if sel is None:
             return
         try:
-            if sel[0] == "hull":
+            if sel[0] in ("site", "site_point"):
+                self.site.nudge(sel, dx, dy, big)
+            elif sel[0] == "hull":
                 body = self.scene.selected_body()
                 step = 10.0 if big else 1.0
                 if body is not None and c.stage is not None:
@@ -667,7 +722,9 @@ class Interaction:
         if sel is None:
             return
         try:
-            if sel[0] == "vertex":
+            if sel[0] in ("site", "site_point"):
+                self.site.delete(sel)
+            elif sel[0] == "vertex":
                 hull = c.project.hull(str(sel[1]))
                 new = hull_edits.deleted_vertex(hull, int(sel[2]))  # type: ignore[call-overload]
                 c.apply(c.project.with_hull(new), f"Delete vertex {sel[2]} of {hull.name}")

@@ -80,6 +80,8 @@ class Label(QGraphicsItem):
         self.priority = 5
         #: True for a label that belongs on its hull (a name, BOW): the hull is no obstacle.
         self.on_hull = False
+        #: True for a label the placer leaves where it is (the others keep clear of it).
+        self.fixed = False
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
         self.setCacheMode(CACHE)
         self.set_text(text)

@@ -255,7 +255,7 @@ def place_labels(
     labels = [i for i in items if isinstance(i, Label) and _shown(i) and i.text]
     placed: list[Label] = []
     boxes: list[tuple[float, float, float, float]] = []
-    order = sorted(labels, key=lambda lab: (lab.priority, -lab.home_rect().width()))
+    order = sorted(labels, key=lambda lab: (not lab.fixed, lab.priority, -lab.home_rect().width()))
     for lab in order:
         dt = lab.deviceTransform(vt)
         anchor = dt.map(QPointF(0, 0))
@@ -263,7 +263,7 @@ def place_labels(
         if not view_box.intersects(home.adjusted(-200, -200, 200, 200)):
             lab.set_shift(0.0, 0.0)  # far off the view: nothing to place it against
             continue
-        shifts = _candidates(home, anchor)
+        shifts = np.zeros((1, 2)) if lab.fixed else _candidates(home, anchor)
         cand = np.column_stack(
             [
                 home.left() + shifts[:, 0],

@@ -27,12 +27,13 @@ from collections.abc import Callable
 
 from PySide6.QtCore import QPointF, QRectF, Signal
 from PySide6.QtGui import QPainter
-from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene, QMenu
 
 from app.board.drawing import BodyDrawing, _screen_angle
 from app.board.handles import TurnHandle
 from app.board.interaction import Interaction
 from app.board.items import Label
+from app.board.menus import board_menu
 from app.board.poses import pose_in, site_angle_deg, to_site
 from app.controller import BodyResult, Controller
 from app.paint import style
@@ -60,6 +61,10 @@ class BoardScene(QGraphicsScene):
         self.selection: Selection = None
         self.tug_notes: dict[str, str] = {}
         self.refresh_hooks: list[Callable[[BoardScene], None]] = []
+        #: Callables ``(menu, target)`` adding entries to a context menu (see app.board.menus).
+        self.menu_hooks: list[Callable[[QMenu, tuple[object, ...] | None], None]] = []
+        #: The context menu shown last (kept alive while it is open).
+        self.last_menu: QMenu | None = None
         #: Why the balance on screen is not the current geometry's (None when it is).
         self.stale: str | None = None
         self.interaction = Interaction(self)
@@ -78,7 +83,7 @@ class BoardScene(QGraphicsScene):
             (0, 0),
             "centre",
         )
-        self._hint.priority = 0
+        self._hint.fixed = True
         self.addItem(self._hint)
         self.turn_handle = TurnHandle()
         self.addItem(self.turn_handle)
@@ -384,6 +389,20 @@ class BoardScene(QGraphicsScene):
             event.accept()
         else:
             super().keyPressEvent(event)
+
+    def contextMenuEvent(self, event):  # type: ignore[no-untyped-def]
+        if self.fixed_stage is not None:
+            return
+        try:
+            menu = board_menu(self, event.scenePos())
+        except Exception as e:  # nothing may escape into Qt
+            traceback.print_exc()
+            self.controller.message.emit(f"No menu there ({type(e).__name__}: {e})")
+            return
+        self.last_menu = menu
+        if not menu.isEmpty():
+            menu.popup(event.screenPos())
+        event.accept()
 
     def pixels_per_metre(self) -> float:
         views = self.views()

@@ -9,12 +9,14 @@ only when the poses, the hulls or the site change (not while a tug is dragged).
 
 from __future__ import annotations
 
+import shapely
 from PySide6.QtCore import QPointF, Qt
 from PySide6.QtGui import QPainterPath, QPolygonF
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsLineItem, QGraphicsPathItem
 
-from app.board.items import GUIDE, Label
+from app.board.items import GUIDE, ROLE, Handle, Label
 from app.board.scene import BoardScene
+from app.edits.site import nearest_segment
 from app.paint import style
 from core.mechanics.bodies import body_of
 from core.mechanics.clearance import Clearance, notable_clearances, stage_clearances
@@ -23,6 +25,8 @@ from core.model.plan import SiteFeature
 
 Z_SITE = -5.0
 Z_CLEARANCE = 1.0  # above the hulls' fill, under the tugs
+Z_HANDLES = 30.0
+HIT_PX = 6.0  # how near a line a click picks its feature, px
 
 QUAY = style.QUAY
 DOLPHIN_FILL = style.DOLPHIN_FILL
@@ -67,8 +71,75 @@ class SiteLayer:
         self.clearance_labels: list[Label] = []
         self._site_key: object = None
         self._clear_key: object = None
+        self.handles: list[Handle] = []
+        self._handles_key: object = None
+        scene.site_layer = self  # type: ignore[attr-defined]
         scene.refresh_hooks.append(self.refresh)
+        scene.selection_changed.connect(self._sync_selection)
         self.refresh(scene)
+
+    # -- which feature is where -----------------------------------------------------------
+    def feature_at(self, pos: QPointF, ppm: float, reach_px: float = HIT_PX) -> str | None:
+        """The feature under site point ``pos``: near a line or an edge, or inside a dolphin
+        or a vessel (never just inside a basin limit, which holds the whole board)."""
+        p = (pos.x(), pos.y())
+        best: tuple[float, str] | None = None
+        for f in self.scene.controller.project.site.features:
+            if (
+                f.closed
+                and f.kind != "limit"
+                and shapely.contains_xy(shapely.Polygon(f.points), *p)
+            ):
+                return f.name
+            d = nearest_segment(f, p)[2] * ppm
+            if d <= reach_px and (best is None or d < best[0]):
+                best = (d, f.name)
+        return best[1] if best is not None else None
+
+    def _selected_feature(self) -> tuple[str, int | None] | None:
+        sel = self.scene.selection
+        if sel and sel[0] == "site":
+            return str(sel[1]), None
+        if sel and sel[0] == "site_point":
+            return str(sel[1]), int(sel[2])  # type: ignore[call-overload]
+        return None
+
+    def _sync_selection(self) -> None:
+        """The selected feature drawn bold, with a handle on each of its points."""
+        chosen = self._selected_feature()
+        site = self.scene.controller.project.site
+        key = (chosen, site)
+        if key == self._handles_key:
+            return
+        self._handles_key = key
+        name = chosen[0] if chosen else None
+        f = next((x for x in site.features if x.name == name), None)
+        pts = list(f.points) if f is not None else []
+        while len(self.handles) > len(pts):
+            h = self.handles.pop()
+            if h.scene() is not None:
+                h.scene().removeItem(h)
+        while len(self.handles) < len(pts):
+            h = Handle()
+            h.setZValue(Z_HANDLES)
+            self.scene.addItem(h)
+            self.handles.append(h)
+        for i, (h, (x, y)) in enumerate(zip(self.handles, pts, strict=True)):
+            h.setPos(x, y)
+            h.setData(ROLE, ("site_point", name, i))
+            h.set_selected(chosen is not None and chosen[1] == i)
+        for g, item, _lab in self.features:
+            item.setPen(self._pen(g, g.name == name))
+
+    @staticmethod
+    def _pen(f: SiteFeature, selected: bool):  # type: ignore[no-untyped-def]
+        if selected:
+            return style.pen(style.HULL_SELECTED, 4.0 if f.kind == "quay" else 2.4)
+        if f.kind == "quay":
+            return style.pen(QUAY, 4.0)
+        if f.kind == "limit":
+            return style.pen(LIMIT, 1.3, Qt.PenStyle.DashLine)
+        return style.pen(QUAY, 1.0)
 
     # -- features ------------------------------------------------------------------------
     def _draw_features(self) -> None:
@@ -79,15 +150,13 @@ class SiteLayer:
         for f in self.scene.controller.project.site.features:
             item = QGraphicsPathItem(feature_path(f))
             item.setZValue(Z_SITE)
-            item.setData(0, ("site", f.name))
-            if f.kind == "quay":
-                item.setPen(style.pen(QUAY, 4.0))
-                item.setData(GUIDE, True)
-            elif f.kind == "limit":
-                item.setPen(style.pen(LIMIT, 1.3, Qt.PenStyle.DashLine))
+            item.setData(ROLE, ("site", f.name))
+            # clicks find a feature by feature_at (its stroke is thin, a limit's area vast)
+            item.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+            item.setPen(self._pen(f, False))
+            if f.kind in ("quay", "limit"):
                 item.setData(GUIDE, True)
             else:
-                item.setPen(style.pen(QUAY, 1.0))
                 item.setBrush(style.brush(VESSEL_FILL if f.kind == "vessel" else DOLPHIN_FILL))
             self.scene.addItem(item)
             lab = Label(f.name, None, style.MUTED, style.label_font(8.0), (0.0, -10.0), "centre")
@@ -120,7 +189,7 @@ class SiteLayer:
             line = QGraphicsLineItem(*c.at_body, *c.at_other)
             line.setPen(style.pen(color, 1.6 if c.below_margin else 1.1, Qt.PenStyle.DotLine))
             line.setZValue(Z_CLEARANCE)
-            line.setData(0, ("clearance", c.body, c.other))
+            line.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
             self.scene.addItem(line)
             text = units.show(c.distance_m, "length")
             if c.below_margin:
@@ -140,6 +209,8 @@ class SiteLayer:
         if project.site != self._site_key:
             self._site_key = project.site
             self._draw_features()
+            self._handles_key = None
+        self._sync_selection()
         stage = scene.stage()
         key = (
             project.site,

@@ -70,7 +70,8 @@ CAUTION_LINE = (
 
 
 BOARD_HELP = """Tools (the key works when the board has the focus): S select / drag, D draw outline,
-L add line point, P add push point. Esc goes back to select.
+L add line point, P add push point; the site: Q quay, O dolphin, V moored vessel, B basin
+limit. Esc goes back to select. While drawing, each side's length is shown beside it.
 
 Select / drag: drag a body to move it; the knob ahead of a selected body's bow turns it
 about its centroid (Shift: in steps of 5°). Drag a tug to change its line's lead and length
@@ -91,6 +92,16 @@ on the grid; View > Grid step sets its step in the display length unit.
 Draw outline: click the vertices, then click the first one again (or press Enter) to close;
 Backspace takes the last vertex back, Esc stops. Add line point / push point: click the hull's
 edge; the point snaps onto it.
+
+The site: a quay is its points clicked in turn (Enter or a double-click ends it); a dolphin
+its centre and a point on its edge; a moored vessel its stern and bow on the centreline and
+a point on its side; a basin limit its points, closed by clicking the first again (Enter
+leaves it an open line). Click a feature to select it: drag it, or drag a point's handle;
+double-click its line to add a point; Delete removes the point or the feature; right-click
+to rename it.
+
+Right-click anything on the board for what can be done to it: a tug's setting or let go, a
+body's heading, lash or unlash hulls, rename or delete a site feature.
 
 A drag is one undo step; nudges or steps of the same item in a row are one undo step too."""
 

@@ -1,0 +1,181 @@
+"""The board's context menus: what can be done to the thing under the cursor.
+
+``board_menu(scene, pos)`` builds the menu for site point ``pos`` (m): a tug, a line or
+push point, a vertex, a body (lash, unlash, turn), a site feature or one of its points,
+or open water. Other parts of the program add their own entries through
+``scene.menu_hooks``: callables ``(menu, target) -> None`` where ``target`` is the
+role of the thing under the cursor (for example ``("tug", "Gannet")``) or None.
+
+Every entry edits through the controller, so each is one undo step.
+"""
+
+from __future__ import annotations
+
+from typing import TYPE_CHECKING
+
+from PySide6.QtCore import QPointF
+from PySide6.QtWidgets import QInputDialog, QMenu, QWidget
+
+from app.edits import bodies as body_edits
+from core.errors import TowboardError
+from core.mechanics.bodies import body_name_of_hull
+
+if TYPE_CHECKING:
+    from app.board.scene import BoardScene
+
+
+def target_at(scene: BoardScene, pos: QPointF) -> tuple[object, ...] | None:
+    """What is under site point ``pos``: an item's role, a site feature, or None (water)."""
+    hit = scene.interaction._hit(pos)
+    if hit is not None and hit[0] in ("tug", "fitting", "vertex", "hull", "turn", "site_point"):
+        return hit
+    layer = getattr(scene, "site_layer", None)
+    if layer is not None:
+        name = layer.feature_at(pos, scene.pixels_per_metre())
+        if name is not None:
+            return ("site", name)
+    return None
+
+
+def _parent(scene: BoardScene) -> QWidget | None:
+    views = scene.views()
+    return views[0] if views else None
+
+
+def _run(scene: BoardScene, what: str, edit) -> None:  # type: ignore[no-untyped-def]
+    """Run an edit; an impossible one is said on the status bar."""
+    try:
+        edit()
+    except TowboardError as e:
+        scene.controller.message.emit(f"{what}: not done ({e})")
+
+
+def board_menu(scene: BoardScene, pos: QPointF) -> QMenu:
+    """The context menu for site point ``pos`` (the thing there is selected first)."""
+    target = target_at(scene, pos)
+    menu = QMenu(_parent(scene))
+    if target is not None and target[0] != "turn":
+        scene.select(target)
+    kind = target[0] if target else None
+    if kind == "tug":
+        _tug_entries(scene, menu, str(target[1]))  # type: ignore[index]
+    elif kind == "fitting":
+        name = str(target[2])  # type: ignore[index]
+        menu.addAction(f"Delete {name}", scene.interaction.delete_selection)
+    elif kind == "vertex":
+        menu.addAction(f"Delete vertex {int(target[2]) + 1}", scene.interaction.delete_selection)  # type: ignore[index, call-overload]
+        _body_entries(scene, menu, str(target[1]))  # type: ignore[index]
+    elif kind in ("hull", "turn"):
+        _body_entries(scene, menu, str(target[1]))  # type: ignore[index]
+    elif kind == "site_point":
+        i = int(target[2])  # type: ignore[index, call-overload]
+        menu.addAction(f"Delete point {i + 1}", scene.interaction.delete_selection)
+        _site_entries(scene, menu, str(target[1]))  # type: ignore[index]
+    elif kind == "site":
+        _site_entries(scene, menu, str(target[1]))  # type: ignore[index]
+    else:
+        _water_entries(scene, menu)
+    for hook in getattr(scene, "menu_hooks", ()):
+        hook(menu, target)
+    return menu
+
+
+def _tug_entries(scene: BoardScene, menu: QMenu, tug: str) -> None:
+    inter = scene.interaction
+    stage = scene.controller.stage
+    if stage is None:
+        return
+    try:
+        setting = stage.placement(tug).setting
+    except TowboardError:
+        return
+    sub = menu.addMenu(f"Setting of {tug} ({setting * 100:.0f} %)")
+    for pct in (0, 25, 50, 75, 100):
+        sub.addAction(f"{pct} %", lambda p=pct: inter.step_setting(tug, p / 100 - setting))
+    menu.addSeparator()
+    menu.addAction(f"Let go {tug}", inter.delete_selection)
+
+
+def _body_entries(scene: BoardScene, menu: QMenu, hull_or_body: str) -> None:
+    c = scene.controller
+    project = c.project
+    group = next((g for g in project.groups if g.name == hull_or_body), None)
+    if group is None:
+        group = project.group_of(hull_or_body)
+    body = group.name if group is not None else body_name_of_hull(project, hull_or_body)
+    menu.addAction(f"Turn {body} to heading…", lambda: _ask_heading(scene, body))
+    menu.addSeparator()
+    if group is not None:
+        menu.addAction(
+            f"Unlash {group.name}",
+            lambda: _run(
+                scene,
+                f"Unlash {group.name}",
+                lambda: c.apply(body_edits.unlashed(c.project, group.name), f"Unlash {group.name}"),
+            ),
+        )
+        return
+    free = [
+        h.name for h in project.hulls if h.name != hull_or_body and project.group_of(h.name) is None
+    ]
+    lash = menu.addMenu(f"Lash {hull_or_body} to")
+    lash.setEnabled(bool(free) and bool(project.stages))
+    for other in free:
+        lash.addAction(other, lambda o=other: _lash(scene, hull_or_body, o))
+
+
+def _lash(scene: BoardScene, hull: str, other: str) -> None:
+    c = scene.controller
+
+    def edit() -> None:
+        hulls = (hull, other)
+        name = body_edits.group_name(c.project, hulls)
+        c.apply(
+            body_edits.lashed(c.project, c.stage_index, hulls, name), f"Lash {hull} and {other}"
+        )
+        scene.select(("hull", hull))
+
+    _run(scene, f"Lash {hull} and {other}", edit)
+
+
+def _ask_heading(scene: BoardScene, body: str) -> None:
+    c = scene.controller
+    if c.stage is None:
+        return
+    now = scene.pose(body).heading_deg
+    value, ok = QInputDialog.getDouble(
+        _parent(scene), "Turn to heading", f"True heading of {body} (°):", now, 0.0, 360.0, 1
+    )
+    if not ok:
+        return
+    stage = c.stage
+
+    def edit() -> None:
+        new = body_edits.turned_body(c.project, stage, body, value % 360.0)
+        c.apply(c.with_stage(new), f"Turn {body} to {value % 360.0:05.1f}°")
+
+    _run(scene, f"Turn {body}", edit)
+
+
+def _site_entries(scene: BoardScene, menu: QMenu, name: str) -> None:
+    tools = scene.interaction.site
+    menu.addAction(f"Rename {name}…", lambda: _ask_rename(scene, name))
+    menu.addAction(
+        f"Delete {name}",
+        lambda: _run(scene, f"Delete {name}", lambda: tools.delete(("site", name))),
+    )
+
+
+def _ask_rename(scene: BoardScene, name: str) -> None:
+    new, ok = QInputDialog.getText(_parent(scene), "Rename site feature", "Name:", text=name)
+    if ok and new.strip() and new.strip() != name:
+        _run(scene, f"Rename {name}", lambda: scene.interaction.site.rename(name, new))
+
+
+def _water_entries(scene: BoardScene, menu: QMenu) -> None:
+    views = scene.views()
+    if views:
+        view = views[0]
+        for text, slot in (("Fit to hull", "fit_to_hull"), ("Fit to site", "fit_to_site")):
+            if hasattr(view, slot):
+                menu.addAction(text, getattr(view, slot))
