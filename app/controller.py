@@ -36,6 +36,7 @@ from PySide6.QtGui import QUndoCommand, QUndoStack
 from core.analysis.stage import StageResult, body_balance, stage_result
 from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout
 from core.mechanics.bodies import Body, body_name_of_hull, body_of
+from core.mechanics.loads import ConditionLoads
 from core.model.plan import Project, Stage
 
 
@@ -47,6 +48,7 @@ class BodyResult:
     layout: TugLayout
     loads: tuple[Load, ...]
     balance: Balance
+    conditions: ConditionLoads | None = None  # the wind and current on it, and what is missing
 
 
 _MERGE_IDS: dict[object, int] = {}
@@ -242,7 +244,7 @@ class Controller(QObject):
                 new.append(q)
             layout = replace(r.layout, placements=tuple(new))
             balance = analyse_layout(stage, r.body, layout, project.units, r.loads)
-            out[name] = BodyResult(r.body, layout, r.loads, balance)
+            out[name] = BodyResult(r.body, layout, r.loads, balance, r.conditions)
         return out
 
     def invalidate(self) -> None:
@@ -352,9 +354,12 @@ def results_of(result: StageResult | None) -> dict[str, BodyResult]:
     """The board's view of a stage result: each body's tugs, loads and balance."""
     if result is None:
         return {}
-    return {b.name: BodyResult(b.body, b.layout, b.loads, b.balance) for b in result.bodies}
+    return {
+        b.name: BodyResult(b.body, b.layout, b.loads, b.balance, b.conditions)
+        for b in result.bodies
+    }
 
 
 def _light(project: Project, stage: Stage, body: Body) -> BodyResult:
     layout, cond, balance = body_balance(project, stage, body)
-    return BodyResult(body, layout, cond.loads, balance)
+    return BodyResult(body, layout, cond.loads, balance, cond)

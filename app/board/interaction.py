@@ -361,7 +361,7 @@ class Interaction:
         layout = with_placement_row(r.layout, project, stage, r.body, placement)
         balance = analyse_layout(stage, r.body, layout, project.units, r.loads)
         results = dict(c.results())
-        results[drag.body] = BodyResult(r.body, layout, r.loads, balance)
+        results[drag.body] = BodyResult(r.body, layout, r.loads, balance, r.conditions)
         drag.result = results[drag.body]
         drag.placement = placement
         c.preview(project, results)

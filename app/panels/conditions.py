@@ -36,7 +36,7 @@ from app.numbers import message, parse_number, parse_optional, parse_value
 from core.errors import InputError, TowboardError
 from core.frames import turning_words
 from core.mechanics.bodies import stage_body
-from core.mechanics.loads import body_conditions, hoerner_cross_flow, loads_wrench, projection
+from core.mechanics.loads import hoerner_cross_flow, projection
 from core.model import rules
 from core.model.conditions import Conditions, rule
 from core.model.efficiency import EfficiencyTable
@@ -283,29 +283,30 @@ class ConditionsPanel(QWidget):
         return out
 
     def _effect_text(self) -> str:
-        p, stage = self.controller.project, self.controller.stage
-        if stage is None or not p.hulls:
+        """What the body feels, read from the controller's results (the stage result's own,
+        or during a drag its light part); nothing is worked out here."""
+        c = self.controller
+        stage = c.stage
+        main = c.results().get(c.main_body() or "")
+        if main is None or main.conditions is None or stage is None:
             return "No hull."
         u = self._units()
-        try:
-            body = stage_body(p, stage)
-        except TowboardError as e:
-            return str(e)
-        cl = body_conditions(stage, body)
-        c = stage.conditions
+        cl = main.conditions
+        gusts = stage.conditions.gust_factor > 1
         lines = [
             f"Wind from {cl.wind_from_rel_deg:03.0f}° relative, "
             f"{u.show(cl.wind_speed_10m_ms, 'speed')} at 10 m"
-            + (f", {u.show(cl.design_wind_ms, 'speed')} with gusts" if c.gust_factor > 1 else ""),
+            + (f", {u.show(cl.design_wind_ms, 'speed')} with gusts" if gusts else ""),
             f"Current towards {cl.current_towards_rel_deg:03.0f}° relative",
         ]
+        tol = main.balance.tolerance[1]
         for ld in cl.loads:
-            m = float(loads_wrench((ld,), body.centroid)[2])
+            m = ld.moment_about(main.body.centroid)
             lines.append(
                 f"{ld.name.capitalize()} load {u.show(math.hypot(*ld.force), 'force')}: "
                 f"ahead {u.value(ld.force[0], 'force'):+.1f}, to port "
                 f"{u.value(ld.force[1], 'force'):+.1f} {label(u.unit('force'))}; "
-                f"{u.show(abs(m), 'moment')} about the centroid, {turning_words(m, 1e-6)}"
+                f"{u.show(abs(m), 'moment')} about the centroid, {turning_words(m, tol)}"
             )
         if not cl.loads:
             lines.append("No wind or current load.")

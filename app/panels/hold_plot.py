@@ -34,7 +34,6 @@ from core.errors import TowboardError
 from core.model.plan import Stage
 from core.solve.holdlimits import (
     HoldLimits,
-    hold_limits,
     hold_limits_problem,
     limit_at,
     live_hold_limits,
@@ -303,9 +302,10 @@ class HoldPlot(QWidget):
 class HoldLimitsPanel(QWidget):
     """The plot with a line of figures under it, kept up to date with the controller.
 
-    While a drag is in progress the all-tugs sweep runs every 5 degrees on every mouse
-    move, and the worst-tug-lost sweep every 10 degrees up to 20 times a second, so the
-    plot follows the mouse; once the edit settles both run every degree.
+    Once an edit settles the plot shows the stage result's hold limits (every degree, all
+    tugs and each tug lost). With ``follow_drag`` on (live solving) and the plot visible,
+    a drag in progress sweeps all tugs every 5 degrees on every mouse move and the worst
+    tug lost every 10 degrees up to 20 times a second, so the plot follows the mouse.
     """
 
     def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
@@ -325,6 +325,8 @@ class HoldLimitsPanel(QWidget):
         layout.addWidget(self.caption)
         self.setToolTip(EXPLAIN)
         self.limits: HoldLimits | None = None
+        #: Sweep on every mouse move of a drag (live solving on); else wait for the drag's end.
+        self.follow_drag = False
         self._lost_at: float | None = None
         self._lost_curve: tuple[np.ndarray, np.ndarray] | None = None
         self._timer = QTimer(self)
@@ -337,11 +339,14 @@ class HoldLimitsPanel(QWidget):
     def _changed(self) -> None:
         if self.controller.previewing:
             self._timer.stop()
-            self.update_now(coarse=True)
+            if self.follow_drag and self.isVisible():
+                self.update_now(coarse=True)
         else:
             self._timer.start()
 
     def update_now(self, coarse: bool) -> None:
+        """Show the hold limits: the stage result's (``coarse`` False), or during a drag a
+        coarse sweep of the same problem that follows the mouse."""
         c = self.controller
         stage = c.stage
         units = c.project.units
@@ -352,14 +357,27 @@ class HoldLimitsPanel(QWidget):
             self.plot.set_data(None, stage, units, "Place tugs to see what wind they can hold.")
             self.caption.setText("")
             return
-        dirs = np.arange(0.0, 360.0, 5.0 if coarse else 1.0)
         lost_curve = None
-        try:
-            r = c.results().get(body)
-            problem = hold_limits_problem(
-                c.project, stage, body, directions_deg=dirs, layout=r.layout if r else None
-            )
-            if coarse:
+        if not coarse:
+            self._lost_at = None
+            r = c.stage_result()
+            main = None if r is None else r.main
+            lim = None if main is None else main.hold_limits
+            if lim is None:
+                why = "; ".join(n for n in (main.notes if main else ()) if "hold limits" in n)
+                self.plot.set_data(None, stage, units, f"No hold limits: {why or 'no tugs'}")
+                self.caption.setText("")
+                return
+        else:
+            try:
+                r = c.results().get(body)
+                problem = hold_limits_problem(
+                    c.project,
+                    stage,
+                    body,
+                    directions_deg=np.arange(0.0, 360.0, 5.0),
+                    layout=r.layout if r else None,
+                )
                 # While dragging: all tugs every 5 degrees on every move; each tug lost
                 # every 10 degrees, at most LOST_EVERY_S apart (the costlier sweep).
                 now = time.perf_counter()
@@ -369,13 +387,10 @@ class HoldLimitsPanel(QWidget):
                     self._lost_at = now
                     self._lost_curve = (lost_dirs, worst) if len(problem.tugs) else None
                 lost_curve = self._lost_curve
-            else:
-                self._lost_at = None
-                lim = hold_limits(problem)
-        except TowboardError as e:
-            self.plot.set_data(None, stage, units, f"No hold limits: {e}")
-            self.caption.setText("")
-            return
+            except TowboardError as e:
+                self.plot.set_data(None, stage, units, f"No hold limits: {e}")
+                self.caption.setText("")
+                return
         self.limits = lim
         msg = ""
         if not lim.holds_current:

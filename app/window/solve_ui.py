@@ -68,6 +68,7 @@ class SolveUi:
         window.toolbar.addActions([self.act_solve, self.act_live])
 
     def set_live(self, on: bool) -> None:
+        self.hold.follow_drag = on
         filters = self.controller.edit_filters
         f = self.solve_panel.live_filter
         if on and f not in filters:

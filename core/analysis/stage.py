@@ -26,7 +26,7 @@ from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout, tug
 from core.mechanics.bodies import Body, body_name_of_hull, body_of, stage_body
 from core.mechanics.clearance import Clearance, stage_clearances
 from core.mechanics.fittings import FittingLoad, fitting_loads
-from core.mechanics.loads import ConditionLoads, body_conditions
+from core.mechanics.loads import ConditionLoads, body_conditions, missing_inputs
 from core.mechanics.site import posed_bodies
 from core.model.goals import Goal
 from core.model.plan import Project, Stage
@@ -190,10 +190,14 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
         except TowboardError as e:
             notes.append(f"pulls not solved: {e}")
     if worked and layout.placements:
-        try:
-            limits = hold_limits(hold_limits_problem(project, stage, body.name, layout=layout))
-        except TowboardError as e:
-            notes.append(f"hold limits not worked out: {e}")
+        missing = missing_inputs(body, stage.conditions, "wind")
+        if missing:
+            notes.append(f"hold limits need {' and '.join(missing)}")
+        else:
+            try:
+                limits = hold_limits(hold_limits_problem(project, stage, body.name, layout=layout))
+            except TowboardError as e:
+                notes.append(f"hold limits not worked out: {e}")
         lost = tuple(
             (
                 p.tug,

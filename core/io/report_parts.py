@@ -14,7 +14,6 @@ import numpy as np
 
 from core.analysis.stage import BodyResult
 from core.frames import angle_to_bearing, turning_words
-from core.mechanics.loads import loads_wrench
 from core.model.plan import Stage
 from core.solve.holdlimits import HoldLimits, limit_at
 from core.solve.pulls import (
@@ -54,7 +53,7 @@ def conditions_json(stage: Stage, br: BodyResult) -> dict[str, Any]:
                 "name": ld.name,
                 "point_m": list(ld.point),
                 "force_N": {"ahead": ld.force[0], "to_port": ld.force[1]},
-                "yaw_moment_about_centroid_Nm": float(loads_wrench((ld,), body.centroid)[2]),
+                "yaw_moment_about_centroid_Nm": ld.moment_about(body.centroid),
             }
             for ld in cl.loads
         ],
@@ -193,7 +192,7 @@ def conditions_lines(stage: Stage, br: BodyResult, u: DisplayUnits) -> list[str]
         f"{c.current_towards_deg:05.1f} true ({cl.current_towards_rel_deg:05.1f} relative)",
     ]
     for ld in cl.loads:
-        m = float(loads_wrench((ld,), body.centroid)[2])
+        m = ld.moment_about(body.centroid)
         out.append(
             f"  {ld.name.capitalize() + ' load':<16}{u.show(math.hypot(*ld.force), 'force')}"
             f" (ahead {fmt(u.value(ld.force[0], 'force'), signed=True)}, to port "

@@ -22,6 +22,7 @@ from core.mechanics.forces import (
     NEGLIGIBLE,
     Equivalent,
     equivalent_of,
+    moment_of,
     moments_about,
     transfer_moment,
 )
@@ -48,6 +49,10 @@ class Load:
     point: tuple[float, float]  # body frame, m
     force: tuple[float, float]  # N
     moment_nm: float = 0.0  # extra pure moment, N*m
+
+    def moment_about(self, ref: tuple[float, float]) -> float:
+        """The load's yaw moment about ``ref`` (its force's and its own pure moment), N*m."""
+        return moment_of(self.point, self.force, ref) + self.moment_nm
 
 
 @dataclass(frozen=True, slots=True)
@@ -330,9 +335,7 @@ def analyse_layout(
     scale = float(pulls.sum())
     for ld in loads:
         net = net + np.asarray(ld.force)
-        moment += (
-            (ld.point[0] - c[0]) * ld.force[1] - (ld.point[1] - c[1]) * ld.force[0] + ld.moment_nm
-        )
+        moment += ld.moment_about(c)
         scale += math.hypot(*ld.force)
     eq = equivalent_of(net, moment, c, scale, body.length)
     cog = body.centre_of_gravity

@@ -31,6 +31,13 @@ def cross2(a: np.ndarray, b: np.ndarray) -> np.ndarray:
     return a[..., 0] * b[..., 1] - a[..., 1] * b[..., 0]
 
 
+def moment_of(
+    point: tuple[float, float], force: tuple[float, float], ref: tuple[float, float]
+) -> float:
+    """Moment about ``ref`` of one ``force`` applied at ``point``: (r - r_ref) x F, N*m."""
+    return (point[0] - ref[0]) * force[1] - (point[1] - ref[1]) * force[0]
+
+
 def moments_about(points: np.ndarray, forces: np.ndarray, ref: tuple[float, float]) -> np.ndarray:
     """Moment of each force about ``ref``. points, forces: (n, 2) -> (n,)."""
     return cross2(points - np.asarray(ref, dtype=float), forces)

@@ -25,6 +25,7 @@ import numpy as np
 from core.errors import InputError
 from core.mechanics.balance import Load
 from core.mechanics.bodies import Body
+from core.mechanics.forces import moment_of
 from core.model.conditions import Conditions
 from core.model.plan import Stage
 from core.notices import Notice
@@ -122,8 +123,7 @@ class FlowModel:
         """(3, k): force ahead, to port and moment about ``centroid`` at 1 m/s, per angle."""
         c, s = np.cos(angles_rad), np.sin(angles_rad)
         fx, fy = self.k_head * c * np.abs(c), self.k_beam * s * np.abs(s)
-        dx, dy = self.point[0] - centroid[0], self.point[1] - centroid[1]
-        return np.vstack([fx, fy, dx * fy - dy * fx])
+        return np.vstack([fx, fy, moment_of(self.point, (fx, fy), centroid)])
 
 
 def _area(given: float | None, derived: float | None, what: str, body: Body) -> float:
@@ -292,7 +292,5 @@ def loads_wrench(loads: tuple[Load, ...], centroid: tuple[float, float]) -> np.n
     """(3,): force ahead, force to port and moment about ``centroid`` of the loads."""
     out = np.zeros(3)
     for ld in loads:
-        fx, fy = ld.force
-        dx, dy = ld.point[0] - centroid[0], ld.point[1] - centroid[1]
-        out += (fx, fy, dx * fy - dy * fx + ld.moment_nm)
+        out += (ld.force[0], ld.force[1], ld.moment_about(centroid))
     return out

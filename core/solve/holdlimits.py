@@ -30,6 +30,7 @@ import numpy as np
 
 from core.mechanics.balance import TugLayout, tug_layout
 from core.mechanics.bodies import stage_body
+from core.mechanics.forces import moment_of
 from core.mechanics.loads import current_model, flow_angle_rad, wind_model
 from core.model.plan import Project, Stage
 
@@ -90,8 +91,7 @@ def hold_limits_problem(
     if c.current_speed_ms > 0:
         cm = current_model(b, c)
         fx, fy = cm.force(c.current_speed_ms, flow_angle_rad(c.current_towards_deg, heading))
-        dx, dy = cm.point[0] - b.centroid[0], cm.point[1] - b.centroid[1]
-        fixed = np.array([fx, fy, dx * fy - dy * fx])
+        fixed = np.array([fx, fy, moment_of(cm.point, (fx, fy), b.centroid)])
     gens = layout.unit_effects(b.centroid) * layout.usable_n  # (3, n)
     return HoldLimitsProblem(
         stage=stage.name,

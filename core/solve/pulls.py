@@ -40,6 +40,7 @@ from core.errors import InputError
 from core.frames import angle_to_bearing
 from core.mechanics.balance import Load, TugLayout, tug_direction, tug_layout
 from core.mechanics.bodies import stage_body
+from core.mechanics.forces import moment_of
 from core.mechanics.loads import body_conditions, loads_wrench
 from core.model.goals import Goal
 from core.model.plan import Project, Stage
@@ -162,7 +163,7 @@ def pulls_problem(
             continue
         for lead in _sector_leads(p, bool(layout.is_push[i]), sector_step_deg):
             point, d, _ = tug_direction(b, replace(p, lead_rad=float(lead)))
-            m = (point[0] - c[0]) * d[1] - (point[1] - c[1]) * d[0]
+            m = moment_of(point, d, c)
             cols.append(np.array([d[0], d[1], m]))
             col_tug.append(i)
             col_lead.append(float(lead))

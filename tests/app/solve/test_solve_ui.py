@@ -316,8 +316,22 @@ def test_the_plot_shows_the_cores_hold_limits(holding, tmp_path: Path) -> None: 
     assert blue > 50  # the all-tugs curve is drawn
 
 
+def test_the_plot_waits_for_the_drag_unless_live(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = holding.controller
+    hold = holding.solve_ui.hold
+    hold.update_now(coarse=False)
+    shown = hold.limits
+    stage = c.stage
+    p = stage.placement("Gannet")
+    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    assert hold.limits is shown  # no sweep on the mouse moves of a drag
+    c.cancel_preview()
+
+
 def test_the_plot_follows_a_drag_at_five_degrees(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     c = holding.controller
+    holding.solve_ui.set_live(True)
+    holding.show()
     stage = c.stage
     p = stage.placement("Gannet")
     c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
