@@ -5,7 +5,9 @@ miss it; a setting is above 100 % or a push points out of the hull; a fitting's 
 (the line's tension) is above its rating; a clearance is under the margin; the planned
 wind or current is above what the fleet can hold (a hold stage) or above the stage's
 own go / no-go limit; or a load the conditions ask for cannot be worked out (the reason
-says which input is missing). It is a **caution** when it passes with every tug but not
+says which input is missing). Whether the fleet can hold the planned wind and current is
+the hold goal's own solve (the hold limits, for the same conditions, say it again with the
+margin, and are quoted in the reason). It is a **caution** when it passes with every tug but not
 with the worst tug lost, when no goal is set ("the pulls as set"), and for every other
 warning (a steep line, a fitting not rated for the tug's bollard pull, two tugs at one
 point...). Otherwise it is **go**. Nothing says "go" that is not.
@@ -47,8 +49,6 @@ NO_GO_CODES = frozenset(
         "outside_permitted_angles",
         "low_clearance",
         "conditions_over_limit",
-        "wind_over_hold_limit",
-        "current_not_held",
         "pull_short",
     }
 )
@@ -227,7 +227,7 @@ def _goal_reasons(stage: Stage, b: BodyResult, u: DisplayUnits) -> list[Reason]:
             "transit or a given force to have them checked)",
             stage.name,
         )
-        return [no_goal, *_current_alone(b, "caution")]
+        return [no_goal]
     out: list[Reason] = []
     solved = b.solved
     words = GOAL_WORDS[goal.kind].split(":")[0]
@@ -243,8 +243,6 @@ def _goal_reasons(stage: Stage, b: BodyResult, u: DisplayUnits) -> list[Reason]:
         out.append(reason("pulls_miss_goal", _miss_words(b, u, words, solved), b.name))
     if solved is not None and solved.feasible and b.tug_lost is not None:
         out.extend(_tug_lost(b, u, words))
-    if goal.kind == "hold" and not any(r.code == "goal_cannot_be_met" for r in out):
-        out.extend(_hold_limit_reasons(stage, b, u))
     return out
 
 
@@ -295,43 +293,6 @@ def _hold_words(stage: Stage, b: BodyResult, u: DisplayUnits) -> str:
         f"; they hold at most {u.show(v, 'speed')} of wind from {c.wind_from_deg:03.0f}° true "
         f"(planned {u.show(c.wind_speed_ms, 'speed')})"
     )
-
-
-def _current_alone(b: BodyResult, status_hint: str) -> list[Reason]:
-    lim = b.hold_limits
-    if lim is None or lim.holds_current or b.conditions.loads == ():
-        return []
-    return [
-        Reason(
-            "current_not_held",
-            f"{b.name}: the tugs as placed cannot hold the body against the current alone",
-            "no-go" if status_hint == "no-go" else "caution",
-            b.name,
-        )
-    ]
-
-
-def _hold_limit_reasons(stage: Stage, b: BodyResult, u: DisplayUnits) -> list[Reason]:
-    lim = b.hold_limits
-    if lim is None:
-        return []
-    if not lim.holds_current:
-        return _current_alone(b, "no-go")
-    c = stage.conditions
-    if c.wind_speed_ms <= 0:
-        return []
-    v = limit_at(lim, c.wind_from_deg)
-    if v < c.wind_speed_ms * (1 - 1e-6):
-        return [
-            reason(
-                "wind_over_hold_limit",
-                f"{b.name}: planned wind {u.show(c.wind_speed_ms, 'speed')} from "
-                f"{c.wind_from_deg:03.0f}° true is above what the tugs can hold from there "
-                f"({u.show(v, 'speed')})",
-                b.name,
-            )
-        ]
-    return []
 
 
 def _limit_reasons(stage: Stage, u: DisplayUnits) -> list[Reason]:

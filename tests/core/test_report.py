@@ -24,19 +24,30 @@ TF = 9806.65  # N per tonne-force (NIST SP 811)
 
 
 def test_pontoon_swing_is_a_pure_couple_by_hand() -> None:
-    """Alder 50 % of 40 t at the forward port bollard (60, 14) pulls to port; Damson 2/3 of
-    30 t at the aft starboard bollard (0, -14) pulls to starboard: 20 t each, 30 m either
-    side of the centroid (30, 0), so a couple of 2 x 20 t x 30 m = 1200 t*m, bow to port."""
+    """The swing stage's pulls, as the report gives them, summed by hand (R = sum F,
+    M = sum r x F about the centroid (30, 0) of the 60 x 28 m pontoon): no net force and
+    the goal's 720 t*m, bow to port."""
     project = load(ROOT / "sample_projects" / "pontoon_swing.towboard")
     rep = report_json(project)
     bal = rep["stages"][0]["balance"]
+    net, moment = np.zeros(2), 0.0
+    for t in bal["tugs"]:
+        b = math.radians(t["force_bearing_deg"])  # clockwise from ahead
+        f = t["assigned_pull_N"] * np.array([math.cos(b), -math.sin(b)])
+        x, y = {
+            "Fwd port bollard": (60.0, 14.0),
+            "Fwd stbd bollard": (60.0, -14.0),
+            "Aft port bollard": (0.0, 14.0),
+            "Aft stbd bollard": (0.0, -14.0),
+        }[t["point"]]
+        net += f
+        moment += (x - 30.0) * f[1] - y * f[0]
+    assert np.hypot(*net) == pytest.approx(0.0, abs=1e-6 * TF)
+    assert moment == pytest.approx(720 * TF, rel=1e-6)  # 2 x 12 t x 30 m
     assert bal["equivalent"]["kind"] == "couple"
-    assert bal["yaw_moment_about_centroid_Nm"] == pytest.approx(1200 * TF, rel=1e-9)
+    assert bal["yaw_moment_about_centroid_Nm"] == pytest.approx(moment, rel=1e-6)
     assert bal["turning"] == "swings bow to port"
     assert bal["equivalent"]["crosses_centreline_at_x_m"] is None
-    pulls = {t["tug"]: t["assigned_pull_N"] for t in bal["tugs"]}
-    assert pulls["Alder"] == pytest.approx(20 * TF)
-    assert pulls["Damson"] == pytest.approx(20 * TF)
     assert rep["units"] == {"force": "N", "moment": "N*m", "length": "m", "angle": "deg"}
     assert "x forward, y to port" in rep["frame"]
 
@@ -130,24 +141,31 @@ def _hand_conditions(data: dict, stage: int) -> list[tuple[tuple[float, float], 
     return out
 
 
-@pytest.mark.parametrize("stage", [0, 1])
+@pytest.mark.parametrize("stage", [0, 1, 2, 3])
 def test_deck_barge_report_matches_a_hand_calculation(stage: int) -> None:
     path = ROOT / "sample_projects" / "deck_barge_unberth.towboard"
     data = json.loads(path.read_text())
     net, moment, c = _hand_balance(data, stage)
     bal = report_json(load(path))["stages"][stage]["balance"]
+    # The sample's pulls are solved, so the net force can be close to nothing: compare
+    # against the size of the pulls present (the file keeps 12 significant digits).
+    scale = sum(t["assigned_pull_N"] for t in bal["tugs"]) + 1.0
     assert bal["centroid_m"] == pytest.approx(list(c), rel=1e-9)
-    assert bal["net_force_N"]["ahead"] == pytest.approx(net[0], rel=1e-9, abs=1e-6)
-    assert bal["net_force_N"]["to_port"] == pytest.approx(net[1], rel=1e-9, abs=1e-6)
-    assert bal["yaw_moment_about_centroid_Nm"] == pytest.approx(moment, rel=1e-9)
-    # Where the line of action crosses the centreline: x with x * R_y = M about (0, 0).
-    m_origin = moment + c[0] * net[1] - c[1] * net[0]
-    assert bal["equivalent"]["crosses_centreline_at_x_m"] == pytest.approx(
-        m_origin / net[1], rel=1e-9
+    assert bal["net_force_N"]["ahead"] == pytest.approx(net[0], rel=1e-9, abs=1e-9 * scale)
+    assert bal["net_force_N"]["to_port"] == pytest.approx(net[1], rel=1e-9, abs=1e-9 * scale)
+    assert bal["yaw_moment_about_centroid_Nm"] == pytest.approx(
+        moment, rel=1e-9, abs=1e-9 * scale * 84.0
     )
-    assert bal["equivalent"]["offset_from_centroid_m"] == pytest.approx(
-        moment / np.hypot(*net), rel=1e-9
-    )
+    if abs(net[1]) > 0.01 * scale:  # a real sideways force: where its line crosses
+        # Where the line of action crosses the centreline: x with x * R_y = M about (0, 0).
+        m_origin = moment + c[0] * net[1] - c[1] * net[0]
+        assert bal["equivalent"]["crosses_centreline_at_x_m"] == pytest.approx(
+            m_origin / net[1], rel=1e-6
+        )
+    if np.hypot(*net) > 0.01 * scale:  # a real net force: its line's offset
+        assert bal["equivalent"]["offset_from_centroid_m"] == pytest.approx(
+            moment / np.hypot(*net), rel=1e-6, abs=1e-6
+        )
 
 
 def test_report_json_numbers_are_the_cores() -> None:

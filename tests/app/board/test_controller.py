@@ -68,6 +68,7 @@ def test_cancelled_preview_puts_the_value_back(controller: Controller) -> None:
 
 
 def test_consecutive_edits_with_one_key_merge(controller: Controller) -> None:
+    was = controller.stage.placement("Gannet").setting  # the sample's value
     for v in (0.46, 0.47, 0.48):
         controller.apply(
             _with_setting(controller, "Gannet", v), "Step", merge_key=("setting", "Gannet")
@@ -78,7 +79,7 @@ def test_consecutive_edits_with_one_key_merge(controller: Controller) -> None:
     assert controller.undo_stack.count() == 2
     controller.undo_stack.undo()
     controller.undo_stack.undo()
-    assert controller.stage.placement("Gannet").setting == 0.45  # the sample's value
+    assert controller.stage.placement("Gannet").setting == was
 
 
 def test_results_are_the_stage_results_balance(controller: Controller) -> None:

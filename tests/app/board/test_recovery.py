@@ -69,7 +69,10 @@ def test_a_killed_session_is_restored_to_its_last_edit(qtbot, isolated: Path, di
     expected = load(SAMPLE)
     stage = expected.stages[0]
     stage = stage.with_placement(stage.placement("Gannet").with_setting(0.62))
-    stage = stage.with_placement(stage.placement("Puffin").with_setting(0.58))
+    puffin = stage.placement("Puffin").setting
+    for _ in range(3):  # three steps of 1 %, each kept to 0.1 % as the board does
+        puffin = round((puffin + 0.01) * 1000) / 1000
+    stage = stage.with_placement(stage.placement("Puffin").with_setting(puffin))
     expected = expected.with_stage(stage, 0)
 
     from app.window.main_window import MainWindow

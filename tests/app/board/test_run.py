@@ -33,7 +33,7 @@ def test_no_file_opens_the_bundled_sample(no_loop) -> None:  # type: ignore[no-u
 
 def test_a_file_argument_opens_that_file(no_loop, tmp_path: Path) -> None:  # type: ignore[no-untyped-def]
     project = load(SAMPLE)
-    other = save(project.with_stages(project.stages[1:]), tmp_path / "one stage.towboard")
+    other = save(project.with_stages(project.stages[-1:]), tmp_path / "one stage.towboard")
     assert main_window.run(str(other)) == 0
     (w,) = main_window.OPEN_WINDOWS
     assert len(w.controller.project.stages) == 1

@@ -10,7 +10,7 @@ from PySide6.QtGui import QImage
 from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QFileDialog, QLineEdit
 
-from core.io.projectfile import load
+from core.io.projectfile import dumps, load
 from tests.app.board.conftest import SAMPLE
 
 
@@ -22,12 +22,13 @@ def test_the_sample_opens_with_its_name_in_the_title(window) -> None:  # type: i
 
 
 def test_an_edit_marks_the_title_and_undo_clears_it(window) -> None:  # type: ignore[no-untyped-def]
+    was = window.controller.stage.placement("Gannet").setting
     window.board.interaction.step_setting("Gannet", 0.05)
     assert window.isWindowModified()
     window.act_undo.trigger()
     assert not window.isWindowModified()
     window.act_redo.trigger()
-    assert window.controller.stage.placement("Gannet").setting == pytest.approx(0.50)
+    assert window.controller.stage.placement("Gannet").setting == pytest.approx(was + 0.05)
 
 
 def test_save_then_reopen_gives_the_same_plan(window, tmp_path: Path, monkeypatch) -> None:  # type: ignore[no-untyped-def]
@@ -41,11 +42,12 @@ def test_save_then_reopen_gives_the_same_plan(window, tmp_path: Path, monkeypatc
     saved = tmp_path / "saved plan.towboard"
     assert saved.exists()
     assert not window.isWindowModified()
-    assert load(saved) == edited
+    # the file keeps 12 significant digits: what is read back writes the same file
+    assert dumps(load(saved)) == dumps(edited)
     window.file_new()
     assert window.controller.project != edited
     assert window.open_path(saved)
-    assert window.controller.project == edited
+    assert dumps(window.controller.project) == dumps(edited)
     assert window.controller.path == saved
     assert str(saved.resolve()) in window.recent_files()
 
@@ -96,7 +98,7 @@ def test_editing_a_table_cell_moves_the_board(window, qtbot) -> None:  # type: i
     QTest.keyClick(editor, Qt.Key.Key_Return)
     c = window.controller
     # the delegate commits on the next turn of the event loop
-    qtbot.waitUntil(lambda: c.stage.placement("Puffin").setting != 0.55)
+    qtbot.waitUntil(lambda: c.stage.placement("Puffin").setting == pytest.approx(0.75))
     assert c.stage.placement("Puffin").setting == pytest.approx(0.75)
     share = next(s for s in c.balance().shares if s.tug == "Puffin")
     tug = window.board.bodies["Kestrel 3"].tugs["Puffin"]
@@ -126,7 +128,7 @@ def test_add_duplicate_and_remove_tugs(window) -> None:  # type: ignore[no-untyp
     panel.add_tug()
     assert [t.name for t in c.project.tugs][-1] == "Tug 1"
     placed = c.stage.placement("Tug 1")  # made fast at the free line point
-    assert placed.point == "Stbd quarter bitt"
+    assert placed.point == "Port quarter bitt"  # the sample's first stage leaves it free
     panel.select_tug("Gannet")
     panel.table.selectRow(c.project.tugs.index(c.project.tug("Gannet")))
     panel.duplicate_tug()
