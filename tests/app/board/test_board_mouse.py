@@ -108,6 +108,7 @@ def _panel_matches_core(window) -> None:  # type: ignore[no-untyped-def]
     u = project.units
     f = window.balance_panel.fields
     assert f["net"].text() == u.show(ref.net_magnitude, "force")
+
     def signed(v: float, q: str) -> str:
         return fmt(u.value(v, q), signed=True)  # type: ignore[arg-type]
 
