@@ -250,7 +250,10 @@ def test_site_from_a_table_replacing_the_features(window, qtbot, tmp_path, monke
     def drive(d: SiteImportDialog) -> None:
         d.origin_x.setValue(1000.0)
         d.origin_y.setValue(2000.0)
-        qtbot.mouseClick(d.replace_all, Qt.MouseButton.LeftButton)
+        # on the button's own mark: a wide row's middle may be past its text
+        at = QPoint(8, d.replace_all.height() // 2)
+        qtbot.mouseClick(d.replace_all, Qt.MouseButton.LeftButton, pos=at)
+        assert d.replace_all.isChecked()
         _click_ok(qtbot, d)
 
     _run_dialog(monkeypatch, SiteImportDialog, drive)
