@@ -166,8 +166,12 @@ def drag_benchmark(moves: int) -> None:
         w.close()
         return times, pause
 
-    off, _ = run(False)
-    on, pause = run(True)
+    # Alternated, so a change in the machine's load falls on both alike.
+    off, on, pause = [], [], None
+    for _ in range(2):
+        off += run(False)[0]
+        times, pause = run(True)
+        on += times
     m_on, m_off = statistics.median(on), statistics.median(off)
     print(
         f"2. dragging a tug of the pair, {moves} moves, board repainted and every event processed:"

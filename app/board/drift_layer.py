@@ -16,7 +16,7 @@ from PySide6.QtCore import QObject, QPointF, Qt, QTimer, Signal
 from PySide6.QtGui import QPainterPath, QPolygonF
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem
 
-from app.board.items import Label
+from app.board.items import CACHE, Label
 from app.board.scene import BoardScene
 from app.paint import style
 from core.errors import TowboardError
@@ -161,6 +161,7 @@ class DriftLayer(QObject):
         self.updated.emit()
 
     def _add(self, item: QGraphicsItem, z: float) -> None:
+        item.setCacheMode(CACHE)  # dashed outlines drawn once, not on every frame of a drag
         item.setZValue(z)
         item.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
         item.setData(0, ("drift",))
