@@ -34,7 +34,6 @@ from app.board.items import (
 from app.paint import style
 from app.paint.shapes import TUG_LENGTH_M, moment_arc, placed_tug, tug_label_anchor, tug_origin
 from app.paint.symbols import polygon
-from core.frames import turning_words
 from core.mechanics.balance import Balance, TugShare
 from core.mechanics.bodies import Body, Member
 from core.model.hull import Hull
@@ -428,7 +427,7 @@ class BalanceDrawing:
             self.moment_label.setPos(cx - r, cy)
             u = units.unit("moment")
             self.moment_label.set_text(
-                f"yaw {units.value(m, 'moment'):+,.0f} {label(u)}\n{turning_words(m)}"
+                f"yaw {units.value(m, 'moment'):+,.0f} {label(u)}\n{balance.turning}"
             )
             sa = math.radians(_screen_angle(self.root, (-1.0, 0.0)))
             if (sa, self.moment_label.text) != self._moment_label_key:

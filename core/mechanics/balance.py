@@ -19,7 +19,6 @@ import shapely
 from core.frames import angle_to_bearing, turning_words, walking_words
 from core.mechanics.bodies import Body, stage_body
 from core.mechanics.forces import (
-    NEGLIGIBLE,
     Equivalent,
     equivalent_of,
     moment_of,
@@ -36,6 +35,13 @@ from core.units import DisplayUnits
 #: the centroid is, for people, "nearly parallel" to it: the crossing is real but says
 #: nothing useful, and near parallel it is mostly rounding.
 FAR_CROSSING_LENGTHS = 10.0
+
+#: A net force below this fraction of the forces present (and a moment below that times the
+#: body's length) is said in words as none: "no net force", "no swing" (common practice,
+#: no source: half a percent is below what tugs can set or a planner would call a push).
+WORDS_TOLERANCE = 0.005
+#: ... and never below this, N (about 0.01 t).
+WORDS_FLOOR_N = 100.0
 
 #: Drawn distance from a push point to the pushing tug's centre, m.
 PUSH_STANDOFF_M = 8.0
@@ -204,12 +210,13 @@ class Balance:
     @property
     def tolerance(self) -> tuple[float, float]:
         """(force N, moment N*m) below which a net force or moment is said as none in words:
-        :data:`core.mechanics.forces.NEGLIGIBLE` of the forces present (tugs and loads),
-        and that times the body's length for moments."""
+        :data:`WORDS_TOLERANCE` of the forces present (tugs and loads), at least
+        :data:`WORDS_FLOOR_N`, and that times the body's length for moments. Words follow
+        what a planner would call a push or a swing, not the last digit of a number."""
         scale = sum(abs(sh.pull_n) for sh in self.shares) + sum(
             math.hypot(*ld.force) for ld in self.loads
         )
-        tol_f = NEGLIGIBLE * (scale or 1.0)
+        tol_f = max(WORDS_TOLERANCE * scale, WORDS_FLOOR_N)
         return tol_f, tol_f * max(self.length_m, 1.0)
 
     @property
