@@ -4,7 +4,11 @@
 
 from __future__ import annotations
 
+from core.frames import angle_to_bearing
+from core.model.hull import Fitting
 from core.units import DisplayUnits, Quantity, fmt, label
+
+FITTING_KIND_TEXT = {"line": "line point", "push": "push point"}
 
 
 def bearing(deg: float | None) -> str:
@@ -33,3 +37,29 @@ def number(units: DisplayUnits, si: float, quantity: Quantity, digits: int = 1) 
 
 def unit_label(units: DisplayUnits, quantity: Quantity) -> str:
     return label(units.unit(quantity))
+
+
+def permitted_lines(fitting: Fitting) -> str:
+    """A line point's permitted line angles: "300° to 060°" (relative bearings, swept
+    clockwise), "any" when none are set; a dash for a push point."""
+    if fitting.kind != "line":
+        return "—"
+    if fitting.permitted_lead_rad is None:
+        return "any"
+    lo, hi = fitting.permitted_lead_rad
+    return f"{bearing(angle_to_bearing(hi))} to {bearing(angle_to_bearing(lo))}"
+
+
+def fitting_summary(units: DisplayUnits, fitting: Fitting) -> str:
+    """One line about a fitting for a tooltip, every rating in the display force unit:
+    "Bow bitt (line point, bitt, SWL 80.0 t, TOW 64.5 t, lines 300° to 060°)"."""
+    parts = [FITTING_KIND_TEXT[fitting.kind], fitting.fitting_type]
+    if fitting.swl_n is not None:
+        parts.append(f"SWL {units.show(fitting.swl_n, 'force')}")
+    if fitting.tow_n is not None:
+        parts.append(f"TOW {units.show(fitting.tow_n, 'force')}")
+    if fitting.swl_n is None and fitting.tow_n is None:
+        parts.append("no rating given")
+    if fitting.permitted_lead_rad is not None:
+        parts.append(f"lines {permitted_lines(fitting)}")
+    return f"{fitting.name} ({', '.join(p for p in parts if p)})"

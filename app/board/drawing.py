@@ -31,6 +31,7 @@ from app.board.items import (
     TugItem,
     polygon_path,
 )
+from app.formatting import fitting_summary
 from app.paint import style
 from app.paint.shapes import TUG_LENGTH_M, moment_arc, placed_tug, tug_label_anchor, tug_origin
 from app.paint.symbols import polygon
@@ -112,6 +113,7 @@ class HullDrawing:
         self.reference.setToolTip("Reference point: the hull frame's origin")
         self.fittings: dict[str, tuple[FittingMark, Label]] = {}
         self.handles: list[Handle] = []
+        self.units = DisplayUnits()
         self.set_member(member)
 
     def set_member(self, member: Member) -> None:
@@ -131,6 +133,15 @@ class HullDrawing:
         if old is None or old.fittings != hull.fittings:
             self._sync_fittings(hull)
         self.name.set_text(hull.name)
+
+    def set_units(self, units: DisplayUnits) -> None:
+        """Write the fittings' tooltips again when the display units change."""
+        if units == self.units:
+            return
+        self.units = units
+        if self.hull is not None:
+            for f in self.hull.fittings:
+                self.fittings[f.name][0].setToolTip(fitting_summary(units, f))
 
     def _place_marks(self, hull: Hull) -> None:
         g = hull.geometry
@@ -197,8 +208,7 @@ class HullDrawing:
             mark, lab = self.fittings[f.name]
             mark.setPos(f.x, f.y)
             mark.setData(ROLE, ("fitting", hull.name, f.name))
-            swl = "" if f.swl_n is None else f", SWL {f.swl_n / 9806.65:.0f} t"
-            mark.setToolTip(f"{f.name} ({'line point' if f.kind == 'line' else 'push point'}{swl})")
+            mark.setToolTip(fitting_summary(self.units, f))
             lab.setPos(f.x, f.y)
             lab.set_text(f.name)
             q = hull.geometry.nearest(f.x, f.y)

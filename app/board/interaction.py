@@ -310,6 +310,12 @@ class Interaction:
         if self.tool != "select":
             return False
         pos = event.scenePos()
+        hit = self._hit(pos)
+        if hit is not None and hit[0] in ("fitting", "tug"):
+            self.drag = None
+            self.scene.select(hit)
+            self.scene.edit_requested.emit(hit)  # the window opens its editor
+            return True
         if self.site.double_click(pos):
             return True
         edge = self._nearest_edge(pos)

@@ -52,6 +52,8 @@ class BoardScene(QGraphicsScene):
     selection_changed = Signal()
     tool_changed = Signal(str)
     grid_changed = Signal()
+    #: A double-click on a fitting or a tug: ("fitting", hull, name) or ("tug", name).
+    edit_requested = Signal(object)
 
     def __init__(self, controller: Controller, stage_index: int | None = None) -> None:
         super().__init__()
@@ -171,6 +173,8 @@ class BoardScene(QGraphicsScene):
             body = r.body if r is not None else body_of(project, name)
             if d.body is not body:
                 d.set_body(body)
+            for h in d.hulls.values():
+                h.set_units(project.units)
             pose = self.pose(name, project)
             d.set_pose(pose, site_angle_deg(pose))
             if r is None:

@@ -9,8 +9,9 @@ from __future__ import annotations
 import math
 from dataclasses import replace
 
+from app.edits.tugs import outward_lead
 from core.errors import InputError
-from core.mechanics.bodies import Member
+from core.mechanics.bodies import Member, body_name_of_hull, body_of
 from core.model.hull import Fitting, FittingKind, Hull
 from core.model.outlines import Outline
 from core.model.plan import BodyPose, Project, Stage
@@ -121,6 +122,46 @@ def renamed_fitting(project: Project, hull: str, old: str, new: str) -> Project:
         for s in project.stages
     )
     return replace(project.with_hull(h2), stages=stages)
+
+
+def edited_fitting(project: Project, hull: str, old: str, fitting: Fitting) -> Project:
+    """The project with fitting ``old`` of ``hull`` replaced by ``fitting``.
+
+    A new name follows into every placement at the fitting (:func:`renamed_fitting`); the
+    position is snapped onto the outline; a line point turned into a push point (or back)
+    loses its permitted line angles, and the tugs working there are re-led square to the
+    hull (a towline lead means nothing as a push angle).
+    """
+    if fitting.name != old:
+        project = renamed_fitting(project, hull, old, fitting.name)
+    h = project.hull(hull)
+    was = h.fitting(fitting.name)
+    if fitting.kind == "push" and fitting.permitted_lead_rad is not None:
+        fitting = replace(fitting, permitted_lead_rad=None)
+    q = h.geometry.nearest(fitting.x, fitting.y)
+    project = project.with_hull(h.with_fitting(fitting.moved_to(q.x, q.y)))
+    if was.kind == fitting.kind:
+        return project
+    return _re_led(project, hull, fitting.name)
+
+
+def _re_led(project: Project, hull: str, point: str) -> Project:
+    """Every placement at ``point`` led square to the hull: a line straight out, a push
+    square on."""
+    body = body_of(project, body_name_of_hull(project, hull))
+    kind = project.hull(hull).fitting(point).kind
+    lead = outward_lead(body, hull, point) if kind == "line" else 0.0
+    stages = tuple(
+        replace(
+            s,
+            placements=tuple(
+                p.with_lead(lead) if (p.hull == hull and p.point == point) else p
+                for p in s.placements
+            ),
+        )
+        for s in project.stages
+    )
+    return replace(project, stages=stages)
 
 
 def with_pose(stage: Stage, pose: BodyPose) -> Stage:

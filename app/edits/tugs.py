@@ -126,6 +126,14 @@ def duplicated_tug(project: Project, stage_index: int, name: str) -> tuple[Proje
     return project.with_tug(new), new.name
 
 
+def edited_tug(project: Project, old: str, tug: Tug) -> Project:
+    """The project with tug ``old`` replaced by ``tug`` (its placements follow a rename)."""
+    if tug.name != old and any(t.name == tug.name for t in project.tugs):
+        raise InputError("tug name", tug.name, "is used twice")
+    project.tug(old)  # a clear InputError when there is no such tug
+    return project.with_tug(tug, old_name=old)
+
+
 def renamed_tug(project: Project, old: str, new: str) -> Project:
     if new != old and any(t.name == new for t in project.tugs):
         raise InputError("tug name", new, "is used twice")

@@ -1,7 +1,9 @@
-"""The hull panel: dimensions, draught, freeboard, displacement, centre of gravity, reference.
+"""The hull panel: particulars, the outline's vertices and the fittings, on three tabs.
 
-Dimensions come from the outline (the core's plane-area properties); the others are
-typed in the display length unit (displacement in tonnes of mass).
+Particulars: dimensions from the outline (the core's plane-area properties), draught,
+freeboard, displacement, centre of gravity and the reference point, typed in the display
+length unit (displacement in tonnes of mass). Outline: every vertex as typed
+coordinates. Fittings: every line point and push point with its ratings.
 """
 
 from __future__ import annotations
@@ -16,6 +18,7 @@ from PySide6.QtWidgets import (
     QLabel,
     QLineEdit,
     QPushButton,
+    QTabWidget,
     QVBoxLayout,
     QWidget,
 )
@@ -24,6 +27,7 @@ from app import formatting as fmt
 from app.controller import Controller
 from app.edits import hulls as hull_edits
 from app.numbers import message, parse_optional
+from app.panels.hull_tables import FittingsTab, OutlineTab
 from core.errors import TowboardError
 from core.model import rules
 from core.model.hull import Hull
@@ -33,6 +37,12 @@ class HullPanel(QWidget):
     """Particulars of one hull (the selected one, else the first)."""
 
     generate_requested = Signal()
+    #: A board tool the panel asks for ("line_point", "push_point").
+    tool_requested = Signal(str)
+    #: (hull, fitting) chosen in the fittings table.
+    fitting_selected = Signal(str, str)
+    #: (hull, fitting) whose dialog the panel asks for.
+    fitting_edit_requested = Signal(str, str)
 
     def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
         super().__init__(parent)
@@ -69,7 +79,6 @@ class HullPanel(QWidget):
         self.generate = QPushButton("Outline from dimensions…")
         self.generate.clicked.connect(self.generate_requested.emit)
         form = QFormLayout()
-        form.addRow("Hull", self.choose)
         form.addRow("Name", self.name)
         self._length_labels: list[tuple[QLabel, str]] = []
         for text, w in (
@@ -90,15 +99,35 @@ class HullPanel(QWidget):
         self.cog_label = QLabel("Centre of gravity (x, y)")
         form.addRow(self.cog_label, cog)
         form.addRow("Reference point", self.reference)
-        layout = QVBoxLayout(self)
-        layout.addLayout(form)
-        layout.addWidget(self.to_aft)
-        layout.addWidget(self.generate)
+        particulars = QWidget()
+        pl = QVBoxLayout(particulars)
+        pl.addLayout(form)
+        pl.addWidget(self.to_aft)
         note = QLabel("x forward, y to port, from the reference point (the hull frame's origin).")
         note.setWordWrap(True)
         note.setStyleSheet("color: #455a64;")
-        layout.addWidget(note)
-        layout.addStretch(1)
+        pl.addWidget(note)
+        pl.addStretch(1)
+        self.outline_tab = OutlineTab(controller, lambda: self.current)
+        self.outline_tab.buttons.addWidget(self.generate)
+        self.fittings_tab = FittingsTab(controller, lambda: self.current)
+        self.fittings_tab.tool_requested.connect(self.tool_requested)
+        self.fittings_tab.fitting_selected.connect(
+            lambda name: self.fitting_selected.emit(self.current or "", name)
+        )
+        self.fittings_tab.edit_requested.connect(
+            lambda name: self.fitting_edit_requested.emit(self.current or "", name)
+        )
+        self.tabs = QTabWidget()
+        self.tabs.addTab(particulars, "Particulars")
+        self.tabs.addTab(self.outline_tab, "Outline")
+        self.tabs.addTab(self.fittings_tab, "Fittings")
+        layout = QVBoxLayout(self)
+        layout.setContentsMargins(4, 4, 4, 4)
+        chooser = QFormLayout()
+        chooser.addRow("Hull", self.choose)
+        layout.addLayout(chooser)
+        layout.addWidget(self.tabs, 1)
         controller.changed.connect(self.refresh)
         self.refresh()
 
@@ -106,6 +135,11 @@ class HullPanel(QWidget):
         if name is not None and name != self.current:
             self.current = name
             self.refresh()
+
+    def show_fitting(self, hull: str, name: str) -> None:
+        """Show ``hull`` and select fitting ``name`` in the fittings table."""
+        self.show_hull(hull)
+        self.fittings_tab.select(name)
 
     def hull(self) -> Hull | None:
         hulls = self.controller.project.hulls
@@ -127,6 +161,8 @@ class HullPanel(QWidget):
         if h is not None:
             self.choose.setCurrentText(h.name)
         self.choose.blockSignals(False)
+        self.outline_tab.refresh()
+        self.fittings_tab.refresh()
         ln = fmt.unit_label(u, "length")
         for lab, text in self._length_labels:
             lab.setText(f"{text} ({ln})" if text not in ("Plan area",) else f"{text} ({ln}²)")

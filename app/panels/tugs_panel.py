@@ -50,6 +50,8 @@ class TugsPanel(QWidget):
     """Tugs of the plan and how each works in the stage shown."""
 
     tug_selected = Signal(str)
+    #: The "Edit…" button: open the tug editor of this tug.
+    edit_requested = Signal(str)
 
     def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
         super().__init__(parent)
@@ -76,6 +78,13 @@ class TugsPanel(QWidget):
         self.table.setMinimumHeight(130)  # four rows at least
         self.table.selectionModel().currentRowChanged.connect(self._row_changed)
         buttons = QHBoxLayout()
+        self.edit_button = QPushButton("Edit…")
+        self.edit_button.setToolTip(
+            "Every particular of the selected tug: type, role, pulls and certificate, towing "
+            "point, towline, call sign and channel"
+        )
+        self.edit_button.clicked.connect(self._edit)
+        buttons.addWidget(self.edit_button)
         self.add_button = QPushButton("Add tug")
         self.duplicate_button = QPushButton("Duplicate")
         self.remove_button = QPushButton("Remove")
@@ -93,6 +102,13 @@ class TugsPanel(QWidget):
     def _row_changed(self, current: QModelIndex, previous: QModelIndex) -> None:
         if current.isValid() and current.row() < len(self.model.rows):
             self.tug_selected.emit(self.model.rows[current.row()].tug.name)
+
+    def _edit(self) -> None:
+        name = self.current_tug()
+        if name is None:
+            self.controller.message.emit("Select a tug in the table to edit it.")
+            return
+        self.edit_requested.emit(name)
 
     def current_tug(self) -> str | None:
         i = self.table.currentIndex()

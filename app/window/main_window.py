@@ -42,7 +42,9 @@ from app.board.scene import BoardScene
 from app.board.view import BoardView
 from app.controller import Controller
 from app.panels.balance_panel import BalancePanel
+from app.panels.fitting_dialog import FittingDialog, open_fitting_dialog
 from app.panels.hull_panel import HullPanel
+from app.panels.tug_dialog import TugDialog, open_tug_dialog
 from app.panels.tugs_panel import TugsPanel
 from app.panels.units_panel import UnitsPanel
 from app.panels.verdict_view import VerdictView
@@ -274,6 +276,11 @@ class MainWindow(QMainWindow):
             group.addAction(a)
             self.tool_actions[key] = a
         self.tool_actions["select"].setChecked(True)
+        self.act_edit_tug = self._action(
+            "&Edit tug…",
+            lambda: self.edit_tug(),
+            tip="Every particular of the selected tug: pulls, certificate, towline, radio",
+        )
         self.act_add_tug = self._action("&Add tug", self.tugs_panel.add_tug)
         self.act_dup_tug = self._action("&Duplicate tug", self.tugs_panel.duplicate_tug)
         self.act_remove_tug = self._action("&Remove tug", self.tugs_panel.remove_tug)
@@ -321,7 +328,9 @@ class MainWindow(QMainWindow):
         b.addActions(list(self.tool_actions.values()))
         b.addSeparator()
         b.addAction(self.act_generate)
-        self._menus["tugs"].addActions([self.act_add_tug, self.act_dup_tug, self.act_remove_tug])
+        self._menus["tugs"].addActions(
+            [self.act_edit_tug, self.act_add_tug, self.act_dup_tug, self.act_remove_tug]
+        )
         self._menus["help"].addAction(self._action("Mouse and keys on the board", self._board_help))
         self._menus["help"].addAction(self._action("About Towboard", self._about))
         self._rebuild_recent()
@@ -355,7 +364,14 @@ class MainWindow(QMainWindow):
         self.board.tool_changed.connect(self._tool_changed)
         self.board.refresh_hooks.append(lambda s: self.balance_panel.set_stale(s.stale))
         self.tugs_panel.tug_selected.connect(lambda name: self.board.select(("tug", name)))
+        self.tugs_panel.edit_requested.connect(self.edit_tug)
         self.hull_panel.generate_requested.connect(self.generate_outline)
+        self.hull_panel.tool_requested.connect(self.board.set_tool)
+        self.hull_panel.fitting_selected.connect(
+            lambda hull, name: self.board.select(("fitting", hull, name))
+        )
+        self.hull_panel.fitting_edit_requested.connect(self.edit_fitting)
+        self.board.edit_requested.connect(self._edit_on_board)
         self._sync_stage_box()
 
     # -- keeping things in step -----------------------------------------------------------
@@ -381,7 +397,36 @@ class MainWindow(QMainWindow):
         hull = self.board.selected_hull()
         if hull is not None:
             self.hull_panel.show_hull(hull)
-        del sel
+        if sel and sel[0] == "fitting":
+            self.hull_panel.show_fitting(str(sel[1]), str(sel[2]))
+
+    # -- editors ----------------------------------------------------------------------------
+    def edit_fitting(self, hull: str, name: str) -> FittingDialog | None:
+        """Open the dialog of fitting ``name`` of ``hull``."""
+        try:
+            return open_fitting_dialog(self.controller, hull, name, self)
+        except TowboardError as e:
+            self.statusBar().showMessage(str(e), 8000)
+            return None
+
+    def _edit_on_board(self, hit: object) -> None:
+        if isinstance(hit, tuple) and hit and hit[0] == "fitting":
+            self.edit_fitting(str(hit[1]), str(hit[2]))
+        elif isinstance(hit, tuple) and hit and hit[0] == "tug":
+            self.edit_tug(str(hit[1]))
+
+    def edit_tug(self, name: str | None = None) -> TugDialog | None:
+        """Open the tug editor of tug ``name`` (default: the tug selected in the table or
+        on the board)."""
+        name = name or self.tugs_panel.current_tug() or self.board.selected_tug()
+        if name is None:
+            self.statusBar().showMessage("Select a tug in the table or on the board first.", 8000)
+            return None
+        try:
+            return open_tug_dialog(self.controller, name, self)
+        except TowboardError as e:
+            self.statusBar().showMessage(str(e), 8000)
+            return None
 
     def _snap_toggled(self, on: bool) -> None:
         self.board.set_grid(snap=on)

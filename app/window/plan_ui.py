@@ -14,14 +14,20 @@ from typing import TYPE_CHECKING
 
 from PySide6.QtCore import QLocale, Qt
 from PySide6.QtGui import QAction, QActionGroup, QKeySequence
-from PySide6.QtPrintSupport import QPrintDialog, QPrinter, QPrintPreviewDialog
-from PySide6.QtWidgets import QDialog, QFileDialog, QMessageBox
+from PySide6.QtPrintSupport import (
+    QPrintDialog,
+    QPrinter,
+    QPrintPreviewDialog,
+    QPrintPreviewWidget,
+)
+from PySide6.QtWidgets import QDialog, QFileDialog, QMessageBox, QToolBar
 
 from app.board.site_layer import SiteLayer
 from app.briefing.document import page_layout, render, write_pdf
 from app.panels.site_panel import SitePanel
 from app.panels.stage_details import StageDetails
 from app.panels.stage_list import StageList
+from app.window.plan_details import PlanDetailsDialog, open_plan_details
 from core.errors import TowboardError
 
 if TYPE_CHECKING:
@@ -61,6 +67,13 @@ class PlanUi:
         for a in (self.act_preview, self.act_print, self.act_export):
             window.add_file_action(a)
         plan = window.menu("plan")
+        self.act_details = self._action(
+            "Plan &details…",
+            self.plan_details,
+            tip="Name, revision, date, sign-off, revision history and notes of the plan",
+        )
+        plan.addAction(self.act_details)
+        plan.addSeparator()
         sl = self.stage_list
         for text, slot in (
             ("&Add stage", sl.add),
@@ -94,6 +107,10 @@ class PlanUi:
         a.triggered.connect(slot)
         return a
 
+    def plan_details(self) -> PlanDetailsDialog:
+        """Open the plan details dialog (the briefing's title block)."""
+        return open_plan_details(self.controller, self.window)
+
     def set_paper(self, paper: str) -> None:
         page_layout(paper)  # refuses an unknown paper
         self.paper = paper
@@ -118,8 +135,27 @@ class PlanUi:
         dialog.setWindowTitle("Briefing: print preview")
         dialog.paintRequested.connect(self._paint_safely)
         dialog.resize(900, 1000)
-        self.last_dialog = dialog
+        self._add_details_button(dialog)
+        self.last_dialog, self._preview_printer = dialog, printer  # the dialog paints on it
         dialog.exec()
+
+    def _add_details_button(self, dialog: QPrintPreviewDialog) -> None:
+        """A "Plan details…" button on the preview's toolbar; the pages follow the edit."""
+        bar = dialog.findChild(QToolBar)
+        pages = dialog.findChild(QPrintPreviewWidget)
+        if bar is None or pages is None:
+            return
+        act = QAction("Plan details…", dialog)
+        act.setToolTip("Edit the title block the cover prints: name, revision, sign-off, notes")
+        act.setObjectName("preview_plan_details")
+
+        def edit() -> None:
+            details = open_plan_details(self.controller, dialog)
+            details.accepted.connect(pages.updatePreview)
+
+        act.triggered.connect(edit)
+        bar.addSeparator()
+        bar.addAction(act)
 
     def print_briefing(self) -> None:
         printer = self.printer()

@@ -1,0 +1,94 @@
+"""The tug editor: every particular of one tug (Tugs > Edit tug…, the tugs panel's
+"Edit…", or a double-click on the tug on the board).
+
+OK records the edit as one undo step; a renamed tug keeps its placements in every stage.
+Input the core refuses is named in the dialog, which stays open with everything typed.
+"""
+
+from __future__ import annotations
+
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import (
+    QDialog,
+    QDialogButtonBox,
+    QGroupBox,
+    QHBoxLayout,
+    QLabel,
+    QVBoxLayout,
+    QWidget,
+)
+
+from app import numbers
+from app.controller import Controller
+from app.edits import tugs as tug_edits
+from app.panels.tug_form import TugForm
+from core.errors import TowboardError
+
+CERTIFICATE_NOTE = (
+    "Certified bollard pull governs: enter the figures and date of the tug's current certificate."
+)
+
+
+class TugDialog(QDialog):
+    """Edit tug ``name``; OK applies it through the controller."""
+
+    def __init__(self, controller: Controller, name: str, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.controller = controller
+        self.tug_name = name
+        self.setWindowTitle(f"Tug {name}")
+        self.setObjectName("tug_dialog")
+        self.form = TugForm(controller.project.units)
+        self.form.load(controller.project.tug(name))
+        note = QLabel(CERTIFICATE_NOTE)
+        note.setWordWrap(True)
+        note.setStyleSheet("color: #455a64;")
+        #: Where the tug's capability diagram goes (tug types with a capability).
+        self.capability = QGroupBox("Capability")
+        cap = QVBoxLayout(self.capability)
+        self.capability_note = QLabel(
+            "Usable pull by direction for the tug's type: not available in this version."
+        )
+        self.capability_note.setWordWrap(True)
+        self.capability_note.setStyleSheet("color: #78909c;")
+        cap.addWidget(self.capability_note)
+        self.error = QLabel("")
+        self.error.setObjectName("error")
+        self.error.setWordWrap(True)
+        self.error.setStyleSheet("color: #b71c1c;")
+        self.error.setVisible(False)
+        self.buttons = QDialogButtonBox(
+            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel
+        )
+        self.buttons.accepted.connect(self.accept)
+        self.buttons.rejected.connect(self.reject)
+        left = QVBoxLayout()
+        left.addWidget(self.form)
+        left.addWidget(note)
+        left.addStretch(1)
+        body = QHBoxLayout()
+        body.addLayout(left, 3)
+        body.addWidget(self.capability, 2)
+        layout = QVBoxLayout(self)
+        layout.addLayout(body)
+        layout.addWidget(self.error)
+        layout.addWidget(self.buttons)
+
+    def accept(self) -> None:
+        c = self.controller
+        try:
+            new = tug_edits.edited_tug(c.project, self.tug_name, self.form.tug())
+        except (TowboardError, ValueError) as e:
+            self.error.setText(f"Not changed: {numbers.message(e, c.project.units)}")
+            self.error.setVisible(True)
+            return
+        c.apply(new, f"Edit {self.tug_name}")
+        super().accept()
+
+
+def open_tug_dialog(controller: Controller, name: str, parent: QWidget | None = None) -> TugDialog:
+    """Show the tug editor (window-modal, without blocking) and return it."""
+    dialog = TugDialog(controller, name, parent)
+    dialog.setAttribute(Qt.WidgetAttribute.WA_DeleteOnClose)
+    dialog.open()
+    return dialog
