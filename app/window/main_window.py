@@ -54,6 +54,7 @@ from app.window.outline_dialog import OutlineDialog
 from app.window.plan_ui import install as install_plan
 from app.window.recovery import RecoveryWriter, find_orphans
 from app.window.solve_ui import install as install_solve
+from app.window.substitute_dialog import SubstituteDialog, open_substitute_dialog
 from core.errors import ProjectFileError, TowboardError
 from core.io.projectfile import SUFFIX, load, save
 from core.io.report import CAUTION
@@ -281,6 +282,11 @@ class MainWindow(QMainWindow):
             lambda: self.edit_tug(),
             tip="Every particular of the selected tug: pulls, certificate, towline, radio",
         )
+        self.act_substitute = self._action(
+            "Try a &substitute tug…",
+            lambda: self.try_substitute(),
+            tip="What another tug (or new particulars) does to every stage's verdict",
+        )
         self.act_add_tug = self._action("&Add tug", self.tugs_panel.add_tug)
         self.act_dup_tug = self._action("&Duplicate tug", self.tugs_panel.duplicate_tug)
         self.act_remove_tug = self._action("&Remove tug", self.tugs_panel.remove_tug)
@@ -331,6 +337,8 @@ class MainWindow(QMainWindow):
         self._menus["tugs"].addActions(
             [self.act_edit_tug, self.act_add_tug, self.act_dup_tug, self.act_remove_tug]
         )
+        self._menus["tugs"].addSeparator()
+        self._menus["tugs"].addAction(self.act_substitute)
         self._menus["help"].addAction(self._action("Mouse and keys on the board", self._board_help))
         self._menus["help"].addAction(self._action("About Towboard", self._about))
         self._rebuild_recent()
@@ -414,6 +422,14 @@ class MainWindow(QMainWindow):
             self.edit_fitting(str(hit[1]), str(hit[2]))
         elif isinstance(hit, tuple) and hit and hit[0] == "tug":
             self.edit_tug(str(hit[1]))
+
+    def try_substitute(self, name: str | None = None) -> SubstituteDialog | None:
+        """Open "Try a substitute tug" on tug ``name`` (default: the selected tug)."""
+        if not self.controller.project.tugs:
+            self.statusBar().showMessage("The plan has no tug to replace yet.", 8000)
+            return None
+        name = name or self.tugs_panel.current_tug() or self.board.selected_tug()
+        return open_substitute_dialog(self.controller, name, self)
 
     def edit_tug(self, name: str | None = None) -> TugDialog | None:
         """Open the tug editor of tug ``name`` (default: the tug selected in the table or
