@@ -48,7 +48,7 @@ from core.units import DisplayUnits, label
 class Field:
     attr: str  # Conditions field
     title: str
-    kind: str  # "speed", "bearing", "plain", "area", "density", "sea"
+    kind: str  # "speed", "length", "bearing", "plain", "area", "density", "sea"
     optional: bool = False
     tip: str = ""
 

@@ -66,7 +66,10 @@ COLUMNS: tuple[Column, ...] = (
         "This tug's moment about the centroid, + swings the bow to port",
     ),
     Column(
-        "share", "Share of yaw %", False, "This tug's part of the net yaw moment about the centroid"
+        "turns",
+        "Turns the bow",
+        False,
+        "Which way this tug's own moment about the centroid swings the bow",
     ),
 )
 KEYS = [c.key for c in COLUMNS]
@@ -78,7 +81,6 @@ class Row:
     placement: Placement | None
     share: TugShare | None
     body: str | None
-    net_moment: float
 
 
 class TugsModel(QAbstractTableModel):
@@ -101,29 +103,21 @@ class TugsModel(QAbstractTableModel):
         c = self.controller
         stage = c.stage
         placed = {p.tug: p for p in stage.placements} if stage is not None else {}
-        shares: dict[str, tuple[TugShare, str, float]] = {}
+        shares: dict[str, tuple[TugShare, str]] = {}
         for body, b in c.balances().items():
             for s in b.shares:
-                shares[s.tug] = (s, body, b.moment_centroid_nm)
+                shares[s.tug] = (s, body)
         rows = []
         for t in c.project.tugs:
             s = shares.get(t.name)
-            rows.append(
-                Row(
-                    t,
-                    placed.get(t.name),
-                    s[0] if s else None,
-                    s[1] if s else None,
-                    s[2] if s else 0.0,
-                )
-            )
+            rows.append(Row(t, placed.get(t.name), s[0] if s else None, s[1] if s else None))
         self.rows = rows
 
     def refresh(self) -> None:
         """Tell the table what changed: all rows when tugs came or went, else the rows that did.
 
-        A drag changes one tug, and the yaw shares of all; the table is told just that,
-        so it never measures every cell on every mouse move.
+        A drag changes one tug; the table is told just that, so it never measures every
+        cell on every mouse move.
         """
         old = self.rows
         units = self._units
@@ -146,11 +140,6 @@ class TugsModel(QAbstractTableModel):
         ]
         for first, end in _runs(changed):
             self.dataChanged.emit(self.index(first, 0), self.index(end, last))
-        if self.rows and any(
-            a.net_moment != b.net_moment for a, b in zip(old, self.rows, strict=True)
-        ):
-            col = KEYS.index("share")
-            self.dataChanged.emit(self.index(0, col), self.index(len(self.rows) - 1, col))
 
     def row_of(self, tug: str) -> int:
         for i, r in enumerate(self.rows):
@@ -261,11 +250,8 @@ class TugsModel(QAbstractTableModel):
             return fmt.number(u, s.pull_n, "force")
         if key == "moment":
             return plain(u.value(s.moment_centroid_nm, "moment"), 0, signed=True)
-        if key == "share":
-            total = row.net_moment
-            if abs(total) <= 1e-9 * max(abs(s.moment_centroid_nm), 1.0) or abs(total) < 1e-6:
-                return "—"
-            return plain(100.0 * s.moment_centroid_nm / total, 0, signed=True)
+        if key == "turns":
+            return turn_words(u.value(s.moment_centroid_nm, "moment"))
         return ""
 
     def _edit_text(self, row: Row, key: str) -> str:
@@ -373,6 +359,15 @@ class TugsModel(QAbstractTableModel):
             if old_kind != fitting.kind:
                 new = new.with_lead(lead)
         return c.with_stage(stage.with_placement(new), project)
+
+
+def turn_words(moment: float) -> str:
+    """The sense of a tug's yaw moment in words, from the moment as shown (display unit,
+    to the unit): "bow to port" (counter-clockwise seen from above, positive), "bow to
+    starboard", or "none" when it shows as 0."""
+    if round(moment) == 0:
+        return "none"
+    return "bow to port" if moment > 0 else "bow to starboard"
 
 
 def _runs(rows: list[int]) -> list[tuple[int, int]]:

@@ -473,7 +473,8 @@ class MainWindow(QMainWindow):
         c = self.controller
         target = self.board.selected_hull() or self.hull_panel.current
         hull = next((h for h in c.project.hulls if h.name == target), None)
-        dlg = OutlineDialog(self, *(hull.geometry.length, hull.geometry.beam) if hull else ())
+        size = (hull.geometry.length, hull.geometry.beam) if hull else (80.0, 24.0)
+        dlg = OutlineDialog(self, *size, units=c.project.units)
         if dlg.exec() != OutlineDialog.DialogCode.Accepted:
             return
         try:

@@ -22,6 +22,7 @@ from core.model.outlines import (
     raked_outline,
     ship_outline,
 )
+from core.units import DisplayUnits, label
 
 SHAPES = {"box": "Box barge", "raked": "Raked barge", "ship": "Ship-shaped"}
 
@@ -38,22 +39,32 @@ def _spin(
 
 
 class OutlineDialog(QDialog):
-    """Choose a shape and its dimensions (metres); ``outline()`` gives the result."""
+    """Choose a shape and its dimensions (in the display length unit; ``length`` and
+    ``beam`` are given in metres); ``outline()`` gives the result in metres."""
 
     def __init__(
-        self, parent: QWidget | None = None, length: float = 80.0, beam: float = 24.0
+        self,
+        parent: QWidget | None = None,
+        length: float = 80.0,
+        beam: float = 24.0,
+        units: DisplayUnits | None = None,
     ) -> None:
         super().__init__(parent)
+        self.units = units or DisplayUnits()
+        k = self.units.value(1.0, "length")  # display units per metre
+        length, beam = length * k, beam * k
+        ln = label(self.units.unit("length"))
         self.setWindowTitle("Outline from dimensions")
         self.shape = QComboBox()
         for key, text in SHAPES.items():
             self.shape.addItem(text, key)
-        self.length = _spin(length, 1.0)
-        self.beam = _spin(beam, 1.0)
-        self.bow_rake = _spin(0.1 * length)
-        self.stern_rake = _spin(0.05 * length)
+        top = 2000.0 * k  # 2 km, in the display unit
+        self.length = _spin(length, 1.0, top)
+        self.beam = _spin(beam, 1.0, top)
+        self.bow_rake = _spin(0.1 * length, 0.0, top)
+        self.stern_rake = _spin(0.05 * length, 0.0, top)
         self.end_fraction = _spin(0.7, 0.05, 1.0, 0.05)
-        self.parallel = _spin(0.5 * length)
+        self.parallel = _spin(0.5 * length, 0.0, top)
         self.bow_shape = QComboBox()
         self.bow_shape.addItems(list(BOW_SHAPES))
         self.bow_shape.setCurrentText("normal")
@@ -61,16 +72,16 @@ class OutlineDialog(QDialog):
         self.stern_shape.addItems(list(STERN_SHAPES))
         form = QFormLayout()
         form.addRow("Shape", self.shape)
-        form.addRow("Length overall (m)", self.length)
-        form.addRow("Beam (m)", self.beam)
+        form.addRow(f"Length overall ({ln})", self.length)
+        form.addRow(f"Beam ({ln})", self.beam)
         self.rows = {
             "raked": [
-                ("Bow rake length (m)", self.bow_rake),
-                ("Stern rake length (m)", self.stern_rake),
+                (f"Bow rake length ({ln})", self.bow_rake),
+                (f"Stern rake length ({ln})", self.stern_rake),
                 ("Width of the ends / beam", self.end_fraction),
             ],
             "ship": [
-                ("Parallel body length (m)", self.parallel),
+                (f"Parallel body length ({ln})", self.parallel),
                 ("Bow", self.bow_shape),
                 ("Stern", self.stern_shape),
             ],
@@ -106,17 +117,22 @@ class OutlineDialog(QDialog):
     def outline(self) -> Outline:
         """The outline for the chosen parameters (raises the core's InputError / OutlineError)."""
         key = self.shape.currentData()
-        L, B = self.length.value(), self.beam.value()
+        m = self.units.si(1.0, "length")  # metres per display unit
+        L, B = self.length.value() * m, self.beam.value() * m
         if key == "box":
             return box_outline(L, B)
         if key == "raked":
             return raked_outline(
-                L, B, self.bow_rake.value(), self.stern_rake.value(), self.end_fraction.value()
+                L,
+                B,
+                self.bow_rake.value() * m,
+                self.stern_rake.value() * m,
+                self.end_fraction.value(),
             )
         return ship_outline(
             L,
             B,
-            self.parallel.value(),
+            self.parallel.value() * m,
             self.bow_shape.currentText(),
             self.stern_shape.currentText(),
         )

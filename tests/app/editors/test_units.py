@@ -1,0 +1,69 @@
+"""Units everywhere: each tug's turning sense in words, the wind's height and the outline
+dialog in the display length unit."""
+
+from __future__ import annotations
+
+import pytest
+from PySide6.QtCore import Qt
+
+from app.panels.tugs_model import KEYS, turn_words
+from app.window.outline_dialog import OutlineDialog
+from core.units import DisplayUnits
+from tests.app.editors.conftest import retype
+
+FT = 0.3048  # m per foot, exactly (NIST SP 811)
+
+
+def _cell(window, tug: str, key: str) -> str:  # type: ignore[no-untyped-def]
+    m = window.tugs_panel.model
+    return m.index(m.row_of(tug), KEYS.index(key)).data()
+
+
+def test_no_share_of_yaw_each_tug_turns_the_bow_one_way_in_words(window) -> None:
+    m = window.tugs_panel.model
+    titles = [m.headerData(i, Qt.Orientation.Horizontal) for i in range(m.columnCount())]
+    assert not any("Share" in str(t) for t in titles)
+    assert "Turns the bow" in titles
+    # the deck barge's stage 1: Gannet at the bow and Tern on the starboard shoulder swing
+    # the bow to port, Puffin at the port quarter the other way (the moments oppose)
+    for tug in ("Gannet", "Puffin", "Tern"):
+        moment = float(_cell(window, tug, "moment"))
+        words = _cell(window, tug, "turns")
+        assert words == ("bow to port" if moment > 0 else "bow to starboard"), tug
+    assert {_cell(window, t, "turns") for t in ("Gannet", "Puffin")} == {
+        "bow to port",
+        "bow to starboard",
+    }
+
+
+@pytest.mark.parametrize(
+    ("moment", "words"),
+    [(12.0, "bow to port"), (-0.6, "bow to starboard"), (0.4, "none"), (-0.4, "none")],
+)
+def test_turn_words_follow_the_sign_convention(moment: float, words: str) -> None:
+    # positive yaw moment is counter-clockwise seen from above: bow to port (CONVENTIONS.md)
+    assert turn_words(moment) == words
+
+
+def test_the_wind_height_is_in_the_display_length_unit(window, qtbot) -> None:
+    c = window.controller
+    c.apply(c.project.with_units(DisplayUnits(length="ft")), "Units")
+    panel = window.solve_ui.conditions
+    assert panel.labels["wind_height_m"].text() == "Measured at height (ft)"
+    edit = panel.edits["wind_height_m"]
+    assert float(edit.text()) == pytest.approx(c.stage.conditions.wind_height_m / FT, rel=1e-5)
+    retype(qtbot, edit, "50")
+    qtbot.keyClick(edit, Qt.Key.Key_Return)
+    assert c.stage.conditions.wind_height_m == pytest.approx(50 * FT)
+
+
+def test_the_outline_dialog_speaks_feet_and_gives_metres(qtbot) -> None:
+    d = OutlineDialog(None, 60.96, 18.288, units=DisplayUnits(length="ft"))
+    qtbot.addWidget(d)
+    assert d.length.value() == pytest.approx(200.0) and d.beam.value() == pytest.approx(60.0)
+    texts = [w.text() for w in d.findChildren(type(d.error))]
+    assert "Length overall (ft)" in texts and "Beam (ft)" in texts
+    xs = [x for x, _ in d.outline()]
+    ys = [y for _, y in d.outline()]
+    assert max(xs) - min(xs) == pytest.approx(60.96)  # 200 ft = 60.96 m
+    assert max(ys) - min(ys) == pytest.approx(18.288)  # 60 ft
