@@ -31,6 +31,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app import numbers
 from app.controller import Controller
 from app.paint import style
 from app.panels.tug_form import TugForm
@@ -164,7 +165,7 @@ class SubstituteDialog(QDialog):
                 raise ValueError(f"tug name: {tug.name!r} is another tug of the plan")
             result = substitute_tug(self.controller.project, old, tug, self.keep())
         except (TowboardError, ValueError) as e:
-            self.error.setText(f"Not checked: {e}")
+            self.error.setText(f"Not checked: {numbers.message(e, self.controller.project.units)}")
             self.error.setVisible(True)
             return None
         self.error.setVisible(False)
