@@ -72,10 +72,11 @@ class FittingsModel(QAbstractTableModel):
 
     def refresh(self) -> None:
         """Follow the project: the rows that changed, all of them when fittings came or went."""
+        # (a reset while a cell's editor commits would close the editor under the view)
         h = self.hull()
         new = h.fittings if h is not None else ()
         units = self.controller.project.units
-        if [f.name for f in new] != [f.name for f in self.fittings]:
+        if len(new) != len(self.fittings):  # a rename is a change of one row, not a reset
             self.beginResetModel()
             self.fittings, self._units = new, units
             self.endResetModel()

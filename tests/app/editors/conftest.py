@@ -21,8 +21,9 @@ def open_cell(qtbot, table: QTableView, row: int, col: int) -> QWidget:  # type:
     rect = table.visualRect(table.model().index(row, col))
     qtbot.mouseDClick(table.viewport(), Qt.MouseButton.LeftButton, pos=rect.center())
     editor = QApplication.focusWidget()
-    assert editor is not None and table.isAncestorOf(editor), "no cell editor opened"
-    return editor
+    assert editor is not None, "no cell editor opened"
+    assert table.isAncestorOf(editor) or editor.window() is not table.window(), editor
+    return editor  # the cell's editor, or the list a choice editor shows
 
 
 def type_in_cell(qtbot, table: QTableView, row: int, col: int, text: str) -> None:  # type: ignore[no-untyped-def]
