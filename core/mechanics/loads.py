@@ -134,7 +134,8 @@ def _area(given: float | None, derived: float | None, what: str, body: Body) -> 
         raise InputError(
             f"{body.name}: {what}",
             derived,
-            f"is unknown; enter the hull's {need} or the {what} in the conditions",
+            f"enter the hull's {need} or the {what} in the conditions",
+            shown="not known;",
         )
     return derived
 
@@ -184,7 +185,8 @@ def _beam_over_twice_draught(body: Body) -> float:
         raise InputError(
             f"{body.name}: draught",
             None,
-            "is unknown; enter the hull's draught or the current coefficient beam-on",
+            "enter the hull's draught or the current coefficient beam-on",
+            shown="not known;",
         )
     return body.beam / (2 * max(draughts))
 
