@@ -4,7 +4,8 @@ Nothing here calls into the controller or edits the project: every step is a cli
 drag or a key on the window, its board, panels, menus and dialogs (the file dialogs,
 which are the system's, are answered by monkeypatching them, as DEVELOPERS.md says).
 The plan is saved, opened again and printed to PDF; the PDF's text must hold every name
-and number typed, and the plan opened again must equal the plan saved.
+and number typed, and the plan opened again must equal the plan saved (to the 12
+significant digits the file keeps, so that it saves to the same bytes).
 """
 
 from __future__ import annotations
