@@ -17,7 +17,7 @@ from __future__ import annotations
 
 import math
 from collections import OrderedDict
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from core.analysis.drift import drift_of
 from core.analysis.verdict import Verdict, judge
@@ -33,6 +33,7 @@ from core.model.plan import Project, Stage
 from core.motion.summary import StageDrift
 from core.solve.holdlimits import HoldLimits, hold_limits, hold_limits_problem
 from core.solve.pulls import PullsResult, TugLostCheck, pulls_problem, tug_lost_check
+from core.units import DisplayUnits
 
 #: A goal is met by the pulls as set when the residual force is within this fraction of
 #: the forces present (at least :data:`GOAL_FLOOR_N`) and the residual moment within that
@@ -61,9 +62,13 @@ class BodyResult:
     goal_residual: tuple[float, float, float] | None  # as set, less the goal's target
     goal_tolerance: tuple[float, float]  # (force N, moment N*m) within which it is met
     tug_lost: TugLostCheck | None  # the goal solved with every tug, and with each lost
-    lost_as_set: tuple[tuple[str, Balance], ...]  # each tug lost, the others as set
     hold_limits: HoldLimits | None
     notes: tuple[str, ...] = ()
+    stage: Stage | None = None  # the stage value it is about
+    units: DisplayUnits | None = None  # the plan's display units (for the words of warnings)
+    _lost: list[tuple[tuple[str, Balance], ...]] = field(
+        default_factory=list, repr=False, compare=False
+    )
 
     @property
     def name(self) -> str:
@@ -78,6 +83,26 @@ class BodyResult:
     def solved(self) -> PullsResult | None:
         """The pulls solved for the goal with every tug (None without a goal)."""
         return None if self.tug_lost is None else self.tug_lost.full
+
+    @property
+    def lost_as_set(self) -> tuple[tuple[str, Balance], ...]:
+        """Each tug lost in turn with the others as set: (tug, the balance then). What
+        happens in the first seconds, before anyone re-sets a pull; worked out on first use
+        (the same arrays less one row, so the same numbers as a stage without that tug)."""
+        if not self._lost:
+            lost: tuple[tuple[str, Balance], ...] = ()
+            if self.stage is not None and self.units is not None and self.worked:
+                lost = tuple(
+                    (
+                        p.tug,
+                        analyse_layout(
+                            self.stage, self.body, self.layout.without(i), self.units, self.loads
+                        ),
+                    )
+                    for i, p in enumerate(self.layout.placements)
+                )
+            self._lost.append(lost)
+        return self._lost[0]
 
     @property
     def goal_met_as_set(self) -> bool | None:
@@ -180,7 +205,6 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
     notes: list[str] = []
     check: TugLostCheck | None = None
     limits: HoldLimits | None = None
-    lost: tuple[tuple[str, Balance], ...] = ()
     if worked and goal is not None:
         try:
             problem = pulls_problem(
@@ -198,19 +222,6 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
                 limits = hold_limits(hold_limits_problem(project, stage, body.name, layout=layout))
             except TowboardError as e:
                 notes.append(f"hold limits not worked out: {e}")
-        lost = tuple(
-            (
-                p.tug,
-                analyse_layout(
-                    stage,
-                    body,
-                    tug_layout(project, stage.without_placement(p.tug), body),
-                    units,
-                    cond.loads,
-                ),
-            )
-            for p in layout.placements
-        )
     return BodyResult(
         body=body,
         worked=worked,
@@ -223,9 +234,10 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
         goal_residual=None if goal is None else _residual(balance, goal),
         goal_tolerance=_goal_tolerance(balance, body.length),
         tug_lost=check,
-        lost_as_set=lost,
         hold_limits=limits,
         notes=tuple(notes),
+        stage=stage,
+        units=units,
     )
 
 

@@ -80,6 +80,23 @@ class TugLayout:
         """(n,) assigned pulls: setting x usable pull, N."""
         return np.array([p.setting for p in self.placements]) * self.usable_n
 
+    def without(self, index: int) -> TugLayout:
+        """The same layout with tug ``index`` taken out (the others' rows as they are)."""
+        keep = np.arange(len(self.placements)) != index
+        angle = None if self.line_angle_rad is None else self.line_angle_rad[keep]
+        return replace(
+            self,
+            placements=self.placements[:index] + self.placements[index + 1 :],
+            points=self.points[keep],
+            directions=self.directions[keep],
+            positions=self.positions[keep],
+            is_push=self.is_push[keep],
+            rated_n=self.rated_n[keep],
+            usable_n=self.usable_n[keep],
+            swl_n=self.swl_n[keep],
+            line_angle_rad=angle,
+        )
+
     def unit_effects(self, centroid: tuple[float, float]) -> np.ndarray:
         """(3, n): force ahead, force abeam and moment about ``centroid`` per newton of pull."""
         m = moments_about(self.points, self.directions, centroid)

@@ -249,6 +249,7 @@ class Hull:
     yaw_gyradius_m: float | None = None
     added_mass_method: str = "sections"
     geometry: HullGeometry = field(init=False, repr=False, compare=False)
+    _by_name: dict[str, Fitting] = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
         rules.NAME.check(self.name, "hull")
@@ -281,6 +282,7 @@ class Hull:
             seen.add(f.name)
         snapped = tuple(f.moved_to(*self._snap(f.x, f.y)) for f in self.fittings)
         object.__setattr__(self, "fittings", snapped)
+        object.__setattr__(self, "_by_name", {f.name: f for f in snapped})
 
     def _snap(self, x: float, y: float) -> tuple[float, float]:
         p = self.geometry.nearest(x, y)
@@ -297,10 +299,10 @@ class Hull:
         return self.cog if self.cog is not None else self.geometry.centroid
 
     def fitting(self, name: str) -> Fitting:
-        for f in self.fittings:
-            if f.name == name:
-                return f
-        raise InputError(f"hull {self.name}: fitting", name, "does not exist")
+        f = self._by_name.get(name)
+        if f is None:
+            raise InputError(f"hull {self.name}: fitting", name, "does not exist")
+        return f
 
     # -- edits return new hulls -----------------------------------------------------
     def with_outline(self, outline: Outline) -> Hull:
