@@ -11,6 +11,7 @@ Every entry edits through the controller, so each is one undo step.
 
 from __future__ import annotations
 
+from dataclasses import replace
 from typing import TYPE_CHECKING
 
 from PySide6.QtCore import QPointF
@@ -19,6 +20,7 @@ from PySide6.QtWidgets import QInputDialog, QMenu, QWidget
 from app.edits import bodies as body_edits
 from core.errors import TowboardError
 from core.mechanics.bodies import body_name_of_hull
+from core.model.swing import Swing
 
 if TYPE_CHECKING:
     from app.board.scene import BoardScene
@@ -104,6 +106,7 @@ def _body_entries(scene: BoardScene, menu: QMenu, hull_or_body: str) -> None:
         group = project.group_of(hull_or_body)
     body = group.name if group is not None else body_name_of_hull(project, hull_or_body)
     menu.addAction(f"Turn {body} to heading…", lambda: _ask_heading(scene, body))
+    _swing_entries(scene, menu, body)
     menu.addSeparator()
     if group is not None:
         menu.addAction(
@@ -122,6 +125,48 @@ def _body_entries(scene: BoardScene, menu: QMenu, hull_or_body: str) -> None:
     lash.setEnabled(bool(free) and bool(project.stages))
     for other in free:
         lash.addAction(other, lambda o=other: _lash(scene, hull_or_body, o))
+
+
+def _swing_entries(scene: BoardScene, menu: QMenu, body: str) -> None:
+    """A swing stage: its start or end heading from where the body lies, or the other way."""
+    c = scene.controller
+    stage = c.stage
+    if stage is None or (stage.kind != "swing" and stage.swing is None):
+        return
+    now = scene.pose(body).heading_deg
+    swing = stage.swing
+    menu.addSeparator()
+
+    def set_swing(new: Swing | None, text: str) -> None:
+        _run(scene, text, lambda: c.apply(c.with_stage(replace(stage, swing=new)), text))
+
+    def from_here(end: bool) -> None:
+        # with no swing yet, the other end is a quarter turn to port
+        base = swing or Swing(now, (now - 90.0) % 360.0, "port")
+        what = "end" if end else "start"
+        try:
+            new = replace(base, **{f"{what}_heading_deg": now})
+        except TowboardError as e:
+            c.message.emit(f"Swing {what}: not set ({e})")
+            return
+        set_swing(new, f"Swing {what}s on {now:05.1f}°")
+
+    menu.addAction(f"Swing starts on this heading ({now:05.1f}°)", lambda: from_here(False))
+    menu.addAction(f"Swing ends on this heading ({now:05.1f}°)", lambda: from_here(True))
+    if swing is None:
+        return
+    for what, heading in (("start", swing.start_heading_deg), ("end", swing.end_heading_deg)):
+        menu.addAction(
+            f"Lie at the swing's {what} ({heading:05.1f}°)",
+            lambda h=heading, w=what: _run(
+                scene,
+                f"Lie at the swing's {w}",
+                lambda: c.apply(
+                    c.with_stage(body_edits.turned_body(c.project, stage, body, h)),
+                    f"Turn {body} to the swing's {w}",
+                ),
+            ),
+        )
 
 
 def _lash(scene: BoardScene, hull: str, other: str) -> None:

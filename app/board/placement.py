@@ -76,8 +76,9 @@ class CostMap:
         return self._painters[layer]
 
     def fill_rect(self, layer: str, rect: QRectF) -> None:
+        """Fill ``rect`` (px) and a cell round it, so no box slips past it by a sliver."""
         p = self._painters[layer]
-        p.fillRect(rect, QColor(Qt.GlobalColor.white))
+        p.fillRect(rect.adjusted(-CELL, -CELL, CELL, CELL), QColor(Qt.GlobalColor.white))
 
     def fill_path(self, layer: str, path: QPainterPath) -> None:
         p = self._painters[layer]

@@ -120,6 +120,18 @@ class BoardScene(QGraphicsScene):
             return pose_in(None, body)
         return body_pose(project or self.controller.project, stage, body)
 
+    def main_body(self) -> str | None:
+        """The body the stage shown works on: its first tug's, else the first body."""
+        project = self.controller.project
+        names = project.body_names()
+        stage = self.stage()
+        if stage is not None and stage.placements:
+            try:
+                return body_name_of_hull(project, stage.placements[0].hull)
+            except ValueError:
+                pass
+        return names[0] if names else None
+
     def body_root(self, name: str) -> QGraphicsItem | None:
         d = self.bodies.get(name)
         return d.root if d is not None else None

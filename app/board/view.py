@@ -12,7 +12,7 @@ from collections.abc import Callable
 
 from PySide6.QtCore import QPointF, QRectF, QSizeF, Qt, QTimer
 from PySide6.QtGui import QPainter, QPixmap, QTransform
-from PySide6.QtWidgets import QGraphicsView, QWidget
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsView, QWidget
 
 from app.board.items import GUIDE, Label, Leader
 from app.board.overlay import draw_north_arrow, draw_scale_bar
@@ -105,7 +105,7 @@ class BoardView(QGraphicsView):
         centre = rect.center()
         # labels keep their size in pixels: zoom out until they are in view as well
         for _ in range(4):
-            content = self._content_rect()
+            content = self._content_rect(rect)
             if content.isNull() or self.viewport().rect().toRectF().contains(content):
                 break
             f = 0.97 * min(vw / max(content.width(), 1.0), vh / max(content.height(), 1.0), 1.0)
@@ -124,15 +124,22 @@ class BoardView(QGraphicsView):
         self.user_zoomed = False
         self.place_labels()
 
-    def _content_rect(self) -> QRectF:
-        """The pixel box round the bodies' items, their labels where their owners put them."""
+    def _content_rect(self, fitted: QRectF) -> QRectF:
+        """The pixel box round the bodies' items, their labels where their owners put them.
+
+        A mark or label anchored outside ``fitted`` (site m), such as where a far line of
+        action crosses the centreline, does not count.
+        """
         vt = self.viewportTransform()
         roots = {d.root for d in self.board.bodies.values()}
         box = QRectF()
+        ignores = QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations
         for item in self.board.items():
             if item.topLevelItem() not in roots or not item.isVisible() or item.data(GUIDE):
                 continue
             if isinstance(item, Leader):
+                continue
+            if item.flags() & ignores and not fitted.contains(item.scenePos()):
                 continue
             if isinstance(item, Label):
                 if not item.text:

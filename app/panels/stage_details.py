@@ -1,4 +1,5 @@
-"""The stage shown, in detail: its kind, notes, go / no-go limits and where the bodies lie.
+"""The stage shown, in detail: its kind, notes, go / no-go limits, where the bodies lie and,
+for a swing, the headings it starts and ends on and the side the bow swings to.
 
 Every field is in the display units and writes back through the controller as one
 undoable edit when it is finished (Enter or leaving the field). A field left empty
@@ -32,6 +33,7 @@ from core.errors import InputError
 from core.mechanics.site import body_pose
 from core.model import rules
 from core.model.plan import STAGE_KINDS, BodyPose, Stage
+from core.model.swing import SWING_SIDES, Swing
 from core.units import Quantity, fmt, label
 
 #: The rule (core.model.rules) of each stage limit.
@@ -107,6 +109,7 @@ class StageDetails(QWidget):
         self.poses.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.Stretch)
         self.poses.itemChanged.connect(self._pose_edited)
         self.poses.setMaximumHeight(110)
+        self.swing_box = self._swing_box()
         top = QFormLayout()
         top.addRow("Kind", self.kind)
         layout = QVBoxLayout(self)
@@ -116,11 +119,34 @@ class StageDetails(QWidget):
         layout.addWidget(QLabel("Notes", self))
         layout.addWidget(self.notes)
         layout.addWidget(limits)
+        layout.addWidget(self.swing_box)
         layout.addWidget(QLabel("Where the bodies lie (site: x east, y north; heading true)", self))
         layout.addWidget(self.poses)
         layout.addStretch(1)
         controller.changed.connect(self._changed)
         self.fill()
+
+    def _swing_box(self) -> QGroupBox:
+        box = QGroupBox("Swing (true headings; both empty: none given)", self)
+        form = QFormLayout(box)
+        self.swing_start = QLineEdit(box)
+        self.swing_start.setObjectName("swing_start")
+        self.swing_end = QLineEdit(box)
+        self.swing_end.setObjectName("swing_end")
+        self.swing_side = QComboBox(box)
+        self.swing_side.setObjectName("swing_side")
+        for side in SWING_SIDES:
+            self.swing_side.addItem(f"bow to {side}", side)
+        self.swing_turn = QLabel(box)
+        self.swing_turn.setWordWrap(True)
+        for f in (self.swing_start, self.swing_end):
+            f.editingFinished.connect(self._swing_done)
+        self.swing_side.currentIndexChanged.connect(lambda _i: self._swing_done())
+        form.addRow("Starts on", _with_unit(self.swing_start, QLabel("°", box)))
+        form.addRow("Ends on", _with_unit(self.swing_end, QLabel("°", box)))
+        form.addRow("Swings", self.swing_side)
+        form.addRow("", self.swing_turn)
+        return box
 
     # -- showing -------------------------------------------------------------------------
     def _stage(self) -> Stage | None:
@@ -156,9 +182,27 @@ class StageDetails(QWidget):
             if force or not self.margin.hasFocus():
                 self.margin.setText(fmt(u.value(project.clearance_margin_m, "length"), 2))
             self.margin_unit.setText(label(u.unit("length")))
+            self._fill_swing(stage, force)
             self._fill_poses(stage)
         finally:
             self._filling = False
+
+    def _fill_swing(self, stage: Stage | None, force: bool) -> None:
+        """The swing's fields, shown for a swing stage (or any stage that has a swing)."""
+        swing = stage.swing if stage is not None else None
+        self.swing_box.setVisible(
+            stage is not None and (stage.kind == "swing" or swing is not None)
+        )
+        for f, v in (
+            (self.swing_start, None if swing is None else swing.start_heading_deg),
+            (self.swing_end, None if swing is None else swing.end_heading_deg),
+        ):
+            if force or not f.hasFocus():
+                f.setText("" if v is None else f"{v:05.1f}")
+        if swing is not None:
+            self.swing_side.setCurrentIndex(SWING_SIDES.index(swing.bow_to))
+        self.swing_turn.setText("" if swing is None else f"a turn of {swing.turn_deg:.0f}°")
+        self.swing_turn.setToolTip("" if swing is None else swing.words())
 
     def _fill_poses(self, stage: Stage | None) -> None:
         project = self.controller.project
@@ -226,6 +270,28 @@ class StageDetails(QWidget):
             return
         if limits != stage.limits:
             self._write(replace(stage, limits=limits), f"Stage {stage.name}: {name}")
+
+    def _swing_done(self) -> None:
+        stage = self._stage()
+        if self._filling or stage is None:
+            return
+        u = self.controller.project.units
+        try:
+            start = parse_optional(self.swing_start.text(), rules.HEADING.named("swing start"), u)
+            end = parse_optional(self.swing_end.text(), rules.HEADING.named("swing end"), u)
+            if start is None and end is None:
+                swing = None
+            elif start is None or end is None:
+                # wait for the other heading: nothing is written, nothing is lost
+                self.controller.message.emit("Swing: give both the start and the end heading")
+                return
+            else:
+                swing = Swing(start, end, self.swing_side.currentData())
+        except InputError as e:
+            self._refuse(e)
+            return
+        if swing != stage.swing:
+            self._write(replace(stage, swing=swing), f"Stage {stage.name}: swing")
 
     def _margin_done(self) -> None:
         if self._filling:

@@ -23,6 +23,7 @@ from PySide6.QtPrintSupport import (
 from PySide6.QtWidgets import QDialog, QFileDialog, QMessageBox, QToolBar
 
 from app.board.site_layer import SiteLayer
+from app.board.swing_layer import SwingLayer
 from app.briefing.document import page_layout, render, write_pdf
 from app.panels.site_panel import SitePanel
 from app.panels.stage_details import StageDetails
@@ -55,6 +56,7 @@ class PlanUi:
         window.add_panel("site", self.site_panel, "Site", left, tabify_with="stage")
         window.panels["stage"].raise_()
         self.site = SiteLayer(window.board)
+        self.swing = SwingLayer(window.board)
         self.paper = default_paper()
         K = QKeySequence.StandardKey
         self.act_preview = self._action(

@@ -38,6 +38,7 @@ from core.model.plan import (
     Stage,
     StageLimits,
 )
+from core.model.swing import SWING_SIDES, Swing
 from core.model.tugs import Placement, Tug
 from core.units import CHOICES, DisplayUnits
 
@@ -628,7 +629,10 @@ def _decode_pose(r: _Reader, value: Any, path: str, ctx: _Context) -> BodyPose |
 
 def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | None:
     d = r.obj(
-        value, path, ("name",), ("kind", "notes", "poses", "tugs", "conditions", "goal", "limits")
+        value,
+        path,
+        ("name",),
+        ("kind", "notes", "poses", "tugs", "conditions", "goal", "limits", "swing"),
     )
     if d is None:
         return None
@@ -651,6 +655,7 @@ def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | N
     conditions = _decode_conditions(r, d.get("conditions", {}), f"{path}.conditions")
     goal = _decode_goal(r, d.get("goal"), f"{path}.goal")
     limits = _decode_limits(r, d.get("limits", {}), f"{path}.limits")
+    swing = _decode_swing(r, d.get("swing"), f"{path}.swing")
     if name is None or kind is None:
         return None
     return r.build(
@@ -664,6 +669,7 @@ def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | N
             conditions or Conditions(),
             goal,
             limits or StageLimits(),
+            swing,
         ),
     )
 
@@ -793,6 +799,20 @@ def _decode_goal(r: _Reader, value: Any, path: str) -> Goal | None:
     if kind is None or fx is None or fy is None or mz is None:
         return None
     return r.build(path, lambda: goal_from_parts(kind, fx, fy, mz))
+
+
+def _decode_swing(r: _Reader, value: Any, path: str) -> Swing | None:
+    if value is None:
+        return None
+    d = r.obj(value, path, ("start_heading_deg", "end_heading_deg", "bow_swings_to"))
+    if d is None:
+        return None
+    start = r.number(d, "start_heading_deg", path, rules.HEADING)
+    end = r.number(d, "end_heading_deg", path, rules.HEADING)
+    side = r.choice(d, "bow_swings_to", path, SWING_SIDES)
+    if start is None or end is None or side is None:
+        return None
+    return r.build(path, lambda: Swing(start, end, side))  # type: ignore[arg-type]
 
 
 def _decode_limits(r: _Reader, value: Any, path: str) -> StageLimits | None:

@@ -207,4 +207,11 @@ def _encode_stage(project: Project, s: Stage) -> Json:
             "max_current_kn": _opt(lim.max_current_ms, KNOT),
             "min_clearance_m": _opt(lim.min_clearance_m),
         },
+        "swing": None
+        if s.swing is None
+        else {
+            "start_heading_deg": num(s.swing.start_heading_deg),
+            "end_heading_deg": num(s.swing.end_heading_deg),
+            "bow_swings_to": s.swing.bow_to,
+        },
     }

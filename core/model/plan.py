@@ -19,6 +19,7 @@ from core.model.efficiency import EfficiencyTable
 from core.model.goals import Goal
 from core.model.hull import Hull
 from core.model.outlines import Outline, validate_outline
+from core.model.swing import Swing
 from core.model.tugs import Placement, Tug
 from core.units import DisplayUnits
 
@@ -199,6 +200,8 @@ class Stage:
     conditions: Conditions = field(default_factory=Conditions)
     goal: Goal | None = None
     limits: StageLimits = field(default_factory=StageLimits)
+    #: The headings a swing starts and ends on, and the bow's side (a swing stage's).
+    swing: Swing | None = None
 
     def __post_init__(self) -> None:
         rules.NAME.check(self.name, "stage")

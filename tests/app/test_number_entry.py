@@ -405,6 +405,27 @@ CASES = [
         lambda p: _stage(p).poses[0].heading_deg,
         45.0,
     ),
+    # a swing stage's start and end headings (the sample's second stage swings 090 -> 270)
+    Case(
+        "stage: swing start",
+        lambda w: w.plan_ui.stage_details.swing_start,  # type: ignore[attr-defined]
+        "1e9",
+        "swing start: 1e+09° must be at most 36000°",
+        "45",
+        lambda p: p.stages[1].swing.start_heading_deg,  # type: ignore[union-attr]
+        45.0,
+        setup=lambda w: w.controller.set_stage_index(1),  # type: ignore[attr-defined]
+    ),
+    Case(
+        "stage: swing end",
+        lambda w: w.plan_ui.stage_details.swing_end,  # type: ignore[attr-defined]
+        "nan",
+        "swing end: 'nan' is not a finite number",
+        "300",
+        lambda p: p.stages[1].swing.end_heading_deg,  # type: ignore[union-attr]
+        300.0,
+        setup=lambda w: w.controller.set_stage_index(1),  # type: ignore[attr-defined]
+    ),
     # the drift panel: ghost times, look ahead, each hull's yaw radius of gyration
     Case(
         "drift: ghost times",
