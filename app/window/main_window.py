@@ -42,19 +42,17 @@ from app.board.scene import BoardScene
 from app.board.view import BoardView
 from app.controller import Controller
 from app.panels.balance_panel import BalancePanel
-from app.panels.fitting_dialog import FittingDialog, open_fitting_dialog
 from app.panels.hull_panel import HullPanel
-from app.panels.tug_dialog import TugDialog, open_tug_dialog
 from app.panels.tugs_panel import TugsPanel
 from app.panels.units_panel import UnitsPanel
 from app.panels.verdict_view import VerdictView
 from app.window.drawings_ui import install as install_drawings
 from app.window.drift_ui import install as install_drift
+from app.window.editors_ui import install as install_editors
 from app.window.outline_dialog import OutlineDialog
 from app.window.plan_ui import install as install_plan
 from app.window.recovery import RecoveryWriter, find_orphans
 from app.window.solve_ui import install as install_solve
-from app.window.substitute_dialog import SubstituteDialog, open_substitute_dialog
 from core.errors import ProjectFileError, TowboardError
 from core.io.projectfile import SUFFIX, load, save
 from core.io.report import CAUTION
@@ -80,7 +78,8 @@ Select / drag: drag a body to move it; the knob ahead of a selected body's bow t
 about its centroid (Shift: in steps of 5°). Drag a tug to change its line's lead and length
 (a pushing tug swings round its push point); drag a line point or push point along the
 hull; with the hull selected, drag a vertex. Double-click the hull's edge to insert a
-vertex; Delete removes the selected vertex or point, or lets go the selected tug.
+vertex; double-click a line point, push point or tug to edit it. Delete removes the
+selected vertex or point, or lets go the selected tug.
 
 Keys: arrow keys nudge the selection (a body or tug 1 m, a vertex or point 0.5 m; Shift:
 ten times as far); [ and ] turn the selected body 1° to port or starboard (Shift: 10°).
@@ -144,6 +143,7 @@ class MainWindow(QMainWindow):
         install_solve(self)  # conditions, solve pulls, tug lost check, hold limits
         install_drawings(self)  # File > Import outline / site, Export picture / tables
         install_drift(self)  # the drift preview: ghosts on the board, its panel
+        install_editors(self)  # the fitting dialog, the tug editor, a substitute tug
         self.recovery = RecoveryWriter(self.controller)
         self.resize(1400, 900)
         self._update_title()
@@ -277,16 +277,6 @@ class MainWindow(QMainWindow):
             group.addAction(a)
             self.tool_actions[key] = a
         self.tool_actions["select"].setChecked(True)
-        self.act_edit_tug = self._action(
-            "&Edit tug…",
-            lambda: self.edit_tug(),
-            tip="Every particular of the selected tug: pulls, certificate, towline, radio",
-        )
-        self.act_substitute = self._action(
-            "Try a &substitute tug…",
-            lambda: self.try_substitute(),
-            tip="What another tug (or new particulars) does to every stage's verdict",
-        )
         self.act_add_tug = self._action("&Add tug", self.tugs_panel.add_tug)
         self.act_dup_tug = self._action("&Duplicate tug", self.tugs_panel.duplicate_tug)
         self.act_remove_tug = self._action("&Remove tug", self.tugs_panel.remove_tug)
@@ -334,11 +324,7 @@ class MainWindow(QMainWindow):
         b.addActions(list(self.tool_actions.values()))
         b.addSeparator()
         b.addAction(self.act_generate)
-        self._menus["tugs"].addActions(
-            [self.act_edit_tug, self.act_add_tug, self.act_dup_tug, self.act_remove_tug]
-        )
-        self._menus["tugs"].addSeparator()
-        self._menus["tugs"].addAction(self.act_substitute)
+        self._menus["tugs"].addActions([self.act_add_tug, self.act_dup_tug, self.act_remove_tug])
         self._menus["help"].addAction(self._action("Mouse and keys on the board", self._board_help))
         self._menus["help"].addAction(self._action("About Towboard", self._about))
         self._rebuild_recent()
@@ -372,14 +358,7 @@ class MainWindow(QMainWindow):
         self.board.tool_changed.connect(self._tool_changed)
         self.board.refresh_hooks.append(lambda s: self.balance_panel.set_stale(s.stale))
         self.tugs_panel.tug_selected.connect(lambda name: self.board.select(("tug", name)))
-        self.tugs_panel.edit_requested.connect(self.edit_tug)
         self.hull_panel.generate_requested.connect(self.generate_outline)
-        self.hull_panel.tool_requested.connect(self.board.set_tool)
-        self.hull_panel.fitting_selected.connect(
-            lambda hull, name: self.board.select(("fitting", hull, name))
-        )
-        self.hull_panel.fitting_edit_requested.connect(self.edit_fitting)
-        self.board.edit_requested.connect(self._edit_on_board)
         self._sync_stage_box()
 
     # -- keeping things in step -----------------------------------------------------------
@@ -400,49 +379,10 @@ class MainWindow(QMainWindow):
         box.blockSignals(False)
 
     def _board_selection(self) -> None:
-        sel = self.board.selection
         self.tugs_panel.select_tug(self.board.selected_tug())
         hull = self.board.selected_hull()
         if hull is not None:
             self.hull_panel.show_hull(hull)
-        if sel and sel[0] == "fitting":
-            self.hull_panel.show_fitting(str(sel[1]), str(sel[2]))
-
-    # -- editors ----------------------------------------------------------------------------
-    def edit_fitting(self, hull: str, name: str) -> FittingDialog | None:
-        """Open the dialog of fitting ``name`` of ``hull``."""
-        try:
-            return open_fitting_dialog(self.controller, hull, name, self)
-        except TowboardError as e:
-            self.statusBar().showMessage(str(e), 8000)
-            return None
-
-    def _edit_on_board(self, hit: object) -> None:
-        if isinstance(hit, tuple) and hit and hit[0] == "fitting":
-            self.edit_fitting(str(hit[1]), str(hit[2]))
-        elif isinstance(hit, tuple) and hit and hit[0] == "tug":
-            self.edit_tug(str(hit[1]))
-
-    def try_substitute(self, name: str | None = None) -> SubstituteDialog | None:
-        """Open "Try a substitute tug" on tug ``name`` (default: the selected tug)."""
-        if not self.controller.project.tugs:
-            self.statusBar().showMessage("The plan has no tug to replace yet.", 8000)
-            return None
-        name = name or self.tugs_panel.current_tug() or self.board.selected_tug()
-        return open_substitute_dialog(self.controller, name, self)
-
-    def edit_tug(self, name: str | None = None) -> TugDialog | None:
-        """Open the tug editor of tug ``name`` (default: the tug selected in the table or
-        on the board)."""
-        name = name or self.tugs_panel.current_tug() or self.board.selected_tug()
-        if name is None:
-            self.statusBar().showMessage("Select a tug in the table or on the board first.", 8000)
-            return None
-        try:
-            return open_tug_dialog(self.controller, name, self)
-        except TowboardError as e:
-            self.statusBar().showMessage(str(e), 8000)
-            return None
 
     def _snap_toggled(self, on: bool) -> None:
         self.board.set_grid(snap=on)

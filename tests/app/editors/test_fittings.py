@@ -174,7 +174,7 @@ def test_double_click_on_the_board_opens_the_fitting_dialog(window, qtbot) -> No
 
 
 def test_the_dialog_refuses_half_a_sector_and_keeps_what_was_typed(window, qtbot) -> None:
-    d = window.edit_fitting(HULL, "Bow centre bitt")
+    d = window.editors.edit_fitting(HULL, "Bow centre bitt")
     before = window.controller.project
     retype(qtbot, d.lines_from, "300")
     retype(qtbot, d.tow, "55")

@@ -31,7 +31,7 @@ def twin(window):  # type: ignore[no-untyped-def]
 
 
 def _dialog(window) -> SubstituteDialog:  # type: ignore[no-untyped-def]
-    window.act_substitute.trigger()
+    window.editors.act_substitute.trigger()
     found = [d for d in window.findChildren(SubstituteDialog) if d.isVisible()]
     assert len(found) == 1
     return found[0]

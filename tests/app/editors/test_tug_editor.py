@@ -27,7 +27,7 @@ def test_the_tugs_menu_edits_the_tug_selected_in_the_table(window, qtbot) -> Non
     assert texts[0] == "&Edit tug…"
     table = window.tugs_panel.table
     click_cell(qtbot, table, window.tugs_panel.model.row_of("Puffin"), 0)
-    window.act_edit_tug.trigger()
+    window.editors.act_edit_tug.trigger()
     d = _shown(window)
     assert d.form.name.text() == "Puffin" and d.form.call_sign.text() == "PFN2"
     assert d.form.bollard_pull.text() == "45"  # 441.29925 kN = 45 t (1 t = 9.80665 kN)
@@ -43,7 +43,7 @@ def test_double_click_on_a_tug_on_the_board_opens_its_editor(window, qtbot) -> N
 def test_typing_every_particular_is_one_undo_step(window, qtbot) -> None:
     c = window.controller
     before = c.project
-    d = window.edit_tug("Tern")
+    d = window.editors.edit_tug("Tern")
     f = d.form
     retype(qtbot, f.name, "Tern II")
     f.type.setFocus()
@@ -81,7 +81,7 @@ def test_typing_every_particular_is_one_undo_step(window, qtbot) -> None:
 def test_untouched_fields_keep_their_values_exactly(window, qtbot) -> None:
     c = window.controller
     before = c.project
-    d = window.edit_tug("Gannet")
+    d = window.editors.edit_tug("Gannet")
     assert d.form.towline_mbl.text() == "159.076"  # 1560 kN in t, six digits
     _ok(qtbot, d)
     assert c.project == before and c.undo_stack.count() == 0
@@ -90,7 +90,7 @@ def test_untouched_fields_keep_their_values_exactly(window, qtbot) -> None:
 def test_the_fields_are_in_the_display_units(window, qtbot) -> None:
     c = window.controller
     c.apply(c.project.with_units(DisplayUnits(force="kN", length="ft")), "Units")
-    d = window.edit_tug("Gannet")
+    d = window.editors.edit_tug("Gannet")
     assert d.form.bollard_pull.text() == "539.366"
     assert d.form.height.text() == f"{5.5 / 0.3048:.6g}"  # 0.3048 m per ft exactly
     retype(qtbot, d.form.towline_mbl, "1600")
@@ -116,7 +116,7 @@ def test_refused_input_is_named_and_nothing_is_lost(
 ) -> None:
     c = window.controller
     before = c.project
-    d = window.edit_tug("Gannet")
+    d = window.editors.edit_tug("Gannet")
     retype(qtbot, d.form.call_sign, "GNT8")
     retype(qtbot, getattr(d.form, field), text)
     _ok(qtbot, d)
