@@ -13,15 +13,30 @@ them out).
 
 from __future__ import annotations
 
-from PySide6.QtCore import QPointF, QRectF, Qt
-from PySide6.QtGui import QPainter
+from PySide6.QtCore import QPointF, QRectF, QSize, Qt
+from PySide6.QtGui import QPainter, QTransform
 from PySide6.QtWidgets import QGraphicsItem
 
+from app.board.items import Label
 from app.board.overlay import draw_north_arrow, draw_scale_bar
+from app.board.placement import place_labels
 from app.board.scene import BoardScene
 from app.paint.style import device_scale
 
 NO_CACHE = QGraphicsItem.CacheMode.NoCache
+
+
+def _place_for_page(
+    scene: BoardScene, src: QRectF, px_per_m: float, size: QSize, overlays: bool
+) -> None:
+    """Place the labels for a page showing ``src`` (site m) at ``px_per_m`` screen pixels."""
+    # scene to the page's screen pixels, north up: what a view of that size would show
+    vt = QTransform(px_per_m, 0.0, 0.0, -px_per_m, -src.left() * px_per_m, src.bottom() * px_per_m)
+    w, h = size.width(), size.height()
+    reserved = []
+    if overlays:  # the scale bar bottom left, the north arrow top right
+        reserved = [QRectF(0, h - 48, 220, 48), QRectF(w - 72, 0, 72, 86)]
+    place_labels(scene, vt, size, reserved)
 
 
 def render_board(
@@ -58,11 +73,16 @@ def render_board(
     cached = [(item, item.cacheMode()) for item in scene.items() if item.cacheMode() != NO_CACHE]
     for item, _ in cached:
         item.setCacheMode(NO_CACHE)
+    # labels placed clear of each other for this page's scale; the screen's put back after
+    shifts = {lab: lab.shift for lab in scene.items() if isinstance(lab, Label)}
+    _place_for_page(scene, src, s / k, QSize(round(t.width() / k), round(t.height() / k)), overlays)
     try:
         scene.render(painter, t, src, Qt.AspectRatioMode.IgnoreAspectRatio)
     finally:
         for item, mode in cached:
             item.setCacheMode(mode)
+        for lab, (dx, dy) in shifts.items():
+            lab.set_shift(dx, dy)
     painter.restore()
     if overlays:
         painter.save()

@@ -80,6 +80,7 @@ class StageDetails(QWidget):
         self._filling = False
         self.setObjectName("stage_details")
         self.title = QLabel(self)
+        self.title.setWordWrap(True)
         self.kind = QComboBox(self)
         self.kind.addItems(list(STAGE_KINDS))
         self.kind.currentTextChanged.connect(self._kind_chosen)
@@ -90,6 +91,7 @@ class StageDetails(QWidget):
         self.limit_units: dict[str, QLabel] = {}
         limits = QGroupBox("Go / no-go limits (empty: not set)", self)
         form = QFormLayout(limits)
+        form.setRowWrapPolicy(QFormLayout.RowWrapPolicy.WrapLongRows)  # a narrow dock
         for key, text, _q in self.LIMITS:
             f = QLineEdit(self)
             f.setObjectName(f"limit_{key}")
@@ -120,19 +122,25 @@ class StageDetails(QWidget):
         layout.addWidget(self.notes)
         layout.addWidget(limits)
         layout.addWidget(self.swing_box)
-        layout.addWidget(QLabel("Where the bodies lie (site: x east, y north; heading true)", self))
+        where = QLabel("Where the bodies lie (site: x east, y north; heading true)", self)
+        where.setWordWrap(True)
+        layout.addWidget(where)
         layout.addWidget(self.poses)
         layout.addStretch(1)
         controller.changed.connect(self._changed)
         self.fill()
 
     def _swing_box(self) -> QGroupBox:
-        box = QGroupBox("Swing (true headings; both empty: none given)", self)
+        box = QGroupBox("Swing (true headings)", self)
+        box.setToolTip("Both headings empty: the stage gives no swing")
         form = QFormLayout(box)
+        form.setRowWrapPolicy(QFormLayout.RowWrapPolicy.WrapLongRows)  # a narrow dock
         self.swing_start = QLineEdit(box)
         self.swing_start.setObjectName("swing_start")
         self.swing_end = QLineEdit(box)
         self.swing_end.setObjectName("swing_end")
+        for f in (self.swing_start, self.swing_end):
+            f.setPlaceholderText("none")
         self.swing_side = QComboBox(box)
         self.swing_side.setObjectName("swing_side")
         for side in SWING_SIDES:

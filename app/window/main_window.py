@@ -113,6 +113,19 @@ def new_project() -> Project:
     return Project(name="Untitled plan", stages=(Stage("Stage 1"),))
 
 
+#: The toolbar's word for each board tool (the menus say it in full).
+TOOL_SHORT = {
+    "select": "Select",
+    "draw": "Outline",
+    "line_point": "Line point",
+    "push_point": "Push point",
+    "quay": "Quay",
+    "dolphin": "Dolphin",
+    "vessel": "Vessel",
+    "limit": "Limit",
+}
+
+
 def settings() -> QSettings:
     """The program's settings (``$TOWBOARD_SETTINGS_FILE`` makes them an ini file, for tests)."""
     path = os.environ.get("TOWBOARD_SETTINGS_FILE")
@@ -138,6 +151,7 @@ class MainWindow(QMainWindow):
         self._build_actions()
         self._build_menus()
         self._build_toolbar()
+        self._restore_grid()
         self._connect()
         install_plan(self)  # the stage list, the site on the board, print and PDF
         install_solve(self)  # conditions, solve pulls, tug lost check, hold limits
@@ -270,6 +284,7 @@ class MainWindow(QMainWindow):
                 text, lambda _=False, k=key: self.board.set_tool(k), shortcut, f"{tip} ({shortcut})"
             )
             a.setToolTip(f"{text} ({shortcut})")
+            a.setIconText(TOOL_SHORT.get(key, text))  # the toolbar's shorter word
             # a letter works on the board, so typing in a table or a field never changes tool
             a.setShortcutContext(Qt.ShortcutContext.WidgetWithChildrenShortcut)
             self.view.addAction(a)
@@ -321,7 +336,10 @@ class MainWindow(QMainWindow):
         for dock in self.panels.values():
             v.addAction(dock.toggleViewAction())
         b = self._menus["board"]
-        b.addActions(list(self.tool_actions.values()))
+        for key, a in self.tool_actions.items():
+            if key == "quay":
+                b.addSeparator()  # the site's tools after the hull's
+            b.addAction(a)
         b.addSeparator()
         b.addAction(self.act_generate)
         self._menus["tugs"].addActions([self.act_add_tug, self.act_dup_tug, self.act_remove_tug])
@@ -335,7 +353,10 @@ class MainWindow(QMainWindow):
         self.addToolBar(tb)
         tb.addActions([self.act_undo, self.act_redo])
         tb.addSeparator()
-        tb.addActions(list(self.tool_actions.values()))
+        for key, a in self.tool_actions.items():
+            if key == "quay":
+                tb.addSeparator()  # the site's tools after the hull's
+            tb.addAction(a)
         tb.addAction(self.act_generate)
         tb.addSeparator()
         tb.addActions([self.act_fit, self.act_fit_site, self.act_snap])
@@ -384,8 +405,30 @@ class MainWindow(QMainWindow):
         if hull is not None:
             self.hull_panel.show_hull(hull)
 
+    def _restore_grid(self) -> None:
+        """The grid step and snapping as the user left them (program settings)."""
+        s = settings()
+        try:
+            step = float(s.value("board/grid_step", 1.0))  # type: ignore[arg-type]
+        except (TypeError, ValueError):
+            step = 1.0
+        snap = str(s.value("board/snap", "false")).lower() in ("true", "1")
+        try:
+            self.board.set_grid(step=step, snap=snap)
+        except ValueError:
+            self.board.set_grid(step=1.0, snap=snap)
+        self.act_snap.blockSignals(True)
+        self.act_snap.setChecked(snap)
+        self.act_snap.blockSignals(False)
+
+    def _save_grid(self) -> None:
+        s = settings()
+        s.setValue("board/grid_step", self.board.grid_step)
+        s.setValue("board/snap", "true" if self.board.snap_on else "false")
+
     def _snap_toggled(self, on: bool) -> None:
         self.board.set_grid(snap=on)
+        self._save_grid()
         u = self.controller.project.units
         state = "on" if on else "off"
         self.statusBar().showMessage(
@@ -401,6 +444,7 @@ class MainWindow(QMainWindow):
         )
         if ok:
             self.board.set_grid(step=value)
+            self._save_grid()
             self.statusBar().showMessage(f"Grid step {value:g} {unit}", 5000)
 
     def _tool_changed(self, tool: str) -> None:

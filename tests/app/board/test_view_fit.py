@@ -95,3 +95,18 @@ def test_each_tool_has_a_key_shown_in_its_menu_and_tooltip(window, qtbot) -> Non
     # the toolbar's buttons show the same tooltip
     button = window.toolbar.widgetForAction(window.tool_actions["draw"])
     assert f"({keys['draw']})" in button.toolTip()
+
+
+def test_the_grid_is_kept_for_the_next_window(window, qtbot, monkeypatch) -> None:  # type: ignore[no-untyped-def]
+    from PySide6.QtWidgets import QInputDialog
+
+    from app.window.main_window import MainWindow
+
+    monkeypatch.setattr(QInputDialog, "getDouble", staticmethod(lambda *a, **k: (2.5, True)))
+    window.act_grid_step.trigger()
+    window.act_snap.trigger()
+    assert window.board.snap_on and window.board.grid_step == 2.5
+    other = MainWindow()
+    qtbot.addWidget(other)
+    assert other.board.grid_step == 2.5
+    assert other.board.snap_on and other.act_snap.isChecked()
