@@ -1,6 +1,6 @@
 """The plan details dialog: the title block the briefing's cover prints.
 
-Name, revision, date, prepared / checked / approved by, the revision history (one line
+Name, the site's name, revision, date, prepared / checked / approved by, the revision history (one line
 per revision) and the notes. OK records every change as one undo step; input the core
 refuses (an empty name, a history line without its revision) is named in the dialog,
 which stays open with everything typed.
@@ -9,6 +9,7 @@ which stays open with everything typed.
 from __future__ import annotations
 
 import datetime
+from dataclasses import replace
 
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
@@ -50,6 +51,8 @@ class PlanDetailsDialog(QDialog):
         self.setWindowTitle("Plan details")
         self.setObjectName("plan_details")
         self.name = QLineEdit()
+        self.site = QLineEdit()
+        self.site.setPlaceholderText("the basin, harbour or fairway of the move")
         self.revision = QLineEdit()
         self.date = QLineEdit()
         self.date.setPlaceholderText("YYYY-MM-DD")
@@ -97,6 +100,7 @@ class PlanDetailsDialog(QDialog):
     def _lay_out(self) -> None:
         form = QFormLayout()
         form.addRow("Plan name", self.name)
+        form.addRow("Site", self.site)
         form.addRow("Revision", self.revision)
         date = QHBoxLayout()
         date.addWidget(self.date, 1)
@@ -126,6 +130,7 @@ class PlanDetailsDialog(QDialog):
     def load(self, project: Project) -> None:
         """Fill every field from ``project``."""
         self.name.setText(project.name)
+        self.site.setText(project.site.name)
         self.revision.setText(project.revision)
         self.date.setText(project.date)
         self.prepared.setText(project.prepared_by)
@@ -163,7 +168,11 @@ class PlanDetailsDialog(QDialog):
 
     def project(self) -> Project:
         """The controller's project with the title block as typed (raises on refused input)."""
-        return self.controller.project.with_title_block(
+        p = self.controller.project
+        site = self.site.text().strip()
+        if site != p.site.name:
+            p = replace(p, site=replace(p.site, name=site))
+        return p.with_title_block(
             name=self.name.text().strip(),
             revision=self.revision.text().strip(),
             date=self.date.text().strip(),

@@ -49,6 +49,7 @@ def test_the_plan_menu_opens_the_dialog_filled_from_the_plan(window) -> None:
     p = window.controller.project
     assert d.name.text() == p.name
     assert d.checked.text() == "M. Serrano, tow master"
+    assert d.site.text() == p.site.name == "Tollan basin, Vessmark yard"
     assert d.history.rowCount() == len(p.history) == 3
     assert d.history.item(1, 3).text() == "Lay-by berth moved 40 m north"
     assert d.notes.toPlainText() == p.notes
@@ -61,6 +62,7 @@ def test_typing_the_title_block_and_ok_is_one_undo_step(window, qtbot) -> None:
     retype(qtbot, d.name, "Lark pair to the lay-by quay")
     retype(qtbot, d.revision, "D")
     retype(qtbot, d.approved, "K. Moreau, harbour master")
+    retype(qtbot, d.site, "Tollan basin, east arm")
     d.notes.setFocus()
     qtbot.keyClick(d.notes, Qt.Key.Key_End, Qt.KeyboardModifier.ControlModifier)
     qtbot.keyClicks(d.notes, " High water 14:20.")
@@ -74,6 +76,8 @@ def test_typing_the_title_block_and_ok_is_one_undo_step(window, qtbot) -> None:
     p = c.project
     assert p.name == "Lark pair to the lay-by quay"
     assert (p.revision, p.approved_by) == ("D", "K. Moreau, harbour master")
+    assert p.site.name == "Tollan basin, east arm"
+    assert p.site.features == before.site.features
     assert p.notes.endswith("tugs. High water 14:20.")
     assert p.history[-1] == Revision(
         "D", before.date, "J. Amadi, towage planner", "Approved for the move"

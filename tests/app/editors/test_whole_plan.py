@@ -39,6 +39,7 @@ TITLE = {
     "prepared": "I. Varga, towage planner",
     "checked": "O. Lind, tow master",
     "approved": "H. Okafor, harbour master",
+    "site": "Brenna basin, north arm",
 }
 HISTORY_TEXT = "Third tug added for the swing"
 NOTES = "Invented exercise plan. High water 14:20."
@@ -226,6 +227,7 @@ def test_a_whole_plan_from_file_new_with_mouse_and_keys(
     retype(qtbot, d.prepared, TITLE["prepared"])
     retype(qtbot, d.checked, TITLE["checked"])
     retype(qtbot, d.approved, TITLE["approved"])
+    retype(qtbot, d.site, TITLE["site"])
     qtbot.mouseClick(d.add_line, LEFT)
     qtbot.keyClicks(_focused(), HISTORY_TEXT)
     qtbot.keyClick(_focused(), Qt.Key.Key_Return)
