@@ -1,89 +1,114 @@
-"""One solve of the pulls for 12 tugs (target: median at most 1 ms), and the tug lost check.
+"""Solve pulls for 12 tugs, with and without working sectors, and the tug lost check.
 
-Also times scipy.optimize.linprog (HiGHS) on the first of the two LPs, to show why the
-program carries its own small solver, and the same solve with four tugs free to
-change their lead within a 60 degree sector.
+Every figure is a median (and 99th percentile) of many runs; the program's own simplex
+and scipy's HiGHS (core.solve.lp.BACKEND) are timed paired, run for run alternately, on
+the same problems, building the problem included ("problem + solve") and not. The
+target for one 12-tug solve with sectors is a median under 2 ms. The baseline in the
+same run is the 12-tug solve with every lead as set.
 
-Run: /tmp/venv/bin/python benchmarks/solve.py
+Run from the repository root with the project's venv:
+
+    .venv/bin/python benchmarks/solve.py
 """
 
 from __future__ import annotations
 
-import math
 import sys
 import time
-from dataclasses import replace
+from collections.abc import Callable
 from pathlib import Path
 
 import numpy as np
-from scipy.optimize import linprog
 
-sys.path.insert(0, str(Path(__file__).resolve().parent))
+ROOT = Path(__file__).resolve().parents[1]
+sys.path[:0] = [str(ROOT), str(ROOT / "benchmarks")]
 
-from tug_fleet import fleet_project
+from tug_fleet import fleet_project  # noqa: E402
 
-from core.solve.pulls import pulls_problem, solve_pulls, tug_lost_check
+from core.solve import lp  # noqa: E402
+from core.solve.pulls import pulls_problem, solve_pulls, tug_lost_check  # noqa: E402
 
 
-def _median_ms(fn, repeat: int) -> float:
-    fn()
-    runs = []
-    for _ in range(repeat):
-        t0 = time.perf_counter()
+def paired(fns: dict[str, Callable[[], object]], repeat: int) -> dict[str, np.ndarray]:
+    """Times (s) of each function, run in turn, ``repeat`` rounds (after one warm-up)."""
+    for fn in fns.values():
         fn()
-        runs.append(time.perf_counter() - t0)
-    return float(np.median(runs)) * 1e3
+    out: dict[str, list[float]] = {k: [] for k in fns}
+    for _ in range(repeat):
+        for k, fn in fns.items():
+            t0 = time.perf_counter()
+            fn()
+            out[k].append(time.perf_counter() - t0)
+    return {k: np.array(v) for k, v in out.items()}
+
+
+def with_backend(name: lp.Backend, fn: Callable[[], object]) -> Callable[[], object]:
+    def run() -> object:
+        old = lp.BACKEND
+        lp.BACKEND = name
+        try:
+            return fn()
+        finally:
+            lp.BACKEND = old
+
+    return run
+
+
+def line(label: str, t: np.ndarray, base: float | None = None) -> str:
+    med, p99 = float(np.median(t)) * 1e3, float(np.percentile(t, 99)) * 1e3
+    ratio = f", {med / base:5.2f}x the baseline" if base else ""
+    return f"  {label:<44} median {med:7.3f} ms  p99 {p99:7.3f} ms{ratio}"
 
 
 def main() -> None:
-    project = fleet_project(12)
-    stage = project.stages[0]
-    problem = pulls_problem(project, stage)
-    result = solve_pulls(problem)
+    quick = "--quick" in sys.argv
+    repeat = 60 if quick else 300
+    fixed = fleet_project(12)
+    sector = fleet_project(12, sectors=True)
+    fs, ss = fixed.stages[0], sector.stages[0]
+    fp, sp = pulls_problem(fixed, fs), pulls_problem(sector, ss)
+    r = solve_pulls(sp)
     print(
-        f"12 tugs, hold against {stage.conditions.wind_speed_ms / 0.514444:.0f} kn wind and "
-        f"{stage.conditions.current_speed_ms / 0.514444:.1f} kn current: goal met {result.feasible}, "
-        f"largest utilisation {result.max_utilisation * 100:.1f} %"
+        f"12 tugs with working sectors ({sp.columns.shape[1]} polygon vertices): goal met "
+        f"{r.feasible}, largest use {r.max_utilisation * 100:.1f} %"
     )
-    print(f"solve pulls (12 tugs): median {_median_ms(lambda: solve_pulls(problem), 500):.3f} ms")
+    t = paired(
+        {
+            "fixed": lambda: solve_pulls(fp),
+            "own": with_backend("own", lambda: solve_pulls(sp)),
+            "highs": with_backend("highs", lambda: solve_pulls(sp)),
+            "own+": with_backend("own", lambda: solve_pulls(pulls_problem(sector, ss))),
+            "highs+": with_backend("highs", lambda: solve_pulls(pulls_problem(sector, ss))),
+        },
+        repeat,
+    )
+    base = float(np.median(t["fixed"])) * 1e3
+    print("one solve (baseline: 12 tugs, leads as set, own simplex):")
+    print(line("baseline", t["fixed"]))
+    print(line("sectors, own simplex", t["own"], base))
+    print(line("sectors, HiGHS", t["highs"], base))
+    print(line("sectors, problem + solve, own simplex", t["own+"], base))
+    print(line("sectors, problem + solve, HiGHS", t["highs+"], base))
     print(
-        f"pulls_problem + solve (from the project): median "
-        f"{_median_ms(lambda: solve_pulls(pulls_problem(project, stage)), 200):.3f} ms"
+        f"  HiGHS / own (paired medians): solve {np.median(t['highs'] / t['own']):.2f}, "
+        f"problem + solve {np.median(t['highs+'] / t['own+']):.2f}"
     )
+    target = float(np.median(t["own"])) * 1e3
+    print(f"  target: one 12-tug solve with sectors under 2 ms median: {target:.2f} ms")
 
-    sectors = tuple(
-        replace(p, lead_sector_rad=(p.lead_rad - math.radians(30), p.lead_rad + math.radians(30)))
-        if i % 3 == 0 and not p.point.startswith("pad")
-        else p
-        for i, p in enumerate(stage.placements)
+    t = paired(
+        {
+            "fixed": lambda: tug_lost_check(fp),
+            "own": with_backend("own", lambda: tug_lost_check(sp)),
+            "highs": with_backend("highs", lambda: tug_lost_check(sp)),
+        },
+        max(10, repeat // 10),
     )
-    sp = pulls_problem(project, replace(stage, placements=sectors))
-    print(
-        f"solve pulls with {sum(p.lead_sector_rad is not None for p in sectors)} lead sectors "
-        f"({sp.columns.shape[1]} columns): median {_median_ms(lambda: solve_pulls(sp), 200):.3f} ms"
-    )
-    print(
-        f"tug lost check (13 solves): median {_median_ms(lambda: tug_lost_check(problem), 50):.2f} ms"
-    )
-
-    # The first LP through linprog, for comparison: min t, B f = required, 0 <= f <= t u.
-    n = len(problem.usable_n)
-    b, u, req = problem.columns, problem.usable_n, problem.required
-    c = np.r_[np.zeros(n), 1.0]
-    a_ub = np.c_[np.eye(n), -u]
-    ms = _median_ms(
-        lambda: linprog(
-            c,
-            A_ub=a_ub,
-            b_ub=np.zeros(n),
-            A_eq=np.c_[b, np.zeros(3)],
-            b_eq=req,
-            bounds=[(0, None)] * (n + 1),
-            method="highs",
-        ),
-        100,
-    )
-    print(f"for comparison, one scipy linprog (HiGHS) of the first LP: median {ms:.3f} ms")
+    print("tug lost check (13 solves):")
+    print(line("leads as set, own simplex", t["fixed"]))
+    print(line("sectors, own simplex", t["own"], float(np.median(t["fixed"])) * 1e3))
+    print(line("sectors, HiGHS", t["highs"], float(np.median(t["fixed"])) * 1e3))
+    print(f"  HiGHS / own (paired medians): {np.median(t['highs'] / t['own']):.2f}")
 
 
 if __name__ == "__main__":

@@ -22,6 +22,7 @@ from typing import TYPE_CHECKING, Literal
 
 from core.frames import angle_to_bearing, turning_words
 from core.mechanics.clearance import Clearance, clearance_notices
+from core.mechanics.towline import towline_notices
 from core.model.goals import GOAL_WORDS
 from core.model.plan import Project, Stage
 from core.notices import Notice
@@ -133,6 +134,7 @@ def judge(
         out.extend(_from_notice(n) for n in b.balance.notices)
         out.extend(_load_reasons(stage, b))
         out.extend(_fitting_reasons(b, u))
+        out.extend(_towline_reasons(project, b, u))
         out.extend(_goal_reasons(stage, b, u))
         out.extend(
             reason("goal_not_solved", f"{b.name}: {n}", b.name)
@@ -201,6 +203,18 @@ def _fitting_reasons(b: BodyResult, u: DisplayUnits) -> list[Reason]:
                     f.tug,
                 )
             )
+    return out
+
+
+def _towline_reasons(project: Project, b: BodyResult, u: DisplayUnits) -> list[Reason]:
+    """Each towline's tension against its MBL, and a line drawn longer than the tug
+    carries (core.mechanics.towline): cautions."""
+    out: list[Reason] = []
+    for f, p in zip(b.fittings, b.layout.placements, strict=True):
+        if f.mode != "line":
+            continue
+        tug = project.tug(f.tug)
+        out.extend(_from_notice(n) for n in towline_notices(tug, f.load_n, p.line_length_m, u))
     return out
 
 

@@ -20,6 +20,7 @@ from core.errors import InputError, OutlineError, Problem
 from core.frames import bearing_to_angle
 from core.io.fileformat import FILE_UNITS, FORMAT_NAME, Json
 from core.model import rules
+from core.model.capability import WAYS, Capability, CapabilityCurve
 from core.model.conditions import Conditions
 from core.model.conditions import rule as condition_rule
 from core.model.drift import DriftSettings
@@ -39,7 +40,7 @@ from core.model.plan import (
     StageLimits,
 )
 from core.model.swing import SWING_SIDES, Swing
-from core.model.tugs import Placement, Tug
+from core.model.tugs import TENSION_WARN_FRACTION, Placement, Tug
 from core.units import CHOICES, DisplayUnits
 
 T = TypeVar("T")
@@ -487,28 +488,94 @@ def _decode_tug(r: _Reader, value: Any, path: str) -> Tug | None:
             "towline_mbl_kN",
             "call_sign",
             "working_channel",
+            "towline_warning_share_of_mbl",
+            "capability",
         ),
     )
     if d is None:
         return None
+    before = len(r.problems)
     name = r.name(d, "name", path)
     bp = r.number(d, "bollard_pull_kN", path, rules.BOLLARD_PULL)
     astern = r.number(d, "astern_pull_kN", path, rules.ASTERN_PULL, nullable=True)
     height = r.number(d, "towing_point_height_m", path, rules.TOWING_POINT_HEIGHT, nullable=True)
     towline = r.number(d, "towline_length_m", path, rules.TOWLINE_LENGTH, nullable=True)
     mbl = r.number(d, "towline_mbl_kN", path, rules.TOWLINE_MBL, nullable=True)
+    share = r.number(
+        d,
+        "towline_warning_share_of_mbl",
+        path,
+        rules.TOWLINE_WARN_SHARE,
+        default=TENSION_WARN_FRACTION,
+    )
+    capability = _decode_capability(r, d.get("capability"), f"{path}.capability")
     texts = [
         r.text(d, key, path)
         for key in ("type", "role", "certificate_date", "call_sign", "working_channel")
     ]
-    if bp is None or name is None:
+    if bp is None or name is None or share is None or len(r.problems) != before:
         return None
     tug_type, role, certificate, call_sign, channel = texts
     return r.build(
         path,
         lambda: Tug(
-            name, bp, astern, tug_type, role, height, certificate, towline, mbl, call_sign, channel
+            name,
+            bp,
+            astern,
+            tug_type,
+            role,
+            height,
+            certificate,
+            towline,
+            mbl,
+            call_sign,
+            channel,
+            share,
+            capability,
         ),
+    )
+
+
+def _decode_capability(r: _Reader, value: Any, path: str) -> Capability | None:
+    """A tug's capability; None when absent or a placeholder (the type's defaults apply)."""
+    if value is None:
+        return None
+    d = r.obj(value, path, (), ("placeholder", "source", "bearing_deg_and_share"))
+    if d is None:
+        return None
+    before = len(r.problems)
+    placeholder = r.flag(d, "placeholder", path)
+    source = r.text(d, "source", path)
+    inner = f"{path}.bearing_deg_and_share"
+    ways = r.obj(d.get("bearing_deg_and_share", {}), inner, (), WAYS) or {}
+    curves = {way: _decode_curve(r, ways.get(way), f"{inner}.{way}") for way in WAYS}
+    if len(r.problems) != before or placeholder:
+        return None
+    return r.build(
+        path,
+        lambda: Capability(curves["line"], curves["push"], curves["push_pull"], False, source),
+    )
+
+
+def _decode_curve(r: _Reader, value: Any, path: str) -> CapabilityCurve | None:
+    """One way's curve: a list of [relative bearing deg, share] pairs."""
+    if value is None:
+        return None
+    if not isinstance(value, list) or not value or len(value) > 360:
+        r.fail(path, "must be a list of 1 to 360 [bearing_deg, share] pairs, or null")
+        return None
+    pairs = []
+    for i, item in enumerate(value):
+        if not isinstance(item, list) or len(item) != 2:
+            r.fail(f"{path}[{i}]", f"{describe(item)} is not a pair [bearing_deg, share]")
+            return None
+        b = r.value(item[0], f"{path}[{i}][0]", rules.CAPABILITY_BEARING)
+        f = r.value(item[1], f"{path}[{i}][1]", rules.CAPABILITY_SHARE)
+        if b is None or f is None:
+            return None
+        pairs.append((b, f))
+    return r.build(
+        path, lambda: CapabilityCurve(tuple(b for b, _ in pairs), tuple(f for _, f in pairs))
     )
 
 
@@ -533,10 +600,16 @@ def _decode_site(r: _Reader, value: Any) -> Site | None:
     return r.build("site", lambda: Site(r.text(d, "name", "site"), tuple(features)))
 
 
-def _sector(pair: tuple[float, float]) -> tuple[float, float]:
-    """[from, to] relative bearings, clockwise, as a (low, high) counter-clockwise hull-frame
-    sector: clockwise from ``from`` to ``to`` is counter-clockwise from ``to`` to ``from``."""
-    return (bearing_to_angle(pair[1]), bearing_to_angle(pair[0]))
+def _sector(pair: tuple[float, float], push: bool = False) -> tuple[float, float]:
+    """A working sector [from, to], degrees clockwise (relative bearings of a line, or push
+    angles off square), as the core's (low, high) radians counter-clockwise: clockwise
+    from ``from`` to ``to`` is counter-clockwise from ``to`` back to ``from``. ``to -
+    from`` from 0 to 360 is the width as written (360: the whole circle); otherwise it
+    is taken modulo 360 ([350, 10] is 20 degrees wide)."""
+    start, end = pair
+    width = end - start if 0.0 <= end - start <= 360.0 else (end - start) % 360.0
+    low = -math.radians(start + width) if push else bearing_to_angle(start + width)
+    return (low, low + math.radians(width))
 
 
 class _Context:
@@ -548,7 +621,14 @@ class _Context:
         self.tugs, self.bodies = tugs, bodies
 
 
-_PLACEMENT_KEYS = ("lead_deg", "line_length_m", "push_angle_deg", "astern", "lead_sector_deg")
+_PLACEMENT_KEYS = (
+    "lead_deg",
+    "line_length_m",
+    "push_angle_deg",
+    "astern",
+    "lead_sector_deg",
+    "push_pull",
+)
 
 
 def _decode_placement(r: _Reader, value: Any, path: str, ctx: _Context) -> Placement | None:
@@ -597,16 +677,28 @@ def _decode_placement(r: _Reader, value: Any, path: str, ctx: _Context) -> Place
         pair = r.point(d["lead_sector_deg"], f"{path}.lead_sector_deg", rules.BEARING)
         if pair is None:
             ok = False
-        elif kind == "push":
-            sector = (-math.radians(pair[1]), -math.radians(pair[0]))
         else:
-            sector = _sector(pair)
+            sector = _sector(pair, kind == "push")
     astern = r.flag(d, "astern", path)
+    push_pull = r.flag(d, "push_pull", path)
+    if push_pull and kind != "push":
+        r.fail(f"{path}.push_pull", f"applies at a push point only; {point} is a line point")
+        ok = False
     if not ok or setting is None or lead is None or length is None:
         return None
     return r.build(
         path,
-        lambda: Placement(tug, hull_name, point, setting, lead, length, astern, sector),  # type: ignore[arg-type]
+        lambda: Placement(
+            tug,  # type: ignore[arg-type]
+            hull_name,  # type: ignore[arg-type]
+            point,  # type: ignore[arg-type]
+            setting,
+            lead,
+            length,
+            astern,
+            sector,
+            push_pull,
+        ),
     )
 
 

@@ -7,6 +7,7 @@ import math
 from core.errors import InputError
 from core.frames import angle_to_bearing
 from core.io.fileformat import FORMAT_NAME, FORMAT_VERSION, KN, KNOT, Json
+from core.model.capability import WAYS, Capability
 from core.model.hull import Hull
 from core.model.plan import Project, Stage
 from core.model.tugs import Placement
@@ -74,6 +75,8 @@ def encode(project: Project) -> Json:
                 "towline_mbl_kN": _opt(t.towline_mbl_n, KN),
                 "call_sign": t.call_sign,
                 "working_channel": t.working_channel,
+                "towline_warning_share_of_mbl": num(t.towline_warn_fraction),
+                "capability": _encode_capability(t.capability_curves),
             }
             for t in project.tugs
         ],
@@ -102,6 +105,22 @@ def encode(project: Project) -> Json:
     }
 
 
+def _encode_capability(c: Capability) -> Json:
+    """The capability with its values, each way as [relative bearing deg, share] pairs; a
+    placeholder is marked (and worked out again from the tug's type when loaded)."""
+    ways: Json = {}
+    for way in WAYS:
+        curve = c.curve(way)
+        ways[way] = (
+            None
+            if curve is None
+            else [
+                [num(b), num(f)] for b, f in zip(curve.bearings_deg, curve.fractions, strict=True)
+            ]
+        )
+    return {"placeholder": c.placeholder, "source": c.source, "bearing_deg_and_share": ways}
+
+
 def _encode_hull(h: Hull) -> Json:
     return {
         "name": h.name,
@@ -127,13 +146,20 @@ def _encode_hull(h: Hull) -> Json:
     }
 
 
-def _sector(sector: tuple[float, float] | None) -> list[float] | None:
-    """A (low, high) counter-clockwise hull-frame sector as [from, to] relative bearings,
-    clockwise (counter-clockwise from low to high is clockwise from high to low)."""
+def _sector(sector: tuple[float, float] | None, push: bool = False) -> list[float] | None:
+    """A (low, high) counter-clockwise sector as [from, to], degrees clockwise (relative
+    bearings of a line, from 0 up to 360; push angles off square, from -180 up to 180):
+    counter-clockwise from low to high is clockwise from high to low. ``to`` is ``from``
+    plus the width for a whole circle, else taken round to the same range."""
     if sector is None:
         return None
     lo, hi = sector
-    return [num(angle_to_bearing(hi)), num(angle_to_bearing(lo))]
+    width = math.degrees(hi - lo)
+    start = num((-math.degrees(hi) + 180.0) % 360.0 - 180.0) if push else num(angle_to_bearing(hi))
+    end = start + width if width >= 360.0 - 1e-9 else (start + width) % 360.0
+    if push and end >= 180.0 and width < 360.0 - 1e-9:
+        end -= 360.0
+    return [start, num(end)]
 
 
 def _fitting_kind(project: Project, p: Placement) -> str:
@@ -156,8 +182,11 @@ def _encode_placement(project: Project, p: Placement) -> Json:
         d["lead_deg"] = num(angle_to_bearing(p.lead_rad))
         d["line_length_m"] = num(p.line_length_m)
     d["astern"] = p.astern
+    push = _fitting_kind(project, p) == "push"
+    if push:
+        d["push_pull"] = p.push_pull
     if p.lead_sector_rad is not None:
-        d["lead_sector_deg"] = _sector(p.lead_sector_rad)
+        d["lead_sector_deg"] = _sector(p.lead_sector_rad, push)
     return d
 
 

@@ -26,6 +26,7 @@ from core.mechanics.forces import (
     transfer_moment,
 )
 from core.mechanics.usable import STEEP_LINE_DEG, line_angle_rad
+from core.model.capability import WAY_WORDS, CapabilityCurve, Way
 from core.model.plan import Project, Stage
 from core.model.tugs import Placement
 from core.notices import Notice
@@ -63,17 +64,30 @@ class Load:
 
 @dataclass(frozen=True, slots=True)
 class TugLayout:
-    """Placements of the tugs working on one body, as arrays. n = number of tugs."""
+    """Placements of the tugs working on one body, as arrays. n = number of tugs.
+
+    A tug's usable pull at a lead is ``pull_scale_n`` (bollard pull x efficiency x
+    towline-angle factor x headway factor) times its capability share for the way it
+    works (``ways``, ``curves``) at the bearing of its pull off its own heading: fixed
+    on a line (``share_angle_rad``: 0 ahead, pi astern), the lead itself at a push point
+    (``share_angle_rad`` nan). A lead is an angle from ``lead_frame_rad``, the body-frame
+    direction of lead 0 (the hull's ahead for a line, the inward normal for a push).
+    """
 
     placements: tuple[Placement, ...]
     points: np.ndarray  # (n, 2) application points, body frame, m
     directions: np.ndarray  # (n, 2) unit direction of each tug's force on the body
     positions: np.ndarray  # (n, 2) where each tug is (line: end of the towline), m
     is_push: np.ndarray  # (n,) bool
-    rated_n: np.ndarray  # (n,) rated pull for the way the tug works (ahead or astern), N
-    usable_n: np.ndarray  # (n,) usable pull, N (rated x efficiency x line-angle factor)
+    rated_n: np.ndarray  # (n,) rated pull at the lead as set: bollard pull x capability share, N
+    usable_n: np.ndarray  # (n,) usable pull at the lead as set, N
     swl_n: np.ndarray  # (n,) fitting rating (TOW, else SWL), N; nan where none is given
     line_angle_rad: np.ndarray | None = None  # (n,) towline angle off the horizontal, rad
+    pull_scale_n: np.ndarray | None = None  # (n,) usable pull before the capability share, N
+    lead_frame_rad: np.ndarray | None = None  # (n,) body-frame angle of lead 0, rad
+    share_angle_rad: np.ndarray | None = None  # (n,) capability angle on a line; nan: the lead
+    ways: tuple[Way, ...] = ()  # (n,)
+    curves: tuple[CapabilityCurve | None, ...] = ()  # (n,) None: cannot work that way
 
     @property
     def pulls_n(self) -> np.ndarray:
@@ -83,19 +97,79 @@ class TugLayout:
     def without(self, index: int) -> TugLayout:
         """The same layout with tug ``index`` taken out (the others' rows as they are)."""
         keep = np.arange(len(self.placements)) != index
-        angle = None if self.line_angle_rad is None else self.line_angle_rad[keep]
-        return replace(
-            self,
-            placements=self.placements[:index] + self.placements[index + 1 :],
-            points=self.points[keep],
-            directions=self.directions[keep],
-            positions=self.positions[keep],
-            is_push=self.is_push[keep],
-            rated_n=self.rated_n[keep],
-            usable_n=self.usable_n[keep],
-            swl_n=self.swl_n[keep],
-            line_angle_rad=angle,
-        )
+
+        def cut(arr: np.ndarray | None) -> np.ndarray | None:
+            return None if arr is None else arr[keep]
+
+        fields: dict[str, object] = {
+            name: cut(getattr(self, name))
+            for name in (
+                "points",
+                "directions",
+                "positions",
+                "is_push",
+                "rated_n",
+                "usable_n",
+                "swl_n",
+                "line_angle_rad",
+                "pull_scale_n",
+                "lead_frame_rad",
+                "share_angle_rad",
+            )
+        }
+        fields["placements"] = self.placements[:index] + self.placements[index + 1 :]
+        fields["ways"] = self.ways[:index] + self.ways[index + 1 :]
+        fields["curves"] = self.curves[:index] + self.curves[index + 1 :]
+        return replace(self, **fields)  # type: ignore[arg-type]
+
+    def shares(self, i: int, leads_rad: np.ndarray) -> np.ndarray:
+        """(k,) tug ``i``'s capability share at leads (k,), rad (0 where it cannot work)."""
+        curve = self.curves[i] if self.curves else None
+        leads = np.asarray(leads_rad, dtype=float)
+        if curve is None:
+            return np.zeros_like(leads) if self.curves else np.ones_like(leads)
+        fixed = self.share_angle_rad[i] if self.share_angle_rad is not None else 0.0
+        angles = leads if math.isnan(fixed) else np.full_like(leads, fixed)
+        return curve.at_angles(angles)
+
+    def with_row(self, i: int, one: TugLayout) -> TugLayout:
+        """This layout with tug ``i``'s row taken from the one-tug layout ``one`` (the
+        drag path: one tug moved, every other row kept)."""
+
+        def put(mine: np.ndarray | None, theirs: np.ndarray | None) -> np.ndarray | None:
+            if mine is None or theirs is None:
+                return mine if theirs is None else None
+            out = mine.copy()
+            out[i] = theirs[0]
+            return out
+
+        placements = list(self.placements)
+        placements[i] = one.placements[0]
+        arrays = {
+            name: put(getattr(self, name), getattr(one, name))
+            for name in (
+                "points",
+                "directions",
+                "positions",
+                "is_push",
+                "rated_n",
+                "usable_n",
+                "swl_n",
+                "line_angle_rad",
+                "pull_scale_n",
+                "lead_frame_rad",
+                "share_angle_rad",
+            )
+        }
+        ways = list(self.ways)
+        curves = list(self.curves)
+        if ways and one.ways:
+            ways[i] = one.ways[0]
+        if curves and one.curves:
+            curves[i] = one.curves[0]
+        fields: dict[str, object] = dict(arrays)
+        fields.update(placements=tuple(placements), ways=tuple(ways), curves=tuple(curves))
+        return replace(self, **fields)  # type: ignore[arg-type]
 
     def unit_effects(self, centroid: tuple[float, float]) -> np.ndarray:
         """(3, n): force ahead, force abeam and moment about ``centroid`` per newton of pull."""
@@ -117,14 +191,33 @@ def tug_direction(
     return point, member.direction_to_body((math.cos(lead), math.sin(lead))), False
 
 
+def way_of(placement: Placement, is_push: bool) -> Way:
+    """How a tug works at its point: on a line, pushing, or push-pull (made fast)."""
+    if not is_push:
+        return "line"
+    return "push_pull" if placement.push_pull else "push"
+
+
+def lead_frame(body: Body, placement: Placement) -> float:
+    """Body-frame angle (rad) of lead 0 for a placement: the hull's ahead at a line point,
+    the inward normal at a push point."""
+    member, fitting = body.fitting(placement.hull, placement.point)
+    if fitting.kind == "push":
+        nx, ny = body.inward_normal(placement.hull, placement.point)
+        return math.atan2(ny, nx)
+    return member.heading_rad
+
+
 def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
     """Arrays of every tug placed on ``body`` in ``stage``, in placement order."""
     members = {m.hull.name for m in body.members}
     placed = tuple(p for p in stage.placements if p.hull in members)
     n = len(placed)
     points, dirs, pos = np.zeros((n, 2)), np.zeros((n, 2)), np.zeros((n, 2))
-    push, rated, swl = np.zeros(n, bool), np.zeros(n), np.full(n, np.nan)
-    bp, angle = np.zeros(n), np.zeros(n)
+    push, swl = np.zeros(n, bool), np.full(n, np.nan)
+    bp, angle, frame, fixed = np.zeros(n), np.zeros(n), np.zeros(n), np.full(n, np.nan)
+    ways: list[Way] = []
+    curves: list[CapabilityCurve | None] = []
     for i, p in enumerate(placed):
         tug = project.tug(p.tug)
         point, direction, is_push = tug_direction(body, p)
@@ -134,20 +227,32 @@ def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
             if is_push
             else np.add(point, np.multiply(direction, p.line_length_m))
         )
-        rated[i] = tug.rated_pull(p.astern)
         bp[i] = tug.bollard_pull_n
         member, f = body.fitting(p.hull, p.point)
+        frame[i] = lead_frame(body, p)
+        way = way_of(p, is_push)
+        ways.append(way)
+        curves.append(tug.capability_curves.curve(way))
         if not is_push:
             angle[i] = line_angle_rad(
                 member.hull.freeboard_m, tug.towing_point_height_m, p.line_length_m
             )
+            # On a line the tug lies along its towline: ahead it pulls at 000 of its own
+            # heading, astern at 180 (core.model.capability).
+            fixed[i] = math.pi if p.astern else 0.0
         rating = f.towing_rating_n
         if rating is not None:
             swl[i] = rating
-    # Usable pull: rated x efficiency (sea state) x cos(towline angle); see core.mechanics.usable.
+    # Usable pull: bollard pull x efficiency (sea state) x cos(towline angle) x the
+    # capability share at the lead; see core.mechanics.usable and core.model.capability.
     eff = project.tug_efficiency.efficiencies(bp, stage.conditions.sea_state)
-    usable = rated * eff * np.cos(angle)
-    return TugLayout(placed, points, dirs, pos, push, rated, usable, swl, angle)
+    scale = bp * eff * np.cos(angle)
+    layout = TugLayout(
+        placed, points, dirs, pos, push, bp.copy(), scale.copy(), swl, angle,
+        scale, frame, fixed, tuple(ways), tuple(curves),
+    )  # fmt: skip
+    share = np.array([layout.shares(i, np.array([p.lead_rad]))[0] for i, p in enumerate(placed)])
+    return replace(layout, rated_n=bp * share, usable_n=scale * share)
 
 
 def with_placement_row(
@@ -161,18 +266,7 @@ def with_placement_row(
     """
     i = next(k for k, p in enumerate(layout.placements) if p.tug == placement.tug)
     one = tug_layout(project, replace(stage, placements=(placement,)), body)
-    rows = {}
-    for name in ("points", "directions", "positions", "is_push", "rated_n", "usable_n", "swl_n"):
-        arr = getattr(layout, name).copy()
-        arr[i] = getattr(one, name)[0]
-        rows[name] = arr
-    angle = layout.line_angle_rad
-    if angle is not None and one.line_angle_rad is not None:
-        angle = angle.copy()  # the line's length changes its angle (steep line warning)
-        angle[i] = one.line_angle_rad[0]
-    placements = list(layout.placements)
-    placements[i] = placement
-    return replace(layout, placements=tuple(placements), line_angle_rad=angle, **rows)
+    return layout.with_row(i, one)
 
 
 @dataclass(frozen=True, slots=True)
@@ -332,6 +426,16 @@ def _notices(layout: TugLayout, pulls: np.ndarray, body: Body, units: DisplayUni
                         "horizontal (lengthen the line)",
                     )
                 )
+        if layout.curves and layout.curves[i] is None:
+            way = layout.ways[i]
+            out.append(
+                Notice(
+                    "way_not_possible",
+                    p.tug,
+                    f"{p.tug} cannot work {WAY_WORDS[way]} (its capability has no such way); "
+                    f"it gives no pull at {p.point}",
+                )
+            )
         key = (p.hull, p.point)
         if key in seen:
             out.append(

@@ -326,6 +326,12 @@ ASTERN_PULL = Range("astern pull", "force", 0.0, 1000 * TONNE_FORCE)
 TOWING_POINT_HEIGHT = Range("towing point height", "length", 0.0, 50.0)
 TOWLINE_LENGTH = Range("towline length", "length", 0.0, 10_000.0, above=True)
 TOWLINE_MBL = Range("towline MBL", "force", 0.0, 10_000 * TONNE_FORCE, above=True)
+#: The share of the MBL a towline's tension is warned above (core.model.tugs).
+TOWLINE_WARN_SHARE = Range("towline warning share of MBL", "plain", 0.0, 1.0, above=True)
+#: A tug's capability: usable share of its bollard pull at a relative bearing of its own
+#: heading (core.model.capability).
+CAPABILITY_SHARE = Range("capability share", "plain", 0.0, 2.0)
+CAPABILITY_BEARING = Range("capability bearing", "degrees", 0.0, 360.0)
 SETTING = Range("setting", "percent", 0.0, 1.0)
 LEAD = Range("lead", "angle", ANGLE.low, ANGLE.high)
 LINE_LENGTH = Range("line length", "length", 0.0, 5000.0, above=True)

@@ -1,16 +1,32 @@
 """Tugs and where they work.
 
-A :class:`Tug` holds the particulars entered once for the plan. A :class:`Placement`
-says, for one stage, where the tug works (a line point or a push point on a hull),
-how its line leads and how hard it is asked to work (its setting).
+A :class:`Tug` holds the particulars entered once for the plan: its pulls, its type and
+capability (:mod:`core.model.capability`) and its towline. A :class:`Placement` says,
+for one stage, where the tug works (a line point or a push point on a hull), how its
+line leads, how hard it is asked to work (its setting) and the working sector within
+which it may change its lead when the pulls are solved.
 """
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, replace
 
 from core.errors import InputError
 from core.model import rules
+from core.model.capability import Capability, TugKind, Way, default_capability, tug_kind
+
+#: Default share of a towline's minimum breaking load above which its tension is warned
+#: about (common practice, no source: harbour towlines are commonly sized at two to three
+#: times the bollard pull; ocean towing rules ask more, see shared/REFERENCES.md).
+TENSION_WARN_FRACTION = 0.5
+
+#: Astern pull as a share of the bollard pull when none is given, by kind (placeholders,
+#: as in core.model.capability; other kinds keep the pull ahead, as before types existed).
+_DEFAULT_ASTERN: dict[str, float] = {
+    "conventional single screw": 0.35,
+    "conventional twin screw": 0.5,
+}
 
 
 @dataclass(frozen=True, slots=True)
@@ -24,7 +40,9 @@ class Tug:
     astern_pull_n:
         Rated pull astern, N (defaults to the pull ahead).
     tug_type:
-        Free text: "ASD", "tractor", "conventional twin screw"...
+        Free text naming its type: "ASD", "tractor", "conventional single screw",
+        "conventional twin screw", or the user's own words (kind "other"); see
+        :attr:`kind`.
     role:
         Free text for the briefing: "centre lead forward", "pushing starboard quarter".
     towing_point_height_m:
@@ -38,6 +56,13 @@ class Tug:
         Minimum breaking load of the tug's towline, N, where known.
     call_sign, working_channel:
         The tug's radio call sign and the VHF channel it works on in this move.
+    towline_warn_fraction:
+        The towline's tension above this share of its MBL is warned about (default
+        :data:`TENSION_WARN_FRACTION`, common practice).
+    capability:
+        Usable share of the bollard pull by direction, for each way of working. None, or
+        a placeholder, takes the defaults of the tug's kind (with its astern pull), so a
+        placeholder always follows the type and the astern pull.
     """
 
     name: str
@@ -51,6 +76,8 @@ class Tug:
     towline_mbl_n: float | None = None
     call_sign: str = ""
     working_channel: str = ""
+    towline_warn_fraction: float = TENSION_WARN_FRACTION
+    capability: Capability | None = None
 
     def __post_init__(self) -> None:
         rules.NAME.check(self.name, "tug")
@@ -64,13 +91,20 @@ class Tug:
         ):
             rules.LABEL.check(getattr(self, attr), f"{subject}: {label}")
         rules.BOLLARD_PULL.check(self.bollard_pull_n, subject)
+        given_astern = self.astern_pull_n is not None
         if self.astern_pull_n is None:
-            object.__setattr__(self, "astern_pull_n", self.bollard_pull_n)
+            share = _DEFAULT_ASTERN.get(self.kind)
+            astern = self.bollard_pull_n * (1.0 if share is None else share)
+            object.__setattr__(self, "astern_pull_n", astern)
         else:
             rules.ASTERN_PULL.check(self.astern_pull_n, subject)
         rules.TOWING_POINT_HEIGHT.check_optional(self.towing_point_height_m, subject)
         rules.TOWLINE_LENGTH.check_optional(self.towline_length_m, subject)
         rules.TOWLINE_MBL.check_optional(self.towline_mbl_n, subject)
+        rules.TOWLINE_WARN_SHARE.check(self.towline_warn_fraction, subject)
+        if self.capability is None or self.capability.placeholder:
+            share = self.astern_pull / self.bollard_pull_n if given_astern else None
+            object.__setattr__(self, "capability", default_capability(self.kind, share))
 
     @property
     def astern_pull(self) -> float:
@@ -79,6 +113,36 @@ class Tug:
 
     def rated_pull(self, astern: bool) -> float:
         return self.astern_pull if astern else self.bollard_pull_n
+
+    @property
+    def kind(self) -> TugKind:
+        """The kind of tug its type names (ASD, tractor, conventional..., or other)."""
+        return tug_kind(self.tug_type)
+
+    @property
+    def capability_curves(self) -> Capability:
+        """The capability in force (never None once constructed)."""
+        cap = self.capability
+        if cap is None:  # pragma: no cover - filled in by __post_init__
+            raise InputError(f"tug {self.name}: capability", None, "is missing")
+        return cap
+
+    def share(self, way: Way, bearing_deg: float) -> float:
+        """Usable share of the bollard pull working ``way`` at a relative bearing of its
+        own heading (0 when the tug cannot work that way)."""
+        curve = self.capability_curves.curve(way)
+        return 0.0 if curve is None else curve.at_bearing(bearing_deg)
+
+    def with_capability(self, capability: Capability | None) -> Tug:
+        """The tug with a new capability (None: the defaults of its kind)."""
+        return replace(self, capability=capability)
+
+    @property
+    def towline_warn_tension_n(self) -> float | None:
+        """Tension above which the towline is warned about, N (None without an MBL)."""
+        if self.towline_mbl_n is None:
+            return None
+        return self.towline_mbl_n * self.towline_warn_fraction
 
 
 @dataclass(frozen=True, slots=True)
@@ -100,10 +164,14 @@ class Placement:
     line_length_m:
         Line point: horizontal length of towline from the fitting to the tug, m.
     astern:
-        The tug works astern (uses its astern pull).
+        The tug works astern (on a line: it pulls at 180 of its own heading).
     lead_sector_rad:
-        Optional (low, high) limits on the lead for solving, in the same frame as
-        ``lead_rad``, counter-clockwise from low to high.
+        Optional working sector: (low, high) limits on the lead for solving, in the same
+        frame as ``lead_rad``, counter-clockwise from low to high; kept with ``low`` in
+        (-pi, pi] and 0 <= high - low <= 2 pi (a whole circle for a push-pull tug).
+    push_pull:
+        At a push point: the tug is made fast there and can push or pull (push-pull);
+        otherwise it only pushes. No meaning at a line point.
     """
 
     tug: str
@@ -114,6 +182,7 @@ class Placement:
     line_length_m: float = 30.0
     astern: bool = False
     lead_sector_rad: tuple[float, float] | None = None
+    push_pull: bool = False
 
     def __post_init__(self) -> None:
         rules.NAME.check(self.tug, "placement: tug")
@@ -129,7 +198,17 @@ class Placement:
                 raise InputError(f"{subject}: lead sector", sector, "must be two angles")
             lo = rules.LEAD.check(sector[0], f"{subject}: lead sector")
             hi = rules.LEAD.check(sector[1], f"{subject}: lead sector")
-            object.__setattr__(self, "lead_sector_rad", (lo, hi))
+            object.__setattr__(self, "lead_sector_rad", sector_span(lo, hi))
+
+    @property
+    def sector_width_rad(self) -> float:
+        """Width of the working sector, rad (0 without one)."""
+        if self.lead_sector_rad is None:
+            return 0.0
+        return self.lead_sector_rad[1] - self.lead_sector_rad[0]
+
+    def with_sector(self, sector: tuple[float, float] | None) -> Placement:
+        return replace(self, lead_sector_rad=sector)
 
     def with_setting(self, setting: float) -> Placement:
         return replace(self, setting=float(setting))
@@ -140,3 +219,18 @@ class Placement:
 
     def at_point(self, hull: str, point: str) -> Placement:
         return replace(self, hull=hull, point=point)
+
+
+def sector_span(low_rad: float, high_rad: float) -> tuple[float, float]:
+    """A sector counter-clockwise from ``low_rad`` to ``high_rad`` as (low, high) with low
+    in (-pi, pi] and 0 <= high - low <= 2 pi. A difference of a whole turn or more is
+    the whole circle; otherwise the difference is taken modulo a turn."""
+    tau = 2 * math.pi
+    lo = math.remainder(low_rad, tau)
+    if lo <= -math.pi:
+        lo += tau
+    diff = high_rad - low_rad
+    width = tau if diff >= tau - 1e-12 else diff % tau
+    if width > tau - 1e-12:
+        width = 0.0 if diff < tau - 1e-12 else tau
+    return (lo, lo + width)

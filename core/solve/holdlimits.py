@@ -1,68 +1,164 @@
-"""The hold limits plot: the highest wind the fleet can hold from each direction.
+"""The hold limits plot: the highest wind (or current) the fleet can hold from each direction.
 
-For wind from each true direction b (the current as set), the largest s with
+For the flow from each true direction b (the other flow as set), the largest s with
 
-    B f + tau_current + s tau_wind(b) = 0,   0 <= f_i <= u_i
+    sum_i w_i = target - tau_fixed - s tau_unit(b),   w_i in W_i
 
-where B (3 x n) holds each tug's force ahead, force to port and yaw moment about the
-centroid per newton of pull (at the leads as set), u_i the usable pulls and
-tau_wind(b) the wind's load at 1 m/s. Wind load grows with the square of speed, so
-the limiting wind is V_max = sqrt(s) m/s, in the same measure as the stage's wind
-(mean speed at its stated height, with its gust factor). This is a quasi-static
-force balance with a co-linear environment raised until the pulls just hold it,
-swept over directions (as in DNV-ST-0111's level 1 capability assessment).
+where W_i is tug i's set of wrenches (force ahead, force to port, moment about the
+centroid) within its working sector and capability (core.mechanics.tugsets; with the
+lead as set, the segment up to its usable pull), ``target`` the stage goal's wrench
+(zero for a hold; a walk's force, a swing's moment: "the highest wind at which the goal
+can still be met"), tau_fixed the other flow's load as set and tau_unit(b) the swept
+flow's load at 1 m/s. Loads grow with the square of speed, so the limiting speed is
+V_max = sqrt(s) m/s, in the same measure as the stage's (for wind: the mean at its
+stated height, with its gust factor). This is a quasi-static force balance with a
+co-linear environment raised until the pulls just hold it, swept over directions (as
+in DNV-ST-0111's level 1 capability assessment).
 
-The method: the set of tug wrenches {B f : 0 <= f <= u} is a zonotope, the
-Minkowski sum of the segments [0, u_i b_i]. Its facet normals are among the cross
-products of pairs of generators, so its half-spaces n.x <= h(n), with
-h(n) = sum_i max(0, n . u_i b_i), are enumerated once (O(n^2)); the limit for every
-direction is then the exit of the ray -tau_current - s tau_wind(b) from the
-zonotope, for all directions at once with numpy. With one tug lost, the same normals
-serve (every normal gives a valid half-space, and the facet normals of the smaller
-zonotope are among them), with h less that tug's part.
+The fleet's set is the Minkowski sum of the tugs' polygons; its half-spaces are worked
+out once (core.solve.polytope) and every direction's ray is cut with them at once with
+numpy. With one tug lost the same half-spaces serve, less that tug's part.
 """
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, replace
+from typing import Literal
 
 import numpy as np
 
 from core.mechanics.balance import TugLayout, tug_layout
 from core.mechanics.bodies import stage_body
-from core.mechanics.forces import moment_of
 from core.mechanics.loads import current_model, flow_angle_rad, wind_model
+from core.mechanics.tugsets import SECTOR_STEP_DEG, tug_sets
+from core.model.goals import Goal
 from core.model.plan import Project, Stage
+from core.solve.polytope import (
+    Exit,
+    Facets,
+    WrenchPolygons,
+    facets,
+    lost_exits,
+    ray_exit,
+    support_parts,
+    zonotope_normals,
+)
+from core.solve.reach import Reach
+from core.solve.walk import facet_triangles, walk
+from core.units import DisplayUnits
 
-_SLACK_TOL = 1e-9  # scaled units: how far outside the zonotope still counts as inside
-_DEN_TOL = 1e-10  # a ray this close to parallel to a facet does not leave through it
+__all__ = [
+    "HoldLimits",
+    "HoldLimitsProblem",
+    "hold_limits",
+    "hold_limits_problem",
+    "limit_at",
+    "limit_words",
+    "live_hold_limits",
+    "zonotope_normals",
+]
+
+Flow = Literal["wind", "current"]
+KNOT = 1852.0 / 3600.0
+#: The sweep is first made with sector polygons this many times coarser (core.solve.walk).
+SWEEP_NEST = 3
+#: Limits above these are shown as "above N" (a number beyond them says nothing more).
+SHOWN_UP_TO_MS: dict[str, float] = {"wind": 60.0 * KNOT, "current": 8.0 * KNOT}
 
 
 @dataclass(frozen=True, slots=True, eq=False)
 class HoldLimitsProblem:
-    """One body in one stage, ready for the sweep over wind directions (D directions)."""
+    """One body in one stage, ready for the sweep over directions (D directions).
+
+    ``fixed`` is the load that stays as set (the current, when the wind is swept);
+    ``target`` what tugs and loads together must give (the stage's goal). ``coarse``
+    holds the tugs' polygons with :data:`SWEEP_NEST` times fewer sector vertices, each
+    one a vertex of ``shapes`` (None: the same as ``shapes``).
+    """
 
     stage: str
     body: str
     heading_deg: float
     tugs: tuple[str, ...]  # (n,)
-    generators: np.ndarray  # (3, n): each tug's wrench at its usable pull, N and N*m
-    fixed: np.ndarray  # (3,) the current's load (and any other fixed load)
-    wind_unit: np.ndarray  # (3, D): wind load at 1 m/s of the stage's wind measure
-    directions_deg: np.ndarray  # (D,) true bearings the wind blows from
+    shapes: WrenchPolygons  # each tug's reachable forces and its arm
+    fixed: np.ndarray  # (3,) the load that stays as set
+    wind_unit: np.ndarray  # (3, D): the swept flow's load at 1 m/s of the stage's measure
+    directions_deg: np.ndarray  # (D,) true bearings the flow comes from (wind) or sets to
     length_m: float
+    target: np.ndarray | None = None  # (3,) the goal's wrench; None: hold (zero)
+    flow: Flow = "wind"
+    goal_kind: str = "hold"
+    coarse: WrenchPolygons | None = None
+
+    @property
+    def generators(self) -> np.ndarray:
+        """(3, n) each tug's wrench at its usable pull, for tugs at their leads as set
+        (the far end of each segment)."""
+        cols = []
+        for i, poly in enumerate(self.shapes.polygons):
+            if not len(poly):
+                cols.append(np.zeros(3))
+                continue
+            far = poly[int(np.argmax(np.hypot(poly[:, 0], poly[:, 1])))]
+            cols.append(self.shapes.wrench(i, far)[:, 0])
+        return np.array(cols).T if cols else np.zeros((3, 0))
+
+    @property
+    def start(self) -> np.ndarray:
+        """(3,) what the tugs must give with no swept flow: the goal less the fixed load."""
+        t = np.zeros(3) if self.target is None else self.target
+        return t - self.fixed
 
     def scaled(self, factor: float) -> HoldLimitsProblem:
         """Every usable pull times ``factor`` (for what-if and for checks)."""
-        return replace(self, generators=self.generators * factor)
+        coarse = None if self.coarse is None else self.coarse.scaled(factor)
+        return replace(self, shapes=self.shapes.scaled(factor), coarse=coarse)
 
     def without(self, tug: str) -> HoldLimitsProblem:
         i = self.tugs.index(tug)
+        coarse = None if self.coarse is None else self.coarse.without(i)
         return replace(
             self,
             tugs=self.tugs[:i] + self.tugs[i + 1 :],
-            generators=np.delete(self.generators, i, axis=1),
+            shapes=self.shapes.without(i),
+            coarse=coarse,
         )
+
+
+def _flow_unit(
+    project: Project, stage: Stage, body_name: str, flow: Flow, dirs: np.ndarray
+) -> tuple[np.ndarray, np.ndarray]:
+    """(unit loads (3, D) of the swept flow, fixed load (3,) of the other as set)."""
+    b = stage_body(project, stage, body_name)
+    c = stage.conditions
+    heading = stage.pose_of(b.name).heading_deg
+
+    def wind_of(angles: np.ndarray) -> np.ndarray:
+        wind = wind_model(b, c)
+        return wind.wrenches(angles, b.centroid)
+
+    def current_of(angles: np.ndarray) -> np.ndarray:
+        cm = current_model(b, c)
+        return cm.wrenches(angles, b.centroid)
+
+    if flow == "wind":
+        # 1 m/s of the stage's wind measure is (gust / height factor) m/s at 10 m in the load.
+        design_per_ms = c.gust_factor / (c.wind_height_m / 10.0) ** c.wind_exponent
+        rel = (dirs + 180.0 - heading) % 360.0
+        unit = wind_of(-np.radians(rel)) * design_per_ms**2
+        fixed = np.zeros(3)
+        if c.current_speed_ms > 0:
+            ang = np.array([flow_angle_rad(c.current_towards_deg, heading)])
+            fixed = current_of(ang)[:, 0] * c.current_speed_ms**2
+        return unit, fixed
+    rel = (dirs - heading) % 360.0  # the current sets towards each direction
+    unit = current_of(-np.radians(rel))
+    fixed = np.zeros(3)
+    if c.wind_speed_ms > 0:
+        ang = np.array([flow_angle_rad(c.wind_from_deg + 180.0, heading)])
+        fixed = wind_of(ang)[:, 0] * c.design_wind_ms**2
+    return unit, fixed
 
 
 def hold_limits_problem(
@@ -72,55 +168,64 @@ def hold_limits_problem(
     *,
     directions_deg: np.ndarray | None = None,
     layout: TugLayout | None = None,
+    flow: Flow = "wind",
+    goal: Goal | None = None,
+    sector_step_deg: float = SECTOR_STEP_DEG,
 ) -> HoldLimitsProblem:
-    """Describe the sweep; raises InputError when the wind area cannot be found.
+    """Describe the sweep; raises InputError when a needed area cannot be found.
 
-    ``layout`` may lend the body's tug layout already worked out for this stage."""
+    ``flow`` is the one swept ("wind", or "current" with the wind as set); ``goal``
+    defaults to the stage's (a hold when it has none). ``layout`` may lend the body's
+    tug layout already worked out for this stage.
+    """
     b = stage_body(project, stage, body)
     if layout is None:
         layout = tug_layout(project, stage, b)
-    c = stage.conditions
     heading = stage.pose_of(b.name).heading_deg
     dirs = np.arange(360.0) if directions_deg is None else np.asarray(directions_deg, float)
-    wind = wind_model(b, c)
-    # 1 m/s of the stage's wind measure is (gust / height factor) m/s at 10 m in the load.
-    design_per_ms = c.gust_factor / (c.wind_height_m / 10.0) ** c.wind_exponent
-    rel = (dirs + 180.0 - heading) % 360.0
-    wind_unit = wind.wrenches(-np.radians(rel), b.centroid) * design_per_ms**2
-    fixed = np.zeros(3)
-    if c.current_speed_ms > 0:
-        cm = current_model(b, c)
-        fx, fy = cm.force(c.current_speed_ms, flow_angle_rad(c.current_towards_deg, heading))
-        fixed = np.array([fx, fy, moment_of(cm.point, (fx, fy), b.centroid)])
-    gens = layout.unit_effects(b.centroid) * layout.usable_n  # (3, n)
+    unit, fixed = _flow_unit(project, stage, b.name, flow, dirs)
+    sets = tug_sets(layout, b.centroid, step_deg=sector_step_deg, nest=SWEEP_NEST)
+    g = goal or stage.goal or Goal("hold")
+    coarse = None
+    if sets.sectors.any():
+        rough = tug_sets(layout, b.centroid, step_deg=sector_step_deg * SWEEP_NEST)
+        coarse = WrenchPolygons(rough.polygons, rough.arms())
     return HoldLimitsProblem(
         stage=stage.name,
         body=b.name,
         heading_deg=heading,
         tugs=tuple(p.tug for p in layout.placements),
-        generators=gens,
+        shapes=WrenchPolygons(sets.polygons, sets.arms()),
         fixed=fixed,
-        wind_unit=wind_unit,
+        wind_unit=unit,
         directions_deg=dirs,
         length_m=b.length,
+        target=np.asarray(g.target(), dtype=float),
+        flow=flow,
+        goal_kind=g.kind,
+        coarse=coarse,
     )
 
 
 @dataclass(frozen=True, slots=True, eq=False)
 class HoldLimits:
-    """Limiting wind speed per direction, m/s, all tugs and with each tug lost.
+    """Limiting speed per direction, m/s, all tugs and with each tug lost.
 
-    A speed of 0 means the fleet cannot hold the body against any wind from that
-    direction. When the fleet cannot hold the current alone (``holds_current`` False),
-    a wind from some directions may help: there the body is held only between
-    ``all_tugs_min_ms`` and ``all_tugs_ms``.
+    A speed of 0 means the fleet cannot meet the goal against any flow from that
+    direction. When the fleet cannot meet it with the other flow alone
+    (``holds_current`` False), the swept flow from some directions may help: there the
+    goal is met only between ``all_tugs_min_ms`` and ``all_tugs_ms``.
     """
 
     problem: HoldLimitsProblem
     all_tugs_ms: np.ndarray  # (D,)
     lost_ms: np.ndarray  # (n, D): row i with tug i lost
     holds_current: bool
-    all_tugs_min_ms: np.ndarray | None = None  # (D,) below this the current wins (all tugs)
+    all_tugs_min_ms: np.ndarray | None = None  # (D,) below this the fixed load wins (all tugs)
+
+    @property
+    def flow(self) -> Flow:
+        return self.problem.flow
 
     @property
     def worst_lost_ms(self) -> np.ndarray:
@@ -145,92 +250,163 @@ class HoldLimits:
 
 
 def _scales(problem: HoldLimitsProblem) -> np.ndarray:
-    u = float(np.abs(problem.generators[:2]).max(initial=0.0)) or 1.0
+    big = max((float(np.abs(p).max()) for p in problem.shapes.polygons if len(p)), default=0.0)
+    u = big or 1.0
     return np.array([1.0, 1.0, 1.0 / max(problem.length_m, 1.0)]) / u
 
 
-def zonotope_normals(gens: np.ndarray) -> np.ndarray:
-    """(P, 3) unit normals that include every facet normal of the zonotope of ``gens`` (3, n).
-
-    Cross products of every pair of generators; when the generators span less than
-    three dimensions, also the directions out of their span and the crosses with them.
-    """
-    norms = np.linalg.norm(gens, axis=0)
-    big = max(float(norms.max(initial=0.0)), 1e-300)
-    g = gens[:, norms > 1e-12 * big].T  # (q, 3)
-    if len(g) >= 3:  # the usual case first: the pairs' normals, if the set is solid
-        i, j = np.triu_indices(len(g), 1)
-        cr = np.cross(g[i], g[j])
-        size = np.linalg.norm(cr, axis=1)
-        keep = size > 1e-9 * norms[norms > 1e-12 * big][i] * norms[norms > 1e-12 * big][j]
-        if keep.any():
-            normals = cr[keep] / size[keep, None]
-            if float(np.abs(normals @ g.T).max()) > 1e-9 * big:
-                return np.vstack([normals, -normals])
-    if len(g):
-        u, sv, _ = np.linalg.svd(g.T)
-        rank = int((sv > 1e-9 * sv[0]).sum())
-    else:
-        u, rank = np.eye(3), 0
-    comp = u[:, rank:].T  # (3 - rank, 3) directions out of the span
-    vecs = np.vstack([g, comp])
-    i, j = np.triu_indices(len(vecs), 1)
-    cr = np.cross(vecs[i], vecs[j])
-    size = np.linalg.norm(cr, axis=1)
-    scale = np.linalg.norm(vecs[i], axis=1) * np.linalg.norm(vecs[j], axis=1)
-    keep = size > 1e-9 * scale
-    normals = np.vstack([cr[keep] / size[keep, None], comp])
-    return np.vstack([normals, -normals])
-
-
-def _rank(gens: np.ndarray) -> int:
-    if gens.shape[1] == 0:
-        return 0
-    sv = np.linalg.svd(gens, compute_uv=False)
-    return int((sv > 1e-9 * max(float(sv[0]), 1e-300)).sum())
+def _scaled_shapes(shapes: WrenchPolygons, sc: np.ndarray) -> WrenchPolygons:
+    """The polygons in scaled rows: forces x sc[0], arms so that moments come x sc[2]."""
+    k = sc[2] / sc[0]  # the moment row is scaled by 1 / length more than the forces
+    return WrenchPolygons(tuple(p * sc[0] for p in shapes.polygons), shapes.arms * k)
 
 
 @dataclass(frozen=True, slots=True, eq=False)
-class _Rays:
-    """The swept rays against one set of half-space normals (P normals, D directions)."""
+class _Sweep:
+    fac: Facets  # half-spaces of the coarse set
+    parts: np.ndarray  # (P, n)
+    start: np.ndarray  # (3,)
+    rays: np.ndarray  # (3, D)
+    full: Exit  # the coarse set's exits
+    s_out: np.ndarray  # (D,) the exits carried to the fine set
+    shapes: WrenchPolygons  # fine, scaled
+    coarse: WrenchPolygons  # coarse, scaled (the same object when nothing is coarser)
 
-    den: np.ndarray  # (P, D): n . d
-    inv_den: np.ndarray  # (P, D): 1 / (n . d) where the ray leaves through n, else 0
-    blocked: np.ndarray  # (P, D): 0 where the ray leaves through n, else inf
-    tol: np.ndarray  # (D,) below this |n . d| the ray runs along the half-space's face
-
-
-def _rays(normals: np.ndarray, rays: np.ndarray) -> _Rays:
-    den = normals @ rays
-    tol = _DEN_TOL * np.linalg.norm(rays, axis=0)
-    leaves = den > tol
-    with np.errstate(divide="ignore"):
-        inv_den = np.where(leaves, 1.0 / np.where(leaves, den, 1.0), 0.0)
-    return _Rays(den, inv_den, np.where(leaves, 0.0, np.inf), tol)
+    @property
+    def normals(self) -> np.ndarray:
+        return self.fac.normals
 
 
-def _exit(
-    normals: np.ndarray, support: np.ndarray, start: np.ndarray, r: _Rays
-) -> tuple[np.ndarray, np.ndarray, bool]:
-    """Where each ray start + s d (s >= 0) is inside {n.x <= h}: (s_out, s_in, start inside).
+def _sweep(problem: HoldLimitsProblem) -> _Sweep:
+    sc = _scales(problem)
+    shapes = _scaled_shapes(problem.shapes, sc)
+    coarse = shapes if problem.coarse is None else _scaled_shapes(problem.coarse, sc)
+    start = problem.start * sc
+    rays = -problem.wind_unit * sc[:, None]
+    fac = facets(coarse)
+    parts = support_parts(fac.normals, coarse)
+    full = ray_exit(fac.normals, parts.sum(axis=1), start, rays)
+    s_out = full.s_out
+    if coarse is not shapes and full.inside:
+        s_out = _refine(shapes, coarse, fac, full.facet, start, rays, s_out)
+    return _Sweep(fac, parts, start, rays, full, s_out, shapes, coarse)
 
-    s_out is the largest such s and s_in the smallest (both (D,)); where no s >= 0 is
-    inside, both are 0. When the start is inside, s_in = 0 everywhere.
-    """
-    slack = support - normals @ start  # (P,)
-    slack[np.abs(slack) < 1e-13] = 0.0  # rounding on faces through the start
-    if slack.min(initial=0.0) >= -_SLACK_TOL:
-        s_out = (np.maximum(slack, 0.0)[:, None] * r.inv_den + r.blocked).min(axis=0)
-        return s_out, np.zeros_like(s_out), True
-    # The start is outside (the current alone cannot be held): some wind may help.
-    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        ratio = slack[:, None] / r.den
-    s_out = (np.maximum(slack, 0.0)[:, None] * r.inv_den + r.blocked).min(axis=0)
-    enters = r.den < -r.tol
-    s_in = np.maximum(np.where(enters, ratio, -np.inf).max(axis=0, initial=-np.inf), 0.0)
-    stuck = ((np.abs(r.den) <= r.tol) & (slack[:, None] < -_SLACK_TOL)).any(axis=0)
-    never = stuck | (s_in > s_out * (1 + 1e-9) + _SLACK_TOL)
-    return np.where(never, 0.0, s_out), np.where(never, 0.0, s_in), False
+
+def _refine(
+    shapes: WrenchPolygons,
+    coarse: WrenchPolygons,
+    fac: Facets,
+    facet: np.ndarray,
+    start: np.ndarray,
+    rays: np.ndarray,
+    s: np.ndarray,
+    lost: np.ndarray | None = None,
+) -> np.ndarray:
+    """The coarse exits (D,) carried to the fine set by walking from the coarse faces."""
+    d = rays.T  # (D, 3)
+    st = np.broadcast_to(start, d.shape)
+    tri, ok = facet_triangles(coarse, fac, facet, st, d, s, lost)
+    out = s.copy()
+    if ok.any():
+        idx = np.flatnonzero(ok)
+        lost_i = None if lost is None else lost[idx]
+        s_fine, _, _ = walk(shapes, st[idx], d[idx], tri[idx], lost_i)
+        good = np.isfinite(s_fine)
+        out[idx[good]] = np.maximum(s[idx[good]], s_fine[good])
+    # where the coarse face gave no triangle (an exit on an edge or a corner of the set),
+    # the ray's own first triangle and walk, one ray at a time
+    for j in np.flatnonzero(~ok & (facet >= 0) & np.isfinite(s)):
+        rest = shapes if lost is None or lost[j] < 0 else shapes.without(int(lost[j]))
+        got = Reach(rest, (float(start[0]), float(start[1]), float(start[2]))).exit(
+            (float(d[j, 0]), float(d[j, 1]), float(d[j, 2]))
+        )
+        if got is not None and math.isfinite(got[0]):
+            out[j] = max(out[j], got[0])
+    return out
+
+
+def _lost(sw: _Sweep, every: int = 1) -> np.ndarray:
+    """(n, D') the sweep with each tug lost, on every ``every``-th direction."""
+    rays = sw.rays[:, ::every]
+    n = sw.parts.shape[1]
+    out = np.zeros((n, rays.shape[1]))
+    if not n:
+        return out
+    full = sw.full
+    if every != 1:
+        full = Exit(full.s_out[::every], full.s_in[::every], full.inside, full.facet[::every])
+    normals = sw.normals
+    support = sw.parts.sum(axis=1)
+    slack = (support - normals @ sw.start)[:, None] - sw.parts  # (P, n)
+    inside = slack.min(axis=0) >= -1e-9
+    solid = _ranks_without_each(sw.coarse) == 3
+    fast = np.flatnonzero(inside & solid & full.inside)
+    finer = sw.coarse is not sw.shapes
+    if len(fast):
+        owners = sw.fac.owners() if finer else None
+        s_c, which = lost_exits(normals, sw.parts, sw.start, rays, full, fast, finer, owners)
+        if finer:
+            lost = np.repeat(fast, rays.shape[1])
+            flat = _refine_lost(sw, rays, s_c.ravel(), which.ravel(), lost)
+            s_c = flat.reshape(s_c.shape)
+        out[fast] = s_c
+    for k in np.flatnonzero(~np.isin(np.arange(n), fast)):
+        if solid[k]:
+            ex = ray_exit(normals, support - sw.parts[:, k], sw.start, rays)
+            out[k] = ex.s_out
+            if finer and ex.inside:
+                lost = np.full(rays.shape[1], int(k))
+                out[k] = _refine(
+                    sw.shapes, sw.coarse, sw.fac, ex.facet, sw.start, rays, ex.s_out, lost
+                )
+            continue
+        # losing this tug flattens the set: its own half-spaces are needed
+        rest, fine = sw.coarse.without(int(k)), sw.shapes.without(int(k))
+        fac = facets(rest)
+        ex = ray_exit(fac.normals, support_parts(fac.normals, rest).sum(axis=1), sw.start, rays)
+        out[k] = ex.s_out
+        if finer and ex.inside:
+            out[k] = _refine(fine, rest, fac, ex.facet, sw.start, rays, ex.s_out)
+    return out
+
+
+def _refine_lost(
+    sw: _Sweep, rays: np.ndarray, s: np.ndarray, facet: np.ndarray, lost: np.ndarray
+) -> np.ndarray:
+    """Coarse exits with tug ``lost[r]`` lost, for rays tiled tug by tug, made fine."""
+    m = len(s) // rays.shape[1]
+    tiled = np.tile(rays, (1, m))  # (3, m D), row r is direction r % D
+    return _refine(sw.shapes, sw.coarse, sw.fac, facet, sw.start, tiled, s, lost)
+
+
+def _ranks_without_each(shapes: WrenchPolygons) -> np.ndarray:
+    """(n,) rank of the fleet's wrench set with each tug left out."""
+    verts, tug = shapes.vertices()
+    out = np.zeros(shapes.n, dtype=int)
+    for k in range(shapes.n):
+        v = verts[:, tug != k]
+        if v.shape[1] == 0:
+            continue
+        sv = np.linalg.svd(v, compute_uv=False)
+        out[k] = int((sv > 1e-9 * max(float(sv[0]), 1e-300)).sum())
+    return out
+
+
+#: Load factors below this (scaled units) are rounding, not a limit: shown as 0.
+_S_TINY = 1e-10
+
+
+def _speed(s: np.ndarray) -> np.ndarray:
+    """Limiting speed from the load factor: V = sqrt(s), 0 for rounding below _S_TINY."""
+    return np.sqrt(np.where(s < _S_TINY, 0.0, s))
+
+
+def hold_limits(problem: HoldLimitsProblem, *, with_lost: bool = True) -> HoldLimits:
+    """Sweep every direction, all tugs and (``with_lost``) each tug lost. Without
+    ``with_lost`` the lost rows are left empty (n = 0)."""
+    sw = _sweep(problem)
+    lost = _lost(sw) if with_lost else np.zeros((0, sw.rays.shape[1]))
+    return HoldLimits(problem, _speed(sw.s_out), _speed(lost), sw.full.inside, _speed(sw.full.s_in))
 
 
 def live_hold_limits(
@@ -241,101 +417,39 @@ def live_hold_limits(
 
     Returns (limits without lost rows, lost directions (D',), worst lost m/s (D',)).
     """
-    sc = _scales(problem)
-    gens = problem.generators * sc[:, None]
-    start = -problem.fixed * sc
-    rays = -problem.wind_unit * sc[:, None]
-    normals = zonotope_normals(gens)
-    parts = np.maximum(normals @ gens, 0.0)
-    support = parts.sum(axis=1)
-    terms = _rays(normals, rays)
-    s_all, s_min, holds = _exit(normals, support, start, terms)
+    sw = _sweep(problem)
     limits = HoldLimits(
-        problem, np.sqrt(s_all), np.zeros((0, rays.shape[1])), holds, np.sqrt(s_min)
+        problem,
+        _speed(sw.s_out),
+        np.zeros((0, sw.rays.shape[1])),
+        sw.full.inside,
+        _speed(sw.full.s_in),
     )
-    if lost_step <= 0:  # the all-tugs curve alone
+    if lost_step <= 0:
         return limits, problem.directions_deg[:0], np.zeros(0)
     k = int(lost_step)
-    sub = _Rays(terms.den[:, ::k], terms.inv_den[:, ::k], terms.blocked[:, ::k], terms.tol[::k])
-    lost = np.zeros((gens.shape[1], sub.den.shape[1]))
-    if len(lost):
-        _lost_sweeps(lost, gens, normals, parts, support, start, rays[:, ::k], sub)
-    worst = np.sqrt(lost.min(axis=0)) if len(lost) else np.zeros(sub.den.shape[1])
+    lost = _lost(sw, k)
+    worst = _speed(lost.min(axis=0)) if len(lost) else np.zeros(sw.rays[:, ::k].shape[1])
     return limits, problem.directions_deg[::k], worst
 
 
-def hold_limits(problem: HoldLimitsProblem, *, with_lost: bool = True) -> HoldLimits:
-    """Sweep every direction, all tugs and (``with_lost``) each tug lost, by ray-zonotope
-    intersection. Without ``with_lost`` the lost rows are left empty (n = 0)."""
-    sc = _scales(problem)
-    gens = problem.generators * sc[:, None]  # (3, n)
-    start = -problem.fixed * sc  # (3,)
-    rays = -problem.wind_unit * sc[:, None]  # (3, D)
-    normals = zonotope_normals(gens)
-    parts = np.maximum(normals @ gens, 0.0)  # (P, n)
-    support = parts.sum(axis=1)
-
-    terms = _rays(normals, rays)
-    s_all, s_min, holds = _exit(normals, support, start, terms)
-    n = gens.shape[1]
-    lost = np.zeros((n if with_lost else 0, rays.shape[1]))
-    if len(lost):
-        _lost_sweeps(lost, gens, normals, parts, support, start, rays, terms)
-    return HoldLimits(problem, np.sqrt(s_all), np.sqrt(lost), holds, np.sqrt(s_min))
-
-
-def _ranks_without_each(gens: np.ndarray) -> np.ndarray:
-    """(n,) rank of the generators with each one left out, in one batched SVD."""
-    n = gens.shape[1]
-    if n <= 1:
-        return np.zeros(n, dtype=int)
-    keep = np.array([[j for j in range(n) if j != k] for k in range(n)])  # (n, n - 1)
-    sv = np.linalg.svd(np.transpose(gens[:, keep], (1, 0, 2)), compute_uv=False)  # (n, m)
-    top = np.maximum(sv[:, :1], 1e-300)
-    return (sv > 1e-9 * top).sum(axis=1)
-
-
-def _lost_sweeps(
-    lost: np.ndarray,
-    gens: np.ndarray,
-    normals: np.ndarray,
-    parts: np.ndarray,
-    support: np.ndarray,
-    start: np.ndarray,
-    rays: np.ndarray,
-    terms: _Rays,
-) -> None:
-    """Fill ``lost`` (n, D): the sweep with each tug lost.
-
-    Where losing the tug keeps the zonotope solid and the current inside it (the usual
-    case), the half-spaces of the full set serve with that tug's part taken off their
-    support, for many tugs in one array operation; otherwise that tug gets its own sweep.
-    """
-    full_rank = _rank(gens)
-    slack = (support - normals @ start)[:, None] - parts  # (P, n)
-    slack[np.abs(slack) < 1e-13] = 0.0
-    fast = (_ranks_without_each(gens) == full_rank) & (slack.min(axis=0) >= -_SLACK_TOL)
-    idx = np.flatnonzero(fast)
-    p, d = terms.inv_den.shape
-    chunk = max(1, 100_000 // max(p * d, 1))
-    for c0 in range(0, len(idx), chunk):
-        ks = idx[c0 : c0 + chunk]
-        sl = np.maximum(slack[:, ks], 0.0).T[:, :, None]  # (m, P, 1)
-        lost[ks] = (sl * terms.inv_den[None] + terms.blocked[None]).min(axis=1)
-    for k in np.flatnonzero(~fast):
-        rest = np.delete(gens, k, axis=1)
-        if _rank(rest) == full_rank:
-            lost[k] = _exit(normals, support - parts[:, k], start, terms)[0]
-        else:  # losing this tug flattens the zonotope: its own normals are needed
-            ns = zonotope_normals(rest)
-            h = np.maximum(ns @ rest, 0.0).sum(axis=1)
-            lost[k] = _exit(ns, h, start, _rays(ns, rays))[0]
-
-
 def limit_at(limits: HoldLimits, wind_from_deg: float, curve: np.ndarray | None = None) -> float:
-    """The limit for wind from ``wind_from_deg`` (linear between swept directions)."""
+    """The limit for the flow from ``wind_from_deg`` (linear between swept directions)."""
     v = limits.all_tugs_ms if curve is None else curve
     d = limits.problem.directions_deg
     if not np.all(np.isfinite(v)):
         return float(v[int(np.argmin(np.abs((d - wind_from_deg + 180) % 360 - 180)))])
     return float(np.interp(wind_from_deg % 360.0, np.append(d, d[0] + 360.0), np.append(v, v[0])))
+
+
+def limit_words(speed_ms: float, units: DisplayUnits, flow: Flow = "wind") -> str:
+    """A limit for people: "above 60.0 kn" beyond :data:`SHOWN_UP_TO_MS`, else the speed.
+
+    A limit of zero is "none": the fleet cannot meet the goal against any of that flow.
+    """
+    cap = SHOWN_UP_TO_MS[flow]
+    if not math.isfinite(speed_ms) or speed_ms > cap:
+        return f"above {units.show(cap, 'speed')}"
+    if speed_ms <= 0:
+        return "none"
+    return units.show(speed_ms, "speed")

@@ -10,6 +10,11 @@ rule picks the entering column; after many pivots it switches to Bland's rule,
 which cannot cycle. ``scipy.optimize.linprog`` (HiGHS) is its reference in the tests.
 
 The caller scales the rows so that the entries are of order one.
+
+``BACKEND`` picks the solver: "own" (this one) or "highs" (scipy's HiGHS through
+``scipy.optimize.linprog``). benchmarks/solve.py times both, paired, on the program's
+own problems: for the few rows and few columns the solves ask (the faces of the
+fleet's set, the coarse closest state), this one is quicker, so it is the default.
 """
 
 from __future__ import annotations
@@ -20,6 +25,10 @@ from typing import Literal
 import numpy as np
 
 LpStatus = Literal["optimal", "infeasible", "unbounded", "iteration_limit"]
+Backend = Literal["own", "highs"]
+
+#: Which solver solve_lp uses (see the module's docstring).
+BACKEND: Backend = "own"
 
 _TOL = 1e-9  # optimality and feasibility tolerance, on scaled rows
 _PIVOT = 1e-11  # smallest pivot element accepted in the ratio test
@@ -141,6 +150,8 @@ def solve_lp(
     a = np.asarray(a_eq, dtype=float)
     b = np.asarray(b_eq, dtype=float)
     up = np.asarray(upper, dtype=float)
+    if BACKEND == "highs":
+        return _highs(c, a, b, up)
     m, n = a.shape
     limit = max_iter if max_iter is not None else 50 * (m + n) + 100
     t = _Tableau(a, b, up)
@@ -155,3 +166,21 @@ def solve_lp(
     status = t.run(np.concatenate([c, np.zeros(m)]), limit)
     x = np.clip(t.x[:n], 0.0, up)
     return LpResult(status, x, float(c @ x), t.iterations)
+
+
+def _highs(c: np.ndarray, a: np.ndarray, b: np.ndarray, up: np.ndarray) -> LpResult:
+    """The same programme through scipy's HiGHS."""
+    from scipy.optimize import linprog  # only when asked for: scipy is slow to import
+
+    bounds = [(0.0, float(u) if np.isfinite(u) else None) for u in up]
+    r = linprog(c, A_eq=a, b_eq=b, bounds=bounds, method="highs")
+    statuses: dict[int, LpStatus] = {
+        0: "optimal",
+        1: "iteration_limit",
+        2: "infeasible",
+        3: "unbounded",
+    }
+    status = statuses.get(int(r.status), "iteration_limit")
+    x = np.asarray(r.x, dtype=float) if r.x is not None else np.zeros(len(c))
+    obj = float(r.fun) if status == "optimal" else float("nan")
+    return LpResult(status, x, obj, int(getattr(r, "nit", 0)))

@@ -1,32 +1,32 @@
-"""Solve pulls: the pulls (and, within sectors, the leads) that meet a goal.
+"""Solve pulls: the pulls (and, within working sectors, the leads) that meet a goal.
 
 Problem -> solver -> result. :func:`pulls_problem` describes one body in one stage
 as arrays; :func:`solve_pulls` returns a :class:`PullsResult` that keeps a reference
 to its problem. An impossible goal is not an error: the result holds the closest
 achievable state and the shortfall.
 
-The allocation, for n tugs with usable pulls u_i and unit effects b_i (force ahead,
-force to port and yaw moment about the centroid per newton of pull):
+Each tug may give any force in its convex polygon (core.mechanics.tugsets): with no
+working sector, any pull up to its usable pull along its lead as set; with a sector,
+any lead within it and any pull within its capability at that lead. The polygon's
+vertices are the columns of the linear programmes; a tug's columns share its limit
+(the sum of their shares is at most one, the rest is the origin), so every mix is a
+point of the polygon: one force from the tug's point, with a real lead.
 
-1. Spread the work: minimise the largest utilisation t = max f_i / u_i subject to
-   sum b_i f_i = required, 0 <= f_i <= u_i (a linear programme; solved as its
-   equivalent "largest s with s * required reachable at full pull", t = 1 / s).
-2. Among those, the smallest total pull (a second linear programme with every
-   f_i <= t u_i).
-3. If no allocation within the usable pulls meets the goal: with every tug at most
-   at its usable pull, minimise the largest component of the shortfall (force ahead,
-   force abeam, and the moment as the sideways force at the bow or stern that would
-   make it, 2 |moment| / length), then their sum without making the largest worse;
-   then spread the work as above on what that achieves.
+The allocation, for n tugs, with each tug's use t_i its gauge in its polygon (the
+share of the way from nothing to the polygon's edge along its force):
 
-Lines only pull and pushes only push: every pull is zero or positive along the
-tug's own direction. A tug with a lead sector may change its lead within it: the
-sector (at most 180 degrees) is cut into candidate leads every
-``SECTOR_STEP_DEG`` degrees, each an extra column sharing the tug's limit
-(sum of its columns' pulls <= its usable pull). Their sum is one force from the
-same point whose direction lies in the sector and whose size is no more than the
-limit, so the answer is a real single lead; the chords between candidates make it
-slightly conservative (at most 1 - cos(step / 2), 0.1 % at 5 degrees).
+1. Spread the work: minimise the largest use t = max t_i subject to the tugs' wrench
+   (force ahead, force to port, moment about the centroid) = required (solved as its
+   equivalent "largest s with s * required reachable at full use", t = 1 / s).
+2. Among those, the smallest total pull (a second linear programme with every t_i <= t).
+3. If no allocation within the polygons meets the goal: with every tug at most at its
+   edge, minimise the largest component of the shortfall (force ahead, force abeam, and
+   the moment as the sideways force at the bow or stern that would make it,
+   2 |moment| / length), then their sum without making the largest worse; then spread
+   the work as above on what that achieves.
+
+Lines only pull and pushes only push (unless made fast, push-pull): every pull is zero
+or positive along a lead the tug can take.
 """
 
 from __future__ import annotations
@@ -37,39 +37,53 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from core.errors import InputError
-from core.frames import angle_to_bearing
-from core.mechanics.balance import Load, TugLayout, tug_direction, tug_layout
+from core.frames import angle_to_bearing, wrap_pi
+from core.mechanics.balance import Load, TugLayout, tug_layout
 from core.mechanics.bodies import stage_body
-from core.mechanics.forces import moment_of
 from core.mechanics.loads import body_conditions, loads_wrench
+from core.mechanics.tugsets import SECTOR_STEP_DEG, TugSets, tug_sets
 from core.model.goals import Goal
 from core.model.plan import Project, Stage
 from core.model.tugs import Placement
 from core.notices import Notice
-from core.solve.holdlimits import zonotope_normals
 from core.solve.lp import solve_lp
+from core.solve.polytope import WrenchPolygons, zonotope_normals
+from core.solve.reach import Reach
 from core.units import DisplayUnits
 
-#: Spacing of candidate leads within a lead sector, degrees.
-SECTOR_STEP_DEG = 5.0
+#: The reach of a fleet with working sectors is first found with polygons this many
+#: times coarser, then walked out to the fine ones (core.solve.walk).
+SOLVE_NEST = 9
 #: A goal counts as met when the shortfall is below this fraction of the usable pull
 #: (forces) or of usable pull x body length (moment).
 GOAL_TOL = 1e-6
 #: Weights of the shortfall's components on scaled rows (force ahead, force abeam,
 #: moment / length): the moment counts as the force at an end that would make it.
 _SHORTFALL_WEIGHTS = np.array([1.0, 1.0, 2.0])
+#: What the tug lost check "as re-set" assumes, said wherever it is shown.
+RESET_NOTE = (
+    "as re-set: the other tugs take new leads within their sectors and new pulls; "
+    "the time they need to do so is not worked out"
+)
+#: What the tug lost check "as set" means.
+AS_SET_NOTE = "as set: the other tugs keep their leads and pulls (the first seconds)"
 
 
 @dataclass(frozen=True, slots=True, eq=False)
 class PullsProblem:
-    """What to solve for one body in one stage, as arrays (n tugs, k >= n columns)."""
+    """What to solve for one body in one stage, as arrays (n tugs, k polygon vertices).
+
+    ``tug_index`` maps each tug to its row in ``sets`` (which keeps every tug even when
+    one is lost); ``set_wrench`` is each tug's wrench as set (setting x usable pull).
+    """
 
     stage: str
     body: str
     goal: Goal
     placements: tuple[Placement, ...]  # (n,)
-    usable_n: np.ndarray  # (n,) usable pull of each tug, N
-    columns: np.ndarray  # (3, k): force ahead, to port, moment about the centroid per N of pull
+    usable_n: np.ndarray  # (n,) usable pull of each tug at its lead as set, N
+    columns: np.ndarray  # (3, k): force ahead, to port, moment about the centroid per N
+    column_pull_n: np.ndarray  # (k,) the pull at each vertex, N
     column_tug: np.ndarray  # (k,) index into placements of each column's tug
     column_lead_rad: np.ndarray  # (k,) the placement lead each column stands for
     conditions: np.ndarray  # (3,) wrench of the wind, current and other loads
@@ -77,6 +91,11 @@ class PullsProblem:
     length_m: float
     loads: tuple[Load, ...] = ()
     notices: tuple[Notice, ...] = ()
+    sets: TugSets | None = None
+    tug_index: np.ndarray | None = None  # (n,) row of each tug in ``sets``
+    set_wrench: np.ndarray | None = None  # (3, n) each tug's wrench as set
+    reach: Reach | None = None  # the fleet's support mapping for the walk (with sectors)
+    step_deg: float = SECTOR_STEP_DEG  # largest step of lead between a sector's vertices
 
     @property
     def tugs(self) -> tuple[str, ...]:
@@ -86,6 +105,17 @@ class PullsProblem:
     def required(self) -> np.ndarray:
         """(3,) what the tugs together must supply: the goal less the conditions."""
         return np.asarray(self.goal.target(), dtype=float) - self.conditions
+
+    @property
+    def generators(self) -> np.ndarray:
+        """(3, k) each vertex's wrench at its full pull, N and N*m."""
+        return self.columns * self.column_pull_n
+
+    def rows(self) -> np.ndarray:
+        """(n,) each tug's row in ``sets``."""
+        if self.tug_index is None:
+            return np.arange(len(self.placements))
+        return self.tug_index
 
     def without(self, tug: str) -> PullsProblem:
         """The same problem with one tug lost."""
@@ -100,31 +130,47 @@ class PullsProblem:
             placements=self.placements[:i] + self.placements[i + 1 :],
             usable_n=np.delete(self.usable_n, i),
             columns=self.columns[:, keep],
+            column_pull_n=self.column_pull_n[keep],
             column_tug=remap[self.column_tug[keep]],
             column_lead_rad=self.column_lead_rad[keep],
+            tug_index=np.delete(self.rows(), i),
+            set_wrench=None if self.set_wrench is None else np.delete(self.set_wrench, i, axis=1),
+            reach=None if self.reach is None else self.reach.without(i),
         )
+
+    def shapes(self) -> WrenchPolygons | None:
+        """Each tug's polygon and arm (about the centroid), in placement order."""
+        if self.sets is None:
+            return None
+        rows = self.rows()
+        arms = self.sets.arms()
+        return WrenchPolygons(tuple(self.sets.polygons[r] for r in rows), arms[rows])
 
     def with_goal(self, goal: Goal) -> PullsProblem:
         return replace(self, goal=goal)
 
-
-def _sector_leads(p: Placement, is_push: bool, step_deg: float) -> np.ndarray:
-    """Candidate leads (rad) across a placement's lead sector, ends included."""
-    if p.lead_sector_rad is None:
-        return np.array([p.lead_rad])
-    lo, hi = p.lead_sector_rad
-    span = (hi - lo) % (2 * math.pi)
-    if span > math.pi + 1e-9:
-        raise InputError(
-            f"tug {p.tug}: lead sector",
-            f"{math.degrees(span):.0f} deg",
-            "is wider than 180 deg; narrow it so the lead can be solved",
+    def coarse(self) -> PullsProblem | None:
+        """The same problem with SOLVE_NEST times coarser sectors (every vertex one of
+        this problem's); None without sectors."""
+        sets = self.sets
+        if sets is None or not sets.sectors.any():
+            return None
+        rough = tug_sets(sets.layout, self.centroid, step_deg=self.step_deg * SOLVE_NEST)
+        rows = self.rows()
+        mine = np.full(len(sets.layout.placements), -1)
+        mine[rows] = np.arange(len(rows))
+        keep = mine[rough.vertex_tug] >= 0
+        gens = rough.wrenches()[:, keep]
+        pulls = np.hypot(rough.vertices[keep, 0], rough.vertices[keep, 1])
+        return replace(
+            self,
+            columns=gens / np.where(pulls > 0, pulls, 1.0),
+            column_pull_n=pulls,
+            column_tug=mine[rough.vertex_tug[keep]],
+            column_lead_rad=rough.vertex_lead[keep],
+            sets=rough,
+            reach=None,
         )
-    leads = lo + np.linspace(0.0, span, max(2, math.ceil(math.degrees(span) / step_deg) + 1))
-    if is_push:  # a push must stay into the hull
-        leads = np.clip(leads, -math.radians(89.0), math.radians(89.0))
-        leads = np.unique(leads)
-    return leads if span > 0 else np.array([lo])
 
 
 def pulls_problem(
@@ -153,35 +199,55 @@ def pulls_problem(
         cond = body_conditions(stage, b)
         loads, notices = cond.loads, cond.notices
     c = b.centroid
-    cols, col_tug, col_lead = [], [], []
-    base = layout.unit_effects(c)  # (3, n)
-    for i, p in enumerate(layout.placements):
-        if p.lead_sector_rad is None:
-            cols.append(base[:, i])
-            col_tug.append(i)
-            col_lead.append(p.lead_rad)
-            continue
-        for lead in _sector_leads(p, bool(layout.is_push[i]), sector_step_deg):
-            point, d, _ = tug_direction(b, replace(p, lead_rad=float(lead)))
-            m = moment_of(point, d, c)
-            cols.append(np.array([d[0], d[1], m]))
-            col_tug.append(i)
-            col_lead.append(float(lead))
-    columns = np.array(cols).T if cols else np.zeros((3, 0))
+    sets = tug_sets(layout, c, step_deg=sector_step_deg, nest=SOLVE_NEST)
+    problem = _problem_of(stage, b.name, goal, layout, sets, c, b.length, loads, notices)
+    if not sets.sectors.any():
+        return problem
+    shapes = problem.shapes()
+    return replace(
+        problem, reach=None if shapes is None else Reach(shapes), step_deg=sector_step_deg
+    )
+
+
+def _problem_of(
+    stage: Stage,
+    body: str,
+    goal: Goal | None,
+    layout: TugLayout,
+    sets: TugSets,
+    c: tuple[float, float],
+    length: float,
+    loads: tuple[Load, ...],
+    notices: tuple[Notice, ...],
+) -> PullsProblem:
+    gens = sets.wrenches()  # (3, k)
+    pulls = (
+        np.hypot(sets.vertices[:, 0], sets.vertices[:, 1]) if len(sets.vertices) else np.zeros(0)
+    )
+    columns = gens / np.where(pulls > 0, pulls, 1.0) if len(pulls) else np.zeros((3, 0))
+    forces = layout.directions * layout.pulls_n[:, None]  # (n, 2)
+    arms = layout.points - np.asarray(c)
+    set_wrench = np.vstack(
+        [forces[:, 0], forces[:, 1], arms[:, 0] * forces[:, 1] - arms[:, 1] * forces[:, 0]]
+    )
     return PullsProblem(
         stage=stage.name,
-        body=b.name,
+        body=body,
         goal=goal or stage.goal or Goal("hold"),
         placements=layout.placements,
         usable_n=layout.usable_n.copy(),
         columns=columns,
-        column_tug=np.array(col_tug, dtype=int),
-        column_lead_rad=np.array(col_lead, dtype=float),
+        column_pull_n=pulls,
+        column_tug=sets.vertex_tug.astype(int),
+        column_lead_rad=sets.vertex_lead.astype(float),
         conditions=loads_wrench(tuple(loads), c),
         centroid=c,
-        length_m=b.length,
+        length_m=length,
         loads=tuple(loads),
         notices=notices,
+        sets=sets,
+        tug_index=np.arange(len(layout.placements)),
+        set_wrench=set_wrench,
     )
 
 
@@ -203,12 +269,43 @@ class PullsResult:
     achieved: np.ndarray  # (3,)
     shortfall: np.ndarray  # (3,)
     directions: np.ndarray | None = None  # (n, 2) unit direction of each tug's force, body frame
+    usable_at_lead_n: np.ndarray | None = None  # (n,) usable pull at the solved lead, N
+    uses: np.ndarray | None = None  # (n,) each tug's gauge in its polygon (0 to 1)
+
+    @property
+    def usable_n(self) -> np.ndarray:
+        """(n,) each tug's usable pull at the lead it works at, N."""
+        if self.usable_at_lead_n is not None:
+            return self.usable_at_lead_n
+        return self.problem.usable_n
 
     @property
     def utilisation(self) -> np.ndarray:
-        """(n,) pull as a fraction of the usable pull (0 for a tug with none)."""
-        u = self.problem.usable_n
+        """(n,) pull as a fraction of the usable pull at its lead (the setting; 0 for a
+        tug with none). Above 1 only where a non-convex capability was made convex."""
+        u = self.usable_n
         return np.divide(self.pulls_n, u, out=np.zeros_like(u), where=u > 0)
+
+    def beyond_capability(self) -> tuple[str, ...]:
+        """Tugs asked for more than their capability at the solved lead (the convex hull
+        of a capability that is not convex), by name."""
+        return tuple(
+            t for t, v in zip(self.problem.tugs, self.utilisation, strict=True) if v > 1 + 1e-6
+        )
+
+    def what_each_does(self, units: DisplayUnits) -> tuple[str, ...]:
+        """One line per tug: its pull, its setting and the bearing it pulls towards."""
+        out = []
+        for i, p in enumerate(self.problem.placements):
+            pull = float(self.pulls_n[i])
+            if pull <= 1e-9 * max(float(self.usable_n.max(initial=0.0)), 1.0):
+                out.append(f"{p.tug}: not needed")
+                continue
+            out.append(
+                f"{p.tug}: {units.show(pull, 'force')} ({self.utilisation[i] * 100:.0f} %) "
+                f"towards {self.bearing_deg(i):05.1f} relative"
+            )
+        return tuple(out)
 
     @property
     def max_utilisation(self) -> float:
@@ -249,22 +346,36 @@ class PullsResult:
 
 
 class _Scaled:
-    """The problem in scaled units: pulls as fractions g of usable, rows of order one."""
+    """The problem in scaled units: each column's share g of its vertex, rows of order one."""
 
-    def __init__(self, problem: PullsProblem) -> None:
-        u = problem.usable_n
-        self.u_ref = float(u.max(initial=0.0)) or 1.0
+    def __init__(self, problem: PullsProblem, u_ref: float | None = None) -> None:
+        self.problem = problem
+        pulls = problem.column_pull_n
+        self.u_ref = u_ref or float(pulls.max(initial=0.0)) or 1.0
         self.l_ref = max(problem.length_m, 1.0)
         self.row_scale = np.array([1.0, 1.0, 1.0 / self.l_ref]) / self.u_ref
-        col_u = u[problem.column_tug] if len(u) else np.zeros(0)
-        self.col_u = col_u  # (k,)
-        self.gen = problem.columns * col_u * self.row_scale[:, None]  # (3, k)
-        self.cost = col_u / self.u_ref  # total pull, scaled
+        self.col_u = pulls  # (k,)
+        self.gen = problem.columns * pulls * self.row_scale[:, None]  # (3, k)
+        self.cost = pulls / self.u_ref  # total pull, scaled
         self.k = problem.columns.shape[1]
-        # Tugs with several columns (a lead sector) share one limit: one extra row each.
-        counts = np.bincount(problem.column_tug, minlength=len(u))
+        # Tugs with several columns (a working sector) share one limit: one extra row each.
+        counts = np.bincount(problem.column_tug, minlength=len(problem.placements))
         self.shared = [int(i) for i in np.flatnonzero(counts > 1)]
         self.col_tug = problem.column_tug
+        self.sectors = bool(self.shared) and problem.reach is not None
+        self._normal: np.ndarray | None = None  # the exit face's normal, scaled rows
+
+    def coarse(self) -> _Scaled:
+        """The problem with coarser sectors, in the same scaled units."""
+        rough = self.problem.coarse() if self.sectors else None
+        return self if rough is None else _Scaled(rough, self.u_ref)
+
+    def shapes(self, problem: PullsProblem) -> WrenchPolygons:
+        """``problem``'s polygons in scaled units (forces / u_ref, moments / (u_ref L))."""
+        raw = problem.shapes()
+        if raw is None:
+            return WrenchPolygons((), np.zeros((0, 2)))
+        return WrenchPolygons(tuple(p / self.u_ref for p in raw.polygons), raw.arms / self.l_ref)
 
     def scale(self, wrench: np.ndarray) -> np.ndarray:
         return np.asarray(wrench) * self.row_scale
@@ -273,9 +384,9 @@ class _Scaled:
         """(len(shared), k + len(shared) + extra): sum of a tug's columns plus its slack."""
         s = len(self.shared)
         rows = np.zeros((s, self.k + s + extra))
-        for r, i in enumerate(self.shared):
-            rows[r, : self.k] = self.col_tug == i
-            rows[r, self.k + r] = 1.0
+        if s:
+            rows[:, : self.k] = np.asarray(self.shared)[:, None] == self.col_tug[None, :]
+            rows[np.arange(s), self.k + np.arange(s)] = 1.0
         return rows
 
     def widest_reach(self, target: np.ndarray) -> float:
@@ -287,6 +398,10 @@ class _Scaled:
         """
         if not self.shared:
             return self._ray_exit(target)
+        if self.sectors:
+            reach = self._walk_reach(target)
+            if reach is not None:
+                return reach
         s = len(self.shared)
         a = np.vstack(
             [
@@ -302,6 +417,77 @@ class _Scaled:
         if r.status == "unbounded":
             return math.inf
         return float(r.x[-1]) if r.ok else 0.0
+
+    def _walk_reach(self, target: np.ndarray) -> float | None:
+        """The reach with sectors: a walk over triangles of the fleet's set out to the face
+        the ray leaves through (core.solve.reach, in newtons and newton-metres: the
+        reach is the same in any scaling of the rows); None where it cannot start."""
+        self._normal = None
+        reach = self.problem.reach
+        if reach is None:
+            return None
+        aim = target / self.row_scale  # back to N and N*m
+        out = reach.exit((float(aim[0]), float(aim[1]), float(aim[2])))
+        if out is None:
+            return None
+        s, normal = out
+        self._normal = np.asarray(normal)
+        return max(s, 0.0)
+
+    def face_columns(self) -> tuple[np.ndarray, np.ndarray] | None:
+        """For the face the last walked reach left through: ((k,) bool, each tug's
+        farthest vertices in that direction; (n,) bool, the tugs whose farthest is
+        nothing, with their vertices along the face); None without one."""
+        if self._normal is None:
+            return None
+        gen = self.problem.generators  # N and N*m: the normal is in those units
+        score = self._normal @ gen  # (k,)
+        size = np.abs(self._normal) @ np.abs(gen)
+        out = np.zeros(self.k, dtype=bool)
+        at_origin = np.zeros(len(self.problem.placements), dtype=bool)
+        for i in range(len(self.problem.placements)):
+            sel = np.flatnonzero(self.col_tug == i)
+            if not len(sel):
+                continue
+            tol = 1e-9 * float(size[sel].max())
+            best = max(float(score[sel].max()), 0.0)
+            out[sel] = score[sel] >= best - tol
+            at_origin[i] = best <= tol and bool(out[sel].any())
+        return out, at_origin
+
+    def face_allocation(
+        self, target: np.ndarray, t: float, face: np.ndarray, at_origin: np.ndarray
+    ) -> np.ndarray | None:
+        """The allocation on the exit face at use ``t``: a tug with one face vertex at ``t``
+        on it, the shares of a tug with an edge on the face (adding up to ``t``) or with
+        nothing on it (at most ``t``) solved for; None when that does not fix it (the
+        least-total programme decides then)."""
+        cols = np.flatnonzero(face)
+        tug = self.col_tug[cols]
+        counts = np.bincount(tug, minlength=len(self.problem.placements))
+        free = at_origin[tug] | (counts[tug] > 1)
+        single, multi = cols[~free], cols[free]
+        g = np.zeros(self.k)
+        g[single] = t
+        if len(multi):
+            owners = np.unique(self.col_tug[multi])
+            edge = owners[~at_origin[owners]]  # their shares add up to t
+            a = np.vstack([self.gen[:, multi], edge[:, None] == self.col_tug[multi][None, :]])
+            rest = target - self.gen[:, single] @ g[single]
+            rhs = np.concatenate([rest, np.full(len(edge), t)])
+            if a.shape[0] < a.shape[1]:
+                return None  # more freedom than the face fixes: least total pull decides
+            part, *_ = np.linalg.lstsq(a, rhs, rcond=None)
+            if np.any(part < -1e-9 * max(t, 1e-300)) or np.any(part > t * (1 + 1e-9)):
+                return None
+            g[multi] = np.clip(part, 0.0, t)
+            sums = np.bincount(self.col_tug[multi], weights=g[multi], minlength=len(counts))
+            if np.any(sums > t * (1 + 1e-9)):
+                return None
+        miss = np.abs(self.gen @ g - target).max()
+        if miss > 1e-9 * max(float(np.abs(target).max()), 1e-12):
+            return None
+        return g
 
     def _ray_exit(self, target: np.ndarray) -> float:
         normals = zonotope_normals(self.gen)  # (P, 3), unit
@@ -360,15 +546,31 @@ class _Scaled:
             return None
         return g
 
-    def least_total(self, target: np.ndarray, cap: float) -> np.ndarray | None:
-        """Fractions g (k,) meeting target with every tug at most ``cap``, least total pull."""
-        s = len(self.shared)
-        a = np.vstack([np.hstack([self.gen, np.zeros((3, s))]), self._shared_rows(0)])
+    def least_total(
+        self, target: np.ndarray, cap: float, columns: np.ndarray | None = None
+    ) -> np.ndarray | None:
+        """Fractions g (k,) meeting target with every tug at most ``cap``, least total pull
+        (using only ``columns`` (k,) bool where given)."""
+        keep = np.ones(self.k, dtype=bool) if columns is None else columns
+        cols = np.flatnonzero(keep)
+        tug = self.col_tug[cols]
+        counts = np.bincount(tug, minlength=len(self.problem.placements))
+        shared = np.flatnonzero(counts > 1)
+        s, k = len(shared), len(cols)
+        a = np.zeros((3 + s, k + s))
+        a[:3, :k] = self.gen[:, cols]
+        if s:
+            a[3:, :k] = shared[:, None] == tug[None, :]
+            a[3 + np.arange(s), k + np.arange(s)] = 1.0
         b = np.concatenate([target, np.full(s, cap)])
-        c = np.concatenate([self.cost, np.zeros(s)])
-        up = np.concatenate([np.full(self.k, cap), np.full(s, np.inf)])
+        c = np.concatenate([self.cost[cols], np.zeros(s)])
+        up = np.concatenate([np.full(k, cap), np.full(s, np.inf)])
         r = solve_lp(c, a, b, up)
-        return r.x[: self.k] if r.ok else None
+        if not r.ok:
+            return None
+        g = np.zeros(self.k)
+        g[cols] = r.x[:k]
+        return g
 
     def closest(self, target: np.ndarray) -> np.ndarray:
         """Fractions g (k,) at most 1 that come closest to ``target``.
@@ -416,6 +618,14 @@ def _spread(sc: _Scaled, target: np.ndarray) -> np.ndarray | None:
         g = sc.on_exit_face(target, t)
         if g is not None:
             return g
+    got = sc.face_columns() if sc.sectors else None
+    if got is not None:  # only the face's columns can reach the target at use t
+        face, at_origin = got
+        g = sc.face_allocation(target, t, face, at_origin)
+        if g is None:
+            g = sc.least_total(target, t * (1 + 1e-9) + 1e-12, face)
+        if g is not None:
+            return g
     g = sc.least_total(target, t * (1 + 1e-9) + 1e-12)
     if g is None:  # a hair of numerical slack was not enough: allow the full pull
         g = sc.least_total(target, 1.0)
@@ -428,57 +638,145 @@ def solve_pulls(problem: PullsProblem) -> PullsResult:
     sc = _Scaled(problem)
     required = problem.required
     target = sc.scale(required)
-    n = len(problem.placements)
     if sc.k == 0 or not np.any(np.abs(target) > 1e-15):
         g = np.zeros(sc.k)
     else:
         spread = _spread(sc, target)
         if spread is None:
-            reach_target = sc.gen @ sc.closest(target)
+            near = sc.coarse()  # with sectors, the closest state of the coarse set
+            reach_target = near.gen @ near.closest(target)
             spread = _spread(sc, reach_target)
             g = spread if spread is not None else sc.closest(target)
         else:
             g = spread
     g = np.clip(g, 0.0, 1.0)
-    pull_cols = g * sc.col_u  # (k,) N
-    forces = problem.columns[:2] * pull_cols  # (2, k)
-    pulls = np.zeros(n)
-    leads = np.array([p.lead_rad for p in problem.placements], dtype=float)
-    dirs = np.zeros((n, 2))
-    for i in range(n):
-        sel = problem.column_tug == i
-        first = problem.columns[:2, sel][:, 0]
-        dirs[i] = first
-        if sel.sum() == 1:
-            pulls[i] = pull_cols[sel][0]
-            continue
-        f = forces[:, sel].sum(axis=1)
-        pulls[i] = math.hypot(f[0], f[1])
-        if pulls[i] > 0:
-            turn = math.atan2(first[0] * f[1] - first[1] * f[0], first @ f)
-            leads[i] = float(problem.column_lead_rad[sel][0] + turn)
-            dirs[i] = f / pulls[i]
-    pulls = np.minimum(pulls, problem.usable_n)
-    achieved = problem.columns @ pull_cols if sc.k else np.zeros(3)
+    pulls, leads, dirs, usable, uses = _per_tug(problem, g * sc.col_u)
+    achieved = problem.columns @ (g * sc.col_u) if sc.k else np.zeros(3)
     shortfall = required - achieved
     scale = np.array([1.0, 1.0, sc.l_ref]) * max(sc.u_ref, 1.0)
     met = bool(np.all(np.abs(shortfall) <= GOAL_TOL * scale))
-    return PullsResult(problem, met, pulls, leads, achieved, np.where(met, 0.0, shortfall), dirs)
+    return PullsResult(
+        problem,
+        met,
+        pulls,
+        leads,
+        achieved,
+        np.where(met, 0.0, shortfall),
+        dirs,
+        usable,
+        uses,
+    )
+
+
+def _per_tug(
+    problem: PullsProblem, pull_cols: np.ndarray
+) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """Each tug's (pull, lead, direction, usable pull at that lead, use) from the pulls
+    along its vertices (k,): the sum is one force from the tug's point."""
+    n = len(problem.placements)
+    col_tug = problem.column_tug
+    shares = np.divide(
+        pull_cols,
+        problem.column_pull_n,
+        out=np.zeros_like(pull_cols),
+        where=problem.column_pull_n > 0,
+    )
+    fx = np.bincount(col_tug, weights=problem.columns[0] * pull_cols, minlength=n)
+    fy = np.bincount(col_tug, weights=problem.columns[1] * pull_cols, minlength=n)
+    sums = np.bincount(col_tug, weights=shares, minlength=n)  # the way out to each edge
+    pulls = np.hypot(fx, fy)
+    leads = np.array([p.lead_rad for p in problem.placements], dtype=float)
+    usable = problem.usable_n.copy()
+    sets, rows = problem.sets, problem.rows()
+    if sets is None:
+        dirs = np.zeros((n, 2))
+        for i in range(n):
+            sel = np.flatnonzero(col_tug == i)
+            dirs[i] = problem.columns[:2, sel[0]] if len(sel) else (1.0, 0.0)
+        pulls = np.minimum(pulls, usable)
+        return (
+            pulls,
+            leads,
+            dirs,
+            usable,
+            np.divide(pulls, usable, out=np.zeros(n), where=usable > 0),
+        )
+    dirs = sets.layout.directions[rows].copy()
+    uses = np.divide(pulls, usable, out=np.zeros(n), where=usable > 0)
+    fixed = ~sets.sectors[rows]
+    pulls[fixed] = np.minimum(pulls[fixed], usable[fixed])
+    uses[fixed] = np.divide(pulls, usable, out=np.zeros(n), where=usable > 0)[fixed]
+    frame = sets.layout.lead_frame_rad
+    small = 1e-12 * max(float(problem.column_pull_n.max(initial=0.0)), 1.0)
+    for k in np.flatnonzero(~fixed):
+        i = int(k)
+        p, row = problem.placements[i], int(rows[i])
+        if pulls[i] > small:
+            dirs[i] = (fx[i] / pulls[i], fy[i] / pulls[i])
+            base = float(frame[row]) if frame is not None else 0.0
+            leads[i] = wrap_pi(_into_sector(p, wrap_pi(math.atan2(fy[i], fx[i]) - base)))
+        else:
+            dirs[i] = _direction_at(sets, row, p.lead_rad)
+        usable[i] = sets.capability_at(row, float(leads[i]))
+        uses[i] = sums[i]
+    return pulls, leads, dirs, usable, uses
+
+
+def _into_sector(p: Placement, lead: float) -> float:
+    """The turn of ``lead`` (rad) that lies in the placement's sector, else the nearest."""
+    if p.lead_sector_rad is None:
+        return lead
+    lo, hi = p.lead_sector_rad
+    k = math.floor((lead - lo) / (2 * math.pi))
+    cand = lead - 2 * math.pi * k  # in [lo, lo + 2 pi)
+    if cand <= hi + 1e-9:
+        return cand
+    return hi if cand - hi < lo + 2 * math.pi - cand else lo
+
+
+def _direction_at(sets: TugSets, row: int, lead: float) -> np.ndarray:
+    frame = sets.layout.lead_frame_rad
+    base = float(frame[row]) if frame is not None else 0.0
+    return np.array([math.cos(base + lead), math.sin(base + lead)])
 
 
 # -- the tug lost check ---------------------------------------------------------------
 
 
+#: "As set", the goal counts as still met when what is missing is below this share of
+#: the remaining tugs' usable pull (forces), or that times the body's length (moment).
+AS_SET_TOL = 0.01
+
+
 @dataclass(frozen=True, slots=True, eq=False)
 class TugLostCase:
-    """The solve with one tug out of action."""
+    """One tug out of action, answered two ways.
+
+    ``result`` is the answer as re-set: the others re-lead within their sectors and
+    re-set their pulls (what each must do is in the result; the time that takes is not
+    worked out, :data:`RESET_NOTE`). ``as_set_shortfall`` is the answer as set: the
+    others keep their leads and pulls, what happens in the first seconds
+    (:data:`AS_SET_NOTE`): the goal less what they then give, (3,) N and N*m.
+    """
 
     tug: str
     result: PullsResult
+    as_set_shortfall: np.ndarray | None = None  # (3,)
 
     @property
     def holds(self) -> bool:
+        """The goal is still met as re-set."""
         return self.result.feasible
+
+    @property
+    def holds_as_set(self) -> bool | None:
+        """The goal is still met as set (None when the settings are not known)."""
+        if self.as_set_shortfall is None:
+            return None
+        p = self.result.problem
+        u = max(float(p.usable_n.sum()), 1.0)
+        tol = AS_SET_TOL * u * np.array([1.0, 1.0, max(p.length_m, 1.0)])
+        return bool(np.all(np.abs(self.as_set_shortfall) <= tol))
 
     @property
     def worst_utilisation(self) -> float:
@@ -520,10 +818,17 @@ class TugLostCheck:
 
 
 def tug_lost_check(problem: PullsProblem) -> TugLostCheck:
-    """Solve again without each tug in turn."""
+    """Solve again without each tug in turn (as re-set), and say what the others give
+    as set."""
     full = solve_pulls(problem)
-    cases = tuple(TugLostCase(t, solve_pulls(problem.without(t))) for t in problem.tugs)
-    return TugLostCheck(problem, full, cases)
+    cases = []
+    for i, t in enumerate(problem.tugs):
+        as_set = None
+        if problem.set_wrench is not None:
+            others = problem.set_wrench.sum(axis=1) - problem.set_wrench[:, i]
+            as_set = problem.required - others
+        cases.append(TugLostCase(t, solve_pulls(problem.without(t)), as_set))
+    return TugLostCheck(problem, full, tuple(cases))
 
 
 def shortfall_words(shortfall: np.ndarray, units: DisplayUnits) -> str:

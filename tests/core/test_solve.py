@@ -266,11 +266,20 @@ def test_lead_sector_lead_between_candidates_is_exact() -> None:
     assert r.pulls_n[0] == pytest.approx(f, rel=1e-9)
 
 
-def test_lead_sector_too_wide_is_refused() -> None:
-    project, stage = _plan([0.0], [50.0])
-    p = replace(stage.placement("T0"), lead_sector_rad=(0.0, math.radians(200)))
-    with pytest.raises(InputError, match="wider than 180"):
-        pulls_problem(project, stage.with_placement(p))
+def test_a_line_sector_wider_than_a_half_turn_is_solved_within_it() -> None:
+    # A bow tug whose line may lead anywhere from the starboard quarter round the bow to the
+    # port quarter (270 deg) pulls astern-to-starboard only through its sector's ends.
+    project, stage = _plan([0.0], [50.0], points=("bow",))
+    p = replace(stage.placement("T0"), lead_sector_rad=(-math.radians(135), math.radians(135)))
+    stage = stage.with_placement(p)
+    f = 10 * TF
+    a = math.radians(90.0)  # square to port, with the moment a bow pull to port makes
+    goal = Goal("force", 0.0, f, 40.0 * f)
+    r = solve_pulls(pulls_problem(project, stage, goal=goal))
+    assert r.feasible
+    assert r.leads_rad[0] == pytest.approx(a, abs=1e-9)
+    with pytest.raises(InputError, match="must be finite"):
+        replace(p, lead_sector_rad=(0.0, math.inf))
 
 
 def test_tug_lost_check_names_the_loss_that_hurts_most() -> None:
