@@ -600,7 +600,13 @@ def _decode_site(r: _Reader, value: Any) -> Site | None:
     return r.build("site", lambda: Site(r.text(d, "name", "site"), tuple(features)))
 
 
-def _sector(pair: tuple[float, float], push: bool = False) -> tuple[float, float]:
+def _sector(pair: tuple[float, float]) -> tuple[float, float]:
+    """[from, to] relative bearings, clockwise, as a (low, high) counter-clockwise hull-frame
+    sector: clockwise from ``from`` to ``to`` is counter-clockwise from ``to`` to ``from``."""
+    return (bearing_to_angle(pair[1]), bearing_to_angle(pair[0]))
+
+
+def _working_sector(pair: tuple[float, float], push: bool) -> tuple[float, float]:
     """A working sector [from, to], degrees clockwise (relative bearings of a line, or push
     angles off square), as the core's (low, high) radians counter-clockwise: clockwise
     from ``from`` to ``to`` is counter-clockwise from ``to`` back to ``from``. ``to -
@@ -678,7 +684,7 @@ def _decode_placement(r: _Reader, value: Any, path: str, ctx: _Context) -> Place
         if pair is None:
             ok = False
         else:
-            sector = _sector(pair, kind == "push")
+            sector = _working_sector(pair, kind == "push")
     astern = r.flag(d, "astern", path)
     push_pull = r.flag(d, "push_pull", path)
     if push_pull and kind != "push":

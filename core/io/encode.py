@@ -146,13 +146,20 @@ def _encode_hull(h: Hull) -> Json:
     }
 
 
-def _sector(sector: tuple[float, float] | None, push: bool = False) -> list[float] | None:
-    """A (low, high) counter-clockwise sector as [from, to], degrees clockwise (relative
-    bearings of a line, from 0 up to 360; push angles off square, from -180 up to 180):
-    counter-clockwise from low to high is clockwise from high to low. ``to`` is ``from``
-    plus the width for a whole circle, else taken round to the same range."""
+def _sector(sector: tuple[float, float] | None) -> list[float] | None:
+    """A (low, high) counter-clockwise hull-frame sector as [from, to] relative bearings,
+    clockwise (counter-clockwise from low to high is clockwise from high to low)."""
     if sector is None:
         return None
+    lo, hi = sector
+    return [num(angle_to_bearing(hi)), num(angle_to_bearing(lo))]
+
+
+def _working_sector(sector: tuple[float, float], push: bool) -> list[float]:
+    """A working sector (low, high), counter-clockwise, as [from, to], degrees clockwise
+    (relative bearings of a line, from 0 up to 360; push angles off square, from -180 up to
+    180): counter-clockwise from low to high is clockwise from high to low. ``to`` is
+    ``from`` plus the width for a whole circle, else taken round to the same range."""
     lo, hi = sector
     width = math.degrees(hi - lo)
     start = num((-math.degrees(hi) + 180.0) % 360.0 - 180.0) if push else num(angle_to_bearing(hi))
@@ -186,7 +193,7 @@ def _encode_placement(project: Project, p: Placement) -> Json:
     if push:
         d["push_pull"] = p.push_pull
     if p.lead_sector_rad is not None:
-        d["lead_sector_deg"] = _sector(p.lead_sector_rad, push)
+        d["lead_sector_deg"] = _working_sector(p.lead_sector_rad, push)
     return d
 
 

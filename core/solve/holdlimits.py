@@ -45,7 +45,7 @@ from core.solve.polytope import (
     zonotope_normals,
 )
 from core.solve.reach import Reach
-from core.solve.walk import facet_triangles, walk
+from core.solve.walk import nudged_triangles, set_size, walk
 from core.units import DisplayUnits
 
 __all__ = [
@@ -305,12 +305,13 @@ def _refine(
     """The coarse exits (D,) carried to the fine set by walking from the coarse faces."""
     d = rays.T  # (D, 3)
     st = np.broadcast_to(start, d.shape)
-    tri, ok = facet_triangles(coarse, fac, facet, st, d, s, lost)
+    # the walk moves each line a hair sideways (core.solve.walk)
+    tri, ok, w = nudged_triangles(coarse, fac, facet, st, d, s, lost, set_size(shapes))
     out = s.copy()
     if ok.any():
         idx = np.flatnonzero(ok)
         lost_i = None if lost is None else lost[idx]
-        s_fine, _, _ = walk(shapes, st[idx], d[idx], tri[idx], lost_i)
+        s_fine, _, _ = walk(shapes, st[idx], d[idx], tri[idx], lost_i, w[idx])
         good = np.isfinite(s_fine)
         out[idx[good]] = np.maximum(s[idx[good]], s_fine[good])
     # where the coarse face gave no triangle (an exit on an edge or a corner of the set),

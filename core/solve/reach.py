@@ -23,6 +23,7 @@ import math
 import numpy as np
 
 from core.solve.polytope import WrenchPolygons
+from core.solve.walk import nudge
 
 Vec = tuple[float, float, float]
 _GAP = 1e-12
@@ -47,6 +48,7 @@ class Reach:
 
     def __init__(self, shapes: WrenchPolygons, start: Vec = (0.0, 0.0, 0.0)) -> None:
         self.start = start
+        self._w: Vec = (0.0, 0.0, 0.0)
         #: per tug (in the shapes' order): arm x, arm y, vertices, sorted normal angles,
         #: first vertex; None for a tug that gives nothing
         self.tugs: list[tuple[float, float, list[tuple[float, float]], list[float], int] | None]
@@ -58,12 +60,14 @@ class Reach:
         """The same fleet with tug ``i`` lost."""
         out = Reach.__new__(Reach)
         out.start = self.start
+        out._w = (0.0, 0.0, 0.0)
         out.tugs = self.tugs[:i] + self.tugs[i + 1 :]
         return out
 
     def support(self, n: Vec) -> Vec:
-        """The set's farthest point in direction ``n``, less the start."""
-        sx, sy, sz = -self.start[0], -self.start[1], -self.start[2]
+        """The set's farthest point in direction ``n``, less the (nudged) start."""
+        w = self._w
+        sx, sy, sz = -self.start[0] - w[0], -self.start[1] - w[1], -self.start[2] - w[2]
         for entry in self.tugs:
             if entry is None:
                 continue
@@ -147,6 +151,13 @@ class Reach:
     def exit(self, d: Vec) -> tuple[float, Vec] | None:
         """Largest s with s d in the set, and the unit normal of the face there; None
         where no first triangle is found (a flat set, or the origin on its edge)."""
+        # a line through an edge or a corner leaves the walk no way on: it is moved a hair
+        # sideways, and the answer read off the face it ends on for the line as given
+        scale = max(
+            (abs(v) for t in self.tugs if t is not None for xy in t[2] for v in xy), default=1.0
+        )
+        w = nudge(np.array([d]), scale)[0]
+        self._w = (float(w[0]), float(w[1]), float(w[2]))
         tri = self._first_triangle(d)
         if tri is None:
             return None
@@ -163,7 +174,7 @@ class Reach:
                 n, nd = (-n[0], -n[1], -n[2]), -nd
             if nd <= 1e-15:
                 return None
-            s = _dot(n, a) / nd
+            s = (_dot(n, a) + _dot(n, self._w)) / nd  # the line as given (a is nudged)
             v = self.support(n)
             if _dot(n, _sub(v, a)) <= _GAP * (1.0 + max(abs(a[0]), abs(a[1]), abs(a[2]))):
                 return s, n

@@ -107,6 +107,27 @@ def supports(
     return total, which
 
 
+#: How far each line is moved sideways, as a share of the set's size.
+NUDGE = 1e-9
+
+
+def set_size(shapes: WrenchPolygons) -> float:
+    """The largest coordinate of any tug's polygon (for :func:`nudge`)."""
+    return max((float(np.abs(p).max()) for p in shapes.polygons if len(p)), default=1.0)
+
+
+def nudge(rays: np.ndarray, size: float) -> np.ndarray:
+    """(R, 3) small offsets square to each ray (R, 3), all made the same way, so that no
+    line runs exactly through an edge or a corner of the set."""
+    d = rays / np.maximum(np.sqrt(_dot(rays, rays)), 1e-300)[:, None]
+    w = np.array([0.5773502691896257, 0.6123724356957945, 0.5400617248673217])
+    side = w[None, :] - _dot(d, np.broadcast_to(w, d.shape))[:, None] * d
+    other = _cross(d, side)
+    off = 0.8 * side + 0.6 * other
+    size_off = np.sqrt(_dot(off, off))
+    return off / np.maximum(size_off, 1e-300)[:, None] * (NUDGE * size)
+
+
 def _cross(a: np.ndarray, b: np.ndarray) -> np.ndarray:
     """Row-wise cross products of (R, 3) arrays."""
     return np.column_stack(
@@ -147,11 +168,13 @@ def walk(
     rays: np.ndarray,
     triangles: np.ndarray,
     lost: np.ndarray | None = None,
+    shift: np.ndarray | None = None,
 ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Carry each ray's crossing of its triangle out to the set's face.
 
     start, rays: (R, 3); triangles: (R, 3, 3) points of the set whose planes the rays'
-    lines cross inside them. Returns (s (R,) where each ray leaves, unit normal (R, 3)
+    lines cross inside them (moved by ``shift``, default :func:`nudge`'s). Returns (s (R,)
+    where each ray leaves, unit normal (R, 3)
     of the face it leaves through, done (R,) False where the walk had to stop early:
     there s is still a point inside the set, a lower bound).
     """
@@ -162,11 +185,17 @@ def walk(
     normal = np.zeros((r, 3))
     done = np.zeros(r, dtype=bool)
     active = np.flatnonzero(np.isfinite(tri).all(axis=(1, 2)))
+    # A line through an edge or a corner of a triangle leaves the walk no way on: each line
+    # is moved a hair sideways (square to itself, the same way for every ray), and the
+    # answer is read off the face it ends on for the line as given.
+    if shift is None:
+        shift = nudge(rays, float(np.abs(triangles[np.isfinite(triangles)]).max(initial=1.0)))
+    moved = start + shift
     for _ in range(_MAX_STEPS):
         if not len(active):
             break
         a, b, c = tri[active, 0], tri[active, 1], tri[active, 2]
-        d, st = rays[active], start[active]
+        d, st = rays[active], moved[active]
         n = _cross(b - a, c - a)
         size = np.sqrt(_dot(n, n))
         ab = b - a
@@ -174,7 +203,10 @@ def walk(
         n = n / np.where(flat, 1.0, size)[:, None]
         n *= np.where(_dot(n, d) < 0, -1.0, 1.0)[:, None]
         s_now, _ = _crossing(a, b, c, st, d)
-        s[active] = np.where(np.isfinite(s_now), s_now, s[active])
+        # where the line as given crosses the triangle's plane (the nudged one is inside)
+        nd = _dot(n, d)
+        s_given = np.where(nd > 0, _dot(n, a - start[active]) / np.where(nd > 0, nd, 1.0), np.nan)
+        s[active] = np.where(np.isfinite(s_given), s_given, s[active])
         normal[active] = n
         v, _ = supports(table, n, None if lost is None else lost[active])
         gap = _dot(n, v - a)
@@ -213,10 +245,12 @@ def facet_triangles(
     rays: np.ndarray,
     s: np.ndarray,
     lost: np.ndarray | None = None,
+    shift: np.ndarray | None = None,
 ) -> tuple[np.ndarray, np.ndarray]:
     """A triangle on each ray's exit face of the coarse set that holds the exit point:
-    (R, 3, 3) and (R,) ok (False where the face is not a plain parallelogram of two
-    edges or one tug's polygon: there the coarse answer stands)."""
+    (R, 3, 3) and (R,) ok (False where the face cannot be made: there the coarse answer
+    stands). With ``shift`` (R, 3), the triangle holds where the line moved by it (the
+    walk's nudge) crosses the face instead; see :func:`nudged_triangles`."""
     r = len(rays)
     tri = np.zeros((r, 3, 3))
     ok = np.zeros(r, dtype=bool)
@@ -229,6 +263,10 @@ def facet_triangles(
     lost_r = None if lost is None else lost[rows]
     total, which = supports(SupportTable(coarse), n, lost_r)
     x = start[rows] + s[rows, None] * rays[rows]
+    if shift is not None:  # where the moved line crosses the face's plane
+        w, d = shift[rows], rays[rows]
+        along = _dot(n, w) / np.where(np.abs(_dot(n, d)) > 0, _dot(n, d), 1.0)
+        x = x + w - along[:, None] * d
     ea, eb = fac.edge_a[f], fac.edge_b[f]
     pair = (ea >= 0) & (eb >= 0)
     if pair.any():
@@ -245,6 +283,36 @@ def facet_triangles(
         if got is not None:
             tri[rows[j]], ok[rows[j]] = got, True
     return tri, ok
+
+
+def nudged_triangles(
+    coarse: WrenchPolygons,
+    fac: Facets,
+    facet: np.ndarray,
+    start: np.ndarray,
+    rays: np.ndarray,
+    s: np.ndarray,
+    lost: np.ndarray | None,
+    size: float,
+) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """:func:`facet_triangles` for lines moved a hair sideways (:func:`nudge`), each moved
+    the way that keeps its crossing on its face (an exit on an edge of the coarse set
+    would, moved the wrong way, leave the face): (triangles, ok, the shift used (R, 3))."""
+    w = nudge(rays, size)
+    other = _cross(rays / np.maximum(np.sqrt(_dot(rays, rays)), 1e-300)[:, None], w)
+    tri = np.zeros((len(rays), 3, 3))
+    ok = np.zeros(len(rays), dtype=bool)
+    used = w.copy()
+    for k, shift in enumerate((w, -w, other, -other)):
+        todo = np.flatnonzero(~ok) if k else np.arange(len(rays))
+        if not len(todo):
+            break
+        t, good = facet_triangles(
+            coarse, fac, facet[todo], start[todo], rays[todo], s[todo],
+            None if lost is None else lost[todo], shift[todo],
+        )  # fmt: skip
+        tri[todo[good]], ok[todo[good]], used[todo[good]] = t[good], True, shift[todo[good]]
+    return tri, ok, used
 
 
 def face_triangle(
@@ -292,7 +360,7 @@ def face_triangle(
         if abs(np.linalg.det(m)) <= 1e-300:
             continue
         w = np.linalg.solve(m, p - h[0])
-        if w.min() >= -1e-9 and w.sum() <= 1 + 1e-9:
+        if w.min() >= -1e-12 and w.sum() <= 1 + 1e-12:
             return points[[idx[0], idx[j], idx[j + 1]]]
     return None
 
@@ -366,7 +434,7 @@ def _pair_triangles(
         be = np.where(good, (g11 * b2 - g12 * b1) / np.where(good, det, 1.0), np.nan)
     miss = np.linalg.norm(y - al[:, None] * e1 - be[:, None] * e2, axis=1)
     size = np.sqrt(g11) + np.sqrt(g22) + np.linalg.norm(y, axis=1)
-    eps = 1e-7
+    eps = 1e-12
     ok = good & (al >= -eps) & (al <= 1 + eps) & (be >= -eps) & (be <= 1 + eps)
     ok &= miss <= 1e-7 * np.maximum(size, 1e-300)
     if lost is not None:
@@ -395,7 +463,7 @@ def _plane_triangles(
             if abs(np.linalg.det(m)) <= 1e-14:
                 continue
             uv = np.linalg.solve(m, (f - p0).T).T  # (k, 2)
-            inside = (uv >= -1e-9).all(axis=1) & (uv.sum(axis=1) <= 1 + 1e-9) & ~ok[sel]
+            inside = (uv >= -1e-12).all(axis=1) & (uv.sum(axis=1) <= 1 + 1e-12) & ~ok[sel]
             if not inside.any():
                 continue
             corners = coarse.wrench(int(i), np.vstack([p0, p1, p2])).T  # (3, 3)

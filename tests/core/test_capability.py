@@ -208,11 +208,12 @@ def test_capability_towline_push_pull_and_whole_circle_sectors_round_trip() -> N
     data = json.loads(text)
     assert data["tugs"][0]["capability"]["placeholder"] is False
     assert data["tugs"][1]["capability"]["placeholder"] is True  # marked in the file
-    assert data["tugs"][0]["towline"] == {
-        "length_m": 220.0,
-        "mbl_kN": 1500.0,
-        "warning_share_of_mbl": 0.4,
-    }
+    t = data["tugs"][0]
+    assert (t["towline_length_m"], t["towline_mbl_kN"], t["towline_warning_share_of_mbl"]) == (
+        220.0,
+        1500.0,
+        0.4,
+    )
     pl = data["stages"][0]["tugs"]
     assert pl[0]["push_pull"] is True and pl[0]["lead_sector_deg"] == [-180.0, 180.0]
     assert pl[1]["lead_sector_deg"] == [310.0, 20.0]
@@ -246,11 +247,11 @@ def test_an_old_file_without_the_new_fields_loads_with_the_placeholders() -> Non
         ),
         (
             lambda d: d["tugs"][0]["capability"]["bearing_deg_and_share"].update(line=[[0, 3]]),
-            "line[0][1]: 3 must be at most 2",
+            "line[0][1]: 3.0 must be at most 2",
         ),
         (
-            lambda d: d["tugs"][0]["towline"].update(mbl_kN=-1),
-            "tugs[0].towline.mbl_kN: -1 kN must be above zero",
+            lambda d: d["tugs"][0].update(towline_warning_share_of_mbl=1.5),
+            "tugs[0].towline_warning_share_of_mbl: 1.5 must be at most 1",
         ),
         (
             lambda d: d["tugs"][0]["capability"].update(colour="red"),

@@ -278,7 +278,7 @@ def test_a_line_sector_wider_than_a_half_turn_is_solved_within_it() -> None:
     r = solve_pulls(pulls_problem(project, stage, goal=goal))
     assert r.feasible
     assert r.leads_rad[0] == pytest.approx(a, abs=1e-9)
-    with pytest.raises(InputError, match="must be finite"):
+    with pytest.raises(InputError, match="must be a finite number"):
         replace(p, lead_sector_rad=(0.0, math.inf))
 
 
