@@ -92,6 +92,8 @@ class Reach:
         axis = (1.0 if k == 0 else 0.0, 1.0 if k == 1 else 0.0, 1.0 if k == 2 else 0.0)
         e1 = _cross(d, axis)
         size = math.sqrt(_dot(e1, e1))
+        if not size > 1e-300:  # no direction (or not a number): nothing to walk along
+            return None
         e1 = (e1[0] / size, e1[1] / size, e1[2] / size)
         e2 = _cross(d, e1)
         size = math.sqrt(_dot(e2, e2))

@@ -68,7 +68,13 @@ def _hand_balance(data: dict, stage: int) -> tuple[np.ndarray, float, tuple[floa
             # square to the hull: the sample's pads are on the flat starboard side, inward is +y
             assert y == pytest.approx(-12.0)
             angle = math.radians(90 - pl["push_angle_deg"])
-            pull = pl["setting_percent"] / 100 * rated
+            # the tug's pushing capability at that angle off its bow (the file's pairs of
+            # relative bearing and share, linear between them round the circle)
+            pairs = tug["capability"]["bearing_deg_and_share"]["push"]
+            b = [p[0] for p in pairs] + [pairs[0][0] + 360.0]
+            v = [p[1] for p in pairs] + [pairs[0][1]]
+            share = float(np.interp(pl["push_angle_deg"] % 360.0, b, v))
+            pull = pl["setting_percent"] / 100 * rated * share
         else:
             angle = -math.radians(pl["lead_deg"])  # relative bearing clockwise -> CCW angle
             drop = abs(hull["freeboard_m"] - tug["towing_point_height_m"])
