@@ -12,9 +12,11 @@ from __future__ import annotations
 
 import itertools
 import math
-from collections.abc import Callable, Iterator
+from collections.abc import Callable, Iterator, Sequence
 from functools import partial
-from typing import Any, TypeVar
+from typing import Any, TypeVar, get_args
+
+import numpy as np
 
 from core.errors import InputError, OutlineError, Problem
 from core.frames import bearing_to_angle
@@ -46,6 +48,8 @@ from core.units import CHOICES, DisplayUnits
 T = TypeVar("T")
 
 _NUMBER_TYPES = (int, float)
+#: SI value of one file unit of each kind of number (kN, kn, m, deg, %...).
+_FILE_FACTORS = {kind: rules.unit_of(kind, FILE_UNITS)[0] for kind in get_args(rules.Kind)}
 _LO, _HI = rules.COORDINATE.low, rules.COORDINATE.high
 
 
@@ -83,6 +87,31 @@ def _join(path: str, key: str) -> str:
     return f"{path}.{_key(key)}" if path else _key(key)
 
 
+_IS_NUMBER = np.frompyfunc(lambda v: type(v) is float or type(v) is int, 1, 1)
+#: The keys an object may hold, by its (required, optional) keys.
+_KNOWN_KEYS: dict[tuple[tuple[str, ...], tuple[str, ...]], frozenset[str]] = {}
+
+
+def _plain_pairs(value: list[Any]) -> np.ndarray | None:
+    """``value`` as (x, y) floats if every item is a pair of plain numbers within the
+    coordinate range (checked for the whole list at once); else None."""
+    try:
+        obj = np.array(value, dtype=object)
+    except (ValueError, TypeError, RecursionError):
+        return None
+    if obj.ndim != 2 or obj.shape[1] != 2:
+        return None
+    if not bool(_IS_NUMBER(obj).all()):
+        return None
+    try:
+        v = obj.astype(float)
+    except OverflowError:
+        return None
+    if not (bool(np.isfinite(v).all()) and float(np.abs(v).max(initial=0.0)) <= _HI):
+        return None
+    return v
+
+
 class _Reader:
     """Reads a JSON tree, collecting every problem with its field path."""
 
@@ -103,13 +132,19 @@ class _Reader:
         if not isinstance(value, dict):
             self.fail(path, f"must be an object, not {describe(value)}")
             return None
-        for key in value:
-            if key not in required and key not in optional:
-                self.fail(_join(path, key), "is not a known field")
-        missing = [key for key in required if key not in value]
-        for key in missing:
-            self.fail(_join(path, key), "is missing")
-        return None if missing else value
+        known = _KNOWN_KEYS.get((required, optional))
+        if known is None:
+            known = _KNOWN_KEYS[(required, optional)] = frozenset(required + optional)
+        if not known.issuperset(value):
+            for key in value:
+                if key not in known:
+                    self.fail(_join(path, key), "is not a known field")
+        if all(key in value for key in required):
+            return value
+        for key in required:
+            if key not in value:
+                self.fail(_join(path, key), "is missing")
+        return None
 
     def items(self, d: Json, key: str, path: str) -> Iterator[tuple[str, Any]]:
         value = d.get(key, [])
@@ -124,7 +159,9 @@ class _Reader:
         self, d: Json, key: str, path: str, rule: rules.Text = rules.LABEL, default: str = ""
     ) -> str:
         """The text at ``key`` if it keeps ``rule``; else ``default``, with a problem."""
-        v = d.get(key, default)
+        if key not in d:
+            return default
+        v = d[key]
         reason = rule.problem(v)
         if reason is not None:
             self.fail(_join(path, key), f"{describe(v)} {reason}" if isinstance(v, str) else reason)
@@ -155,7 +192,12 @@ class _Reader:
         is bad (or when it is null and ``nullable``)."""
         if key not in d:
             return default
-        return self.value(d[key], _join(path, key), rule, nullable=nullable)
+        v = d[key]
+        if type(v) is float or (type(v) is int and -1e300 < v < 1e300):  # the fast path
+            si = v * _FILE_FACTORS[rule.kind]
+            if rule.holds(si):
+                return si
+        return self.value(v, _join(path, key), rule, nullable=nullable)
 
     def value(
         self, v: Any, path: str, rule: rules.Range, *, nullable: bool = False
@@ -173,8 +215,7 @@ class _Reader:
         except OverflowError:
             self.fail(path, f"{describe(v)} is too large a number")
             return None
-        factor = rules.unit_of(rule.kind, FILE_UNITS)[0]
-        si = x * factor
+        si = x * _FILE_FACTORS[rule.kind]
         if rule.holds(si):
             return si
         reason, shown = rule.explain(si, FILE_UNITS)
@@ -212,8 +253,12 @@ class _Reader:
         y = self.value(value[1], f"{path}[1]", rule)
         return None if x is None or y is None else (x, y)
 
-    def points(self, d: Json, key: str, path: str) -> list[tuple[float, float]] | None:
-        """A list of coordinate pairs, m; None (with problems) if any is bad."""
+    def points(
+        self, d: Json, key: str, path: str, pairs: bool = True
+    ) -> Sequence[Sequence[float]] | None:
+        """The coordinate pairs at ``key``, m: a list of (x, y), or with ``pairs`` false
+        perhaps an (n, 2) array (for an outline, read at once); None (with problems) if
+        any is bad."""
         value = d.get(key, [])
         if not isinstance(value, list):
             self.fail(_join(path, key), f"must be a list, not {describe(value)}")
@@ -223,6 +268,9 @@ class _Reader:
                 _join(path, key), f"has {len(value)} points, more than {rules.MAX_OUTLINE_VERTICES}"
             )
             return None
+        fast = _plain_pairs(value)
+        if fast is not None:
+            return list(map(tuple, fast.tolist())) if pairs else fast  # type: ignore[return-value]
         out: list[tuple[float, float]] = []
         ok = True
         for i, p in enumerate(value):
@@ -386,7 +434,7 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
     if d is None:
         return None
     name = r.name(d, "name", path)
-    outline = r.points(d, "outline_m", path)
+    outline = r.points(d, "outline_m", path, pairs=False)
     draught = r.number(d, "draught_m", path, rules.DRAUGHT, nullable=True)
     freeboard = r.number(d, "freeboard_m", path, rules.FREEBOARD, nullable=True)
     disp = r.number(d, "displacement_t", path, rules.DISPLACEMENT, nullable=True)
@@ -407,7 +455,15 @@ def _decode_hull(r: _Reader, value: Any, path: str) -> Hull | None:
     hull = r.build(
         path,
         lambda: Hull(
-            name, tuple(outline), draught, freeboard, disp, cog, tuple(fittings), gyradius, method
+            name,
+            outline,  # type: ignore[arg-type]  # validated (and made a tuple) by Hull
+            draught,
+            freeboard,
+            disp,
+            cog,
+            tuple(fittings),
+            gyradius,
+            method,  # type: ignore[arg-type]
         ),
     )
     if hull is not None:

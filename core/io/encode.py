@@ -19,6 +19,13 @@ def num(v: float) -> float:
     return float(f"{v:.12g}") + 0.0
 
 
+def bearing(deg: float) -> float:
+    """A bearing written in [0, 360): what rounds to 360 in 12 digits is written 0, so that
+    save -> load -> save gives the same bytes."""
+    b = num(deg % 360.0)
+    return 0.0 if b >= 360.0 else b
+
+
 def _opt(v: float | None, scale: float = 1.0) -> float | None:
     return None if v is None else num(v / scale)
 
@@ -55,7 +62,7 @@ def encode(project: Project) -> Json:
                     {
                         "hull": m.hull,
                         "position_m": _pt((m.x, m.y)),
-                        "heading_deg": num(angle_to_bearing(m.heading_rad)),
+                        "heading_deg": bearing(angle_to_bearing(m.heading_rad)),
                     }
                     for m in g.members
                 ],
@@ -152,7 +159,7 @@ def _sector(sector: tuple[float, float] | None) -> list[float] | None:
     if sector is None:
         return None
     lo, hi = sector
-    return [num(angle_to_bearing(hi)), num(angle_to_bearing(lo))]
+    return [bearing(angle_to_bearing(hi)), bearing(angle_to_bearing(lo))]
 
 
 def _working_sector(sector: tuple[float, float], push: bool) -> list[float]:
@@ -186,7 +193,7 @@ def _encode_placement(project: Project, p: Placement) -> Json:
     if _fitting_kind(project, p) == "push":
         d["push_angle_deg"] = num(-math.degrees(p.lead_rad))
     else:
-        d["lead_deg"] = num(angle_to_bearing(p.lead_rad))
+        d["lead_deg"] = bearing(angle_to_bearing(p.lead_rad))
         d["line_length_m"] = num(p.line_length_m)
     d["astern"] = p.astern
     push = _fitting_kind(project, p) == "push"
@@ -204,7 +211,7 @@ def _encode_stage(project: Project, s: Stage) -> Json:
         "kind": s.kind,
         "notes": s.notes,
         "poses": [
-            {"body": p.body, "position_m": _pt((p.x, p.y)), "heading_deg": num(p.heading_deg)}
+            {"body": p.body, "position_m": _pt((p.x, p.y)), "heading_deg": bearing(p.heading_deg)}
             for p in s.poses
         ],
         "tugs": [_encode_placement(project, p) for p in s.placements],

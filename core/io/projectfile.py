@@ -3,7 +3,9 @@
 Loading reports every problem with its field path; a file from a newer format
 version is refused. Saving is atomic: the text goes to a temporary file in the same
 folder, is flushed and fsynced, and is renamed over the target, after the previous
-file has been kept as ``<name>.bak``. Save -> load -> save is byte-identical.
+file has been kept as ``<name>.bak``. A save keeps the old file's permission bits (a new
+file gets the user's umask) and writes through a symbolic link to the file it points
+to. Save -> load -> save is byte-identical.
 """
 
 from __future__ import annotations
@@ -97,14 +99,45 @@ def load_bytes(raw: bytes, source: str = "<bytes>") -> Project:
     return loads(text, source)
 
 
+def current_umask() -> int:
+    """The process's file-creation mask (read without changing it where the OS allows)."""
+    with contextlib.suppress(OSError, ValueError):
+        for line in Path("/proc/self/status").read_text().splitlines():
+            if line.startswith("Umask:"):
+                return int(line.split()[1], 8)
+    mask = os.umask(0o022)  # elsewhere: set it and put it back at once
+    os.umask(mask)
+    return mask
+
+
+def target_of(path: str | os.PathLike[str]) -> Path:
+    """The file a save to ``path`` writes: ``path`` itself, or through a symbolic link, the
+    file the link points to (so the link stays a link)."""
+    p = Path(path)
+    return Path(os.path.realpath(p)) if p.is_symlink() else p
+
+
+def _mode_for(path: Path) -> int:
+    """Permission bits for a new version of ``path``: the old file's, or for a new file what
+    the user's umask gives (0666 less the mask), as ``open`` would."""
+    try:
+        return os.stat(path).st_mode & 0o7777
+    except OSError:
+        return 0o666 & ~current_umask()
+
+
 @contextlib.contextmanager
-def replacing(path: Path) -> Iterator[Path]:
+def replacing(path: Path, mode: int | None = None) -> Iterator[Path]:
     """A temporary path beside ``path``; once the block has written it, it replaces ``path``.
 
     The temporary file is fsynced and renamed over ``path`` only if the block ends
     normally, so a crash or an error leaves either the old file or the new one, never
-    half of one; on an error the temporary file is removed.
+    half of one; on an error the temporary file is removed. A symbolic link is written
+    through to its target. The new file keeps the old file's permission bits (a new file
+    gets the user's umask), or ``mode`` when given.
     """
+    path = target_of(path)
+    bits = _mode_for(path) if mode is None else mode
     fd, name = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=path.parent)
     os.close(fd)
     tmp = Path(name)
@@ -112,6 +145,7 @@ def replacing(path: Path) -> Iterator[Path]:
         yield tmp
         with open(tmp, "rb+") as f:
             os.fsync(f.fileno())
+        os.chmod(tmp, bits)
         os.replace(tmp, path)
     except BaseException:
         with contextlib.suppress(OSError):
@@ -125,9 +159,10 @@ def replacing(path: Path) -> Iterator[Path]:
             os.close(dir_fd)
 
 
-def write_atomic(path: Path, data: bytes) -> None:
-    """Write ``data`` to ``path`` so that a crash leaves either the old or the new file."""
-    with replacing(path) as tmp:
+def write_atomic(path: Path, data: bytes, mode: int | None = None) -> None:
+    """Write ``data`` to ``path`` so that a crash leaves either the old or the new file
+    (permission bits and symbolic links as :func:`replacing` keeps them)."""
+    with replacing(path, mode) as tmp:
         tmp.write_bytes(data)
 
 
@@ -137,15 +172,23 @@ def backup_path(path: str | os.PathLike[str]) -> Path:
 
 
 def save(project: Project, path: str | os.PathLike[str]) -> Path:
-    """Write ``project`` to ``path`` atomically, keeping the previous file as ``.bak``."""
+    """Write ``project`` to ``path`` atomically, keeping the previous file as ``.bak``.
+
+    Saving through a symbolic link writes the file it points to (and its backup beside
+    it); the file keeps its permission bits, and so does its backup.
+    """
     p = Path(path)
-    data = dumps(project).encode("utf-8")
     try:
-        if p.exists():
-            old = p.read_bytes()
+        data = dumps(project).encode("utf-8")
+    except (UnicodeEncodeError, ValueError) as e:  # the rules keep these out; never half a file
+        raise ProjectFileError(str(p), [Problem("", f"cannot be written: {e}")]) from None
+    try:
+        real = target_of(p)
+        if real.exists():
+            old = real.read_bytes()
             if old != data:
-                write_atomic(backup_path(p), old)
-        write_atomic(p, data)
+                write_atomic(backup_path(real), old, _mode_for(real))
+        write_atomic(real, data)
     except OSError as e:
         raise ProjectFileError(
             str(p), [Problem("", f"cannot be written: {e.strerror or e}")]

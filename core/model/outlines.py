@@ -11,6 +11,7 @@ import math
 from collections.abc import Iterable, Sequence
 
 import numpy as np
+import shapely
 
 from core.errors import InputError, OutlineError
 from core.model.rules import COORDINATE, MAX_OUTLINE_VERTICES
@@ -36,39 +37,18 @@ def validate_outline(points: Iterable[Sequence[float]], name: str = "outline") -
         :data:`core.model.rules.MAX_OUTLINE_VERTICES` vertices, fewer than three distinct
         vertices, a self-crossing outline (naming the two edges), or zero area.
     """
-    raw: list[Vertex] = []
-    for i, p in enumerate(points):
-        if i >= MAX_OUTLINE_VERTICES:
-            raise OutlineError(
-                f"has more than {MAX_OUTLINE_VERTICES} vertices", outline=name, vertex=i
-            )
-        try:
-            x, y = (float(v) for v in p)
-        except (TypeError, ValueError, OverflowError):
-            raise OutlineError(
-                f"vertex {i} is not a pair of numbers: {_short(p)}", outline=name, vertex=i
-            ) from None
-        if not (math.isfinite(x) and math.isfinite(y)):
-            raise OutlineError(f"vertex {i} is not finite: ({x}, {y})", outline=name, vertex=i)
-        if not (COORDINATE.holds(x) and COORDINATE.holds(y)):
-            raise OutlineError(
-                f"vertex {i} ({x:g}, {y:g}) is farther than {COORDINATE.high:g} m from the origin",
-                outline=name,
-                vertex=i,
-            )
-        raw.append((x, y))
+    raw = _vertices(points, name)  # (n, 2), finite, within range
     # Drop repeats of the previous vertex and a closing repeat of the first.
-    verts: list[Vertex] = []
-    for p in raw:
-        if not verts or p != verts[-1]:
-            verts.append(p)
-    if len(verts) > 1 and verts[0] == verts[-1]:
-        verts.pop()
-    if len(set(verts)) < 3:
-        raise OutlineError(
-            f"needs at least three distinct vertices, has {len(set(verts))}", outline=name
-        )
-    v = np.asarray(verts, dtype=float)
+    if len(raw):
+        keep = np.ones(len(raw), dtype=bool)
+        keep[1:] = np.any(raw[1:] != raw[:-1], axis=1)
+        raw = raw[keep]
+    if len(raw) > 1 and np.array_equal(raw[0], raw[-1]):
+        raw = raw[:-1]
+    distinct = _distinct_up_to_three(raw)
+    if distinct < 3:
+        raise OutlineError(f"needs at least three distinct vertices, has {distinct}", outline=name)
+    v = raw + 0.0  # + 0.0 turns -0.0 into 0.0
     span = float(np.ptp(v, axis=0).max())
     centred = v - v.mean(axis=0)
     if np.linalg.svd(centred, compute_uv=False)[-1] <= 1e-9 * span * math.sqrt(len(v)):
@@ -88,8 +68,65 @@ def validate_outline(points: Iterable[Sequence[float]], name: str = "outline") -
     if abs(area) <= 1e-12 * span * span:
         raise OutlineError("has zero area (all vertices on one line)", outline=name)
     if area < 0:
-        verts.reverse()
-    return tuple((x + 0.0, y + 0.0) for x, y in verts)  # + 0.0 turns -0.0 into 0.0
+        v = v[::-1]
+    return tuple(map(tuple, v.tolist()))  # type: ignore[arg-type]
+
+
+def _distinct_up_to_three(v: np.ndarray) -> int:
+    """How many distinct vertices (n, 2) there are, counting no further than three."""
+    if not len(v):
+        return 0
+    other = np.any(v != v[0], axis=1)
+    if not other.any():
+        return 1
+    second = v[int(np.argmax(other))]
+    return 3 if bool((other & np.any(v != second, axis=1)).any()) else 2
+
+
+def _vertices(points: Iterable[Sequence[float]], name: str) -> np.ndarray:
+    """(n, 2) the vertices as floats, each finite and within the coordinate range.
+
+    Arrays and sequences of number pairs are converted at once; anything else (or a
+    problem) is read vertex by vertex to name the first bad one.
+    """
+    if not isinstance(points, np.ndarray | list | tuple):
+        points = list(points)
+    if len(points) > MAX_OUTLINE_VERTICES:
+        raise OutlineError(
+            f"has more than {MAX_OUTLINE_VERTICES} vertices",
+            outline=name,
+            vertex=MAX_OUTLINE_VERTICES,
+        )
+    try:
+        v = np.array(points, dtype=float)
+    except (TypeError, ValueError, OverflowError):
+        v = None
+    if (
+        v is not None
+        and v.ndim == 2
+        and v.shape[1] == 2
+        and bool(np.isfinite(v).all())
+        and float(np.abs(v).max(initial=0.0)) <= COORDINATE.high
+    ):
+        return v
+    if v is not None and v.size == 0:
+        return np.zeros((0, 2))
+    for i, p in enumerate(points):  # find the first bad vertex and say what is wrong
+        try:
+            x, y = (float(c) for c in p)
+        except (TypeError, ValueError, OverflowError):
+            raise OutlineError(
+                f"vertex {i} is not a pair of numbers: {_short(p)}", outline=name, vertex=i
+            ) from None
+        if not (math.isfinite(x) and math.isfinite(y)):
+            raise OutlineError(f"vertex {i} is not finite: ({x}, {y})", outline=name, vertex=i)
+        if not (COORDINATE.holds(x) and COORDINATE.holds(y)):
+            raise OutlineError(
+                f"vertex {i} ({x:g}, {y:g}) is farther than {COORDINATE.high:g} m from the origin",
+                outline=name,
+                vertex=i,
+            )
+    raise OutlineError("is not a list of (x, y) vertices", outline=name)  # a ragged array
 
 
 def _short(value: object) -> str:
@@ -102,11 +139,65 @@ def first_crossing(v: np.ndarray) -> tuple[int, int] | None:
 
     Non-adjacent edges must not touch at all; adjacent edges must not fold back
     onto each other. v: (n, 2) vertices; edge i runs from v[i] to v[i + 1].
+
+    Only pairs of edges whose bounding boxes overlap can touch: a sweep line over the
+    edges' boxes finds those pairs (:func:`box_pairs`), so an outline of n vertices costs
+    about n log n, not n^2; each candidate pair is then tested exactly.
     """
     n = len(v)
     a, b = v, np.roll(v, -1, axis=0)  # (n, 2) edge starts and ends
-    d = b - a
     scale = float(np.abs(v).max()) or 1.0
+    pad = 1e-12 * scale  # the tolerance the touch test allows, on every side of a box
+    i_idx, j_idx = box_pairs(np.minimum(a, b) - pad, np.maximum(a, b) + pad)
+    order = np.lexsort((j_idx, i_idx))  # first by i, then by j, as a scan of the pairs would
+    bad = _touching(a, b, scale, i_idx[order], j_idx[order], n)
+    hits = np.flatnonzero(bad)
+    if hits.size == 0:
+        return None
+    k = int(order[hits[0]])
+    return int(i_idx[k]), int(j_idx[k])
+
+
+def box_pairs(lo: np.ndarray, hi: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Every pair (i < j) of boxes that overlap (touching counts), by a sweep line.
+
+    lo, hi: (n, 2) lower and upper corners. The boxes are swept along whichever axis
+    gives fewer candidate pairs (boxes whose spans overlap on that axis); the candidates
+    are then kept where they overlap on the other axis too. Should the spans overlap
+    wholesale on both axes (a comb of long parallel edges), shapely's STRtree finds the
+    pairs instead, so the work stays near n log n plus the pairs found.
+    """
+    n = len(lo)
+    best = None
+    for axis in (0, 1):
+        order = np.argsort(lo[:, axis], kind="stable")
+        end = np.searchsorted(lo[order, axis], hi[order, axis], side="right")
+        counts = end - np.arange(n) - 1  # boxes starting within this one's span, after it
+        total = int(counts.sum())
+        if best is None or total < best[0]:
+            best = (total, axis, order, counts)
+    assert best is not None
+    total, axis, order, counts = best
+    if total > 32 * n + 100_000:
+        boxes = shapely.box(lo[:, 0], lo[:, 1], hi[:, 0], hi[:, 1])
+        i, j = shapely.STRtree(boxes).query(boxes)  # envelopes of boxes meet = boxes meet
+        keep = i < j
+        return i[keep], j[keep]
+    first = np.repeat(np.arange(n), counts)  # (total,) sorted positions
+    starts = np.repeat(np.cumsum(counts) - counts, counts)
+    second = first + 1 + (np.arange(total) - starts)
+    i, j = order[first], order[second]
+    other = 1 - axis
+    keep = (lo[i, other] <= hi[j, other]) & (lo[j, other] <= hi[i, other])
+    i, j = i[keep], j[keep]
+    return np.minimum(i, j), np.maximum(i, j)
+
+
+def _touching(
+    a: np.ndarray, b: np.ndarray, scale: float, i_idx: np.ndarray, j_idx: np.ndarray, n: int
+) -> np.ndarray:
+    """(m,) whether edge i_idx[k] and edge j_idx[k] (i < j) touch where they should not."""
+    d = b - a
     eps = 1e-12 * scale * scale
 
     def orient(p: np.ndarray, q: np.ndarray, r: np.ndarray) -> np.ndarray:
@@ -124,27 +215,26 @@ def first_crossing(v: np.ndarray) -> tuple[int, int] | None:
             & (r[..., 1] <= np.maximum(p[..., 1], q[..., 1]) + 1e-12 * scale)
         )
 
-    i_idx, j_idx = np.triu_indices(n, k=1)
-    p1, p2, q1, q2 = a[i_idx], b[i_idx], a[j_idx], b[j_idx]
+    adjacent = (j_idx == i_idx + 1) | ((i_idx == 0) & (j_idx == n - 1))
+    bad = np.zeros(len(i_idx), dtype=bool)
+    # Adjacent edges share a vertex; they are wrong only when they fold back (collinear, opposite).
+    ai, aj = i_idx[adjacent], j_idx[adjacent]
+    cross = d[ai, 0] * d[aj, 1] - d[ai, 1] * d[aj, 0]
+    dot = np.einsum("ij,ij->i", d[ai], d[aj])
+    bad[adjacent] = (np.abs(cross) <= eps) & (dot < 0)
+    # Other edges must not touch at all.
+    others = ~adjacent
+    oi, oj = i_idx[others], j_idx[others]
+    p1, p2, q1, q2 = a[oi], b[oi], a[oj], b[oj]
     o1, o2 = orient(p1, p2, q1), orient(p1, p2, q2)
     o3, o4 = orient(q1, q2, p1), orient(q1, q2, p2)
-    touch = ((o1 * o2 < 0) & (o3 * o4 < 0)) | (
+    bad[others] = ((o1 * o2 < 0) & (o3 * o4 < 0)) | (
         ((o1 == 0) & on_seg(p1, p2, q1))
         | ((o2 == 0) & on_seg(p1, p2, q2))
         | ((o3 == 0) & on_seg(q1, q2, p1))
         | ((o4 == 0) & on_seg(q1, q2, p2))
     )
-    adjacent = (j_idx == i_idx + 1) | ((i_idx == 0) & (j_idx == n - 1))
-    # Adjacent edges share a vertex; they are wrong only when they fold back (collinear, opposite).
-    cross = d[i_idx, 0] * d[j_idx, 1] - d[i_idx, 1] * d[j_idx, 0]
-    dot = np.einsum("ij,ij->i", d[i_idx], d[j_idx])
-    fold = adjacent & (np.abs(cross) <= eps) & (dot < 0)
-    bad = np.where(adjacent, fold, touch)
-    hits = np.flatnonzero(bad)
-    if hits.size == 0:
-        return None
-    k = int(hits[0])
-    return int(i_idx[k]), int(j_idx[k])
+    return bad
 
 
 def _positive(name: str, value: float) -> float:

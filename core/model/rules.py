@@ -238,9 +238,19 @@ class Text:
     max_length: int = 100
     required: bool = False
     multiline: bool = False
+    # Texts found good before (names repeat across a plan): checked once each.
+    _known: set[str] = field(default_factory=set, init=False, repr=False, compare=False)
 
     def problem(self, value: object) -> str | None:
         """Why ``value`` breaks the rule, or None."""
+        if type(value) is str and value in self._known:
+            return None
+        reason = self._problem(value)
+        if reason is None and len(self._known) < 100_000:
+            self._known.add(value)  # type: ignore[arg-type]
+        return reason
+
+    def _problem(self, value: object) -> str | None:
         if not isinstance(value, str):
             return f"{_short(value)} is not text"
         if self.required and not value.strip():
@@ -262,11 +272,15 @@ class Text:
         """The same rule under another label."""
         return Text(label, self.max_length, self.required, self.multiline)
 
-    def check(self, value: str, subject: str = "") -> str:
-        """``value`` if it keeps the rule; else an InputError naming the field."""
+    def check(self, value: str, subject: str = "", label: str | None = None) -> str:
+        """``value`` if it keeps the rule; else an InputError naming the field
+        (``label``, by default the rule's own, of ``subject``)."""
+        if type(value) is str and value in self._known:
+            return value
         reason = self.problem(value)
         if reason is not None:
-            name = f"{subject}: {self.label}" if subject else self.label
+            label = self.label if label is None else label
+            name = f"{subject}: {label}" if subject else label
             raise InputError(name, value, reason, shown=_short(value))
         return value
 

@@ -89,7 +89,7 @@ class Tug:
             ("call_sign", "call sign"),
             ("working_channel", "working channel"),
         ):
-            rules.LABEL.check(getattr(self, attr), f"{subject}: {label}")
+            rules.LABEL.check(getattr(self, attr), subject, label)
         rules.BOLLARD_PULL.check(self.bollard_pull_n, subject)
         given_astern = self.astern_pull_n is not None
         if self.astern_pull_n is None:
@@ -185,10 +185,10 @@ class Placement:
     push_pull: bool = False
 
     def __post_init__(self) -> None:
-        rules.NAME.check(self.tug, "placement: tug")
-        rules.NAME.check(self.hull, f"tug {self.tug}: hull")
-        rules.NAME.check(self.point, f"tug {self.tug}: point")
+        rules.NAME.check(self.tug, "placement", "tug")
         subject = f"tug {self.tug}"
+        rules.NAME.check(self.hull, subject, "hull")
+        rules.NAME.check(self.point, subject, "point")
         rules.SETTING.check(self.setting, subject)
         rules.LEAD.check(self.lead_rad, subject)
         rules.LINE_LENGTH.check(self.line_length_m, subject)

@@ -208,6 +208,25 @@ def test_an_empty_plan_still_prints(tmp_path, qapp_module):
     assert n >= 1 and "Nothing yet" in pages_text(out)[0]
 
 
+def test_a_pdf_gets_the_umask_and_an_old_pdf_keeps_its_bits(tmp_path, qapp_module):
+    import os
+    import stat
+
+    from app.briefing.document import write_pdf
+    from core.model.plan import Project
+
+    old_mask = os.umask(0o022)
+    try:
+        out = tmp_path / "new.pdf"
+        write_pdf(Project(name="Bits"), out)
+        assert stat.S_IMODE(out.stat().st_mode) == 0o644  # not private: 0666 less the umask
+        os.chmod(out, 0o640)
+        write_pdf(Project(name="Bits again"), out)
+        assert stat.S_IMODE(out.stat().st_mode) == 0o640
+    finally:
+        os.umask(old_mask)
+
+
 def test_a_failure_while_writing_leaves_no_file(tmp_path, qapp_module, monkeypatch):
     import app.briefing.document as briefing
 

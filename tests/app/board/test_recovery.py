@@ -106,3 +106,64 @@ def test_a_clean_close_leaves_nothing_to_recover(qtbot, dialogs) -> None:  # typ
     w.close()
     assert not w.recovery.path.exists()
     assert find_orphans(w.recovery.folder) == []
+
+
+def test_a_burst_of_edits_is_written_within_a_second(qtbot, isolated: Path) -> None:  # type: ignore[no-untyped-def]
+    """Edits 100 ms apart never let the pause timer fire; the deadline writes anyway."""
+    import time
+
+    from app.controller import Controller
+    from app.window.recovery import DEADLINE_MS, RecoveryWriter
+
+    c = Controller(load(SAMPLE))
+    writer = RecoveryWriter(c, isolated / "burst")
+    first = time.monotonic()
+    written_at = None
+    for k in range(20):  # two seconds of editing, never a pause of 300 ms
+        stage = c.project.stages[0]
+        tug = stage.placements[0]
+        c.apply(c.with_stage(stage.with_placement(tug.with_setting(k / 100))), "edit")
+        qtbot.wait(100)
+        if written_at is None and writer.writes:
+            written_at = time.monotonic()
+    assert written_at is not None, "no recovery write in two seconds of edits"
+    assert written_at - first < 1.0 + 0.1  # the deadline, checked every 100 ms
+    assert writer.writes >= 2  # and again for the burst's later edits
+    assert DEADLINE_MS < 1000
+    writer.close()
+
+
+def test_stale_locks_of_killed_windows_are_cleared(isolated: Path) -> None:
+    """A window killed with nothing unsaved leaves only its lock; the next start clears it,
+    and keeps the lock of a window still running."""
+    from PySide6.QtCore import QLockFile, QSysInfo
+
+    from app.window.recovery import find_orphans
+
+    folder = isolated / "locks"
+    folder.mkdir()
+    dead = folder / "session-1-1.lock"
+    # a lock file as a killed process leaves it: a PID no process has
+    dead.write_text(f"4194303\nTowboard\n{QSysInfo.machineHostName()}\n")
+    live = QLockFile(str(folder / "session-2-2.lock"))
+    assert live.tryLock(0)
+    (folder / "session-3-3.json").write_text("{}")  # the notes of a recovery file now gone
+    assert find_orphans(folder) == []
+    names = sorted(p.name for p in folder.iterdir())
+    assert names == ["session-2-2.lock"]
+    live.unlock()
+
+
+def test_recovery_files_are_private(qtbot, isolated: Path) -> None:  # type: ignore[no-untyped-def]
+    import stat
+
+    from app.controller import Controller
+    from app.window.recovery import RecoveryWriter
+
+    c = Controller(load(SAMPLE))
+    writer = RecoveryWriter(c, isolated / "private")
+    stage = c.project.stages[0]
+    c.apply(c.with_stage(stage.with_placement(stage.placements[0].with_setting(0.3))), "edit")
+    writer.write_now()
+    assert stat.S_IMODE(writer.path.stat().st_mode) == 0o600
+    writer.close()

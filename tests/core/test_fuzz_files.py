@@ -1,0 +1,114 @@
+"""Hostile files: hypothesis swaps values of the samples' JSON for arbitrary JSON (nulls,
+huge and tiny numbers, long integers, lone surrogates, lists, objects, deep nesting) and
+damages their bytes. Every file is refused by the project's own error family with one
+line, or loads, reports and saves with finite numbers. benchmarks/fuzz_files.py runs
+10,000 and more."""
+
+from __future__ import annotations
+
+import copy
+import json
+import tempfile
+from pathlib import Path
+from typing import Any
+
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+
+from tests.fuzz.checks import outcome
+from tests.fuzz.mutations import DEEP, paths, sample_trees, to_bytes, to_text
+
+numbers = st.one_of(
+    st.integers(),
+    st.integers(min_value=-(10**400), max_value=10**400),
+    st.floats(allow_nan=True, allow_infinity=True),
+    st.sampled_from([0, 1e-300, 5e-324, 1e300, 100.0, 360.0, 9806.65, 1e5]),
+)
+texts = st.one_of(st.text(max_size=30), st.sampled_from(["", " ", "\ud800", "a\x00", "x" * 300]))
+json_values = st.recursive(
+    st.one_of(st.none(), st.booleans(), numbers, texts, st.just(DEEP)),
+    lambda inner: st.one_of(st.lists(inner, max_size=4), st.dictionaries(texts, inner, max_size=4)),
+    max_leaves=8,
+)
+SAMPLES = sample_trees()
+
+
+def _edited(tree: Any, path: tuple[Any, ...], value: Any | None, drop: bool) -> Any:
+    """A copy of ``tree`` with the entry at ``path`` set to ``value``, or dropped."""
+    tree = copy.deepcopy(tree)
+    node = tree
+    for k in path[:-1]:
+        node = node[k]
+    if drop:
+        del node[path[-1]]
+    else:
+        node[path[-1]] = value
+    return tree
+
+
+@st.composite
+def swapped_files(draw: st.DrawFn) -> bytes:
+    """A sample with one to three values swapped for arbitrary JSON, or entries dropped."""
+    tree = draw(st.sampled_from(SAMPLES))
+    for _ in range(draw(st.integers(1, 3))):
+        path = draw(st.sampled_from(paths(tree)))
+        drop = draw(st.integers(0, 3)) == 0
+        tree = _edited(tree, path, None if drop else draw(json_values), drop)
+    return to_bytes(to_text(tree))
+
+
+@st.composite
+def damaged_bytes(draw: st.DrawFn) -> bytes:
+    """A sample's bytes with a few flipped, cut, inserted or repeated."""
+    data = bytearray(to_bytes(json.dumps(draw(st.sampled_from(SAMPLES)), ensure_ascii=False)))
+    for _ in range(draw(st.integers(1, 4))):
+        i = draw(st.integers(0, len(data) - 1))
+        op = draw(st.integers(0, 3))
+        if op == 0:
+            data[i] = draw(st.integers(0, 255))
+        elif op == 1:
+            data[i:i] = draw(st.binary(min_size=1, max_size=8))
+        elif op == 2:
+            del data[i : i + draw(st.integers(1, 16))]
+        else:
+            del data[i:]
+        if not data:
+            break
+    return bytes(data)
+
+
+FUZZ = settings(
+    max_examples=150,
+    deadline=None,
+    suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large],
+)
+
+
+@FUZZ
+@given(swapped_files())
+def test_a_file_with_values_swapped_is_refused_cleanly_or_carried_through(data: bytes) -> None:
+    with tempfile.TemporaryDirectory() as tmp:
+        outcome(data, Path(tmp))
+
+
+@FUZZ
+@given(damaged_bytes())
+def test_a_file_with_damaged_bytes_is_refused_cleanly_or_carried_through(data: bytes) -> None:
+    with tempfile.TemporaryDirectory() as tmp:
+        outcome(data, Path(tmp))
+
+
+def test_numbers_at_the_edges_of_their_ranges_are_mostly_carried_through(tmp_path: Path) -> None:
+    """Seeded moves of numbers to the edges of the rules' ranges: many such files load, and
+    every one that does reports and saves with finite numbers."""
+    import random
+
+    from tests.fuzz.mutations import edge_numbers
+
+    rnd = random.Random(9)
+    results = [
+        outcome(to_bytes(to_text(edge_numbers(tree, rnd, 1))), tmp_path)[0]
+        for tree in SAMPLES
+        for _ in range(6)
+    ]
+    assert results.count("accepted") >= len(results) // 4, results
