@@ -18,7 +18,7 @@ import time
 from dataclasses import dataclass
 from pathlib import Path
 
-from PySide6.QtCore import QLockFile, QObject, QStandardPaths, QTimer
+from PySide6.QtCore import QLockFile, QObject, QStandardPaths, Qt, QTimer
 
 from app.controller import Controller
 from core.io.projectfile import dumps, loads, write_atomic
@@ -121,6 +121,7 @@ class RecoveryWriter(QObject):
         self._timer.timeout.connect(self.write_now)
         self._deadline = QTimer(self)  # started by a burst's first change, never restarted
         self._deadline.setSingleShot(True)
+        self._deadline.setTimerType(Qt.TimerType.PreciseTimer)
         self._deadline.setInterval(DEADLINE_MS)
         self._deadline.timeout.connect(self.write_now)
         controller.changed.connect(self._changed)
