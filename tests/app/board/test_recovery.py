@@ -126,11 +126,13 @@ def test_a_burst_of_edits_is_written_by_its_deadline(qtbot, isolated: Path) -> N
     left = writer._deadline.remainingTime()
     assert 0 < left <= DEADLINE_MS + 10 and DEADLINE_MS < 1000  # under a second behind
     for k in range(2, 5):
+        writes = writer.writes
         qtbot.wait(20)
         edit(k)
         assert writer._timer.remainingTime() > DELAY_MS * 0.8  # the pause timer restarts
         now = writer._deadline.remainingTime()
-        assert 0 <= now < left  # the deadline does not
+        if writer.writes == writes:  # (on a slow machine the deadline may have come)
+            assert 0 <= now < left  # the deadline does not restart
         left = now
     k = 5
     while not writer.writes and k < 200:  # keep editing, never pausing
