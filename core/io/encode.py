@@ -253,8 +253,8 @@ def _encode_stage(project: Project, s: Stage) -> Json:
         "swing": None
         if s.swing is None
         else {
-            "start_heading_deg": num(s.swing.start_heading_deg),
-            "end_heading_deg": num(s.swing.end_heading_deg),
+            "start_heading_deg": bearing(s.swing.start_heading_deg),
+            "end_heading_deg": bearing(s.swing.end_heading_deg),
             "bow_swings_to": s.swing.bow_to,
         },
     }
