@@ -40,11 +40,13 @@ def ghost_polygons(
     return out
 
 
-def _path(poly: shapely.Polygon) -> QPainterPath:
+def _path(poly: shapely.Geometry) -> QPainterPath:
+    """A polygon, or the parts of a lashed group whose hulls do not touch, as one path."""
     path = QPainterPath()
-    for ring in (poly.exterior, *poly.interiors):
-        path.addPolygon(QPolygonF([QPointF(x, y) for x, y in ring.coords]))
-        path.closeSubpath()
+    for part in shapely.get_parts(poly):
+        for ring in (part.exterior, *part.interiors):
+            path.addPolygon(QPolygonF([QPointF(x, y) for x, y in ring.coords]))
+            path.closeSubpath()
     return path
 
 

@@ -222,7 +222,8 @@ class StageDiagram:
             p.drawPolygon(f.poly([pl.point(v) for v in outline]))
         p.setBrush(Qt.BrushStyle.NoBrush)
         p.setPen(QPen(style.HULL_EDGE, ctx.mm(0.55)))
-        p.drawPolygon(f.poly(list(pb.polygon.exterior.coords)))
+        for part in shapely.get_parts(pb.polygon):  # hulls of a group need not touch
+            p.drawPolygon(f.poly(list(part.exterior.coords)))
         body = pb.body
         # centreline of each member, its bow marked with an arrowhead
         pen = QPen(style.CENTRELINE, ctx.mm(0.18), Qt.PenStyle.DashDotLine)

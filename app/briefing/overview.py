@@ -120,7 +120,8 @@ class OverviewDiagram:
         fill.setAlpha(150)
         p.setPen(QPen(style.HULL_EDGE, ctx.mm(0.45 if final else 0.25)))
         p.setBrush(fill)
-        p.drawPolygon(f.poly(list(pb.polygon.exterior.coords)))
+        for part in shapely.get_parts(pb.polygon):  # hulls of a group need not touch
+            p.drawPolygon(f.poly(list(part.exterior.coords)))
         p.setBrush(Qt.BrushStyle.NoBrush)
         # the bow: an arrowhead on the centreline near the bow of the body
         body, pl = pb.body, pb.placing

@@ -12,6 +12,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
+import shapely
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
     QComboBox,
@@ -255,8 +256,9 @@ class SiteImportDialog(QDialog):
         stage = stages[min(self.stage_index, len(stages) - 1)] if stages else None
         if stage is not None and self.project.hulls:
             for pb in placed_bodies(self.project, stage):
-                pts = tuple((float(x), float(y)) for x, y in list(pb.polygon.exterior.coords)[:-1])
-                shapes.append(Shape(pts, True, style.MUTED, None, 1.0, dashed=True))
+                for part in shapely.get_parts(pb.polygon):  # hulls of a group need not touch
+                    pts = tuple((float(x), float(y)) for x, y in list(part.exterior.coords)[:-1])
+                    shapes.append(Shape(pts, True, style.MUTED, None, 1.0, dashed=True))
         xs = [x for s in shapes for x, _ in s.points]
         ys = [y for s in shapes for _, y in s.points]
         u = self.project.units

@@ -21,3 +21,22 @@ def test_edge_files_that_load_brief_with_finite_numbers(tmp_path: Path, qapp) ->
                 briefed += 1
                 break
     assert briefed == len(sample_trees())  # one briefing per sample at least
+
+
+def test_a_lashed_group_whose_hulls_do_not_touch_briefs(tmp_path: Path, qapp) -> None:  # type: ignore[no-untyped-def]
+    """Hulls lashed with a gap between them (fenders, spacers) are one body whose outline
+    is in two parts; the stage diagrams and the overview draw both (a crash found by the
+    fuzz test)."""
+    import json
+
+    from core.io.projectfile import loads
+    from core.mechanics.bodies import body_of
+    from tests.conftest import SAMPLES
+
+    data = json.loads((SAMPLES / "twin_barge_move.towboard").read_text(encoding="utf-8"))
+    member = data["groups"][0]["members"][1]
+    member["position_m"] = [member["position_m"][0], member["position_m"][1] - 30.0]  # a gap
+    project = loads(json.dumps(data))
+    body = body_of(project, "Lark pair")
+    assert body.polygon.geom_type == "MultiPolygon"  # the case this test is about
+    assert brief_is_finite(project, tmp_path) >= 1
