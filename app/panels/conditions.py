@@ -16,7 +16,6 @@ from dataclasses import dataclass, replace
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
     QDialog,
-    QDialogButtonBox,
     QFormLayout,
     QGroupBox,
     QHBoxLayout,
@@ -33,6 +32,7 @@ from PySide6.QtWidgets import (
 
 from app.controller import Controller
 from app.numbers import message, parse_number, parse_optional, parse_value
+from app.panels.dialog_parts import ok_cancel
 from core.errors import InputError, TowboardError
 from core.frames import turning_words
 from core.mechanics.bodies import stage_body
@@ -401,11 +401,7 @@ class EfficiencyDialog(QDialog):
             "columns the table is interpolated linearly; beyond them the edge values hold."
         )
         note.setWordWrap(True)
-        buttons = QDialogButtonBox(
-            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel
-        )
-        buttons.accepted.connect(self._accept)
-        buttons.rejected.connect(self.reject)
+        buttons = ok_cancel(self, accept=self._accept)
         layout = QVBoxLayout(self)
         layout.addLayout(form)
         layout.addWidget(self.grid)

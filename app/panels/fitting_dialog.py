@@ -14,7 +14,6 @@ from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
     QComboBox,
     QDialog,
-    QDialogButtonBox,
     QFormLayout,
     QHBoxLayout,
     QLabel,
@@ -28,6 +27,7 @@ from app import numbers
 from app.controller import Controller
 from app.edits import hulls as hull_edits
 from app.panels import fitting_fields as ff
+from app.panels.dialog_parts import error_label, ok_cancel
 from app.panels.fittings_model import say_if_snapped
 from core.errors import TowboardError
 from core.model import rules
@@ -70,16 +70,8 @@ class FittingDialog(QDialog):
         self.note = QLabel(RATING_NOTE)
         self.note.setWordWrap(True)
         self.note.setStyleSheet("color: #455a64;")
-        self.error = QLabel("")
-        self.error.setObjectName("error")
-        self.error.setWordWrap(True)
-        self.error.setStyleSheet("color: #b71c1c;")
-        self.error.setVisible(False)
-        self.buttons = QDialogButtonBox(
-            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel
-        )
-        self.buttons.accepted.connect(self.accept)
-        self.buttons.rejected.connect(self.reject)
+        self.error = error_label()
+        self.buttons = ok_cancel(self)
         self._lay_out()
         self.load(controller.project.hull(hull).fitting(name))
         self.resize(460, 0)

@@ -26,6 +26,7 @@ from PySide6.QtWidgets import (
 from app.controller import Controller
 from app.edits import hulls as hull_edits
 from app.panels import fitting_fields as ff
+from app.panels.dialog_parts import error_label
 from app.panels.fittings_model import KEYS, FittingsModel
 from app.panels.vertices_model import VerticesModel
 from core.model.hull import FITTING_TYPES
@@ -49,15 +50,6 @@ def _table(model) -> QTableView:  # type: ignore[no-untyped-def]
     t.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.ResizeToContents)
     t.horizontalHeader().setStretchLastSection(True)
     return t
-
-
-def _error_label() -> QLabel:
-    lab = QLabel("")
-    lab.setObjectName("error")
-    lab.setWordWrap(True)
-    lab.setStyleSheet("color: #b71c1c;")
-    lab.setVisible(False)
-    return lab
 
 
 class ChoiceDelegate(QStyledItemDelegate):
@@ -91,7 +83,7 @@ class OutlineTab(QWidget):
         self.table = _table(self.model)
         self.table.verticalHeader().setVisible(True)
         self.table.verticalHeader().setToolTip("Vertex number, as outline messages name it")
-        self.error = _error_label()
+        self.error = error_label()
         self.model.refused = self._show_error
         self.insert = QPushButton("Insert after")
         self.insert.setToolTip("A new vertex half way along the edge after the selected one")

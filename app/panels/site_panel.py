@@ -13,7 +13,6 @@ from dataclasses import replace
 from PySide6.QtWidgets import (
     QComboBox,
     QDialog,
-    QDialogButtonBox,
     QFormLayout,
     QHBoxLayout,
     QLabel,
@@ -27,6 +26,7 @@ from PySide6.QtWidgets import (
 
 from app.controller import Controller
 from app.numbers import message, parse_number
+from app.panels.dialog_parts import ok_cancel
 from core.errors import InputError
 from core.mechanics.site import basin, channel, dolphin, moored_vessel, quay
 from core.model.plan import SiteFeature
@@ -135,11 +135,7 @@ class FeatureDialog(QDialog):
         self.error = QLabel(self)
         self.error.setStyleSheet("color: #b3261e")
         self.error.setWordWrap(True)
-        buttons = QDialogButtonBox(
-            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel, self
-        )
-        buttons.accepted.connect(self._try_accept)
-        buttons.rejected.connect(self.reject)
+        buttons = ok_cancel(self, accept=self._try_accept, parent=self)
         top = QFormLayout()
         top.addRow("Kind", self.kind)
         top.addRow("Name", self.name)

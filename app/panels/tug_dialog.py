@@ -10,7 +10,6 @@ from __future__ import annotations
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
     QDialog,
-    QDialogButtonBox,
     QGroupBox,
     QHBoxLayout,
     QLabel,
@@ -21,6 +20,7 @@ from PySide6.QtWidgets import (
 from app import numbers
 from app.controller import Controller
 from app.edits import tugs as tug_edits
+from app.panels.dialog_parts import error_label, ok_cancel
 from app.panels.tug_form import TugForm
 from core.errors import TowboardError
 
@@ -52,16 +52,8 @@ class TugDialog(QDialog):
         self.capability_note.setWordWrap(True)
         self.capability_note.setStyleSheet("color: #78909c;")
         cap.addWidget(self.capability_note)
-        self.error = QLabel("")
-        self.error.setObjectName("error")
-        self.error.setWordWrap(True)
-        self.error.setStyleSheet("color: #b71c1c;")
-        self.error.setVisible(False)
-        self.buttons = QDialogButtonBox(
-            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel
-        )
-        self.buttons.accepted.connect(self.accept)
-        self.buttons.rejected.connect(self.reject)
+        self.error = error_label()
+        self.buttons = ok_cancel(self)
         left = QVBoxLayout()
         left.addWidget(self.form)
         left.addWidget(note)

@@ -14,7 +14,6 @@ from PySide6.QtWidgets import (
     QCheckBox,
     QComboBox,
     QDialog,
-    QDialogButtonBox,
     QDoubleSpinBox,
     QFileDialog,
     QFormLayout,
@@ -29,6 +28,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.drawings.pictures import KINDS, MAX_SIDE_PX, PictureSpec
+from app.panels.dialog_parts import ok_cancel
 from core.errors import TowboardError
 from core.model.plan import Project
 from core.units import label
@@ -41,16 +41,6 @@ def _file_row(edit: QLineEdit, choose: QPushButton) -> QHBoxLayout:
     row.addWidget(edit, 1)
     row.addWidget(choose)
     return row
-
-
-def _buttons(dialog: QDialog, ok_text: str) -> QDialogButtonBox:
-    b = QDialogButtonBox(
-        QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel
-    )
-    b.button(QDialogButtonBox.StandardButton.Ok).setText(ok_text)
-    b.accepted.connect(dialog.accept)
-    b.rejected.connect(dialog.reject)
-    return b
 
 
 def numbered(path: Path, index: int) -> Path:
@@ -128,7 +118,7 @@ class PictureDialog(QDialog):
         layout = QVBoxLayout(self)
         layout.addLayout(form)
         layout.addWidget(self.error)
-        self.buttons = _buttons(self, "Export")
+        self.buttons = ok_cancel(self, ok_text="Export")
         layout.addWidget(self.buttons)
         for w in (self.width_px, self.height_px):
             w.valueChanged.connect(self._paper)
@@ -236,7 +226,7 @@ class TablesDialog(QDialog):
         layout = QVBoxLayout(self)
         layout.addLayout(form)
         layout.addWidget(self.error)
-        self.buttons = _buttons(self, "Export")
+        self.buttons = ok_cancel(self, ok_text="Export")
         layout.addWidget(self.buttons)
         for w in (self.tugs, self.balance):
             w.toggled.connect(self._files)

@@ -15,12 +15,10 @@ from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
     QAbstractItemView,
     QDialog,
-    QDialogButtonBox,
     QFormLayout,
     QGroupBox,
     QHBoxLayout,
     QHeaderView,
-    QLabel,
     QLineEdit,
     QPlainTextEdit,
     QPushButton,
@@ -31,6 +29,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
+from app.panels.dialog_parts import error_label, ok_cancel
 from core.errors import InputError, TowboardError
 from core.model.plan import Project, Revision
 
@@ -83,16 +82,8 @@ class PlanDetailsDialog(QDialog):
         self.notes.setTabChangesFocus(True)
         self.notes.setPlaceholderText("Printed on the briefing's cover")
         self.notes.setMinimumHeight(70)
-        self.error = QLabel("")
-        self.error.setObjectName("error")
-        self.error.setWordWrap(True)
-        self.error.setStyleSheet("color: #b71c1c;")
-        self.error.setVisible(False)
-        self.buttons = QDialogButtonBox(
-            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel
-        )
-        self.buttons.accepted.connect(self.accept)
-        self.buttons.rejected.connect(self.reject)
+        self.error = error_label()
+        self.buttons = ok_cancel(self)
         self._lay_out()
         self.load(controller.project)
         self.resize(620, 560)

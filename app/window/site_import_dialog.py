@@ -32,6 +32,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.paint import style
+from app.panels.dialog_parts import ok_cancel
 from app.window.drawing_preview import PreviewPane, Shape, Tag
 from core.errors import DrawingError, InputError, TowboardError
 from core.io.drawing_units import METRES_PER_UNIT, UNIT_WORDS
@@ -126,12 +127,7 @@ class SiteImportDialog(QDialog):
         self.error = QLabel()
         self.error.setWordWrap(True)
         self.error.setStyleSheet("color: #b3261e;")
-        self.buttons = QDialogButtonBox(
-            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel
-        )
-        self.buttons.button(QDialogButtonBox.StandardButton.Ok).setText("Import")
-        self.buttons.accepted.connect(self.accept)
-        self.buttons.rejected.connect(self.reject)
+        self.buttons = ok_cancel(self, ok_text="Import")
         self._lay_out()
         for spin in (self.origin_x, self.origin_y, self.north):
             spin.valueChanged.connect(self.refresh)

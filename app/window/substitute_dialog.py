@@ -34,6 +34,7 @@ from PySide6.QtWidgets import (
 from app import numbers
 from app.controller import Controller
 from app.paint import style
+from app.panels.dialog_parts import error_label
 from app.panels.tug_form import TugForm
 from core.analysis.checks import StageCheck, Substitution, substitute_tug
 from core.errors import TowboardError
@@ -93,11 +94,7 @@ class SubstituteDialog(QDialog):
         self.table.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         self.summary = QLabel("Type the substitute's particulars, then check the plan.")
         self.summary.setWordWrap(True)
-        self.error = QLabel("")
-        self.error.setObjectName("error")
-        self.error.setWordWrap(True)
-        self.error.setStyleSheet("color: #b71c1c;")
-        self.error.setVisible(False)
+        self.error = error_label()
         self.buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
         self.apply_button = self.buttons.addButton(
             "Apply to the plan", QDialogButtonBox.ButtonRole.ApplyRole

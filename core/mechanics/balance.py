@@ -62,6 +62,22 @@ class Load:
         return moment_of(self.point, self.force, ref) + self.moment_nm
 
 
+#: The per-tug arrays of a :class:`TugLayout` (one row per tug; None where unused).
+_ROW_ARRAYS = (
+    "points",
+    "directions",
+    "positions",
+    "is_push",
+    "rated_n",
+    "usable_n",
+    "swl_n",
+    "line_angle_rad",
+    "pull_scale_n",
+    "lead_frame_rad",
+    "share_angle_rad",
+)
+
+
 @dataclass(frozen=True, slots=True)
 class TugLayout:
     """Placements of the tugs working on one body, as arrays. n = number of tugs.
@@ -101,22 +117,7 @@ class TugLayout:
         def cut(arr: np.ndarray | None) -> np.ndarray | None:
             return None if arr is None else arr[keep]
 
-        fields: dict[str, object] = {
-            name: cut(getattr(self, name))
-            for name in (
-                "points",
-                "directions",
-                "positions",
-                "is_push",
-                "rated_n",
-                "usable_n",
-                "swl_n",
-                "line_angle_rad",
-                "pull_scale_n",
-                "lead_frame_rad",
-                "share_angle_rad",
-            )
-        }
+        fields: dict[str, object] = {name: cut(getattr(self, name)) for name in _ROW_ARRAYS}
         fields["placements"] = self.placements[:index] + self.placements[index + 1 :]
         fields["ways"] = self.ways[:index] + self.ways[index + 1 :]
         fields["curves"] = self.curves[:index] + self.curves[index + 1 :]
@@ -145,22 +146,7 @@ class TugLayout:
 
         placements = list(self.placements)
         placements[i] = one.placements[0]
-        arrays = {
-            name: put(getattr(self, name), getattr(one, name))
-            for name in (
-                "points",
-                "directions",
-                "positions",
-                "is_push",
-                "rated_n",
-                "usable_n",
-                "swl_n",
-                "line_angle_rad",
-                "pull_scale_n",
-                "lead_frame_rad",
-                "share_angle_rad",
-            )
-        }
+        arrays = {name: put(getattr(self, name), getattr(one, name)) for name in _ROW_ARRAYS}
         ways = list(self.ways)
         curves = list(self.curves)
         if ways and one.ways:

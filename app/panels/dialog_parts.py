@@ -1,0 +1,39 @@
+"""Parts every editing dialog has: the line that says what is wrong, and OK / Cancel."""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+
+from PySide6.QtWidgets import QDialog, QDialogButtonBox, QLabel, QWidget
+
+#: Colour of a refusal's words (dark red, readable on the light dialog background).
+ERROR_COLOUR = "#b71c1c"
+
+
+def error_label() -> QLabel:
+    """A hidden, word-wrapped label for a refusal, named "error" (tests find it by name)."""
+    lab = QLabel("")
+    lab.setObjectName("error")
+    lab.setWordWrap(True)
+    lab.setStyleSheet(f"color: {ERROR_COLOUR};")
+    lab.setVisible(False)
+    return lab
+
+
+def ok_cancel(
+    dialog: QDialog,
+    *,
+    accept: Callable[[], object] | None = None,
+    ok_text: str | None = None,
+    parent: QWidget | None = None,
+) -> QDialogButtonBox:
+    """OK and Cancel for ``dialog``: OK calls ``accept`` (default ``dialog.accept``),
+    labelled ``ok_text`` when given; Cancel rejects."""
+    buttons = QDialogButtonBox(
+        QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel, parent
+    )
+    if ok_text is not None:
+        buttons.button(QDialogButtonBox.StandardButton.Ok).setText(ok_text)
+    buttons.accepted.connect(accept or dialog.accept)
+    buttons.rejected.connect(dialog.reject)
+    return buttons
