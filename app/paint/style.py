@@ -83,6 +83,14 @@ ALL_TUGS = TUG_FORCE
 ALL_TUGS_FILL = QColor(30, 95, 180, 28)
 TUG_LOST = QColor("#c2410c")
 PLANNED_WIND = QColor("#8e1b1b")
+CURRENT_HELD = CURRENT  # the hold limits for the current, dash-dotted
+
+# -- a tug's capability (the tug editor's polar diagram) and working sectors --------------
+CAPABILITY_LINE = TUG_FORCE
+CAPABILITY_PUSH = QColor("#6d4c41")
+CAPABILITY_PUSH_PULL = QColor("#2e6f5e")
+SECTOR_FILL = QColor(30, 95, 180, 26)  # a tug's working sector on the board, faint
+SECTOR_EDGE = QColor(30, 95, 180, 120)
 
 # -- the verdict -------------------------------------------------------------------------
 GO = QColor("#1e6b35")

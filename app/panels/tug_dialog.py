@@ -7,6 +7,8 @@ Input the core refuses is named in the dialog, which stays open with everything 
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
     QDialog,
@@ -20,9 +22,11 @@ from PySide6.QtWidgets import (
 from app import numbers
 from app.controller import Controller
 from app.edits import tugs as tug_edits
+from app.panels.capability_editor import CapabilityEditor
 from app.panels.dialog_parts import error_label, ok_cancel
 from app.panels.tug_form import TugForm
 from core.errors import TowboardError
+from core.model.capability import Capability
 
 CERTIFICATE_NOTE = (
     "Certified bollard pull governs: enter the figures and date of the tug's current certificate."
@@ -43,15 +47,14 @@ class TugDialog(QDialog):
         note = QLabel(CERTIFICATE_NOTE)
         note.setWordWrap(True)
         note.setStyleSheet("color: #455a64;")
-        #: Where the tug's capability diagram goes (tug types with a capability).
-        self.capability = QGroupBox("Capability")
+        #: The tug's capability: polar diagram and table (app.panels.capability_editor).
+        self.capability = QGroupBox("Capability: usable share of the bollard pull by direction")
         cap = QVBoxLayout(self.capability)
-        self.capability_note = QLabel(
-            "Usable pull by direction for the tug's type: not available in this version."
-        )
-        self.capability_note.setWordWrap(True)
-        self.capability_note.setStyleSheet("color: #78909c;")
-        cap.addWidget(self.capability_note)
+        self.capability_editor = CapabilityEditor(controller.project.units)
+        self.capability_editor.load(controller.project.tug(name).capability_curves)
+        self.capability_editor.defaults_of = self._type_defaults
+        self.form.edited.connect(self._form_edited)
+        cap.addWidget(self.capability_editor)
         self.error = error_label()
         self.buttons = ok_cancel(self)
         left = QVBoxLayout()
@@ -59,17 +62,28 @@ class TugDialog(QDialog):
         left.addWidget(note)
         left.addStretch(1)
         body = QHBoxLayout()
-        body.addLayout(left, 3)
-        body.addWidget(self.capability, 2)
+        body.addLayout(left, 1)
+        body.addWidget(self.capability, 1)
         layout = QVBoxLayout(self)
         layout.addLayout(body)
         layout.addWidget(self.error)
         layout.addWidget(self.buttons)
 
+    def _type_defaults(self) -> Capability | None:
+        """The placeholder capability of the type and astern pull the form holds now."""
+        try:
+            return replace(self.form.tug(), capability=None).capability_curves
+        except (TowboardError, ValueError):
+            return None
+
+    def _form_edited(self) -> None:
+        self.capability_editor.follow_defaults(self._type_defaults())
+
     def accept(self) -> None:
         c = self.controller
         try:
-            new = tug_edits.edited_tug(c.project, self.tug_name, self.form.tug())
+            tug = replace(self.form.tug(), capability=self.capability_editor.capability())
+            new = tug_edits.edited_tug(c.project, self.tug_name, tug)
         except (TowboardError, ValueError) as e:
             self.error.setText(f"Not changed: {numbers.message(e, c.project.units)}")
             self.error.setVisible(True)

@@ -16,7 +16,7 @@ from app import formatting as fmt
 from app import numbers
 from core.errors import InputError
 from core.model import rules
-from core.model.tugs import Tug
+from core.model.tugs import TENSION_WARN_FRACTION, Tug
 from core.units import DisplayUnits, Quantity
 
 #: Offered in the type list; any other word may be typed.
@@ -46,6 +46,12 @@ class TugForm(QWidget):
         self.towline_length, self.towline_mbl = QLineEdit(), QLineEdit()
         for w in (self.height, self.towline_length, self.towline_mbl):
             w.setPlaceholderText("not given")
+        self.warn_share = QLineEdit()
+        self.warn_share.setToolTip(
+            "The towline's tension is warned about above this share of its MBL "
+            f"({rules.TOWLINE_WARN_SHARE.span()}; {TENSION_WARN_FRACTION:g} is common "
+            "practice, no source)"
+        )
         self.mbl_ratio = QLabel("")
         self.mbl_ratio.setStyleSheet("color: #455a64;")
         self.call_sign, self.channel = QLineEdit(), QLineEdit()
@@ -65,6 +71,7 @@ class TugForm(QWidget):
         form.addRow(f"Towline length ({ln})", self.towline_length)
         form.addRow(f"Towline MBL ({f})", self.towline_mbl)
         form.addRow("", self.mbl_ratio)
+        form.addRow("Towline warning (share of MBL)", self.warn_share)
         form.addRow("Call sign", self.call_sign)
         form.addRow("Working channel", self.channel)
         for w in self._lines():
@@ -81,6 +88,7 @@ class TugForm(QWidget):
             self.height,
             self.towline_length,
             self.towline_mbl,
+            self.warn_share,
             self.call_sign,
             self.channel,
         )
@@ -104,6 +112,7 @@ class TugForm(QWidget):
         self.height.setText(self._text(tug.towing_point_height_m, "length"))
         self.towline_length.setText(self._text(tug.towline_length_m, "length"))
         self.towline_mbl.setText(self._text(tug.towline_mbl_n, "force"))
+        self.warn_share.setText(f"{tug.towline_warn_fraction:.6g}")
         self.call_sign.setText(tug.call_sign)
         self.channel.setText(tug.working_channel)
         self._loaded = {w: w.text() for w in self._lines()}
@@ -125,6 +134,11 @@ class TugForm(QWidget):
         bp = self._number(self.bollard_pull, old.bollard_pull_n, rules.BOLLARD_PULL, name)
         if bp is None:
             raise InputError(f"tug {name}: bollard pull", "", "must be given")
+        warn = self._number(
+            self.warn_share, old.towline_warn_fraction, rules.TOWLINE_WARN_SHARE, name
+        )
+        if warn is None:
+            raise InputError(f"tug {name}: towline warning share of MBL", "", "must be given")
         return replace(
             old,
             name=name,
@@ -142,6 +156,7 @@ class TugForm(QWidget):
             towline_mbl_n=self._number(
                 self.towline_mbl, old.towline_mbl_n, rules.TOWLINE_MBL, name
             ),
+            towline_warn_fraction=warn,
             call_sign=self.call_sign.text().strip(),
             working_channel=self.channel.text().strip(),
         )
