@@ -11,6 +11,7 @@ Every entry edits through the controller, so each is one undo step.
 
 from __future__ import annotations
 
+import math
 from dataclasses import replace
 from typing import TYPE_CHECKING
 
@@ -18,9 +19,11 @@ from PySide6.QtCore import QPointF
 from PySide6.QtWidgets import QInputDialog, QMenu, QWidget
 
 from app.edits import bodies as body_edits
+from app.edits import sectors
 from core.errors import TowboardError
 from core.mechanics.bodies import body_name_of_hull
 from core.model.swing import Swing
+from core.model.tugs import Placement
 
 if TYPE_CHECKING:
     from app.board.scene import BoardScene
@@ -94,8 +97,45 @@ def _tug_entries(scene: BoardScene, menu: QMenu, tug: str) -> None:
     sub = menu.addMenu(f"Setting of {tug} ({setting * 100:.0f} %)")
     for pct in (0, 25, 50, 75, 100):
         sub.addAction(f"{pct} %", lambda p=pct: inter.step_setting(tug, p / 100 - setting))
+    _sector_entries(scene, menu, tug)
     menu.addSeparator()
     menu.addAction(f"Let go {tug}", inter.delete_selection)
+
+
+def _sector_entries(scene: BoardScene, menu: QMenu, tug: str) -> None:
+    """The tug's working sector (about its lead as set, the whole circle, none) and, at a
+    push point, whether it is made fast (push-pull); each one undo step."""
+    c = scene.controller
+    stage = c.stage
+    placement = stage.placement(tug)
+    at_push = c.project.hull(placement.hull).fitting(placement.point).kind == "push"
+
+    def put(new: Placement, text: str) -> None:
+        _run(scene, text, lambda: c.apply(c.with_stage(stage.with_placement(new)), text))
+
+    width = math.degrees(placement.sector_width_rad)
+    now = (
+        "lead as set"
+        if placement.lead_sector_rad is None
+        else ("whole circle" if sectors.is_whole_circle(placement) else f"{width:.0f}° wide")
+    )
+    sub = menu.addMenu(f"Working sector of {tug} ({now})")
+    what = f"Working sector of {tug}"
+    for half in (15, 30, 45, 60, 90):
+        sub.addAction(
+            f"{half}° either side of the lead now",
+            lambda h=half: put(sectors.about_lead(placement, h), what),
+        )
+    sub.addAction("Whole circle", lambda: put(sectors.whole_circle(placement), what))
+    sub.addAction("None: keep the lead as set", lambda: put(placement.with_sector(None), what))
+    if at_push:
+        act = menu.addAction(f"{tug} made fast (push-pull)")
+        act.setCheckable(True)
+        act.setChecked(placement.push_pull)
+        act.setToolTip("Made fast at the push point, the tug can push or pull")
+        act.toggled.connect(
+            lambda on: put(sectors.with_push_pull(placement, True, on), f"{tug} push-pull")
+        )
 
 
 def _body_entries(scene: BoardScene, menu: QMenu, hull_or_body: str) -> None:

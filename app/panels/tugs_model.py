@@ -6,6 +6,7 @@ editing a cell writes a new project through the controller (one undo step).
 
 from __future__ import annotations
 
+import traceback
 from collections.abc import Callable
 from dataclasses import dataclass, replace
 
@@ -14,6 +15,7 @@ from PySide6.QtGui import QColor
 
 from app import formatting as fmt
 from app.controller import Controller
+from app.edits import sectors
 from app.edits import tugs as tug_edits
 from app.numbers import message, parse_value
 from core.errors import TowboardError
@@ -56,6 +58,27 @@ COLUMNS: tuple[Column, ...] = (
         "Line ({length})",
         True,
         "Horizontal length of towline from the line point to the tug",
+    ),
+    Column(
+        "sector_from",
+        "Sector from (rel. °)",
+        True,
+        "Working sector: when the pulls are solved the tug may take any lead clockwise from "
+        "this bearing to 'Sector to' (relative bearings of its force, as the lead). Empty: "
+        "the lead is kept as set; type 'whole' for the whole circle",
+    ),
+    Column(
+        "sector_to",
+        "Sector to (rel. °)",
+        True,
+        "Where the working sector ends, clockwise from 'Sector from' (relative bearing of "
+        "the tug's force); empty: no sector",
+    ),
+    Column(
+        "push_pull",
+        "Push-pull",
+        True,
+        "At a push point: the tug is made fast and can push or pull (else it only pushes)",
     ),
     Column("setting", "Setting %", True, "Percent of the tug's usable pull asked for"),
     Column("pull", "Assigned pull ({force})", False, "Setting × usable pull"),
@@ -187,6 +210,11 @@ class TugsModel(QAbstractTableModel):
             return base
         if col.key in ("astern",):
             return base | Qt.ItemFlag.ItemIsUserCheckable if row.placement else base
+        if col.key == "push_pull":
+            at_push = row.share is not None and row.share.mode != "line"
+            return base | Qt.ItemFlag.ItemIsUserCheckable if at_push else base
+        if col.key in ("sector_from", "sector_to") and (row.placement is None or not row.body):
+            return base
         if col.key in ("lead", "setting") and row.placement is None:
             return base
         if col.key == "length" and (
@@ -196,6 +224,13 @@ class TugsModel(QAbstractTableModel):
         return base | Qt.ItemFlag.ItemIsEditable
 
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
+        try:
+            return self._data(index, role)
+        except Exception:  # nothing may escape into Qt: the cell shows nothing
+            traceback.print_exc()
+            return None
+
+    def _data(self, index: Index, role: int):  # type: ignore[no-untyped-def]
         if not index.isValid():
             return None
         row = self.rows[index.row()]
@@ -210,6 +245,14 @@ class TugsModel(QAbstractTableModel):
             return self._edit_text(row, key)
         if role == Qt.ItemDataRole.CheckStateRole and key == "astern" and row.placement:
             return Qt.CheckState.Checked if row.placement.astern else Qt.CheckState.Unchecked
+        if (
+            role == Qt.ItemDataRole.CheckStateRole
+            and key == "push_pull"
+            and row.placement
+            and row.share is not None
+            and row.share.mode != "line"
+        ):
+            return Qt.CheckState.Checked if row.placement.push_pull else Qt.CheckState.Unchecked
         if role == Qt.ItemDataRole.TextAlignmentRole and key not in ("name", "point", "mode"):
             return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
         if role == Qt.ItemDataRole.ForegroundRole and row.placement is None and key != "name":
@@ -244,6 +287,10 @@ class TugsModel(QAbstractTableModel):
             return fmt.bearing(s.lead_bearing_deg)[:-1]
         if key == "length":
             return fmt.number(u, p.line_length_m, "length") if s.mode == "line" else "—"
+        if key in ("sector_from", "sector_to"):
+            return self._sector_text(row, key)
+        if key == "push_pull":
+            return "" if s.mode != "line" else "—"
         if key == "setting":
             return f"{p.setting * 100:.0f}"
         if key == "pull":
@@ -267,7 +314,29 @@ class TugsModel(QAbstractTableModel):
             return f"{u.value(p.line_length_m, 'length'):.6g}"
         if key == "setting" and p is not None:
             return f"{p.setting * 100:.6g}"
+        if key in ("sector_from", "sector_to"):
+            limits = self._sector(row)
+            if limits is None:
+                return ""
+            if limits[2] >= 360.0 - 1e-9:
+                return "whole"
+            return f"{limits[0 if key == 'sector_from' else 1]:.6g}"
         return self._text(row, key)
+
+    def _sector(self, row: Row) -> tuple[float, float, float] | None:
+        """(from, to, width) of the row's working sector, degrees (None without one)."""
+        if row.placement is None or row.body is None:
+            return None
+        body = self.controller.results()[row.body].body
+        return sectors.sector_bearings(body, row.placement)
+
+    def _sector_text(self, row: Row, key: str) -> str:
+        limits = self._sector(row)
+        if limits is None:
+            return "lead as set" if key == "sector_from" else ""
+        if limits[2] >= 360.0 - 1e-9:
+            return "whole circle" if key == "sector_from" else ""
+        return fmt.bearing(limits[0 if key == "sector_from" else 1])[:-1]
 
     # -- editing ----------------------------------------------------------------------
     def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
@@ -282,6 +351,10 @@ class TugsModel(QAbstractTableModel):
                 f"Not changed: {message(e, self.controller.project.units)}"
             )
             return False
+        except Exception as e:  # nothing may escape into Qt
+            traceback.print_exc()
+            self.controller.message.emit(f"Not changed ({type(e).__name__}: {e})")
+            return False
         if new is None:
             return False
         self.controller.apply(new, text)
@@ -292,6 +365,11 @@ class TugsModel(QAbstractTableModel):
         project = c.project
         u = project.units
         t, p = row.tug, row.placement
+        if role == Qt.ItemDataRole.CheckStateRole and key == "push_pull" and p is not None:
+            on = value in (Qt.CheckState.Checked, Qt.CheckState.Checked.value, 2, True)
+            push = row.share is not None and row.share.mode != "line"
+            new_p = sectors.with_push_pull(p, push, on)
+            return c.with_stage(c.stage.with_placement(new_p)), f"{t.name} push-pull"
         if role == Qt.ItemDataRole.CheckStateRole and key == "astern" and p is not None:
             on = value in (Qt.CheckState.Checked, Qt.CheckState.Checked.value, 2, True)
             stage = c.stage
@@ -307,6 +385,8 @@ class TugsModel(QAbstractTableModel):
             return tug_edits.renamed_tug(project, t.name, text), f"Rename {t.name}"
         if key == "point":
             return self._moved_to_point(row, text), f"{t.name} works at {text}"
+        if key in ("sector_from", "sector_to"):
+            return self._sector_edited(row, key, text), f"Working sector of {t.name}"
         if key not in _RULES:
             return None, ""
         value = parse_value(text, _RULES[key], u, f"tug {t.name}")
@@ -329,6 +409,23 @@ class TugsModel(QAbstractTableModel):
                 stage.with_placement(p.with_lead(p.lead_rad, value))
             ), f"Line of {t.name}"
         return None, ""
+
+    def _sector_edited(self, row: Row, key: str, text: str):  # type: ignore[no-untyped-def]
+        c = self.controller
+        p, stage = row.placement, c.stage
+        if p is None or stage is None or row.body is None:
+            return None
+        body = c.results()[row.body].body
+        if not text:
+            new = p.with_sector(None)
+        elif text.lower() in sectors.WHOLE_WORDS:
+            new = sectors.whole_circle(p)
+        else:
+            which = "from" if key == "sector_from" else "to"
+            rule = rules.BEARING.named(f"sector {which}")
+            value = parse_value(text, rule, c.project.units, f"tug {row.tug.name}")
+            new = sectors.with_limit(body, p, which, value)
+        return c.with_stage(stage.with_placement(new))
 
     def point_choices(self) -> list[str]:
         out = [NOT_PLACED]

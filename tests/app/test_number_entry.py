@@ -148,6 +148,24 @@ CASES = [
         55.0,
     ),
     Case(
+        "tugs: sector from",
+        _tug_cell("sector_from"),
+        "1e9",
+        "tug Gannet: sector from: 1e+09° must be at most 36000°",
+        "20",  # the sample's 060 to 140 becomes 020 to 140 (clockwise, relative bearings)
+        lambda p: _stage(p).placement("Gannet").lead_sector_rad[1],
+        math.radians(-20.0),
+    ),
+    Case(
+        "tugs: sector to",
+        _tug_cell("sector_to"),
+        "-1e9",
+        "tug Gannet: sector to: -1e+09° must be at least -36000°",
+        "150",  # 060 to 150: the low lead (counter-clockwise from ahead) is -150 deg
+        lambda p: _stage(p).placement("Gannet").lead_sector_rad[0],
+        math.radians(-150.0),
+    ),
+    Case(
         "tugs: setting",
         _tug_cell("setting"),
         "120",
@@ -603,5 +621,11 @@ def test_every_numeric_field_has_a_case(env) -> None:  # type: ignore[no-untyped
     }
     cased = {case.id.split(": ")[1] for case in CASES if case.id.startswith("tugs: ")}
     numeric = editable - {"name", "point", "astern"}
-    titles = {"bp": "bollard pull", "astern_bp": "astern pull", "length": "line length"}
+    titles = {
+        "bp": "bollard pull",
+        "astern_bp": "astern pull",
+        "length": "line length",
+        "sector_from": "sector from",
+        "sector_to": "sector to",
+    }
     assert {titles.get(k, k) for k in numeric} <= cased
