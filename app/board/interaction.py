@@ -27,6 +27,7 @@ from PySide6.QtGui import QTransform
 from app.board.drafting import DRAW_TOOLS, Draft
 from app.board.items import ROLE
 from app.board.poses import pose_in
+from app.board.sector_layer import SectorDrag
 from app.board.site_tools import FeatureDrag, PointDrag, SiteTools
 from app.controller import BodyResult
 from app.edits import bodies as body_edits
@@ -137,6 +138,7 @@ class Interaction:
             | _TurnDrag
             | PointDrag
             | FeatureDrag
+            | SectorDrag
             | None
         ) = None
         self.draft: Draft | None = None  # the shape being drawn with a drawing tool
@@ -231,6 +233,9 @@ class Interaction:
             self._add_point(pos, "line" if self.tool == "line_point" else "push")
             return True
         hit = self._hit(pos)
+        if hit is not None and hit[0] == "sector":
+            self.drag = self.scene.sectors.start(str(hit[1]), str(hit[2]), pos)
+            return True
         if hit is None or hit[0] not in ("tug", "fitting", "vertex", "hull", "turn", "site_point"):
             if self.site.press(pos, event.screenPos()):
                 return True
@@ -264,6 +269,9 @@ class Interaction:
             return False
         if isinstance(drag, _TugDrag):
             self._move_tug(drag, pos)
+        elif isinstance(drag, SectorDrag):
+            coarse = bool(event.modifiers() & Qt.KeyboardModifier.ShiftModifier)
+            self.scene.sectors.move(drag, pos, coarse)
         elif isinstance(drag, _BodyDrag):
             self._move_body(drag, pos, event.screenPos())
         elif isinstance(drag, _TurnDrag):
@@ -286,6 +294,8 @@ class Interaction:
             if tug is not None:
                 tug.set_dragging(False)
             c.commit_preview(f"Move {drag.placement.tug}")
+        elif isinstance(drag, SectorDrag):
+            self.scene.sectors.finish(drag)
         elif isinstance(drag, _BodyDrag):
             c.commit_preview(f"Move {drag.body}")
         elif isinstance(drag, _TurnDrag):

@@ -32,6 +32,8 @@ if TYPE_CHECKING:
 def target_at(scene: BoardScene, pos: QPointF) -> tuple[object, ...] | None:
     """What is under site point ``pos``: an item's role, a site feature, or None (water)."""
     hit = scene.interaction._hit(pos)
+    if hit is not None and hit[0] == "sector":  # a knob of a tug's working sector
+        return ("tug", hit[1])
     if hit is not None and hit[0] in ("tug", "fitting", "vertex", "hull", "turn", "site_point"):
         return hit
     layer = getattr(scene, "site_layer", None)

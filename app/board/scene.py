@@ -35,6 +35,7 @@ from app.board.interaction import Interaction
 from app.board.items import Label
 from app.board.menus import board_menu
 from app.board.poses import pose_in, site_angle_deg, to_site
+from app.board.sector_layer import SectorLayer
 from app.controller import BodyResult, Controller
 from app.paint import style
 from app.paint.shapes import drawing_scales
@@ -89,6 +90,8 @@ class BoardScene(QGraphicsScene):
         self.addItem(self._hint)
         self.turn_handle = TurnHandle()
         self.addItem(self.turn_handle)
+        #: Each placement's working sector, drawn and dragged (app.board.sector_layer).
+        self.sectors = SectorLayer(self)
         controller.changed.connect(self.refresh)
         self.refresh()
 

@@ -89,8 +89,10 @@ CURRENT_HELD = CURRENT  # the hold limits for the current, dash-dotted
 CAPABILITY_LINE = TUG_FORCE
 CAPABILITY_PUSH = QColor("#6d4c41")
 CAPABILITY_PUSH_PULL = QColor("#2e6f5e")
-SECTOR_FILL = QColor(30, 95, 180, 26)  # a tug's working sector on the board, faint
-SECTOR_EDGE = QColor(30, 95, 180, 120)
+SECTOR_FILL = QColor(30, 95, 180, 20)  # a tug's working sector on the board, faint
+SECTOR_EDGE = QColor(30, 95, 180, 90)
+SECTOR_FILL_SELECTED = QColor(30, 95, 180, 42)  # the selected tug's, a little stronger
+SECTOR_EDGE_SELECTED = QColor(21, 101, 192, 200)
 
 # -- the verdict -------------------------------------------------------------------------
 GO = QColor("#1e6b35")

@@ -1,0 +1,300 @@
+"""Working sectors on the board: a faint wedge at each tug's point, its edges dragged.
+
+The wedge shows where the tug may lie when the pulls are solved: for a tug on a line,
+the directions its towline may lead (the tug sits on the arc, at its line's length); for
+a tug at a push point, the directions it may push from (the wedge lies outside the hull,
+opposite its force). A whole circle is a faint disc. The selected tug's wedge has a knob
+at the end of each edge: drag one to move that limit (whole degrees of the relative
+bearing of the force, 5 degrees with Shift); the drag previews live and records one
+undo step on release. The sector is the placement's own (core.model.tugs.Placement); the
+layer draws it and writes it back, nothing else.
+
+Printed and exported boards (a scene for a fixed stage) show no wedges.
+"""
+
+from __future__ import annotations
+
+import math
+import traceback
+from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+from PySide6.QtCore import QPointF, QRectF, Qt
+from PySide6.QtGui import QPainter, QPainterPath, QPen
+from PySide6.QtWidgets import QGraphicsItem, QStyleOptionGraphicsItem, QWidget
+
+from app.board.items import CACHE, GUIDE, IGNORES, ROLE
+from app.paint import style
+from app.paint.shapes import TUG_LENGTH_M
+from core.frames import angle_to_bearing, wrap_pi
+from core.model.tugs import Placement
+
+if TYPE_CHECKING:
+    from app.board.scene import BoardScene
+
+TAU = 2 * math.pi
+Z_SECTOR = 1.0  # over the hull's fill, under towlines and tugs
+Z_KNOB = 12.0  # over everything, as the vertex handles
+#: Radius of a push tug's wedge, m: a little more than a tug's length.
+PUSH_RADIUS_M = 1.25 * TUG_LENGTH_M
+KNOB_PX = 11.0
+
+
+class SectorWedge(QGraphicsItem):
+    """A faint wedge (body frame, m): from ``start`` counter-clockwise through ``width``."""
+
+    def __init__(self, parent: QGraphicsItem) -> None:
+        super().__init__(parent)
+        self.setZValue(Z_SECTOR)
+        self.setData(GUIDE, True)  # a faint background: cards and labels may lie over it
+        self.apex = QPointF()
+        self.start = 0.0
+        self.width = 0.0
+        self.radius = 1.0
+        self.selected = False
+        self._path = QPainterPath()
+        self._rect = QRectF()
+
+    def set_selected(self, on: bool) -> None:
+        if on != self.selected:
+            self.selected = on
+            self.update()
+
+    def set_geometry(self, apex: QPointF, start: float, width: float, radius: float) -> None:
+        self.prepareGeometryChange()
+        self.apex, self.start, self.width, self.radius = QPointF(apex), start, width, radius
+        path = QPainterPath()
+        r = radius
+        box = QRectF(apex.x() - r, apex.y() - r, 2 * r, 2 * r)
+        if width >= TAU - 1e-9:
+            path.addEllipse(box)
+        else:
+            # arcTo's angles run as on a y-down screen; the body frame has y up (to port)
+            path.moveTo(apex)
+            path.arcTo(box, -math.degrees(start), -math.degrees(width))
+            path.closeSubpath()
+        self._path = path
+        self._rect = box.adjusted(-1, -1, 1, 1)
+        self.update()
+
+    def edge_end(self, which: str) -> QPointF:
+        """The outer end of the ``"low"`` (start) or ``"high"`` edge, m."""
+        a = self.start if which == "low" else self.start + self.width
+        return QPointF(
+            self.apex.x() + self.radius * math.cos(a), self.apex.y() + self.radius * math.sin(a)
+        )
+
+    def boundingRect(self) -> QRectF:
+        return self._rect
+
+    def shape(self) -> QPainterPath:
+        return QPainterPath()  # never in the way of a click, nor of a label's placing
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        try:
+            k = style.device_scale(painter)
+            painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+            painter.setPen(Qt.PenStyle.NoPen)
+            painter.setBrush(style.SECTOR_FILL_SELECTED if self.selected else style.SECTOR_FILL)
+            painter.drawPath(self._path)
+            if self.width < TAU - 1e-9:
+                edge = style.SECTOR_EDGE_SELECTED if self.selected else style.SECTOR_EDGE
+                painter.setPen(style.scaled_pen(style.pen(edge, 1.4 if self.selected else 1.0), k))
+                for which in ("low", "high"):
+                    painter.drawLine(self.apex, self.edge_end(which))
+        except Exception:  # nothing may escape into Qt
+            traceback.print_exc()
+
+
+class SectorKnob(QGraphicsItem):
+    """The grip at the end of a wedge's edge, fixed in pixels."""
+
+    def __init__(self, parent: QGraphicsItem, tug: str, which: str) -> None:
+        super().__init__(parent)
+        self.setFlag(IGNORES)
+        self.setZValue(Z_KNOB)
+        self.setCacheMode(CACHE)
+        self.setData(ROLE, ("sector", tug, which))
+        self.setToolTip(
+            f"Drag to move this limit of {tug}'s working sector (whole degrees; Shift: 5 degrees)"
+        )
+
+    def boundingRect(self) -> QRectF:
+        s = KNOB_PX / 2 + 1
+        return QRectF(-s, -s, 2 * s, 2 * s)
+
+    def shape(self) -> QPainterPath:
+        p = QPainterPath()
+        p.addEllipse(QPointF(0, 0), KNOB_PX / 2 + 2, KNOB_PX / 2 + 2)
+        return p
+
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        try:
+            painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+            painter.setPen(QPen(style.SELECTION, 1.6))
+            painter.setBrush(style.LABEL_BG)
+            painter.drawEllipse(QPointF(0, 0), KNOB_PX / 2, KNOB_PX / 2)
+            painter.setBrush(style.SELECTION)
+            painter.drawEllipse(QPointF(0, 0), 1.8, 1.8)
+        except Exception:  # nothing may escape into Qt
+            traceback.print_exc()
+
+
+@dataclass
+class SectorDrag:
+    """A drag of one edge of a tug's working sector (leads unwrapped as the mouse turns)."""
+
+    body: str
+    placement: Placement
+    which: str  # "low" or "high"
+    apex: tuple[float, float]  # the tug's point, body frame, m
+    frame: float  # body-frame angle of lead 0, rad
+    flip: float  # pi for a push (the wedge lies opposite the force), else 0
+    low: float
+    high: float
+    prev: float  # body-frame angle of the cursor round the apex at the last move, rad
+
+
+class SectorLayer:
+    """Every placement's working sector on a BoardScene, and the drag of its edges."""
+
+    def __init__(self, scene: BoardScene) -> None:
+        self.scene = scene
+        self.wedges: dict[str, SectorWedge] = {}
+        self.knobs: dict[str, tuple[SectorKnob, SectorKnob]] = {}
+        scene.refresh_hooks.append(self.refresh)
+        scene.selection_changed.connect(self.refresh)
+
+    # -- drawing --------------------------------------------------------------------------
+    def refresh(self, _scene: object = None) -> None:
+        scene = self.scene
+        seen: set[str] = set()
+        if scene.fixed_stage is None:
+            for name, r in scene.results().items():
+                d = scene.bodies.get(name)
+                lay = r.layout
+                if d is None or lay.lead_frame_rad is None:
+                    continue
+                for i, p in enumerate(lay.placements):
+                    if p.lead_sector_rad is None:
+                        continue
+                    seen.add(p.tug)
+                    push = bool(lay.is_push[i])
+                    flip = math.pi if push else 0.0
+                    lo, hi = p.lead_sector_rad
+                    apex = QPointF(float(lay.points[i, 0]), float(lay.points[i, 1]))
+                    radius = PUSH_RADIUS_M if push else p.line_length_m
+                    wedge = self._wedge(p.tug, d.root)
+                    wedge.set_geometry(
+                        apex, float(lay.lead_frame_rad[i]) + lo + flip, hi - lo, radius
+                    )
+                    self._knobs(p.tug, d.root, wedge)
+        for tug in [t for t in self.wedges if t not in seen]:
+            self._drop(tug)
+
+    def _wedge(self, tug: str, root: QGraphicsItem) -> SectorWedge:
+        w = self.wedges.get(tug)
+        if w is None or w.parentItem() is not root:
+            if w is not None:
+                self._drop(tug)
+            w = self.wedges[tug] = SectorWedge(root)
+        return w
+
+    def _knobs(self, tug: str, root: QGraphicsItem, wedge: SectorWedge) -> None:
+        pair = self.knobs.get(tug)
+        if pair is None or pair[0].parentItem() is not root:
+            pair = self.knobs[tug] = (SectorKnob(root, tug, "low"), SectorKnob(root, tug, "high"))
+        shown = self.scene.selected_tug() == tug or self._dragging(tug)
+        wedge.set_selected(shown)
+        for knob, which in zip(pair, ("low", "high"), strict=True):
+            knob.setPos(wedge.edge_end(which))
+            knob.setVisible(shown)
+
+    def _dragging(self, tug: str) -> bool:
+        drag = self.scene.interaction.drag
+        return isinstance(drag, SectorDrag) and drag.placement.tug == tug
+
+    def _drop(self, tug: str) -> None:
+        items: list[QGraphicsItem] = []
+        w = self.wedges.pop(tug, None)
+        if w is not None:
+            items.append(w)
+        items.extend(self.knobs.pop(tug, ()))
+        for item in items:
+            s = item.scene()
+            item.setParentItem(None)
+            if s is not None:
+                s.removeItem(item)
+
+    # -- the drag -------------------------------------------------------------------------
+    def start(self, tug: str, which: str, pos: QPointF) -> SectorDrag | None:
+        """Begin dragging edge ``which`` of ``tug``'s sector from site point ``pos``."""
+        for name, r in self.scene.controller.results().items():
+            lay = r.layout
+            for i, p in enumerate(lay.placements):
+                if p.tug != tug or p.lead_sector_rad is None or lay.lead_frame_rad is None:
+                    continue
+                apex = (float(lay.points[i, 0]), float(lay.points[i, 1]))
+                local = self.scene.bodies[name].root.mapFromScene(pos)
+                lo, hi = p.lead_sector_rad
+                return SectorDrag(
+                    body=name,
+                    placement=p,
+                    which=which,
+                    apex=apex,
+                    frame=float(lay.lead_frame_rad[i]),
+                    flip=math.pi if bool(lay.is_push[i]) else 0.0,
+                    low=lo,
+                    high=hi,
+                    prev=math.atan2(local.y() - apex[1], local.x() - apex[0]),
+                )
+        return None
+
+    def move(self, drag: SectorDrag, pos: QPointF, coarse: bool) -> None:
+        """Turn the dragged edge with the cursor round the tug's point; preview it."""
+        local = self.scene.bodies[drag.body].root.mapFromScene(pos)
+        ax, ay = drag.apex
+        if math.hypot(local.x() - ax, local.y() - ay) < 1e-6:
+            return
+        angle = math.atan2(local.y() - ay, local.x() - ax)
+        turn = wrap_pi(angle - drag.prev)
+        drag.prev = angle
+        if drag.which == "high":
+            drag.high += turn
+        else:
+            drag.low += turn
+        step = 5.0 if coarse else 1.0
+        lo, hi = drag.low, drag.high
+        if drag.which == "high":
+            hi = min(max(self._snapped(drag, hi, step), lo), lo + TAU)
+        else:
+            lo = max(min(self._snapped(drag, lo, step), hi), hi - TAU)
+        c = self.scene.controller
+        stage = c.stage
+        new = drag.placement.with_sector((lo, hi))
+        c.preview(c.with_stage(stage.with_placement(new)))
+        c.message.emit(self.words(drag, lo, hi))
+
+    def _snapped(self, drag: SectorDrag, lead: float, step_deg: float) -> float:
+        """``lead`` moved so that the bearing of the force there is a whole ``step_deg``."""
+        force = math.degrees(drag.frame + lead)
+        return math.radians(round(force / step_deg) * step_deg) - drag.frame
+
+    def words(self, drag: SectorDrag, lo: float, hi: float) -> str:
+        tug = drag.placement.tug
+        width = math.degrees(hi - lo)
+        if width >= 360.0 - 1e-6:
+            return f"Working sector of {tug}: the whole circle"
+        start = angle_to_bearing(drag.frame + hi)
+        end = angle_to_bearing(drag.frame + lo)
+        return (
+            f"Working sector of {tug}: clockwise from {start:05.1f}° to {end:05.1f}° "
+            f"relative ({width:.0f}° wide)"
+        )
+
+    def finish(self, drag: SectorDrag) -> None:
+        self.scene.controller.commit_preview(f"Working sector of {drag.placement.tug}")

@@ -1,0 +1,139 @@
+"""Working sectors on the board: a wedge at each tug's point with a sector, its edges
+dragged with the mouse (one undo step per drag), errors kept out of Qt."""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+from PySide6.QtCore import QPointF, Qt
+
+from app.board.sector_layer import SectorLayer, SectorWedge
+from app.edits import sectors
+from core.frames import bearing_to_angle
+from tests.app.board.conftest import move_with_button
+
+
+def _knob_px(window, tug: str, which: str):  # type: ignore[no-untyped-def]
+    knob = dict(zip(("low", "high"), window.board.sectors.knobs[tug], strict=True))[which]
+    assert knob.isVisible()
+    return window.view.mapFromScene(knob.scenePos())
+
+
+def _body_px(window, x: float, y: float):  # type: ignore[no-untyped-def]
+    """The viewport pixel of body-frame point (x, y) of Kestrel 3, m."""
+    root = window.board.bodies["Kestrel 3"].root
+    return window.view.mapFromScene(root.mapToScene(QPointF(x, y)))
+
+
+def _select(qtbot, window, tug: str) -> None:  # type: ignore[no-untyped-def]
+    item = window.board.bodies["Kestrel 3"].tugs[tug].glyph
+    at = window.view.mapFromScene(item.mapToScene(item.glyph.boundingRect().center()))
+    qtbot.mouseClick(window.view.viewport(), Qt.MouseButton.LeftButton, pos=at)
+    assert window.board.selected_tug() == tug
+
+
+def test_each_placement_with_a_sector_has_a_wedge(window) -> None:
+    c = window.controller
+    layer = window.board.sectors
+    assert set(layer.wedges) == {p.tug for p in c.stage.placements if p.lead_sector_rad}
+    # knobs only on the selected tug's wedge
+    assert not any(k.isVisible() for pair in layer.knobs.values() for k in pair)
+    stage = c.stage
+    c.apply(c.with_stage(stage.with_placement(stage.placement("Puffin").with_sector(None))), "x")
+    assert "Puffin" not in layer.wedges
+    w = layer.wedges["Gannet"]
+    # Gannet's line wedge reaches the tug: its radius is the line's length
+    assert w.radius == stage.placement("Gannet").line_length_m
+
+
+def test_dragging_a_wedge_edge_moves_one_limit_in_one_undo_step(window, qtbot) -> None:
+    c = window.controller
+    before = c.project
+    old = c.stage_result().main.hold_limits.all_tugs_ms.copy()
+    _select(qtbot, window, "Gannet")
+    body = c.results()["Kestrel 3"].body
+    start, end, _ = sectors.sector_bearings(body, c.stage.placement("Gannet"))
+    assert (start, end) == pytest.approx((60.0, 140.0))
+    wedge = window.board.sectors.wedges["Gannet"]
+    ax, ay, r = wedge.apex.x(), wedge.apex.y(), wedge.radius
+    vp = window.view.viewport()
+    qtbot.mousePress(vp, Qt.MouseButton.LeftButton, pos=_knob_px(window, "Gannet", "high"))
+    # round the bow point from the 060 edge to bearing 020.4, a few degrees a move
+    for bearing in np.linspace(58.0, 20.4, 12):
+        a = bearing_to_angle(float(bearing))
+        move_with_button(window.view, _body_px(window, ax + r * math.cos(a), ay + r * math.sin(a)))
+    assert c.previewing
+    qtbot.mouseRelease(vp, Qt.MouseButton.LeftButton, pos=_body_px(window, ax, ay - r))
+    assert not c.previewing
+    p = c.stage.placement("Gannet")
+    got = sectors.sector_bearings(body, p)
+    assert got == pytest.approx((20.0, 140.0, 120.0))  # whole degrees; the other limit kept
+    assert c.undo_stack.count() == 1 and c.undo_stack.undoText() == "Working sector of Gannet"
+    # the stage result is the core's for the new sector, and a wider sector holds as much
+    new = c.stage_result().main.hold_limits.all_tugs_ms
+    assert np.all(new >= old * (1 - 1e-3))  # the sector polygons' chord error (tugsets)
+    c.undo_stack.undo()
+    assert c.project == before
+
+
+def test_a_drag_past_the_other_edge_stops_at_no_width(window, qtbot) -> None:
+    c = window.controller
+    _select(qtbot, window, "Gannet")
+    wedge = window.board.sectors.wedges["Gannet"]
+    ax, ay, r = wedge.apex.x(), wedge.apex.y(), wedge.radius
+    vp = window.view.viewport()
+    qtbot.mousePress(vp, Qt.MouseButton.LeftButton, pos=_knob_px(window, "Gannet", "high"))
+    for bearing in np.linspace(62.0, 170.0, 30):  # clockwise past the 140 edge
+        a = bearing_to_angle(float(bearing))
+        move_with_button(window.view, _body_px(window, ax + r * math.cos(a), ay + r * math.sin(a)))
+    qtbot.mouseRelease(vp, Qt.MouseButton.LeftButton)
+    p = c.stage.placement("Gannet")
+    assert p.sector_width_rad == 0.0
+    body = c.results()["Kestrel 3"].body
+    assert sectors.sector_bearings(body, p)[:2] == pytest.approx((140.0, 140.0))
+
+
+def test_an_error_in_a_drag_changes_nothing_and_is_said(window, qtbot, monkeypatch) -> None:
+    c = window.controller
+    before = c.project
+    said: list[str] = []
+    c.message.connect(said.append)
+    _select(qtbot, window, "Gannet")
+
+    def broken(self, drag, pos, coarse):  # type: ignore[no-untyped-def]
+        raise RuntimeError("broken on purpose")
+
+    monkeypatch.setattr(SectorLayer, "move", broken)
+    vp = window.view.viewport()
+    at = _knob_px(window, "Gannet", "high")
+    qtbot.mousePress(vp, Qt.MouseButton.LeftButton, pos=at)
+    move_with_button(window.view, at + type(at)(15, 15))
+    qtbot.mouseRelease(vp, Qt.MouseButton.LeftButton)
+    assert any("broken on purpose" in s for s in said)
+    assert c.project == before and c.undo_stack.count() == 0
+
+
+def test_a_wedge_that_fails_to_paint_draws_nothing_and_raises_nothing(
+    window, monkeypatch, capsys
+) -> None:
+    from app.board import sector_layer
+
+    class Broken:
+        def __getattr__(self, name: str) -> object:
+            raise RuntimeError("paint broken on purpose")
+
+    monkeypatch.setattr(sector_layer, "style", Broken())  # the wedges' and knobs' palette
+    window.board.select(("tug", "Gannet"))  # its knobs are painted too
+    window.view.viewport().grab()  # paints every wedge
+    assert "paint broken on purpose" in capsys.readouterr().err
+    assert isinstance(window.board.sectors.wedges["Gannet"], SectorWedge)
+
+
+def test_a_printed_board_has_no_wedges(window) -> None:
+    from app.board.scene import BoardScene
+
+    printed = BoardScene(window.controller, stage_index=0)
+    assert printed.sectors.wedges == {}
+    assert not any(isinstance(i, SectorWedge) for i in printed.items())
