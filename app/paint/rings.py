@@ -57,3 +57,36 @@ def polar_scale(
     top = units.value(top_ms, "speed")
     step = ring_step(top)
     return step * max(1, math.ceil(top / step - 1e-9)), step
+
+
+def current_scale(
+    limits_ms: Sequence[float] | None,
+    planned_ms: float,
+    max_current_ms: float | None,
+    units: DisplayUnits,
+) -> tuple[float, float]:
+    """(outer ring, ring step) in the display speed unit for a plot of current limits:
+    past the planned current and the stage's current limit, at least 2 kn, following the
+    all-tugs curve up to three times the planned current (at most :data:`CURRENT_CAP_MS`)."""
+    base = max(2.0 * KNOT_MS, planned_ms * 1.25)
+    if max_current_ms is not None:
+        base = max(base, max_current_ms * 1.1)
+    cap = max(min(max(3.0 * planned_ms, 4.0 * KNOT_MS), CURRENT_CAP_MS), base)
+    finite = [float(v) for v in (limits_ms if limits_ms is not None else ()) if math.isfinite(v)]
+    top_ms = max(base, min(max(finite), cap)) if finite else base
+    top = units.value(top_ms, "speed")
+    step = current_ring_step(top)
+    return step * max(1, math.ceil(top / step - 1e-9)), step
+
+
+#: The outer ring of a current plot never goes beyond this, m/s (8 kn).
+CURRENT_CAP_MS = 8.0 * KNOT_MS
+CURRENT_RING_STEPS = (0.25, 0.5, 1.0, 2.0, 5.0)
+
+
+def current_ring_step(top: float) -> float:
+    """A ring spacing for a current plot giving at most :data:`MAX_RINGS` rings."""
+    for s in CURRENT_RING_STEPS:
+        if top / s <= MAX_RINGS:
+            return s
+    return ring_step(top)

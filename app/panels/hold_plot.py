@@ -3,14 +3,19 @@
 A polar chart drawn with QPainter: north up, true directions clockwise, the distance
 from the centre is the limiting wind speed in the display speed unit (the same measure
 as the stage's wind: mean speed at its stated height, gusts as set). Two curves, all
-tugs and the worst single tug lost; the stage's planned wind is marked. The numbers
-are the core's (core.solve.pulls.holdlimits); the widget only draws them.
+tugs and the worst single tug lost; the stage's planned wind is marked and its go / no-go
+wind limit drawn as a dotted ring. A hold stage can show the current instead: the
+highest current (setting towards each direction) the tugs hold with the wind as set,
+with the planned current and the stage's current limit. The numbers are the core's
+(the stage result's hold limits); the widget only draws them, and says a limit beyond
+the core's sensible range as "above N kn" (core.solve.holdlimits.limit_words).
 """
 
 from __future__ import annotations
 
 import math
 import time
+import traceback
 
 import numpy as np
 from PySide6.QtCore import QPointF, QRectF, QSize, Qt, QTimer
@@ -24,18 +29,20 @@ from PySide6.QtGui import (
     QPixmap,
     QPolygonF,
 )
-from PySide6.QtWidgets import QLabel, QSizePolicy, QVBoxLayout, QWidget
+from PySide6.QtWidgets import QComboBox, QHBoxLayout, QLabel, QSizePolicy, QVBoxLayout, QWidget
 
 from app.controller import Controller
 from app.paint import style
-from app.paint.rings import polar_scale
+from app.paint.rings import current_scale, polar_scale
 from app.paint.symbols import draw_planned_wind
 from core.errors import TowboardError
 from core.model.plan import Stage
 from core.solve.holdlimits import (
+    Flow,
     HoldLimits,
     hold_limits_problem,
     limit_at,
+    limit_words,
     live_hold_limits,
 )
 from core.units import DisplayUnits, label
@@ -49,6 +56,7 @@ SPOKE = style.GRID_MINOR
 TEXT = style.INK
 MUTED = style.MUTED
 HELD_FILL = style.ALL_TUGS_FILL
+LIMIT = style.NO_GO  # the stage's go / no-go limit, a dotted ring
 
 #: While a drag is in progress the worst-tug-lost curve is swept again at most this
 #: often, seconds (the all-tugs curve follows every mouse move).
@@ -66,6 +74,8 @@ class HoldPlot(QWidget):
         self.message = "No hold limits yet."
         self.coarse = False
         self.lost_curve: tuple[np.ndarray, np.ndarray] | None = None
+        #: Which flow the curves are for: "wind" (from), or "current" (towards).
+        self.flow: Flow = "wind"
         self._grid_cache: QPixmap | None = None
         self._grid_key: object = None
         self.setMinimumSize(220, 220)
@@ -82,10 +92,12 @@ class HoldPlot(QWidget):
         message: str = "",
         coarse: bool = False,
         lost_curve: tuple[np.ndarray, np.ndarray] | None = None,
+        flow: Flow = "wind",
     ) -> None:
         """Show ``limits``; ``lost_curve`` (directions, m/s) replaces its worst-lost curve
         (while dragging it is swept on fewer directions than the all-tugs curve)."""
         self.limits, self.stage, self.units = limits, stage, units
+        self.flow = flow
         self.message = message
         self.coarse = coarse
         self.lost_curve = lost_curve
@@ -96,6 +108,13 @@ class HoldPlot(QWidget):
         """(outer ring, ring step) in the display speed unit (:func:`app.paint.rings.polar_scale`,
         the same scale as the printed plot)."""
         stage = self.stage
+        if self.flow == "current":
+            return current_scale(
+                None if self.limits is None else self.limits.all_tugs_ms,
+                0.0 if stage is None else stage.conditions.current_speed_ms,
+                None if stage is None else stage.limits.max_current_ms,
+                self.units,
+            )
         return polar_scale(
             None if self.limits is None else self.limits.all_tugs_ms,
             0.0 if stage is None else stage.conditions.wind_speed_ms,
@@ -114,7 +133,7 @@ class HoldPlot(QWidget):
     def _frame(self) -> tuple[QPointF, float]:
         """Centre and radius of the chart: room round it for bearings, under it for the legend."""
         r = self.rect()
-        legend = 24.0
+        legend = 40.0  # the key, and its note on a second line when the key is long
         radius = max(min((r.width() - 64.0) / 2.0, (r.height() - legend - 48.0) / 2.0), 20.0)
         spare = max(r.height() - legend - 48.0 - 2 * radius, 0.0)
         return QPointF(r.center().x(), 24.0 + spare / 2 + radius), radius
@@ -138,6 +157,15 @@ class HoldPlot(QWidget):
 
     def paintEvent(self, event: QPaintEvent) -> None:
         p = QPainter(self)
+        try:
+            self._paint(p)
+        except Exception:  # nothing may escape into Qt
+            traceback.print_exc()
+        finally:
+            if p.isActive():
+                p.end()
+
+    def _paint(self, p: QPainter) -> None:
         p.setRenderHint(QPainter.RenderHint.Antialiasing)
         centre, radius = self._frame()
         top, step = self.scale_top()
@@ -161,9 +189,22 @@ class HoldPlot(QWidget):
                 p, centre, radius, top, lost_dirs, lost * k, TUG_LOST, Qt.PenStyle.DashLine, False
             )
         self._heading(p, centre, radius)
+        limit = self._stage_limit()
+        if limit is not None:
+            r = radius * min(self.units.value(limit, "speed"), top) / top if top > 0 else 0.0
+            p.setPen(QPen(LIMIT, 1.6, Qt.PenStyle.DotLine))
+            p.setBrush(Qt.BrushStyle.NoBrush)
+            p.drawEllipse(centre, r, r)
         self._planned(p, centre, radius, top)
-        self._legend(p, centre, radius, lost is not None)
+        self._legend(p, centre, radius, lost is not None, limit)
         p.end()
+
+    def _stage_limit(self) -> float | None:
+        """The stage's go / no-go limit for the flow shown, m/s (None when not set)."""
+        if self.stage is None:
+            return None
+        lim = self.stage.limits
+        return lim.max_current_ms if self.flow == "current" else lim.max_wind_ms
 
     def _at(self, centre: QPointF, radius: float, top: float, from_deg: float, v: float) -> QPointF:
         r = radius * min(max(v, 0.0), top) / top if top > 0 else 0.0
@@ -261,10 +302,14 @@ class HoldPlot(QWidget):
         if self.stage is None:
             return
         c = self.stage.conditions
-        v = self.units.value(c.wind_speed_ms, "speed")
-        pt = self._at(centre, radius, top, c.wind_from_deg, v)
+        if self.flow == "current":
+            speed, direction, word = c.current_speed_ms, c.current_towards_deg, "to"
+        else:
+            speed, direction, word = c.wind_speed_ms, c.wind_from_deg, "from"
+        v = self.units.value(speed, "speed")
+        pt = self._at(centre, radius, top, direction, v)
         draw_planned_wind(p, pt, 6.0, 2.0)
-        text = f"planned {self.units.show(c.wind_speed_ms, 'speed')} from {c.wind_from_deg:03.0f}°"
+        text = f"planned {self.units.show(speed, 'speed')} {word} {direction:03.0f}°"
         w = p.fontMetrics().horizontalAdvance(text) + 6
         right = pt.x() < centre.x() + radius * 0.3
         box = QRectF(
@@ -274,23 +319,29 @@ class HoldPlot(QWidget):
         p.setPen(PLANNED_MARK)
         p.drawText(box, Qt.AlignmentFlag.AlignCenter, text)
 
-    def _legend(self, p: QPainter, centre: QPointF, radius: float, lost: bool) -> None:
-        y = min(centre.y() + radius + 30, self.height() - 14.0)
+    def _legend(
+        self, p: QPainter, centre: QPointF, radius: float, lost: bool, limit: float | None
+    ) -> None:
+        y = min(centre.y() + radius + 30, self.height() - 30.0)
         x = 8.0
         entries = [(ALL_TUGS, Qt.PenStyle.SolidLine, "all tugs")]
         if lost:
             entries.append((TUG_LOST, Qt.PenStyle.DashLine, "worst tug lost"))
+        if limit is not None:
+            entries.append((LIMIT, Qt.PenStyle.DotLine, f"limit {self.units.show(limit, 'speed')}"))
         for color, dash, text in entries:
             p.setPen(QPen(color, 2.2, dash))
             p.drawLine(QPointF(x, y), QPointF(x + 22, y))
             p.setPen(TEXT)
             p.drawText(QPointF(x + 27, y + 4), text)
-            x += 40 + p.fontMetrics().horizontalAdvance(text)
+            x += 36 + p.fontMetrics().horizontalAdvance(text)
         p.setPen(MUTED)
         note = "5°/10° steps" if self.coarse else ""
         if self.clipped():
             note = "higher: on the rim" + (f"; {note}" if note else "")
         if note:
+            if x + p.fontMetrics().horizontalAdvance(note) > self.width() - 4:
+                x, y = 8.0, y + p.fontMetrics().height() + 2  # a line of its own
             p.drawText(QPointF(x, y + 4), note)
 
     def _message(self, p: QPainter, at: QPointF, text: str) -> None:
@@ -318,8 +369,23 @@ class HoldLimitsPanel(QWidget):
         self.caption = QLabel("")
         self.caption.setWordWrap(True)
         self.caption.setStyleSheet(f"color: {style.CLEARANCE.name()};")
+        #: Wind limits, or (a hold stage) the current limits with the wind as set.
+        self.flow_box = QComboBox()
+        self.flow_box.addItem("Wind the tugs can hold", "wind")
+        self.flow_box.addItem("Current the tugs can hold", "current")
+        self.flow_box.setToolTip(
+            "A hold stage: the highest wind (from each direction), or the highest current "
+            "(setting towards each direction, the wind as planned), the tugs can hold"
+        )
+        self.flow_box.currentIndexChanged.connect(lambda _i: self.update_now(coarse=False))
+        self.flow_row = QWidget()
+        row = QHBoxLayout(self.flow_row)
+        row.setContentsMargins(0, 0, 0, 0)
+        row.addWidget(QLabel("Show"))
+        row.addWidget(self.flow_box, 1)
         layout = QVBoxLayout(self)
         layout.setContentsMargins(4, 4, 4, 4)
+        layout.addWidget(self.flow_row)
         layout.addWidget(self.plot, 1)
         layout.addWidget(self.warning)
         layout.addWidget(self.caption)
@@ -353,6 +419,13 @@ class HoldLimitsPanel(QWidget):
         body = c.main_body()
         self.limits = None
         self.warning.setText("")
+        is_hold = stage is not None and stage.goal is not None and stage.goal.kind == "hold"
+        self.flow_row.setVisible(is_hold)
+        flow: Flow = "current" if is_hold and self.flow_box.currentData() == "current" else "wind"
+        if flow == "current":
+            if not coarse:  # the current's curve follows once a drag settles
+                self._show_current(stage, units)
+            return
         if stage is None or body is None or not stage.placements:
             self.plot.set_data(None, stage, units, "Place tugs to see what wind they can hold.")
             self.caption.setText("")
@@ -401,6 +474,28 @@ class HoldLimitsPanel(QWidget):
         self.plot.set_data(lim, stage, units, msg, coarse, lost_curve)
         self.caption.setText(summary(lim, stage, units))
 
+    def _show_current(self, stage: Stage | None, units: DisplayUnits) -> None:
+        """The stage result's current limits (a hold stage), or why there are none."""
+        r = self.controller.stage_result()
+        main = None if r is None else r.main
+        lim = None if main is None else main.current_limits
+        if stage is None or lim is None:
+            why = "; ".join(n for n in (main.notes if main else ()) if "current limits" in n)
+            self.plot.set_data(
+                None, stage, units, f"No current limits: {why or 'no tugs'}", flow="current"
+            )
+            self.caption.setText("")
+            return
+        self.limits = lim
+        msg = ""
+        if not lim.holds_current:
+            msg = "The tugs as set cannot hold the wind alone (only some currents help)."
+        elif float(np.min(lim.all_tugs_ms)) <= 0:
+            msg = "From some directions the tugs cannot hold any current."
+        self.warning.setText(msg)
+        self.plot.set_data(lim, stage, units, msg, flow="current")
+        self.caption.setText(current_summary(lim, stage, units))
+
 
 def summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
     """The plot's figures in two short sentences: from the planned direction, and the lowest."""
@@ -411,13 +506,30 @@ def summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
     if len(lim.lost_ms):
         lost = limit_at(lim, c.wind_from_deg, lim.worst_lost_ms)
         text += f", {_speed(lost, units)} with the worst tug lost"
-    text += f" (planned {units.show(c.wind_speed_ms, 'speed')}). "
-    text += f"Lowest: {_speed(v_all, units)} from {d_all:03.0f}°T"
+    text += f" (planned {units.show(c.wind_speed_ms, 'speed')}"
+    if stage.limits.max_wind_ms is not None:
+        text += f", limit {units.show(stage.limits.max_wind_ms, 'speed')}"
+    text += f"). Lowest: {_speed(v_all, units)} from {d_all:03.0f}°T"
     if len(lim.lost_ms):
         d_l, v_l = lim.lowest(lim.worst_lost_ms)
         who = lim.worst_lost_tug[int(np.argmin(lim.worst_lost_ms))]
         text += f"; {_speed(v_l, units)} from {d_l:03.0f}°T losing {who}"
     return text + "."
+
+
+def current_summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
+    """The current plot's figures: towards the planned direction, and the lowest."""
+    d_all, v_all = lim.lowest()
+    c = stage.conditions
+    at = limit_at(lim, c.current_towards_deg)
+    text = (
+        f"Current setting to {c.current_towards_deg:03.0f}°T: {_speed(at, units, 'current')} "
+        f"with all tugs, the wind as planned (planned {units.show(c.current_speed_ms, 'speed')}"
+    )
+    if stage.limits.max_current_ms is not None:
+        text += f", limit {units.show(stage.limits.max_current_ms, 'speed')}"
+    text += f"). Lowest: {_speed(v_all, units, 'current')} setting to {d_all:03.0f}°T."
+    return text
 
 
 EXPLAIN = (
@@ -427,5 +539,6 @@ EXPLAIN = (
 )
 
 
-def _speed(v: float, units: DisplayUnits) -> str:
-    return "any wind" if not math.isfinite(v) else units.show(v, "speed")
+def _speed(v: float, units: DisplayUnits, flow: Flow = "wind") -> str:
+    """A limit in words: "above N kn" beyond the core's sensible range, "none" at nothing."""
+    return limit_words(v, units, flow)

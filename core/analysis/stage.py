@@ -64,6 +64,9 @@ class BodyResult:
     tug_lost: TugLostCheck | None  # the goal solved with every tug, and with each lost
     hold_limits: HoldLimits | None
     notes: tuple[str, ...] = ()
+    #: A hold stage: the highest current (setting towards each direction) the fleet holds
+    #: with every tug, the wind as set (no tug lost: the wind's curves say that).
+    current_limits: HoldLimits | None = None
     stage: Stage | None = None  # the stage value it is about
     units: DisplayUnits | None = None  # the plan's display units (for the words of warnings)
     _lost: list[tuple[tuple[str, Balance], ...]] = field(
@@ -222,6 +225,9 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
                 limits = hold_limits(hold_limits_problem(project, stage, body.name, layout=layout))
             except TowboardError as e:
                 notes.append(f"hold limits not worked out: {e}")
+    current = None
+    if worked and layout.placements and goal is not None and goal.kind == "hold":
+        current = _current_limits(project, stage, body, layout, notes)
     return BodyResult(
         body=body,
         worked=worked,
@@ -236,9 +242,26 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
         tug_lost=check,
         hold_limits=limits,
         notes=tuple(notes),
+        current_limits=current,
         stage=stage,
         units=units,
     )
+
+
+def _current_limits(
+    project: Project, stage: Stage, body: Body, layout: TugLayout, notes: list[str]
+) -> HoldLimits | None:
+    """The current limits of a hold stage (all tugs), or None with the reason in ``notes``."""
+    missing = missing_inputs(body, stage.conditions, "current")
+    if missing:
+        notes.append(f"current limits need {' and '.join(missing)}")
+        return None
+    try:
+        problem = hold_limits_problem(project, stage, body.name, layout=layout, flow="current")
+        return hold_limits(problem, with_lost=False)
+    except TowboardError as e:
+        notes.append(f"current limits not worked out: {e}")
+        return None
 
 
 def compute_stage_result(project: Project, index: int) -> StageResult:

@@ -1,0 +1,98 @@
+"""The hold limits plot: the stage's go / no-go limit drawn, the current as a second curve
+for a hold stage, and limits beyond the core's range said as "above N kn"; the figures
+are the stage result's own (issue 12)."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import replace
+
+import numpy as np
+from PySide6.QtCore import QPointF, Qt
+from PySide6.QtGui import QImage
+
+from app.panels.hold_plot import LIMIT, current_summary, summary
+from core.solve.holdlimits import SHOWN_UP_TO_MS, limit_at, limit_words
+
+HOLD = 2  # the sample's stage "Hold while the dredger clears the entrance"
+
+
+def _choose(qtbot, panel, text: str) -> None:  # type: ignore[no-untyped-def]
+    box = panel.flow_box
+    box.setFocus()
+    qtbot.keyClick(box, Qt.Key.Key_Down if text == "current" else Qt.Key.Key_Up)
+    assert box.currentData() == text
+
+
+def test_a_hold_stage_shows_the_current_the_tugs_can_hold(window, qtbot) -> None:
+    c = window.controller
+    panel = window.solve_ui.hold
+    c.set_stage_index(HOLD)
+    qtbot.waitUntil(lambda: panel.flow_row.isVisibleTo(panel))
+    _choose(qtbot, panel, "current")
+    main = c.stage_result().main
+    assert main.current_limits is not None and panel.plot.flow == "current"
+    assert panel.plot.limits is main.current_limits  # read from the stage result, not worked
+    stage = c.stage
+    at = limit_at(main.current_limits, stage.conditions.current_towards_deg)
+    assert limit_words(at, c.project.units, "current") in panel.caption.text()
+    assert f"limit {c.project.units.show(stage.limits.max_current_ms, 'speed')}" in (
+        panel.caption.text()
+    )
+    _choose(qtbot, panel, "wind")
+    assert panel.plot.limits is main.hold_limits and panel.plot.flow == "wind"
+
+
+def test_other_stages_show_the_wind_only(window, qtbot) -> None:
+    panel = window.solve_ui.hold
+    window.controller.set_stage_index(0)  # a walk
+    qtbot.wait(10)
+    assert not panel.flow_row.isVisibleTo(panel) and panel.plot.flow == "wind"
+    assert window.controller.stage_result().main.current_limits is None
+
+
+def test_the_stage_limit_is_drawn_as_a_ring(window, qtbot) -> None:
+    c = window.controller
+    panel = window.solve_ui.hold
+    c.set_stage_index(HOLD)
+    qtbot.wait(10)
+    plot = panel.plot
+    plot.resize(420, 460)
+    limit = c.stage.limits.max_wind_ms
+    assert plot._stage_limit() == limit
+    image = QImage(plot.size(), QImage.Format.Format_ARGB32)
+    image.fill(0)
+    plot.render(image)
+    centre, radius = plot._frame()
+    top, _ = plot.scale_top()
+    r = radius * c.project.units.value(limit, "speed") / top
+    hits = 0
+    for k in range(180):
+        a = math.radians(k * 2.0)
+        pt = QPointF(centre.x() + r * math.sin(a), centre.y() - r * math.cos(a))
+        px = image.pixelColor(round(pt.x()), round(pt.y()))
+        if abs(px.red() - LIMIT.red()) + abs(px.green() - LIMIT.green()) < 90 and px.red() > 120:
+            hits += 1
+    assert hits >= 30, hits  # a dotted ring: many of its points, not all
+
+
+def test_limits_beyond_the_cores_range_are_said_as_above(window) -> None:
+    c = window.controller
+    c.set_stage_index(HOLD)
+    main = c.stage_result().main
+    units = c.project.units
+    lim = main.current_limits
+    # the planned current set towards the direction the tugs hold most against
+    d = float(lim.problem.directions_deg[int(np.argmax(lim.all_tugs_ms))])
+    assert float(np.max(lim.all_tugs_ms)) > SHOWN_UP_TO_MS["current"]
+    stage = replace(c.stage, conditions=replace(c.stage.conditions, current_towards_deg=d))
+    cap = units.show(SHOWN_UP_TO_MS["current"], "speed")
+    assert current_summary(lim, stage, units).startswith(
+        f"Current setting to {d:03.0f}°T: above {cap} with all tugs"
+    )
+    wind = main.hold_limits
+    w = float(wind.problem.directions_deg[int(np.argmax(wind.all_tugs_ms))])
+    stage = replace(c.stage, conditions=replace(c.stage.conditions, wind_from_deg=w))
+    text = summary(wind, stage, units)
+    assert float(np.max(wind.all_tugs_ms)) > SHOWN_UP_TO_MS["wind"]
+    assert f"above {units.show(SHOWN_UP_TO_MS['wind'], 'speed')} with all tugs" in text
