@@ -22,6 +22,7 @@ from typing import TYPE_CHECKING
 from PySide6.QtCore import QPointF, QRectF, Qt
 from PySide6.QtGui import QPainter, QPainterPath, QPen
 from PySide6.QtWidgets import QGraphicsItem, QStyleOptionGraphicsItem, QWidget
+from shiboken6 import isValid
 
 from app.board.items import CACHE, GUIDE, IGNORES, ROLE
 from app.paint import style
@@ -50,7 +51,7 @@ class SectorWedge(QGraphicsItem):
         self.apex = QPointF()
         self.start = 0.0
         self.width = 0.0
-        self.radius = 1.0
+        self.radius = -1.0  # no geometry yet
         self.selected = False
         self._path = QPainterPath()
         self._rect = QRectF()
@@ -61,6 +62,8 @@ class SectorWedge(QGraphicsItem):
             self.update()
 
     def set_geometry(self, apex: QPointF, start: float, width: float, radius: float) -> None:
+        if (apex, start, width, radius) == (self.apex, self.start, self.width, self.radius):
+            return  # unchanged (a drag of another tug redraws the board on every move)
         self.prepareGeometryChange()
         self.apex, self.start, self.width, self.radius = QPointF(apex), start, width, radius
         path = QPainterPath()
@@ -198,7 +201,8 @@ class SectorLayer:
 
     def _wedge(self, tug: str, root: QGraphicsItem) -> SectorWedge:
         w = self.wedges.get(tug)
-        if w is None or w.parentItem() is not root:
+        # a body's items go with its root (another plan opened, a body taken away)
+        if w is None or not isValid(w) or w.parentItem() is not root:
             if w is not None:
                 self._drop(tug)
             w = self.wedges[tug] = SectorWedge(root)
@@ -206,7 +210,8 @@ class SectorLayer:
 
     def _knobs(self, tug: str, root: QGraphicsItem, wedge: SectorWedge) -> None:
         pair = self.knobs.get(tug)
-        if pair is None or pair[0].parentItem() is not root:
+        if pair is None or not all(isValid(k) for k in pair) or pair[0].parentItem() is not root:
+            self._drop_knobs(tug)
             pair = self.knobs[tug] = (SectorKnob(root, tug, "low"), SectorKnob(root, tug, "high"))
         shown = self.scene.selected_tug() == tug or self._dragging(tug)
         wedge.set_selected(shown)
@@ -219,12 +224,18 @@ class SectorLayer:
         return isinstance(drag, SectorDrag) and drag.placement.tug == tug
 
     def _drop(self, tug: str) -> None:
-        items: list[QGraphicsItem] = []
         w = self.wedges.pop(tug, None)
-        if w is not None:
-            items.append(w)
-        items.extend(self.knobs.pop(tug, ()))
+        self._remove([] if w is None else [w])
+        self._drop_knobs(tug)
+
+    def _drop_knobs(self, tug: str) -> None:
+        self._remove(list(self.knobs.pop(tug, ())))
+
+    @staticmethod
+    def _remove(items: list[QGraphicsItem]) -> None:
         for item in items:
+            if not isValid(item):
+                continue  # already deleted with its body's root
             s = item.scene()
             item.setParentItem(None)
             if s is not None:

@@ -137,3 +137,25 @@ def test_a_printed_board_has_no_wedges(window) -> None:
     printed = BoardScene(window.controller, stage_index=0)
     assert printed.sectors.wedges == {}
     assert not any(isinstance(i, SectorWedge) for i in printed.items())
+
+
+def test_wedges_follow_another_plan_opened_and_a_tug_removed(window, qtbot) -> None:
+    from tests.conftest import SAMPLES
+
+    errors: list[str] = []
+    window.controller.message.connect(errors.append)
+    for name in ("pontoon_swing", "twin_barge_move", "deck_barge_unberth"):
+        assert window.open_path(SAMPLES / f"{name}.towboard", ask=False)
+        c = window.controller
+        for i in range(len(c.project.stages)):
+            c.set_stage_index(i)
+            want = {p.tug for p in c.stage.placements if p.lead_sector_rad is not None}
+            assert set(window.board.sectors.wedges) == want
+            assert all(w.scene() is window.board for w in window.board.sectors.wedges.values())
+    c = window.controller
+    c.set_stage_index(0)
+    c.apply(c.project.without_tug("Gannet"), "Remove Gannet")
+    assert "Gannet" not in window.board.sectors.wedges
+    c.undo_stack.undo()
+    assert "Gannet" in window.board.sectors.wedges
+    assert not errors
