@@ -217,7 +217,7 @@ class CapabilityModel(QAbstractTableModel):
     def _set(self, r: int, col: int, text: str) -> None:
         row = self.rows[r]
         if col == 0:
-            v = parse_value(text, rules.CAPABILITY_BEARING, self.units, "capability") % 360.0
+            v = parse_value(text, rules.CAPABILITY_BEARING, self.units) % 360.0
             if any(
                 abs(o.bearing_deg - v) < 1e-9 or abs(abs(o.bearing_deg - v) - 360) < 1e-9
                 for o in self.rows

@@ -81,6 +81,10 @@ hull; with the hull selected, drag a vertex. Double-click the hull's edge to ins
 vertex; double-click a line point, push point or tug to edit it. Delete removes the
 selected vertex or point, or lets go the selected tug.
 
+Working sectors: a faint wedge at a tug's point shows where it may lie when the pulls are
+solved. Select the tug and drag the knob at the end of either edge to move that limit
+(whole degrees; Shift: 5°); the tugs table's Sector columns take the limits typed.
+
 Keys: arrow keys nudge the selection (a body or tug 1 m, a vertex or point 0.5 m; Shift:
 ten times as far); [ and ] turn the selected body 1° to port or starboard (Shift: 10°).
 A selected tug: + and − change its setting by 1 %, Page Up and Page Down by 10 %, the wheel
@@ -102,8 +106,8 @@ leaves it an open line). Click a feature to select it: drag it, or drag a point'
 double-click its line to add a point; Delete removes the point or the feature; right-click
 to rename it.
 
-Right-click anything on the board for what can be done to it: a tug's setting or let go, a
-body's heading, lash or unlash hulls, rename or delete a site feature.
+Right-click anything on the board for what can be done to it: a tug's setting, working
+sector, push-pull or let go, a body's heading, lash or unlash hulls, rename or delete a site feature.
 
 A drag is one undo step; nudges or steps of the same item in a row are one undo step too."""
 

@@ -96,7 +96,7 @@ def test_typing_a_capability_changes_the_file_and_the_hold_limits(window, qtbot,
         (LINE, "-0.1", "on a line: capability share: -0.1 must not be negative"),
         (PUSH_PULL, "lots", "push-pull: capability share: 'lots' is not a number"),
         (0, "45", "capability bearing: 45° is in the table already"),
-        (0, "400", "capability: capability bearing: 400.0° must be at most 360°"),
+        (0, "400", "Not changed: capability bearing: 400.0° must be at most 360°"),
     ],
 )
 def test_a_refused_figure_is_named_and_changes_nothing(
