@@ -29,6 +29,7 @@ from PySide6.QtWidgets import (
 from app.numbers import message
 from app.panels.capability_polar import CapabilityPolar
 from app.panels.capability_table import CapabilityModel
+from app.panels.dialog_parts import error_label
 from core.errors import TowboardError
 from core.model import rules
 from core.model.capability import WAY_WORDS, WAYS, Capability, Way
@@ -95,11 +96,8 @@ class CapabilityEditor(QWidget):
         source_row = QHBoxLayout()
         source_row.addWidget(QLabel("Source"))
         source_row.addWidget(self.source, 1)
-        self.error = QLabel("")
-        self.error.setObjectName("capability_error")
-        self.error.setWordWrap(True)
-        self.error.setStyleSheet("color: #b71c1c;")
-        self.error.setVisible(False)
+        self.error = error_label()
+        self.error.setObjectName("capability_error")  # the dialog's own is "error"
         layout = QVBoxLayout(self)
         layout.setContentsMargins(0, 0, 0, 0)
         layout.addWidget(self.polar, 3)
