@@ -43,7 +43,8 @@ def verdict_html(verdict: Verdict, reasons: bool = True, limit: int = 8) -> str:
 
 
 class VerdictView(QLabel):
-    """A label showing the verdict of the stage on the board (``brief``: one line)."""
+    """A label showing the verdict of the stage (``brief``: the headline above the board,
+    without the list of reasons). Both wrap, so a long reason never widens the window."""
 
     def __init__(
         self, controller: Controller, brief: bool = False, parent: QWidget | None = None
@@ -55,7 +56,7 @@ class VerdictView(QLabel):
         self._stale = False
         self.setObjectName("verdict_brief" if brief else "verdict")
         self.setTextFormat(Qt.TextFormat.RichText)
-        self.setWordWrap(not brief)
+        self.setWordWrap(True)
         self.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
         self._timer = QTimer(self)
         self._timer.setSingleShot(True)

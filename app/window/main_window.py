@@ -20,18 +20,21 @@ import os
 import sys
 from pathlib import Path
 
-from PySide6.QtCore import QSettings, Qt
-from PySide6.QtGui import QAction, QActionGroup, QCloseEvent, QKeySequence
+from PySide6.QtCore import QRect, QSettings, Qt
+from PySide6.QtGui import QAction, QActionGroup, QCloseEvent, QKeySequence, QShowEvent
 from PySide6.QtWidgets import (
     QApplication,
     QComboBox,
     QDockWidget,
     QFileDialog,
+    QFrame,
     QInputDialog,
     QLabel,
     QMainWindow,
     QMenu,
     QMessageBox,
+    QScrollArea,
+    QTabBar,
     QToolBar,
     QVBoxLayout,
     QWidget,
@@ -163,6 +166,7 @@ class MainWindow(QMainWindow):
         install_drift(self)  # the drift preview: ghosts on the board, its panel
         install_editors(self)  # the fitting dialog, the tug editor, a substitute tug
         self.recovery = RecoveryWriter(self.controller)
+        self._docks_arranged = False
         self.resize(1400, 900)
         self._update_title()
 
@@ -197,11 +201,14 @@ class MainWindow(QMainWindow):
         title: str,
         area: Qt.DockWidgetArea = Qt.DockWidgetArea.RightDockWidgetArea,
         tabify_with: str | None = None,
+        scroll: bool = False,
     ) -> QDockWidget:
-        """Dock ``widget`` as a panel called ``title``; listed in the View menu."""
+        """Dock ``widget`` as a panel called ``title``; listed in the View menu. With
+        ``scroll`` a tall panel scrolls in a short dock instead of setting the window's
+        least height."""
         dock = QDockWidget(title, self)
         dock.setObjectName(f"panel_{key}")
-        dock.setWidget(widget)
+        dock.setWidget(scrolled(widget) if scroll else widget)
         self.addDockWidget(area, dock)
         if tabify_with is not None and tabify_with in self.panels:
             self.tabifyDockWidget(self.panels[tabify_with], dock)
@@ -217,12 +224,10 @@ class MainWindow(QMainWindow):
         self.units_panel = UnitsPanel(c)
         self.tugs_panel = TugsPanel(c)
         self.add_panel("balance", self.balance_panel, "Balance")
-        self.add_panel("hull", self.hull_panel, "Hull", tabify_with="balance")
+        self.add_panel("hull", self.hull_panel, "Hull", tabify_with="balance", scroll=True)
         self.add_panel("units", self.units_panel, "Units", tabify_with="balance")
         self.panels["balance"].raise_()
         self.add_panel("tugs", self.tugs_panel, "Tugs", Qt.DockWidgetArea.BottomDockWidgetArea)
-        self.resizeDocks([self.panels["balance"]], [400], Qt.Orientation.Horizontal)
-        self.resizeDocks([self.panels["tugs"]], [230], Qt.Orientation.Vertical)
 
     def _action(self, text: str, slot, shortcut=None, tip: str = "") -> QAction:  # type: ignore[no-untyped-def]
         a = QAction(text, self)
@@ -617,6 +622,34 @@ class MainWindow(QMainWindow):
             o.discard()
         return restored
 
+    def showEvent(self, event: QShowEvent) -> None:
+        super().showEvent(event)
+        if not self._docks_arranged:  # sizes set before the first show are not kept
+            self._docks_arranged = True
+            self.arrange_docks()
+
+    def arrange_docks(self) -> None:
+        """Give the panels their working sizes for the window's size: the side panels
+        wide enough for their words, the board the rest."""
+        w, h = self.width(), self.height()
+        side = [self.panels[k] for k in ("stages", "balance") if k in self.panels]
+        widths = [min(300, max(220, w // 6)), min(440, max(300, w // 4))][: len(side)]
+        self.resizeDocks(side, widths, Qt.Orientation.Horizontal)
+        tall = [self.panels[k] for k in ("tugs", "hold_limits") if k in self.panels]
+        heights = [min(240, max(150, h // 4)), min(420, max(240, h * 2 // 5))][: len(tall)]
+        self.resizeDocks(tall, heights, Qt.Orientation.Vertical)
+        self._hide_stray_tab_bars()
+
+    def _hide_stray_tab_bars(self) -> None:
+        """Hide the tab bars Qt leaves behind when docks are tabbed before the window is
+        shown (Qt 6.11: a second group of tabbed docks leaves a copy of its first bar,
+        drawn over the panel above it). A bar in use sits against an edge of the dock
+        it shows; a stray one does not, and Qt never touches it again."""
+        docks = [d for d in self.panels.values() if d.isVisible()]
+        for bar in self.findChildren(QTabBar, options=Qt.FindChildOption.FindDirectChildrenOnly):
+            if bar.isVisible() and not any(_touches(bar.geometry(), d.geometry()) for d in docks):
+                bar.hide()
+
     def closeEvent(self, event: QCloseEvent) -> None:
         if self.maybe_discard():
             self.recovery.close()
@@ -633,6 +666,23 @@ class MainWindow(QMainWindow):
             "About Towboard",
             "Towboard plans moves of floating bodies with several tugs.\n\n" + CAUTION,
         )
+
+
+def _touches(bar: QRect, dock: QRect) -> bool:
+    """True when tab bar ``bar`` lies along the top or bottom edge of ``dock``."""
+    overlap = min(bar.right(), dock.right()) - max(bar.left(), dock.left())
+    near = min(abs(bar.top() - dock.bottom() - 1), abs(bar.bottom() + 1 - dock.top()))
+    return overlap > 0 and near <= 2
+
+
+def scrolled(panel: QWidget) -> QScrollArea:
+    """``panel`` in a scroll area: a short dock scrolls it and never squeezes a field."""
+    scroll = QScrollArea()
+    scroll.setWidgetResizable(True)
+    scroll.setFrameShape(QFrame.Shape.NoFrame)
+    scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+    scroll.setWidget(panel)
+    return scroll
 
 
 #: The windows ``run`` opened (kept referenced while the program runs).

@@ -23,11 +23,8 @@ from PySide6.QtPrintSupport import (
 from PySide6.QtWidgets import (
     QDialog,
     QFileDialog,
-    QFrame,
     QMessageBox,
-    QScrollArea,
     QToolBar,
-    QWidget,
 )
 
 from app.board.site_layer import SiteLayer
@@ -60,7 +57,7 @@ class PlanUi:
         self.site_panel = SitePanel(self.controller)
         left = Qt.DockWidgetArea.LeftDockWidgetArea
         window.add_panel("stages", self.stage_list, "Stages", left)
-        window.add_panel("stage", _scrolled(self.stage_details), "Stage", left)
+        window.add_panel("stage", self.stage_details, "Stage", left, scroll=True)
         window.add_panel("site", self.site_panel, "Site", left, tabify_with="stage")
         window.panels["stage"].raise_()
         self.site = SiteLayer(window.board)
@@ -200,16 +197,6 @@ class PlanUi:
             return None
         c.message.emit(f"Briefing written to {path} ({n} pages, {self.paper})")
         return path
-
-
-def _scrolled(panel: QWidget) -> QScrollArea:
-    """``panel`` in a scroll area: a short dock scrolls it and never squeezes a field."""
-    scroll = QScrollArea()
-    scroll.setWidgetResizable(True)
-    scroll.setFrameShape(QFrame.Shape.NoFrame)
-    scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
-    scroll.setWidget(panel)
-    return scroll
 
 
 def install(window: MainWindow) -> PlanUi:

@@ -34,12 +34,13 @@ class SolveUi:
         self.solve_panel = SolvePanel(c)
         self.hold = HoldLimitsPanel(c)
         window.add_panel("conditions", self.conditions, "Conditions", tabify_with="balance")
-        window.add_panel("solve", self.solve_panel, "Solve pulls", tabify_with="balance")
+        window.add_panel(
+            "solve", self.solve_panel, "Solve pulls", tabify_with="balance", scroll=True
+        )
         window.add_panel(
             "hold_limits", self.hold, "Hold limits", Qt.DockWidgetArea.RightDockWidgetArea
         )
         window.panels["balance"].raise_()
-        window.resizeDocks([window.panels["hold_limits"]], [430], Qt.Orientation.Vertical)
         self.card = ConditionsCard(window.view)
         self.solve_panel.notes_changed.connect(self._notes)
         self.solve_panel.live.toggled.connect(self.set_live)
