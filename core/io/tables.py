@@ -106,7 +106,7 @@ BALANCE_COLUMNS: tuple[Column, ...] = (
     Column("Goal met by the solved pulls", (*_SOLVED, "goal_met")),
     Column("Total solved pull", (*_SOLVED, "total_pull_N"), "force", "N"),
     Column("Largest use", (*_SOLVED, "largest_utilisation"), unit="fraction"),
-    Column("Tug lost check passes", ("solve", "tug_lost", "passes")),
+    Column("Goal met with any one tug lost", ("solve", "tug_lost", "passes")),
     Column("Loss that hurts most", ("solve", "tug_lost", "worst_loss")),
     Column("Lowest hold limit", (*_HOLD, "lowest_all_tugs", "speed_ms"), "speed", "m/s"),
     Column(
