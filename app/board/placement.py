@@ -51,6 +51,7 @@ W_LABEL = 60.0  # per px^2 of overlap with a label already placed
 W_OUTSIDE = 40.0  # per px^2 outside the view
 W_MOVE = 0.8  # per px the box moved from home
 W_LEADER = 20.0  # once, for a box moved off its anchor (it needs a leader line)
+W_LEADER_HIDDEN = 400.0  # once, for a leader line that would run under an overlay
 LAYERS = ("hard", "arrow", "hull", "line")
 
 
@@ -233,6 +234,28 @@ def _overlap(boxes: np.ndarray, others: np.ndarray) -> np.ndarray:
     return (np.clip(w, 0, None) * np.clip(h, 0, None)).sum(1)
 
 
+def _leaders_cross(
+    boxes: np.ndarray, anchor: QPointF, reserved: np.ndarray, samples: int = 12
+) -> np.ndarray:
+    """(k,) True where the leader from ``anchor`` to the nearest point of each of (k, 4)
+    boxes runs through any of (m, 4) ``reserved`` boxes (sampled along its length)."""
+    if len(reserved) == 0:
+        return np.zeros(len(boxes), dtype=bool)
+    ax, ay = anchor.x(), anchor.y()
+    ex = np.clip(ax, boxes[:, 0], boxes[:, 2])  # where Label._aim_leader ends the line
+    ey = np.clip(ay, boxes[:, 1], boxes[:, 3])
+    t = np.linspace(0.0, 1.0, samples)
+    px = ax + (ex[:, None] - ax) * t[None, :]  # (k, s)
+    py = ay + (ey[:, None] - ay) * t[None, :]
+    inside = (
+        (px[:, :, None] > reserved[None, None, :, 0])
+        & (px[:, :, None] < reserved[None, None, :, 2])
+        & (py[:, :, None] > reserved[None, None, :, 1])
+        & (py[:, :, None] < reserved[None, None, :, 3])
+    )
+    return np.asarray(inside.any(axis=(1, 2)))
+
+
 def _outside(boxes: np.ndarray, width: float, height: float) -> np.ndarray:
     area = (boxes[:, 2] - boxes[:, 0]) * (boxes[:, 3] - boxes[:, 1])
     w = np.clip(np.minimum(boxes[:, 2], width) - np.maximum(boxes[:, 0], 0), 0, None)
@@ -252,6 +275,9 @@ def place_labels(
     items = scene.items()
     reserved = list(reserved)
     costs = cost_map(items, vt, size, reserved)
+    grown = [r.adjusted(-3, -3, 3, 3) for r in reserved]  # a leader's pen and its padding
+    overlays = np.array([(r.left(), r.top(), r.right(), r.bottom()) for r in grown])
+    overlays = overlays.reshape(-1, 4)
     view_box = QRectF(0, 0, size.width(), size.height())
     labels = [i for i in items if isinstance(i, Label) and _shown(i) and i.text]
     placed: list[Label] = []
@@ -279,6 +305,7 @@ def place_labels(
         moved = np.hypot(shifts[:, 0], shifts[:, 1])
         cost += W_MOVE * moved
         cost += np.where(moved > 0, W_LEADER, 0.0)
+        cost += np.where(_leaders_cross(cand, anchor, overlays) & (moved > 0), W_LEADER_HIDDEN, 0)
         best = int(np.argmin(cost))
         # pixels of the device are the label's own (it ignores the view's scale)
         lab.set_shift(float(shifts[best, 0]), float(shifts[best, 1]))

@@ -191,7 +191,7 @@ class SiteLayer:
             line.setZValue(Z_CLEARANCE)
             line.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
             self.scene.addItem(line)
-            text = units.show(c.distance_m, "length")
+            text = f"{units.show(c.distance_m, 'length')} to {c.other}"
             if c.below_margin:
                 text += f" (margin {units.show(c.margin_m, 'length')})"
             lab = Label(

@@ -52,6 +52,7 @@ class BoardView(QGraphicsView):
         self.setTransform(QTransform.fromScale(1.0, -1.0))
         self._pan: QPointF | None = None
         self._fitted = False
+        self._fit_box = QRectF()  # the site box (m) last fitted
         #: The user zoomed or panned since the last fit: a change of stage keeps the view.
         self.user_zoomed = False
         self._stage_shown: int | None = None
@@ -98,6 +99,7 @@ class BoardView(QGraphicsView):
         """Show site box ``rect`` (m) whole, centred, north up."""
         if rect.isNull() or self.viewport().width() < 10:
             return
+        self._fit_box = QRectF(rect)
         vw, vh = self.viewport().width(), self.viewport().height()
         k = min(vw / rect.width(), vh / rect.height())
         self.setTransform(QTransform.fromScale(k, -k))
@@ -223,6 +225,8 @@ class BoardView(QGraphicsView):
         super().resizeEvent(event)
         if not self._fitted or event.oldSize().width() <= 0:
             self.fit_to_hull()
+        elif not self.user_zoomed and not self.board.controller.previewing:
+            self.fit_rect(self._fit_box)  # a fitted view stays fitted (card corner too)
         else:
             self.schedule_placement()
 

@@ -57,6 +57,10 @@ class VerdictView(QLabel):
         self.setObjectName("verdict_brief" if brief else "verdict")
         self.setTextFormat(Qt.TextFormat.RichText)
         self.setWordWrap(True)
+        if brief:  # two lines at most, so the board below keeps its size as stages change
+            lines = 2 * self.fontMetrics().lineSpacing()
+            self.setFixedHeight(lines + 8)  # the 3 px padding above and below, and the rule
+            self.setAlignment(Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop)
         self.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
         self._timer = QTimer(self)
         self._timer.setSingleShot(True)

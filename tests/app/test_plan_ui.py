@@ -73,7 +73,7 @@ def test_selecting_a_stage_shows_it_on_the_board_with_its_clearances(window, qtb
     )
     assert least.distance_m == pytest.approx(outline.distance(shapely.LineString(quay.points)))
     texts = [lab.text for lab in site.clearance_labels]
-    assert project.units.show(least.distance_m, "length") in texts
+    assert f"{project.units.show(least.distance_m, 'length')} to {least.other}" in texts
     assert len(site.clearance_labels) == len(notable_clearances(site.clearances))
 
 
