@@ -14,17 +14,25 @@ from app.paint.rings import polar_scale
 from app.paint.style import ALL_TUGS, ALL_TUGS_FILL, TUG_LOST
 from app.paint.symbols import draw_planned_wind
 from core.model.plan import Stage
-from core.solve.holdlimits import HoldLimits, limit_at
+from core.solve.holdlimits import HoldLimits, limit_at, limit_words
 from core.units import DisplayUnits, fmt, label
 
 
 class HoldPlot:
     """Paints one stage's hold limits (a core.solve.pulls.holdlimits.HoldLimits)."""
 
-    def __init__(self, limits: HoldLimits, stage: Stage, units: DisplayUnits) -> None:
+    def __init__(
+        self,
+        limits: HoldLimits,
+        stage: Stage,
+        units: DisplayUnits,
+        current: HoldLimits | None = None,
+    ) -> None:
         self.limits = limits
         self.stage = stage
         self.units = units
+        #: A hold stage's current limits (all tugs, the wind as planned), said in words.
+        self.current = current
 
     @property
     def has_curve(self) -> bool:
@@ -133,15 +141,15 @@ class HoldPlot:
             f"Wind speed ({sp}) the tugs can hold the body against, by the true direction it "
             "blows from, with the current as planned; same measure as the planned wind "
             "(mean at its height, with its gust factor).",
-            f"Lowest with all tugs: {u.show(v_low, 'speed')} from {d_low:03.0f}°.",
+            f"Lowest with all tugs: {limit_words(v_low, u)} from {d_low:03.0f}°.",
         ]
         if lost_v is not None:
             d2, v2 = lim.lowest(np.asarray(lim.worst_lost_ms))
-            facts.append(f"Lowest with the worst tug lost: {u.show(v2, 'speed')} from {d2:03.0f}°.")
+            facts.append(f"Lowest with the worst tug lost: {limit_words(v2, u)} from {d2:03.0f}°.")
         if planned > 0:
             here = limit_at(lim, c.wind_from_deg)
             facts.append(
-                f"From the planned direction {c.wind_from_deg:03.0f}°: {u.show(here, 'speed')} "
+                f"From the planned direction {c.wind_from_deg:03.0f}°: {limit_words(here, u)} "
                 f"with all tugs (planned {u.show(c.wind_speed_ms, 'speed')})."
                 + (
                     " The planned wind is more than the tugs can hold."
@@ -157,6 +165,8 @@ class HoldPlot:
             )
         if not lim.holds_current:
             facts.append("The tugs cannot hold the body against the current alone.")
+        if self.current is not None:
+            facts.append(self.current_words())
         beyond = ~np.isfinite(all_v) | (all_v > top * (1 + 1e-9))
         if np.any(beyond):
             facts.append(
@@ -169,3 +179,21 @@ class HoldPlot:
             h = ctx.text_height(t, width, 7.0)
             p.drawText(QRectF(x, y, width, h), int(Qt.TextFlag.TextWordWrap), t)
             y += h + ctx.mm(1.2)
+
+    def current_words(self) -> str:
+        """The current the tugs hold (a hold stage), from the stage result, in words."""
+        cur = self.current
+        if cur is None:
+            return ""
+        u, c, lim = self.units, self.stage.conditions, self.stage.limits
+        d, v = cur.lowest()
+        here = limit_at(cur, c.current_towards_deg)
+        text = (
+            "Current the tugs can hold (all tugs, the wind as planned): lowest "
+            f"{limit_words(v, u, 'current')} setting to {d:03.0f}°; setting to the planned "
+            f"{c.current_towards_deg:03.0f}°, {limit_words(here, u, 'current')} (planned "
+            f"{u.show(c.current_speed_ms, 'speed')}"
+        )
+        if lim.max_current_ms is not None:
+            text += f", stage limit {u.show(lim.max_current_ms, 'speed')}"
+        return text + ")."

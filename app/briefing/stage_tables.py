@@ -253,7 +253,7 @@ def hold_limits_plot(project: Project, result: StageResult, body: BodyResult) ->
     if hl is None:
         return []
     out: list[Block] = [heading(f"Hold limits: {body.name}", 2)]
-    plot = HoldPlot(hl, result.stage, project.units)
+    plot = HoldPlot(hl, result.stage, project.units, body.current_limits)
     if not plot.has_curve:
         why = (
             "cannot hold the body against the planned current alone"

@@ -327,10 +327,11 @@ def test_units_follow_the_plan(tmp_path, qapp_module):
 
 def test_the_hold_limits_plot_states_the_cores_lowest_limits(tmp_path, qapp_module):
     from app.briefing.document import write_pdf
+    from core.analysis.stage import stage_result
     from core.frames import bearing_to_angle
     from core.model.goals import Goal
     from core.model.tugs import Placement
-    from core.solve.holdlimits import hold_limits, hold_limits_problem
+    from core.solve.holdlimits import hold_limits, hold_limits_problem, limit_words
 
     project = load(TWIN)
     # tugs that work every way: a bow line ahead, a stern line astern, a push on each side
@@ -353,10 +354,18 @@ def test_the_hold_limits_plot_states_the_cores_lowest_limits(tmp_path, qapp_modu
     text = " ".join(pages_text(out))
     u = plan.units
     d, v = limits.lowest()
-    assert f"Lowest with all tugs: {u.show(v, 'speed')} from {d:03.0f}°." in text
+    # the limits in the core's words: "above 60.0 kn" beyond its sensible range (issue 12)
+    assert f"Lowest with all tugs: {limit_words(v, u)} from {d:03.0f}°." in text
     d2, v2 = limits.lowest(limits.worst_lost_ms)
-    assert f"Lowest with the worst tug lost: {u.show(v2, 'speed')} from {d2:03.0f}°." in text
+    assert f"Lowest with the worst tug lost: {limit_words(v2, u)} from {d2:03.0f}°." in text
     assert "worst single tug lost" in text and "stage limit 22.0 kn" in text
+    # a hold stage: the current the tugs hold, from the stage result
+    cur = stage_result(plan, 0).main.current_limits
+    dc, vc = cur.lowest()
+    assert (
+        "Current the tugs can hold (all tugs, the wind as planned): lowest "
+        f"{limit_words(vc, u, 'current')} setting to {dc:03.0f}°" in text
+    )
 
 
 def test_each_fitting_s_line_tension_and_rating_is_printed(twin_pdf):
