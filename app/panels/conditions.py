@@ -15,6 +15,7 @@ from dataclasses import dataclass, replace
 
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
+    QComboBox,
     QDialog,
     QFormLayout,
     QGroupBox,
@@ -98,6 +99,26 @@ LOADS = (
         tip="1025 seawater (common practice); 1026.02 ITTC at 15 °C; 999.1 fresh",
     ),
 )
+#: Where the lateral load acts: the file's choice and what the panel calls it.
+CENTRE_CHOICES = (
+    ("moving", "moves with the angle (Hughes)"),
+    ("fixed", "fixed at the centre of the side"),
+)
+TRAVEL = (
+    Field(
+        "wind_centre_head_on",
+        "Wind centre head-on (share of length)",
+        "plain",
+        tip="Where the wind's centre of pressure lies with the wind ahead or astern, as a "
+        "share of the length from that end; 0.291 (Hughes, from memory); 0.5: no travel",
+    ),
+    Field(
+        "current_centre_head_on",
+        "Current centre head-on (share of length)",
+        "plain",
+        tip="The same for the current; 0.291 (Hughes' figure for the wind, from memory)",
+    ),
+)
 CENTRES = (
     ("wind_centre_m", "Wind centre of pressure (x, y)"),
     ("current_centre_m", "Current centre of pressure (x, y)"),
@@ -131,6 +152,20 @@ class ConditionsPanel(QWidget):
         col.addWidget(sea)
         loads = self._group("Loads are computed with", LOADS)
         form = loads.layout()
+        self.centre_choice = QComboBox()
+        for key, words in CENTRE_CHOICES:
+            self.centre_choice.addItem(words, key)
+        self.centre_choice.setToolTip(
+            "Moving: the side load acts at the centre of the side beam-on and moves towards "
+            "the end the flow comes from as it turns head-on (Hughes), so an oblique flow "
+            "turns the body across it. Fixed: always at the centre. A centre you set below "
+            "overrides either."
+        )
+        self.centre_choice.activated.connect(self._set_centre_choice)
+        self.labels["pressure_centre"] = QLabel("Centre of pressure")
+        form.addRow(self.labels["pressure_centre"], self.centre_choice)  # type: ignore[union-attr]
+        for f in TRAVEL:
+            self._add_field(form, f)  # type: ignore[arg-type]
         for attr, title in CENTRES:
             x, y = QLineEdit(), QLineEdit()
             for w in (x, y):
@@ -153,7 +188,9 @@ class ConditionsPanel(QWidget):
         col.addWidget(feel)
         note = QLabel(
             "F = ½ ρ C A V² on the head-on and side areas (cos|cos| ahead, sin|sin| abeam of "
-            "the flow). Defaults are typical box-barge values (common practice): set your own."
+            "the flow). The side load's centre moves from amidships beam-on towards the end "
+            "the flow comes from (Hughes), so an oblique flow turns the body across it. "
+            "Defaults are typical box-barge values (common practice): set your own."
         )
         note.setWordWrap(True)
         note.setStyleSheet("color: #455a64;")
@@ -173,15 +210,18 @@ class ConditionsPanel(QWidget):
         box = QGroupBox(title)
         form = QFormLayout(box)
         for f in fields:
-            e = QLineEdit()
-            e.setToolTip(f.tip)
-            e.editingFinished.connect(lambda f=f: self._set(f))
-            lab = QLabel(f.title)
-            lab.setToolTip(f.tip)
-            self.edits[f.attr] = e
-            self.labels[f.attr] = lab
-            form.addRow(lab, e)
+            self._add_field(form, f)
         return box
+
+    def _add_field(self, form: QFormLayout, f: Field) -> None:
+        e = QLineEdit()
+        e.setToolTip(f.tip)
+        e.editingFinished.connect(lambda f=f: self._set(f))
+        lab = QLabel(f.title)
+        lab.setToolTip(f.tip)
+        self.edits[f.attr] = e
+        self.labels[f.attr] = lab
+        form.addRow(lab, e)
 
     # -- units ----------------------------------------------------------------------
     def _units(self) -> DisplayUnits:
@@ -218,6 +258,7 @@ class ConditionsPanel(QWidget):
         for x, y in self.centre_edits.values():
             x.setEnabled(enabled)
             y.setEnabled(enabled)
+        self.centre_choice.setEnabled(enabled)
         self.efficiency_button.setEnabled(bool(self.controller.project.tugs) or enabled)
         u = self._units()
         speed, length = label(u.unit("speed")), label(u.unit("length"))
@@ -232,7 +273,10 @@ class ConditionsPanel(QWidget):
             self.effect.setText("No stage.")
             return
         derived = self._derived()
-        for f in WIND + CURRENT + SEA + LOADS:
+        self.centre_choice.blockSignals(True)
+        self.centre_choice.setCurrentIndex(self.centre_choice.findData(c.pressure_centre))
+        self.centre_choice.blockSignals(False)
+        for f in WIND + CURRENT + SEA + LOADS + TRAVEL:
             e = self.edits[f.attr]
             if e.hasFocus():
                 continue
@@ -346,6 +390,13 @@ class ConditionsPanel(QWidget):
         e.blockSignals(True)
         e.setText("" if v is None else f"{self._from_si(f, v):.6g}")
         e.blockSignals(False)
+
+    def _set_centre_choice(self) -> None:
+        c = self.conditions()
+        key = self.centre_choice.currentData()
+        if c is None or key is None:
+            return
+        self._apply(replace(c, pressure_centre=key), "Set centre of pressure", "pressure_centre")
 
     def _set_centre(self, attr: str) -> None:
         c = self.conditions()

@@ -848,12 +848,15 @@ _CONDITION_KEYS = {
     "current_area_head_on_m2": "current_area_head_m2",
     "current_area_beam_on_m2": "current_area_beam_m2",
     "sea_state": "sea_state",
+    "wind_centre_head_on": "wind_centre_head_on",
+    "current_centre_head_on": "current_centre_head_on",
 }
 _CENTRE_KEYS = ("wind_centre_m", "current_centre_m")
+_CHOICE_KEYS = {"pressure_centre": rules.PRESSURE_CENTRE}
 
 
 def _decode_conditions(r: _Reader, value: Any, path: str) -> Conditions | None:
-    d = r.obj(value, path, (), (*_CONDITION_KEYS, *_CENTRE_KEYS))
+    d = r.obj(value, path, (), (*_CONDITION_KEYS, *_CENTRE_KEYS, *_CHOICE_KEYS))
     if d is None:
         return None
     before = len(r.problems)
@@ -868,6 +871,8 @@ def _decode_conditions(r: _Reader, value: Any, path: str) -> Conditions | None:
             vals[name] = getattr(base, name)
     for key in _CENTRE_KEYS:
         vals[key] = None if d.get(key) is None else r.point(d[key], f"{path}.{key}")
+    for key, choice in _CHOICE_KEYS.items():
+        vals[key] = r.choice(d, key, path, choice.options) if key in d else getattr(base, key)
     if len(r.problems) != before:
         return None
     return r.build(path, lambda: Conditions(**vals))  # type: ignore[arg-type]

@@ -236,6 +236,9 @@ def _encode_stage(project: Project, s: Stage) -> Json:
             "wind_centre_m": None if c.wind_centre_m is None else _pt(c.wind_centre_m),
             "current_centre_m": None if c.current_centre_m is None else _pt(c.current_centre_m),
             "sea_state": num(c.sea_state),
+            "pressure_centre": c.pressure_centre,
+            "wind_centre_head_on": num(c.wind_centre_head_on),
+            "current_centre_head_on": num(c.current_centre_head_on),
         },
         "goal": None
         if s.goal is None

@@ -9,10 +9,30 @@ towards, counter-clockwise from ahead),
     F_port  = 1/2 rho C_beam A_beam V^2 sin(beta) |sin(beta)|
 
 so head-on flow meets only the head-on area and beam-on flow only the side area. The
-lateral component acts at the centre of the side projection (x) and the longitudinal
-one at the centre of the end projection (y); a user-set centre of pressure (a
-deckhouse aft, a crane forward) replaces both. The yaw moment is that point's offset
-from the centroid crossed with the load.
+longitudinal component acts at the centre of the end projection (y). The lateral one
+acts on the side projection at a centre of pressure that moves with the angle of
+incidence (``Conditions.pressure_centre == "moving"``, the default): at the centre of
+the side projection beam-on, moving towards the end the flow comes from as the flow
+turns towards head-on, linearly with the angle,
+
+    x from the leading end = L (a + (1/2 - a) phi / 90 deg),   phi in [0, 90 deg]
+
+where phi is the angle between the flow and the body's length (0 head-on or stern-on)
+and a the centre's place head-on as a share of the length from the leading end.
+a = 0.291 is Hughes' (Trans. INA 1930) figure for the wind on ships, whose straight line
+x/L = 0.291 + 0.0023 theta from the bow, theta the wind's angle off the bow in degrees,
+passes 0.498 L at the beam (from memory); the line above is Hughes' made exactly
+symmetric, so a body symmetric end for end has its centre amidships beam-on. UFC
+4-159-03 (2005) section 4-5.4 (read) puts the current's yaw moment in the same linear
+form, e/L = a + b theta, with a and b by hull type. The same travel, with its own a, is
+used for the current. A body held at an oblique angle to the flow thus feels the moment
+that turns it beam-on to the flow (the lateral load acts on the upstream half), as a
+flat plate does and as a drifting hull does.
+
+With ``pressure_centre == "fixed"`` the lateral load acts at the centre of the side
+projection (no yaw moment from a symmetric body), and a user-set centre of pressure (a
+deckhouse aft, a crane forward) replaces both centres and their travel. The yaw moment
+is the point's offset from the centroid crossed with the load.
 """
 
 from __future__ import annotations
@@ -25,7 +45,6 @@ import numpy as np
 from core.errors import InputError
 from core.mechanics.balance import Load
 from core.mechanics.bodies import Body
-from core.mechanics.forces import moment_of
 from core.model.conditions import Conditions
 from core.model.plan import Stage
 from core.notices import Notice
@@ -100,18 +119,46 @@ def projection(body: Body, height: str) -> Projection | None:
     return Projection(head, beam, head_y / head, beam_x / beam)
 
 
+def centre_shift(flow_x: float, flow_y: float, travel_m: float) -> float:
+    """How far forward (m; negative: aft) the lateral load's centre lies from its beam-on
+    place for a flow going towards (``flow_x``, ``flow_y``) in the body frame.
+
+    ``travel_m`` is the shift head-on, (1/2 - a) L; the shift falls linearly with the
+    angle phi between the flow and the body's length to nothing beam-on, towards the end
+    the flow comes from (the bow when the flow goes aft, ``flow_x`` < 0).
+    """
+    if travel_m == 0.0 or (flow_x == 0.0 and flow_y == 0.0):
+        return 0.0
+    phi = math.atan2(abs(flow_y), abs(flow_x))  # 0 head-on or stern-on, pi/2 beam-on
+    shift = travel_m * (1.0 - phi / (0.5 * math.pi))
+    return shift if flow_x < 0.0 else -shift
+
+
+def centre_shifts(angles_rad: np.ndarray, travel_m: float) -> np.ndarray:
+    """(k,) :func:`centre_shift` for flows going towards ``angles_rad``."""
+    c, s = np.cos(angles_rad), np.sin(angles_rad)
+    if travel_m == 0.0:
+        return np.zeros_like(c)
+    phi = np.arctan2(np.abs(s), np.abs(c))
+    shift = travel_m * (1.0 - phi / (0.5 * np.pi))
+    return np.where(c < 0.0, shift, -shift)
+
+
 @dataclass(frozen=True, slots=True)
 class FlowModel:
     """Everything needed for one flow's load except its speed and angle (body frame).
 
     ``k_head`` and ``k_beam`` are 1/2 rho C A, N per (m/s)^2; ``point`` is where the
-    load acts.
+    load acts beam-on (the centre of the side projection, and of the end projection
+    across); ``travel_m`` how far the lateral load's centre moves from there towards the
+    leading end head-on, m (0: a fixed centre; see the module's notes).
     """
 
     name: str
     k_head: float
     k_beam: float
     point: tuple[float, float]
+    travel_m: float = 0.0
 
     def force(self, speed_ms: float, angle_rad: float) -> tuple[float, float]:
         """Load (ahead, to port), N, for a flow of ``speed_ms`` going towards ``angle_rad``."""
@@ -119,11 +166,18 @@ class FlowModel:
         v2 = speed_ms * speed_ms
         return (self.k_head * v2 * c * abs(c), self.k_beam * v2 * s * abs(s))
 
+    def point_at(self, angle_rad: float) -> tuple[float, float]:
+        """Where the load of a flow going towards ``angle_rad`` acts, body frame, m."""
+        dx = centre_shift(math.cos(angle_rad), math.sin(angle_rad), self.travel_m)
+        return (self.point[0] + dx, self.point[1])
+
     def wrenches(self, angles_rad: np.ndarray, centroid: tuple[float, float]) -> np.ndarray:
         """(3, k): force ahead, to port and moment about ``centroid`` at 1 m/s, per angle."""
         c, s = np.cos(angles_rad), np.sin(angles_rad)
         fx, fy = self.k_head * c * np.abs(c), self.k_beam * s * np.abs(s)
-        return np.vstack([fx, fy, moment_of(self.point, (fx, fy), centroid)])
+        px = self.point[0] + centre_shifts(angles_rad, self.travel_m)
+        moment = (px - centroid[0]) * fy - (self.point[1] - centroid[1]) * fx
+        return np.vstack([fx, fy, moment])
 
 
 def _area(given: float | None, derived: float | None, what: str, body: Body) -> float:
@@ -155,6 +209,7 @@ def wind_model(body: Body, c: Conditions) -> FlowModel:
         0.5 * c.air_density * c.wind_coeff_head * a_head,
         0.5 * c.air_density * c.wind_coeff_beam * a_beam,
         point,
+        _travel(body, c, c.wind_centre_m, c.wind_centre_head_on),
     )
 
 
@@ -176,7 +231,17 @@ def current_model(body: Body, c: Conditions) -> FlowModel:
         0.5 * c.water_density * c.current_coeff_head * a_head,
         0.5 * c.water_density * c_beam * a_beam,
         point,
+        _travel(body, c, c.current_centre_m, c.current_centre_head_on),
     )
+
+
+def _travel(
+    body: Body, c: Conditions, user_centre: tuple[float, float] | None, head_on: float
+) -> float:
+    """The lateral load's travel head-on, (1/2 - a) L, m; 0 for a fixed or user-set centre."""
+    if user_centre is not None or c.pressure_centre != "moving":
+        return 0.0
+    return (0.5 - head_on) * body.length
 
 
 def _beam_over_twice_draught(body: Body) -> float:
@@ -237,12 +302,12 @@ def _flow_load(body: Body, c: Conditions, heading_deg: float, which: str) -> Loa
             return None
         wm = wind_model(body, c)
         angle = flow_angle_rad(c.wind_from_deg + 180.0, heading_deg)
-        return Load("wind", wm.point, wm.force(c.design_wind_ms, angle))
+        return Load("wind", wm.point_at(angle), wm.force(c.design_wind_ms, angle))
     if c.current_speed_ms <= 0:
         return None
     cm = current_model(body, c)
     angle = flow_angle_rad(c.current_towards_deg, heading_deg)
-    return Load("current", cm.point, cm.force(c.current_speed_ms, angle))
+    return Load("current", cm.point_at(angle), cm.force(c.current_speed_ms, angle))
 
 
 def condition_loads(

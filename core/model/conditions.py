@@ -16,6 +16,10 @@ from dataclasses import dataclass, field
 from core.errors import InputError
 from core.model import rules
 
+#: Hughes' centre of pressure head-on, as a share of the length from the leading end
+#: (Trans. INA 1930, from memory; see core.mechanics.loads).
+HUGHES_HEAD_ON = 0.291
+
 #: Each field's rule (core.model.rules), with the label it is shown under.
 _RULES: dict[str, rules.Range] = {
     "wind_speed_ms": rules.WIND_SPEED,
@@ -36,6 +40,8 @@ _RULES: dict[str, rules.Range] = {
     "current_area_head_m2": rules.AREA.named("current area head-on"),
     "current_area_beam_m2": rules.AREA.named("current area beam-on"),
     "sea_state": rules.SEA_STATE,
+    "wind_centre_head_on": rules.CENTRE_HEAD_ON.named("wind centre of pressure head-on"),
+    "current_centre_head_on": rules.CENTRE_HEAD_ON.named("current centre of pressure head-on"),
 }
 #: Fields that may be None (worked out from the body instead).
 OPTIONAL = frozenset(
@@ -90,7 +96,15 @@ class Conditions:
         (wind) or the draught (current).
     wind_centre_m, current_centre_m:
         A user-set centre of pressure (x, y) in the body frame, m; None uses the centre
-        of each projection.
+        of each projection (moving with the angle, see ``pressure_centre``).
+    pressure_centre:
+        ``"moving"`` (default): the lateral load's centre of pressure moves from the
+        centre of the side projection beam-on towards the leading end as the flow turns
+        head-on (Hughes, from memory; core.mechanics.loads), which turns a body lying
+        oblique to the flow; ``"fixed"``: it stays at the centre of the side projection.
+    wind_centre_head_on, current_centre_head_on:
+        Where that centre lies head-on, as a share of the length from the leading end;
+        default 0.291 (Hughes, Trans. INA 1930, from memory); 0.5 means no travel.
     sea_state:
         Sea state code 0-9 (Douglas), used to look up the tugs' efficiency.
     """
@@ -115,8 +129,12 @@ class Conditions:
     wind_centre_m: tuple[float, float] | None = field(default=None)
     current_centre_m: tuple[float, float] | None = field(default=None)
     sea_state: float = 0.0
+    pressure_centre: str = "moving"
+    wind_centre_head_on: float = HUGHES_HEAD_ON
+    current_centre_head_on: float = HUGHES_HEAD_ON
 
     def __post_init__(self) -> None:
+        rules.PRESSURE_CENTRE.check(self.pressure_centre, "conditions")
         for name, r in _RULES.items():
             value = getattr(self, name)
             if value is None and name in OPTIONAL:

@@ -371,6 +371,11 @@ WATER_DENSITY = Range("water density", "density", 950.0, 1100.0)
 COEFFICIENT = Range("coefficient", "plain", 0.0, 10.0, above=True)
 AREA = Range("area", "area", 0.0, 1e6, above=True)
 SEA_STATE = Range("sea state", "plain", 0.0, 9.0)
+#: Where the lateral load's centre of pressure lies head-on, as a share of the length from
+#: the leading end (core.mechanics.loads: 1/2 is amidships, no travel).
+CENTRE_HEAD_ON = Range("centre of pressure head-on", "plain", 0.0, 0.5)
+#: How the centre of pressure is placed (core.mechanics.loads).
+PRESSURE_CENTRE = Choice("centre of pressure", ("moving", "fixed"))
 EFFICIENCY = Range("efficiency", "plain", 0.0, 1.0)
 
 # the drift preview

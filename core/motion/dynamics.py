@@ -35,7 +35,11 @@ the length, which also gives the yaw damping:
 
     Y = -int q(x) (v + r x) |v + r x| dx,   N = -int q(x) x (v + r x) |v + r x| dx.
 
-At rest over the ground these give exactly the current's load of the statics.
+The current load's centre of pressure moves towards the end the water comes from at
+oblique incidence (core.mechanics.loads.centre_shift); the drag adds that moment,
+shift(-u, -v) times the sideways drag at G's own speed, -k v |v|, and the wind's load
+acts at its own moving centre, so that at rest over the ground these give exactly the
+current's and the wind's loads of the statics (one road for both, tested).
 """
 
 from __future__ import annotations
@@ -48,7 +52,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from core.errors import InputError
-from core.mechanics.loads import FlowModel
+from core.mechanics.loads import FlowModel, centre_shift
 from core.mechanics.site import Placing
 from core.motion.inertia import Inertia
 
@@ -73,12 +77,14 @@ class WaterDrag:
     """The water's quadratic drag on the body, from the centre of gravity.
 
     ``surge_k`` = 1/2 rho C A head-on, N / (m/s)^2, acting ``surge_y`` m to port of G;
-    ``strips`` the cross-flow drag along the length.
+    ``strips`` the cross-flow drag along the length; ``travel_m`` how far the sideways
+    load's centre moves towards the leading end head-on (the current load's, m).
     """
 
     surge_k: float
     surge_y: float
     strips: tuple[Strip, ...]
+    travel_m: float = 0.0
 
     @property
     def sway_k(self) -> float:
@@ -146,6 +152,8 @@ class Motion:
             kwx = kwy = pwx = pwy = 0.0
         khx, hy = self.water.surge_k, self.water.surge_y
         strips = [(s.x0, s.x1, s.q) for s in self.water.strips]
+        ksy, water_travel = self.water.sway_k, self.water.travel_m
+        wind_travel = 0.0 if self.wind is None else self.wind.travel_m
         cos, sin = math.cos, math.sin
 
         def f(t: float, y: np.ndarray) -> list[float]:
@@ -158,7 +166,9 @@ class Motion:
             fwx, fwy = kwx * au * abs(au), kwy * av * abs(av)
             fx = tx + fwx - khx * u * abs(u)
             fy = ty + fwy
-            n = tn + pwx * fwy - pwy * fwx + hy * khx * u * abs(u)
+            arm = pwx + centre_shift(au, av, wind_travel)
+            n = tn + arm * fwy - pwy * fwx + hy * khx * u * abs(u)
+            n -= centre_shift(-u, -v, water_travel) * ksy * v * abs(v)
             for x0, x1, q in strips:
                 i0, i1 = strip_integrals(v, r, x0, x1)
                 fy -= q * i0

@@ -66,7 +66,7 @@ def water_drag(body: Body, c: Conditions, cog: tuple[float, float]) -> WaterDrag
         Strip(x0 + shift - gx, x1 + shift - gx, cm.k_beam * a / total / (x1 - x0))
         for x0, x1, a in spans
     )
-    return WaterDrag(cm.k_head, cm.point[1] - gy, strips)
+    return WaterDrag(cm.k_head, cm.point[1] - gy, strips, cm.travel_m)
 
 
 def wind_velocity(c: Conditions) -> tuple[float, float]:

@@ -347,6 +347,21 @@ CASES = [
     ),
     *(
         Case(
+            f"conditions: {attr}",
+            _cond(attr),
+            "0.7",
+            f"{label}: 0.7 must be at most 0.5",
+            "0.3",
+            _cond_value(attr),
+            0.3,
+        )
+        for attr, label in (
+            ("wind_centre_head_on", "wind centre of pressure head-on"),
+            ("current_centre_head_on", "current centre of pressure head-on"),
+        )
+    ),
+    *(
+        Case(
             f"conditions: {attr}[{k}]",
             _centre(attr, k),
             "1e6",

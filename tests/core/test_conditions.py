@@ -156,9 +156,11 @@ def test_wind_measured_high_is_brought_down_to_10_m() -> None:
     assert ratio == pytest.approx(4.0 ** (-0.24), rel=1e-12)
 
 
-def test_symmetric_box_has_no_yaw_moment_from_wind() -> None:
+def test_symmetric_box_has_no_yaw_moment_from_wind_with_a_fixed_centre() -> None:
+    # The moving centre (the default) is tested in test_pressure_centre.py.
     body = body_of(Project(hulls=(BOX,)), "Box")
-    cl = condition_loads(body, Conditions(wind_speed_ms=15.0, wind_from_deg=60.0), 0.0)
+    c = Conditions(wind_speed_ms=15.0, wind_from_deg=60.0, pressure_centre="fixed")
+    cl = condition_loads(body, c, 0.0)
     assert loads_wrench(cl.loads, body.centroid)[2] == pytest.approx(0.0, abs=1e-6)
 
 

@@ -101,3 +101,34 @@ def test_bad_efficiency_table_names_its_path() -> None:
     data["tug_efficiency"]["efficiency"] = [[1.0, 0.7]]
     (problem,) = _problems(data)
     assert problem.startswith("tug_efficiency: ") and "2 rows" in problem
+
+
+def test_centre_of_pressure_fields_round_trip_and_default() -> None:
+    p = load(SAMPLE)
+    s0 = p.stages[0]
+    c = replace(
+        s0.conditions, pressure_centre="fixed", wind_centre_head_on=0.3, current_centre_head_on=0.25
+    )
+    project = p.with_stage(replace(s0, conditions=c), 0)
+    text = dumps(project)
+    jsonschema.validate(json.loads(text), SCHEMA)
+    again = loads(text)
+    assert again.stages[0].conditions == c
+    assert dumps(again) == text
+    data = json.loads(text)
+    for key in ("pressure_centre", "wind_centre_head_on", "current_centre_head_on"):
+        del data["stages"][0]["conditions"][key]
+    old = loads(json.dumps(data)).stages[0].conditions
+    # Files written before these fields get the moving centre with Hughes' 0.291.
+    assert (old.pressure_centre, old.wind_centre_head_on) == ("moving", 0.291)
+
+
+def test_bad_centre_of_pressure_fields_name_their_path() -> None:
+    data = json.loads(dumps(_edited()))
+    cond = data["stages"][0]["conditions"]
+    cond["pressure_centre"] = "wandering"
+    cond["current_centre_head_on"] = 0.8
+    assert _problems(data) == [
+        "stages[0].conditions.current_centre_head_on: 0.8 must be at most 0.5",
+        "stages[0].conditions.pressure_centre: 'wandering' is not one of moving, fixed",
+    ]

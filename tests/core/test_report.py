@@ -96,8 +96,11 @@ def _hand_balance(data: dict, stage: int) -> tuple[np.ndarray, float, tuple[floa
 def _hand_conditions(data: dict, stage: int) -> list[tuple[tuple[float, float], np.ndarray]]:
     """Wind and current by F = 1/2 rho C A V^2 on the head-on and side areas (outline
     extent x freeboard or draught), cos|cos| ahead and sin|sin| abeam of the flow, acting
-    at the middle of the outline's extent; Hoerner's cross-flow table (REFERENCES.md) for
-    the current beam-on coefficient; wind power law U10 = U(z) / (z/10)^a."""
+    at the middle of the outline's extent, the sideways part moved towards the end the
+    flow comes from by (1/2 - a)(1 - phi/90) L, phi the flow's angle off the length (the
+    centre of pressure's travel after Hughes, from memory; a from the file); Hoerner's
+    cross-flow table (REFERENCES.md) for the current beam-on coefficient; wind power law
+    U10 = U(z) / (z/10)^a."""
     hull, st = data["hulls"][0], data["stages"][stage]
     cond, heading = st["conditions"], st["poses"][0]["heading_deg"]
     xs = [p[0] for p in hull["outline_m"]]
@@ -106,6 +109,14 @@ def _hand_conditions(data: dict, stage: int) -> list[tuple[tuple[float, float], 
     centre = ((max(xs) + min(xs)) / 2, (max(ys) + min(ys)) / 2)
     knot = 1852 / 3600
     out = []
+
+    def at(b: float, head_on: float) -> tuple[float, float]:
+        if cond.get("pressure_centre", "moving") != "moving":
+            return centre
+        phi = math.degrees(math.atan2(abs(math.sin(b)), abs(math.cos(b))))
+        shift = (0.5 - head_on) * (1 - phi / 90) * length
+        return (centre[0] + (shift if math.cos(b) < 0 else -shift), centre[1])
+
     v = cond["wind_speed_kn"] * knot / (cond["wind_height_m"] / 10) ** cond["wind_exponent"]
     v *= cond["gust_factor"]
     b = -math.radians((cond["wind_from_deg"] + 180 - heading) % 360)
@@ -113,7 +124,7 @@ def _hand_conditions(data: dict, stage: int) -> list[tuple[tuple[float, float], 
     fb = hull["freeboard_m"]
     out.append(
         (
-            centre,
+            at(b, cond["wind_centre_head_on"]),
             q
             * np.array(
                 [
@@ -134,7 +145,7 @@ def _hand_conditions(data: dict, stage: int) -> list[tuple[tuple[float, float], 
         )
     out.append(
         (
-            centre,
+            at(b, cond["current_centre_head_on"]),
             q
             * np.array(
                 [

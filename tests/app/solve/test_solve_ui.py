@@ -81,6 +81,25 @@ def test_an_area_is_entered_and_cleared_back_to_auto(window, qtbot) -> None:  # 
     assert c.stage.conditions.wind_area_beam_m2 is None
 
 
+def test_the_centre_of_pressure_choice_edits_the_stage_and_follows_it(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = window.controller
+    box = window.solve_ui.conditions.centre_choice
+    assert box.currentData() == "moving" == c.stage.conditions.pressure_centre
+    # Choose "fixed" with real key presses on the focused combo box.
+    box.setFocus()
+    qtbot.keyClick(box, Qt.Key.Key_Down)
+    assert c.stage.conditions.pressure_centre == "fixed"
+    c.undo_stack.undo()
+    assert c.stage.conditions.pressure_centre == "moving"
+    assert box.currentData() == "moving"
+    stage = c.stage
+    c.apply(
+        c.with_stage(replace(stage, conditions=replace(stage.conditions, pressure_centre="fixed"))),
+        "fixed centre",
+    )
+    assert box.currentData() == "fixed"
+
+
 def test_the_wind_and_current_are_loads_in_the_balance(window) -> None:  # type: ignore[no-untyped-def]
     c = window.controller
     b = c.balance()
