@@ -128,6 +128,7 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
                 Column("Wind (mean, from)", 1.6),
                 Column("At height / gust", 1.3),
                 Column("Current (towards)", 1.6),
+                Column("Depth / UKC", 1.2),
                 Column("Sea state", 0.6),
                 Column("Max wind", 0.9),
                 Column("Max current", 0.9),
@@ -141,6 +142,7 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
                     f"{u.show(s.conditions.wind_height_m, 'length')} / x{s.conditions.gust_factor:.2f}",
                     f"{u.show(s.conditions.current_speed_ms, 'speed')} towards "
                     f"{s.conditions.current_towards_deg:03.0f}°",
+                    _depth(project, results, i),
                     _sea_state(s),
                     "-" if s.limits.max_wind_ms is None else u.show(s.limits.max_wind_ms, "speed"),
                     "-"
@@ -162,6 +164,19 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
         )
     )
     return out
+
+
+def _depth(project: Project, results: Sequence[StageResult], index: int) -> str:
+    """The stage's water depth and its main body's under-keel clearance, from the stage
+    result ("deep" without a depth)."""
+    r = next((r for r in results if r.index == index), None)
+    main = None if r is None else r.main
+    d = None if main is None else main.depth
+    if d is None:
+        return "deep"
+    u = project.units
+    ukc = "-" if d.clearance_m is None else u.show(d.clearance_m, "length")
+    return f"{u.show(d.depth_m, 'length')} / {ukc}"
 
 
 def _sea_state(s: Stage) -> str:

@@ -65,7 +65,39 @@ def tugs_table(project: Project, result: StageResult, body: BodyResult) -> list[
             rows,
             row_colors=colors,
         ),
+        *headway_note(project, body),
     ]
+
+
+def headway_words(project: Project, body: BodyResult) -> str | None:
+    """For a transit: the planned speed through the water and each tug's share of its
+    bollard pull then (the stage result's layout), saying which tables are placeholders;
+    None for other goals."""
+    layout = body.layout
+    if body.goal is None or body.goal.kind != "transit" or layout.headway_share is None:
+        return None
+    u = project.units
+    parts, guessed = [], []
+    for p, share in zip(layout.placements, layout.headway_share, strict=True):
+        parts.append(f"{p.tug} {share * 100:.0f} %")
+        table = project.tug(p.tug).headway
+        if table is None or table.placeholder:
+            guessed.append(p.tug)
+    text = (
+        f"Making {u.show(layout.speed_through_water_ms, 'speed')} through the water, each "
+        f"tug gives this share of its bollard pull (its headway table): {', '.join(parts)}."
+    )
+    if guessed:
+        text += (
+            f" PLACEHOLDER rows for {', '.join(guessed)}: not published figures; enter the "
+            "tug's own."
+        )
+    return text
+
+
+def headway_note(project: Project, body: BodyResult) -> list[Block]:
+    words = headway_words(project, body)
+    return [] if words is None else [Text(words, 8.0, color=QColor(MUTED))]
 
 
 def fittings_table(project: Project, result: StageResult, body: BodyResult) -> list[Block]:

@@ -75,6 +75,24 @@ CURRENT = (
         tip="True bearing the current sets towards",
     ),
 )
+WATER = (
+    Field(
+        "water_depth_m",
+        "Water depth",
+        "length",
+        True,
+        "Depth of water under the body in this stage. Blank: deep water. Raises the "
+        "current's sideways load (UFC 4-159-03 depth factor) and gives the under-keel "
+        "clearance",
+    ),
+    Field(
+        "ukc_margin_m",
+        "Under-keel clearance margin",
+        "length",
+        tip="Warn when depth less draught is below this (0.5 m: common practice, no source; "
+        "use your port's rule)",
+    ),
+)
 SEA = (Field("sea_state", "Sea state (0-9)", "sea", tip="For the tug efficiency table"),)
 LOADS = (
     Field("wind_coeff_head", "Wind coefficient head-on", "plain"),
@@ -141,7 +159,7 @@ class ConditionsPanel(QWidget):
         inner = QWidget()
         col = QVBoxLayout(inner)
         col.addWidget(self._group("Wind", WIND))
-        col.addWidget(self._group("Current", CURRENT))
+        col.addWidget(self._group("Current", CURRENT + WATER))
         sea = self._group("Sea and tugs", SEA)
         self.efficiency_button = QPushButton("Tug efficiency table…")
         self.efficiency_button.setToolTip(
@@ -262,7 +280,7 @@ class ConditionsPanel(QWidget):
         self.efficiency_button.setEnabled(bool(self.controller.project.tugs) or enabled)
         u = self._units()
         speed, length = label(u.unit("speed")), label(u.unit("length"))
-        for f in WIND + CURRENT + SEA + LOADS:
+        for f in WIND + CURRENT + WATER + SEA + LOADS:
             if f.kind in ("speed", "length"):
                 self.labels[f.attr].setText(f"{f.title} ({speed if f.kind == 'speed' else length})")
             elif f.kind == "area":
@@ -276,7 +294,7 @@ class ConditionsPanel(QWidget):
         self.centre_choice.blockSignals(True)
         self.centre_choice.setCurrentIndex(self.centre_choice.findData(c.pressure_centre))
         self.centre_choice.blockSignals(False)
-        for f in WIND + CURRENT + SEA + LOADS + TRAVEL:
+        for f in WIND + CURRENT + WATER + SEA + LOADS + TRAVEL:
             e = self.edits[f.attr]
             if e.hasFocus():
                 continue
@@ -300,7 +318,7 @@ class ConditionsPanel(QWidget):
     def _derived(self) -> dict[str, str]:
         """What a blank optional field stands for, in words."""
         p, stage = self.controller.project, self.controller.stage
-        out: dict[str, str] = {}
+        out: dict[str, str] = {"water_depth_m": "deep water"}
         if stage is None or not p.hulls:
             return out
         try:
@@ -355,7 +373,29 @@ class ConditionsPanel(QWidget):
         if not cl.loads:
             lines.append("No wind or current load.")
         lines.extend(n.message for n in cl.notices)
+        lines.extend(self._depth_lines(main.body.name))
         return "\n".join(lines)
+
+    def _depth_lines(self, body: str) -> list[str]:
+        """The water depth's figures from the stage result (not during a drag)."""
+        c = self.controller
+        result = None if c.previewing else c.stage_result()
+        if result is None:
+            return []
+        try:
+            d = result.body(body).depth
+        except KeyError:
+            return []
+        if d is None:
+            return ["Deep water (no depth given)."]
+        u = self._units()
+        ukc = "unknown" if d.clearance_m is None else u.show(d.clearance_m, "length")
+        out = [
+            f"Under-keel clearance {ukc} (margin {u.show(d.margin_m, 'length')}); current "
+            f"beam-on load x{d.factor:.2f} for the depth (UFC 4-159-03)"
+        ]
+        out.extend(n.message for n in d.notices)
+        return out
 
     # -- writing ----------------------------------------------------------------------
     def _apply(self, new: Conditions, what: str, key: str) -> None:

@@ -133,6 +133,15 @@ class SolvePanel(QWidget):
             w.setObjectName(name)
             w.editingFinished.connect(self._figures_edited)
         self.fx_label, self.fy_label, self.mz_label = QLabel(), QLabel(), QLabel()
+        #: A transit's planned speed through the water (each tug's headway table is read at it).
+        self.speed = QLineEdit("0")
+        self.speed.setObjectName("goal_speed")
+        self.speed.setToolTip(
+            "Planned speed through the water: each tug's usable pull is read from its "
+            "headway table at this speed (Tugs > Edit tug…)"
+        )
+        self.speed.editingFinished.connect(self._figures_edited)
+        self.speed_label = QLabel()
         self.solve_button = QPushButton("Solve pulls")
         self.solve_button.setToolTip(
             "Set every tug's setting to the pulls solved for the goal (one undo step)"
@@ -165,6 +174,7 @@ class SolvePanel(QWidget):
         form.addRow(self.fx_label, self.fx)
         form.addRow(self.fy_label, self.fy)
         form.addRow(self.mz_label, self.mz)
+        form.addRow(self.speed_label, self.speed)
         buttons = QHBoxLayout()
         buttons.addWidget(self.solve_button)
         buttons.addWidget(self.live, 1)
@@ -177,7 +187,8 @@ class SolvePanel(QWidget):
         layout.addWidget(self.lost, 2)
         note = QLabel(
             "Spreads the work: the least largest use of usable pull, then the least total pull. "
-            "Usable pull = rated × efficiency (sea state) × towline angle."
+            "Usable pull = rated × efficiency (sea state) × towline angle × headway share "
+            "(a transit's speed through the water)."
         )
         note.setWordWrap(True)
         note.setStyleSheet("color: #455a64;")
@@ -195,6 +206,7 @@ class SolvePanel(QWidget):
     def _enable_figures(self, kind: str) -> None:
         for w, on in zip((self.fx, self.fy, self.mz), USES[kind], strict=True):
             w.setEnabled(on)
+        self.speed.setEnabled(kind == "transit")
 
     def _sync_goal(self) -> None:
         """Show the goal of the stage on the board (without echoing it back)."""
@@ -203,6 +215,7 @@ class SolvePanel(QWidget):
         self.fx_label.setText(f"Force ahead + / astern − ({label(u.unit('force'))})")
         self.fy_label.setText(f"Force to port + / starboard − ({label(u.unit('force'))})")
         self.mz_label.setText(f"Yaw moment, + bow to port ({label(u.unit('moment'))})")
+        self.speed_label.setText(f"Speed through the water ({label(u.unit('speed'))})")
         stage = c.stage
         g = None if stage is None else stage.goal
         key = (c.stage_index, g, u)
@@ -219,6 +232,7 @@ class SolvePanel(QWidget):
             (self.mz, g.moment_nm if g else 0.0, "moment"),
         ):
             w.setText(f"{u.value(v, q):.6g}")  # type: ignore[arg-type]
+        self.speed.setText(f"{u.value(g.speed_ms if g else 0.0, 'speed'):.6g}")
         self._enable_figures(kind)
 
     def goal(self) -> Goal | None:
@@ -236,7 +250,10 @@ class SolvePanel(QWidget):
             strict=True,
         ):
             vals.append(parse_value(w.text() or "0", rule, u, "goal") if used else 0.0)
-        return Goal(kind, *vals)
+        speed = 0.0
+        if kind == "transit":
+            speed = parse_value(self.speed.text() or "0", rules.TRANSIT_SPEED, u, "goal")
+        return Goal(kind, *vals, speed_ms=speed)
 
     def _kind_chosen(self) -> None:
         self._enable_figures(self.kind.currentData())

@@ -24,6 +24,7 @@ from app.controller import Controller
 from app.edits import tugs as tug_edits
 from app.panels.capability_editor import CapabilityEditor
 from app.panels.dialog_parts import error_label, ok_cancel
+from app.panels.headway_editor import HeadwayEditor
 from app.panels.tug_form import TugForm
 from core.errors import TowboardError
 from core.model.capability import Capability
@@ -60,6 +61,9 @@ class TugDialog(QDialog):
         left = QVBoxLayout()
         left.addWidget(self.form)
         left.addWidget(note)
+        self.headway = HeadwayEditor(controller.project.units)
+        self.headway.load(controller.project.tug(name).headway)
+        left.addWidget(self.headway)
         left.addStretch(1)
         body = QHBoxLayout()
         body.addLayout(left, 1)
@@ -83,6 +87,7 @@ class TugDialog(QDialog):
         c = self.controller
         try:
             tug = replace(self.form.tug(), capability=self.capability_editor.capability())
+            tug = self.headway.applied_to(tug)
             new = tug_edits.edited_tug(c.project, self.tug_name, tug)
         except (TowboardError, ValueError) as e:
             self.error.setText(f"Not changed: {numbers.message(e, c.project.units)}")

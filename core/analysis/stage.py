@@ -25,6 +25,7 @@ from core.errors import TowboardError
 from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout, tug_layout
 from core.mechanics.bodies import Body, body_name_of_hull, body_of, stage_body
 from core.mechanics.clearance import Clearance, stage_clearances
+from core.mechanics.depth import DepthCheck, depth_check
 from core.mechanics.fittings import FittingLoad, fitting_loads
 from core.mechanics.loads import ConditionLoads, body_conditions, missing_inputs
 from core.mechanics.site import posed_bodies
@@ -69,6 +70,7 @@ class BodyResult:
     current_limits: HoldLimits | None = None
     stage: Stage | None = None  # the stage value it is about
     units: DisplayUnits | None = None  # the plan's display units (for the words of warnings)
+    depth: DepthCheck | None = None  # the stage's water depth under the body (None: deep)
     _lost: list[tuple[tuple[str, Balance], ...]] = field(
         default_factory=list, repr=False, compare=False
     )
@@ -245,6 +247,7 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
         current_limits=current,
         stage=stage,
         units=units,
+        depth=depth_check(body, stage.conditions, units),
     )
 
 

@@ -4,13 +4,13 @@ A stage is **no-go** when its goal cannot be met with every tug, or the pulls as
 miss it; a setting is above 100 % or a push points out of the hull; a fitting's load
 (the line's tension) is above its rating; a clearance is under the margin; the planned
 wind or current is above what the fleet can hold (a hold stage) or above the stage's
-own go / no-go limit; or a load the conditions ask for cannot be worked out (the reason
-says which input is missing). Whether the fleet can hold the planned wind and current is
+own go / no-go limit; the water is no deeper than the body's draught (aground); or a load
+the conditions ask for cannot be worked out (the reason says which input is missing). Whether the fleet can hold the planned wind and current is
 the hold goal's own solve (the hold limits, for the same conditions, say it again with the
 margin, and are quoted in the reason). It is a **caution** when it passes with every tug but not
 with the worst tug lost, when no goal is set ("the pulls as set"), and for every other
 warning (a steep line, a fitting not rated for the tug's bollard pull, two tugs at one
-point...). Otherwise it is **go**. Nothing says "go" that is not.
+point, an under-keel clearance below the stage's margin...). Otherwise it is **go**. Nothing says "go" that is not.
 """
 
 from __future__ import annotations
@@ -51,6 +51,7 @@ NO_GO_CODES = frozenset(
         "low_clearance",
         "conditions_over_limit",
         "pull_short",
+        "aground",
     }
 )
 
@@ -133,6 +134,8 @@ def judge(
             continue
         out.extend(_from_notice(n) for n in b.balance.notices)
         out.extend(_load_reasons(stage, b))
+        if b.depth is not None:
+            out.extend(_from_notice(n) for n in b.depth.notices)
         out.extend(_fitting_reasons(b, u))
         out.extend(_towline_reasons(project, b, u))
         out.extend(_goal_reasons(stage, b, u))

@@ -28,6 +28,7 @@ from core.model.conditions import rule as condition_rule
 from core.model.drift import DriftSettings
 from core.model.efficiency import EfficiencyTable
 from core.model.goals import GOAL_KINDS, Goal, goal_from_parts
+from core.model.headway import HeadwayTable
 from core.model.hull import ADDED_MASS_METHODS, Fitting, Hull
 from core.model.plan import (
     STAGE_KINDS,
@@ -546,6 +547,7 @@ def _decode_tug(r: _Reader, value: Any, path: str) -> Tug | None:
             "working_channel",
             "towline_warning_share_of_mbl",
             "capability",
+            "headway",
         ),
     )
     if d is None:
@@ -565,6 +567,7 @@ def _decode_tug(r: _Reader, value: Any, path: str) -> Tug | None:
         default=TENSION_WARN_FRACTION,
     )
     capability = _decode_capability(r, d.get("capability"), f"{path}.capability")
+    headway = _decode_headway(r, d.get("headway"), f"{path}.headway")
     texts = [
         r.text(d, key, path)
         for key in ("type", "role", "certificate_date", "call_sign", "working_channel")
@@ -588,8 +591,39 @@ def _decode_tug(r: _Reader, value: Any, path: str) -> Tug | None:
             channel,
             share,
             capability,
+            headway,
         ),
     )
+
+
+def _decode_headway(r: _Reader, value: Any, path: str) -> HeadwayTable | None:
+    """A tug's headway table; None when absent (the placeholder rows apply)."""
+    if value is None:
+        return None
+    d = r.obj(value, path, ("speed_kn_and_share",), ("placeholder",))
+    if d is None:
+        return None
+    placeholder = r.flag(d, "placeholder", path)
+    rows = d["speed_kn_and_share"]
+    inner = f"{path}.speed_kn_and_share"
+    if not isinstance(rows, list) or not rows or len(rows) > rules.MAX_TABLE_SIZE:
+        r.fail(inner, f"must be a list of 1 to {rules.MAX_TABLE_SIZE} [speed_kn, share] rows")
+        return None
+    speeds, shares = [], []
+    for i, item in enumerate(rows):
+        if not isinstance(item, list) or len(item) != 2:
+            r.fail(f"{inner}[{i}]", f"{describe(item)} is not a row [speed_kn, share]")
+            return None
+        v = r.value(item[0], f"{inner}[{i}][0]", rules.HEADWAY_SPEED)
+        f = r.value(item[1], f"{inner}[{i}][1]", rules.HEADWAY_SHARE)
+        if v is None or f is None:
+            return None
+        speeds.append(v)
+        shares.append(f)
+    if any(b <= a for a, b in itertools.pairwise(speeds)):
+        r.fail(f"{inner}", "the speeds must be in increasing order")
+        return None
+    return r.build(path, lambda: HeadwayTable(tuple(speeds), tuple(shares), placeholder))
 
 
 def _decode_capability(r: _Reader, value: Any, path: str) -> Capability | None:
@@ -850,6 +884,8 @@ _CONDITION_KEYS = {
     "sea_state": "sea_state",
     "wind_centre_head_on": "wind_centre_head_on",
     "current_centre_head_on": "current_centre_head_on",
+    "water_depth_m": "water_depth_m",
+    "under_keel_margin_m": "ukc_margin_m",
 }
 _CENTRE_KEYS = ("wind_centre_m", "current_centre_m")
 _CHOICE_KEYS = {"pressure_centre": rules.PRESSURE_CENTRE}
@@ -885,6 +921,7 @@ _NULLABLE = frozenset(
         "wind_area_beam_m2",
         "current_area_head_m2",
         "current_area_beam_m2",
+        "water_depth_m",
     }
 )
 
@@ -948,16 +985,22 @@ def _numbers(r: _Reader, value: Any, path: str, rule: rules.Range) -> list[float
 def _decode_goal(r: _Reader, value: Any, path: str) -> Goal | None:
     if value is None:
         return None
-    d = r.obj(value, path, ("kind",), ("force_ahead_kN", "force_to_port_kN", "moment_kNm"))
+    d = r.obj(
+        value,
+        path,
+        ("kind",),
+        ("force_ahead_kN", "force_to_port_kN", "moment_kNm", "speed_through_water_kn"),
+    )
     if d is None:
         return None
     kind = r.choice(d, "kind", path, GOAL_KINDS)
     fx = r.number(d, "force_ahead_kN", path, rules.GOAL_FORCE_AHEAD, default=0.0)
     fy = r.number(d, "force_to_port_kN", path, rules.GOAL_FORCE_TO_PORT, default=0.0)
     mz = r.number(d, "moment_kNm", path, rules.GOAL_MOMENT, default=0.0)
-    if kind is None or fx is None or fy is None or mz is None:
+    v = r.number(d, "speed_through_water_kn", path, rules.TRANSIT_SPEED, default=0.0)
+    if kind is None or fx is None or fy is None or mz is None or v is None:
         return None
-    return r.build(path, lambda: goal_from_parts(kind, fx, fy, mz))
+    return r.build(path, lambda: goal_from_parts(kind, fx, fy, mz, v))
 
 
 def _decode_swing(r: _Reader, value: Any, path: str) -> Swing | None:

@@ -8,9 +8,10 @@ from core.errors import InputError
 from core.frames import angle_to_bearing
 from core.io.fileformat import FORMAT_NAME, FORMAT_VERSION, KN, KNOT, Json
 from core.model.capability import WAYS, Capability
+from core.model.headway import placeholder_headway
 from core.model.hull import Hull
 from core.model.plan import Project, Stage
-from core.model.tugs import Placement
+from core.model.tugs import Placement, Tug
 from core.units import CHOICES
 
 
@@ -84,6 +85,7 @@ def encode(project: Project) -> Json:
                 "working_channel": t.working_channel,
                 "towline_warning_share_of_mbl": num(t.towline_warn_fraction),
                 "capability": _encode_capability(t.capability_curves),
+                "headway": _encode_headway(t),
             }
             for t in project.tugs
         ],
@@ -109,6 +111,16 @@ def encode(project: Project) -> Json:
             ],
         },
         "stages": [_encode_stage(project, s) for s in project.stages],
+    }
+
+
+def _encode_headway(t: Tug) -> Json:
+    """The tug's share of its bollard pull by speed through the water, as [kn, share]
+    rows; placeholder rows are marked."""
+    table = t.headway or placeholder_headway()
+    return {
+        "placeholder": table.placeholder,
+        "speed_kn_and_share": [[num(v), num(f)] for v, f in table.rows_kn],
     }
 
 
@@ -239,6 +251,8 @@ def _encode_stage(project: Project, s: Stage) -> Json:
             "pressure_centre": c.pressure_centre,
             "wind_centre_head_on": num(c.wind_centre_head_on),
             "current_centre_head_on": num(c.current_centre_head_on),
+            "water_depth_m": _opt(c.water_depth_m),
+            "under_keel_margin_m": num(c.ukc_margin_m),
         },
         "goal": None
         if s.goal is None
@@ -247,6 +261,7 @@ def _encode_stage(project: Project, s: Stage) -> Json:
             "force_ahead_kN": num(s.goal.fx_n / KN),
             "force_to_port_kN": num(s.goal.fy_n / KN),
             "moment_kNm": num(s.goal.moment_nm / KN),
+            "speed_through_water_kn": num(s.goal.speed_ms / KNOT),
         },
         "limits": {
             "max_wind_kn": _opt(lim.max_wind_ms, KNOT),

@@ -48,6 +48,10 @@ def conditions_json(stage: Stage, br: BodyResult) -> dict[str, Any]:
         "current_towards_true_deg": c.current_towards_deg,
         "current_towards_relative_deg": cl.current_towards_rel_deg,
         "sea_state": c.sea_state,
+        "water_depth_m": c.water_depth_m,
+        "under_keel_clearance_m": None if br.depth is None else br.depth.clearance_m,
+        "under_keel_margin_m": c.ukc_margin_m,
+        "current_depth_factor": 1.0 if br.depth is None else br.depth.factor,
         "loads": [
             {
                 "name": ld.name,
@@ -191,6 +195,7 @@ def conditions_lines(stage: Stage, br: BodyResult, u: DisplayUnits) -> list[str]
         f"  Current         {u.show(c.current_speed_ms, 'speed')} setting towards "
         f"{c.current_towards_deg:05.1f} true ({cl.current_towards_rel_deg:05.1f} relative)",
     ]
+    out.append(depth_line(br, u))
     for ld in cl.loads:
         m = ld.moment_about(body.centroid)
         out.append(
@@ -201,6 +206,24 @@ def conditions_lines(stage: Stage, br: BodyResult, u: DisplayUnits) -> list[str]
         )
     out.extend(f"  NOTE: {n.message}" for n in cl.notices)
     return out
+
+
+def depth_words(br: BodyResult, u: DisplayUnits) -> str:
+    """The water depth, the under-keel clearance and the current's depth factor, in words
+    (from the stage result)."""
+    d = br.depth
+    if d is None:
+        return "deep water (no depth given)"
+    ukc = "unknown (no draught)" if d.clearance_m is None else u.show(d.clearance_m, "length")
+    return (
+        f"{u.show(d.depth_m, 'length')}; under-keel clearance {ukc} (margin "
+        f"{u.show(d.margin_m, 'length')}); current beam-on x{d.factor:.2f} for depth "
+        "(UFC 4-159-03)"
+    )
+
+
+def depth_line(br: BodyResult, u: DisplayUnits) -> str:
+    return f"  {'Water depth':<16}{depth_words(br, u)}"
 
 
 def solve_lines(br: BodyResult, u: DisplayUnits) -> list[str]:

@@ -75,6 +75,7 @@ _ROW_ARRAYS = (
     "pull_scale_n",
     "lead_frame_rad",
     "share_angle_rad",
+    "headway_share",
 )
 
 
@@ -104,6 +105,8 @@ class TugLayout:
     share_angle_rad: np.ndarray | None = None  # (n,) capability angle on a line; nan: the lead
     ways: tuple[Way, ...] = ()  # (n,)
     curves: tuple[CapabilityCurve | None, ...] = ()  # (n,) None: cannot work that way
+    headway_share: np.ndarray | None = None  # (n,) share of BP at the speed through the water
+    speed_through_water_ms: float = 0.0  # a transit's planned speed (0 for other goals)
 
     @property
     def pulls_n(self) -> np.ndarray:
@@ -194,6 +197,13 @@ def lead_frame(body: Body, placement: Placement) -> float:
     return member.heading_rad
 
 
+def transit_speed_ms(stage: Stage) -> float:
+    """The stage's planned speed through the water, m/s: its transit goal's, else 0 (the
+    tugs' headway tables are read at it)."""
+    g = stage.goal
+    return g.speed_ms if g is not None and g.kind == "transit" else 0.0
+
+
 def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
     """Arrays of every tug placed on ``body`` in ``stage``, in placement order."""
     members = {m.hull.name for m in body.members}
@@ -229,13 +239,16 @@ def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
         rating = f.towing_rating_n
         if rating is not None:
             swl[i] = rating
-    # Usable pull: bollard pull x efficiency (sea state) x cos(towline angle) x the
-    # capability share at the lead; see core.mechanics.usable and core.model.capability.
+    # Usable pull: bollard pull x efficiency (sea state) x cos(towline angle) x headway
+    # share (a transit's speed through the water) x the capability share at the lead; see
+    # core.mechanics.usable, core.model.headway and core.model.capability.
     eff = project.tug_efficiency.efficiencies(bp, stage.conditions.sea_state)
-    scale = bp * eff * np.cos(angle)
+    speed = transit_speed_ms(stage)
+    headway = np.array([project.tug(p.tug).headway_share(speed) for p in placed])
+    scale = bp * eff * np.cos(angle) * headway
     layout = TugLayout(
         placed, points, dirs, pos, push, bp.copy(), scale.copy(), swl, angle,
-        scale, frame, fixed, tuple(ways), tuple(curves),
+        scale, frame, fixed, tuple(ways), tuple(curves), headway, speed,
     )  # fmt: skip
     share = np.array([layout.shares(i, np.array([p.lead_rad]))[0] for i, p in enumerate(placed)])
     return replace(layout, rated_n=bp * share, usable_n=scale * share)

@@ -45,6 +45,7 @@ import numpy as np
 from core.errors import InputError
 from core.mechanics.balance import Load
 from core.mechanics.bodies import Body
+from core.mechanics.depth import depth_factor
 from core.model.conditions import Conditions
 from core.model.plan import Stage
 from core.notices import Notice
@@ -214,7 +215,8 @@ def wind_model(body: Body, c: Conditions) -> FlowModel:
 
 
 def current_model(body: Body, c: Conditions) -> FlowModel:
-    """The current's load model for ``body`` under conditions ``c``."""
+    """The current's load model for ``body`` under conditions ``c``; in the stage's water
+    depth its beam-on coefficient grows by the depth factor (core.mechanics.depth)."""
     proj = projection(body, "draught")
     a_head = _area(
         c.current_area_head_m2, None if proj is None else proj.head_m2, "current area head-on", body
@@ -225,6 +227,7 @@ def current_model(body: Body, c: Conditions) -> FlowModel:
     c_beam = c.current_coeff_beam
     if c_beam is None:
         c_beam = hoerner_cross_flow(_beam_over_twice_draught(body))
+    c_beam *= depth_factor(body, c.water_depth_m)
     point = c.current_centre_m or _centre(proj, body)
     return FlowModel(
         "current",

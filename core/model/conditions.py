@@ -16,6 +16,10 @@ from dataclasses import dataclass, field
 from core.errors import InputError
 from core.model import rules
 
+#: Under-keel clearance below which a stage is warned about, m (common practice, no
+#: source: port rules state their own, often as a share of the draught; set yours).
+UKC_MARGIN_M = 0.5
+
 #: Hughes' centre of pressure head-on, as a share of the length from the leading end
 #: (Trans. INA 1930, from memory; see core.mechanics.loads).
 HUGHES_HEAD_ON = 0.291
@@ -42,6 +46,8 @@ _RULES: dict[str, rules.Range] = {
     "sea_state": rules.SEA_STATE,
     "wind_centre_head_on": rules.CENTRE_HEAD_ON.named("wind centre of pressure head-on"),
     "current_centre_head_on": rules.CENTRE_HEAD_ON.named("current centre of pressure head-on"),
+    "water_depth_m": rules.WATER_DEPTH,
+    "ukc_margin_m": rules.UKC_MARGIN,
 }
 #: Fields that may be None (worked out from the body instead).
 OPTIONAL = frozenset(
@@ -53,6 +59,7 @@ OPTIONAL = frozenset(
         "current_area_beam_m2",
         "wind_centre_m",
         "current_centre_m",
+        "water_depth_m",
     }
 )
 
@@ -105,6 +112,13 @@ class Conditions:
     wind_centre_head_on, current_centre_head_on:
         Where that centre lies head-on, as a share of the length from the leading end;
         default 0.291 (Hughes, Trans. INA 1930, from memory); 0.5 means no travel.
+    water_depth_m:
+        Depth of water where the body lies in this stage, m; None is deep water. It
+        raises the sideways current load (UFC 4-159-03's depth factor,
+        core.mechanics.depth) and gives the under-keel clearance.
+    ukc_margin_m:
+        Under-keel clearance below which the stage is warned about, m (default
+        :data:`UKC_MARGIN_M`, common practice, no source).
     sea_state:
         Sea state code 0-9 (Douglas), used to look up the tugs' efficiency.
     """
@@ -132,6 +146,8 @@ class Conditions:
     pressure_centre: str = "moving"
     wind_centre_head_on: float = HUGHES_HEAD_ON
     current_centre_head_on: float = HUGHES_HEAD_ON
+    water_depth_m: float | None = None
+    ukc_margin_m: float = UKC_MARGIN_M
 
     def __post_init__(self) -> None:
         rules.PRESSURE_CENTRE.check(self.pressure_centre, "conditions")

@@ -37,7 +37,8 @@ class Goal:
     swing: a yaw moment, N*m about the centroid (positive swings the bow to port), with no
         net force.
     transit: a net force ahead (positive) or astern, ``fx_n``, N, with no sideways force and
-        no yaw moment.
+        no yaw moment; ``speed_ms`` is the planned speed through the water, m/s, at which
+        each tug's headway table is read (core.model.headway).
     force: a given net force (``fx_n``, ``fy_n``) and yaw moment about the centroid.
     """
 
@@ -45,6 +46,7 @@ class Goal:
     fx_n: float = 0.0
     fy_n: float = 0.0
     moment_nm: float = 0.0
+    speed_ms: float = 0.0
 
     def __post_init__(self) -> None:
         if self.kind not in GOAL_KINDS:
@@ -52,12 +54,13 @@ class Goal:
         rules.GOAL_FORCE_AHEAD.check(self.fx_n, "goal")
         rules.GOAL_FORCE_TO_PORT.check(self.fy_n, "goal")
         rules.GOAL_MOMENT.check(self.moment_nm, "goal")
+        rules.TRANSIT_SPEED.check(self.speed_ms, "goal")
         unused = {
-            "hold": ("fx_n", "fy_n", "moment_nm"),
-            "walk": ("fx_n", "moment_nm"),
-            "swing": ("fx_n", "fy_n"),
+            "hold": ("fx_n", "fy_n", "moment_nm", "speed_ms"),
+            "walk": ("fx_n", "moment_nm", "speed_ms"),
+            "swing": ("fx_n", "fy_n", "speed_ms"),
             "transit": ("fy_n", "moment_nm"),
-            "force": (),
+            "force": ("speed_ms",),
         }[self.kind]
         for attr in unused:
             if getattr(self, attr) != 0.0:
@@ -74,11 +77,19 @@ class Goal:
         return (self.fx_n, self.fy_n, self.moment_nm)
 
 
-_FIELD_WORDS = {"fx_n": "force ahead", "fy_n": "force to port", "moment_nm": "yaw moment"}
+_FIELD_WORDS = {
+    "fx_n": "force ahead",
+    "fy_n": "force to port",
+    "moment_nm": "yaw moment",
+    "speed_ms": "speed through the water",
+}
 
 
-def goal_from_parts(kind: str, fx_n: float, fy_n: float, moment_nm: float) -> Goal:
-    """A goal from a kind and all three figures, keeping only those the kind uses.
+def goal_from_parts(
+    kind: str, fx_n: float, fy_n: float, moment_nm: float, speed_ms: float = 0.0
+) -> Goal:
+    """A goal from a kind and all its figures, keeping only those the kind uses (the speed
+    through the water only for a transit).
 
     A 'walk' written with a force ahead and none to port (as files before the
     'transit' kind did) is a transit; a walk with both is a given force.
@@ -93,7 +104,8 @@ def goal_from_parts(kind: str, fx_n: float, fy_n: float, moment_nm: float) -> Go
     }.get(kind, (fx_n, fy_n, moment_nm))
     if kind == "walk" and moment_nm != 0.0:
         kind, keep = "force", (fx_n, fy_n, moment_nm)
-    return Goal(kind, *keep)  # type: ignore[arg-type]
+    speed = speed_ms if kind == "transit" else 0.0
+    return Goal(kind, *keep, speed_ms=speed)  # type: ignore[arg-type]
 
 
 def default_goal(stage_kind: str) -> Goal | None:

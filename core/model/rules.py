@@ -347,6 +347,10 @@ TOWLINE_WARN_SHARE = Range("towline warning share of MBL", "plain", 0.0, 1.0, ab
 CAPABILITY_SHARE = Range("capability share", "plain", 0.0, 2.0)
 CAPABILITY_BEARING = Range("capability bearing", "degrees", 0.0, 360.0)
 SETTING = Range("setting", "percent", 0.0, 1.0)
+#: A tug's headway table (core.model.headway): speed through the water and the share of
+#: its bollard pull it can give then.
+HEADWAY_SPEED = Range("speed through the water", "speed", 0.0, 20 * KNOT)
+HEADWAY_SHARE = Range("share of bollard pull", "plain", 0.0, 1.0)
 LEAD = Range("lead", "angle", ANGLE.low, ANGLE.high)
 LINE_LENGTH = Range("line length", "length", 0.0, 5000.0, above=True)
 #: A push off square to the hull, degrees (a tug cannot push outwards).
@@ -374,6 +378,10 @@ SEA_STATE = Range("sea state", "plain", 0.0, 9.0)
 #: Where the lateral load's centre of pressure lies head-on, as a share of the length from
 #: the leading end (core.mechanics.loads: 1/2 is amidships, no travel).
 CENTRE_HEAD_ON = Range("centre of pressure head-on", "plain", 0.0, 0.5)
+#: A stage's water depth (core.mechanics.depth) and the under-keel clearance below which
+#: it is warned about.
+WATER_DEPTH = Range("water depth", "length", 0.0, 11_000.0, above=True)
+UKC_MARGIN = Range("under-keel clearance margin", "length", 0.0, 100.0)
 #: How the centre of pressure is placed (core.mechanics.loads).
 PRESSURE_CENTRE = Choice("centre of pressure", ("moving", "fixed"))
 EFFICIENCY = Range("efficiency", "plain", 0.0, 1.0)
@@ -387,6 +395,8 @@ GOAL_FORCE = Range("net force", "force", -10_000 * TONNE_FORCE, 10_000 * TONNE_F
 GOAL_FORCE_AHEAD = Range("force ahead", "force", GOAL_FORCE.low, GOAL_FORCE.high)
 GOAL_FORCE_TO_PORT = Range("force to port", "force", GOAL_FORCE.low, GOAL_FORCE.high)
 GOAL_MOMENT = Range("yaw moment", "moment", -10_000_000 * TONNE_FORCE, 10_000_000 * TONNE_FORCE)
+#: A transit's planned speed through the water (the tugs' headway tables are read at it).
+TRANSIT_SPEED = Range("speed through the water", "speed", 0.0, 20 * KNOT)
 WIND_LIMIT = Range("wind limit", "speed", 0.0, WIND_SPEED.high)
 CURRENT_LIMIT = Range("current limit", "speed", 0.0, CURRENT_SPEED.high)
 CLEARANCE = Range("clearance", "length", 0.0, 10_000.0)

@@ -15,6 +15,7 @@ from dataclasses import dataclass, replace
 from core.errors import InputError
 from core.model import rules
 from core.model.capability import Capability, TugKind, Way, default_capability, tug_kind
+from core.model.headway import HeadwayTable, placeholder_headway
 
 #: Default share of a towline's minimum breaking load above which its tension is warned
 #: about (common practice, no source: harbour towlines are commonly sized at two to three
@@ -78,6 +79,7 @@ class Tug:
     working_channel: str = ""
     towline_warn_fraction: float = TENSION_WARN_FRACTION
     capability: Capability | None = None
+    headway: HeadwayTable | None = None
 
     def __post_init__(self) -> None:
         rules.NAME.check(self.name, "tug")
@@ -105,6 +107,16 @@ class Tug:
         if self.capability is None or self.capability.placeholder:
             share = self.astern_pull / self.bollard_pull_n if given_astern else None
             object.__setattr__(self, "capability", default_capability(self.kind, share))
+        if self.headway is None:
+            object.__setattr__(self, "headway", placeholder_headway())
+        elif not isinstance(self.headway, HeadwayTable):
+            raise InputError(f"{subject}: headway table", self.headway, "is not a table")
+
+    def headway_share(self, speed_ms: float) -> float:
+        """Share of the bollard pull the tug can give with the tow making ``speed_ms``
+        through the water (1 at rest when its table says so)."""
+        table = self.headway if self.headway is not None else placeholder_headway()
+        return table.share_at(speed_ms)
 
     @property
     def astern_pull(self) -> float:

@@ -345,6 +345,24 @@ CASES = [
         _cond_value("water_density"),
         1000.0,
     ),
+    Case(
+        "conditions: water depth",
+        _cond("water_depth_m"),
+        "0",
+        "water depth: 0.0 m must be positive",
+        "12",
+        _cond_value("water_depth_m"),
+        12.0,
+    ),
+    Case(
+        "conditions: under-keel clearance margin",
+        _cond("ukc_margin_m"),
+        "-1",
+        "under-keel clearance margin: -1.0 m must not be negative",
+        "1.5",
+        _cond_value("ukc_margin_m"),
+        1.5,
+    ),
     *(
         Case(
             f"conditions: {attr}",
@@ -504,6 +522,16 @@ CASES = [
             ("fy", "fy_n", "force to port", "t", "10000"),
             ("mz", "moment_nm", "yaw moment", "t·m", "1e+07"),
         )
+    ),
+    Case(
+        "goal: speed through the water",
+        lambda w: w.solve_ui.solve_panel.speed,  # type: ignore[attr-defined]
+        "25",
+        "goal: speed through the water: 25.0 kn must be at most 20 kn",
+        "3.5",
+        lambda p: _stage(p).goal.speed_ms,
+        3.5 * KNOT,
+        setup=lambda w: _goal_kind(w, "transit"),
     ),
 ]
 

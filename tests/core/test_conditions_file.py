@@ -132,3 +132,31 @@ def test_bad_centre_of_pressure_fields_name_their_path() -> None:
         "stages[0].conditions.current_centre_head_on: 0.8 must be at most 0.5",
         "stages[0].conditions.pressure_centre: 'wandering' is not one of moving, fixed",
     ]
+
+
+def test_water_depth_fields_round_trip_and_default() -> None:
+    p = load(SAMPLE)
+    s0 = p.stages[0]
+    c = replace(s0.conditions, water_depth_m=9.5, ukc_margin_m=1.2)
+    project = p.with_stage(replace(s0, conditions=c), 0)
+    text = dumps(project)
+    jsonschema.validate(json.loads(text), SCHEMA)
+    again = loads(text)
+    assert again.stages[0].conditions == c
+    assert dumps(again) == text
+    data = json.loads(text)
+    for key in ("water_depth_m", "under_keel_margin_m"):
+        del data["stages"][0]["conditions"][key]
+    old = loads(json.dumps(data)).stages[0].conditions
+    assert (old.water_depth_m, old.ukc_margin_m) == (None, 0.5)  # deep water, common practice
+
+
+def test_bad_water_depth_fields_name_their_path() -> None:
+    data = json.loads(dumps(_edited()))
+    cond = data["stages"][0]["conditions"]
+    cond["water_depth_m"] = -3
+    cond["under_keel_margin_m"] = "plenty"
+    assert _problems(data) == [
+        "stages[0].conditions.water_depth_m: -3.0 m must be positive",
+        "stages[0].conditions.under_keel_margin_m: 'plenty' is not a number",
+    ]

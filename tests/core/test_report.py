@@ -59,11 +59,17 @@ def _hand_balance(data: dict, stage: int) -> tuple[np.ndarray, float, tuple[floa
     fittings = {f["name"]: f for f in hull["fittings"]}
     tugs = {t["name"]: t for t in data["tugs"]}
     net, moment = np.zeros(2), 0.0
+    goal = data["stages"][stage]["goal"] or {}
+    speed_kn = goal.get("speed_through_water_kn", 0.0) if goal.get("kind") == "transit" else 0.0
     for pl in data["stages"][stage]["tugs"]:
         f = fittings[pl["point"]]
         tug = tugs[pl["tug"]]
         x, y = f["position_m"]
         rated = (tug["astern_pull_kN"] if pl["astern"] else tug["bollard_pull_kN"]) * 1000
+        # A transit's speed through the water: the tug's headway rows [kn, share], linear
+        # between them and held beyond.
+        rows = tug["headway"]["speed_kn_and_share"]
+        rated *= float(np.interp(speed_kn, [r[0] for r in rows], [r[1] for r in rows]))
         if f["kind"] == "push":
             # square to the hull: the sample's pads are on the flat starboard side, inward is +y
             assert y == pytest.approx(-12.0)
@@ -143,6 +149,12 @@ def _hand_conditions(data: dict, stage: int) -> list[tuple[tuple[float, float], 
         cd_beam = float(
             np.interp(beam / (2 * t), [0.99, 1.64, 3.01, 4.0], [0.828, 0.691, 0.587, 0.559])
         )
+    depth = cond.get("water_depth_m")
+    if depth is not None:
+        # UFC 4-159-03 (2005) section 4-5 (read): C_yc = C0 + (3.2 - C0)(T/d)^2 with
+        # C0 = 0.22 L^2 A_m / (B V); wall-sided, A_m = B T and V = (plan area) T.
+        c0 = 0.22 * length**2 / shapely.Polygon(hull["outline_m"]).area
+        cd_beam *= max((c0 + (3.2 - c0) * (t / depth) ** 2) / c0, 1.0)
     out.append(
         (
             at(b, cond["current_centre_head_on"]),

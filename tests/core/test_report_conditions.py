@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import json
 import math
+from dataclasses import replace
 
 import pytest
 
@@ -93,3 +94,23 @@ def test_shortfall_in_words() -> None:
     words = shortfall_words([0.0, -2 * TF, 50 * TF], u)  # type: ignore[arg-type]
     assert words == "needs 2.0 t more to starboard, 50.0 t·m more swinging the bow to port"
     assert shortfall_words([0.0, 0.0, 0.0], u) == "nothing missing"  # type: ignore[arg-type]
+
+
+def test_the_water_depth_is_reported_from_the_stage_result() -> None:
+    deep = report_text(_plan())
+    assert "Water depth     deep water (no depth given)" in deep
+    p = _plan()
+    s = p.stages[0]
+    shallow = p.with_stage(
+        replace(s, conditions=replace(s.conditions, water_depth_m=3.4, current_speed_ms=0.5)), 0
+    )
+    text = report_text(shallow)
+    # UFC 4-159-03 depth factor for the 80 x 20 m box at T/d = 3/3.4 (worked by hand):
+    # C0 = 0.22 x 4 = 0.88; C = 0.88 + 2.32 x (3/3.4)^2 = 2.6863; factor 3.053.
+    assert "Water depth     3.4 m; under-keel clearance 0.4 m (margin 0.5 m)" in text
+    assert "current beam-on x3.05 for depth" in text
+    assert "under-keel clearance 0.4 m is below the margin 0.5 m" in text
+    cond = report_json(shallow)["stages"][0]["conditions"]
+    assert cond["water_depth_m"] == 3.4
+    assert cond["under_keel_clearance_m"] == pytest.approx(0.4)
+    assert cond["current_depth_factor"] == pytest.approx((0.88 + 2.32 * (3 / 3.4) ** 2) / 0.88)
