@@ -39,7 +39,6 @@ class TugForm(QWidget):
         self.role = QLineEdit()
         self.role.setPlaceholderText("e.g. centre lead forward; pushing starboard quarter")
         self.bollard_pull, self.astern_pull = QLineEdit(), QLineEdit()
-        self.astern_pull.setPlaceholderText("as ahead")
         self.certificate = QLineEdit()
         self.certificate.setPlaceholderText("date of the bollard pull certificate")
         self.height = QLineEdit()
@@ -107,7 +106,9 @@ class TugForm(QWidget):
         self.type.setCurrentText(tug.tug_type)
         self.role.setText(tug.role)
         self.bollard_pull.setText(self._text(tug.bollard_pull_n, "force"))
-        self.astern_pull.setText(self._text(tug.astern_pull, "force"))
+        self.astern_pull.setText(self._text(tug.astern_pull_n, "force"))
+        default = self.units.show(tug.with_astern_pull(None).astern_pull, "force")
+        self.astern_pull.setPlaceholderText(f"not given: {default} for its type")
         self.certificate.setText(tug.certificate_date)
         self.height.setText(self._text(tug.towing_point_height_m, "length"))
         self.towline_length.setText(self._text(tug.towline_length_m, "length"))
@@ -143,7 +144,9 @@ class TugForm(QWidget):
             old,
             name=name,
             bollard_pull_n=bp,
-            astern_pull_n=self._number(self.astern_pull, old.astern_pull, rules.ASTERN_PULL, name),
+            astern_pull_n=self._number(
+                self.astern_pull, old.astern_pull_n, rules.ASTERN_PULL, name
+            ),
             tug_type=self.type.currentText().strip(),
             role=self.role.text().strip(),
             towing_point_height_m=self._number(

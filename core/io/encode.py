@@ -76,7 +76,7 @@ def encode(project: Project) -> Json:
                 "type": t.tug_type,
                 "role": t.role,
                 "bollard_pull_kN": num(t.bollard_pull_n / KN),
-                "astern_pull_kN": num(t.astern_pull / KN),
+                "astern_pull_kN": _opt(t.astern_pull_n, KN),
                 "towing_point_height_m": _opt(t.towing_point_height_m),
                 "certificate_date": t.certificate_date,
                 "towline_length_m": _opt(t.towline_length_m),

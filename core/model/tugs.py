@@ -94,11 +94,7 @@ class Tug:
             rules.LABEL.check(getattr(self, attr), subject, label)
         rules.BOLLARD_PULL.check(self.bollard_pull_n, subject)
         given_astern = self.astern_pull_n is not None
-        if self.astern_pull_n is None:
-            share = _DEFAULT_ASTERN.get(self.kind)
-            astern = self.bollard_pull_n * (1.0 if share is None else share)
-            object.__setattr__(self, "astern_pull_n", astern)
-        else:
+        if given_astern:
             rules.ASTERN_PULL.check(self.astern_pull_n, subject)
         rules.TOWING_POINT_HEIGHT.check_optional(self.towing_point_height_m, subject)
         rules.TOWLINE_LENGTH.check_optional(self.towline_length_m, subject)
@@ -120,8 +116,13 @@ class Tug:
 
     @property
     def astern_pull(self) -> float:
-        """Rated pull astern, N (never None once constructed)."""
-        return float(self.astern_pull_n if self.astern_pull_n is not None else self.bollard_pull_n)
+        """Rated pull astern, N: as given, else the kind's placeholder share of the pull
+        ahead (the pull ahead for kinds without one). "Not given" stays None in the value
+        so that the file writes back what the planner gave."""
+        if self.astern_pull_n is not None:
+            return float(self.astern_pull_n)
+        share = _DEFAULT_ASTERN.get(self.kind)
+        return self.bollard_pull_n * (1.0 if share is None else share)
 
     def rated_pull(self, astern: bool) -> float:
         return self.astern_pull if astern else self.bollard_pull_n
@@ -144,6 +145,10 @@ class Tug:
         own heading (0 when the tug cannot work that way)."""
         curve = self.capability_curves.curve(way)
         return 0.0 if curve is None else curve.at_bearing(bearing_deg)
+
+    def with_astern_pull(self, astern_pull_n: float | None) -> Tug:
+        """The tug with a new astern pull, N (None: not given, the kind's placeholder)."""
+        return replace(self, astern_pull_n=astern_pull_n)
 
     def with_capability(self, capability: Capability | None) -> Tug:
         """The tug with a new capability (None: the defaults of its kind)."""
