@@ -161,7 +161,8 @@ class HoldPlot:
         if held < len(dirs):
             facts.append(
                 f"Some wind can be held from {held} of the {len(dirs)} directions swept; from the "
-                "others the tugs, at their leads as set, cannot resist any wind."
+                "others the tugs, within their working sectors (or at their leads as set where "
+                "they have none), cannot resist any wind."
             )
         if not lim.holds_current:
             facts.append("The tugs cannot hold the body against the current alone.")

@@ -534,7 +534,8 @@ def current_summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
 
 EXPLAIN = (
     "The highest wind the tugs can hold the body against, by the true direction it blows "
-    "from (north up), with the current as set and the leads as set. Speeds are in the same "
+    "from (north up), with the current as set; each tug may take any lead in its working "
+    "sector (the lead as set where it has none). Speeds are in the same "
     "measure as the stage's wind: the mean at its stated height, with its gust factor."
 )
 
