@@ -22,7 +22,7 @@ if TYPE_CHECKING:
 
 #: Under the board while the ghosts are shown (the whole text is the panel's).
 DRIFT_CAUTION_LINE = (
-    "Drift ghosts: a simple estimate in calm, deep water with the other tugs as set; "
+    "Drift ghosts: a simple estimate in calm water with the other tugs as set; "
     "the master and the pilot decide."
 )
 

@@ -34,9 +34,11 @@ from core.motion.dynamics import Motion
 from core.notices import Notice
 
 DRIFT_CAUTION = (
-    "Drift preview: a simple manoeuvring estimate in deep, calm water. It ignores waves, "
-    "wash, shallow-water effects and squat, and the tugs' own response: the tugs that "
-    "remain keep their pulls and leads on the hull as set. The master and the pilot decide."
+    "Drift preview: a simple manoeuvring estimate in calm water. The sideways current "
+    "load takes the stage's water depth into account; the other shallow-water effects "
+    "(on added mass, squat, banks), waves, wash and the tugs' own response are left out: "
+    "the tugs that remain keep "
+    "their pulls and leads on the hull as set. The master and the pilot decide."
 )
 
 ScenarioKind = Literal["as_set", "tug_lost", "let_go", "worst_tug_lost"]
