@@ -33,6 +33,7 @@ from pathlib import Path
 from PySide6.QtCore import QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 
+from app.guard import guarded
 from core.analysis.stage import StageResult, body_balance, stage_result
 from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout
 from core.mechanics.bodies import Body, body_name_of_hull, body_of
@@ -76,15 +77,19 @@ class ProjectCommand(QUndoCommand):
         self.new = new
         self.merge_key = merge_key
 
+    @guarded
     def redo(self) -> None:
         self._controller._set_project(self.new)
 
+    @guarded
     def undo(self) -> None:
         self._controller._set_project(self.old)
 
+    @guarded(default=-1)
     def id(self) -> int:
         return -1 if self.merge_key is None else _merge_id(self.merge_key)
 
+    @guarded(default=False)
     def mergeWith(self, other: QUndoCommand) -> bool:
         if not isinstance(other, ProjectCommand) or other.merge_key != self.merge_key:
             return False
@@ -120,6 +125,7 @@ class Controller(QObject):
         self.undo_stack = QUndoStack(self)
         self.undo_stack.cleanChanged.connect(self._clean_changed)
 
+    @guarded
     def _clean_changed(self, clean: bool) -> None:
         self.dirty_changed.emit(not clean)
 
@@ -303,6 +309,7 @@ class Controller(QObject):
         self._results_override = None
         self._set_project(base)
 
+    @guarded
     def set_stage_index(self, index: int) -> None:
         n = len(self._project.stages)
         index = max(0, min(index, n - 1)) if n else 0

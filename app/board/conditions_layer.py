@@ -18,6 +18,7 @@ from PySide6.QtCore import QPointF, QRectF, QSizeF, Qt
 from PySide6.QtGui import QColor, QFontMetricsF, QPainter, QPen, QPixmap, QPolygonF
 
 from app.board.view import BoardView
+from app.guard import guarded
 from app.paint import style
 from core.model.conditions import Conditions
 from core.units import DisplayUnits
@@ -127,6 +128,7 @@ class ConditionsCard:
         self._pixmap_key: object = None
         self._card = QRectF()
 
+    @guarded
     def _changed(self) -> None:
         stage = self.view.board.stage()
         key = (

@@ -11,7 +11,7 @@ import math
 from collections.abc import Callable
 
 import shapely
-from PySide6.QtCore import QLineF, QPointF, Qt
+from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import QPainterPath, QPolygonF
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
@@ -32,6 +32,7 @@ from app.board.items import (
     polygon_path,
 )
 from app.formatting import fitting_summary
+from app.guard import guarded
 from app.paint import style
 from app.paint.shapes import TUG_LENGTH_M, moment_arc, placed_tug, tug_label_anchor, tug_origin
 from app.paint.symbols import polygon
@@ -51,11 +52,11 @@ class Root(QGraphicsItem):
         super().__init__(parent)
         self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemHasNoContents)
 
-    def boundingRect(self):  # type: ignore[no-untyped-def]
-        from PySide6.QtCore import QRectF
-
+    @guarded(default=QRectF)
+    def boundingRect(self) -> QRectF:
         return QRectF()
 
+    @guarded
     def paint(self, *args: object) -> None:
         return
 

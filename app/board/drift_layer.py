@@ -18,6 +18,7 @@ from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem
 
 from app.board.items import CACHE, Label
 from app.board.scene import BoardScene
+from app.guard import guarded
 from app.paint import style
 from core.errors import TowboardError
 from core.motion.drift import DriftResult, DriftScenario
@@ -97,6 +98,7 @@ class DriftLayer(QObject):
         self._timer.stop()
         self._update_now()
 
+    @guarded
     def _update_now(self) -> None:
         self._key = self._state_key()
         try:

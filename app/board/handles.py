@@ -15,6 +15,7 @@ from PySide6.QtGui import QColor, QPainter, QPainterPath, QPen
 from PySide6.QtWidgets import QGraphicsItem, QStyleOptionGraphicsItem, QWidget
 
 from app.board.items import IGNORES, ROLE
+from app.guard import guarded
 from app.paint import style
 
 STALK_PX = 34.0
@@ -49,6 +50,7 @@ class TurnHandle(QGraphicsItem):
         """The knob's centre in the item's pixels (the anchor is the origin)."""
         return QPointF(self._ux * STALK_PX, self._uy * STALK_PX)
 
+    @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
         k = self.knob()
         r = KNOB_PX + 3
@@ -56,11 +58,13 @@ class TurnHandle(QGraphicsItem):
             min(0.0, k.x()) - r, min(0.0, k.y()) - r, abs(k.x()) + 2 * r, abs(k.y()) + 2 * r
         )
 
+    @guarded(default=QPainterPath)
     def shape(self) -> QPainterPath:
         path = QPainterPath()
         path.addEllipse(self.knob(), KNOB_PX + 2, KNOB_PX + 2)
         return path
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:

@@ -34,6 +34,7 @@ from app.edits import bodies as body_edits
 from app.edits import hulls as hull_edits
 from app.edits import site as site_edits
 from app.edits import tugs as tug_edits
+from app.guard import guarded
 from core.errors import OutlineError, TowboardError
 from core.mechanics.balance import analyse_layout, with_placement_row
 from core.model.hull import Hull
@@ -153,6 +154,7 @@ class Interaction:
         self.controller.message.emit(text)
 
     # -- tools --------------------------------------------------------------------
+    @guarded
     def set_tool(self, tool: str) -> None:
         if tool not in TOOLS:
             raise ValueError(f"unknown board tool {tool!r}")
@@ -732,6 +734,7 @@ class Interaction:
                 )
                 return
 
+    @guarded
     def delete_selection(self) -> None:
         sel = self.scene.selection
         c = self.controller

@@ -29,6 +29,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app.guard import guarded
 from app.paint import style, symbols
 from app.paint.shapes import (
     HEAD_HALF_WIDTH,
@@ -185,9 +186,11 @@ class Label(QGraphicsItem):
                 self._leader.set_line(self._leader.end, color)
             self.update()
 
+    @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
         return self._rect
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -223,9 +226,11 @@ class Leader(QGraphicsItem):
         self._pen = QPen(color, 1.0)
         self.update()
 
+    @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
         return QRectF(QPointF(0, 0), self.end).normalized().adjusted(-3, -3, 3, 3)
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -249,10 +254,12 @@ class Mark(QGraphicsItem):
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
         self.setCacheMode(CACHE)
 
+    @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
         s = self.size / 2 + 2
         return QRectF(-s, -s, 2 * s, 2 * s)
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -286,6 +293,7 @@ class Handle(QGraphicsItem):
         self.selected = False
         self.setCacheMode(CACHE)
 
+    @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
         s = self.size / 2 + 1
         return QRectF(-s, -s, 2 * s, 2 * s)
@@ -295,6 +303,7 @@ class Handle(QGraphicsItem):
             self.selected = on
             self.update()
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -318,6 +327,7 @@ class FittingMark(QGraphicsItem):
         self.angle_deg = 0.0  # screen angle of the hull edge, for the push pad's bar
         self.setCacheMode(CACHE)
 
+    @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
         return QRectF(-9, -9, 18, 18)
 
@@ -326,6 +336,7 @@ class FittingMark(QGraphicsItem):
             self.selected = on
             self.update()
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -370,6 +381,7 @@ class _ArrowItem(QGraphicsItem):
             self._brush = QBrush(color)
             self.update()
 
+    @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
         return self._rect
 
@@ -377,6 +389,7 @@ class _ArrowItem(QGraphicsItem):
         """The shaft and the head, in the parent's frame (m)."""
         return self._shaft, self._head
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -487,12 +500,15 @@ class TugItem(QGraphicsItem):
         self._fill = QBrush(style.TUG_FILL_SELECTED if on else style.TUG_FILL)
         self.update()
 
+    @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
         return self._rect
 
+    @guarded(default=QPainterPath)
     def shape(self) -> QPainterPath:
         return self._shape
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -561,6 +577,7 @@ def tug_polygon(length: float = TUG_LENGTH_M, beam: float = TUG_BEAM_M) -> QPoly
 class PathItem(QGraphicsPathItem):
     """A path with a cosmetic pen that keeps its screen width on any device."""
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -605,6 +622,7 @@ class LineItem(QGraphicsLineItem):
         super().__init__(parent)
         self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemUsesExtendedStyleOption)
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -631,6 +649,7 @@ class LineItem(QGraphicsLineItem):
 class PolygonItem(QGraphicsPolygonItem):
     """A polygon with a cosmetic pen that keeps its screen width on any device."""
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:

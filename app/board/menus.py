@@ -20,6 +20,7 @@ from PySide6.QtWidgets import QInputDialog, QMenu, QWidget
 
 from app.edits import bodies as body_edits
 from app.edits import sectors
+from app.guard import guarded
 from core.errors import TowboardError
 from core.mechanics.bodies import body_name_of_hull
 from core.model.swing import Swing
@@ -98,7 +99,7 @@ def _tug_entries(scene: BoardScene, menu: QMenu, tug: str) -> None:
         return
     sub = menu.addMenu(f"Setting of {tug} ({setting * 100:.0f} %)")
     for pct in (0, 25, 50, 75, 100):
-        sub.addAction(f"{pct} %", lambda p=pct: inter.step_setting(tug, p / 100 - setting))
+        sub.addAction(f"{pct} %", guarded(lambda p=pct: inter.step_setting(tug, p / 100 - setting)))
     _sector_entries(scene, menu, tug)
     menu.addSeparator()
     menu.addAction(f"Let go {tug}", inter.delete_selection)
@@ -147,16 +148,20 @@ def _body_entries(scene: BoardScene, menu: QMenu, hull_or_body: str) -> None:
     if group is None:
         group = project.group_of(hull_or_body)
     body = group.name if group is not None else body_name_of_hull(project, hull_or_body)
-    menu.addAction(f"Turn {body} to heading…", lambda: _ask_heading(scene, body))
+    menu.addAction(f"Turn {body} to heading…", guarded(lambda: _ask_heading(scene, body)))
     _swing_entries(scene, menu, body)
     menu.addSeparator()
     if group is not None:
         menu.addAction(
             f"Unlash {group.name}",
-            lambda: _run(
-                scene,
-                f"Unlash {group.name}",
-                lambda: c.apply(body_edits.unlashed(c.project, group.name), f"Unlash {group.name}"),
+            guarded(
+                lambda: _run(
+                    scene,
+                    f"Unlash {group.name}",
+                    lambda: c.apply(
+                        body_edits.unlashed(c.project, group.name), f"Unlash {group.name}"
+                    ),
+                )
             ),
         )
         return
@@ -166,7 +171,7 @@ def _body_entries(scene: BoardScene, menu: QMenu, hull_or_body: str) -> None:
     lash = menu.addMenu(f"Lash {hull_or_body} to")
     lash.setEnabled(bool(free) and bool(project.stages))
     for other in free:
-        lash.addAction(other, lambda o=other: _lash(scene, hull_or_body, o))
+        lash.addAction(other, guarded(lambda o=other: _lash(scene, hull_or_body, o)))
 
 
 def _swing_entries(scene: BoardScene, menu: QMenu, body: str) -> None:
@@ -193,20 +198,24 @@ def _swing_entries(scene: BoardScene, menu: QMenu, body: str) -> None:
             return
         set_swing(new, f"Swing {what}s on {now:05.1f}°")
 
-    menu.addAction(f"Swing starts on this heading ({now:05.1f}°)", lambda: from_here(False))
-    menu.addAction(f"Swing ends on this heading ({now:05.1f}°)", lambda: from_here(True))
+    menu.addAction(
+        f"Swing starts on this heading ({now:05.1f}°)", guarded(lambda: from_here(False))
+    )
+    menu.addAction(f"Swing ends on this heading ({now:05.1f}°)", guarded(lambda: from_here(True)))
     if swing is None:
         return
     for what, heading in (("start", swing.start_heading_deg), ("end", swing.end_heading_deg)):
         menu.addAction(
             f"Lie at the swing's {what} ({heading:05.1f}°)",
-            lambda h=heading, w=what: _run(
-                scene,
-                f"Lie at the swing's {w}",
-                lambda: c.apply(
-                    c.with_stage(body_edits.turned_body(c.project, stage, body, h)),
-                    f"Turn {body} to the swing's {w}",
-                ),
+            guarded(
+                lambda h=heading, w=what: _run(
+                    scene,
+                    f"Lie at the swing's {w}",
+                    lambda: c.apply(
+                        c.with_stage(body_edits.turned_body(c.project, stage, body, h)),
+                        f"Turn {body} to the swing's {w}",
+                    ),
+                )
             ),
         )
 
@@ -246,10 +255,10 @@ def _ask_heading(scene: BoardScene, body: str) -> None:
 
 def _site_entries(scene: BoardScene, menu: QMenu, name: str) -> None:
     tools = scene.interaction.site
-    menu.addAction(f"Rename {name}…", lambda: _ask_rename(scene, name))
+    menu.addAction(f"Rename {name}…", guarded(lambda: _ask_rename(scene, name)))
     menu.addAction(
         f"Delete {name}",
-        lambda: _run(scene, f"Delete {name}", lambda: tools.delete(("site", name))),
+        guarded(lambda: _run(scene, f"Delete {name}", lambda: tools.delete(("site", name)))),
     )
 
 
@@ -265,4 +274,4 @@ def _water_entries(scene: BoardScene, menu: QMenu) -> None:
         view = views[0]
         for text, slot in (("Fit to hull", "fit_to_hull"), ("Fit to site", "fit_to_site")):
             if hasattr(view, slot):
-                menu.addAction(text, getattr(view, slot))
+                menu.addAction(text, guarded(getattr(view, slot)))

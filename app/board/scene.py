@@ -22,7 +22,6 @@ Hooks for other parts of the program:
 from __future__ import annotations
 
 import math
-import traceback
 from collections.abc import Callable
 
 from PySide6.QtCore import QPointF, QRectF, Signal
@@ -37,6 +36,7 @@ from app.board.menus import board_menu
 from app.board.poses import pose_in, site_angle_deg, to_site
 from app.board.sector_layer import SectorLayer
 from app.controller import BodyResult, Controller
+from app.guard import guarded
 from app.paint import style
 from app.paint.shapes import drawing_scales
 from core.mechanics.balance import TugShare
@@ -100,6 +100,7 @@ class BoardScene(QGraphicsScene):
     def tool(self) -> str:
         return self.interaction.tool
 
+    @guarded
     def set_tool(self, tool: str) -> None:
         self.interaction.set_tool(tool)
 
@@ -164,6 +165,7 @@ class BoardScene(QGraphicsScene):
         self.refresh()
 
     # -- refresh ------------------------------------------------------------------
+    @guarded
     def refresh(self) -> None:
         """Bring every item in line with the controller's value (in place)."""
         self._fixed_results = None
@@ -357,6 +359,7 @@ class BoardScene(QGraphicsScene):
         )
 
     # -- drawing helpers ------------------------------------------------------------
+    @guarded
     def drawBackground(self, painter: QPainter, rect: QRectF) -> None:
         super().drawBackground(painter, rect)
         from app.board.overlay import draw_grid
@@ -364,60 +367,42 @@ class BoardScene(QGraphicsScene):
         draw_grid(painter, rect, base=self.grid_step_m())
 
     # -- events go to the interaction -------------------------------------------------
-    def _handled(self, handler: Callable[[object], bool], event: object) -> bool:
-        """Run an interaction handler; an error is said in the status bar, never raised.
+    def _drop_edit(self, *_: object) -> None:
+        """After an error in a mouse or key handler: drop the drag and its preview."""
+        self.interaction.drag = None
+        self.controller.cancel_preview()
 
-        An exception escaping a Qt event override can take the whole program down, so
-        the edit in progress is dropped instead and the error is printed for a report.
-        """
-        try:
-            return handler(event)
-        except Exception as e:  # nothing may escape into Qt
-            traceback.print_exc()
-            self.interaction.drag = None
-            self.controller.cancel_preview()
-            self.controller.message.emit(f"That did not work ({type(e).__name__}: {e})")
-            return True
+    def _pass_on(self, handled: bool, event, base: Callable[[object], None]) -> None:  # type: ignore[no-untyped-def]
+        if handled:
+            event.accept()
+        else:
+            base(event)
 
+    @guarded(on_error=_drop_edit)
     def mousePressEvent(self, event):  # type: ignore[no-untyped-def]
-        if self._handled(self.interaction.press, event):
-            event.accept()
-        else:
-            super().mousePressEvent(event)
+        self._pass_on(self.interaction.press(event), event, super().mousePressEvent)
 
+    @guarded(on_error=_drop_edit)
     def mouseMoveEvent(self, event):  # type: ignore[no-untyped-def]
-        if self._handled(self.interaction.move, event):
-            event.accept()
-        else:
-            super().mouseMoveEvent(event)
+        self._pass_on(self.interaction.move(event), event, super().mouseMoveEvent)
 
+    @guarded(on_error=_drop_edit)
     def mouseReleaseEvent(self, event):  # type: ignore[no-untyped-def]
-        if self._handled(self.interaction.release, event):
-            event.accept()
-        else:
-            super().mouseReleaseEvent(event)
+        self._pass_on(self.interaction.release(event), event, super().mouseReleaseEvent)
 
+    @guarded(on_error=_drop_edit)
     def mouseDoubleClickEvent(self, event):  # type: ignore[no-untyped-def]
-        if self._handled(self.interaction.double_click, event):
-            event.accept()
-        else:
-            super().mouseDoubleClickEvent(event)
+        self._pass_on(self.interaction.double_click(event), event, super().mouseDoubleClickEvent)
 
+    @guarded(on_error=_drop_edit)
     def keyPressEvent(self, event):  # type: ignore[no-untyped-def]
-        if self._handled(self.interaction.key, event):
-            event.accept()
-        else:
-            super().keyPressEvent(event)
+        self._pass_on(self.interaction.key(event), event, super().keyPressEvent)
 
+    @guarded
     def contextMenuEvent(self, event):  # type: ignore[no-untyped-def]
         if self.fixed_stage is not None:
             return
-        try:
-            menu = board_menu(self, event.scenePos())
-        except Exception as e:  # nothing may escape into Qt
-            traceback.print_exc()
-            self.controller.message.emit(f"No menu there ({type(e).__name__}: {e})")
-            return
+        menu = board_menu(self, event.scenePos())
         self.last_menu = menu
         if not menu.isEmpty():
             menu.popup(event.screenPos())

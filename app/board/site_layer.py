@@ -17,6 +17,7 @@ from PySide6.QtWidgets import QGraphicsItem, QGraphicsLineItem, QGraphicsPathIte
 from app.board.items import GUIDE, ROLE, Handle, Label
 from app.board.scene import BoardScene
 from app.edits.site import nearest_segment
+from app.guard import guarded
 from app.paint import style
 from core.mechanics.bodies import body_of
 from core.mechanics.clearance import Clearance, notable_clearances, stage_clearances
@@ -104,6 +105,7 @@ class SiteLayer:
             return str(sel[1]), int(sel[2])  # type: ignore[call-overload]
         return None
 
+    @guarded
     def _sync_selection(self) -> None:
         """The selected feature drawn bold, with a handle on each of its points."""
         chosen = self._selected_feature()

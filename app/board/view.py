@@ -18,6 +18,7 @@ from app.board.items import GUIDE, Label, Leader
 from app.board.overlay import draw_north_arrow, draw_scale_bar
 from app.board.placement import device_rect, free_corner, place_labels
 from app.board.scene import BoardScene
+from app.guard import guarded
 
 #: The overlays drawn on top, in viewport pixels from the corners they sit in.
 SCALE_BAR = QSizeF(220, 48)  # bottom left
@@ -198,6 +199,7 @@ class BoardView(QGraphicsView):
         if not self.board.controller.previewing:
             self._place_timer.start()
 
+    @guarded
     def place_labels(self) -> None:
         """Choose the card's corner, then move every label clear of the rest (now)."""
         self._place_timer.stop()
@@ -208,6 +210,7 @@ class BoardView(QGraphicsView):
             self.board, self.viewportTransform(), self.viewport().size(), self.overlay_rects()
         )
 
+    @guarded
     def _controller_changed(self) -> None:
         index = self.board.controller.stage_index
         if index == self._stage_shown:
@@ -216,11 +219,13 @@ class BoardView(QGraphicsView):
         if not self.user_zoomed:
             self.fit_to_hull()
 
+    @guarded
     def showEvent(self, event) -> None:  # type: ignore[no-untyped-def]
         super().showEvent(event)
         if not self._fitted:
             self.fit_to_hull()
 
+    @guarded
     def resizeEvent(self, event) -> None:  # type: ignore[no-untyped-def]
         super().resizeEvent(event)
         if not self._fitted or event.oldSize().width() <= 0:
@@ -230,6 +235,7 @@ class BoardView(QGraphicsView):
         else:
             self.schedule_placement()
 
+    @guarded
     def wheelEvent(self, event) -> None:  # type: ignore[no-untyped-def]
         tug = self.board.selected_tug()
         if tug is not None and self._over_tug(event.position(), tug):
@@ -254,6 +260,7 @@ class BoardView(QGraphicsView):
                 return bool(t.glyph.contains(local))
         return False
 
+    @guarded
     def mousePressEvent(self, event) -> None:  # type: ignore[no-untyped-def]
         middle = event.button() == Qt.MouseButton.MiddleButton
         if middle:
@@ -271,6 +278,7 @@ class BoardView(QGraphicsView):
             self.viewport().setCursor(Qt.CursorShape.ClosedHandCursor)
             event.accept()
 
+    @guarded
     def mouseMoveEvent(self, event) -> None:  # type: ignore[no-untyped-def]
         if self._pan is not None:
             d = event.position() - self._pan
@@ -284,6 +292,7 @@ class BoardView(QGraphicsView):
             return
         super().mouseMoveEvent(event)
 
+    @guarded
     def mouseReleaseEvent(self, event) -> None:  # type: ignore[no-untyped-def]
         if self._pan is not None:
             self._pan = None
@@ -293,6 +302,7 @@ class BoardView(QGraphicsView):
         super().mouseReleaseEvent(event)
 
     # -- on top: scale bar and north arrow ------------------------------------------------
+    @guarded
     def drawForeground(self, painter: QPainter, rect: QRectF) -> None:
         painter.save()
         painter.resetTransform()

@@ -12,6 +12,7 @@ from PySide6.QtWidgets import QFormLayout, QFrame, QLabel, QScrollArea, QVBoxLay
 
 from app import formatting as fmt
 from app.controller import Controller
+from app.guard import guarded
 from app.panels.verdict_view import VerdictView
 from core.mechanics.balance import Balance
 
@@ -91,6 +92,7 @@ class BalancePanel(QWidget):
         self.stale.setText(f"Stale: {why}" if why else "")
         self.stale.setVisible(bool(why))
 
+    @guarded
     def refresh(self) -> None:
         b = self.controller.balance()
         self.balance = b

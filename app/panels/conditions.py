@@ -32,6 +32,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
+from app.guard import guarded
 from app.numbers import message, parse_number, parse_optional, parse_value
 from app.panels.dialog_parts import ok_cancel
 from core.errors import InputError, TowboardError
@@ -189,7 +190,7 @@ class ConditionsPanel(QWidget):
             for w in (x, y):
                 w.setPlaceholderText("auto")
                 w.setToolTip("Blank: the centre of the projected area")
-                w.editingFinished.connect(lambda a=attr: self._set_centre(a))
+                w.editingFinished.connect(guarded(lambda a=attr: self._set_centre(a)))
             row = QHBoxLayout()
             row.addWidget(x)
             row.addWidget(y)
@@ -234,7 +235,7 @@ class ConditionsPanel(QWidget):
     def _add_field(self, form: QFormLayout, f: Field) -> None:
         e = QLineEdit()
         e.setToolTip(f.tip)
-        e.editingFinished.connect(lambda f=f: self._set(f))
+        e.editingFinished.connect(guarded(lambda f=f: self._set(f)))
         lab = QLabel(f.title)
         lab.setToolTip(f.tip)
         self.edits[f.attr] = e
@@ -256,6 +257,7 @@ class ConditionsPanel(QWidget):
         stage = self.controller.stage
         return None if stage is None else stage.conditions
 
+    @guarded
     def refresh(self) -> None:
         p, stage = self.controller.project, self.controller.stage
         key = (
@@ -460,6 +462,7 @@ class ConditionsPanel(QWidget):
                 return
         self._apply(replace(c, **{attr: value}), "Set centre of pressure", attr)
 
+    @guarded
     def edit_efficiency(self) -> None:
         dlg = EfficiencyDialog(self.controller.project.tug_efficiency, self._units(), self)
         if dlg.exec() != QDialog.DialogCode.Accepted or dlg.table is None:
@@ -532,6 +535,7 @@ class EfficiencyDialog(QDialog):
             out.append(row)
         return out
 
+    @guarded
     def _reshape(self) -> None:
         try:
             pulls, seas = self._lists()
@@ -558,6 +562,7 @@ class EfficiencyDialog(QDialog):
             tuple(tuple(r) for r in self._values()),
         )
 
+    @guarded
     def _accept(self) -> None:
         try:
             self.table = self.build()

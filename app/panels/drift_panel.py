@@ -30,6 +30,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
+from app.guard import guarded
 from app.numbers import message, parse_optional, parse_value
 from core.errors import TowboardError
 from core.model import rules
@@ -187,6 +188,7 @@ class DriftPanel(QWidget):
         self.notes.setText("\n".join(n.message for n in result.notices))
 
     # -- inputs -------------------------------------------------------------------------
+    @guarded
     def refresh_inputs(self) -> None:
         p = self.controller.project
         self._filling = True
@@ -219,7 +221,9 @@ class DriftPanel(QWidget):
                 box = QComboBox()
                 for m in ADDED_MASS_METHODS:
                     box.addItem(METHOD_WORDS[m], m)
-                box.currentIndexChanged.connect(lambda _=0, row=i: self._method_chosen(row))
+                box.currentIndexChanged.connect(
+                    guarded(lambda _=0, row=i: self._method_chosen(row))
+                )
                 self.hulls.setCellWidget(i, 2, box)
             box.blockSignals(True)
             box.setCurrentIndex(ADDED_MASS_METHODS.index(h.added_mass_method))
@@ -230,6 +234,7 @@ class DriftPanel(QWidget):
         self.controller.message.emit(f"Not changed: {message(e, self.controller.project.units)}")
         self.refresh_inputs()
 
+    @guarded
     def _set_times(self) -> None:
         p = self.controller.project
         try:
@@ -243,6 +248,7 @@ class DriftPanel(QWidget):
         if new != p.drift:
             self.controller.apply(replace(p, drift=new), "Drift ghost times")
 
+    @guarded
     def _set_horizon(self) -> None:
         p = self.controller.project
         try:
@@ -254,6 +260,7 @@ class DriftPanel(QWidget):
         if new != p.drift:
             self.controller.apply(replace(p, drift=new), "Drift look ahead")
 
+    @guarded
     def _gyradius_changed(self, item: QTableWidgetItem) -> None:
         if self._filling or item.column() != 1:
             return

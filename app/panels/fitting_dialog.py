@@ -26,6 +26,7 @@ from app import formatting as fmt
 from app import numbers
 from app.controller import Controller
 from app.edits import hulls as hull_edits
+from app.guard import guarded
 from app.panels import fitting_fields as ff
 from app.panels.dialog_parts import error_label, ok_cancel
 from app.panels.fittings_model import say_if_snapped
@@ -129,6 +130,7 @@ class FittingDialog(QDialog):
     def _changed(self, edit: QLineEdit) -> bool:
         return edit.text() != self._loaded.get(edit)
 
+    @guarded
     def _kind_changed(self, text: str) -> None:
         on = ff.KIND_OF_TEXT.get(text) == "line"
         for w in (self.lines_from, self.lines_to, self.lines_label):
@@ -167,6 +169,7 @@ class FittingDialog(QDialog):
             permitted_lead_rad=sector,
         )
 
+    @guarded
     def accept(self) -> None:
         c = self.controller
         try:

@@ -17,6 +17,7 @@ from app import formatting as fmt
 from app import numbers
 from app.controller import Controller
 from app.edits import hulls as hull_edits
+from app.guard import guarded
 from app.panels import fitting_fields as ff
 from core.errors import TowboardError
 from core.model import rules
@@ -95,12 +96,15 @@ class FittingsModel(QAbstractTableModel):
         return next((i for i, f in enumerate(self.fittings) if f.name == name), -1)
 
     # -- Qt model ---------------------------------------------------------------------
+    @guarded(default=0)
     def rowCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(self.fittings)
 
+    @guarded(default=0)
     def columnCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(COLUMNS)
 
+    @guarded
     def headerData(
         self, section: int, orientation: Qt.Orientation, role: int = Qt.ItemDataRole.DisplayRole
     ):  # type: ignore[no-untyped-def]
@@ -116,6 +120,7 @@ class FittingsModel(QAbstractTableModel):
             return col.tip
         return None
 
+    @guarded(default=Qt.ItemFlag.NoItemFlags)
     def flags(self, index: Index) -> Qt.ItemFlag:
         base = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
         if not index.isValid():
@@ -125,6 +130,7 @@ class FittingsModel(QAbstractTableModel):
             return base
         return base | Qt.ItemFlag.ItemIsEditable
 
+    @guarded
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
         try:
             if not index.isValid() or index.row() >= len(self.fittings):
@@ -166,6 +172,7 @@ class FittingsModel(QAbstractTableModel):
         return ""
 
     # -- editing ----------------------------------------------------------------------
+    @guarded(default=False)
     def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
         if role != Qt.ItemDataRole.EditRole or not index.isValid():
             return False

@@ -32,6 +32,7 @@ from PySide6.QtGui import (
 from PySide6.QtWidgets import QComboBox, QHBoxLayout, QLabel, QSizePolicy, QVBoxLayout, QWidget
 
 from app.controller import Controller
+from app.guard import guarded
 from app.paint import style
 from app.paint.rings import current_scale, polar_scale
 from app.paint.symbols import draw_planned_wind
@@ -81,6 +82,7 @@ class HoldPlot(QWidget):
         self.setMinimumSize(220, 220)
         self.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
 
+    @guarded(default=QSize)
     def sizeHint(self) -> QSize:
         return QSize(360, 380)
 
@@ -155,6 +157,7 @@ class HoldPlot(QWidget):
             self._grid_cache, self._grid_key = pm, key
         return self._grid_cache
 
+    @guarded
     def paintEvent(self, event: QPaintEvent) -> None:
         p = QPainter(self)
         try:
@@ -398,10 +401,11 @@ class HoldLimitsPanel(QWidget):
         self._timer = QTimer(self)
         self._timer.setSingleShot(True)
         self._timer.setInterval(0)
-        self._timer.timeout.connect(lambda: self.update_now(coarse=False))
+        self._timer.timeout.connect(guarded(lambda: self.update_now(coarse=False)))
         controller.changed.connect(self._changed)
         self.update_now(coarse=False)
 
+    @guarded
     def _changed(self) -> None:
         if self.controller.previewing:
             self._timer.stop()

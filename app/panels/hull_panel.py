@@ -26,6 +26,7 @@ from PySide6.QtWidgets import (
 from app import formatting as fmt
 from app.controller import Controller
 from app.edits import hulls as hull_edits
+from app.guard import guarded
 from app.numbers import message, parse_optional
 from app.panels.hull_tables import FittingsTab, OutlineTab
 from core.errors import TowboardError
@@ -67,9 +68,11 @@ class HullPanel(QWidget):
         for w in (self.draught, self.freeboard, self.displacement):
             w.setPlaceholderText("not given")
         self.name.editingFinished.connect(self._rename)
-        self.draught.editingFinished.connect(lambda: self._set_length("draught_m", self.draught))
+        self.draught.editingFinished.connect(
+            guarded(lambda: self._set_length("draught_m", self.draught))
+        )
         self.freeboard.editingFinished.connect(
-            lambda: self._set_length("freeboard_m", self.freeboard)
+            guarded(lambda: self._set_length("freeboard_m", self.freeboard))
         )
         self.displacement.editingFinished.connect(self._set_displacement)
         self.cog_x.editingFinished.connect(self._set_cog)
@@ -113,10 +116,10 @@ class HullPanel(QWidget):
         self.fittings_tab = FittingsTab(controller, lambda: self.current)
         self.fittings_tab.tool_requested.connect(self.tool_requested)
         self.fittings_tab.fitting_selected.connect(
-            lambda name: self.fitting_selected.emit(self.current or "", name)
+            guarded(lambda name: self.fitting_selected.emit(self.current or "", name))
         )
         self.fittings_tab.edit_requested.connect(
-            lambda name: self.fitting_edit_requested.emit(self.current or "", name)
+            guarded(lambda name: self.fitting_edit_requested.emit(self.current or "", name))
         )
         self.tabs = QTabWidget()
         self.tabs.addTab(particulars, "Particulars")
@@ -148,6 +151,7 @@ class HullPanel(QWidget):
                 return h
         return hulls[0] if hulls else None
 
+    @guarded
     def refresh(self) -> None:
         c = self.controller
         u = c.project.units
@@ -207,6 +211,7 @@ class HullPanel(QWidget):
         )
 
     # -- edits ------------------------------------------------------------------------
+    @guarded
     def _chosen(self, name: str) -> None:
         if name:
             self.current = name
@@ -229,6 +234,7 @@ class HullPanel(QWidget):
             )
             self.refresh()
 
+    @guarded
     def _rename(self) -> None:
         h = self.hull()
         new = self.name.text().strip()
@@ -254,6 +260,7 @@ class HullPanel(QWidget):
 
         self._guard(go)
 
+    @guarded
     def _set_displacement(self) -> None:
         h = self.hull()
         if h is None:
@@ -266,6 +273,7 @@ class HullPanel(QWidget):
 
         self._guard(go)
 
+    @guarded
     def _set_cog(self) -> None:
         h = self.hull()
         if h is None:
@@ -284,6 +292,7 @@ class HullPanel(QWidget):
 
         self._guard(go)
 
+    @guarded
     def _reference_to_aft(self) -> None:
         h = self.hull()
         if h is None:

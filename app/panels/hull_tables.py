@@ -25,6 +25,7 @@ from PySide6.QtWidgets import (
 
 from app.controller import Controller
 from app.edits import hulls as hull_edits
+from app.guard import guarded
 from app.panels import fitting_fields as ff
 from app.panels.dialog_parts import error_label
 from app.panels.fittings_model import KEYS, FittingsModel
@@ -59,16 +60,19 @@ class ChoiceDelegate(QStyledItemDelegate):
         super().__init__(parent)
         self.choices, self.editable = choices, editable
 
+    @guarded
     def createEditor(self, parent: QWidget, option: QStyleOptionViewItem, index: Index) -> QWidget:
         box = QComboBox(parent)
         box.setEditable(self.editable)
         box.addItems(list(self.choices))
         return box
 
+    @guarded
     def setEditorData(self, editor: QWidget, index: Index) -> None:
         if isinstance(editor, QComboBox):
             editor.setCurrentText(str(index.data(Qt.ItemDataRole.EditRole)))
 
+    @guarded
     def setModelData(self, editor: QWidget, model, index: Index) -> None:  # type: ignore[no-untyped-def]
         if isinstance(editor, QComboBox):
             model.setData(index, editor.currentText(), Qt.ItemDataRole.EditRole)
@@ -120,11 +124,13 @@ class OutlineTab(QWidget):
         i = self.table.currentIndex()
         return i.row() if i.isValid() else len(self.model.outline) - 1
 
+    @guarded
     def _insert(self) -> None:
         row = self.model.insert_after(self._row())
         if row is not None:
             self.table.selectRow(row)
 
+    @guarded
     def _delete(self) -> None:
         self.model.delete(self._row())
 
@@ -157,8 +163,8 @@ class FittingsTab(QWidget):
         self.remove = QPushButton("Remove")
         self.remove.setToolTip("Remove the selected fitting; tugs working there are let go")
         self.edit.clicked.connect(self._edit)
-        self.add_line.clicked.connect(lambda: self.tool_requested.emit("line_point"))
-        self.add_push.clicked.connect(lambda: self.tool_requested.emit("push_point"))
+        self.add_line.clicked.connect(guarded(lambda: self.tool_requested.emit("line_point")))
+        self.add_push.clicked.connect(guarded(lambda: self.tool_requested.emit("push_point")))
         self.remove.clicked.connect(self._remove)
         buttons = QHBoxLayout()
         for b in (self.edit, self.add_line, self.add_push, self.remove):
@@ -193,17 +199,20 @@ class FittingsTab(QWidget):
             self.table.viewport().update()
             self.refresh()
 
+    @guarded
     def _row_changed(self, current: QModelIndex, _previous: QModelIndex) -> None:
         self.refresh()
         name = self.current()
         if name is not None:
             self.fitting_selected.emit(name)
 
+    @guarded
     def _edit(self) -> None:
         name = self.current()
         if name is not None:
             self.edit_requested.emit(name)
 
+    @guarded
     def _remove(self) -> None:
         name = self.current()
         h = self.model.hull()

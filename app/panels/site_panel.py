@@ -25,6 +25,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
+from app.guard import guarded
 from app.numbers import message, parse_number
 from app.panels.dialog_parts import ok_cancel
 from core.errors import InputError
@@ -160,6 +161,7 @@ class FeatureDialog(QDialog):
             kind, self.name.text().strip(), values, self.units, self.shape.currentText()
         )
 
+    @guarded
     def _try_accept(self) -> None:
         try:
             self.features = self.build()
@@ -194,6 +196,7 @@ class SitePanel(QWidget):
         controller.changed.connect(self.fill)
         self.fill()
 
+    @guarded
     def fill(self) -> None:
         site = self.controller.project.site
         rows = [f"{f.name}  [{f.kind}]" for f in site.features]
@@ -209,6 +212,7 @@ class SitePanel(QWidget):
     def dialog(self) -> FeatureDialog:
         return FeatureDialog(self.controller.project.units, self)
 
+    @guarded
     def add(self) -> None:
         d = self.dialog()
         if d.exec() != QDialog.DialogCode.Accepted or not d.features:
@@ -225,6 +229,7 @@ class SitePanel(QWidget):
         site = replace(p.site, features=(*p.site.features, *features))
         self.controller.apply(replace(p, site=site), f"Add {', '.join(f.name for f in features)}")
 
+    @guarded
     def delete(self) -> None:
         i = self.list.currentRow()
         p = self.controller.project

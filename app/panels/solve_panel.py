@@ -33,6 +33,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import BodyResult, Controller
+from app.guard import guarded
 from app.numbers import message, parse_value
 from core.analysis.stage import BodyResult as StageBody
 from core.analysis.stage import StageResult
@@ -255,10 +256,12 @@ class SolvePanel(QWidget):
             speed = parse_value(self.speed.text() or "0", rules.TRANSIT_SPEED, u, "goal")
         return Goal(kind, *vals, speed_ms=speed)
 
+    @guarded
     def _kind_chosen(self) -> None:
         self._enable_figures(self.kind.currentData())
         self._set_goal()
 
+    @guarded
     def _figures_edited(self) -> None:
         self._set_goal()
 
@@ -280,6 +283,7 @@ class SolvePanel(QWidget):
         c.apply(c.with_stage(replace(stage, goal=goal)), f"Set the goal: {what}")
 
     # -- solving --------------------------------------------------------------------
+    @guarded
     def solve(self) -> None:
         """Set the settings to the pulls solved for the stage's goal (one undo step)."""
         c = self.controller
@@ -338,11 +342,13 @@ class SolvePanel(QWidget):
         return project if new_stage is stage else project.with_stage(new_stage, index)
 
     # -- showing --------------------------------------------------------------------
+    @guarded
     def _changed(self) -> None:
         self._sync_goal()
         if not self.controller.previewing:
             self._timer.start()
 
+    @guarded
     def recheck(self) -> None:
         """Show the stage result: the solved pulls, the tug lost check, each tug's notes."""
         c = self.controller

@@ -28,6 +28,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
+from app.guard import guarded
 from app.numbers import message, parse_optional, parse_value
 from core.errors import InputError
 from core.mechanics.site import body_pose
@@ -60,6 +61,7 @@ class _Notes(QPlainTextEdit):
         super().__init__(parent)
         self._done = done
 
+    @guarded
     def focusOutEvent(self, event) -> None:  # type: ignore[no-untyped-def]
         super().focusOutEvent(event)
         self._done()
@@ -95,7 +97,7 @@ class StageDetails(QWidget):
         for key, text, _q in self.LIMITS:
             f = QLineEdit(self)
             f.setObjectName(f"limit_{key}")
-            f.editingFinished.connect(lambda k=key: self._limit_done(k))
+            f.editingFinished.connect(guarded(lambda k=key: self._limit_done(k)))
             unit = QLabel(self)
             form.addRow(text, _with_unit(f, unit))
             self.limit_fields[key] = f
@@ -149,7 +151,7 @@ class StageDetails(QWidget):
         self.swing_turn.setWordWrap(True)
         for f in (self.swing_start, self.swing_end):
             f.editingFinished.connect(self._swing_done)
-        self.swing_side.currentIndexChanged.connect(lambda _i: self._swing_done())
+        self.swing_side.currentIndexChanged.connect(guarded(lambda _i: self._swing_done()))
         form.addRow("Starts on", _with_unit(self.swing_start, QLabel("°", box)))
         form.addRow("Ends on", _with_unit(self.swing_end, QLabel("°", box)))
         form.addRow("Swings", self.swing_side)
@@ -160,6 +162,7 @@ class StageDetails(QWidget):
     def _stage(self) -> Stage | None:
         return self.controller.stage
 
+    @guarded
     def _changed(self) -> None:
         self.fill()
 
@@ -249,6 +252,7 @@ class StageDetails(QWidget):
         new = self.controller.with_stage(stage)
         self.controller.apply(new, text)
 
+    @guarded
     def _kind_chosen(self, kind: str) -> None:
         stage = self._stage()
         if self._filling or stage is None or kind == stage.kind:
@@ -279,6 +283,7 @@ class StageDetails(QWidget):
         if limits != stage.limits:
             self._write(replace(stage, limits=limits), f"Stage {stage.name}: {name}")
 
+    @guarded
     def _swing_done(self) -> None:
         stage = self._stage()
         if self._filling or stage is None:
@@ -301,6 +306,7 @@ class StageDetails(QWidget):
         if swing != stage.swing:
             self._write(replace(stage, swing=swing), f"Stage {stage.name}: swing")
 
+    @guarded
     def _margin_done(self) -> None:
         if self._filling:
             return
@@ -314,6 +320,7 @@ class StageDetails(QWidget):
         if new != p:
             self.controller.apply(new, "Clearance margin")
 
+    @guarded
     def _pose_edited(self, item: QTableWidgetItem) -> None:
         stage = self._stage()
         if self._filling or stage is None or item.column() == 0:

@@ -34,6 +34,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
+from app.guard import guarded
 from core.analysis.stage import StageResult, plan_results
 from core.errors import InputError, TowboardError
 from core.model.stages import add_stage, delete_stage, duplicate_stage, move_stage, rename_stage
@@ -67,11 +68,13 @@ class _NameEditor(QStyledItemDelegate):
         super().__init__(parent)
         self._done = done
 
+    @guarded
     def setEditorData(self, editor: QWidget, index: QModelIndex | QPersistentModelIndex) -> None:
         if isinstance(editor, QLineEdit):
             editor.setText(str(index.data(Qt.ItemDataRole.UserRole) or ""))
             editor.selectAll()
 
+    @guarded
     def setModelData(
         self,
         editor: QWidget,
@@ -120,7 +123,7 @@ class StageList(QWidget):
             b.setText(text)
             b.setToolTip(tip)
             b.setObjectName(f"stage_{key}")
-            b.clicked.connect(slot)
+            b.clicked.connect(guarded(slot))
             buttons.addWidget(b)
             self.buttons[key] = b
         buttons.addStretch(1)
@@ -140,6 +143,7 @@ class StageList(QWidget):
         self.fill()
         self.recheck()
 
+    @guarded(default=QSize)
     def sizeHint(self) -> QSize:
         return QSize(260, 320)
 
@@ -218,11 +222,13 @@ class StageList(QWidget):
             parts.append(f"<span style='color:{OK.name()}'>Every stage is GO.</span>")
         self.summary.setText("<br>".join(parts))
 
+    @guarded
     def _project_changed(self) -> None:
         self.fill()
         if not self.controller.previewing:
             self._timer.start()
 
+    @guarded
     def _stage_shown(self, index: int) -> None:
         if self.list.currentRow() != index and index < self.list.count():
             self._filling = True
@@ -230,6 +236,7 @@ class StageList(QWidget):
             self._filling = False
         self._update_buttons()
 
+    @guarded
     def recheck(self) -> None:
         """Read every stage's result now (normally run shortly after a change)."""
         self._timer.stop()
@@ -242,6 +249,7 @@ class StageList(QWidget):
         self.fill()
 
     # -- editing -----------------------------------------------------------------------
+    @guarded
     def _row_chosen(self, row: int) -> None:
         if not self._filling and row >= 0:
             self.controller.set_stage_index(row)
@@ -264,6 +272,7 @@ class StageList(QWidget):
         self.controller.apply(project, f"Duplicate stage {project.stages[i].name}")
         self.controller.set_stage_index(new)
 
+    @guarded
     def move(self, step: int) -> None:
         i = self._index()
         if i is None or not 0 <= i + step < len(self.controller.project.stages):

@@ -22,6 +22,7 @@ from PySide6.QtWidgets import (
 from app import numbers
 from app.controller import Controller
 from app.edits import tugs as tug_edits
+from app.guard import guarded
 from app.panels.capability_editor import CapabilityEditor
 from app.panels.dialog_parts import error_label, ok_cancel
 from app.panels.headway_editor import HeadwayEditor
@@ -83,6 +84,7 @@ class TugDialog(QDialog):
     def _form_edited(self) -> None:
         self.capability_editor.follow_defaults(self._type_defaults())
 
+    @guarded
     def accept(self) -> None:
         c = self.controller
         try:

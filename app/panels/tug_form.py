@@ -14,6 +14,7 @@ from PySide6.QtWidgets import QComboBox, QFormLayout, QLabel, QLineEdit, QWidget
 
 from app import formatting as fmt
 from app import numbers
+from app.guard import guarded
 from core.errors import InputError
 from core.model import rules
 from core.model.tugs import TENSION_WARN_FRACTION, Tug
@@ -92,6 +93,7 @@ class TugForm(QWidget):
             self.channel,
         )
 
+    @guarded
     def _edited(self, *_args: object) -> None:
         self._show_ratio()
         self.edited.emit()

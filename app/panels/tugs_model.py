@@ -17,6 +17,7 @@ from app import formatting as fmt
 from app.controller import Controller
 from app.edits import sectors
 from app.edits import tugs as tug_edits
+from app.guard import guarded
 from app.numbers import message, parse_value
 from core.errors import TowboardError
 from core.mechanics.balance import TugShare
@@ -136,6 +137,7 @@ class TugsModel(QAbstractTableModel):
             rows.append(Row(t, placed.get(t.name), s[0] if s else None, s[1] if s else None))
         self.rows = rows
 
+    @guarded
     def refresh(self) -> None:
         """Tell the table what changed: all rows when tugs came or went, else the rows that did.
 
@@ -171,12 +173,15 @@ class TugsModel(QAbstractTableModel):
         return -1
 
     # -- Qt model ---------------------------------------------------------------------
+    @guarded(default=0)
     def rowCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(self.rows)
 
+    @guarded(default=0)
     def columnCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(COLUMNS) + len(self.extra)
 
+    @guarded
     def headerData(
         self, section: int, orientation: Qt.Orientation, role: int = Qt.ItemDataRole.DisplayRole
     ):  # type: ignore[no-untyped-def]
@@ -200,6 +205,7 @@ class TugsModel(QAbstractTableModel):
             return col.tip
         return None
 
+    @guarded(default=Qt.ItemFlag.NoItemFlags)
     def flags(self, index: Index) -> Qt.ItemFlag:
         base = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
         if not index.isValid() or index.column() >= len(COLUMNS):
@@ -223,6 +229,7 @@ class TugsModel(QAbstractTableModel):
             return base
         return base | Qt.ItemFlag.ItemIsEditable
 
+    @guarded
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
         try:
             return self._data(index, role)
@@ -339,6 +346,7 @@ class TugsModel(QAbstractTableModel):
         return fmt.bearing(limits[0 if key == "sector_from" else 1])[:-1]
 
     # -- editing ----------------------------------------------------------------------
+    @guarded(default=False)
     def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
         if not index.isValid() or index.column() >= len(COLUMNS):
             return False

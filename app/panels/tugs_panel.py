@@ -18,6 +18,7 @@ from PySide6.QtWidgets import (
 
 from app.controller import Controller
 from app.edits import tugs as tug_edits
+from app.guard import guarded
 from app.panels.tugs_model import KEYS, TugsModel
 from core.mechanics.bodies import body_name_of_hull, body_of
 from core.model.tugs import Placement, Tug
@@ -32,15 +33,18 @@ class PointDelegate(QStyledItemDelegate):
         super().__init__(parent)
         self.model = model
 
+    @guarded
     def createEditor(self, parent: QWidget, option: QStyleOptionViewItem, index: Index) -> QWidget:
         box = QComboBox(parent)
         box.addItems(self.model.point_choices())
         return box
 
+    @guarded
     def setEditorData(self, editor: QWidget, index: Index) -> None:
         assert isinstance(editor, QComboBox)
         editor.setCurrentText(str(index.data(Qt.ItemDataRole.EditRole)))
 
+    @guarded
     def setModelData(self, editor: QWidget, model, index: Index) -> None:  # type: ignore[no-untyped-def]
         assert isinstance(editor, QComboBox)
         model.setData(index, editor.currentText(), Qt.ItemDataRole.EditRole)
@@ -99,10 +103,12 @@ class TugsPanel(QWidget):
         layout.addWidget(self.table)
         layout.addLayout(buttons)
 
+    @guarded
     def _row_changed(self, current: QModelIndex, previous: QModelIndex) -> None:
         if current.isValid() and current.row() < len(self.model.rows):
             self.tug_selected.emit(self.model.rows[current.row()].tug.name)
 
+    @guarded
     def _edit(self) -> None:
         name = self.current_tug()
         if name is None:
@@ -127,6 +133,7 @@ class TugsPanel(QWidget):
             self.table.blockSignals(False)
 
     # -- add, duplicate, remove ----------------------------------------------------------
+    @guarded
     def add_tug(self) -> None:
         """A new tug of 40 t bollard pull, made fast at a free line point if there is one."""
         c = self.controller
@@ -147,6 +154,7 @@ class TugsPanel(QWidget):
         c.apply(new, f"Add {name}")
         self.select_tug(name)
 
+    @guarded
     def duplicate_tug(self) -> None:
         name = self.current_tug()
         if name is None:
@@ -157,6 +165,7 @@ class TugsPanel(QWidget):
         c.apply(project, f"Duplicate {name}")
         self.select_tug(new_name)
 
+    @guarded
     def remove_tug(self) -> None:
         name = self.current_tug()
         if name is None:

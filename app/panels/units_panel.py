@@ -5,6 +5,7 @@ from __future__ import annotations
 from PySide6.QtWidgets import QComboBox, QFormLayout, QLabel, QWidget
 
 from app.controller import Controller
+from app.guard import guarded
 from core.units import CHOICES, Quantity, label
 
 NAMES: dict[Quantity, str] = {
@@ -27,7 +28,7 @@ class UnitsPanel(QWidget):
             box = QComboBox()
             for sym in choices:
                 box.addItem(label(sym), sym)
-            box.currentIndexChanged.connect(lambda _i, q=q: self._chosen(q))
+            box.currentIndexChanged.connect(guarded(lambda _i, q=q: self._chosen(q)))
             box.setObjectName(f"unit_{q}")
             self.boxes[q] = box
             form.addRow(NAMES[q], box)
@@ -38,6 +39,7 @@ class UnitsPanel(QWidget):
         controller.changed.connect(self.refresh)
         self.refresh()
 
+    @guarded
     def refresh(self) -> None:
         units = self.controller.project.units
         for q, box in self.boxes.items():

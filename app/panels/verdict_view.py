@@ -14,6 +14,7 @@ from PySide6.QtGui import QColor
 from PySide6.QtWidgets import QLabel, QWidget
 
 from app.controller import Controller
+from app.guard import guarded
 from core.analysis.verdict import Verdict
 
 #: Colours of the verdicts (chosen for contrast on white, in print and on screen).
@@ -69,6 +70,7 @@ class VerdictView(QLabel):
         controller.changed.connect(self._changed)
         self.refresh()
 
+    @guarded
     def _changed(self) -> None:
         if self.controller.previewing:
             if self.verdict is not None and not self._stale:
@@ -77,6 +79,7 @@ class VerdictView(QLabel):
             return
         self._timer.start()
 
+    @guarded
     def refresh(self) -> None:
         self._timer.stop()
         self._stale = False

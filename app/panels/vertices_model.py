@@ -17,6 +17,7 @@ from app import formatting as fmt
 from app import numbers
 from app.controller import Controller
 from app.edits import hulls as hull_edits
+from app.guard import guarded
 from core.errors import InputError, TowboardError
 from core.model import rules
 from core.model.hull import Hull
@@ -62,12 +63,15 @@ class VerticesModel(QAbstractTableModel):
                 self.dataChanged.emit(self.index(i, 0), self.index(i, 1))
 
     # -- Qt model ---------------------------------------------------------------------
+    @guarded(default=0)
     def rowCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(self.outline)
 
+    @guarded(default=0)
     def columnCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else 2
 
+    @guarded
     def headerData(
         self, section: int, orientation: Qt.Orientation, role: int = Qt.ItemDataRole.DisplayRole
     ):  # type: ignore[no-untyped-def]
@@ -82,10 +86,12 @@ class VerticesModel(QAbstractTableModel):
             return "Hull frame, from the reference point"
         return None
 
+    @guarded(default=Qt.ItemFlag.NoItemFlags)
     def flags(self, index: Index) -> Qt.ItemFlag:
         base = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
         return base | Qt.ItemFlag.ItemIsEditable if index.isValid() else base
 
+    @guarded
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
         try:
             if not index.isValid() or index.row() >= len(self.outline):
@@ -102,6 +108,7 @@ class VerticesModel(QAbstractTableModel):
         except Exception:  # an exception escaping data() can end the process
             return None
 
+    @guarded(default=False)
     def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
         if role != Qt.ItemDataRole.EditRole or not index.isValid():
             return False

@@ -15,6 +15,7 @@ from PySide6.QtCore import QPointF, QRectF, QSize, Qt
 from PySide6.QtGui import QColor, QPainter, QPaintEvent, QPen, QPolygonF
 from PySide6.QtWidgets import QSizePolicy, QWidget
 
+from app.guard import guarded
 from app.paint import style
 
 Pt = tuple[float, float]
@@ -66,6 +67,7 @@ class PreviewPane(QWidget):
         self.setMinimumSize(320, 200)
         self.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
 
+    @guarded(default=QSize)
     def sizeHint(self) -> QSize:
         return QSize(460, 260)
 
@@ -93,6 +95,7 @@ class PreviewPane(QWidget):
             return None
         return min(xs), min(ys), max(xs), max(ys)
 
+    @guarded
     def paintEvent(self, event: QPaintEvent) -> None:  # a Qt override: never let an error out
         p = QPainter(self)
         try:

@@ -17,6 +17,7 @@ from PySide6.QtGui import QAction
 from PySide6.QtWidgets import QDialog, QFileDialog, QMessageBox
 
 from app.drawings.pictures import write_picture
+from app.guard import guarded
 from app.window.export_dialogs import PictureDialog, TablesDialog
 from app.window.outline_import_dialog import OutlineImportDialog
 from app.window.site_import_dialog import SiteImportDialog
@@ -84,7 +85,7 @@ class DrawingsUi:
         a = QAction(text, self.window)
         a.setStatusTip(tip)
         a.setToolTip(tip)
-        a.triggered.connect(slot)
+        a.triggered.connect(guarded(slot))
         return a
 
     def _folder(self) -> str:

@@ -14,6 +14,7 @@ from PySide6.QtGui import QAction
 from PySide6.QtWidgets import QComboBox, QLabel
 
 from app.board.drift_layer import DriftLayer
+from app.guard import guarded
 from app.panels.drift_panel import DriftPanel
 from core.motion.drift import DriftScenario
 
@@ -60,6 +61,7 @@ class DriftUi:
         self._fill_scenarios()
 
     # -- the switch and the scenario -----------------------------------------------------
+    @guarded
     def set_enabled(self, on: bool) -> None:
         if self.act_drift.isChecked() != on:
             self.act_drift.setChecked(on)
@@ -83,6 +85,7 @@ class DriftUi:
             DriftScenario("as_set"),
         ]
 
+    @guarded
     def _fill_scenarios(self) -> None:
         box = self.scenario_box
         wanted = self.scenarios()
@@ -99,6 +102,7 @@ class DriftUi:
         box.blockSignals(False)
         self.layer.set_scenario(wanted[keep])
 
+    @guarded
     def _scenario_chosen(self, index: int) -> None:
         s = self.scenario_box.itemData(index)
         if isinstance(s, DriftScenario):
@@ -109,6 +113,7 @@ class DriftUi:
         i = self.scenarios().index(scenario)
         self.scenario_box.setCurrentIndex(i)
 
+    @guarded
     def _show(self) -> None:
         self.panel.show_result(
             self.layer.result,

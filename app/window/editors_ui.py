@@ -12,6 +12,7 @@ from typing import TYPE_CHECKING
 
 from PySide6.QtGui import QAction
 
+from app.guard import guarded
 from app.panels.fitting_dialog import FittingDialog, open_fitting_dialog
 from app.panels.tug_dialog import TugDialog, open_tug_dialog
 from app.window.substitute_dialog import SubstituteDialog, open_substitute_dialog
@@ -45,7 +46,9 @@ class EditorsUi:
         window.tugs_panel.edit_requested.connect(self.edit_tug)
         hp = window.hull_panel
         hp.tool_requested.connect(window.board.set_tool)
-        hp.fitting_selected.connect(lambda hull, name: window.board.select(("fitting", hull, name)))
+        hp.fitting_selected.connect(
+            guarded(lambda hull, name: window.board.select(("fitting", hull, name)))
+        )
         hp.fitting_edit_requested.connect(self.edit_fitting)
         window.board.edit_requested.connect(self._edit_on_board)
         window.board.selection_changed.connect(self._board_selection)
@@ -54,17 +57,19 @@ class EditorsUi:
         a = QAction(text, self.window)
         a.setStatusTip(tip)
         a.setToolTip(tip)
-        a.triggered.connect(slot)
+        a.triggered.connect(guarded(slot))
         return a
 
     def _say(self, text: str) -> None:
         self.window.statusBar().showMessage(text, 8000)
 
+    @guarded
     def _board_selection(self) -> None:
         sel = self.window.board.selection
         if sel and sel[0] == "fitting":
             self.window.hull_panel.show_fitting(str(sel[1]), str(sel[2]))
 
+    @guarded
     def _edit_on_board(self, hit: object) -> None:
         if not isinstance(hit, tuple) or not hit:
             return
@@ -77,6 +82,7 @@ class EditorsUi:
         return self.window.tugs_panel.current_tug() or self.window.board.selected_tug()
 
     # -- the editors ------------------------------------------------------------------------
+    @guarded
     def edit_fitting(self, hull: str, name: str) -> FittingDialog | None:
         """Open the dialog of fitting ``name`` of ``hull``."""
         try:
@@ -85,6 +91,7 @@ class EditorsUi:
             self._say(str(e))
             return None
 
+    @guarded
     def edit_tug(self, name: str | None = None) -> TugDialog | None:
         """Open the tug editor of tug ``name`` (default: the tug selected in the table or on
         the board)."""

@@ -28,6 +28,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.drawings.pictures import KINDS, MAX_SIDE_PX, PictureSpec
+from app.guard import guarded
 from app.panels.dialog_parts import ok_cancel
 from core.errors import TowboardError
 from core.model.plan import Project
@@ -130,6 +131,7 @@ class PictureDialog(QDialog):
         self._paper()
         self._kind_changed()
 
+    @guarded
     def _paper(self) -> None:
         mm = 25.4 / self.dpi.value()
         self.paper.setText(
@@ -137,17 +139,20 @@ class PictureDialog(QDialog):
             f"on paper at {self.dpi.value():.0f} dpi"
         )
 
+    @guarded
     def _kind_changed(self) -> None:
         board = self.kind.currentData() == "board"
         self.fit.setEnabled(board)
         self.shown.setEnabled(board and self.shown_area is not None)
 
+    @guarded
     def _format_changed(self) -> None:
         suffix = str(self.format.currentData())
         path = Path(self.file.text() or "picture")
         if path.suffix.lower() != suffix:
             self.file.setText(str(path.with_suffix(suffix)))
 
+    @guarded
     def _file_changed(self, text: str) -> None:
         suffix = Path(text).suffix.lower()
         i = self.format.findData(suffix)
@@ -156,6 +161,7 @@ class PictureDialog(QDialog):
             self.format.setCurrentIndex(i)
             self.format.blockSignals(False)
 
+    @guarded
     def _choose(self) -> None:
         name, _ = QFileDialog.getSaveFileName(
             self, "Export picture", self.file.text(), "SVG drawings (*.svg);;PNG images (*.png)"
@@ -182,6 +188,7 @@ class PictureDialog(QDialog):
             out.append((numbered(path, i) if self.every_stage.isChecked() else path, spec))
         return out
 
+    @guarded
     def accept(self) -> None:
         if not self.file.text().strip():
             self.error.setText("Choose the file to write.")
@@ -234,6 +241,7 @@ class TablesDialog(QDialog):
         self.choose.clicked.connect(self._choose)
         self._files()
 
+    @guarded
     def _choose(self) -> None:
         name, _ = QFileDialog.getSaveFileName(
             self, "Export tables", self.file.text(), "CSV files (*.csv)"
@@ -253,9 +261,11 @@ class TablesDialog(QDialog):
     def in_display_units(self) -> bool:
         return self.display.isChecked()
 
+    @guarded
     def _files(self) -> None:
         self.files.setText(", ".join(p.name for p, _ in self.jobs()) or "nothing: choose a table")
 
+    @guarded
     def accept(self) -> None:
         if not self.jobs():
             self.error.setText("Choose at least one table.")

@@ -44,6 +44,7 @@ from app.board.interaction import TOOL_INFO
 from app.board.scene import BoardScene
 from app.board.view import BoardView
 from app.controller import Controller
+from app.guard import REPORTER, guarded
 from app.panels.balance_panel import BalancePanel
 from app.panels.hull_panel import HullPanel
 from app.panels.tugs_panel import TugsPanel
@@ -236,7 +237,7 @@ class MainWindow(QMainWindow):
         if tip:
             a.setStatusTip(tip)
             a.setToolTip(tip)
-        a.triggered.connect(slot)
+        a.triggered.connect(guarded(slot))
         return a
 
     def _build_actions(self) -> None:
@@ -381,23 +382,26 @@ class MainWindow(QMainWindow):
         c = self.controller
         c.changed.connect(self._update_title)
         c.changed.connect(self._sync_stage_box)
-        c.dirty_changed.connect(lambda _d: self._update_title())
+        c.dirty_changed.connect(guarded(lambda _d: self._update_title()))
         c.path_changed.connect(self._update_title)
-        c.message.connect(lambda text: self.statusBar().showMessage(text, 8000))
+        c.message.connect(self.say)
+        REPORTER.connect_to(self.say)  # an error caught by a guard, in words
         self.board.selection_changed.connect(self._board_selection)
         self.board.tool_changed.connect(self._tool_changed)
         self.board.refresh_hooks.append(lambda s: self.balance_panel.set_stale(s.stale))
-        self.tugs_panel.tug_selected.connect(lambda name: self.board.select(("tug", name)))
+        self.tugs_panel.tug_selected.connect(guarded(lambda name: self.board.select(("tug", name))))
         self.hull_panel.generate_requested.connect(self.generate_outline)
         self._sync_stage_box()
 
     # -- keeping things in step -----------------------------------------------------------
+    @guarded
     def _update_title(self) -> None:
         c = self.controller
         where = c.path.name if c.path is not None else "not saved"
         self.setWindowTitle(f"{c.project.name} — {where}[*] — Towboard")
         self.setWindowModified(c.dirty)
 
+    @guarded
     def _sync_stage_box(self) -> None:
         names = [f"{i + 1}. {s.name}" for i, s in enumerate(self.controller.project.stages)]
         box = self.stage_box
@@ -408,6 +412,12 @@ class MainWindow(QMainWindow):
         box.setCurrentIndex(min(self.controller.stage_index, len(names) - 1))
         box.blockSignals(False)
 
+    @guarded
+    def say(self, text: str, msecs: int = 8000) -> None:
+        """Show ``text`` in the status bar (a refusal, or an error caught by a guard)."""
+        self.statusBar().showMessage(text, msecs)
+
+    @guarded
     def _board_selection(self) -> None:
         self.tugs_panel.select_tug(self.board.selected_tug())
         hull = self.board.selected_hull()
@@ -456,12 +466,14 @@ class MainWindow(QMainWindow):
             self._save_grid()
             self.statusBar().showMessage(f"Grid step {value:g} {unit}", 5000)
 
+    @guarded
     def _tool_changed(self, tool: str) -> None:
         a = self.tool_actions.get(tool)
         if a is not None and not a.isChecked():
             a.setChecked(True)
 
     # -- outline from dimensions ------------------------------------------------------------
+    @guarded
     def generate_outline(self) -> None:
         c = self.controller
         target = self.board.selected_hull() or self.hull_panel.current
@@ -587,7 +599,7 @@ class MainWindow(QMainWindow):
         for f in files:
             a = self.recent_menu.addAction(Path(f).name)
             a.setToolTip(f)
-            a.triggered.connect(lambda _=False, f=f: self.open_path(Path(f)))
+            a.triggered.connect(guarded(lambda _=False, f=f: self.open_path(Path(f))))
         self.recent_menu.setEnabled(bool(files))
 
     # -- recovery ------------------------------------------------------------------------
@@ -622,6 +634,7 @@ class MainWindow(QMainWindow):
             o.discard()
         return restored
 
+    @guarded
     def showEvent(self, event: QShowEvent) -> None:
         super().showEvent(event)
         if not self._docks_arranged:  # sizes set before the first show are not kept
@@ -650,6 +663,7 @@ class MainWindow(QMainWindow):
             if bar.isVisible() and not any(_touches(bar.geometry(), d.geometry()) for d in docks):
                 bar.hide()
 
+    @guarded
     def closeEvent(self, event: QCloseEvent) -> None:
         if self.maybe_discard():
             self.recovery.close()

@@ -12,6 +12,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app.guard import guarded
 from app.panels.dialog_parts import ok_cancel
 from core.errors import TowboardError
 from core.model.outlines import (
@@ -103,6 +104,7 @@ class OutlineDialog(QDialog):
         self.shape.currentIndexChanged.connect(self._shape_changed)
         self._shape_changed()
 
+    @guarded
     def _shape_changed(self) -> None:
         key = self.shape.currentData()
         for shape, rows in self.rows.items():
@@ -133,6 +135,7 @@ class OutlineDialog(QDialog):
             self.stern_shape.currentText(),
         )
 
+    @guarded
     def accept(self) -> None:
         try:
             self.outline()

@@ -33,6 +33,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app.guard import guarded
 from app.paint import style
 from app.panels.dialog_parts import ok_cancel
 from app.window.drawing_preview import Mark, PreviewPane, Shape, Tag
@@ -290,6 +291,7 @@ class OutlineImportDialog(QDialog):
         return name
 
     # -- importing again on every change --------------------------------------------------------
+    @guarded
     def _units_changed(self) -> None:
         self.confirm.setChecked(False)
         self._fill_layers()
@@ -314,6 +316,7 @@ class OutlineImportDialog(QDialog):
             self.drawing, layer, units, self.placement(), self._chord_m(), self._tolerance_m()
         )
 
+    @guarded
     def refresh(self) -> None:
         given = self.reference.currentData() == "point"
         self.ref_x.setEnabled(given)
@@ -377,6 +380,7 @@ class OutlineImportDialog(QDialog):
             ],
         )
 
+    @guarded
     def _update_ok(self) -> None:
         ok = self.imported is not None and self.confirm.isChecked()
         if self.new_hull.isChecked():
@@ -391,6 +395,7 @@ class OutlineImportDialog(QDialog):
             return self.hull_name.text().strip(), True
         return self.hull_box.currentText(), False
 
+    @guarded
     def accept(self) -> None:
         if self.imported is None or not self.confirm.isChecked():
             return

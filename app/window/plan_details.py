@@ -29,6 +29,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.controller import Controller
+from app.guard import guarded
 from app.panels.dialog_parts import error_label, ok_cancel
 from core.errors import InputError, TowboardError
 from core.model.plan import Project, Revision
@@ -57,7 +58,7 @@ class PlanDetailsDialog(QDialog):
         self.date.setPlaceholderText("YYYY-MM-DD")
         self.today = QPushButton("Today")
         self.today.setAutoDefault(False)
-        self.today.clicked.connect(lambda: self.date.setText(today()))
+        self.today.clicked.connect(guarded(lambda: self.date.setText(today())))
         self.prepared = QLineEdit()
         self.checked = QLineEdit()
         self.approved = QLineEdit()
@@ -175,6 +176,7 @@ class PlanDetailsDialog(QDialog):
         )
 
     # -- buttons --------------------------------------------------------------------------
+    @guarded
     def _add_line(self) -> None:
         rev = self.revision.text().strip()
         date = self.date.text().strip() or today()
@@ -182,11 +184,13 @@ class PlanDetailsDialog(QDialog):
         self.history.setCurrentCell(row, len(HISTORY_COLUMNS) - 1)
         self.history.editItem(self.history.item(row, len(HISTORY_COLUMNS) - 1))
 
+    @guarded
     def _remove_line(self) -> None:
         row = self.history.currentRow()
         if row >= 0:
             self.history.removeRow(row)
 
+    @guarded
     def accept(self) -> None:
         # a cell still being typed in counts
         self.history.setCurrentItem(None)

@@ -30,6 +30,7 @@ from PySide6.QtWidgets import (
 from app.board.site_layer import SiteLayer
 from app.board.swing_layer import SwingLayer
 from app.briefing.document import page_layout, render, write_pdf
+from app.guard import guarded
 from app.panels.site_panel import SitePanel
 from app.panels.stage_details import StageDetails
 from app.panels.stage_list import StageList
@@ -111,7 +112,7 @@ class PlanUi:
             a.setShortcut(QKeySequence(shortcut))
         if tip:
             a.setStatusTip(tip)
-        a.triggered.connect(slot)
+        a.triggered.connect(guarded(slot))
         return a
 
     def plan_details(self) -> PlanDetailsDialog:
@@ -160,7 +161,7 @@ class PlanUi:
             details = open_plan_details(self.controller, dialog)
             details.accepted.connect(pages.updatePreview)
 
-        act.triggered.connect(edit)
+        act.triggered.connect(guarded(edit))
         bar.addSeparator()
         bar.addAction(act)
 
@@ -171,6 +172,7 @@ class PlanUi:
         if dialog.exec() == QDialog.DialogCode.Accepted:
             self._paint_safely(printer)
 
+    @guarded
     def _paint_safely(self, printer: QPrinter) -> None:
         try:
             n = self.paint(printer)

@@ -21,6 +21,7 @@ from pathlib import Path
 from PySide6.QtCore import QLockFile, QObject, QStandardPaths, Qt, QTimer
 
 from app.controller import Controller
+from app.guard import guarded
 from core.io.projectfile import dumps, loads, write_atomic
 from core.model.plan import Project
 
@@ -129,6 +130,7 @@ class RecoveryWriter(QObject):
         self.writes = 0
         self.failed = False
 
+    @guarded
     def _changed(self, *_: object) -> None:
         if self.controller.previewing:
             return  # a drag in progress: wait for its release
@@ -136,6 +138,7 @@ class RecoveryWriter(QObject):
         if not self._deadline.isActive():
             self._deadline.start()
 
+    @guarded
     def write_now(self) -> None:
         """Write (or, when nothing is unsaved, remove) the recovery file now."""
         self._timer.stop()

@@ -31,6 +31,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app.guard import guarded
 from app.paint import style
 from app.panels.dialog_parts import ok_cancel
 from app.window.drawing_preview import PreviewPane, Shape, Tag
@@ -229,6 +230,7 @@ class SiteImportDialog(QDialog):
             raise InputError("layers", None, "choose at least one layer and its kind")
         return import_site(self.drawing, kinds, self.units(), self.frame())
 
+    @guarded
     def refresh(self) -> None:
         try:
             self.imported = self.import_now()
@@ -275,6 +277,7 @@ class SiteImportDialog(QDialog):
             f.kind == "limit",
         )
 
+    @guarded
     def accept(self) -> None:
         if self.imported is None or not self.imported.features:
             return

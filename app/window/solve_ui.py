@@ -15,6 +15,7 @@ from PySide6.QtCore import Qt
 from PySide6.QtGui import QAction, QKeySequence
 
 from app.board.conditions_layer import ConditionsCard
+from app.guard import guarded
 from app.panels.conditions import ConditionsPanel
 from app.panels.hold_plot import HoldLimitsPanel
 from app.panels.solve_panel import SolvePanel
@@ -68,6 +69,7 @@ class SolveUi:
         window.toolbar.addSeparator()
         window.toolbar.addActions([self.act_solve, self.act_live])
 
+    @guarded
     def set_live(self, on: bool) -> None:
         self.hold.follow_drag = on
         filters = self.controller.edit_filters
@@ -85,6 +87,7 @@ class SolveUi:
         if self.act_live.isChecked() != on:
             self.act_live.setChecked(on)
 
+    @guarded
     def _notes(self, notes: dict[str, list[str]]) -> None:
         self.window.board.set_tug_notes({t: "⚠ " + ", ".join(v) for t, v in notes.items() if v})
         self.window.tugs_panel.model.refresh()

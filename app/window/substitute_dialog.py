@@ -33,6 +33,7 @@ from PySide6.QtWidgets import (
 
 from app import numbers
 from app.controller import Controller
+from app.guard import guarded
 from app.paint import style
 from app.panels.dialog_parts import error_label
 from app.panels.tug_form import TugForm
@@ -106,7 +107,7 @@ class SubstituteDialog(QDialog):
         self._lay_out()
         self.replace.currentTextChanged.connect(self._load)
         self.form.edited.connect(self._stale)
-        self._keep.buttonClicked.connect(lambda _b: self._stale())
+        self._keep.buttonClicked.connect(guarded(lambda _b: self._stale()))
         self._load(self.replace.currentText())
         self.resize(1100, 640)
 
@@ -137,11 +138,13 @@ class SubstituteDialog(QDialog):
         layout.addWidget(self.error)
         layout.addWidget(self.buttons)
 
+    @guarded
     def _load(self, name: str) -> None:
         if name:
             self.form.load(self.controller.project.tug(name))
         self._stale()
 
+    @guarded
     def _stale(self) -> None:
         """The inputs changed: what is listed no longer answers them."""
         self.substitution = None
@@ -153,6 +156,7 @@ class SubstituteDialog(QDialog):
         return "pulls" if self.keep_pulls.isChecked() else "settings"
 
     # -- checking -----------------------------------------------------------------------
+    @guarded
     def check(self) -> Substitution | None:
         """Work every stage out with the substitute and list what changes."""
         old = self.replace.currentText()
@@ -198,6 +202,7 @@ class SubstituteDialog(QDialog):
         self.summary.setText(summary(result, old))
 
     # -- applying -----------------------------------------------------------------------
+    @guarded
     def apply(self) -> None:
         """Put the checked substitute in the plan (one undo step) and close."""
         result = self.substitution
