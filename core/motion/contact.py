@@ -86,8 +86,11 @@ class Clearances:
         self._d = flat[:, 1] - flat[:, 0]  # (m, 2)
         self._dd = np.maximum(np.einsum("ij,ij->i", self._d, self._d), 1e-300)
         self._starts = np.searchsorted(self._owner, np.arange(len(obstacles)))
-        # The members' polygons, moved in place for one state at a time (the event's path).
-        self._moving = shapely.polygons([np.vstack([o, o[:1]]) for o in outlines])
+        # The members' polygons, moved in place for one state at a time (the event's path);
+        # one by one, as the members' outlines may have different numbers of vertices.
+        self._moving = np.array(
+            [shapely.polygons(np.vstack([o, o[:1]])) for o in outlines], dtype=object
+        )
         self._ring = np.vstack([np.vstack([o, o[:1]]) for o in outlines])
 
     def bounds(self, centres: np.ndarray) -> np.ndarray:

@@ -139,3 +139,23 @@ def test_clearances_agree_with_shapely_for_many_states() -> None:
         near = lower <= 0.0  # within reach: measured exactly; the others by their bound
         expected = min(got[k][near].min(initial=math.inf), lower[~near].min(initial=math.inf))
         assert cl.least(s) == pytest.approx(expected, abs=1e-9)
+
+
+def test_members_with_different_numbers_of_vertices() -> None:
+    # A body of two lashed hulls whose outlines differ in vertex count (a 4-vertex box and
+    # a 5-vertex pointed hull) once failed to build its polygons (numpy refused the ragged
+    # array). The least gap must be shapely's distance from the nearer member (reference:
+    # shapely.distance on the same polygons placed by hand).
+    box = np.array([[-10.0, -5.0], [10.0, -5.0], [10.0, 5.0], [-10.0, 5.0]])
+    pointed = np.array([[-10.0, 6.0], [8.0, 6.0], [14.0, 11.0], [8.0, 16.0], [-10.0, 16.0]])
+    wall = square("Dolphin", 15.0, 1.0, 3.0)  # within reach: the gap is exact
+    clear = Clearances((box, pointed), (wall,))
+    state = np.array([1.0, 0.5, 0.1, 0.0, 0.0, 0.0])
+    c, s = math.cos(0.1), math.sin(0.1)
+
+    def placed(o: np.ndarray) -> shapely.Polygon:
+        return shapely.Polygon([(1.0 + c * x - s * y, 0.5 + s * x + c * y) for x, y in o])
+
+    expected = min(shapely.distance(placed(o), wall.geometry) for o in (box, pointed))
+    assert clear.least(state) == pytest.approx(expected, rel=1e-12)
+    assert clear.distances(state)[0, 0] == pytest.approx(expected, rel=1e-12)
