@@ -132,23 +132,20 @@ class FittingsModel(QAbstractTableModel):
 
     @guarded
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
-        try:
-            if not index.isValid() or index.row() >= len(self.fittings):
-                return None
-            f = self.fittings[index.row()]
-            key = COLUMNS[index.column()].key
-            if role in (Qt.ItemDataRole.DisplayRole, Qt.ItemDataRole.EditRole):
-                return self._text(f, key, role == Qt.ItemDataRole.EditRole)
-            if role == Qt.ItemDataRole.ToolTipRole:
-                return fmt.fitting_summary(self.controller.project.units, f)
-            if role == Qt.ItemDataRole.TextAlignmentRole and key in ("x", "y", "swl", "tow"):
-                return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
-            unrated = f.swl_n is None and f.tow_n is None
-            if role == Qt.ItemDataRole.ForegroundRole and key in ("swl", "tow") and unrated:
-                return QColor("#78909c")
+        if not index.isValid() or index.row() >= len(self.fittings):
             return None
-        except Exception:  # an exception escaping data() can end the process
-            return None
+        f = self.fittings[index.row()]
+        key = COLUMNS[index.column()].key
+        if role in (Qt.ItemDataRole.DisplayRole, Qt.ItemDataRole.EditRole):
+            return self._text(f, key, role == Qt.ItemDataRole.EditRole)
+        if role == Qt.ItemDataRole.ToolTipRole:
+            return fmt.fitting_summary(self.controller.project.units, f)
+        if role == Qt.ItemDataRole.TextAlignmentRole and key in ("x", "y", "swl", "tow"):
+            return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
+        unrated = f.swl_n is None and f.tow_n is None
+        if role == Qt.ItemDataRole.ForegroundRole and key in ("swl", "tow") and unrated:
+            return QColor("#78909c")
+        return None
 
     def _text(self, f: Fitting, key: str, editing: bool) -> str:
         u = self.controller.project.units
@@ -194,9 +191,6 @@ class FittingsModel(QAbstractTableModel):
         except (TowboardError, ValueError) as e:
             u = self.controller.project.units
             self.controller.message.emit(f"Not changed: {numbers.message(e, u)}")
-            return False
-        except Exception as e:  # an exception escaping setData() can end the process
-            self.controller.message.emit(f"Not changed: {e}")
             return False
         return True
 

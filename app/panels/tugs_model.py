@@ -148,9 +148,9 @@ class TugsModel(QAbstractTableModel):
         units = self._units
         self._build()
         self._units = self.controller.project.units
-        if [r.tug.name for r in self.rows] != [r.tug.name for r in old]:
-            self.beginResetModel()
-            self.endResetModel()
+        if len(self.rows) != len(old):  # tugs came or went (a rename is one row's change:
+            self.beginResetModel()  # a reset under a committing cell editor releases it
+            self.endResetModel()  # while Qt's delegate is still filtering its key press)
             return
         if self._units != units:
             self.headerDataChanged.emit(Qt.Orientation.Horizontal, 0, self.columnCount() - 1)

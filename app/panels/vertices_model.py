@@ -93,20 +93,17 @@ class VerticesModel(QAbstractTableModel):
 
     @guarded
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
-        try:
-            if not index.isValid() or index.row() >= len(self.outline):
-                return None
-            v = self.outline[index.row()][index.column()]
-            u = self.controller.project.units
-            if role == Qt.ItemDataRole.DisplayRole:
-                return fmt.number(u, v, "length", 2)
-            if role == Qt.ItemDataRole.EditRole:
-                return f"{u.value(v, 'length'):.6g}"
-            if role == Qt.ItemDataRole.TextAlignmentRole:
-                return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
+        if not index.isValid() or index.row() >= len(self.outline):
             return None
-        except Exception:  # an exception escaping data() can end the process
-            return None
+        v = self.outline[index.row()][index.column()]
+        u = self.controller.project.units
+        if role == Qt.ItemDataRole.DisplayRole:
+            return fmt.number(u, v, "length", 2)
+        if role == Qt.ItemDataRole.EditRole:
+            return f"{u.value(v, 'length'):.6g}"
+        if role == Qt.ItemDataRole.TextAlignmentRole:
+            return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
+        return None
 
     @guarded(default=False)
     def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
@@ -115,8 +112,6 @@ class VerticesModel(QAbstractTableModel):
         try:
             return self._set(index.row(), index.column(), str(value))
         except (TowboardError, ValueError) as e:
-            self._refuse(e)
-        except Exception as e:  # an exception escaping setData() can end the process
             self._refuse(e)
         return False
 
