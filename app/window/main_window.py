@@ -594,7 +594,12 @@ class MainWindow(QMainWindow):
         self._rebuild_recent()
 
     def _rebuild_recent(self) -> None:
-        self.recent_menu.clear()
+        # Opening a recent file comes here from inside its entry's own signal: the old
+        # entries go when the event loop comes round (QMenu.clear would delete that entry
+        # under Qt's menu, which goes on using it after the signal).
+        for old in self.recent_menu.actions():
+            self.recent_menu.removeAction(old)
+            old.deleteLater()
         files = self.recent_files()
         for f in files:
             a = self.recent_menu.addAction(Path(f).name)

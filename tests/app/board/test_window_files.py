@@ -182,3 +182,24 @@ def test_the_window_screenshot_is_not_blank(window, tmp_path: Path, qtbot) -> No
             colours.add(image.pixel(x, y))
     assert len(colours) > 200  # the board, arrows, labels and panels, not a flat fill
     assert "Planning aid" in window.caution.text()
+
+
+def test_a_recent_file_opened_from_its_menu_entry_is_not_deleted_under_it(
+    window, tmp_path: Path
+) -> None:  # type: ignore[no-untyped-def]
+    """Opening a recent file rebuilds the Open Recent menu from inside the entry's own
+    ``triggered``: the entry must outlive its signal (``QMenu.clear`` deleted it there, and
+    Qt's menu went on using the deleted action after a real click)."""
+    import shiboken6
+    from PySide6.QtCore import QCoreApplication, QEvent
+
+    copy = tmp_path / "again.towboard"
+    copy.write_bytes(SAMPLE.read_bytes())
+    assert window.open_path(copy, ask=False)
+    entry = next(a for a in window.recent_menu.actions() if a.toolTip() == str(copy.resolve()))
+    entry.trigger()
+    assert shiboken6.isValid(entry)  # alive until the event loop comes round
+    QCoreApplication.sendPostedEvents(None, QEvent.Type.DeferredDelete)
+    assert not shiboken6.isValid(entry)  # then gone: the menu holds the new entries only
+    assert [a.toolTip() for a in window.recent_menu.actions()][0] == str(copy.resolve())
+    assert window.controller.path == copy
