@@ -40,6 +40,7 @@ class SeedRun:
     actions: int
     faults: list[str]
     failed_checks: list[str]
+    qt_warnings: dict[str, int]
     trail: Path
     stderr: str
 
@@ -83,11 +84,13 @@ def run_seed(seed: int, actions: int, check_every: int, out: Path) -> SeedRun:
     seconds = time.perf_counter() - start
     faults: list[str] = []
     failed: list[str] = []
+    warned: dict[str, int] = {}
     done = 0
     for line in reversed(proc.stdout.splitlines()):
         if line.startswith("{"):
             data = json.loads(line)
             faults, failed, done = data["faults"], data["failed_checks"], data["actions"]
+            warned = data.get("qt_warnings", {})
             break
     if not done and trail.exists():
         done = sum(
@@ -96,7 +99,7 @@ def run_seed(seed: int, actions: int, check_every: int, out: Path) -> SeedRun:
     stderr = "\n".join(
         line for line in proc.stderr.splitlines() if not line.startswith("This plugin does not")
     )
-    return SeedRun(seed, proc.returncode, seconds, done, faults, failed, trail, stderr)
+    return SeedRun(seed, proc.returncode, seconds, done, faults, failed, warned, trail, stderr)
 
 
 def _last_lines(path: Path, n: int) -> str:
@@ -151,6 +154,14 @@ def main() -> int:
             found = True
             print(f"\n=== seed {r.seed}:")
             print(text)
+    warned: dict[str, int] = {}
+    for r in runs:
+        for text, n in r.qt_warnings.items():
+            warned[text] = warned.get(text, 0) + n
+    if warned:
+        print("\nQt's own warnings (not counted as faults unless listed above):")
+        for text, n in sorted(warned.items(), key=lambda kv: -kv[1]):
+            print(f"  {n:>6}x {text[:160]}")
     total = sum(r.actions for r in runs)
     print(
         f"\ntotal: {total} actions over {len(runs)} seeds; "

@@ -47,7 +47,7 @@ from typing import Any, TextIO
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
-from PySide6.QtCore import QEvent, QPoint, QPointF, Qt
+from PySide6.QtCore import QEvent, QPoint, QPointF, Qt, qInstallMessageHandler
 from PySide6.QtGui import QAction, QContextMenuEvent, QMouseEvent
 from PySide6.QtTest import QTest
 from PySide6.QtWidgets import (
@@ -110,6 +110,19 @@ HOSTILE_TEXT = (
     "x" * 5000,
 )
 
+#: Qt messages that say nothing about the program (the offscreen platform's limits).
+BENIGN_QT = ("This plugin does not support", "edit: editing failed")
+#: Qt messages that mean the program misused Qt: each is a fault.
+FAULTY_QT = (
+    "does not belong to this view",
+    "Recursive repaint",
+    "QPainter::begin",
+    "Painter not active",
+    "QObject::startTimer",
+    "QObject::setParent",
+    "QAbstractItemModel::endResetModel",
+)
+
 CTRL = Qt.KeyboardModifier.ControlModifier
 SHIFT = Qt.KeyboardModifier.ShiftModifier
 NONE = Qt.KeyboardModifier.NoModifier
@@ -160,6 +173,7 @@ class Outcome:
     checks: int = 0
     faults: list[str] = field(default_factory=list)
     failed_checks: list[str] = field(default_factory=list)
+    qt_warnings: dict[str, int] = field(default_factory=dict)
 
     @property
     def clean(self) -> bool:
@@ -170,7 +184,8 @@ class Outcome:
             f"seed {self.seed}: {self.actions} actions, {self.checks} checks, "
             f"{len(self.faults)} faults, {len(self.failed_checks)} failed checks"
         )
-        return "\n\n".join([head, *self.faults, *self.failed_checks])
+        warned = [f"Qt said ({n}x): {m}" for m, n in self.qt_warnings.items()]
+        return "\n\n".join([head, *self.faults, *self.failed_checks, *warned])
 
 
 def _finite_problems(value: Any, path: str = "") -> Iterator[str]:
@@ -281,6 +296,21 @@ class Monkey:
                 self.trail.flush()
 
         return hook
+
+    def _qt_message(self, mode: Any, context: Any, text: str) -> None:
+        """Qt's own warnings: a misuse Qt noticed (an editor released under its delegate,
+        a painter on a dead device...) is a fault; harmless platform notes are dropped."""
+        if any(text.startswith(b) for b in BENIGN_QT):
+            return
+        self.outcome.qt_warnings[text] = self.outcome.qt_warnings.get(text, 0) + 1
+        if self.trail is not None:
+            self.trail.write(f"QT {text}\n")
+            self.trail.flush()
+        if any(f in text for f in FAULTY_QT):
+            self.outcome.faults.append(
+                f"seed {self.seed}, Qt warned after action {len(self.log) - 1}: {text}\n"
+                f"actions before it:\n{self.recent()}"
+            )
 
     # -- files for the file dialogs ---------------------------------------------------------
     def _make_files(self) -> None:
@@ -498,9 +528,11 @@ class Monkey:
         p.set(QMenu, "exec", lambda m, *a: None)
         p.set(sys, "excepthook", self._fault_hook("excepthook"))
         p.set(sys, "unraisablehook", self._fault_hook("unraisablehook"))
+        previous = qInstallMessageHandler(self._qt_message)
         try:
             yield
         finally:
+            qInstallMessageHandler(previous)
             p.undo()
 
     # -- where to act ---------------------------------------------------------------------------
@@ -897,6 +929,8 @@ def main(argv: list[str] | None = None) -> int:
     if args.trail is not None:
         args.trail = args.trail.resolve()  # before the run moves into its own folder
     faulthandler.enable()
+    import app.window.main_window
+
     with tempfile.TemporaryDirectory(prefix="towboard-monkey-") as tmp:
         os.environ["TOWBOARD_RECOVERY_DIR"] = str(Path(tmp) / "recovery")
         os.environ["TOWBOARD_SETTINGS_FILE"] = str(Path(tmp) / "settings.ini")
@@ -924,6 +958,7 @@ def main(argv: list[str] | None = None) -> int:
                 "checks": outcome.checks,
                 "faults": outcome.faults,
                 "failed_checks": outcome.failed_checks,
+                "qt_warnings": outcome.qt_warnings,
             }
         )
     )
