@@ -6,6 +6,8 @@ from collections.abc import Callable
 
 from PySide6.QtWidgets import QDialog, QDialogButtonBox, QLabel, QWidget
 
+from app.guard import guarded
+
 #: Colour of a refusal's words (dark red, readable on the light dialog background).
 ERROR_COLOUR = "#b71c1c"
 
@@ -34,6 +36,6 @@ def ok_cancel(
     )
     if ok_text is not None:
         buttons.button(QDialogButtonBox.StandardButton.Ok).setText(ok_text)
-    buttons.accepted.connect(accept or dialog.accept)
+    buttons.accepted.connect(guarded(accept or dialog.accept))
     buttons.rejected.connect(dialog.reject)
     return buttons
