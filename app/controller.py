@@ -79,11 +79,11 @@ class ProjectCommand(QUndoCommand):
 
     @guarded
     def redo(self) -> None:
-        self._controller._set_project(self.new)
+        self._controller._set_recorded(self.new)
 
     @guarded
     def undo(self) -> None:
-        self._controller._set_project(self.old)
+        self._controller._set_recorded(self.old)
 
     @guarded(default=-1)
     def id(self) -> int:
@@ -214,6 +214,13 @@ class Controller(QObject):
         return names[0]
 
     # -- writing ------------------------------------------------------------------
+    def _set_recorded(self, project: Project) -> None:
+        """Undo or redo put ``project`` in place: a drag's preview under way is dropped
+        (undo works on what was recorded, never on a half-finished drag)."""
+        self._preview_base = None
+        self._results_override = None
+        self._set_project(project)
+
     def _set_project(self, project: Project, results: dict[str, BodyResult] | None = None) -> None:
         if project is self._project and results is None:
             return

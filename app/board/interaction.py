@@ -82,6 +82,10 @@ TOOL_HINTS = {
     "Enter to leave it open; Esc stops.",
 }
 TOOLS = tuple(TOOL_INFO)
+#: Keys that only modify a drag (Shift: turn in steps), never end it.
+MODIFIER_KEYS = frozenset(
+    (Qt.Key.Key_Shift, Qt.Key.Key_Control, Qt.Key.Key_Alt, Qt.Key.Key_Meta, Qt.Key.Key_AltGr)
+)
 SNAP_PX = 14.0  # how near the hull edge a click must be to place a point, px
 EDGE_PX = 7.0  # how near an edge a double-click inserts a vertex, px
 
@@ -142,6 +146,9 @@ class Interaction:
             | SectorDrag
             | None
         ) = None
+        #: The plan as the drag left it: if it is another, something else (a key, a menu,
+        #: undo) edited the plan under the drag, whose indexes and names may be stale.
+        self._drag_plan: object = None
         self.draft: Draft | None = None  # the shape being drawn with a drawing tool
         self._draft_target: str | None = None  # hull whose outline the draft replaces
         self.site = SiteTools(self)
@@ -225,6 +232,11 @@ class Interaction:
 
     # -- mouse --------------------------------------------------------------------
     def press(self, event) -> bool:  # type: ignore[no-untyped-def]
+        handled = self._press(event)
+        self._drag_plan = self.controller.project  # the plan a drag it started works on
+        return handled
+
+    def _press(self, event) -> bool:  # type: ignore[no-untyped-def]
         if event.button() != Qt.MouseButton.LeftButton or self.scene.fixed_stage is not None:
             return False
         pos = event.scenePos()
@@ -261,10 +273,27 @@ class Interaction:
             self.site.press_point(hit)
         return True
 
+    def _drag_overtaken(self) -> bool:
+        """True (and the drag dropped) when the plan was edited under a drag in progress."""
+        if self.drag is None or self.controller.project is self._drag_plan:
+            return False
+        self.drag = None
+        self._clear_invalid()
+        return True
+
+    def cancel_drag(self) -> None:
+        """Drop the drag in progress and put back the plan from before it."""
+        if self.drag is not None:
+            self.drag = None
+            self._clear_invalid()
+            self.controller.cancel_preview()
+
     def move(self, event) -> bool:  # type: ignore[no-untyped-def]
         pos = event.scenePos()
         if self.tool in DRAW_TOOLS and self.draft is not None and self.draft.points:
             self.draft.hover((pos.x(), pos.y()))
+            return True
+        if self._drag_overtaken():
             return True
         drag = self.drag
         if drag is None:
@@ -284,9 +313,12 @@ class Interaction:
             self.site.move(drag, pos, event.screenPos())
         else:
             self._move_vertex(drag, pos)
+        self._drag_plan = self.controller.project
         return True
 
     def release(self, event) -> bool:  # type: ignore[no-untyped-def]
+        if self._drag_overtaken():
+            return True
         drag, self.drag = self.drag, None
         if drag is None:
             return False
@@ -582,9 +614,7 @@ class Interaction:
         shift = bool(event.modifiers() & Qt.KeyboardModifier.ShiftModifier)
         if k == Qt.Key.Key_Escape:
             if self.drag is not None:
-                self.drag = None
-                self._clear_invalid()
-                self.controller.cancel_preview()
+                self.cancel_drag()
             elif self.tool != "select":
                 self.set_tool("select")
             else:
@@ -601,6 +631,8 @@ class Interaction:
         sel = self.scene.selection
         if sel is None:
             return False
+        if self.drag is not None and k not in MODIFIER_KEYS:
+            self.cancel_drag()  # a key that edits ends the drag first (it edits the plan before it)
         if sel[0] == "tug":
             steps = {
                 Qt.Key.Key_Plus: 0.01,
@@ -740,6 +772,7 @@ class Interaction:
         c = self.controller
         if sel is None:
             return
+        self.cancel_drag()  # deleting what is being dragged: the drag ends first
         try:
             if sel[0] in ("site", "site_point"):
                 self.site.delete(sel)
