@@ -58,7 +58,7 @@ class SeedRun:
         return f"exit {rc}"
 
 
-def run_seed(seed: int, actions: int, check_every: int, out: Path) -> SeedRun:
+def run_seed(seed: int, actions: int, check_every: int, out: Path, weights: str = "") -> SeedRun:
     trail = out / f"trail_seed{seed}.txt"
     cmd = [
         sys.executable,
@@ -74,6 +74,7 @@ def run_seed(seed: int, actions: int, check_every: int, out: Path) -> SeedRun:
         str(check_every),
         "--trail",
         str(trail),
+        *(["--weights", weights] if weights else []),
     ]
     start = time.perf_counter()
     env = {
@@ -117,6 +118,7 @@ def main() -> int:
     p.add_argument("--check-every", type=int, default=100)
     p.add_argument("--jobs", type=int, default=1, help="seeds run at the same time")
     p.add_argument("--out", type=Path, default=None, help="folder for the trails")
+    p.add_argument("--weights", default="", help="e.g. act_table=40 (see tests/fuzz/monkey.py)")
     args = p.parse_args()
     out = args.out or Path(tempfile.mkdtemp(prefix="towboard-monkey-runs-"))
     out.mkdir(parents=True, exist_ok=True)
@@ -128,7 +130,7 @@ def main() -> int:
     runs: list[SeedRun] = []
 
     def one(seed: int) -> SeedRun:
-        r = run_seed(seed, args.actions, args.check_every, out)
+        r = run_seed(seed, args.actions, args.check_every, out, args.weights)
         crash = r.crash_words() if r.crashed else "-"
         rate = r.actions / r.seconds if r.seconds else 0.0
         print(

@@ -711,9 +711,11 @@ class Monkey:
         view.setFocus()
         view.setCurrentIndex(index)
         view.edit(index)
-        editor = QApplication.focusWidget()
-        if editor is None or editor is view:
+        editor = _cell_editor(view)
+        if editor is None:
+            self.note("  (no editor opened)")
             return
+        editor.setFocus()
         if isinstance(editor, QComboBox) and editor.count():
             i = self.rng.randrange(editor.count())
             self.note(f"  choose {editor.itemText(i)[:30]!r}")
@@ -804,6 +806,14 @@ class Monkey:
         ("act_list", 2),
     )
 
+    def reweigh(self, spec: str) -> None:
+        """Weights as ``name=weight,...`` (the others keep theirs)."""
+        given = {k: float(v) for k, v in (part.split("=") for part in spec.split(",") if part)}
+        unknown = set(given) - {n for n, _ in self.ACTIONS}
+        if unknown:
+            raise ValueError(f"no such action: {', '.join(sorted(unknown))}")
+        self.ACTIONS = tuple((n, given.get(n, w)) for n, w in self.ACTIONS)
+
     def step(self) -> None:
         names = [n for n, _ in self.ACTIONS]
         weights = [w for _, w in self.ACTIONS]
@@ -872,6 +882,18 @@ def _dialog_classes() -> list[type]:
     return found
 
 
+def _cell_editor(view: QAbstractItemView) -> QWidget | None:
+    """The cell editor open in ``view`` (a child of its viewport), or None."""
+    focus = QApplication.focusWidget()
+    if focus is not None and focus is not view and view.viewport().isAncestorOf(focus):
+        return focus
+    kinds = (QLineEdit, QComboBox, QAbstractSpinBox)
+    for w in view.viewport().findChildren(QWidget):
+        if isinstance(w, kinds) and w.isVisible() and w.parentWidget() is view.viewport():
+            return w
+    return None
+
+
 def _in_item_view(w: QWidget) -> bool:
     """True for a cell editor or a spin box's or combo box's own line edit."""
     parent = w.parentWidget()
@@ -925,6 +947,11 @@ def main(argv: list[str] | None = None) -> int:
     p.add_argument("--check-every", type=int, default=50)
     p.add_argument("--trail", type=Path, help="each action written here before it is done")
     p.add_argument("--sample", type=int, default=None, help="which sample (default: by seed)")
+    p.add_argument(
+        "--weights",
+        default="",
+        help="change how often an action comes, e.g. act_table=40,act_list=10",
+    )
     args = p.parse_args(argv)
     if args.trail is not None:
         args.trail = args.trail.resolve()  # before the run moves into its own folder
@@ -943,6 +970,8 @@ def main(argv: list[str] | None = None) -> int:
             w = new_window(sample)
             keep = args.trail.resolve().parent if args.trail else None
             monkey = Monkey(w, args.seed, Path(tmp) / "files", trail, keep)
+            if args.weights:
+                monkey.reweigh(args.weights)
             outcome = monkey.run(args.actions, args.check_every)
             w.controller.undo_stack.setClean()
             w.close()
