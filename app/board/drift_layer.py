@@ -93,7 +93,7 @@ class DriftLayer(QObject):
                 self._set_pending_look(True)
             # The pause counts from when this move has been drawn, not from now: a slow
             # repaint must not pass for a pause of the hand.
-            QTimer.singleShot(0, self._timer.start)
+            QTimer.singleShot(0, guarded(self._timer.start))  # Qt's own slot, as it is
             return
         self._timer.stop()
         self._update_now()

@@ -127,17 +127,19 @@ def _sector_entries(scene: BoardScene, menu: QMenu, tug: str) -> None:
     for half in (15, 30, 45, 60, 90):
         sub.addAction(
             f"{half}° either side of the lead now",
-            lambda h=half: put(sectors.about_lead(placement, h), what),
+            guarded(lambda h=half: put(sectors.about_lead(placement, h), what)),
         )
-    sub.addAction("Whole circle", lambda: put(sectors.whole_circle(placement), what))
-    sub.addAction("None: keep the lead as set", lambda: put(placement.with_sector(None), what))
+    sub.addAction("Whole circle", guarded(lambda: put(sectors.whole_circle(placement), what)))
+    sub.addAction(
+        "None: keep the lead as set", guarded(lambda: put(placement.with_sector(None), what))
+    )
     if at_push:
         act = menu.addAction(f"{tug} made fast (push-pull)")
         act.setCheckable(True)
         act.setChecked(placement.push_pull)
         act.setToolTip("Made fast at the push point, the tug can push or pull")
         act.toggled.connect(
-            lambda on: put(sectors.with_push_pull(placement, True, on), f"{tug} push-pull")
+            guarded(lambda on: put(sectors.with_push_pull(placement, True, on), f"{tug} push-pull"))
         )
 
 

@@ -25,6 +25,7 @@ from PySide6.QtWidgets import QGraphicsItem, QStyleOptionGraphicsItem, QWidget
 from shiboken6 import isValid
 
 from app.board.items import CACHE, GUIDE, IGNORES, ROLE
+from app.guard import guarded
 from app.paint import style
 from app.paint.shapes import TUG_LENGTH_M
 from core.frames import angle_to_bearing, wrap_pi
@@ -87,12 +88,15 @@ class SectorWedge(QGraphicsItem):
             self.apex.x() + self.radius * math.cos(a), self.apex.y() + self.radius * math.sin(a)
         )
 
+    @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
         return self._rect
 
+    @guarded(default=QPainterPath)
     def shape(self) -> QPainterPath:
         return QPainterPath()  # never in the way of a click, nor of a label's placing
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -124,15 +128,18 @@ class SectorKnob(QGraphicsItem):
             f"Drag to move this limit of {tug}'s working sector (whole degrees; Shift: 5 degrees)"
         )
 
+    @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
         s = KNOB_PX / 2 + 1
         return QRectF(-s, -s, 2 * s, 2 * s)
 
+    @guarded(default=QPainterPath)
     def shape(self) -> QPainterPath:
         p = QPainterPath()
         p.addEllipse(QPointF(0, 0), KNOB_PX / 2 + 2, KNOB_PX / 2 + 2)
         return p
 
+    @guarded
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
@@ -173,6 +180,7 @@ class SectorLayer:
         scene.selection_changed.connect(self.refresh)
 
     # -- drawing --------------------------------------------------------------------------
+    @guarded
     def refresh(self, _scene: object = None) -> None:
         scene = self.scene
         seen: set[str] = set()

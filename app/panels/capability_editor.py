@@ -26,6 +26,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app.guard import guarded
 from app.numbers import message
 from app.panels.capability_polar import CapabilityPolar
 from app.panels.capability_table import CapabilityModel
@@ -73,7 +74,7 @@ class CapabilityEditor(QWidget):
         ways.addWidget(QLabel("Works:"))
         for way in WAYS:
             box = QCheckBox(WAY_WORDS[way])
-            box.toggled.connect(lambda on, w=way: self._way_toggled(w, on))
+            box.toggled.connect(guarded(lambda on, w=way: self._way_toggled(w, on)))
             self.boxes[way] = box
             ways.addWidget(box)
         ways.addStretch(1)
@@ -125,6 +126,7 @@ class CapabilityEditor(QWidget):
         if self.placeholder and capability is not None:
             self._show(capability)
 
+    @guarded
     def reset_to_defaults(self) -> None:
         cap = self.defaults_of()
         if cap is None:
@@ -158,6 +160,7 @@ class CapabilityEditor(QWidget):
         return Capability(c["line"], c["push"], c["push_pull"], placeholder=False, source=source)
 
     # -- editing ------------------------------------------------------------------------
+    @guarded
     def say(self, text: str) -> None:
         self.error.setText(text)
         self.error.setVisible(bool(text))
@@ -167,6 +170,7 @@ class CapabilityEditor(QWidget):
         self._touched = True
         self.placeholder = False
 
+    @guarded
     def _table_changed(self) -> None:
         if self._loading:
             return
@@ -187,6 +191,7 @@ class CapabilityEditor(QWidget):
             box.setChecked(not on)
             box.blockSignals(False)
 
+    @guarded
     def _add(self) -> None:
         try:
             row = self.model.add_row()
@@ -195,12 +200,14 @@ class CapabilityEditor(QWidget):
             return
         self.table.selectRow(row)
 
+    @guarded
     def _remove(self) -> None:
         try:
             self.model.remove_row(self.table.currentIndex().row())
         except TowboardError as e:
             self.say(f"Not changed: {message(e, self.units)}")
 
+    @guarded
     def _source_edited(self, _text: str) -> None:
         self._own()
         self._redraw()

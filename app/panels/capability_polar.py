@@ -18,6 +18,7 @@ from PySide6.QtCore import QPointF, QRectF, QSize, Qt
 from PySide6.QtGui import QColor, QPainter, QPainterPath, QPaintEvent, QPen, QPolygonF
 from PySide6.QtWidgets import QSizePolicy, QWidget
 
+from app.guard import guarded
 from app.paint import style
 from app.paint.shapes import tug_outline
 from core.model.capability import WAY_WORDS, WAYS, Capability, CapabilityCurve, Way
@@ -48,6 +49,7 @@ class CapabilityPolar(QWidget):
             "of working. Rings every 25 % of the bollard pull."
         )
 
+    @guarded(default=QSize)
     def sizeHint(self) -> QSize:
         return QSize(260, 280)
 
@@ -82,6 +84,7 @@ class CapabilityPolar(QWidget):
         return QPointF(centre.x() + r * math.sin(a), centre.y() - r * math.cos(a))
 
     # -- painting -------------------------------------------------------------------
+    @guarded
     def paintEvent(self, event: QPaintEvent) -> None:
         p = QPainter(self)
         try:

@@ -18,6 +18,7 @@ import numpy as np
 from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt, Signal
 from PySide6.QtGui import QColor
 
+from app.guard import guarded
 from app.numbers import message, parse_value
 from core.errors import InputError, TowboardError
 from core.model import rules
@@ -138,12 +139,15 @@ class CapabilityModel(QAbstractTableModel):
         self.changed.emit()
 
     # -- the Qt model -----------------------------------------------------------------
+    @guarded(default=0)
     def rowCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else len(self.rows)
 
+    @guarded(default=0)
     def columnCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
         return 0 if parent.isValid() else 1 + len(WAYS)
 
+    @guarded
     def headerData(  # type: ignore[no-untyped-def]
         self, section: int, orientation: Qt.Orientation, role: int = Qt.ItemDataRole.DisplayRole
     ):
@@ -168,6 +172,7 @@ class CapabilityModel(QAbstractTableModel):
             traceback.print_exc()
         return None
 
+    @guarded(default=Qt.ItemFlag.NoItemFlags)
     def flags(self, index: Index) -> Qt.ItemFlag:
         base = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
         if not index.isValid():
@@ -176,6 +181,7 @@ class CapabilityModel(QAbstractTableModel):
             return base | Qt.ItemFlag.ItemIsEditable
         return Qt.ItemFlag.ItemIsSelectable
 
+    @guarded
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
         try:
             return self._data(index, role)
@@ -200,6 +206,7 @@ class CapabilityModel(QAbstractTableModel):
             return QColor("#9aa3ad")
         return None
 
+    @guarded(default=False)
     def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
         if role != Qt.ItemDataRole.EditRole or not index.isValid():
             return False

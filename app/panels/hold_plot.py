@@ -380,7 +380,7 @@ class HoldLimitsPanel(QWidget):
             "A hold stage: the highest wind (from each direction), or the highest current "
             "(setting towards each direction, the wind as planned), the tugs can hold"
         )
-        self.flow_box.currentIndexChanged.connect(lambda _i: self.update_now(coarse=False))
+        self.flow_box.currentIndexChanged.connect(guarded(lambda _i: self.update_now(coarse=False)))
         self.flow_row = QWidget()
         row = QHBoxLayout(self.flow_row)
         row.setContentsMargins(0, 0, 0, 0)

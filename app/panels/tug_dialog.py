@@ -81,6 +81,7 @@ class TugDialog(QDialog):
         except (TowboardError, ValueError):
             return None
 
+    @guarded
     def _form_edited(self) -> None:
         self.capability_editor.follow_defaults(self._type_defaults())
 
