@@ -96,10 +96,12 @@ def test_a_drag_past_the_other_edge_stops_at_no_width(window, qtbot) -> None:
 
 
 def test_an_error_in_a_drag_changes_nothing_and_is_said(window, qtbot, monkeypatch) -> None:
+    from app.guard import REPORTER
+
     c = window.controller
     before = c.project
     said: list[str] = []
-    c.message.connect(said.append)
+    REPORTER.said.connect(said.append)  # the board's guard says a fault there
     _select(qtbot, window, "Gannet")
 
     def broken(self, drag, pos, coarse):  # type: ignore[no-untyped-def]
@@ -108,9 +110,14 @@ def test_an_error_in_a_drag_changes_nothing_and_is_said(window, qtbot, monkeypat
     monkeypatch.setattr(SectorLayer, "move", broken)
     vp = window.view.viewport()
     at = _knob_px(window, "Gannet", "high")
-    qtbot.mousePress(vp, Qt.MouseButton.LeftButton, pos=at)
-    move_with_button(window.view, at + type(at)(15, 15))
-    qtbot.mouseRelease(vp, Qt.MouseButton.LeftButton)
+    try:
+        with qtbot.capture_exceptions() as faults:  # a fault also reaches sys.excepthook
+            qtbot.mousePress(vp, Qt.MouseButton.LeftButton, pos=at)
+            move_with_button(window.view, at + type(at)(15, 15))
+            qtbot.mouseRelease(vp, Qt.MouseButton.LeftButton)
+    finally:
+        REPORTER.said.disconnect(said.append)
+    assert [str(f[1]) for f in faults] == ["broken on purpose"]
     assert any("broken on purpose" in s for s in said)
     assert c.project == before and c.undo_stack.count() == 0
 
