@@ -237,13 +237,14 @@ def _same_signature(
     kwargs = "{" + ", ".join(f"{n!r}: {n}" for n in kw) + "}"
     if starstar:
         kwargs = f"{{**{kwargs}, **{starstar}}}"
+    call = ", ".join([*spread, *(f"{n}={n}" for n in kw), *([f"**{starstar}"] if starstar else [])])
+    # the call is written out (no tuple or dict made on the way in: paint() is hot)
     source = (
         f"def guard({', '.join(head)}):\n"
-        f"    _guarded_a_, _guarded_k_ = {args}, {kwargs}\n"
         "    try:\n"
-        "        return _guarded_fn_(*_guarded_a_, **_guarded_k_)\n"
+        f"        return _guarded_fn_({call})\n"
         "    except Exception as _guarded_e_:\n"
-        "        return _guarded_fail_(_guarded_a_, _guarded_k_, _guarded_e_)\n"
+        f"        return _guarded_fail_({args}, {kwargs}, _guarded_e_)\n"
     )
     exec(source, env)
     return env["guard"]  # type: ignore[no-any-return]
