@@ -26,6 +26,9 @@ FITTING_TYPES = ("bitt", "bollard", "fairlead", "chock", "pushing pad")
 #: pontoons, box-shaped modules); "ship" uses the Clarke, Gedling and Hine regressions
 #: for ship-shaped hulls. Both take the surge added mass from Soding's estimate.
 ADDED_MASS_METHODS = ("sections", "ship")
+#: How near the outline a fitting is taken to lie on it, m (well under the file's precision
+#: of 12 significant digits on a hull of a few hundred metres, far under any drawing's).
+ON_OUTLINE_M = 1e-9
 
 
 @dataclass(frozen=True, slots=True)
@@ -286,7 +289,10 @@ class Hull:
 
     def _snap(self, x: float, y: float) -> tuple[float, float]:
         p = self.geometry.nearest(x, y)
-        return (p.x, p.y) if p.distance > 0 else (x, y)
+        # Within a nanometre the point is on the outline already: a snapped point written
+        # to the file's 12 significant digits lands a hair off a slanted edge, and snapping
+        # it again on load would change its last digits at every save.
+        return (p.x, p.y) if p.distance > ON_OUTLINE_M else (x, y)
 
     # -- derived values -------------------------------------------------------------
     @property
