@@ -433,6 +433,7 @@ class ConditionsPanel(QWidget):
         e.setText("" if v is None else f"{self._from_si(f, v):.6g}")
         e.blockSignals(False)
 
+    @guarded
     def _set_centre_choice(self) -> None:
         c = self.conditions()
         key = self.centre_choice.currentData()

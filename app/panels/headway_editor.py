@@ -24,6 +24,7 @@ from PySide6.QtWidgets import (
 )
 
 from app import numbers
+from app.guard import guarded
 from core.errors import InputError
 from core.model import rules
 from core.model.headway import HeadwayTable, placeholder_headway
@@ -103,12 +104,14 @@ class HeadwayEditor(QGroupBox):
         """Whether any row differs from what was loaded."""
         return self._cells() != self._texts
 
+    @guarded
     def _show_note(self) -> None:
         placeholder = self._loaded.placeholder and not self.edited()
         self.note.setText(PLACEHOLDER_NOTE if placeholder else OWN_NOTE)
         self.note.setStyleSheet("color: #8d5a00;" if placeholder else "color: #455a64;")
 
     # -- editing ------------------------------------------------------------------------
+    @guarded
     def add_row(self) -> None:
         """A new row below the last, a knot faster, with the last row's share."""
         rows = self._cells()
@@ -123,6 +126,7 @@ class HeadwayEditor(QGroupBox):
         self._append(speed, share)
         self._show_note()
 
+    @guarded
     def remove_row(self) -> None:
         """Take out the selected row (else the last); one row always stays."""
         if self.table.rowCount() <= 1:
