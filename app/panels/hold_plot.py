@@ -469,11 +469,7 @@ class HoldLimitsPanel(QWidget):
                 self.caption.setText("")
                 return
         self.limits = lim
-        msg = ""
-        if not lim.holds_current:
-            msg = "The tugs as set cannot hold the current alone (only some winds help)."
-        elif float(np.min(lim.all_tugs_ms)) <= 0:
-            msg = "From some directions the tugs as set cannot hold any wind."
+        msg = held_words(lim, "wind")
         self.warning.setText(msg)
         self.plot.set_data(lim, stage, units, msg, coarse, lost_curve)
         self.caption.setText(summary(lim, stage, units))
@@ -491,11 +487,7 @@ class HoldLimitsPanel(QWidget):
             self.caption.setText("")
             return
         self.limits = lim
-        msg = ""
-        if not lim.holds_current:
-            msg = "The tugs as set cannot hold the wind alone (only some currents help)."
-        elif float(np.min(lim.all_tugs_ms)) <= 0:
-            msg = "From some directions the tugs cannot hold any current."
+        msg = held_words(lim, "current")
         self.warning.setText(msg)
         self.plot.set_data(lim, stage, units, msg, flow="current")
         self.caption.setText(current_summary(lim, stage, units))
@@ -542,6 +534,17 @@ EXPLAIN = (
     "sector (the lead as set where it has none). Speeds are in the same "
     "measure as the stage's wind: the mean at its stated height, with its gust factor."
 )
+
+
+def held_words(lim: HoldLimits, flow: Flow) -> str:
+    """What the plot cannot show by itself: the other flow is more than the tugs hold
+    alone, or from some directions they hold none of ``flow``; else nothing."""
+    other = "current" if flow == "wind" else "wind"
+    if not lim.holds_current:  # the flow held as set (the current for a wind sweep)
+        return f"The tugs as set cannot hold the {other} alone (only some {flow}s help)."
+    if float(np.min(lim.all_tugs_ms)) <= 0:
+        return f"From some directions the tugs as set cannot hold any {flow}."
+    return ""
 
 
 def _speed(v: float, units: DisplayUnits, flow: Flow = "wind") -> str:
