@@ -22,16 +22,22 @@ Everything on screen reads :class:`Controller` and writes back through it:
   the stage shown: the stage result's own, or during a drag the light part of it
   (:func:`core.analysis.stage.body_balance`, or the drag's fast path, which the tests
   hold equal to it).
+- ``controller.follow(slot, owner, reads=None)`` is how a view listens: ``slot`` runs on
+  every change, except during a drag's mouse moves when ``owner`` (a widget) is not on
+  screen (a dock behind another's tab) or ``reads(controller)`` (what the view shows,
+  as a tuple of values) is what it was; the drag's end is a change like any other, so
+  every view is up to date when the mouse is let go.
 """
 
 from __future__ import annotations
 
-from collections.abc import Callable
-from dataclasses import dataclass, replace
+from collections.abc import Callable, Hashable
+from dataclasses import dataclass, fields, replace
 from pathlib import Path
 
 from PySide6.QtCore import QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
+from PySide6.QtWidgets import QWidget
 
 from app.guard import guarded
 from core.analysis.stage import StageResult, body_balance, stage_result
@@ -99,6 +105,49 @@ class ProjectCommand(QUndoCommand):
         return True
 
 
+def on_screen(widget: QWidget) -> bool:
+    """Whether any of ``widget`` can be seen (a dock behind another's tab is "visible" to
+    Qt but kept off screen, so its visible region is empty)."""
+    return widget.isVisible() and not widget.visibleRegion().isEmpty()
+
+
+class _Follower(QObject):
+    """Runs one view's slot on the controller's changes (see :meth:`Controller.follow`).
+
+    A child of the view's owner, so the connection goes when the view goes.
+    """
+
+    def __init__(
+        self,
+        controller: Controller,
+        slot: Callable[[], object],
+        owner: QObject,
+        reads: Callable[[Controller], Hashable] | None,
+    ) -> None:
+        super().__init__(owner)
+        self._controller = controller
+        self._slot = slot
+        self._widget = owner if isinstance(owner, QWidget) else None
+        self._reads = reads
+        self._shown: Hashable = None
+        self._behind = False  # a change was left out while the view was off screen
+        controller.changed.connect(self.changed)
+
+    def changed(self) -> None:
+        c = self._controller
+        if c.previewing:
+            if self._widget is not None and not on_screen(self._widget):
+                self._behind = True
+                return
+            unchanged = self._reads is not None and self._reads(c) == self._shown
+            if unchanged and not self._behind:
+                return
+        self._behind = False
+        if self._reads is not None:
+            self._shown = self._reads(c)
+        self._slot()
+
+
 class Controller(QObject):
     """Owns the project value, the stage shown, the file path and the undo stack."""
 
@@ -156,6 +205,37 @@ class Controller(QObject):
     @property
     def previewing(self) -> bool:
         return self._preview_base is not None
+
+    # -- views that listen -------------------------------------------------------------
+    def follow(
+        self,
+        slot: Callable[[], object],
+        owner: QObject,
+        reads: Callable[[Controller], Hashable] | None = None,
+    ) -> None:
+        """Run ``slot`` on every change; during a drag's mouse moves only when it shows.
+
+        ``owner`` is the view (its lifetime bounds the connection); while a drag previews,
+        a widget ``owner`` that is not on screen is left alone, and so is a view whose
+        ``reads(controller)`` (what it shows, compared with ==) is as it was. Each is
+        brought up to date by the drag's end, which is a change like any other.
+        """
+        _Follower(self, slot, owner, reads)
+
+    def all_but_placements(self) -> tuple[object, ...]:
+        """The plan less the tugs' placements in the stage shown, and that stage's index:
+        what a view reads that no tug drag changes (for ``follow``'s ``reads``). Values
+        compare by identity first, so this costs a few pointer comparisons."""
+        p = self._project
+        i = self._stage_index
+        parts: list[object] = [i]
+        parts += [getattr(p, f.name) for f in fields(p) if f.name[0] != "_" and f.name != "stages"]
+        for k, s in enumerate(p.stages):
+            if k == i:
+                parts.append(tuple(getattr(s, f.name) for f in fields(s) if f.name != "placements"))
+            else:
+                parts.append(s)
+        return tuple(parts)
 
     # -- the stage's result ---------------------------------------------------------
     def stage_result(self) -> StageResult | None:

@@ -14,6 +14,7 @@ from PySide6.QtCore import QPointF, QRectF, QSizeF, Qt, QTimer
 from PySide6.QtGui import QPainter, QPixmap, QTransform
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsView, QWidget
 
+from app.board.cache import fit_pixmap_cache
 from app.board.items import GUIDE, Label, Leader
 from app.board.overlay import draw_north_arrow, draw_scale_bar
 from app.board.placement import device_rect, free_corner, place_labels
@@ -209,6 +210,7 @@ class BoardView(QGraphicsView):
         place_labels(
             self.board, self.viewportTransform(), self.viewport().size(), self.overlay_rects()
         )
+        fit_pixmap_cache(self)  # the zoom, the size or the items changed: room for their pictures
 
     @guarded
     def _controller_changed(self) -> None:

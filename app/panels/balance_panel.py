@@ -85,7 +85,7 @@ class BalancePanel(QWidget):
         layout.addWidget(note)
         layout.addStretch(1)
         self.balance: Balance | None = None
-        controller.changed.connect(self.refresh)
+        controller.follow(self.refresh, self)
         self.refresh()
 
     def set_stale(self, why: str | None) -> None:

@@ -222,7 +222,7 @@ class ConditionsPanel(QWidget):
         outer.setContentsMargins(0, 0, 0, 0)
         outer.addWidget(scroll)
         self._key: object = None
-        controller.changed.connect(self.refresh)
+        controller.follow(self.refresh, self)
         self.refresh()
 
     def _group(self, title: str, fields: tuple[Field, ...]) -> QGroupBox:

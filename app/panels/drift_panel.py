@@ -130,7 +130,7 @@ class DriftPanel(QWidget):
         outer = QVBoxLayout(self)
         outer.setContentsMargins(0, 0, 0, 0)
         outer.addWidget(scroll)
-        controller.changed.connect(self.refresh_inputs)
+        controller.follow(self.refresh_inputs, self, Controller.all_but_placements)
         self.refresh_inputs()
         self.show_result(None, "", enabled=False)
 

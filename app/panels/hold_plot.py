@@ -31,7 +31,7 @@ from PySide6.QtGui import (
 )
 from PySide6.QtWidgets import QComboBox, QHBoxLayout, QLabel, QSizePolicy, QVBoxLayout, QWidget
 
-from app.controller import Controller
+from app.controller import Controller, on_screen
 from app.guard import guarded
 from app.paint import style
 from app.paint.rings import current_scale, polar_scale
@@ -409,7 +409,7 @@ class HoldLimitsPanel(QWidget):
     def _changed(self) -> None:
         if self.controller.previewing:
             self._timer.stop()
-            if self.follow_drag and self.isVisible():
+            if self.follow_drag and on_screen(self):
                 self.update_now(coarse=True)
         else:
             self._timer.start()

@@ -131,7 +131,7 @@ class HullPanel(QWidget):
         chooser.addRow("Hull", self.choose)
         layout.addLayout(chooser)
         layout.addWidget(self.tabs, 1)
-        controller.changed.connect(self.refresh)
+        controller.follow(self.refresh, self, Controller.all_but_placements)
         self.refresh()
 
     def show_hull(self, name: str | None) -> None:

@@ -193,7 +193,7 @@ class SitePanel(QWidget):
         layout.addWidget(self.title)
         layout.addWidget(self.list, 1)
         layout.addLayout(row)
-        controller.changed.connect(self.fill)
+        controller.follow(self.fill, self, Controller.all_but_placements)
         self.fill()
 
     @guarded

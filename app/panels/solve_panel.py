@@ -199,7 +199,7 @@ class SolvePanel(QWidget):
         self._timer.setInterval(150)
         self._timer.timeout.connect(self.recheck)
         self._shown_goal: object = None
-        controller.changed.connect(self._changed)
+        controller.follow(self._changed, self)
         self._sync_goal()
         self.recheck()
 

@@ -129,7 +129,7 @@ class StageDetails(QWidget):
         layout.addWidget(where)
         layout.addWidget(self.poses)
         layout.addStretch(1)
-        controller.changed.connect(self._changed)
+        controller.follow(self._changed, self, Controller.all_but_placements)
         self.fill()
 
     def _swing_box(self) -> QGroupBox:

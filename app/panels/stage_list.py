@@ -57,6 +57,12 @@ def row_mark(result: StageResult | None) -> str:
     return "…" if result is None else MARKS[result.verdict.status]
 
 
+def _shown_rows(c: Controller) -> tuple[object, ...]:
+    """What the list shows that a tug drag could change: nothing but whether the verdicts
+    are those of the plan on screen (during a drag they are not)."""
+    return (c.all_but_placements(), c.previewing)
+
+
 def row_text(index: int, result: StageResult | None, name: str, kind: str) -> str:
     return f"{index + 1}. {name}  [{kind}]\n{row_mark(result)}"
 
@@ -138,7 +144,7 @@ class StageList(QWidget):
         self._timer.setSingleShot(True)
         self._timer.setInterval(CHECK_DELAY_MS)
         self._timer.timeout.connect(self.recheck)
-        controller.changed.connect(self._project_changed)
+        controller.follow(self._project_changed, self, _shown_rows)
         controller.stage_changed.connect(self._stage_shown)
         self.fill()
         self.recheck()

@@ -36,7 +36,7 @@ class UnitsPanel(QWidget):
         note.setWordWrap(True)
         note.setStyleSheet("color: #455a64;")
         form.addRow(note)
-        controller.changed.connect(self.refresh)
+        controller.follow(self.refresh, self, Controller.all_but_placements)
         self.refresh()
 
     @guarded

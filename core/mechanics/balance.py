@@ -466,22 +466,28 @@ def analyse_layout(
         scale += math.hypot(*ld.force)
     eq = equivalent_of(net, moment, c, scale, body.length)
     cog = body.centre_of_gravity
+    # plain floats once for all tugs (the same values float() of each element gives)
+    pull_l, usable_l, rated_l = pulls.tolist(), layout.usable_n.tolist(), layout.rated_n.tolist()
+    force_l, moment_l = forces.tolist(), tug_m.tolist()
+    dirs, pos_l, push_l = (
+        layout.directions.tolist(),
+        layout.positions.tolist(),
+        layout.is_push.tolist(),
+    )
     shares = tuple(
         TugShare(
             tug=p.tug,
             hull=p.hull,
             point=p.point,
-            mode="push" if layout.is_push[i] else "line",
+            mode="push" if push_l[i] else "line",
             setting=p.setting,
-            pull_n=float(pulls[i]),
-            usable_n=float(layout.usable_n[i]),
-            rated_n=float(layout.rated_n[i]),
-            force=(float(forces[i, 0]), float(forces[i, 1])),
-            moment_centroid_nm=float(tug_m[i]),
-            lead_bearing_deg=angle_to_bearing(
-                math.atan2(layout.directions[i, 1], layout.directions[i, 0])
-            ),
-            position=(float(layout.positions[i, 0]), float(layout.positions[i, 1])),
+            pull_n=pull_l[i],
+            usable_n=usable_l[i],
+            rated_n=rated_l[i],
+            force=(force_l[i][0], force_l[i][1]),
+            moment_centroid_nm=moment_l[i],
+            lead_bearing_deg=angle_to_bearing(math.atan2(dirs[i][1], dirs[i][0])),
+            position=(pos_l[i][0], pos_l[i][1]),
         )
         for i, p in enumerate(layout.placements)
     )

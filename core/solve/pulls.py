@@ -49,6 +49,7 @@ from core.notices import Notice
 from core.solve.lp import solve_lp
 from core.solve.polytope import WrenchPolygons, zonotope_normals
 from core.solve.reach import Reach
+from core.solve.zonotope import FleetZonotope, HalfSpaces
 from core.units import DisplayUnits
 
 #: The reach of a fleet with working sectors is first found with polygons this many
@@ -364,6 +365,8 @@ class _Scaled:
         self.col_tug = problem.column_tug
         self.sectors = bool(self.shared) and problem.reach is not None
         self._normal: np.ndarray | None = None  # the exit face's normal, scaled rows
+        #: The zonotope's half-spaces when worked out already (the tug lost check's).
+        self.halfspaces: HalfSpaces | None = None
 
     def coarse(self) -> _Scaled:
         """The problem with coarser sectors, in the same scaled units."""
@@ -490,9 +493,13 @@ class _Scaled:
         return g
 
     def _ray_exit(self, target: np.ndarray) -> float:
-        normals = zonotope_normals(self.gen)  # (P, 3), unit
-        proj = normals @ self.gen  # (P, k)
-        support = np.maximum(proj, 0.0).sum(axis=1)  # (P,)
+        hs = self.halfspaces
+        if hs is not None:
+            normals, support, proj = hs.normals, hs.support, None
+        else:
+            normals = zonotope_normals(self.gen)  # (P, 3), unit
+            proj = normals @ self.gen  # (P, k)
+            support = np.maximum(proj, 0.0).sum(axis=1)  # (P,)
         along = normals @ target  # (P,)
         self._exit_facet = None
         size = float(np.linalg.norm(target))
@@ -506,7 +513,8 @@ class _Scaled:
             return math.inf
         ratios = support[out] / along[out]
         j = int(out[int(np.argmin(ratios))])
-        self._exit_facet = proj[j]  # (k,) each column's reach across the exit face
+        # (k,) each column's reach across the exit face
+        self._exit_facet = proj[j] if proj is not None else hs.across(j)  # type: ignore[union-attr]
         return float(ratios.min())
 
     def on_exit_face(self, target: np.ndarray, t: float) -> np.ndarray | None:
@@ -632,10 +640,19 @@ def _spread(sc: _Scaled, target: np.ndarray) -> np.ndarray | None:
     return g
 
 
-def solve_pulls(problem: PullsProblem) -> PullsResult:
+def solve_pulls(
+    problem: PullsProblem, *, lost_from: tuple[FleetZonotope, int] | None = None
+) -> PullsResult:
     """The pulls that meet the problem's goal, spreading the work; never raises on an
-    impossible goal (the result is the closest achievable state, ``feasible`` False)."""
+    impossible goal (the result is the closest achievable state, ``feasible`` False).
+
+    ``lost_from`` (the tug lost check's): the whole fleet's zonotope and the column lost
+    to make ``problem``, whose half-spaces then serve (core.solve.zonotope).
+    """
     sc = _Scaled(problem)
+    if lost_from is not None and not sc.shared:
+        zonotope, lost = lost_from
+        sc.halfspaces = zonotope.without(lost, sc.u_ref)
     required = problem.required
     target = sc.scale(required)
     if sc.k == 0 or not np.any(np.abs(target) > 1e-15):
@@ -743,6 +760,9 @@ def _direction_at(sets: TugSets, row: int, lead: float) -> np.ndarray:
 # -- the tug lost check ---------------------------------------------------------------
 
 
+#: From this many tugs on (every lead as set), the tug lost check's solves share the
+#: fleet's half-spaces (below it, each solve making its own costs no more).
+ZONOTOPE_FROM = 8
 #: "As set", the goal counts as still met when what is missing is below this share of
 #: the remaining tugs' usable pull (forces), or that times the body's length (moment).
 AS_SET_TOL = 0.01
@@ -821,14 +841,26 @@ def tug_lost_check(problem: PullsProblem) -> TugLostCheck:
     """Solve again without each tug in turn (as re-set), and say what the others give
     as set."""
     full = solve_pulls(problem)
+    zonotope = _fleet_zonotope(problem)
     cases = []
     for i, t in enumerate(problem.tugs):
         as_set = None
         if problem.set_wrench is not None:
             others = problem.set_wrench.sum(axis=1) - problem.set_wrench[:, i]
             as_set = problem.required - others
-        cases.append(TugLostCase(t, solve_pulls(problem.without(t)), as_set))
+        lost_from = None if zonotope is None else (zonotope, i)
+        cases.append(TugLostCase(t, solve_pulls(problem.without(t), lost_from=lost_from), as_set))
     return TugLostCheck(problem, full, tuple(cases))
+
+
+def _fleet_zonotope(problem: PullsProblem) -> FleetZonotope | None:
+    """The fleet's half-spaces once for all the check's solves, when every tug is one
+    column (every lead as set) and the fleet is large enough for it to pay."""
+    sc = _Scaled(problem)
+    if sc.shared or sc.k != len(problem.placements) or sc.k < ZONOTOPE_FROM:
+        return None
+    z = FleetZonotope(sc.gen, sc.u_ref)
+    return z if z.usable else None
 
 
 def shortfall_words(shortfall: np.ndarray, units: DisplayUnits) -> str:

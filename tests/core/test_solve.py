@@ -306,3 +306,38 @@ def test_no_tugs_is_a_shortfall_not_an_error() -> None:
     r = solve_pulls(pulls_problem(project, stage, body="Barge"))
     assert not r.feasible
     assert r.shortfall[1] < 0  # the wind pushes to port; the tugs would have to pull to starboard
+
+
+@settings(max_examples=40, deadline=None)
+@given(
+    st.lists(LEAD, min_size=9, max_size=14),
+    st.lists(st.floats(20, 80), min_size=14, max_size=14),
+    st.floats(-200, 200),
+    st.floats(-200, 200),
+    st.floats(-3000, 3000),
+)
+def test_tug_lost_check_of_a_large_fleet_matches_linprog(
+    leads_deg: list[float], bps: list[float], fx_t: float, fy_t: float, m_tm: float
+) -> None:
+    # From ZONOTOPE_FROM tugs on, every loss's solve reads the whole fleet's half-spaces
+    # (core.solve.zonotope) instead of making its own: each case must still be HiGHS's
+    # answer for the fleet less that tug, and the solve of that fleet on its own.
+    goal = Goal("force", fx_t * 1e3, fy_t * 1e3, m_tm * 1e4)
+    project, stage = _plan(leads_deg, bps[: len(leads_deg)], goal=goal)
+    problem = pulls_problem(project, stage)
+    check = tug_lost_check(problem)
+    b = _independent_b(stage)
+    u = np.array([bp * TF for bp in bps[: len(leads_deg)]])
+    for i, case in enumerate(check.cases):
+        alone = solve_pulls(problem.without(case.tug))
+        assert case.result.feasible == alone.feasible
+        # the same optimum; the pulls the same to the solvers' rounding (a millionth)
+        assert case.result.max_utilisation == pytest.approx(alone.max_utilisation, rel=1e-9)
+        assert case.result.total_pull_n == pytest.approx(alone.total_pull_n, rel=1e-6)
+        np.testing.assert_allclose(case.result.pulls_n, alone.pulls_n, atol=1e-6 * u.max())
+        keep = np.arange(len(u)) != i
+        t, _total = _linprog_allocation(b[:, keep], u[keep], np.array(goal.target()))
+        if case.result.feasible and not math.isinf(t):
+            assert case.result.max_utilisation == pytest.approx(t, rel=1e-6, abs=1e-8)
+        if t < 1 - 1e-7:
+            assert case.holds
