@@ -133,6 +133,7 @@ class _Follower(QObject):
         self._behind = False  # a change was left out while the view was off screen
         controller.changed.connect(self.changed)
 
+    @guarded(what="bringing a view up to date")
     def changed(self) -> None:
         c = self._controller
         if c.previewing:
