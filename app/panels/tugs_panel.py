@@ -41,13 +41,13 @@ class PointDelegate(QStyledItemDelegate):
 
     @guarded
     def setEditorData(self, editor: QWidget, index: Index) -> None:
-        assert isinstance(editor, QComboBox)
-        editor.setCurrentText(str(index.data(Qt.ItemDataRole.EditRole)))
+        if isinstance(editor, QComboBox):  # the editor createEditor made
+            editor.setCurrentText(str(index.data(Qt.ItemDataRole.EditRole)))
 
     @guarded
     def setModelData(self, editor: QWidget, model, index: Index) -> None:  # type: ignore[no-untyped-def]
-        assert isinstance(editor, QComboBox)
-        model.setData(index, editor.currentText(), Qt.ItemDataRole.EditRole)
+        if isinstance(editor, QComboBox):
+            model.setData(index, editor.currentText(), Qt.ItemDataRole.EditRole)
 
 
 class TugsPanel(QWidget):

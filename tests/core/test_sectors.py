@@ -8,7 +8,7 @@ from dataclasses import replace
 
 import numpy as np
 import pytest
-from hypothesis import given, settings
+from hypothesis import example, given, settings
 from hypothesis import strategies as st
 from scipy.optimize import linprog
 
@@ -373,6 +373,7 @@ def test_removing_a_tug_never_raises_a_limit_and_doubling_pulls_scales(fleet: li
         unique_by=lambda t: t[0],
     )
 )
+@example(pairs=[(0, 70.0, 55.0), (1, 55.0, 55.0)])  # once off by 9e-5 (polygon corners)
 def test_mirror_symmetric_sectors_give_a_mirror_symmetric_plot(pairs: list) -> None:
     port, stbd = ("port bow", "port quarter"), ("stbd bow", "stbd quarter")
     fleet = []
@@ -382,9 +383,11 @@ def test_mirror_symmetric_sectors_give_a_mirror_symmetric_plot(pairs: list) -> N
     project, stage = _plan(fleet)
     lim = hold_limits(hold_limits_problem(project, stage))
     mirror = (-np.arange(360)) % 360
-    # near zero, speeds are rounding (the load factor under the sums' last digits): 0.1 mm/s
-    assert lim.all_tugs_ms == pytest.approx(lim.all_tugs_ms[mirror], rel=1e-7, abs=1e-4)
-    assert lim.worst_lost_ms == pytest.approx(lim.worst_lost_ms[mirror], rel=1e-7, abs=1e-4)
+    # within the sector polygons' own error (1e-3 of the force, issue's tolerance): a sector
+    # and its mirror image are cut into polygons whose corners need not mirror exactly
+    # (hypothesis found 9e-5 at 090 / 270); near zero, 0.1 mm/s of rounding
+    assert lim.all_tugs_ms == pytest.approx(lim.all_tugs_ms[mirror], rel=1e-3, abs=1e-4)
+    assert lim.worst_lost_ms == pytest.approx(lim.worst_lost_ms[mirror], rel=1e-3, abs=1e-4)
 
 
 # -- the tug lost check, two ways ------------------------------------------------------------
