@@ -50,7 +50,7 @@ class HoldPlot:
         u = self.units
         dirs = np.asarray(lim.problem.directions_deg, float)
         all_v = self._speed(np.asarray(lim.all_tugs_ms))
-        lost_v = self._speed(np.asarray(lim.worst_lost_ms)) if len(lim.lost_ms) else None
+        lost_v = self._speed(np.asarray(lim.worst_lost_ms)) if lim.with_lost else None
         c = self.stage.conditions
         planned = u.value(c.wind_speed_ms, "speed")
         max_wind = self.stage.limits.max_wind_ms

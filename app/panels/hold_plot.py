@@ -185,7 +185,7 @@ class HoldPlot(QWidget):
         lost_dirs, lost = None, None
         if self.lost_curve is not None:
             lost_dirs, lost = self.lost_curve
-        elif len(lim.lost_ms):
+        elif lim.with_lost:
             lost_dirs, lost = dirs, np.asarray(lim.worst_lost_ms, float)
         if lost is not None and lost_dirs is not None:
             self._curve(
@@ -499,14 +499,14 @@ def summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
     c = stage.conditions
     at = limit_at(lim, c.wind_from_deg)
     text = f"From {c.wind_from_deg:03.0f}°T: {_speed(at, units)} with all tugs"
-    if len(lim.lost_ms):
+    if lim.with_lost:
         lost = limit_at(lim, c.wind_from_deg, lim.worst_lost_ms)
         text += f", {_speed(lost, units)} with the worst tug lost"
     text += f" (planned {units.show(c.wind_speed_ms, 'speed')}"
     if stage.limits.max_wind_ms is not None:
         text += f", limit {units.show(stage.limits.max_wind_ms, 'speed')}"
     text += f"). Lowest: {_speed(v_all, units)} from {d_all:03.0f}°T"
-    if len(lim.lost_ms):
+    if lim.with_lost:
         d_l, v_l = lim.lowest(lim.worst_lost_ms)
         who = lim.worst_lost_tug[int(np.argmin(lim.worst_lost_ms))]
         text += f"; {_speed(v_l, units)} from {d_l:03.0f}°T losing {who}"

@@ -38,10 +38,12 @@ from core.solve.polytope import (
     Exit,
     Facets,
     WrenchPolygons,
+    clean_faces,
     facets,
     lost_exits,
     ray_exit,
     support_parts,
+    worst_lost_exit,
     zonotope_normals,
 )
 from core.solve.reach import Reach
@@ -209,38 +211,33 @@ def hold_limits_problem(
 
 @dataclass(frozen=True, slots=True, eq=False)
 class HoldLimits:
-    """Limiting speed per direction, m/s, all tugs and with each tug lost.
+    """Limiting speed per direction, m/s, all tugs and with the worst one tug lost.
 
     A speed of 0 means the fleet cannot meet the goal against any flow from that
     direction. When the fleet cannot meet it with the other flow alone
     (``holds_current`` False), the swept flow from some directions may help: there the
-    goal is met only between ``all_tugs_min_ms`` and ``all_tugs_ms``.
+    goal is met only between ``all_tugs_min_ms`` and ``all_tugs_ms``. Without the tug
+    lost sweep (``with_lost`` False) the worst-lost curve is zero and names no tug.
     """
 
     problem: HoldLimitsProblem
     all_tugs_ms: np.ndarray  # (D,)
-    lost_ms: np.ndarray  # (n, D): row i with tug i lost
+    worst_lost_ms: np.ndarray  # (D,) the limit with the worst single tug lost
+    worst_lost_index: np.ndarray  # (D,) which tug's loss sets it (index into problem.tugs)
     holds_current: bool
     all_tugs_min_ms: np.ndarray | None = None  # (D,) below this the fixed load wins (all tugs)
+    with_lost: bool = True
 
     @property
     def flow(self) -> Flow:
         return self.problem.flow
 
     @property
-    def worst_lost_ms(self) -> np.ndarray:
-        """(D,) the limit with the worst single tug lost, per direction."""
-        if not len(self.lost_ms):
-            return np.zeros_like(self.all_tugs_ms)
-        return self.lost_ms.min(axis=0)
-
-    @property
     def worst_lost_tug(self) -> tuple[str, ...]:
-        """(D,) which tug's loss sets the worst-lost limit, per direction."""
-        if not len(self.lost_ms):
+        """(D,) which tug's loss sets the worst-lost limit, per direction ("" without)."""
+        if not self.with_lost:
             return tuple("" for _ in self.all_tugs_ms)
-        idx = self.lost_ms.argmin(axis=0)
-        return tuple(self.problem.tugs[i] for i in idx)
+        return tuple(self.problem.tugs[i] for i in self.worst_lost_index)
 
     def lowest(self, curve: np.ndarray | None = None) -> tuple[float, float]:
         """(direction deg, speed m/s) of the lowest limit of a curve (default: all tugs)."""
@@ -326,13 +323,23 @@ def _refine(
     return out
 
 
-def _lost(sw: _Sweep, every: int = 1) -> np.ndarray:
-    """(n, D') the sweep with each tug lost, on every ``every``-th direction."""
+def _worst_lost(sw: _Sweep, every: int = 1) -> tuple[np.ndarray, np.ndarray]:
+    """The sweep with the worst one tug lost, on every ``every``-th direction: (D',) the
+    load factor and (D',) the tug whose loss sets it.
+
+    Tugs whose loss leaves the start inside a solid set share the fleet's half-spaces
+    (core.solve.polytope.worst_lost_exit: one cut for all of them); on finer polygons the
+    worst tug's exit is walked out to the fine set, and then any other tug whose coarse
+    exit lies below that, since on the fine set it may be the worst. The rest (a loss
+    that leaves the start outside, or flattens the set) are swept one by one.
+    """
     rays = sw.rays[:, ::every]
     n = sw.parts.shape[1]
-    out = np.zeros((n, rays.shape[1]))
+    d = rays.shape[1]
+    worst = np.full(d, np.inf)
+    who = np.zeros(d, dtype=int)
     if not n:
-        return out
+        return np.zeros(d), who
     full = sw.full
     if every != 1:
         full = Exit(full.s_out[::every], full.s_in[::every], full.inside, full.facet[::every])
@@ -342,42 +349,70 @@ def _lost(sw: _Sweep, every: int = 1) -> np.ndarray:
     inside = slack.min(axis=0) >= -1e-9
     solid = _ranks_without_each(sw.coarse) == 3
     fast = np.flatnonzero(inside & solid & full.inside)
-    finer = sw.coarse is not sw.shapes
     if len(fast):
-        owners = sw.fac.owners() if finer else None
-        s_c, which = lost_exits(normals, sw.parts, sw.start, rays, full, fast, finer, owners)
-        if finer:
-            lost = np.repeat(fast, rays.shape[1])
-            flat = _refine_lost(sw, rays, s_c.ravel(), which.ravel(), lost)
-            s_c = flat.reshape(s_c.shape)
-        out[fast] = s_c
+        worst, who, facet = worst_lost_exit(normals, sw.parts, sw.start, rays, fast)
+        if sw.coarse is not sw.shapes:
+            worst, who = _refine_worst(sw, rays, full, fast, worst, who, facet)
     for k in np.flatnonzero(~np.isin(np.arange(n), fast)):
-        if solid[k]:
-            ex = ray_exit(normals, support - sw.parts[:, k], sw.start, rays)
-            out[k] = ex.s_out
-            if finer and ex.inside:
-                lost = np.full(rays.shape[1], int(k))
-                out[k] = _refine(
-                    sw.shapes, sw.coarse, sw.fac, ex.facet, sw.start, rays, ex.s_out, lost
-                )
-            continue
-        # losing this tug flattens the set: its own half-spaces are needed
-        rest, fine = sw.coarse.without(int(k)), sw.shapes.without(int(k))
-        fac = facets(rest)
-        ex = ray_exit(fac.normals, support_parts(fac.normals, rest).sum(axis=1), sw.start, rays)
-        out[k] = ex.s_out
-        if finer and ex.inside:
-            out[k] = _refine(fine, rest, fac, ex.facet, sw.start, rays, ex.s_out)
-    return out
+        row = _lost_alone(sw, int(k), rays, support, solid[k])
+        lower = row < worst
+        worst = np.where(lower, row, worst)
+        who = np.where(lower, k, who)
+    return worst, who
 
 
-def _refine_lost(
-    sw: _Sweep, rays: np.ndarray, s: np.ndarray, facet: np.ndarray, lost: np.ndarray
+def _refine_worst(
+    sw: _Sweep,
+    rays: np.ndarray,
+    full: Exit,
+    fast: np.ndarray,
+    s_c: np.ndarray,
+    who: np.ndarray,
+    facet: np.ndarray,
+) -> tuple[np.ndarray, np.ndarray]:
+    """The coarse worst-lost exits (D,) made fine: the worst tug's walked out first; then
+    every other tug whose coarse exit (a lower bound of its fine one) lies below that."""
+    owners = sw.fac.owners()
+    normals, parts, start = sw.normals, sw.parts, sw.start
+    faces = clean_faces(normals, parts, start, rays, facet, who, owners)
+    upper = _refine(sw.shapes, sw.coarse, sw.fac, faces, start, rays, s_c, who)
+    s_j, which = lost_exits(normals, parts, start, rays, full, fast, True, owners, upper)
+    col, ray = np.nonzero((s_j < upper[None, :]) & (fast[:, None] != who[None, :]))
+    out, out_who = upper.copy(), who.copy()
+    if len(ray):
+        tug = fast[col]
+        fine = _refine(
+            sw.shapes, sw.coarse, sw.fac, which[col, ray], start, rays[:, ray], s_j[col, ray], tug
+        )
+        order = np.lexsort((tug, fine, ray))  # per ray, the least first (ties: lower tug)
+        ray, fine, tug = ray[order], fine[order], tug[order]
+        first = np.r_[True, ray[1:] != ray[:-1]]
+        ray, fine, tug = ray[first], fine[first], tug[first]
+        lower = fine < out[ray]
+        out[ray[lower]] = fine[lower]
+        out_who[ray[lower]] = tug[lower]
+    return out, out_who
+
+
+def _lost_alone(
+    sw: _Sweep, k: int, rays: np.ndarray, support: np.ndarray, solid: bool
 ) -> np.ndarray:
-    """Coarse exits with tug ``lost[r]`` lost, for rays tiled tug by tug, made fine."""
-    m = len(s) // rays.shape[1]
-    tiled = np.tile(rays, (1, m))  # (3, m D), row r is direction r % D
-    return _refine(sw.shapes, sw.coarse, sw.fac, facet, sw.start, tiled, s, lost)
+    """(D',) the sweep with tug k lost, on its own (its loss leaves the start outside the
+    fleet's set, or flattens it)."""
+    finer = sw.coarse is not sw.shapes
+    if solid:
+        ex = ray_exit(sw.normals, support - sw.parts[:, k], sw.start, rays)
+        if finer and ex.inside:
+            lost = np.full(rays.shape[1], k)
+            return _refine(sw.shapes, sw.coarse, sw.fac, ex.facet, sw.start, rays, ex.s_out, lost)
+        return ex.s_out
+    # losing this tug flattens the set: its own half-spaces are needed
+    rest, fine = sw.coarse.without(k), sw.shapes.without(k)
+    fac = facets(rest)
+    ex = ray_exit(fac.normals, support_parts(fac.normals, rest).sum(axis=1), sw.start, rays)
+    if finer and ex.inside:
+        return _refine(fine, rest, fac, ex.facet, sw.start, rays, ex.s_out)
+    return ex.s_out
 
 
 def _ranks_without_each(shapes: WrenchPolygons) -> np.ndarray:
@@ -403,11 +438,20 @@ def _speed(s: np.ndarray) -> np.ndarray:
 
 
 def hold_limits(problem: HoldLimitsProblem, *, with_lost: bool = True) -> HoldLimits:
-    """Sweep every direction, all tugs and (``with_lost``) each tug lost. Without
-    ``with_lost`` the lost rows are left empty (n = 0)."""
+    """Sweep every direction, all tugs and (``with_lost``) the worst one tug lost."""
     sw = _sweep(problem)
-    lost = _lost(sw) if with_lost else np.zeros((0, sw.rays.shape[1]))
-    return HoldLimits(problem, _speed(sw.s_out), _speed(lost), sw.full.inside, _speed(sw.full.s_in))
+    d = sw.rays.shape[1]
+    with_lost = with_lost and bool(problem.tugs)
+    worst, who = _worst_lost(sw) if with_lost else (np.zeros(d), np.zeros(d, dtype=int))
+    return HoldLimits(
+        problem,
+        _speed(sw.s_out),
+        _speed(worst),
+        who,
+        sw.full.inside,
+        _speed(sw.full.s_in),
+        with_lost,
+    )
 
 
 def live_hold_limits(
@@ -416,22 +460,24 @@ def live_hold_limits(
     """For a plot that follows the mouse: all tugs on every direction of ``problem``, the
     worst tug lost on every ``lost_step``-th (0: not at all), from one set of half-spaces.
 
-    Returns (limits without lost rows, lost directions (D',), worst lost m/s (D',)).
+    Returns (limits without the tug lost sweep, lost directions (D',), worst lost m/s (D',)).
     """
     sw = _sweep(problem)
+    d = sw.rays.shape[1]
     limits = HoldLimits(
         problem,
         _speed(sw.s_out),
-        np.zeros((0, sw.rays.shape[1])),
+        np.zeros(d),
+        np.zeros(d, dtype=int),
         sw.full.inside,
         _speed(sw.full.s_in),
+        False,
     )
     if lost_step <= 0:
         return limits, problem.directions_deg[:0], np.zeros(0)
     k = int(lost_step)
-    lost = _lost(sw, k)
-    worst = _speed(lost.min(axis=0)) if len(lost) else np.zeros(sw.rays[:, ::k].shape[1])
-    return limits, problem.directions_deg[::k], worst
+    worst, _ = _worst_lost(sw, k)
+    return limits, problem.directions_deg[::k], _speed(worst)
 
 
 def limit_at(limits: HoldLimits, wind_from_deg: float, curve: np.ndarray | None = None) -> float:

@@ -303,6 +303,29 @@ class Exit:
     facet: np.ndarray
 
 
+def least_exit(
+    numer: np.ndarray, normals: np.ndarray, rays: np.ndarray
+) -> tuple[np.ndarray, np.ndarray]:
+    """(D,) the least of numer_p / (n_p . d) over the half-spaces each ray leaves through
+    (n_p . d above rounding), and (D,) which one (-1 where none: there inf), in blocks of
+    normals so that memory stays small."""
+    d = rays.shape[1]
+    tol = _DEN_TOL * np.linalg.norm(rays, axis=0)  # (D,)
+    s = np.full(d, np.inf)
+    facet = np.full(d, -1)
+    cols = np.arange(d)
+    for blk in _blocks(len(normals), d):
+        den = normals[blk] @ rays  # (b, D)
+        ratio = np.full(den.shape, np.inf)
+        np.divide(numer[blk, None], den, out=ratio, where=den > tol)
+        k = ratio.argmin(axis=0)
+        best = ratio[k, cols]
+        better = best < s
+        s[better] = best[better]
+        facet[better] = k[better] + blk.start
+    return s, facet
+
+
 def _blocks(p: int, d: int) -> list[slice]:
     step = max(1, _CHUNK // max(d, 1))
     return [slice(a, min(a + step, p)) for a in range(0, p, step)]
@@ -315,32 +338,22 @@ def ray_exit(normals: np.ndarray, support: np.ndarray, start: np.ndarray, rays: 
     slack[np.abs(slack) < 1e-13] = 0.0  # rounding on faces through the start
     inside = bool(slack.min(initial=0.0) >= -_SLACK_TOL)
     d = rays.shape[1]
-    tol = _DEN_TOL * np.linalg.norm(rays, axis=0)  # (D,)
-    s_out = np.full(d, np.inf)
-    facet = np.full(d, -1)
-    s_in = np.zeros(d)
-    stuck = np.zeros(d, dtype=bool)
-    pos = np.maximum(slack, 0.0)
-    for blk in _blocks(len(normals), d):
-        den = normals[blk] @ rays  # (b, D)
-        leaves = den > tol
-        with np.errstate(divide="ignore", invalid="ignore"):
-            ratio = np.where(leaves, pos[blk, None] / np.where(leaves, den, 1.0), np.inf)
-        k = ratio.argmin(axis=0)
-        best = ratio[k, np.arange(d)]
-        better = best < s_out
-        s_out = np.where(better, best, s_out)
-        facet = np.where(better, k + blk.start, facet)
-        if not inside:
-            sl = slack[blk, None]
-            enters = den < -tol
-            with np.errstate(divide="ignore", invalid="ignore"):
-                s_in = np.maximum(
-                    s_in, np.where(enters, sl / np.where(enters, den, -1.0), 0.0).max(axis=0)
-                )
-            stuck |= ((np.abs(den) <= tol) & (sl < -_SLACK_TOL)).any(axis=0)
+    s_out, facet = least_exit(np.maximum(slack, 0.0), normals, rays)
     if inside:
         return Exit(s_out, np.zeros(d), True, facet)
+    # outside: where each ray gets in (the largest entry), or that it never does
+    tol = _DEN_TOL * np.linalg.norm(rays, axis=0)  # (D,)
+    s_in = np.zeros(d)
+    stuck = np.zeros(d, dtype=bool)
+    for blk in _blocks(len(normals), d):
+        den = normals[blk] @ rays  # (b, D)
+        sl = slack[blk, None]
+        enters = den < -tol
+        with np.errstate(divide="ignore", invalid="ignore"):
+            s_in = np.maximum(
+                s_in, np.where(enters, sl / np.where(enters, den, -1.0), 0.0).max(axis=0)
+            )
+        stuck |= ((np.abs(den) <= tol) & (sl < -_SLACK_TOL)).any(axis=0)
     never = stuck | (s_in > s_out * (1 + 1e-9) + _SLACK_TOL)
     return Exit(
         np.where(never, 0.0, s_out),
@@ -348,6 +361,77 @@ def ray_exit(normals: np.ndarray, support: np.ndarray, start: np.ndarray, rays: 
         False,
         np.where(never, -1, facet),
     )
+
+
+def _slack(normals: np.ndarray, parts: np.ndarray, start: np.ndarray) -> np.ndarray:
+    """(P,) how far each half-space of the whole fleet lies out from the start."""
+    slack = parts.sum(axis=1) - normals @ start
+    slack[np.abs(slack) < 1e-13] = 0.0
+    return slack
+
+
+def worst_lost_exit(
+    normals: np.ndarray,
+    parts: np.ndarray,
+    start: np.ndarray,
+    rays: np.ndarray,
+    lost: Sequence[int] | np.ndarray,
+) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The rays' exit with the worst one of the tugs ``lost`` lost (columns of ``parts``
+    (P, n)), for a start inside every set with one of them lost: (D,) the least exit over
+    those tugs, (D,) the tug whose loss gives it and (D,) the half-space it leaves
+    through (-1 where none: there the exit is infinite and the tug the first listed).
+
+    With tug i lost, half-space p bounds the exit at (slack_p - part_pi) / (n_p . d); the
+    least of that over the tugs takes the largest part, so the worst case is one cut of
+    the rays with the half-spaces less their largest parts: P D work for every tug at once
+    (the exit of each tug on its own would be P D m).
+    """
+    tugs = np.asarray(lost, dtype=int)
+    sub = parts[:, tugs]
+    low = _rounded(_slack(normals, parts, start) - sub.max(axis=1, initial=0.0))
+    s, facet = least_exit(low, normals, rays)
+    d = rays.shape[1]
+    who = np.full(d, tugs[0] if len(tugs) else 0)
+    has = facet >= 0
+    who[has] = tugs[sub[facet[has]].argmax(axis=1)]
+    return np.maximum(s, 0.0), who, facet
+
+
+def clean_faces(
+    normals: np.ndarray,
+    parts: np.ndarray,
+    start: np.ndarray,
+    rays: np.ndarray,
+    facet: np.ndarray,
+    lost: np.ndarray,
+    owners: np.ndarray,
+) -> np.ndarray:
+    """(D,) each ray's exit half-space with tug ``lost[r]`` lost (a column of ``parts``
+    and a tug of ``owners`` (P, 3)), swapped where it is made with that tug for an equal
+    one that is not: a face of the smaller set."""
+    out = facet.copy()
+    has = facet >= 0
+    dirty = np.flatnonzero(has & (owners[np.maximum(facet, 0)] == lost[:, None]).any(axis=1))
+    if not len(dirty):
+        return out
+    slack = _slack(normals, parts, start)
+    tol = _DEN_TOL * np.linalg.norm(rays, axis=0)
+    for t in np.unique(lost[dirty]):
+        rows = dirty[lost[dirty] == t]
+        den = normals @ rays[:, rows]  # (P, k)
+        leaves = den > tol[rows]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            vals = np.where(
+                leaves, _rounded(slack - parts[:, t])[:, None] / np.where(leaves, den, 1.0), np.inf
+            )
+        best = vals[facet[rows], np.arange(len(rows))]
+        clean = ~(owners == t).any(axis=1)
+        near = clean[:, None] & (vals <= best * (1 + 1e-9) + 1e-12)
+        ok = near.any(axis=0)
+        pick = np.where(near, vals, np.inf).argmin(axis=0)
+        out[rows[ok]] = pick[ok]
+    return out
 
 
 def lost_exits(
@@ -359,6 +443,7 @@ def lost_exits(
     lost: Sequence[int] | np.ndarray,
     with_facets: bool = False,
     owners: np.ndarray | None = None,
+    bound: np.ndarray | None = None,
 ) -> tuple[np.ndarray, np.ndarray]:
     """(len(tugs), D) the rays' exit with each listed tug lost, for a start inside every
     such set: the same half-spaces, less that tug's part of the support; and (len(tugs),
@@ -368,26 +453,26 @@ def lost_exits(
 
     Only the half-spaces that could beat the best bound are looked at: with tug i lost,
     the full set's exit face gives an upper bound, and a half-space can give no less
-    than its slack less the largest tug part on it, over n . d.
+    than its slack less the largest tug part on it, over n . d. With ``bound`` (D,) given,
+    only exits below it are sought: the rest come out infinite (facet -1).
     """
     tugs = np.asarray(lost, dtype=int)
     d = rays.shape[1]
     if not len(tugs):
         return np.zeros((0, d)), np.zeros((0, d), dtype=int)
-    support = parts.sum(axis=1)
-    slack = support - normals @ start
-    slack[np.abs(slack) < 1e-13] = 0.0
+    slack = _slack(normals, parts, start)
     sub = parts[:, tugs]  # (P, m)
     tol = _DEN_TOL * np.linalg.norm(rays, axis=0)
     out = np.full((d, len(tugs)), np.inf)
     which = np.full((d, len(tugs)), -1)
     has = full.facet >= 0
-    if has.any():  # the bound from each ray's exit face of the full set
+    if bound is None and has.any():  # the bound from each ray's exit face of the full set
         f = full.facet[has]
         den = np.einsum("ij,ji->i", normals[f], rays[:, has])
         out[has] = _rounded(slack[f, None] - sub[f]) / den[:, None]
         which[has] = f[:, None]
-    bound = out.max(axis=1)  # (D,)
+    if bound is None:
+        bound = out.max(axis=1)  # (D,)
     low = slack - sub.max(axis=1)  # (P,) no lost tug takes more than this off
     for blk in _blocks(len(normals), d):
         den = normals[blk] @ rays

@@ -98,10 +98,16 @@ def test_agrees_with_linprog_direction_by_direction(
     for k in range(len(problem.directions_deg)):
         ref = _linprog_limit(problem.generators, problem.fixed, problem.wind_unit[:, k])
         assert lim.all_tugs_ms[k] == pytest.approx(ref, rel=1e-6, abs=1e-3)
-    for i in range(len(leads)):
-        g = np.delete(problem.generators, i, axis=1)
-        ref = _linprog_limit(g, problem.fixed, problem.wind_unit[:, 3])
-        assert lim.lost_ms[i, 3] == pytest.approx(ref, rel=1e-6, abs=1e-3)
+    # With one tug lost: the least over the tugs of linprog without that tug's column.
+    refs = [
+        _linprog_limit(
+            np.delete(problem.generators, i, axis=1), problem.fixed, problem.wind_unit[:, 3]
+        )
+        for i in range(len(leads))
+    ]
+    assert lim.worst_lost_ms[3] == pytest.approx(min(refs), rel=1e-6, abs=1e-3)
+    named = problem.tugs.index(lim.worst_lost_tug[3])
+    assert refs[named] == pytest.approx(min(refs), rel=1e-6, abs=1e-3)
 
 
 def test_flat_zonotope_when_no_tug_turns_the_body() -> None:
@@ -112,8 +118,12 @@ def test_flat_zonotope_when_no_tug_turns_the_body() -> None:
     lim = hold_limits(problem)
     v = math.sqrt(40 * TF / (0.5 * 1.225 * 0.8 * 20.0 * 4.0))  # head-on area 20 x 4, C 0.8
     assert lim.all_tugs_ms == pytest.approx([v, 0.0, v], rel=1e-9, abs=1e-9)
-    # Bow tug lost: nothing pulls ahead, so a head wind (which pushes astern) cannot be held.
-    assert lim.lost_ms[0] == pytest.approx([0.0, 0.0, v], rel=1e-9, abs=1e-9)
+    # Bow tug lost: nothing pulls ahead, so a head wind (which pushes astern) cannot be held;
+    # stern tug lost: the same for a stern wind. The worst of the two holds neither.
+    bow_lost = hold_limits(problem.without(problem.tugs[0]), with_lost=False)
+    assert bow_lost.all_tugs_ms == pytest.approx([0.0, 0.0, v], rel=1e-9, abs=1e-9)
+    assert lim.worst_lost_ms == pytest.approx([0.0, 0.0, 0.0], abs=1e-9)
+    assert lim.worst_lost_tug[0] == problem.tugs[0]
 
 
 def test_zonotope_normals_bound_the_zonotope() -> None:
@@ -205,12 +215,15 @@ def test_losing_a_tug_never_raises_the_limit(
     p = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 10.0))
     lim = hold_limits(p)
     assert np.all(
-        lim.lost_ms <= lim.all_tugs_ms * (1 + 1e-7) + 1e-9
+        lim.worst_lost_ms <= lim.all_tugs_ms * (1 + 1e-7) + 1e-9
     )  # rounding on near-parallel lines
-    # And the lost rows are the sweeps of the problem without that tug.
-    for i, tug in enumerate(p.tugs):
-        alone = hold_limits(p.without(tug), with_lost=False)
-        assert alone.all_tugs_ms == pytest.approx(lim.lost_ms[i], rel=1e-7, abs=1e-9)
+    # And the worst lost curve is the least of the sweeps of the problem without each tug,
+    # each direction naming a tug whose own sweep gives it.
+    rows = np.array([hold_limits(p.without(t), with_lost=False).all_tugs_ms for t in p.tugs])
+    assert lim.worst_lost_ms == pytest.approx(rows.min(axis=0), rel=1e-7, abs=1e-9)
+    named = [p.tugs.index(t) for t in lim.worst_lost_tug]
+    own = rows[named, np.arange(rows.shape[1])]
+    assert own == pytest.approx(rows.min(axis=0), rel=1e-7, abs=1e-9)
 
 
 def test_worst_lost_names_the_tug() -> None:

@@ -224,12 +224,21 @@ def test_hold_limits_agree_with_linprog_on_fine_polygons(seed: int) -> None:
     for k in range(len(dirs)):
         ref = _reference_limit(cols, owner, problem.start, -problem.wind_unit[:, k])
         assert lim.all_tugs_ms[k] == pytest.approx(ref, rel=1e-3, abs=1e-3)
+    refs = []
     for i in range(len(stage.placements)):
         keep = owner != i
-        ref = _reference_limit(
-            cols[:, keep], owner[keep] - (owner[keep] > i), problem.start, -problem.wind_unit[:, 2]
+        refs.append(
+            _reference_limit(
+                cols[:, keep],
+                owner[keep] - (owner[keep] > i),
+                problem.start,
+                -problem.wind_unit[:, 2],
+            )
         )
-        assert lim.lost_ms[i, 2] == pytest.approx(ref, rel=1e-3, abs=1e-3)
+    assert lim.worst_lost_ms[2] == pytest.approx(min(refs), rel=1e-3, abs=1e-3)
+    assert refs[problem.tugs.index(lim.worst_lost_tug[2])] == pytest.approx(
+        min(refs), rel=1e-3, abs=1e-3
+    )
 
 
 def test_zero_width_sectors_are_the_fixed_leads_exactly() -> None:
@@ -251,7 +260,15 @@ def test_zero_width_sectors_are_the_fixed_leads_exactly() -> None:
     la = hold_limits(hold_limits_problem(fixed_p, fixed_s))
     lb = hold_limits(hold_limits_problem(zero_p, zero_s))
     assert lb.all_tugs_ms == pytest.approx(la.all_tugs_ms, rel=1e-12, abs=1e-12)
-    assert lb.lost_ms == pytest.approx(la.lost_ms, rel=1e-12, abs=1e-12)
+    assert lb.worst_lost_ms == pytest.approx(la.worst_lost_ms, rel=1e-12, abs=1e-12)
+    # the tug named is one whose loss gives that limit (where several do, any of them)
+    rows = np.array(
+        [hold_limits(la.problem.without(t), with_lost=False).all_tugs_ms for t in la.problem.tugs]
+    )
+    named = [la.problem.tugs.index(t) for t in lb.worst_lost_tug]
+    assert rows[named, np.arange(len(named))] == pytest.approx(
+        la.worst_lost_ms, rel=1e-9, abs=1e-12
+    )
 
 
 # -- the hand-made case ---------------------------------------------------------------------
@@ -341,10 +358,13 @@ def test_removing_a_tug_never_raises_a_limit_and_doubling_pulls_scales(fleet: li
     project, stage = _plan(_lines(fleet))
     p = hold_limits_problem(project, stage, directions_deg=dirs)
     lim = hold_limits(p)
-    for i, tug in enumerate(p.tugs):
+    rows = []
+    for tug in p.tugs:
         alone = hold_limits(p.without(tug), with_lost=False)
         assert np.all(alone.all_tugs_ms <= lim.all_tugs_ms * (1 + 1e-9) + 1e-4)
-        assert alone.all_tugs_ms == pytest.approx(lim.lost_ms[i], rel=1e-7, abs=1e-4)
+        rows.append(alone.all_tugs_ms)
+    # the worst tug lost is the least of the sweeps without each tug
+    assert lim.worst_lost_ms == pytest.approx(np.min(rows, axis=0), rel=1e-7, abs=1e-4)
     # No current: wind load ~ V^2, so twice the pulls hold sqrt(2) times the wind.
     double = hold_limits(p.scaled(2.0))
     assert double.all_tugs_ms == pytest.approx(lim.all_tugs_ms * math.sqrt(2), rel=1e-7, abs=1e-4)
