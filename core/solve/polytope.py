@@ -419,18 +419,38 @@ def clean_faces(
     tol = _DEN_TOL * np.linalg.norm(rays, axis=0)
     for t in np.unique(lost[dirty]):
         rows = dirty[lost[dirty] == t]
-        den = normals @ rays[:, rows]  # (P, k)
-        leaves = den > tol[rows]
-        with np.errstate(divide="ignore", invalid="ignore"):
-            vals = np.where(
-                leaves, _rounded(slack - parts[:, t])[:, None] / np.where(leaves, den, 1.0), np.inf
-            )
-        best = vals[facet[rows], np.arange(len(rows))]
-        clean = ~(owners == t).any(axis=1)
+        out[rows] = _clean_rows(
+            normals, slack - parts[:, t], rays[:, rows], tol[rows], facet[rows], t, owners
+        )
+    return out
+
+
+def _clean_rows(
+    normals: np.ndarray,
+    slack: np.ndarray,
+    rays: np.ndarray,
+    tol: np.ndarray,
+    facet: np.ndarray,
+    tug: int,
+    owners: np.ndarray,
+) -> np.ndarray:
+    """(k,) for rays (3, k) leaving through ``facet`` (k,) of the set with ``tug`` lost
+    (``slack`` (P,) its slack), an equal half-space not made with that tug where there is
+    one (else the same), a few rays at a time so that memory stays small."""
+    out = facet.copy()
+    clean = ~(owners == tug).any(axis=1)
+    num = _rounded(slack)[:, None]
+    step = max(1, _CHUNK // max(len(normals), 1))
+    for a in range(0, rays.shape[1], step):
+        cols = slice(a, a + step)
+        den = normals @ rays[:, cols]  # (P, k)
+        vals = np.full(den.shape, np.inf)
+        np.divide(num, den, out=vals, where=den > tol[cols])
+        best = vals[facet[cols], np.arange(den.shape[1])]
         near = clean[:, None] & (vals <= best * (1 + 1e-9) + 1e-12)
         ok = near.any(axis=0)
         pick = np.where(near, vals, np.inf).argmin(axis=0)
-        out[rows[ok]] = pick[ok]
+        out[cols] = np.where(ok, pick, facet[cols])
     return out
 
 
@@ -471,6 +491,7 @@ def lost_exits(
         den = np.einsum("ij,ji->i", normals[f], rays[:, has])
         out[has] = _rounded(slack[f, None] - sub[f]) / den[:, None]
         which[has] = f[:, None]
+    given = bound is not None
     if bound is None:
         bound = out.max(axis=1)  # (D,)
     low = slack - sub.max(axis=1)  # (P,) no lost tug takes more than this off
@@ -504,14 +525,17 @@ def lost_exits(
             arg = np.minimum.reduceat(at, starts, axis=0)
             facet = p_idx[order][arg] + blk.start
             which[rows] = np.where(better, facet, which[rows])
+    if given:  # only exits below the bound are sought
+        over = out >= bound[:, None]
+        out[over] = np.inf
+        which[over] = -1
     if with_facets and owners is not None:
-        _clean_ties(which, out, owners, tugs, normals, slack, sub, rays, tol)
+        _clean_ties(which, owners, tugs, normals, slack, sub, rays, tol)
     return np.maximum(out, 0.0).T, which.T
 
 
 def _clean_ties(
     which: np.ndarray,
-    out: np.ndarray,
     owners: np.ndarray,
     tugs: np.ndarray,
     normals: np.ndarray,
@@ -524,17 +548,12 @@ def _clean_ties(
     that tug, look for an equal one that is not (a face of the smaller set)."""
     d_idx, c_idx = np.nonzero(which >= 0)
     made = (owners[which[d_idx, c_idx]] == tugs[c_idx][:, None]).any(axis=1)
-    for d, c in zip(d_idx[made], c_idx[made], strict=True):
-        den = normals @ rays[:, d]
-        leaves = den > tol[d]
-        with np.errstate(divide="ignore", invalid="ignore"):
-            vals = np.where(
-                leaves, _rounded(slack - sub[:, c]) / np.where(leaves, den, 1.0), np.inf
-            )
-        clean = ~(owners == tugs[c]).any(axis=1)
-        ok = clean & (vals <= out[d, c] * (1 + 1e-9) + 1e-12)
-        if ok.any():
-            which[d, c] = int(np.flatnonzero(ok)[np.argmin(vals[ok])])
+    d_idx, c_idx = d_idx[made], c_idx[made]
+    for c in np.unique(c_idx):
+        rows = d_idx[c_idx == c]
+        which[rows, c] = _clean_rows(
+            normals, slack - sub[:, c], rays[:, rows], tol[rows], which[rows, c], tugs[c], owners
+        )
 
 
 def _rounded(slack: np.ndarray) -> np.ndarray:
