@@ -21,6 +21,7 @@ conventional tug has a small astern pull and works on a line only.
 
 from __future__ import annotations
 
+import functools
 import itertools
 import math
 from dataclasses import dataclass, replace
@@ -48,6 +49,7 @@ MAX_FRACTION = rules.CAPABILITY_SHARE.high
 PLACEHOLDER_NOTE = "placeholder values, no published source: replace them with the tug's own"
 
 
+@functools.lru_cache(maxsize=1024)
 def tug_kind(type_text: str) -> TugKind:
     """The kind of tug a free-text type names ("other" when none is recognised)."""
     t = " ".join(type_text.lower().replace("-", " ").split())
@@ -178,10 +180,12 @@ class Capability:
         return PLACEHOLDER_NOTE if self.placeholder else (self.source or "entered by the user")
 
 
+@functools.lru_cache(maxsize=256)
 def default_capability(kind: TugKind, astern: float | None = None) -> Capability:
     """The placeholder capability of a tug kind; ``astern`` (share of the bollard pull)
     replaces the kind's astern share on a line and in push-pull when the tug's own
-    astern pull is known."""
+    astern pull is known. The value is frozen, so one is made per kind and share and
+    shared (a plan of thousands of tugs of a few kinds builds a handful)."""
     table = _DEFAULTS[kind]
     curves: dict[str, CapabilityCurve | None] = {}
     for way in WAYS:

@@ -12,6 +12,7 @@ replace with the tug's own figures.
 
 from __future__ import annotations
 
+import functools
 import itertools
 from dataclasses import dataclass
 
@@ -82,8 +83,10 @@ class HeadwayTable:
         return tuple((v / KNOT, s) for v, s in zip(self.speeds_ms, self.shares, strict=True))
 
 
+@functools.cache
 def placeholder_headway() -> HeadwayTable:
-    """The placeholder table every tug starts with (not published figures)."""
+    """The placeholder table every tug starts with (not published figures); frozen, so
+    made once and shared."""
     return HeadwayTable(
         tuple(v * KNOT for v, _ in PLACEHOLDER_ROWS_KN),
         tuple(s for _, s in PLACEHOLDER_ROWS_KN),
