@@ -132,7 +132,7 @@ class TugForm(QWidget):
 
     def tug(self) -> Tug:
         """The tug as typed (raises InputError naming the field on refused input)."""
-        old = self._old or Tug("Tug", 1.0)
+        old = self._old or Tug("Tug", rules.BOLLARD_PULL.low)
         name = self.name.text().strip()
         bp = self._number(self.bollard_pull, old.bollard_pull_n, rules.BOLLARD_PULL, name)
         if bp is None:

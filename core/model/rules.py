@@ -335,11 +335,17 @@ MEMBER_HEADING = Range("heading", "angle", ANGLE.low, ANGLE.high)  # within a la
 DIRECTION = Range("direction", "degrees", 0.0, 360.0)  # wind from, current towards
 
 # tugs and where they work
-BOLLARD_PULL = Range("bollard pull", "force", 0.0, 1000 * TONNE_FORCE, above=True)
+#: No working tug pulls less than a tenth of a tonne-force (common practice, no source);
+#: a smaller positive pull (5e-324 N) passed "positive" and broke the solvers' scaling.
+MIN_BOLLARD_PULL = 0.1 * TONNE_FORCE
+BOLLARD_PULL = Range("bollard pull", "force", MIN_BOLLARD_PULL, 1000 * TONNE_FORCE)
 ASTERN_PULL = Range("astern pull", "force", 0.0, 1000 * TONNE_FORCE)
 TOWING_POINT_HEIGHT = Range("towing point height", "length", 0.0, 50.0)
 TOWLINE_LENGTH = Range("towline length", "length", 0.0, 10_000.0, above=True)
-TOWLINE_MBL = Range("towline MBL", "force", 0.0, 10_000 * TONNE_FORCE, above=True)
+#: A towline or fitting rated below a tenth of a tonne-force holds no tug (common
+#: practice, no source); 5e-324 passed "positive" and made the share of it infinite.
+MIN_RATING = 0.1 * TONNE_FORCE
+TOWLINE_MBL = Range("towline MBL", "force", MIN_RATING, 10_000 * TONNE_FORCE)
 #: The share of the MBL a towline's tension is warned above (core.model.tugs).
 TOWLINE_WARN_SHARE = Range("towline warning share of MBL", "plain", 0.0, 1.0, above=True)
 #: A tug's capability: usable share of its bollard pull at a relative bearing of its own
@@ -357,12 +363,15 @@ LINE_LENGTH = Range("line length", "length", 0.0, 5000.0, above=True)
 PUSH_ANGLE = Range("push angle", "degrees", -89.999, 89.999)
 
 # hulls
-DRAUGHT = Range("draught", "length", 0.0, 50.0, above=True)
-FREEBOARD = Range("freeboard", "length", 0.0, 100.0, above=True)
-DISPLACEMENT = Range("displacement", "mass", 0.0, 1e9, above=True)  # kg (a million tonnes)
+#: Nothing towed floats with less than a centimetre of draught or freeboard, nor weighs
+#: less than a tonne (common practice, no source): a 1e-300 m draught broke the areas'
+#: arithmetic and a 1e-300 t body made the drift preview run on without end.
+DRAUGHT = Range("draught", "length", 0.01, 50.0)
+FREEBOARD = Range("freeboard", "length", 0.01, 100.0)
+DISPLACEMENT = Range("displacement", "mass", 1000.0, 1e9)  # kg (1 to a million tonnes)
 YAW_GYRADIUS = Range("yaw radius of gyration", "length", 0.0, 10_000.0, above=True)
-SWL = Range("SWL", "force", 0.0, 5000 * TONNE_FORCE, above=True)
-TOW = Range("TOW", "force", 0.0, 5000 * TONNE_FORCE, above=True)
+SWL = Range("SWL", "force", MIN_RATING, 5000 * TONNE_FORCE)
+TOW = Range("TOW", "force", MIN_RATING, 5000 * TONNE_FORCE)
 
 # conditions
 WIND_SPEED = Range("wind speed", "speed", 0.0, 200 * KNOT)

@@ -24,7 +24,9 @@ from typing import Literal
 
 import numpy as np
 
-LpStatus = Literal["optimal", "infeasible", "unbounded", "iteration_limit"]
+#: "not_finite": the data, or the arithmetic on them, holds a NaN or an infinity (a row
+#: scaled by the inverse of a denormal pull is one): no answer, rather than a wrong one.
+LpStatus = Literal["optimal", "infeasible", "unbounded", "iteration_limit", "not_finite"]
 Backend = Literal["own", "highs"]
 
 #: Which solver solve_lp uses (see the module's docstring).
@@ -73,6 +75,12 @@ class _Tableau:
         return binv
 
     def run(self, cost: np.ndarray, max_iter: int) -> LpStatus:
+        # Data of very unequal sizes (1e-300 beside 1e300) can overflow on the way: the
+        # NaN that follows ends the run as "not_finite", so numpy need not warn of it.
+        with np.errstate(over="ignore", invalid="ignore"):
+            return self._pivots(cost, max_iter)
+
+    def _pivots(self, cost: np.ndarray, max_iter: int) -> LpStatus:
         a, x, upper = self.a, self.x, self.upper
         bland_after = 10 * (self.m + 2)
         try:
@@ -91,8 +99,11 @@ class _Tableau:
             d = cost - (cost[self.basis] @ binv) @ a  # reduced costs
             score = np.where(self.at_upper, d, -d)
             score[self.is_basic | ((upper <= 0) & ~self.at_upper)] = 0.0
-            if score.max() <= _TOL:
+            best = score.max()  # NaN if any reduced cost is NaN
+            if best <= _TOL:
                 return "optimal"
+            if not best > _TOL:  # a NaN would pass as neither, and no column enters
+                return "not_finite"
             j = int(np.flatnonzero(score > _TOL)[0]) if it >= bland_after else int(score.argmax())
             sgn = -1.0 if self.at_upper[j] else 1.0
             alpha = binv @ a[:, j]
@@ -144,12 +155,17 @@ def solve_lp(
     """Minimise c.x subject to a_eq x = b_eq and 0 <= x <= upper (upper may hold inf).
 
     c, upper: (n,); a_eq: (m, n); b_eq: (m,). Never raises on an infeasible or
-    unbounded problem; the status says so.
+    unbounded problem, nor on data that are not finite (NaN, or infinity outside
+    ``upper``); the status says so.
     """
     c = np.asarray(c, dtype=float)
     a = np.asarray(a_eq, dtype=float)
     b = np.asarray(b_eq, dtype=float)
     up = np.asarray(upper, dtype=float)
+    if not (np.isfinite(c).all() and np.isfinite(a).all() and np.isfinite(b).all()) or (
+        np.isnan(up).any()
+    ):
+        return LpResult("not_finite", np.zeros(len(c)), float("nan"), 0)
     if BACKEND == "highs":
         return _highs(c, a, b, up)
     m, n = a.shape

@@ -281,7 +281,7 @@ def test_cli_writes_the_pdf(tmp_path):
                 and d / "neg.towboard"
             ),
             (),
-            "tugs[0].bollard_pull_kN: -5.0 kN must be positive",
+            "tugs[0].bollard_pull_kN: -5.0 kN must be at least 0.980665 kN",
         ),
         (lambda d: TWIN, ("--paper", "a3"), "invalid choice: 'a3'"),
         (lambda d: TWIN, ("-o", "/nonexistent/folder/plan.pdf"), "does not exist"),

@@ -61,3 +61,19 @@ def test_broken_file_names_the_field(tmp_path: Path) -> None:
     assert done.returncode == 2
     assert "stages[0].tugs[0].setting_percent: 130.0 % must be at most 100 %" in done.stderr
     assert "Traceback" not in done.stderr
+
+
+def test_a_denormal_bollard_pull_is_refused_in_one_line(tmp_path: Path) -> None:
+    # 5e-324 kN passed as "positive" once and ended in an IndexError in the solver.
+    data = json.loads(SAMPLE.read_text())
+    data["tugs"][0]["bollard_pull_kN"] = 5e-324
+    bad = tmp_path / "tiny.towboard"
+    bad.write_text(json.dumps(data))
+    for args in (("report", str(bad)), ("brief", str(bad), "-o", str(tmp_path / "x.pdf"))):
+        done = _run(*args)
+        assert done.returncode == 2, done.stderr
+        assert "tugs[0].bollard_pull_kN: 4.94066e-324 kN must be at least 0.980665 kN" in (
+            done.stderr
+        )
+        assert len(done.stderr.strip().splitlines()) == 1
+    assert not (tmp_path / "x.pdf").exists()

@@ -114,8 +114,8 @@ CASES = [
     Case(
         "tugs: bollard pull",
         _tug_cell("bp"),
-        "-5",
-        "tug Gannet: bollard pull: -5.0 t must be positive",
+        "0.05",
+        "tug Gannet: bollard pull: 0.05 t must be at least 0.1 t",
         "45",
         lambda p: p.tug("Gannet").bollard_pull_n,
         45 * TF,
@@ -178,8 +178,8 @@ CASES = [
     Case(
         "hull: draught",
         lambda w: w.hull_panel.draught,  # type: ignore[attr-defined]
-        "-2",
-        "draught: -2.0 m must be positive",
+        "0.005",
+        "draught: 0.005 m must be at least 0.01 m",
         "3.5",
         lambda p: p.hulls[0].draught_m,
         3.5,
@@ -187,8 +187,8 @@ CASES = [
     Case(
         "hull: freeboard",
         lambda w: w.hull_panel.freeboard,  # type: ignore[attr-defined]
-        "0",
-        "freeboard: 0.0 m must be positive",
+        "1e-300",
+        "freeboard: 1e-300 m must be at least 0.01 m",
         "4",
         lambda p: p.hulls[0].freeboard_m,
         4.0,
@@ -196,8 +196,8 @@ CASES = [
     Case(
         "hull: displacement",
         lambda w: w.hull_panel.displacement,  # type: ignore[attr-defined]
-        "-1",
-        "displacement: -1.0 t must be positive",
+        "0.5",
+        "displacement: 0.5 t must be at least 1 t",
         "2500",
         lambda p: p.hulls[0].displacement_kg,
         2.5e6,
@@ -605,8 +605,10 @@ def test_refusals_follow_the_display_units(env) -> None:  # type: ignore[no-unty
     said: list[str] = []
     c.message.connect(said.append)
     try:
-        _enter(w, CASES[0], "-5")
-        assert said[-1] == "Not changed: tug Gannet: bollard pull: -5.0 kN must be positive"
+        _enter(w, CASES[0], "5e-324")
+        assert said[-1] == (
+            "Not changed: tug Gannet: bollard pull: 4.94066e-324 kN must be at least 0.980665 kN"
+        )
         _enter(w, CASES[0], "400 kN")
         assert c.project.tug("Gannet").bollard_pull_n == pytest.approx(400_000.0)
         _enter(w, CASES[0], "50 t")  # a unit typed after the number wins

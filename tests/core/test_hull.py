@@ -202,7 +202,7 @@ def test_bad_parameters_name_the_field(call: object, message: str) -> None:
 
 
 def test_hull_particulars_must_be_positive() -> None:
-    with pytest.raises(InputError, match="hull test: draught: -1.0 m must be positive"):
+    with pytest.raises(InputError, match="hull test: draught: -1.0 m must be at least 0.01 m"):
         _hull(box_outline(10, 5), draught_m=-1.0)
     with pytest.raises(InputError, match="centre of gravity"):
         _hull(box_outline(10, 5), cog=(math.nan, 0.0))

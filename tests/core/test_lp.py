@@ -62,3 +62,29 @@ def test_infeasible_and_unbounded_are_statuses_not_errors() -> None:
     # min -x1 with x1 - x2 = 0 and no upper bounds: unbounded.
     r = solve_lp(np.array([-1.0, 0.0]), np.array([[1.0, -1.0]]), np.zeros(1), np.full(2, np.inf))
     assert r.status == "unbounded"
+
+
+def test_rows_scaled_by_a_denormal_pull_are_a_status_not_an_index_error() -> None:
+    # What core.solve.pulls handed over for a fleet of 5e-324 N tugs: one column, rows
+    # scaled by 1 / 5e-324 (infinity), so 0 x inf is NaN. It raised IndexError once.
+    r = solve_lp(
+        np.array([1.0]),
+        np.array([[np.nan], [np.inf], [np.inf]]),
+        np.array([-np.inf, np.inf, np.inf]),
+        np.array([1e-12]),
+    )
+    assert r.status == "not_finite" and not r.ok
+    assert r.x.shape == (1,)
+
+
+def test_arithmetic_that_overflows_is_a_status_not_an_index_error() -> None:
+    # Finite data whose reduced costs overflow to NaN on the way (found by a random
+    # search over entries of 1e-300, 1 and 1e300); the pivot choice once found no
+    # column to enter and indexed an empty array.
+    r = solve_lp(
+        np.array([-4e-300, 3.0]),
+        np.array([[-3.0, 6e300], [-1e300, 5.0]]),
+        np.array([-2e-300, -1.0]),
+        np.array([1e-300, np.inf]),
+    )
+    assert r.status == "not_finite" and not r.ok

@@ -106,18 +106,18 @@ def test_bad_new_fields_are_reported_with_their_paths() -> None:
     data["plan"]["history"] = [{"revision": "", "date": "x"}, {"date": "2026-01-01"}]
     data["hulls"][0]["fittings"][0]["tow_kN"] = -3
     data["hulls"][0]["fittings"][0]["permitted_lead_deg"] = [10]
-    data["tugs"][0]["towline_mbl_kN"] = 0
+    data["tugs"][0]["towline_mbl_kN"] = 5e-324  # a denormal made the share of it infinite
     data["tugs"][0]["towline_length_m"] = "long"
     with pytest.raises(ProjectFileError) as e:
         loads(json.dumps(data), "plan.towboard")
     problems = [str(p) for p in e.value.problems]
     assert "plan.history[0]: revision history: revision: '' must not be empty" in problems, problems
     assert "plan.history[1].revision: is missing" in problems
-    assert "hulls[0].fittings[0].tow_kN: -3.0 kN must be positive" in problems
+    assert "hulls[0].fittings[0].tow_kN: -3.0 kN must be at least 0.980665 kN" in problems
     assert (
         "hulls[0].fittings[0].permitted_lead_deg: [10] is not a pair of numbers [x, y]" in problems
     )
-    assert "tugs[0].towline_mbl_kN: 0.0 kN must be positive" in problems
+    assert "tugs[0].towline_mbl_kN: 4.94066e-324 kN must be at least 0.980665 kN" in problems
     assert "tugs[0].towline_length_m: 'long' is not a number" in problems
 
 

@@ -68,10 +68,39 @@ def test_every_problem_is_reported_not_just_the_first() -> None:
     data["stages"][0]["tugs"][1]["tug"] = "Nobody"
     data["stages"][0]["conditions"]["wind_speed_kn"] = -3
     problems = _problems(data)
-    assert "tugs[0].bollard_pull_kN: -5.0 kN must be positive" in problems
+    assert "tugs[0].bollard_pull_kN: -5.0 kN must be at least 0.980665 kN" in problems
     assert "hulls[0].outline_m[1]: ['x', 3] is not a pair of numbers [x, y]" in problems
     assert "stages[0].tugs[1].tug: 'Nobody' is not a tug of this plan" in problems
     assert "stages[0].conditions.wind_speed_kn: -3.0 kn must not be negative" in problems
+
+
+#: Ratings and hull figures a denormal once passed as "positive" and broke later (an
+#: IndexError in the solver, an infinite share of a rating, a drift preview without end).
+TINY_FIELDS = [
+    (("tugs", 0, "bollard_pull_kN"), "must be at least 0.980665 kN"),
+    (("tugs", 0, "towline_mbl_kN"), "must be at least 0.980665 kN"),
+    (("hulls", 0, "fittings", 0, "swl_kN"), "must be at least 0.980665 kN"),
+    (("hulls", 0, "fittings", 0, "tow_kN"), "must be at least 0.980665 kN"),
+    (("hulls", 0, "draught_m"), "must be at least 0.01 m"),
+    (("hulls", 0, "freeboard_m"), "must be at least 0.01 m"),
+    (("hulls", 0, "displacement_t"), "must be at least 1 t"),
+    (("tug_efficiency", "bollard_pull_kN", 0), "must be at least 0.980665 kN"),
+]
+
+
+@pytest.mark.parametrize("value", [5e-324, 1e-300])
+@pytest.mark.parametrize(("where", "reason"), TINY_FIELDS, ids=lambda w: str(w))
+def test_absurdly_small_ratings_and_sizes_are_refused_by_name(
+    where: tuple[str | int, ...], reason: str, value: float
+) -> None:
+    data = _sample_data()
+    inner = data
+    for key in where[:-1]:
+        inner = inner[key]
+    inner[where[-1]] = value
+    path = "".join(f"[{k}]" if isinstance(k, int) else f".{k}" for k in where).lstrip(".")
+    said = [p for p in _problems(data) if p.startswith(f"{path}: ")]
+    assert len(said) == 1 and said[0].endswith(reason), said
 
 
 def test_unknown_fields_are_reported_not_dropped() -> None:
@@ -201,7 +230,7 @@ def test_file_text_is_stable_through_unit_conversions() -> None:
     # kN in the file, N in the core: twelve significant digits keep the text fixed.
     data = _sample_data()
     data["tugs"][0]["bollard_pull_kN"] = 539.3657
-    data["hulls"][0]["fittings"][0]["swl_kN"] = 1 / 3
+    data["hulls"][0]["fittings"][0]["swl_kN"] = 1000 / 3
     text = dumps(loads(json.dumps(data)))
     assert dumps(loads(text)) == text
     assert json.loads(text)["tugs"][0]["bollard_pull_kN"] == 539.3657

@@ -26,40 +26,46 @@ from core.model.tugs import Placement, Tug
 from tests.core.plan_builders import TF, box_hull
 
 # The table's numbers are user data (not verified); these tests check the mechanics only.
-TABLE = EfficiencyTable((100.0, 300.0), (0.0, 4.0), ((1.0, 0.6), (1.0, 0.8)))
+# Rows in N: 100 and 300 kN.
+TABLE = EfficiencyTable((100e3, 300e3), (0.0, 4.0), ((1.0, 0.6), (1.0, 0.8)))
 
 
 def test_table_corners_are_the_entries() -> None:
-    assert TABLE.efficiency(100.0, 4.0) == pytest.approx(0.6)
-    assert TABLE.efficiency(300.0, 4.0) == pytest.approx(0.8)
+    assert TABLE.efficiency(100e3, 4.0) == pytest.approx(0.6)
+    assert TABLE.efficiency(300e3, 4.0) == pytest.approx(0.8)
 
 
 def test_table_interpolates_bilinearly() -> None:
     # Middle of the cell: the mean of the four corners (bilinear interpolation).
-    assert TABLE.efficiency(200.0, 2.0) == pytest.approx((1.0 + 0.6 + 1.0 + 0.8) / 4)
+    assert TABLE.efficiency(200e3, 2.0) == pytest.approx((1.0 + 0.6 + 1.0 + 0.8) / 4)
     # Along one edge, linear: a quarter of the way from 0.6 to 0.8.
-    assert TABLE.efficiency(150.0, 4.0) == pytest.approx(0.65)
+    assert TABLE.efficiency(150e3, 4.0) == pytest.approx(0.65)
 
 
 def test_table_is_held_at_its_edges() -> None:
-    assert TABLE.efficiency(50.0, 9.0) == pytest.approx(0.6)
-    assert TABLE.efficiency(900.0, 6.0) == pytest.approx(0.8)
+    assert TABLE.efficiency(50e3, 9.0) == pytest.approx(0.6)
+    assert TABLE.efficiency(900e3, 6.0) == pytest.approx(0.8)
 
 
 def test_vectorised_lookup_matches_single() -> None:
-    got = TABLE.efficiencies([100.0, 200.0, 500.0], 3.0)  # type: ignore[arg-type]
-    assert list(got) == pytest.approx([TABLE.efficiency(v, 3.0) for v in (100.0, 200.0, 500.0)])
+    got = TABLE.efficiencies([100e3, 200e3, 500e3], 3.0)  # type: ignore[arg-type]
+    assert list(got) == pytest.approx([TABLE.efficiency(v, 3.0) for v in (100e3, 200e3, 500e3)])
 
 
 @pytest.mark.parametrize(
     ("kwargs", "match"),
     [
-        ({"bollard_pulls_n": (300.0, 100.0)}, "increasing"),
+        ({"bollard_pulls_n": (300e3, 100e3)}, "increasing"),
         ({"sea_states": (0.0, 12.0)}, "sea states"),
         ({"values": ((1.0, 0.6),)}, "2 rows"),
         ({"values": ((1.0,), (1.0, 0.8))}, "row 1"),
         ({"values": ((1.0, 1.2), (1.0, 0.8))}, "row 1: efficiency: 1.2 must be at most 1"),
-        ({"bollard_pulls_n": (0.0, 100.0)}, "bollard pulls"),
+        ({"bollard_pulls_n": (0.0, 100e3)}, "bollard pulls"),
+        # below a tenth of a tonne-force, the least a working tug pulls
+        (
+            {"bollard_pulls_n": (1e-300, 100e3)},
+            "bollard pulls: 1.01972e-304 t must be at least 0.1 t",
+        ),
         ({"values": ((1.0, math.nan), (1.0, 0.8))}, "NaN must be a finite number"),
     ],
 )

@@ -94,7 +94,7 @@ def test_refused_input_names_the_field_and_changes_nothing(window, tab, qtbot) -
     type_in_cell(qtbot, tab.table, row, KEYS.index("name"), "Port quarter bitt")
     assert c.project == before
     assert "Bow centre bitt: TOW: 'heavy' is not a number" in messages[0]
-    assert "Bow centre bitt: TOW: -3.0 t must be positive" in messages[1]
+    assert "Bow centre bitt: TOW: -3.0 t must be at least 0.1 t" in messages[1]
     assert "is not two bearings" in messages[2]
     assert "is used twice" in messages[3]
 

@@ -85,7 +85,7 @@ def test_refused_particulars_are_named(twin, qtbot) -> None:
     retype(qtbot, d.form.name, "Wren")
     retype(qtbot, d.form.bollard_pull, "0")
     qtbot.mouseClick(d.check_button, Qt.MouseButton.LeftButton)
-    assert "tug Wren: bollard pull: 0.0 t must be positive" in d.error.text()
+    assert "tug Wren: bollard pull: 0.0 t must be at least 0.1 t" in d.error.text()
     assert not d.apply_button.isEnabled()
 
 

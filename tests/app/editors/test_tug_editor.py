@@ -104,7 +104,12 @@ def test_the_fields_are_in_the_display_units(window, qtbot) -> None:
 @pytest.mark.parametrize(
     ("field", "text", "words"),
     [
-        ("bollard_pull", "0", "tug Gannet: bollard pull: 0.0 t must be positive"),
+        ("bollard_pull", "0", "tug Gannet: bollard pull: 0.0 t must be at least 0.1 t"),
+        (
+            "bollard_pull",
+            "5e-324",
+            "tug Gannet: bollard pull: 4.94066e-324 t must be at least 0.1 t",
+        ),
         ("bollard_pull", "", "bollard pull: '' must be given"),
         ("towline_mbl", "lots", "towline MBL: 'lots' is not a number"),
         ("towline_length", "-5", "towline length"),
