@@ -27,5 +27,5 @@ KNOT = factor("speed", "kn")
 Json = dict[str, Any]
 
 #: The units the file's numbers are in, as display units: problems with a file's numbers
-#: are phrased in these (``"-5.0 kN must be positive"``), whatever the user shows on screen.
+#: are phrased in these (``"-5.0 kN must be at least 0.980665 kN"``), whatever the user shows on screen.
 FILE_UNITS = DisplayUnits(force="kN", moment="kN*m", length="m", speed="kn")

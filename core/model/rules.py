@@ -4,8 +4,8 @@ Every value a plan holds is checked against its rule here, whichever road it com
 the frozen dataclasses check it when they are built, the file decoder checks the file's
 numbers with the same rules, and the window's number parser (``app/numbers.py``) checks
 what is typed. A rule works on the core's SI value and phrases a bad value in whichever
-display units the caller names, so the window says "bollard pull: -5.0 kN must be
-positive" in the units the user chose and the file loader says it in the file's units.
+display units the caller names, so the window says "wind speed: -5.0 kn must not be
+negative" in the units the user chose and the file loader says it in the file's units.
 
 The bounds are wide, meant to refuse what cannot be meant (a 1e200 kn current, a 5000 t
 tug, a wind measured 1e-300 m above the water) and to keep every result finite, not to
