@@ -39,8 +39,8 @@ from core.solve.polytope import (
     Facets,
     WrenchPolygons,
     clean_faces,
+    exits_below,
     facets,
-    lost_exits,
     ray_exit,
     support_parts,
     worst_lost_exit,
@@ -352,7 +352,7 @@ def _worst_lost(sw: _Sweep, every: int = 1) -> tuple[np.ndarray, np.ndarray]:
     if len(fast):
         worst, who, facet = worst_lost_exit(normals, sw.parts, sw.start, rays, fast)
         if sw.coarse is not sw.shapes:
-            worst, who = _refine_worst(sw, rays, full, fast, worst, who, facet)
+            worst, who = _refine_worst(sw, rays, fast, worst, who, facet)
     for k in np.flatnonzero(~np.isin(np.arange(n), fast)):
         row = _lost_alone(sw, int(k), rays, support, solid[k])
         lower = row < worst
@@ -364,7 +364,6 @@ def _worst_lost(sw: _Sweep, every: int = 1) -> tuple[np.ndarray, np.ndarray]:
 def _refine_worst(
     sw: _Sweep,
     rays: np.ndarray,
-    full: Exit,
     fast: np.ndarray,
     s_c: np.ndarray,
     who: np.ndarray,
@@ -376,7 +375,7 @@ def _refine_worst(
     normals, parts, start = sw.normals, sw.parts, sw.start
     faces = clean_faces(normals, parts, start, rays, facet, who, owners)
     upper = _refine(sw.shapes, sw.coarse, sw.fac, faces, start, rays, s_c, who)
-    s_j, which = lost_exits(normals, parts, start, rays, full, fast, True, owners, upper)
+    s_j, which = exits_below(normals, parts, start, rays, fast, upper, owners)
     col, ray = np.nonzero((s_j < upper[None, :]) & (fast[:, None] != who[None, :]))
     out, out_who = upper.copy(), who.copy()
     if len(ray):

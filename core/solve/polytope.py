@@ -454,27 +454,24 @@ def _clean_rows(
     return out
 
 
-def lost_exits(
+def exits_below(
     normals: np.ndarray,
     parts: np.ndarray,
     start: np.ndarray,
     rays: np.ndarray,
-    full: Exit,
     lost: Sequence[int] | np.ndarray,
-    with_facets: bool = False,
-    owners: np.ndarray | None = None,
-    bound: np.ndarray | None = None,
+    bound: np.ndarray,
+    owners: np.ndarray,
 ) -> tuple[np.ndarray, np.ndarray]:
-    """(len(tugs), D) the rays' exit with each listed tug lost, for a start inside every
-    such set: the same half-spaces, less that tug's part of the support; and (len(tugs),
-    D) the half-space each leaves through (-1 where none), preferring among equals one
-    not made with the lost tug (``owners`` (P, 3): the tugs each half-space is made
-    with, -1 for none), which is a face of the smaller set.
+    """(len(lost), D) the rays' exit with each listed tug lost where it lies below
+    ``bound`` (D,) (inf elsewhere), for a start inside every such set: the same
+    half-spaces, less that tug's part of the support; and (len(lost), D) the half-space
+    each leaves through (-1 where none), preferring among equals one not made with the
+    lost tug (``owners`` (P, 3): the tugs each half-space is made with, -1 for none),
+    which is a face of the smaller set.
 
-    Only the half-spaces that could beat the best bound are looked at: with tug i lost,
-    the full set's exit face gives an upper bound, and a half-space can give no less
-    than its slack less the largest tug part on it, over n . d. With ``bound`` (D,) given,
-    only exits below it are sought: the rest come out infinite (facet -1).
+    Only the half-spaces that could come below the bound are looked at: one can give no
+    less than its slack less the largest lost tug's part on it, over n . d.
     """
     tugs = np.asarray(lost, dtype=int)
     d = rays.shape[1]
@@ -485,15 +482,6 @@ def lost_exits(
     tol = _DEN_TOL * np.linalg.norm(rays, axis=0)
     out = np.full((d, len(tugs)), np.inf)
     which = np.full((d, len(tugs)), -1)
-    has = full.facet >= 0
-    if bound is None and has.any():  # the bound from each ray's exit face of the full set
-        f = full.facet[has]
-        den = np.einsum("ij,ji->i", normals[f], rays[:, has])
-        out[has] = _rounded(slack[f, None] - sub[f]) / den[:, None]
-        which[has] = f[:, None]
-    given = bound is not None
-    if bound is None:
-        bound = out.max(axis=1)  # (D,)
     low = slack - sub.max(axis=1)  # (P,) no lost tug takes more than this off
     for blk in _blocks(len(normals), d):
         den = normals[blk] @ rays
@@ -512,25 +500,23 @@ def lost_exits(
         rows = d_sorted[starts]
         better = mins < out[rows]
         out[rows] = np.where(better, mins, out[rows])
-        if with_facets:  # the first row of each group that reaches the group's least
-            group = np.repeat(np.arange(len(starts)), np.diff(np.r_[starts, len(ranked)]))
-            near = ranked <= mins[group] * (1 + 1e-9) + 1e-12
-            if owners is not None:  # among equals, one not made with the lost tug
-                own = owners[blk][p_idx[order]]  # (N, 3)
-                made = (own[:, :, None] == tugs[None, None, :]).any(axis=1)  # (N, m)
-                clean = near & ~made
-                has_clean = np.maximum.reduceat(clean.astype(int), starts, axis=0) > 0
-                near = np.where(has_clean[group], clean, near)
-            at = np.where(near, np.arange(len(ranked))[:, None], len(ranked))
-            arg = np.minimum.reduceat(at, starts, axis=0)
-            facet = p_idx[order][arg] + blk.start
-            which[rows] = np.where(better, facet, which[rows])
-    if given:  # only exits below the bound are sought
-        over = out >= bound[:, None]
-        out[over] = np.inf
-        which[over] = -1
-    if with_facets and owners is not None:
-        _clean_ties(which, owners, tugs, normals, slack, sub, rays, tol)
+        # the first row of each group that reaches the group's least, among equals one
+        # not made with the lost tug
+        group = np.repeat(np.arange(len(starts)), np.diff(np.r_[starts, len(ranked)]))
+        near = ranked <= mins[group] * (1 + 1e-9) + 1e-12
+        own = owners[blk][p_idx[order]]  # (N, 3)
+        made = (own[:, :, None] == tugs[None, None, :]).any(axis=1)  # (N, m)
+        clean = near & ~made
+        has_clean = np.maximum.reduceat(clean.astype(int), starts, axis=0) > 0
+        near = np.where(has_clean[group], clean, near)
+        at = np.where(near, np.arange(len(ranked))[:, None], len(ranked))
+        arg = np.minimum.reduceat(at, starts, axis=0)
+        facet = p_idx[order][arg] + blk.start
+        which[rows] = np.where(better, facet, which[rows])
+    over = out >= bound[:, None]  # only exits below the bound are sought
+    out[over] = np.inf
+    which[over] = -1
+    _clean_ties(which, owners, tugs, normals, slack, sub, rays, tol)
     return np.maximum(out, 0.0).T, which.T
 
 
