@@ -277,14 +277,25 @@ class Interaction:
         """True (and the drag dropped) when the plan was edited under a drag in progress."""
         if self.drag is None or self.controller.project is self._drag_plan:
             return False
-        self.drag = None
+        self.drop_drag()
         self._clear_invalid()
         return True
+
+    def drop_drag(self) -> object:
+        """End the drag in progress, however it ends, and return it: a dragged tug goes
+        back to its resting look (Escape or an edit under the drag has no release)."""
+        drag, self.drag = self.drag, None
+        if isinstance(drag, _TugDrag):
+            body = self.scene.bodies.get(drag.body)
+            tug = None if body is None else body.tugs.get(drag.placement.tug)
+            if tug is not None:
+                tug.set_dragging(False)
+        return drag
 
     def cancel_drag(self) -> None:
         """Drop the drag in progress and put back the plan from before it."""
         if self.drag is not None:
-            self.drag = None
+            self.drop_drag()
             self._clear_invalid()
             self.controller.cancel_preview()
 
@@ -319,14 +330,11 @@ class Interaction:
     def release(self, event) -> bool:  # type: ignore[no-untyped-def]
         if self._drag_overtaken():
             return True
-        drag, self.drag = self.drag, None
+        drag = self.drop_drag()
         if drag is None:
             return False
         c = self.controller
         if isinstance(drag, _TugDrag):
-            tug = self.scene.bodies[drag.body].tugs.get(drag.placement.tug)
-            if tug is not None:
-                tug.set_dragging(False)
             c.commit_preview(f"Move {drag.placement.tug}")
         elif isinstance(drag, SectorDrag):
             self.scene.sectors.finish(drag)

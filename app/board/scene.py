@@ -369,7 +369,7 @@ class BoardScene(QGraphicsScene):
     # -- events go to the interaction -------------------------------------------------
     def _drop_edit(self, *_: object) -> None:
         """After an error in a mouse or key handler: drop the drag and its preview."""
-        self.interaction.drag = None
+        self.interaction.drop_drag()
         self.controller.cancel_preview()
 
     def _pass_on(self, handled: bool, event, base: Callable[[object], None]) -> None:  # type: ignore[no-untyped-def]

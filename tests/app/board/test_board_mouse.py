@@ -346,3 +346,36 @@ def test_drag_a_tug_on_a_lashed_group(window, qtbot) -> None:  # type: ignore[no
     )
     assert c.balance().shares[0] != share
     _panel_matches_core(window)
+
+
+def _tug_drawing(window, tug: str):  # type: ignore[no-untyped-def]
+    return next(b.tugs[tug] for b in window.board.bodies.values() if tug in b.tugs)
+
+
+@pytest.mark.parametrize("ending", ["escape", "edit under the drag"])
+def test_a_drag_ended_without_a_release_leaves_the_tug_in_its_resting_look(
+    window, qtbot, ending: str
+) -> None:  # type: ignore[no-untyped-def]
+    from app.board.items import CACHE, NO_CACHE
+
+    c = window.controller
+    view = window.view
+    pose = _pose(window, "Kestrel 3")
+    share = next(s for s in c.balance().shares if s.tug == "Gannet")
+    start_px = view_point(view, *_site(pose, share.position))
+    before = c.project
+    qtbot.mousePress(view.viewport(), Qt.MouseButton.LeftButton, pos=start_px)
+    for k in range(1, 4):
+        move_with_button(view, start_px + QPointF(15 * k, 10 * k).toPoint())
+    dragged = _tug_drawing(window, "Gannet")
+    assert dragged.glyph.cacheMode() == NO_CACHE  # drawn directly while dragged
+    if ending == "escape":
+        QTest.keyClick(view.viewport(), Qt.Key.Key_Escape)
+        assert c.project == before
+    else:  # the plan changed under the drag: the next move drops it
+        window.board.interaction.step_setting("Puffin", 0.10)
+        move_with_button(view, start_px + QPointF(60, 40).toPoint())
+    assert window.board.interaction.drag is None
+    for drawing in {id(dragged): dragged, 0: _tug_drawing(window, "Gannet")}.values():
+        assert drawing.glyph.cacheMode() == CACHE
+        assert drawing.label.cacheMode() == CACHE
