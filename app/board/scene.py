@@ -404,7 +404,12 @@ class BoardScene(QGraphicsScene):
             return
         menu = board_menu(self, event.scenePos())
         self.last_menu = menu
-        if not menu.isEmpty():
+        # A menu a right-click, parented to the view: deleted once closed, not piled up
+        # (deleteLater waits for the event loop, after the chosen entry has run).
+        menu.aboutToHide.connect(menu.deleteLater)
+        if menu.isEmpty():
+            menu.deleteLater()
+        else:
             menu.popup(event.screenPos())
         event.accept()
 

@@ -379,3 +379,28 @@ def test_a_drag_ended_without_a_release_leaves_the_tug_in_its_resting_look(
     for drawing in {id(dragged): dragged, 0: _tug_drawing(window, "Gannet")}.values():
         assert drawing.glyph.cacheMode() == CACHE
         assert drawing.label.cacheMode() == CACHE
+
+
+def test_right_clicks_leave_no_menus_behind(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    from PySide6.QtCore import QTimer
+    from PySide6.QtGui import QContextMenuEvent
+    from PySide6.QtWidgets import QApplication, QMenu
+
+    view = window.view
+    vp = view.viewport()
+    tug = _tug_drawing(window, "Gannet").glyph
+    places = [view.mapFromScene(tug.sceneBoundingRect().center()), QPointF(5, 5).toPoint()]
+
+    def right_click(k: int) -> None:
+        pt = places[k % 2]  # a tug (a menu with a submenu), then open water
+        QTimer.singleShot(0, lambda: window.board.last_menu.close())  # the user answers
+        ev = QContextMenuEvent(QContextMenuEvent.Reason.Mouse, pt, vp.mapToGlobal(pt))
+        QApplication.sendEvent(vp, ev)
+        qtbot.wait(5)
+
+    counts = []
+    for k in range(20):
+        right_click(k)
+        counts.append(len(view.findChildren(QMenu)))
+    assert max(counts) <= 2  # at most the one just closed, with its submenu, going
+    qtbot.waitUntil(lambda: not view.findChildren(QMenu), timeout=2000)
