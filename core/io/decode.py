@@ -604,26 +604,17 @@ def _decode_headway(r: _Reader, value: Any, path: str) -> HeadwayTable | None:
     if d is None:
         return None
     placeholder = r.flag(d, "placeholder", path)
-    rows = d["speed_kn_and_share"]
     inner = f"{path}.speed_kn_and_share"
-    if not isinstance(rows, list) or not rows or len(rows) > rules.MAX_TABLE_SIZE:
-        r.fail(inner, f"must be a list of 1 to {rules.MAX_TABLE_SIZE} [speed_kn, share] rows")
+    checks = (rules.HEADWAY_SPEED, rules.HEADWAY_SHARE)
+    most = rules.MAX_TABLE_SIZE
+    rows = _rows(r, d["speed_kn_and_share"], inner, checks, "row [speed_kn, share]", most)
+    if rows is None:
         return None
-    speeds, shares = [], []
-    for i, item in enumerate(rows):
-        if not isinstance(item, list) or len(item) != 2:
-            r.fail(f"{inner}[{i}]", f"{describe(item)} is not a row [speed_kn, share]")
-            return None
-        v = r.value(item[0], f"{inner}[{i}][0]", rules.HEADWAY_SPEED)
-        f = r.value(item[1], f"{inner}[{i}][1]", rules.HEADWAY_SHARE)
-        if v is None or f is None:
-            return None
-        speeds.append(v)
-        shares.append(f)
+    speeds, shares = (tuple(c) for c in zip(*rows, strict=True))
     if any(b <= a for a, b in itertools.pairwise(speeds)):
         r.fail(f"{inner}", "the speeds must be in increasing order")
         return None
-    return r.build(path, lambda: HeadwayTable(tuple(speeds), tuple(shares), placeholder))
+    return r.build(path, lambda: HeadwayTable(speeds, shares, placeholder))
 
 
 def _decode_capability(r: _Reader, value: Any, path: str) -> Capability | None:
@@ -651,22 +642,41 @@ def _decode_curve(r: _Reader, value: Any, path: str) -> CapabilityCurve | None:
     """One way's curve: a list of [relative bearing deg, share] pairs."""
     if value is None:
         return None
-    if not isinstance(value, list) or not value or len(value) > 360:
-        r.fail(path, "must be a list of 1 to 360 [bearing_deg, share] pairs, or null")
+    checks = (rules.CAPABILITY_BEARING, rules.CAPABILITY_SHARE)
+    pairs = _rows(r, value, path, checks, "pair [bearing_deg, share]", 360, ", or null")
+    if pairs is None:
         return None
-    pairs = []
+    bearings, shares = (tuple(c) for c in zip(*pairs, strict=True))
+    return r.build(path, lambda: CapabilityCurve(bearings, shares))
+
+
+def _rows(
+    r: _Reader,
+    value: Any,
+    path: str,
+    checks: tuple[rules.Range, rules.Range],
+    row: str,
+    most: int,
+    or_else: str = "",
+) -> list[tuple[float, float]] | None:
+    """A list of 1 to ``most`` [a, b] rows, a checked by ``checks[0]`` and b by
+    ``checks[1]``, in SI; None once a problem is said. ``row`` names one in the
+    messages ("row [speed_kn, share]"), ``or_else`` what else the field may be."""
+    kind, fields = row.split(" ", 1)
+    if not isinstance(value, list) or not value or len(value) > most:
+        r.fail(path, f"must be a list of 1 to {most} {fields} {kind}s{or_else}")
+        return None
+    out = []
     for i, item in enumerate(value):
         if not isinstance(item, list) or len(item) != 2:
-            r.fail(f"{path}[{i}]", f"{describe(item)} is not a pair [bearing_deg, share]")
+            r.fail(f"{path}[{i}]", f"{describe(item)} is not a {row}")
             return None
-        b = r.value(item[0], f"{path}[{i}][0]", rules.CAPABILITY_BEARING)
-        f = r.value(item[1], f"{path}[{i}][1]", rules.CAPABILITY_SHARE)
-        if b is None or f is None:
+        a = r.value(item[0], f"{path}[{i}][0]", checks[0])
+        b = r.value(item[1], f"{path}[{i}][1]", checks[1])
+        if a is None or b is None:
             return None
-        pairs.append((b, f))
-    return r.build(
-        path, lambda: CapabilityCurve(tuple(b for b, _ in pairs), tuple(f for _, f in pairs))
-    )
+        out.append((a, b))
+    return out
 
 
 def _decode_site(r: _Reader, value: Any) -> Site | None:

@@ -250,6 +250,17 @@ def test_an_old_file_without_the_new_fields_loads_with_the_placeholders() -> Non
             "line[0][1]: 3.0 must be at most 2",
         ),
         (
+            lambda d: d["tugs"][0]["capability"]["bearing_deg_and_share"].update(line=[]),
+            "tugs[0].capability.bearing_deg_and_share.line: "
+            "must be a list of 1 to 360 [bearing_deg, share] pairs, or null",
+        ),
+        (
+            lambda d: d["tugs"][0]["capability"]["bearing_deg_and_share"].update(
+                push=[[0, 1], [400, 1]]
+            ),
+            "tugs[0].capability.bearing_deg_and_share.push[1][0]: 400.0° must be at most 360°",
+        ),
+        (
             lambda d: d["tugs"][0].update(towline_warning_share_of_mbl=1.5),
             "tugs[0].towline_warning_share_of_mbl: 1.5 must be at most 1",
         ),

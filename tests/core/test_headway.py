@@ -175,3 +175,22 @@ def test_bad_rows_name_their_path() -> None:
         "tugs[1].headway.speed_kn_and_share: the speeds must be in increasing order",
     ]
     assert "stages[0].goal.speed_through_water_kn: -2.0 kn must not be negative" in problems
+
+
+@pytest.mark.parametrize(
+    ("rows", "message"),
+    [
+        ([], "speed_kn_and_share: must be a list of 1 to 50 [speed_kn, share] rows"),
+        ([[0, 1.0], [4]], "speed_kn_and_share[1]: [4] is not a row [speed_kn, share]"),
+        ([[0, 1.0], "fast"], "speed_kn_and_share[1]: 'fast' is not a row [speed_kn, share]"),
+        ([[0, "x"]], "speed_kn_and_share[0][1]: 'x' is not a number"),
+        ([[25, 1.0]], "speed_kn_and_share[0][0]: 25.0 kn must be at most 20 kn"),
+    ],
+)
+def test_bad_headway_rows_are_said_as_rows(rows: list[object], message: str) -> None:
+    # The capability's [bearing, share] pairs are read by the same reader (test_capability).
+    data = json.loads(dumps(_plan(Goal("transit", fx_n=20 * TF, speed_ms=3.5 * KNOT))))
+    data["tugs"][0]["headway"]["speed_kn_and_share"] = rows
+    with pytest.raises(ProjectFileError) as e:
+        loads(json.dumps(data), "plan.towboard")
+    assert f"tugs[0].headway.{message}" in [str(x) for x in e.value.problems]
