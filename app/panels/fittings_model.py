@@ -7,10 +7,9 @@ controller (one undo step) by :func:`app.edits.hulls.edited_fitting`.
 
 from __future__ import annotations
 
-from collections.abc import Callable
 from dataclasses import dataclass, replace
 
-from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt
+from PySide6.QtCore import Qt
 from PySide6.QtGui import QColor
 
 from app import formatting as fmt
@@ -19,11 +18,10 @@ from app.controller import Controller
 from app.edits import hulls as hull_edits
 from app.guard import guarded
 from app.panels import fitting_fields as ff
+from app.panels.hull_rows import HullRowsModel, Index
 from core.errors import TowboardError
 from core.model import rules
 from core.model.hull import Fitting, Hull
-
-Index = QModelIndex | QPersistentModelIndex
 
 
 @dataclass(frozen=True, slots=True)
@@ -56,53 +54,19 @@ COLUMNS: tuple[Column, ...] = (
 KEYS = [c.key for c in COLUMNS]
 
 
-class FittingsModel(QAbstractTableModel):
+class FittingsModel(HullRowsModel):
     """Rows are the fittings of the hull ``hull_name()`` returns."""
 
-    def __init__(self, controller: Controller, hull_name: Callable[[], str | None]) -> None:
-        super().__init__()
-        self.controller = controller
-        self._hull_name = hull_name
-        self.fittings: tuple[Fitting, ...] = ()
-        self._units = controller.project.units
-        self.refresh()
+    COLUMN_COUNT = len(COLUMNS)
+    rows: tuple[Fitting, ...]
 
-    def hull(self) -> Hull | None:
-        name = self._hull_name()
-        return next((h for h in self.controller.project.hulls if h.name == name), None)
-
-    def refresh(self) -> None:
-        """Follow the project: the rows that changed, all of them when fittings came or went."""
-        # (a reset while a cell's editor commits would close the editor under the view)
-        h = self.hull()
-        new = h.fittings if h is not None else ()
-        units = self.controller.project.units
-        if len(new) != len(self.fittings):  # a rename is a change of one row, not a reset
-            self.beginResetModel()
-            self.fittings, self._units = new, units
-            self.endResetModel()
-            return
-        old, self.fittings = self.fittings, new
-        if units != self._units:
-            self._units = units
-            self.headerDataChanged.emit(Qt.Orientation.Horizontal, 0, len(COLUMNS) - 1)
-            changed = list(range(len(new)))
-        else:
-            changed = [i for i, (a, b) in enumerate(zip(old, new, strict=True)) if a != b]
-        for i in changed:
-            self.dataChanged.emit(self.index(i, 0), self.index(i, len(COLUMNS) - 1))
+    def rows_of(self, hull: Hull) -> tuple[Fitting, ...]:
+        return hull.fittings
 
     def row_of(self, name: str) -> int:
-        return next((i for i, f in enumerate(self.fittings) if f.name == name), -1)
+        return next((i for i, f in enumerate(self.rows) if f.name == name), -1)
 
     # -- Qt model ---------------------------------------------------------------------
-    @guarded(default=0)
-    def rowCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
-        return 0 if parent.isValid() else len(self.fittings)
-
-    @guarded(default=0)
-    def columnCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
-        return 0 if parent.isValid() else len(COLUMNS)
 
     @guarded
     def headerData(
@@ -125,16 +89,16 @@ class FittingsModel(QAbstractTableModel):
         base = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
         if not index.isValid():
             return base
-        f = self.fittings[index.row()]
+        f = self.rows[index.row()]
         if COLUMNS[index.column()].key == "lines" and f.kind != "line":
             return base
         return base | Qt.ItemFlag.ItemIsEditable
 
     @guarded
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
-        if not index.isValid() or index.row() >= len(self.fittings):
+        if not index.isValid() or index.row() >= len(self.rows):
             return None
-        f = self.fittings[index.row()]
+        f = self.rows[index.row()]
         key = COLUMNS[index.column()].key
         if role in (Qt.ItemDataRole.DisplayRole, Qt.ItemDataRole.EditRole):
             return self._text(f, key, role == Qt.ItemDataRole.EditRole)
@@ -174,7 +138,7 @@ class FittingsModel(QAbstractTableModel):
         if role != Qt.ItemDataRole.EditRole or not index.isValid():
             return False
         try:
-            f = self.fittings[index.row()]
+            f = self.rows[index.row()]
             key = COLUMNS[index.column()].key
             if str(value).strip() == self._text(f, key, True):
                 return False  # the editor closed unchanged: keep the value exactly

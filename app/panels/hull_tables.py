@@ -122,7 +122,7 @@ class OutlineTab(QWidget):
 
     def _row(self) -> int:
         i = self.table.currentIndex()
-        return i.row() if i.isValid() else len(self.model.outline) - 1
+        return i.row() if i.isValid() else len(self.model.rows) - 1
 
     @guarded
     def _insert(self) -> None:
@@ -185,9 +185,9 @@ class FittingsTab(QWidget):
 
     def current(self) -> str | None:
         i = self.table.currentIndex()
-        if not i.isValid() or i.row() >= len(self.model.fittings):
+        if not i.isValid() or i.row() >= len(self.model.rows):
             return None
-        return self.model.fittings[i.row()].name
+        return self.model.rows[i.row()].name
 
     def select(self, name: str) -> None:
         row = self.model.row_of(name)

@@ -11,66 +11,34 @@ from __future__ import annotations
 
 from collections.abc import Callable
 
-from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt
+from PySide6.QtCore import Qt
 
 from app import formatting as fmt
 from app import numbers
 from app.controller import Controller
 from app.edits import hulls as hull_edits
 from app.guard import guarded
+from app.panels.hull_rows import HullRowsModel, Index
 from core.errors import InputError, TowboardError
 from core.model import rules
 from core.model.hull import Hull
 
-Index = QModelIndex | QPersistentModelIndex
 
-
-class VerticesModel(QAbstractTableModel):
+class VerticesModel(HullRowsModel):
     """Rows are the vertices of the hull ``hull_name()`` returns; columns x and y."""
 
-    #: Called with the reason when a typed coordinate is refused (the panel shows it).
-    refused: Callable[[str], None]
+    COLUMN_COUNT = 2
+    rows: tuple[tuple[float, float], ...]
 
     def __init__(self, controller: Controller, hull_name: Callable[[], str | None]) -> None:
-        super().__init__()
-        self.controller = controller
-        self._hull_name = hull_name
-        self.outline: tuple[tuple[float, float], ...] = ()
-        self._units = controller.project.units
-        self.refused = lambda _text: None
-        self.refresh()
+        super().__init__(controller, hull_name)
+        #: Called with the reason when a typed coordinate is refused (the panel shows it).
+        self.refused: Callable[[str], None] = lambda _text: None
 
-    def hull(self) -> Hull | None:
-        name = self._hull_name()
-        return next((h for h in self.controller.project.hulls if h.name == name), None)
-
-    def refresh(self) -> None:
-        h = self.hull()
-        new = h.outline if h is not None else ()
-        units = self.controller.project.units
-        if len(new) != len(self.outline):
-            self.beginResetModel()
-            self.outline, self._units = new, units
-            self.endResetModel()
-            return
-        old, self.outline = self.outline, new
-        units_changed = units != self._units
-        if units_changed:
-            self._units = units
-            self.headerDataChanged.emit(Qt.Orientation.Horizontal, 0, 1)
-        for i in range(len(new)):
-            if units_changed or old[i] != new[i]:
-                self.dataChanged.emit(self.index(i, 0), self.index(i, 1))
+    def rows_of(self, hull: Hull) -> tuple[tuple[float, float], ...]:
+        return hull.outline
 
     # -- Qt model ---------------------------------------------------------------------
-    @guarded(default=0)
-    def rowCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
-        return 0 if parent.isValid() else len(self.outline)
-
-    @guarded(default=0)
-    def columnCount(self, parent: Index = QModelIndex()) -> int:  # noqa: B008
-        return 0 if parent.isValid() else 2
-
     @guarded
     def headerData(
         self, section: int, orientation: Qt.Orientation, role: int = Qt.ItemDataRole.DisplayRole
@@ -93,9 +61,9 @@ class VerticesModel(QAbstractTableModel):
 
     @guarded
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
-        if not index.isValid() or index.row() >= len(self.outline):
+        if not index.isValid() or index.row() >= len(self.rows):
             return None
-        v = self.outline[index.row()][index.column()]
+        v = self.rows[index.row()][index.column()]
         u = self.controller.project.units
         if role == Qt.ItemDataRole.DisplayRole:
             return fmt.number(u, v, "length", 2)

@@ -35,9 +35,7 @@ def _fitting(window, name: str):  # type: ignore[no-untyped-def]
 
 def test_the_table_lists_every_fitting_in_the_display_units(window, tab) -> None:
     m = tab.model
-    assert [f.name for f in m.fittings] == [
-        f.name for f in window.controller.project.hulls[0].fittings
-    ]
+    assert [f.name for f in m.rows] == [f.name for f in window.controller.project.hulls[0].fittings]
     header = [m.headerData(i, Qt.Orientation.Horizontal) for i in range(m.columnCount())]
     assert header[KEYS.index("swl")] == "SWL (t)" and header[KEYS.index("x")] == "x (m)"
     row = _row(tab, "Bow centre bitt")
