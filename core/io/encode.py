@@ -20,10 +20,17 @@ def num(v: float) -> float:
     return float(f"{v:.12g}") + 0.0
 
 
+def angle(deg: float) -> float:
+    """An angle in degrees written with 12 significant digits and at most 11 decimals: a
+    bearing near 0 comes back from the hull frame as 90 - (90 - b), good to about 1e-13
+    degrees, so finer digits would change on each save."""
+    return num(round(deg, 11))
+
+
 def bearing(deg: float) -> float:
-    """A bearing written in [0, 360): what rounds to 360 in 12 digits is written 0, so that
+    """A bearing written in [0, 360): what rounds to 360 is written 0, so that
     save -> load -> save gives the same bytes."""
-    b = num(deg % 360.0)
+    b = angle(deg % 360.0)
     return 0.0 if b >= 360.0 else b
 
 
@@ -181,11 +188,15 @@ def _working_sector(sector: tuple[float, float], push: bool) -> list[float]:
     ``from`` plus the width for a whole circle, else taken round to the same range."""
     lo, hi = sector
     width = math.degrees(hi - lo)
-    start = num((-math.degrees(hi) + 180.0) % 360.0 - 180.0) if push else num(angle_to_bearing(hi))
+    start = (
+        angle((-math.degrees(hi) + 180.0) % 360.0 - 180.0)
+        if push
+        else bearing(angle_to_bearing(hi))
+    )
     end = start + width if width >= 360.0 - 1e-9 else (start + width) % 360.0
     if push and end >= 180.0 and width < 360.0 - 1e-9:
         end -= 360.0
-    return [start, num(end)]
+    return [start, angle(end)]
 
 
 def _fitting_kind(project: Project, p: Placement) -> str:
@@ -203,7 +214,7 @@ def _encode_placement(project: Project, p: Placement) -> Json:
         "setting_percent": num(p.setting * 100),
     }
     if _fitting_kind(project, p) == "push":
-        d["push_angle_deg"] = num(-math.degrees(p.lead_rad))
+        d["push_angle_deg"] = angle(-math.degrees(p.lead_rad))
     else:
         d["lead_deg"] = bearing(angle_to_bearing(p.lead_rad))
         d["line_length_m"] = num(p.line_length_m)
@@ -230,10 +241,10 @@ def _encode_stage(project: Project, s: Stage) -> Json:
         "conditions": {
             "wind_speed_kn": num(c.wind_speed_ms / KNOT),
             "wind_height_m": num(c.wind_height_m),
-            "wind_from_deg": num(c.wind_from_deg),
+            "wind_from_deg": angle(c.wind_from_deg),
             "gust_factor": num(c.gust_factor),
             "current_speed_kn": num(c.current_speed_ms / KNOT),
-            "current_towards_deg": num(c.current_towards_deg),
+            "current_towards_deg": angle(c.current_towards_deg),
             "air_density_kg_m3": num(c.air_density),
             "water_density_kg_m3": num(c.water_density),
             "wind_exponent": num(c.wind_exponent),
