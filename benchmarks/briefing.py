@@ -6,7 +6,8 @@ A plan of N stages is made from the twin barge sample by repeating its four stag
 - layout: the briefing's content laid into pages (what grew as N squared when every
   stage re-paginated the pages before it);
 - PDF: the whole ``write_pdf`` from cold, stage checks, solves and painting included
-  (the sizes in turns, three rounds).
+  (the sizes in turns, three rounds), wall clock and the process's CPU time (which
+  other jobs on a shared machine leave alone).
 
 It prints the median of a few runs for each N, the exponent k of a fitted power law
 t ~ N^k (least squares on the logarithms, N >= 4), and each time as a ratio against the
@@ -76,7 +77,7 @@ def main() -> None:
     quick = "--quick" in sys.argv
     plans = {n: plan_of(n) for n in SIZES}
     contents = {n: content_of(p) for n, p in plans.items()}
-    rows: dict[str, dict[int, float]] = {"layout": {}, "PDF": {}}
+    rows: dict[str, dict[int, float]] = {"layout": {}, "PDF": {}, "PDF CPU": {}}
     with tempfile.TemporaryDirectory() as d:
         device = QPdfWriter(str(Path(d) / "measure.pdf"))
         device.setResolution(1200)
@@ -91,18 +92,22 @@ def main() -> None:
             # that the machine's load weighs on them alike.
             out = Path(d) / "plan.pdf"
             runs: dict[int, list[float]] = {n: [] for n in SIZES}
+            cpu: dict[int, list[float]] = {n: [] for n in SIZES}
             for _ in range(ROUNDS):
                 for n in SIZES:
                     fresh = replace(plans[n])
-                    t0 = time.perf_counter()
+                    t0, c0 = time.perf_counter(), time.process_time()
                     write_pdf(fresh, out)
                     runs[n].append(time.perf_counter() - t0)
+                    cpu[n].append(time.process_time() - c0)
             rows["PDF"] = {n: statistics.median(t) for n, t in runs.items()}
+            # the process's own CPU time: what other jobs on a shared machine leave alone
+            rows["PDF CPU"] = {n: statistics.median(t) for n, t in cpu.items()}
         del device
-    print("stages  pages   layout s   PDF s")
+    print("stages  pages   layout s   PDF s  PDF CPU s")
     for n in SIZES:
-        pdf = rows["PDF"].get(n)
-        pdf_txt = f"{pdf:8.2f}" if pdf is not None else "       -"
+        pdf, pdf_cpu = rows["PDF"].get(n), rows["PDF CPU"].get(n)
+        pdf_txt = f"{pdf:8.2f} {pdf_cpu:10.2f}" if pdf is not None else "       -          -"
         print(f"{n:6d} {pages[n]:6d} {rows['layout'][n]:10.4f} {pdf_txt}")
     for name, row in rows.items():
         if not row:
