@@ -148,18 +148,26 @@ def _crossing(
 ) -> tuple[np.ndarray, np.ndarray]:
     """Where each line start + s d crosses the plane of triangle (p0, p1, p2): (s (R,),
     barycentric coordinates (R, 3)); nan where the line runs along the plane."""
-    e1, e2 = p1 - p0, p2 - p0
-    h = _cross(d, e2)
-    a = _dot(e1, h)
-    scale = np.sqrt(_dot(e1, e1) * _dot(e2, e2) * _dot(d, d))
-    bad = np.abs(a) <= 1e-14 * np.maximum(scale, 1e-300)
-    f = np.where(bad, np.nan, 1.0 / np.where(bad, 1.0, a))
-    sv = start - p0
-    u = f * _dot(sv, h)
-    q = _cross(sv, e1)
-    v = f * _dot(d, q)
-    s = f * _dot(e2, q)
-    return s, np.column_stack([1.0 - u - v, u, v])
+    # Triangles of a hostile plan can be tiny or huge: what overflows is a line along
+    # the plane as far as the walk is concerned (nan), not a warning.
+    with np.errstate(over="ignore", invalid="ignore", divide="ignore"):
+        e1, e2 = p1 - p0, p2 - p0
+        h = _cross(d, e2)
+        a = _dot(e1, h)
+        scale = np.sqrt(_dot(e1, e1) * _dot(e2, e2) * _dot(d, d))
+        bad = ~(np.abs(a) > 1e-14 * np.maximum(scale, 1e-300))
+        f = 1.0 / np.where(bad, 1.0, a)
+        f[bad | ~np.isfinite(f)] = np.nan
+        sv = start - p0
+        u = f * _dot(sv, h)
+        q = _cross(sv, e1)
+        v = f * _dot(d, q)
+        s = f * _dot(e2, q)
+        bary = np.column_stack([1.0 - u - v, u, v])
+    lost = ~(np.isfinite(s) & np.isfinite(bary).all(axis=1))
+    s[lost] = np.nan
+    bary[lost] = np.nan
+    return s, bary
 
 
 def walk(
