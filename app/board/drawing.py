@@ -28,6 +28,7 @@ from app.board.items import (
     Mark,
     MomentArrow,
     PathItem,
+    PiecedLine,
     TugItem,
     polygon_path,
 )
@@ -115,6 +116,8 @@ class HullDrawing:
         self.fittings: dict[str, tuple[FittingMark, Label]] = {}
         self.handles: list[Handle] = []
         self.units = DisplayUnits()
+        #: The selection last shown (reset when handles or fittings are made again).
+        self._selection_shown: object = None
         self.set_member(member)
 
     def set_member(self, member: Member) -> None:
@@ -163,6 +166,7 @@ class HullDrawing:
         self.name.setPos(g.x_min + 0.75 * g.length, 0.45 * y_port)
 
     def _sync_handles(self, hull: Hull) -> None:
+        self._selection_shown = None
         n = len(hull.outline)
         while len(self.handles) > n:
             h = self.handles.pop()
@@ -184,6 +188,7 @@ class HullDrawing:
             h.set_selected(i == selected)
 
     def _sync_fittings(self, hull: Hull) -> None:
+        self._selection_shown = None
         names = {f.name for f in hull.fittings}
         for name in list(self.fittings):
             if name not in names:
@@ -251,6 +256,10 @@ class HullDrawing:
             mark.update()
 
     def set_selection(self, selection: tuple[object, ...] | None) -> None:
+        key = (selection, self.hull.name if self.hull else None)
+        if key == self._selection_shown:
+            return  # a refresh in a drag: an outline's pen set again repaints the whole hull
+        self._selection_shown = key
         name = self.hull.name if self.hull else None
         hull_selected = (
             bool(selection) and selection[1] == name and selection[0] in ("hull", "vertex")
@@ -373,7 +382,7 @@ class BalanceDrawing:
         self.net.setZValue(Z_BALANCE)
         self.moment = MomentArrow(style.MOMENT, 3.2, root)
         self.moment.setZValue(Z_BALANCE)
-        self.action = LineItem(root)
+        self.action = PiecedLine(root)  # a drag repaints a band along it, not the board
         self.action.setPen(style.pen(style.LINE_OF_ACTION, 1.0, Qt.PenStyle.DashLine))
         self.action.setZValue(Z_BALANCE - 0.5)
         self.crossing = Mark("crossing", root, 14)

@@ -621,6 +621,9 @@ class LineItem(QGraphicsLineItem):
     def __init__(self, parent: QGraphicsItem | None = None) -> None:
         super().__init__(parent)
         self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemUsesExtendedStyleOption)
+        #: Where the dashes are counted from (parent frame), when the line is a piece of a
+        #: longer one (:class:`PiecedLine`); None: from the line's own start.
+        self.dash_from: QPointF | None = None
 
     @guarded
     def paint(
@@ -628,22 +631,78 @@ class LineItem(QGraphicsLineItem):
     ) -> None:
         painter.setPen(style.scaled_pen(self.pen(), style.device_scale(painter)))
         line = self.line()
+        origin = line.p1() if self.dash_from is None else self.dash_from
         exposed = option.exposedRect  # type: ignore[attr-defined]
         if not exposed.isEmpty():
             pad = 4.0 * max(exposed.width(), exposed.height()) / 1000.0
             clipped = clip_line(line, exposed.adjusted(-pad, -pad, pad, pad))
             if clipped is None:
                 return
-            if self.pen().style() != Qt.PenStyle.SolidLine:
-                # keep the dashes where they would be on the whole line
-                t = painter.worldTransform()
-                px = QLineF(line.p1(), clipped.p1()).length() * math.hypot(t.m11(), t.m12())
-                pen = painter.pen()
-                period = sum(pen.dashPattern()) or 1.0
-                pen.setDashOffset((px / max(pen.widthF(), 1.0)) % period)
-                painter.setPen(pen)
             line = clipped
+        if self.pen().style() != Qt.PenStyle.SolidLine and line.p1() != origin:
+            # keep the dashes where they would be on the whole line: a cosmetic pen's
+            # dashes are counted in device pixels along the line's major axis
+            t = painter.worldTransform()
+            d = t.map(line.p1()) - t.map(origin)
+            pen = painter.pen()
+            if pen.isCosmetic():
+                px = max(abs(d.x()), abs(d.y()))
+            else:
+                px = math.hypot(d.x(), d.y())
+            period = sum(pen.dashPattern()) or 1.0
+            pen.setDashOffset((px / max(pen.widthF(), 1.0)) % period)
+            painter.setPen(pen)
         painter.drawLine(line)
+
+
+class PiecedLine:
+    """A long straight line drawn as ``pieces`` LineItems end to end, dashes continuous.
+
+    A line that runs across the board (the line of action) and moves on every step of a
+    drag would, as one item, mark its whole bounding box for repainting, which for a
+    slanting line is most of the board: every tug, label and mark under it drawn again.
+    In pieces, only a band of small boxes along the old and the new line is repainted.
+    It takes the calls the board makes on a LineItem (it is not an item itself).
+    """
+
+    def __init__(self, parent: QGraphicsItem, pieces: int = 24) -> None:
+        self.pieces = [LineItem(parent) for _ in range(pieces)]
+        self._line = QLineF()
+
+    def setLine(self, line: QLineF) -> None:
+        if line == self._line:
+            return
+        self._line = QLineF(line)
+        n = len(self.pieces)
+        p, d = line.p1(), line.p2() - line.p1()
+        for k, item in enumerate(self.pieces):
+            item.dash_from = p
+            item.setLine(QLineF(p + d * (k / n), p + d * ((k + 1) / n)))
+
+    def line(self) -> QLineF:
+        return QLineF(self._line)
+
+    def setPen(self, pen: QPen) -> None:
+        for item in self.pieces:
+            item.setPen(pen)
+
+    def pen(self) -> QPen:
+        return self.pieces[0].pen()
+
+    def setVisible(self, on: bool) -> None:
+        for item in self.pieces:
+            item.setVisible(on)
+
+    def isVisible(self) -> bool:
+        return self.pieces[0].isVisible()
+
+    def setZValue(self, z: float) -> None:
+        for item in self.pieces:
+            item.setZValue(z)
+
+    def setData(self, key: int, value: object) -> None:
+        for item in self.pieces:
+            item.setData(key, value)
 
 
 class PolygonItem(QGraphicsPolygonItem):
