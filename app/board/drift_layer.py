@@ -83,9 +83,11 @@ class DriftLayer(QObject):
         if key == self._key:
             return
         if not self.enabled:
+            shown_off = self._key is not None and not self._key[-1]  # type: ignore[index]
             self._key = key
             self._timer.stop()
-            self._show(None, "")
+            if not shown_off:  # said once; not again on every move of a drag
+                self._show(None, "")
             return
         if scene.controller.previewing:  # a drag: wait for it to pause
             if not self.pending:
