@@ -218,17 +218,20 @@ class Leader(QGraphicsItem):
         super().__init__(parent)
         self.end = QPointF()
         self._pen = QPen(style.MUTED, 1.0)
+        self._rect = QRectF(-3, -3, 6, 6)
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
 
     def set_line(self, end: QPointF, color: QColor) -> None:
         self.prepareGeometryChange()
         self.end = QPointF(end)
         self._pen = QPen(color, 1.0)
+        # worked out here once: Qt asks for it several times a frame, for every leader
+        self._rect = QRectF(QPointF(0, 0), self.end).normalized().adjusted(-3, -3, 3, 3)
         self.update()
 
     @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
-        return QRectF(QPointF(0, 0), self.end).normalized().adjusted(-3, -3, 3, 3)
+        return self._rect
 
     @guarded
     def paint(
@@ -645,10 +648,8 @@ class LineItem(QGraphicsLineItem):
             t = painter.worldTransform()
             d = t.map(line.p1()) - t.map(origin)
             pen = painter.pen()
-            if pen.isCosmetic():
-                px = max(abs(d.x()), abs(d.y()))
-            else:
-                px = math.hypot(d.x(), d.y())
+            cosmetic = pen.isCosmetic()
+            px = max(abs(d.x()), abs(d.y())) if cosmetic else math.hypot(d.x(), d.y())
             period = sum(pen.dashPattern()) or 1.0
             pen.setDashOffset((px / max(pen.widthF(), 1.0)) % period)
             painter.setPen(pen)
