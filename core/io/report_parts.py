@@ -276,11 +276,15 @@ def solve_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
 
 
 def fitting_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
-    """Each tug's load on its fitting against the SWL, one line each."""
+    """Each tug's load on its fitting against its rating (TOW, else SWL), one line each."""
     out = []
     for f in br.fittings:
         load = "push" if f.mode == "push" else "tension"
-        rating = "no SWL given" if f.rating_n is None else f"SWL {u.show(f.rating_n, 'force')}"
+        rating = (
+            "no rating given"
+            if f.rating_n is None
+            else f"{f.rating_label} {u.show(f.rating_n, 'force')}"
+        )
         use = "" if f.use_of_rating is None else f" ({f.use_of_rating * 100:.0f} %)"
         flag = "  OVER" if f.over_rating else ""
         out.append(

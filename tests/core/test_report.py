@@ -216,3 +216,20 @@ def test_report_text_speaks_the_display_units_and_the_turning_sense() -> None:
     assert "a pure couple: no single force, no line of action" in text
     assert "Planning aid only" in text
     assert "-0.0" not in text
+
+
+def test_the_fittings_lines_name_the_rating_the_tension_is_checked_against() -> None:
+    # A towline is checked against the fitting's TOW where given, else its SWL (IMO
+    # MSC.1/Circ.1175); the report said "SWL" beside the TOW, unlike the briefing.
+    from dataclasses import replace
+
+    project = load(ROOT / "sample_projects" / "deck_barge_unberth.towboard")
+    hull = project.hulls[0]
+    bitt = hull.fitting("Bow centre bitt")
+    text = report_text(project)
+    assert f"against SWL {bitt.swl_n / TF:.1f} t" in text
+    towed = project.with_hull(hull.with_fitting(replace(bitt, tow_n=50 * TF)))
+    text = report_text(towed)
+    assert "Bow centre bitt       tension" in text
+    assert "against TOW 50.0 t" in text and f"SWL {bitt.swl_n / TF:.1f} t" not in text
+    assert "against no rating given" in text  # the pushing pads have none
