@@ -20,7 +20,7 @@ import numpy as np
 
 from core.errors import InputError, OutlineError, Problem
 from core.frames import bearing_to_angle
-from core.io.fileformat import FILE_UNITS, FORMAT_NAME, Json
+from core.io.fileformat import FILE_UNITS, FORMAT_NAME, KN, Json, num
 from core.model import rules
 from core.model.capability import WAYS, Capability, CapabilityCurve
 from core.model.conditions import Conditions
@@ -566,6 +566,10 @@ def _decode_tug(r: _Reader, value: Any, path: str) -> Tug | None:
         rules.TOWLINE_WARN_SHARE,
         default=TENSION_WARN_FRACTION,
     )
+    # A placeholder capability follows astern / bollard pull: both are read as the file
+    # writes them (12 digits), so that a plan's first save gives the same file again.
+    bp = None if bp is None else num(bp / KN) * KN
+    astern = None if astern is None else num(astern / KN) * KN
     capability = _decode_capability(r, d.get("capability"), f"{path}.capability")
     headway = _decode_headway(r, d.get("headway"), f"{path}.headway")
     texts = [

@@ -6,18 +6,13 @@ import math
 
 from core.errors import InputError
 from core.frames import angle_to_bearing
-from core.io.fileformat import FORMAT_NAME, FORMAT_VERSION, KN, KNOT, Json
+from core.io.fileformat import FORMAT_NAME, FORMAT_VERSION, KN, KNOT, Json, num
 from core.model.capability import WAYS, Capability
 from core.model.headway import placeholder_headway
 from core.model.hull import Hull
 from core.model.plan import Project, Stage
 from core.model.tugs import Placement, Tug
 from core.units import CHOICES
-
-
-def num(v: float) -> float:
-    """A float written with 12 significant digits, so save -> load -> save is stable."""
-    return float(f"{v:.12g}") + 0.0
 
 
 def angle(deg: float) -> float:

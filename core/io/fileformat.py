@@ -29,3 +29,9 @@ Json = dict[str, Any]
 #: The units the file's numbers are in, as display units: problems with a file's numbers
 #: are phrased in these (``"-5.0 kN must be at least 0.980665 kN"``), whatever the user shows on screen.
 FILE_UNITS = DisplayUnits(force="kN", moment="kN*m", length="m", speed="kn")
+
+
+def num(v: float) -> float:
+    """A float as the file writes it: 12 significant digits, so save -> load -> save is
+    stable."""
+    return float(f"{v:.12g}") + 0.0

@@ -123,6 +123,8 @@ FOUND = Path(__file__).resolve().parents[1] / "fuzz" / "found"
 def test_files_the_long_fuzz_run_found_are_carried_through(name: str, tmp_path: Path) -> None:
     """Files from benchmarks/fuzz_files.py (seed 7) that once failed, kept as they were:
     near_zero_sector: a lead sector from 3.6e-10 deg changed its digits on every save;
+    long_astern_pull: a bollard pull of 500.00000000050005 kN (17 digits) moved the
+    placeholder capability's shares (astern / bollard pull) on the first save;
     tiny_coefficients: a head-on wind coefficient and a capability share of 1e-300 made
     the hold limits walk divide by a near-zero (an overflow warning, an error here as in
     the long run)."""
