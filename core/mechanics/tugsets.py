@@ -33,6 +33,9 @@ from core.mechanics.balance import TugLayout
 SECTOR_STEP_DEG = 4.0
 #: A push stays within this angle of square to the hull, degrees (it cannot pull).
 MAX_PUSH_OFF_DEG = 89.0
+#: A usable force at or below this, N, is none (a tug whose efficiency or capability share
+#: is a denormal number would otherwise make the solvers' scaling overflow).
+NO_FORCE_N = 1e-3
 
 
 def _star_hull(points: np.ndarray) -> tuple[np.ndarray, bool]:
@@ -211,7 +214,7 @@ def tug_sets(
     for i, p in enumerate(layout.placements):
         if p.lead_sector_rad is None or frame is None or scale is None:
             v = layout.directions[i] * layout.usable_n[i]
-            if layout.usable_n[i] > 0:
+            if layout.usable_n[i] > NO_FORCE_N:
                 verts.append(v[None, :])
                 tugs.append(np.array([i]))
                 leads_out.append(np.array([p.lead_rad]))
@@ -232,7 +235,7 @@ def tug_sets(
         r = scale[i] * layout.shares(i, leads) if len(leads) else np.zeros(0)
         angles = frame[i] + leads
         pts = np.column_stack([r * np.cos(angles), r * np.sin(angles)])
-        keep = r > 1e-12 * max(float(scale[i]), 1.0)
+        keep = r > max(1e-12 * float(scale[i]), NO_FORCE_N)
         pts, leads = pts[keep], leads[keep]
         if not len(pts):
             polys.append(np.zeros((0, 2)))

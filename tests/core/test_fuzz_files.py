@@ -131,3 +131,36 @@ def test_files_the_long_fuzz_run_found_are_carried_through(name: str, tmp_path: 
     with warnings.catch_warnings():
         warnings.simplefilter("error")
         assert outcome((FOUND / name).read_bytes(), tmp_path)[0] == "accepted"
+
+
+def _tiny_efficiency(d: dict[str, Any]) -> None:
+    eff = d["tug_efficiency"]["efficiency"]
+    eff[:] = [[5e-324] * len(row) for row in eff]
+
+
+def _tiny_capability(d: dict[str, Any]) -> None:
+    for tug in d["tugs"]:
+        tug["capability"] = {
+            "placeholder": False,
+            "source": "fuzz",
+            "bearing_deg_and_share": {
+                "line": [[0.0, 5e-324], [180.0, 1e-300]],
+                "push": [[0.0, 5e-324]],
+                "push_pull": [[0.0, 1e-300]],
+            },
+        }
+
+
+@pytest.mark.parametrize("damage", [_tiny_efficiency, _tiny_capability])
+def test_denormal_shares_give_no_pull_not_a_crash(damage: Any, tmp_path: Path) -> None:
+    """Efficiencies or capability shares of 5e-324 (allowed: the rules run from 0) make
+    pulls of 1e-318 N, which once overflowed the hold limits' scaling (an SVD that did
+    not converge, a traceback from `towboard report`). Such a force is none: the plan
+    reports and saves with finite numbers."""
+    d = json.loads((FOUND.parents[2] / "sample_projects" / "twin_barge_move.towboard").read_text())
+    damage(d)
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        kind, project = outcome(json.dumps(d).encode(), tmp_path)
+    assert kind == "accepted"
+    assert project is not None
