@@ -84,14 +84,25 @@ def solved_stage(
     layout: TugLayout | None = None,
 ) -> tuple[Stage, PullsResult]:
     """``stage`` with every tug's setting (and, with ``leads``, solved lead) for ``goal``
-    (the live path: the same problem and solver the stage result uses)."""
-    result = solve_pulls(pulls_problem(project, stage, goal=goal, layout=layout))
+    (the live path: the same problem and solver the stage result uses).
+
+    Without ``leads`` each tug works at its lead as set: a working sector is left aside
+    for the solve, since the settings are applied with the leads as they are (a solve
+    over the sectors would give settings for leads of its own choosing)."""
     if leads:
+        result = solve_pulls(pulls_problem(project, stage, goal=goal, layout=layout))
         return result.applied_to(stage), result
+    held = stage
+    if any(p.lead_sector_rad is not None for p in stage.placements):
+        fixed = {p.tug: p.with_sector(None) for p in stage.placements}
+        held = replace(stage, placements=tuple(fixed.values()))
+        if layout is not None:
+            layout = replace(layout, placements=tuple(fixed[p.tug] for p in layout.placements))
+    result = solve_pulls(pulls_problem(project, held, goal=goal, layout=layout))
     out = stage
     for p, s in zip(result.problem.placements, result.utilisation, strict=True):
         if abs(p.setting - float(s)) > 1e-12:
-            out = out.with_placement(replace(p, setting=float(s)))
+            out = out.with_placement(stage.placement(p.tug).with_setting(float(s)))
     return out, result
 
 

@@ -247,6 +247,45 @@ def test_live_solving_follows_a_drag(holding, qtbot) -> None:  # type: ignore[no
     assert c.edit_filters == []
 
 
+def test_live_solving_in_a_drag_keeps_working_sectors_at_their_leads(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    """The pontoon sample's tugs have working sectors. Live solving sets the settings for
+    the leads as they are (the dragged one where the mouse puts it), so the pulls meet the
+    goal on every move; it once solved over the sectors, applied only the settings to the
+    leads as set, and the stage read "the pulls as set miss the goal" all through a drag."""
+    from app.board.poses import pose_in, to_site
+    from core.analysis.stage import stage_result
+
+    root = Path(__file__).resolve().parents[3]
+    assert window.open_path(root / "sample_projects" / "pontoon_swing.towboard", ask=False)
+    c = window.controller
+    c.set_stage_index(1)  # holding off the berth, every tug with a working sector
+    assert all(p.lead_sector_rad is not None for p in c.stage.placements)
+    window.solve_ui.set_live(True)
+    share = max(c.balance().shares, key=lambda s: s.pull_n)
+    view = window.view
+    window.view.fit_to_hull()
+    start = view_point(view, *to_site(pose_in(c.stage, share.hull), share.position))
+    qtbot.mousePress(view.viewport(), Qt.MouseButton.LeftButton, pos=start)
+    leads_seen = set()
+    for k in range(1, 6):
+        move_with_button(view, start + QPointF(6 * k, 9 * k).toPoint())
+        stage = c.stage
+        leads_seen.add(round(stage.placement(share.tug).lead_rad, 6))
+        fixed = replace(stage, placements=tuple(p.with_sector(None) for p in stage.placements))
+        ref = solve_pulls(pulls_problem(c.project, fixed, goal=stage.goal))
+        assert ref.feasible
+        for p, s in zip(ref.problem.placements, ref.utilisation, strict=True):
+            assert stage.placement(p.tug).setting == pytest.approx(float(s), abs=1e-9)
+        codes = [r.code for r in stage_result(c.project, c.stage_index).verdict.reasons]
+        assert "pulls_miss_goal" not in codes
+        assert stage.placement(share.tug).lead_sector_rad is not None  # the sector is kept
+    qtbot.mouseRelease(
+        view.viewport(), Qt.MouseButton.LeftButton, pos=start + QPointF(30, 45).toPoint()
+    )
+    assert len(leads_seen) > 1  # the drag turned the lead
+    window.solve_ui.set_live(False)
+
+
 def test_checks_flag_a_tug_over_its_fitting_on_the_board_and_the_table(holding) -> None:  # type: ignore[no-untyped-def]
     c = holding.controller
     stage = c.stage
