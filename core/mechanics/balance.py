@@ -287,8 +287,11 @@ class TugShare:
 
     @property
     def utilisation(self) -> float:
-        """Assigned pull as a fraction of the tug's rated pull (ahead or astern)."""
-        return self.pull_n / self.rated_n if self.rated_n > 0 else math.inf
+        """Assigned pull as a fraction of the tug's rated pull (ahead or astern); 0 for a
+        tug that cannot work the way it is placed (no rated pull there, so no pull)."""
+        if self.rated_n > 0:
+            return self.pull_n / self.rated_n
+        return 0.0 if self.pull_n <= 0 else math.inf
 
 
 @dataclass(frozen=True, slots=True)

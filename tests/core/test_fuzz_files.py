@@ -125,6 +125,9 @@ def test_files_the_long_fuzz_run_found_are_carried_through(name: str, tmp_path: 
     near_zero_sector: a lead sector from 3.6e-10 deg changed its digits on every save;
     long_astern_pull: a bollard pull of 500.00000000050005 kN (17 digits) moved the
     placeholder capability's shares (astern / bollard pull) on the first save;
+    pads_for_a_tug_that_cannot_push: a conventional tug's own capability taken out, so its
+    type's placeholder (no pushing) applies at a pushing pad: no rated pull there, and its
+    use printed as inf (found by the suite's hypothesis test);
     tiny_coefficients: a head-on wind coefficient and a capability share of 1e-300 made
     the hold limits walk divide by a near-zero (an overflow warning, an error here as in
     the long run)."""
