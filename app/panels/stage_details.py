@@ -328,6 +328,9 @@ class StageDetails(QWidget):
         project = self.controller.project
         u = project.units
         name = self.poses.item(item.row(), 0).text()
+        if name not in project.body_names():  # a row left from a plan no longer shown
+            self.fill(force=True)
+            return
         pose = body_pose(project, stage, name)
         field = {1: "x", 2: "y", 3: "heading"}[item.column()]
         try:

@@ -182,3 +182,23 @@ def test_delete_a_feature_and_undo(site):
     assert [f.name for f in controller.project.site.features] == names[:2] + names[3:]
     controller.undo_stack.undo()
     assert [f.name for f in controller.project.site.features] == names
+
+
+def test_a_pose_row_left_from_another_plan_adds_no_pose(form):
+    """A poses row naming a body the plan no longer has (a row left from the plan shown
+    before, as the monkey's seed 401 met after File > New) once added a pose for that
+    name: the window then held a plan its own file refuses. Now the row is made again."""
+    from core.io.projectfile import dumps, loads
+
+    controller, w = form
+    w.poses.blockSignals(True)
+    w.poses.item(0, 0).setText("Lark 41")  # a hull of the pair, not a body of its own
+    w.poses.blockSignals(False)
+    before = controller.project
+    w.poses.item(0, 1).setText("12.0")
+    p = controller.project
+    assert p is before
+    names = set(p.body_names())
+    assert all(pose.body in names for s in p.stages for pose in s.poses)
+    assert dumps(loads(dumps(p))) == dumps(p)
+    assert w.poses.item(0, 0).text() == "Lark pair"  # the table is made again from the plan
