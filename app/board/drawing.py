@@ -305,6 +305,7 @@ class TugDrawing:
         self.label.setZValue(Z_LABEL)
         self.label.priority = 1
         self._key: tuple[object, ...] | None = None
+        self._share: TugShare | None = None
         self._selected = False
 
     def remove(self) -> None:
@@ -322,6 +323,13 @@ class TugDrawing:
         head: float,
         text: Callable[[TugShare], str],
     ) -> None:
+        if (
+            share is self._share
+            and self._key is not None
+            and self._key[1:3] == (point, direction)
+            and self._key[5:7] == (force_scale, head)
+        ):
+            return  # the very share as before (a drag keeps the other tugs' shares)
         key = (
             share.position,
             point,
@@ -332,6 +340,7 @@ class TugDrawing:
             head,
             share.mode,
         )
+        self._share = share
         if key == self._key:
             return  # nothing about this tug changed (the drag moves one tug at a time)
         self._key = key

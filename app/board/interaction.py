@@ -417,7 +417,9 @@ class Interaction:
         project = c.with_stage(stage, project)
         # the fast path: the one tug's row of the arrays is made again, the rest are kept
         layout = with_placement_row(r.layout, project, stage, r.body, placement)
-        balance = analyse_layout(stage, r.body, layout, project.units, r.loads)
+        balance = analyse_layout(
+            stage, r.body, layout, project.units, r.loads, before=r.balance, changed_row=drag.index
+        )
         results = dict(c.results())
         results[drag.body] = BodyResult(r.body, layout, r.loads, balance, r.conditions)
         drag.result = results[drag.body]

@@ -448,14 +448,40 @@ def _notices(layout: TugLayout, pulls: np.ndarray, body: Body, units: DisplayUni
     return out
 
 
+def _kept_shares(
+    before: Balance | None, row: int | None, placements: tuple[Placement, ...]
+) -> tuple[TugShare, ...] | None:
+    """``before``'s shares when they can stand for every row but ``row`` (same tugs in the
+    same order with the same settings: the rows the drag path kept), else None."""
+    if before is None or row is None or not 0 <= row < len(placements):
+        return None
+    kept = before.shares
+    if len(kept) != len(placements):
+        return None
+    same = all(
+        k == row or (s.tug == p.tug and s.setting == p.setting)
+        for k, (s, p) in enumerate(zip(kept, placements, strict=True))
+    )
+    return kept if same else None
+
+
 def analyse_layout(
     stage: Stage,
     body: Body,
     layout: TugLayout,
     units: DisplayUnits,
     loads: Sequence[Load] = (),
+    before: Balance | None = None,
+    changed_row: int | None = None,
 ) -> Balance:
-    """Reduce a tug layout (and any other loads) to the body's balance."""
+    """Reduce a tug layout (and any other loads) to the body's balance.
+
+    The drag path (one tug moved, :func:`with_placement_row`) passes ``before``, the
+    balance of the layout it came from, and ``changed_row``, the one row made again: the
+    other tugs' shares are ``before``'s own objects (their rows are the same, so are their
+    shares), and only that row's share is made again. The sums are always worked out
+    whole.
+    """
     pulls = layout.pulls_n
     forces = layout.directions * pulls[:, None]  # (n, 2)
     c = body.centroid
@@ -477,8 +503,9 @@ def analyse_layout(
         layout.positions.tolist(),
         layout.is_push.tolist(),
     )
-    shares = tuple(
-        TugShare(
+
+    def share(i: int, p: Placement) -> TugShare:
+        return TugShare(
             tug=p.tug,
             hull=p.hull,
             point=p.point,
@@ -492,8 +519,14 @@ def analyse_layout(
             lead_bearing_deg=angle_to_bearing(math.atan2(dirs[i][1], dirs[i][0])),
             position=(pos_l[i][0], pos_l[i][1]),
         )
-        for i, p in enumerate(layout.placements)
-    )
+
+    placements = layout.placements
+    kept = _kept_shares(before, changed_row, placements)
+    if kept is not None and changed_row is not None:
+        k = changed_row
+        shares = (*kept[:k], share(k, placements[k]), *kept[k + 1 :])
+    else:
+        shares = tuple(share(i, p) for i, p in enumerate(placements))
     return Balance(
         stage=stage.name,
         body=body.name,

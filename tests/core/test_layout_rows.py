@@ -61,3 +61,45 @@ def test_rows_cut_and_remade_equal_a_fresh_layout(path, index) -> None:  # type:
                 with_placement_row(layout, project, stage_moved, body, moved),
                 tug_layout(project, stage_moved, body),
             )
+
+
+@pytest.mark.parametrize(("path", "index"), CASES, ids=lambda v: getattr(v, "stem", str(v)))
+def test_a_drag_remakes_one_share_and_keeps_the_others(path, index) -> None:  # type: ignore[no-untyped-def]
+    """The drag path's balance (one row made again, the other shares kept from the balance
+    before) equals the balance worked out whole, and keeps the other tugs' share objects
+    (the views compare them by identity first)."""
+    project = load(path)
+    stage = project.stages[index]
+    for name in posed_bodies(project, stage):
+        body = body_of(project, name)
+        layout = tug_layout(project, stage, body)
+        before = balance.analyse_layout(stage, body, layout, project.units)
+        for i, placement in enumerate(layout.placements):
+            moved = placement.with_lead(placement.lead_rad + 0.3)
+            stage_moved = stage.with_placement(moved)
+            row = with_placement_row(layout, project, stage_moved, body, moved)
+            fast = balance.analyse_layout(
+                stage_moved, body, row, project.units, before=before, changed_row=i
+            )
+            whole = balance.analyse_layout(stage_moved, body, row, project.units)
+            assert fast == whole
+            for k, share in enumerate(fast.shares):
+                assert (share is before.shares[k]) == (k != i)
+
+
+def test_a_share_is_made_again_when_its_setting_is_not_the_one_kept() -> None:
+    """Rows that are not the ones ``before`` was worked out from (here another tug's
+    setting changed too) are all made again, not taken from ``before``."""
+    project = load(next(iter(sorted(SAMPLES.glob("*.towboard")))))
+    stage = next(s for s in project.stages if len(s.placements) >= 2)
+    body = body_of(project, next(iter(posed_bodies(project, stage))))
+    layout = tug_layout(project, stage, body)
+    before = balance.analyse_layout(stage, body, layout, project.units)
+    first, second = layout.placements[0], layout.placements[1]
+    changed = stage.with_placement(second.with_setting(1.0 - second.setting / 2))
+    changed = changed.with_placement(first.with_lead(first.lead_rad + 0.2))
+    moved = tug_layout(project, changed, body)
+    fast = balance.analyse_layout(changed, body, moved, project.units, before=before, changed_row=0)
+    assert fast == balance.analyse_layout(changed, body, moved, project.units)
+    assert fast.shares[1].setting == moved.placements[1].setting != second.setting
+    assert all(a is not b for a, b in zip(fast.shares, before.shares, strict=True))
