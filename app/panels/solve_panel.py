@@ -14,7 +14,7 @@ from __future__ import annotations
 
 from dataclasses import replace
 
-from PySide6.QtCore import Qt, QTimer, Signal
+from PySide6.QtCore import QTimer, Signal
 from PySide6.QtGui import QColor
 from PySide6.QtWidgets import (
     QCheckBox,
@@ -27,7 +27,6 @@ from PySide6.QtWidgets import (
     QLineEdit,
     QPushButton,
     QTableWidget,
-    QTableWidgetItem,
     QVBoxLayout,
     QWidget,
 )
@@ -35,6 +34,7 @@ from PySide6.QtWidgets import (
 from app.controller import BodyResult, Controller
 from app.guard import guarded
 from app.numbers import message, parse_value
+from app.panels.table_cells import Cell, fill
 from core.analysis.stage import BodyResult as StageBody
 from core.analysis.stage import StageResult
 from core.errors import TowboardError
@@ -400,34 +400,29 @@ class SolvePanel(QWidget):
             self.notes_changed.emit(notes)
 
     def _fill_uses(self, main: StageBody | None) -> None:
-        t = self.uses
         r = self.result
         u = self.controller.project.units
         shares = [] if main is None else list(main.balance.shares)
-        t.setRowCount(len(shares))
         solved = {} if r is None else {p.tug: i for i, p in enumerate(r.problem.placements)}
-        for row, sh in enumerate(shares):
+        rows = []
+        for sh in shares:
             use = sh.pull_n / sh.usable_n if sh.usable_n > 0 else 0.0
-            cells = [
-                sh.tug,
-                u.show(sh.usable_n, "force"),
-                u.show(sh.pull_n, "force"),
-                f"{use * 100:.0f} %",
-                ", ".join(self.notes.get(sh.tug, [])),
-            ]
+            pull = u.show(sh.pull_n, "force")
             if r is not None and sh.tug in solved:
                 i = solved[sh.tug]
                 if abs(float(r.pulls_n[i]) - sh.pull_n) > 0.005 * max(sh.usable_n, 1.0):
-                    cells[2] += f"  (solved {u.show(float(r.pulls_n[i]), 'force')})"
-            for col, text in enumerate(cells):
-                item = QTableWidgetItem(text)
-                if col in (1, 2, 3):
-                    item.setTextAlignment(
-                        Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter
-                    )
-                if (col == 3 and use > 1 + 1e-9) or (col == 4 and cells[4]):
-                    item.setForeground(FAIL)
-                t.setItem(row, col, item)
+                    pull += f"  (solved {u.show(float(r.pulls_n[i]), 'force')})"
+            notes = ", ".join(self.notes.get(sh.tug, []))
+            rows.append(
+                [
+                    Cell(sh.tug),
+                    Cell(u.show(sh.usable_n, "force"), right=True),
+                    Cell(pull, right=True),
+                    Cell(f"{use * 100:.0f} %", True, FAIL if use > 1 + 1e-9 else None),
+                    Cell(notes, color=FAIL if notes else None),
+                ]
+            )
+        fill(self.uses, rows)
 
     def _fill_lost(self, main: StageBody | None) -> None:
         t = self.lost
@@ -457,21 +452,16 @@ class SolvePanel(QWidget):
             head += f" The loss that hurts most: {worst.tug}."
         self.lost_title.setText(head)
         self.lost_title.setStyleSheet(f"color: {(OK if c.passes else FAIL).name()};")
-        t.setRowCount(len(c.cases))
-        for row, case in enumerate(c.cases):
+        rows = []
+        for case in c.cases:
             missing = "—" if case.holds else shortfall_words(case.result.shortfall, u)
-            cells = [
+            texts = [
                 case.tug,
                 "holds" if case.holds else "fails",
                 f"{case.worst_utilisation * 100:.0f} % ({case.worst_tug or '—'})",
                 missing,
             ]
-            for col, text in enumerate(cells):
-                item = QTableWidgetItem(text)
-                if not case.holds:
-                    item.setForeground(FAIL)
-                if worst is not None and case.tug == worst.tug:
-                    f = item.font()
-                    f.setBold(True)
-                    item.setFont(f)
-                t.setItem(row, col, item)
+            colour = None if case.holds else FAIL
+            bold = worst is not None and case.tug == worst.tug
+            rows.append([Cell(text, color=colour, bold=bold) for text in texts])
+        fill(t, rows)

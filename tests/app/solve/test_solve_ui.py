@@ -347,6 +347,31 @@ def test_losing_the_big_tug_fails_and_is_flagged(holding, qtbot) -> None:  # typ
     assert "Skua" not in holding.board.tug_notes or "fails" not in holding.board.tug_notes["Skua"]
 
 
+def test_the_tables_set_only_the_cells_that_changed(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    """A recheck with nothing changed sets no cell; a changed setting sets the cells that
+    say it, and the table's columns still fit what they show (sized once, after)."""
+    c = holding.controller
+    panel = holding.solve_ui.solve_panel
+    _choose_goal(qtbot, panel, "hold")
+    panel.recheck()
+    changes: list[int] = []
+    for table in (panel.uses, panel.lost):
+        table.model().dataChanged.connect(lambda *_: changes.append(1))
+    items = [panel.uses.item(r, 0) for r in range(panel.uses.rowCount())]
+    panel.recheck()
+    assert changes == []
+    stage = c.stage
+    tern = stage.placement("Tern")
+    c.apply(c.with_stage(stage.with_placement(tern.with_setting(0.9))), "Tern harder")
+    panel.recheck()
+    row = next(r for r in range(panel.uses.rowCount()) if panel.uses.item(r, 0).text() == "Tern")
+    assert panel.uses.item(row, 3).text() == "90 %"
+    assert 0 < len(changes) < panel.uses.rowCount() * panel.uses.columnCount()
+    assert [panel.uses.item(r, 0) for r in range(panel.uses.rowCount())] == items  # kept
+    header = panel.uses.horizontalHeader()
+    assert header.sectionSize(2) >= panel.uses.sizeHintForColumn(2)
+
+
 # -- the hold limits plot -----------------------------------------------------------------
 
 
