@@ -18,7 +18,7 @@ import time
 import traceback
 
 import numpy as np
-from PySide6.QtCore import QPointF, QRectF, QSize, Qt, QTimer
+from PySide6.QtCore import QAbstractEventDispatcher, QPointF, QRectF, QSize, Qt, QTimer
 from PySide6.QtGui import (
     QColor,
     QFont,
@@ -60,8 +60,18 @@ HELD_FILL = style.ALL_TUGS_FILL
 LIMIT = style.NO_GO  # the stage's go / no-go limit, a dotted ring
 
 #: While a drag is in progress the worst-tug-lost curve is swept again at most this
-#: often, seconds (the all-tugs curve follows every mouse move).
+#: often, seconds (the all-tugs curve at every sweep of the drag).
 LOST_EVERY_S = 0.05
+#: A drag's sweeps come at most this often, seconds, and never in the mouse move's own
+#: handling: they run once the board has been painted, in the time between moves.
+FOLLOW_EVERY_S = 0.1
+#: ... and at least this many times their own cost apart (a sweep of a large fleet must
+#: not take the drag's whole time).
+FOLLOW_SPARE = 4.0
+#: A sweep that took longer than this, seconds, waits until the mouse has rested for
+#: REST_S (it could not keep up with the mouse anyway).
+COSTLY_S = 0.05
+REST_S = 0.25
 
 
 class HoldPlot(QWidget):
@@ -358,8 +368,11 @@ class HoldLimitsPanel(QWidget):
 
     Once an edit settles the plot shows the stage result's hold limits (every degree, all
     tugs and each tug lost). With ``follow_drag`` on (live solving) and the plot visible,
-    a drag in progress sweeps all tugs every 5 degrees on every mouse move and the worst
-    tug lost every 10 degrees up to 20 times a second, so the plot follows the mouse.
+    a drag in progress sweeps all tugs every 5 degrees and the worst tug lost every 10
+    degrees, so the plot follows the mouse: at most every :data:`FOLLOW_EVERY_S` (and
+    :data:`FOLLOW_SPARE` times a sweep's cost), from a timer, so the board's moves are
+    not held up by it; a fleet whose sweep is costly is swept when the mouse rests. The
+    drag's end always shows the stage result's limits.
     """
 
     def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
@@ -402,6 +415,15 @@ class HoldLimitsPanel(QWidget):
         self._timer.setSingleShot(True)
         self._timer.setInterval(0)
         self._timer.timeout.connect(guarded(lambda: self.update_now(coarse=False)))
+        #: A drag's sweep, waiting for its turn (see :meth:`_changed`).
+        self._follow = QTimer(self)
+        self._follow.setSingleShot(True)
+        self._follow.timeout.connect(self._follow_drag)
+        self._swept_at: float | None = None  # when the drag's last sweep ended
+        self._sweep_cost = 0.0  # what it took, seconds
+        self._waiting = False  # for the event loop to go idle (see _schedule_follow)
+        #: How many sweeps the drags have run (for whoever checks the plot keeps up).
+        self.drag_sweeps = 0
         controller.changed.connect(self._changed)
         self.update_now(coarse=False)
 
@@ -410,9 +432,45 @@ class HoldLimitsPanel(QWidget):
         if self.controller.previewing:
             self._timer.stop()
             if self.follow_drag and on_screen(self):
-                self.update_now(coarse=True)
+                self._schedule_follow()
         else:
+            self._follow.stop()
+            self._swept_at = None
             self._timer.start()
+
+    def _schedule_follow(self) -> None:
+        """Sweep for the drag once its turn comes (one sweep for any number of moves)."""
+        if self._sweep_cost > COSTLY_S:
+            self._follow.start(round(REST_S * 1000))  # again on every move: when it rests
+            return
+        if self._follow.isActive() or self._waiting:
+            return
+        # the turn is counted from when the event loop next goes idle (the move handled
+        # and the board painted), so the sweep runs between moves, not inside one
+        self._waiting = True
+        QAbstractEventDispatcher.instance().aboutToBlock.connect(self._idle)
+
+    @guarded
+    def _idle(self) -> None:
+        QAbstractEventDispatcher.instance().aboutToBlock.disconnect(self._idle)
+        self._waiting = False
+        if not self.controller.previewing:
+            return
+        wait = 0.0
+        if self._swept_at is not None:
+            gap = max(FOLLOW_EVERY_S, FOLLOW_SPARE * self._sweep_cost)
+            wait = self._swept_at + gap - time.perf_counter()
+        self._follow.start(max(0, round(wait * 1000)))
+
+    @guarded
+    def _follow_drag(self) -> None:
+        if not (self.controller.previewing and self.follow_drag and on_screen(self)):
+            return
+        start = time.perf_counter()
+        self.update_now(coarse=True)
+        self.drag_sweeps += 1
+        self._swept_at = time.perf_counter()
+        self._sweep_cost = self._swept_at - start
 
     def update_now(self, coarse: bool) -> None:
         """Show the hold limits: the stage result's (``coarse`` False), or during a drag a

@@ -418,8 +418,9 @@ def test_the_plot_follows_a_drag_at_five_degrees(holding, qtbot) -> None:  # typ
     holding.show()
     stage = c.stage
     p = stage.placement("Gannet")
-    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
     hold = holding.solve_ui.hold
+    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    qtbot.waitUntil(lambda: hold.drag_sweeps > 0)  # once the event loop goes idle
     assert hold.limits is not None
     assert len(hold.limits.problem.directions_deg) == 72
     assert hold.plot.coarse
@@ -427,6 +428,43 @@ def test_the_plot_follows_a_drag_at_five_degrees(holding, qtbot) -> None:  # typ
     qtbot.waitUntil(
         lambda: hold.limits is not None and len(hold.limits.problem.directions_deg) == 360
     )
+
+
+def test_the_plot_sweeps_between_the_moves_of_a_drag_and_shows_the_final_limits(
+    holding, qtbot
+) -> None:  # type: ignore[no-untyped-def]
+    """Moves that come faster than the plot's turn share one sweep, run once the event
+    loop goes idle (not inside a move); the drag's end shows the stage result's limits."""
+    from app.panels import hold_plot
+
+    c = holding.controller
+    holding.solve_ui.set_live(True)
+    holding.show()
+    hold = holding.solve_ui.hold
+    qtbot.waitUntil(lambda: not hold._timer.isActive())
+    p = c.stage.placement("Gannet")
+    stage = c.stage
+    for k in range(1, 6):  # five moves handled one after another, the loop not idle
+        c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.05 * k))))
+    assert hold.drag_sweeps == 0
+    qtbot.waitUntil(lambda: hold.drag_sweeps == 1)
+    shown = hold.limits
+    assert shown is not None and len(shown.problem.directions_deg) == 72
+    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.4))))
+    qtbot.wait(round(hold_plot.FOLLOW_EVERY_S * 500))  # within its turn: the plot waits
+    assert hold.drag_sweeps == 1 and hold.limits is shown
+    qtbot.waitUntil(lambda: hold.drag_sweeps == 2)
+    # a costly sweep (a large fleet) waits for the mouse to rest
+    hold._sweep_cost = 2 * hold_plot.COSTLY_S
+    for k in range(3):
+        c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.5 + 0.05 * k))))
+        qtbot.wait(round(hold_plot.REST_S * 300))
+    assert hold.drag_sweeps == 2
+    qtbot.waitUntil(lambda: hold.drag_sweeps == 3)
+    c.commit_preview("turn")
+    qtbot.waitUntil(lambda: hold.limits is not None and not hold.plot.coarse)
+    main = c.stage_result().main
+    assert hold.limits is main.hold_limits  # the final figures are the stage result's
 
 
 def test_no_wind_area_says_why_instead_of_a_plot(window) -> None:  # type: ignore[no-untyped-def]
