@@ -106,13 +106,18 @@ class Subject:
         """Let go of the windows."""
 
 
-def _tug_grip(view, controller):  # type: ignore[no-untyped-def]
-    """The viewport point of the first tug on a line (its towing point)."""
+def _tug_grip(view, controller, pulling: bool = False):  # type: ignore[no-untyped-def]
+    """The viewport point of the first tug on a line (its towing point); ``pulling``: the
+    first on a line that pulls (with live solving, a tug the solver gives no pull may be
+    dragged without any setting changing)."""
     from PySide6.QtCore import QPointF
 
     r = next(iter(controller.results().values()))
-    i = next(k for k in range(len(r.layout.placements)) if not r.layout.is_push[k])
-    return QPointF(view.mapFromScene(QPointF(*r.layout.positions[i])))
+    lay = r.layout
+    rows = [k for k in range(len(lay.placements)) if not lay.is_push[k]]
+    if pulling:
+        rows = [k for k in rows if lay.placements[k].setting > 0.01] or rows
+    return QPointF(view.mapFromScene(QPointF(*lay.positions[rows[0]])))
 
 
 class WindowSubject(Subject):
@@ -132,11 +137,11 @@ class WindowSubject(Subject):
         w.view.fit_to_hull()
         _settle(0.2)
         self.viewport = w.view.viewport()
-        self.start = _tug_grip(w.view, w.controller)
         self.live = live
+        self.start = _tug_grip(w.view, w.controller, pulling=live)
 
     def grip(self):  # type: ignore[no-untyped-def]
-        return _tug_grip(self.window.view, self.window.controller)
+        return _tug_grip(self.window.view, self.window.controller, pulling=self.live)
 
     def grabbed(self) -> bool:
         return self.window.board.interaction.drag is not None
