@@ -37,3 +37,12 @@ def test_core_tests_pass_with_qt_absent() -> None:
     )
     assert done.returncode == 0, done.stdout[-3000:] + done.stderr[-2000:]
     assert " passed" in done.stdout
+
+
+def test_only_the_plain_file_reader_builds_values_from_checked_fields() -> None:
+    # core.model.checked builds tugs and placements without checking their fields again:
+    # only the file reader's plain path, which has checked each by its rule, may use it.
+    from tests.test_import_cycles import import_graph
+
+    users = sorted(m for m, wanted in import_graph().items() if "core.model.checked" in wanted)
+    assert users == ["core.io.plain"]

@@ -20,6 +20,7 @@ import numpy as np
 
 from core.errors import InputError, OutlineError, Problem
 from core.frames import bearing_to_angle
+from core.io import plain
 from core.io.fileformat import FILE_UNITS, FORMAT_NAME, KN, Json, num
 from core.model import rules
 from core.model.capability import WAYS, Capability, CapabilityCurve
@@ -303,6 +304,36 @@ class _Reader:
         return None
 
 
+def _each(
+    r: _Reader,
+    d: Json,
+    key: str,
+    path: str,
+    fast: Callable[[Any], Any],
+    careful: Callable[[_Reader, Any, str], T | None],
+) -> list[T]:
+    """The values of the list at ``key``: each entry read by ``fast`` (core.io.plain), or
+    where that gives plain.NOT_PLAIN, by ``careful``, which says what is wrong with the
+    entry's path (and gives None)."""
+    value = d.get(key, [])
+    if not isinstance(value, list):
+        r.fail(_join(path, key), f"must be a list, not {describe(value)}")
+        return []
+    out: list[T] = []
+    base = None
+    not_plain = plain.NOT_PLAIN
+    for i, item in enumerate(value):
+        got = fast(item)
+        if got is not_plain:
+            if base is None:
+                base = _join(path, key)
+            got = careful(r, item, f"{base}[{i}]")
+            if got is None:
+                continue
+        out.append(got)
+    return out
+
+
 def decode(data: Any) -> tuple[Project | None, list[Problem]]:
     """A Project from a JSON tree, or None and the list of every problem found."""
     r = _Reader()
@@ -338,7 +369,7 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
         for p, item in r.items(top, "groups", "")
         if (g := _decode_group(r, item, p, hull_names)) is not None
     ]
-    tugs = [t for p, item in r.items(top, "tugs", "") if (t := _decode_tug(r, item, p)) is not None]
+    tugs = _each(r, top, "tugs", "", plain.tug, _decode_tug)
     efficiency = _decode_efficiency(r, top.get("tug_efficiency"), "tug_efficiency")
     drift = _decode_drift(r, top.get("drift"), "drift")
     site = _decode_site(r, top.get("site", {}))
@@ -727,8 +758,18 @@ class _Context:
 
     def __init__(self, hulls: list[Hull], tugs: set[str], bodies: set[str]) -> None:
         self.hulls = {h.name: h for h in hulls}
-        self.kinds = {h.name: {f.name: f.kind for f in h.fittings} for h in hulls}
+        self.kinds: dict[str, dict[str, str]] = {
+            h.name: {f.name: f.kind for f in h.fittings} for h in hulls
+        }
         self.tugs, self.bodies = tugs, bodies
+
+    def plain_placement(self, value: Any) -> Any:
+        """A plain placement read at once (core.io.plain), or plain.NOT_PLAIN."""
+        return plain.placement(value, self.tugs, self.kinds)
+
+    def placement(self, r: _Reader, value: Any, path: str) -> Placement | None:
+        """A placement read the careful way."""
+        return _decode_placement(r, value, path, self)
 
 
 _PLACEMENT_KEYS = (
@@ -844,11 +885,7 @@ def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | N
     poses = [
         pose for p, item in r.items(d, "poses", path) if (pose := _decode_pose(r, item, p, ctx))
     ]
-    placements = [
-        pl
-        for p, item in r.items(d, "tugs", path)
-        if (pl := _decode_placement(r, item, p, ctx)) is not None
-    ]
+    placements = _each(r, d, "tugs", path, ctx.plain_placement, ctx.placement)
     seen: set[str] = set()
     for i, pl in enumerate(placements):
         if pl.tug in seen:

@@ -1,0 +1,223 @@
+"""The plain case of a file's tugs and placements, read at once.
+
+A plan of thousands of tugs is mostly tugs and placements written as the program writes
+them: known keys, names of the plan, numbers within their rules. The readers here take
+only that case, each field checked once by its rule (core.model.rules) in the file's
+unit, and build the value without checking it again (core.model.checked). Anything else
+(a key they do not know, a null, a number out of its range, a working sector, a
+capability or headway table) gives None, and the careful reader in core.io.decode reads
+that entry instead: it says what is wrong with the field's path, or reads what is not
+plain. Both give the same value for an entry both read (tests/core/test_plain_read.py).
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable
+from typing import Any
+
+from core.frames import bearing_to_angle
+from core.io.fileformat import FILE_UNITS, KN, num
+from core.model import checked, rules
+from core.model.tugs import TENSION_WARN_FRACTION
+
+#: What a plain reader gives for a value it does not take.
+NOT_PLAIN: Any = object()
+
+
+def plain_number(rule: rules.Range, nullable: bool = False) -> Callable[[Any], Any]:
+    """A reader of one number of the file for ``rule``: a float or an int (not a bool) in the
+    file's unit whose SI value keeps ``rule`` gives that SI value; None gives None when
+    ``nullable``; anything else gives :data:`NOT_PLAIN`."""
+    factor = rules.unit_of(rule.kind, FILE_UNITS)[0]
+    low, high, above = rule.limits()
+
+    def read(v: Any) -> Any:
+        if type(v) is float or (type(v) is int and -1e300 < v < 1e300):
+            si = v * factor
+            if (low < si <= high) if above else (low <= si <= high):
+                return si
+        elif v is None and nullable:
+            return None
+        return NOT_PLAIN
+
+    return read
+
+
+_name_problem = rules.NAME.problem
+_label_problem = rules.LABEL.problem
+
+_setting = plain_number(rules.SETTING)
+_bearing = plain_number(rules.BEARING)
+_push_angle = plain_number(rules.PUSH_ANGLE)
+_line_length = plain_number(rules.LINE_LENGTH)
+
+PLACEMENT_KEYS = frozenset(
+    (
+        "tug",
+        "hull",
+        "point",
+        "setting_percent",
+        "lead_deg",
+        "line_length_m",
+        "push_angle_deg",
+        "astern",
+        "lead_sector_deg",
+        "push_pull",
+    )
+)
+
+
+def placement(d: Any, tugs: set[str] | frozenset[str], kinds: dict[str, dict[str, str]]) -> Any:
+    """A placement without a working sector whose every field is plain and right, or
+    :data:`NOT_PLAIN`. ``tugs`` are the plan's tug names, ``kinds`` the kind ("line" or
+    "push") of each fitting of each hull; the names, being the plan's, keep the name rule."""
+    if (
+        type(d) is not dict
+        or not d.keys() <= PLACEMENT_KEYS
+        or d.get("lead_sector_deg") is not None
+    ):
+        return NOT_PLAIN
+    tug, hull, point = d.get("tug"), d.get("hull"), d.get("point")
+    if type(tug) is not str or type(hull) is not str or type(point) is not str:
+        return NOT_PLAIN
+    points = kinds.get(hull)
+    kind = None if points is None else points.get(point)
+    setting = _setting(d.get("setting_percent"))
+    astern, push_pull = d.get("astern", False), d.get("push_pull", False)
+    if (
+        kind is None
+        or tug not in tugs
+        or setting is NOT_PLAIN
+        or type(astern) is not bool
+        or type(push_pull) is not bool
+    ):
+        return NOT_PLAIN
+    if kind == "push":
+        if "lead_deg" in d or "line_length_m" in d:
+            return NOT_PLAIN
+        angle = _push_angle(d["push_angle_deg"]) if "push_angle_deg" in d else 0.0
+        if angle is NOT_PLAIN:
+            return NOT_PLAIN
+        lead, length = -math.radians(angle), 30.0
+    else:
+        if push_pull or "push_angle_deg" in d:
+            return NOT_PLAIN
+        bearing = _bearing(d["lead_deg"]) if "lead_deg" in d else 0.0
+        length = _line_length(d["line_length_m"]) if "line_length_m" in d else 30.0
+        if bearing is NOT_PLAIN or length is NOT_PLAIN:
+            return NOT_PLAIN
+        lead = bearing_to_angle(bearing)
+    return checked.placement(tug, hull, point, setting, lead, length, astern, push_pull)
+
+
+_pull = plain_number(rules.BOLLARD_PULL)
+_astern_pull = plain_number(rules.ASTERN_PULL, nullable=True)
+_height = plain_number(rules.TOWING_POINT_HEIGHT, nullable=True)
+_towline = plain_number(rules.TOWLINE_LENGTH, nullable=True)
+_mbl = plain_number(rules.TOWLINE_MBL, nullable=True)
+_share = plain_number(rules.TOWLINE_WARN_SHARE)
+_pull_holds = rules.BOLLARD_PULL.holds
+_astern_holds = rules.ASTERN_PULL.holds
+
+TUG_KEYS = frozenset(
+    (
+        "name",
+        "bollard_pull_kN",
+        "type",
+        "role",
+        "astern_pull_kN",
+        "towing_point_height_m",
+        "certificate_date",
+        "towline_length_m",
+        "towline_mbl_kN",
+        "call_sign",
+        "working_channel",
+        "towline_warning_share_of_mbl",
+        "capability",
+        "headway",
+    )
+)
+
+
+def _as_written(si: float, raw: Any) -> float:
+    """A pull as the file writes it (12 digits, in kN), so that a plan's first save gives
+    the same file again (an integer number of kN is one already)."""
+    return si if type(raw) is int else num(si / KN) * KN
+
+
+_TEXT_KEYS = ("type", "role", "certificate_date", "call_sign", "working_channel")
+_NO_TEXTS = ("",) * len(_TEXT_KEYS)
+_NUMBER_KEYS = frozenset(
+    (
+        "astern_pull_kN",
+        "towing_point_height_m",
+        "towline_length_m",
+        "towline_mbl_kN",
+        "towline_warning_share_of_mbl",
+    )
+)
+
+
+def _texts(d: dict[str, Any]) -> Any:
+    """The tug's five texts ("" where absent), or :data:`NOT_PLAIN` if one breaks its rule."""
+    texts = tuple(d.get(key, "") for key in _TEXT_KEYS)
+    for t in texts:
+        if type(t) is not str or _label_problem(t) is not None:
+            return NOT_PLAIN
+    return texts
+
+
+def tug(d: Any) -> Any:
+    """A tug without its own capability or headway table (its type's placeholders apply)
+    whose every field is plain and right, or :data:`NOT_PLAIN`."""
+    if type(d) is not dict or not d.keys() <= TUG_KEYS:
+        return NOT_PLAIN
+    name, raw_bp = d.get("name"), d.get("bollard_pull_kN")
+    bp = _pull(raw_bp)
+    if (
+        type(name) is not str
+        or _name_problem(name) is not None
+        or bp is NOT_PLAIN
+        or d.get("capability") is not None
+        or d.get("headway") is not None
+    ):
+        return NOT_PLAIN
+    astern = height = towline = mbl = None
+    share = TENSION_WARN_FRACTION
+    raw_astern = None
+    if not _NUMBER_KEYS.isdisjoint(d):
+        raw_astern = d.get("astern_pull_kN")
+        astern = _astern_pull(raw_astern)
+        height = _height(d.get("towing_point_height_m"))
+        towline = _towline(d.get("towline_length_m"))
+        mbl = _mbl(d.get("towline_mbl_kN"))
+        if "towline_warning_share_of_mbl" in d:
+            share = _share(d["towline_warning_share_of_mbl"])
+        if NOT_PLAIN in (astern, height, towline, mbl, share):
+            return NOT_PLAIN
+    texts = _NO_TEXTS if d.keys().isdisjoint(_TEXT_KEYS) else _texts(d)
+    if texts is NOT_PLAIN:
+        return NOT_PLAIN
+    bp = _as_written(bp, raw_bp)
+    if astern is not None:
+        astern = _as_written(astern, raw_astern)
+    # Written as the file writes them, the pulls are checked again (a pull at its rule's
+    # bound could round past it).
+    if not _pull_holds(bp) or (astern is not None and not _astern_holds(astern)):
+        return NOT_PLAIN
+    tug_type, role, certificate, call_sign, channel = texts
+    return checked.tug(
+        name,
+        bp,
+        astern,
+        tug_type,
+        role,
+        height,
+        certificate,
+        towline,
+        mbl,
+        call_sign,
+        channel,
+        share,
+    )

@@ -1,0 +1,101 @@
+"""Tugs and placements built from fields the file reader has already checked.
+
+The frozen dataclasses check every field against its rule (core.model.rules) in
+``__post_init__``. The file reader (core.io.decode) checks the same fields by the same
+rules as it reads them, because it must name the file's field and its unit in a
+message; building the value the usual way would then check each field twice, which is
+most of the time a plan of thousands of tugs takes to load. The functions here build
+the value without checking it again, and do what ``__post_init__`` does besides
+checking (a tug's placeholder capability and headway table).
+
+Only the file reader's plain path (core.io.plain) may use them, and only with values it
+has checked by the rule ``__post_init__`` would apply: ``tests/test_architecture.py``
+fails if any other module of the program imports this one, and
+``tests/core/test_plain_read.py`` holds the values built here equal to the ones built
+the usual way.
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+from core.model.capability import default_capability, tug_kind
+from core.model.headway import placeholder_headway
+from core.model.tugs import Placement, Tug
+
+
+def _twin(cls: type) -> type:
+    """A plain class with the slots of the frozen dataclass ``cls``, in the same order: its
+    instances are written with ordinary (fast) attribute stores, then take ``cls`` as
+    their class. Python allows that change between classes of one layout; the result is
+    an ordinary frozen ``cls``, as immutable as one built by its ``__init__``."""
+    return type(f"_{cls.__name__}Fields", (), {"__slots__": cls.__slots__})  # type: ignore[attr-defined]
+
+
+_PlacementFields = _twin(Placement)
+_TugFields = _twin(Tug)
+
+
+def placement(
+    tug: str,
+    hull: str,
+    point: str,
+    setting: float,
+    lead_rad: float,
+    line_length_m: float,
+    astern: bool,
+    push_pull: bool,
+) -> Placement:
+    """A Placement without a working sector, from fields each checked by its rule: the
+    names are names of the plan (so :data:`rules.NAME` holds), ``setting`` keeps
+    :data:`rules.SETTING`, ``lead_rad`` :data:`rules.LEAD` and ``line_length_m``
+    :data:`rules.LINE_LENGTH`."""
+    p: Any = _PlacementFields()
+    p.tug = tug
+    p.hull = hull
+    p.point = point
+    p.setting = setting
+    p.lead_rad = lead_rad
+    p.line_length_m = line_length_m
+    p.astern = astern
+    p.lead_sector_rad = None
+    p.push_pull = push_pull
+    p.__class__ = Placement
+    return p  # type: ignore[no-any-return]
+
+
+def tug(
+    name: str,
+    bollard_pull_n: float,
+    astern_pull_n: float | None,
+    tug_type: str,
+    role: str,
+    towing_point_height_m: float | None,
+    certificate_date: str,
+    towline_length_m: float | None,
+    towline_mbl_n: float | None,
+    call_sign: str,
+    working_channel: str,
+    towline_warn_fraction: float,
+) -> Tug:
+    """A Tug with its type's placeholder capability and headway table, from fields each
+    checked by the rule :class:`Tug` applies to it (the name by :data:`rules.NAME`, the
+    texts by :data:`rules.LABEL`, the numbers by their ranges; None where not given)."""
+    share = None if astern_pull_n is None else astern_pull_n / bollard_pull_n
+    t: Any = _TugFields()
+    t.name = name
+    t.bollard_pull_n = bollard_pull_n
+    t.astern_pull_n = astern_pull_n
+    t.tug_type = tug_type
+    t.role = role
+    t.towing_point_height_m = towing_point_height_m
+    t.certificate_date = certificate_date
+    t.towline_length_m = towline_length_m
+    t.towline_mbl_n = towline_mbl_n
+    t.call_sign = call_sign
+    t.working_channel = working_channel
+    t.towline_warn_fraction = towline_warn_fraction
+    t.capability = default_capability(tug_kind(tug_type), share)
+    t.headway = placeholder_headway()
+    t.__class__ = Tug
+    return t  # type: ignore[no-any-return]
