@@ -10,7 +10,10 @@ so the same work is timed in both trees:
   from the mouse move until the board has repainted);
 - live drag: the same in the whole main window with live solving on (24 tugs, goal hold);
 - hold limits: the sweep of the deck barge sample's first stage, problem building included;
-- briefing: the twin barge sample's PDF.
+- briefing: the twin barge sample's PDF;
+- load: a plan of 10,000 tugs each placed once (benchmarks/growth.py's), and the same plan
+  as the program saves it (each tug with its capability and headway rows), each as a
+  ratio against ``json.loads`` of the same text, the two alternated in the same process.
 
 The samples are read from the earlier commit's files, which both trees can read.
 
@@ -185,6 +188,33 @@ def _briefing(m: dict, base: Path) -> dict[str, float]:  # type: ignore[type-arg
     return {"median_ms": statistics.median(times)}
 
 
+def _load(m: dict, text: str, repeats: int) -> dict[str, float]:  # type: ignore[type-arg]
+    """Loading ``text`` against ``json.loads`` of the same text, alternated (which goes
+    first swaps on each repeat), medians of ``repeats`` each."""
+    loads = m["projectfile"].loads
+    loads(text)  # the first load fills the name rules' caches; it is timed apart below
+    took: dict[str, list[float]] = {"load": [], "json": []}
+    runs = [("json", lambda: json.loads(text)), ("load", lambda: loads(text))]
+    for k in range(repeats):
+        for name, fn in runs if k % 2 else runs[::-1]:
+            t0 = time.perf_counter()
+            fn()
+            took[name].append((time.perf_counter() - t0) * 1000)
+    load, js = statistics.median(took["load"]), statistics.median(took["json"])
+    return {"load_ms": load, "json_ms": js, "load/json": load / js}
+
+
+def _first_load(m: dict, text: str) -> dict[str, float]:  # type: ignore[type-arg]
+    """The first load in a fresh process (no name cached yet), against a json.loads."""
+    t0 = time.perf_counter()
+    m["projectfile"].loads(text)
+    load = (time.perf_counter() - t0) * 1000
+    t0 = time.perf_counter()
+    json.loads(text)
+    js = (time.perf_counter() - t0) * 1000
+    return {"load_ms": load, "json_ms": js, "load/json": load / js}
+
+
 def measure(what: str, moves: int, base: Path) -> dict[str, float]:
     os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
     m = _imports()
@@ -196,12 +226,44 @@ def measure(what: str, moves: int, base: Path) -> dict[str, float]:
         return _drag(m, 24, moves, live=True)
     if what == "hold limits":
         return _hold_limits(m, base)
+    if what.startswith("load"):
+        texts = base.parent / "texts"
+        if what == "load 10,000 tugs":
+            return _load(m, (texts / "plain.json").read_text(), 15)
+        if what == "load 10,000 first":
+            return _first_load(m, (texts / "plain.json").read_text())
+        return _load(m, (texts / "saved.json").read_text(), 5)
     return _briefing(m, base)
 
 
 # -- the parent: check out, alternate, compare ---------------------------------------------
 
-FIGURES = ("drag 24 tugs", "drag 200 tugs", "live drag 24 tugs", "hold limits", "briefing")
+FIGURES = (
+    "drag 24 tugs",
+    "drag 200 tugs",
+    "live drag 24 tugs",
+    "hold limits",
+    "briefing",
+    "load 10,000 tugs",
+    "load 10,000 first",
+    "load 10,000 saved",
+)
+
+
+def _write_texts(scratch: Path) -> None:
+    """The plans the load figures read, written once for both trees (the saved one as this
+    tree writes it, which the earlier commit reads as well)."""
+    sys.path.insert(0, str(ROOT))
+    sys.path.insert(0, str(ROOT / "benchmarks"))
+    from growth import placements_text
+
+    from core.io.projectfile import dumps, loads
+
+    texts = scratch / "texts"
+    texts.mkdir()
+    plain = placements_text(10_000)
+    (texts / "plain.json").write_text(plain)
+    (texts / "saved.json").write_text(dumps(loads(plain)))
 
 
 def _run(tree: Path, what: str, moves: int, base: Path, scratch: Path) -> dict[str, float]:
@@ -245,7 +307,10 @@ def main() -> None:
         check=True,
     )
     try:
+        if any(what.startswith("load") for what in args.only):
+            _write_texts(scratch)
         got: dict[tuple[str, str], list[dict[str, float]]] = {}
+        before = os.getloadavg()[0]
         for k in range(args.rounds):
             for what in args.only:
                 trees = [("old", base), ("new", ROOT)]
@@ -255,8 +320,11 @@ def main() -> None:
                     got.setdefault((what, label), []).append(
                         _run(tree, what, args.moves, base, scratch)
                     )
-        load = os.getloadavg()[0]
-        print(f"{args.rounds} rounds, alternating; load average now {load:.1f}")
+        load = os.getloadavg()
+        print(
+            f"{args.rounds} rounds, alternating; load average {before:.1f} before, now "
+            f"{load[0]:.1f} (1 min), {load[1]:.1f} (5 min)"
+        )
         print(f"{'figure':<22}{'measure':<11}{'old':>10}{'new':>10}{'new/old':>9}")
         for what in args.only:
             for key in got[(what, "old")][0]:

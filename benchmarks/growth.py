@@ -1,7 +1,9 @@
 """How loading a plan grows with its size: outline vertices (4-100,000) and tug placements
-(10-10,000), each load timed against ``json.loads`` of the same text in the same run, with
-the fitted exponent of the growth (time ~ n^k, least squares on log-log over the larger
-sizes) and the peak memory of the biggest load.
+(10-10,000), each load timed against ``json.loads`` of the same text in the same run (the
+two alternated, the least of each taken), with the fitted exponent of the growth (time ~
+n^k, least squares on log-log over the larger sizes) and the peak memory of the biggest
+load. ``benchmarks/against_baseline.py --only "load 10,000 tugs"`` sets the 10,000 against
+an earlier commit.
 
 Targets (issue 9): a 100,000-vertex outline loads in under 1 s and 300 MB; 10,000
 placements load within 5x ``json.loads``.
@@ -26,14 +28,16 @@ sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 from core.io.projectfile import loads
 
 
-def _best(fn: Callable[[], object], repeat: int) -> float:
-    """The least of ``repeat`` timings, s (the least is the one least disturbed)."""
-    out = []
-    for _ in range(repeat):
-        t0 = time.perf_counter()
-        fn()
-        out.append(time.perf_counter() - t0)
-    return min(out)
+def _paired(a: Callable[[], object], b: Callable[[], object], repeat: int) -> tuple[float, float]:
+    """The least of ``repeat`` timings of ``a`` and of ``b``, s, the two alternated (which
+    goes first swaps on each repeat), so both see the same machine load."""
+    ta, tb = [], []
+    for k in range(repeat):
+        for fn, out in ((a, ta), (b, tb)) if k % 2 else ((b, tb), (a, ta)):
+            t0 = time.perf_counter()
+            fn()
+            out.append(time.perf_counter() - t0)
+    return min(ta), min(tb)
 
 
 def outline_text(n: int) -> str:
@@ -104,8 +108,7 @@ def curve(title: str, sizes: list[int], make: Callable[[int], str], fit_from: in
     for n in sizes:
         text = make(n)
         repeat = 5 if n <= 10_000 else 3
-        tj = _best(lambda text=text: json.loads(text), repeat)
-        tl = _best(lambda text=text: loads(text), repeat)
+        tl, tj = _paired(lambda text=text: loads(text), lambda text=text: json.loads(text), repeat)
         loads_t.append(tl)
         json_t.append(tj)
         print(f"{n:>8} {tl * 1e3:>10.2f} {tj * 1e3:>14.2f} {tl / tj:>7.1f}")
