@@ -12,8 +12,14 @@ import math
 
 
 def bearing_to_angle(bearing_deg: float) -> float:
-    """Relative bearing (deg, clockwise from ahead) -> hull-frame angle (rad, CCW from +x)."""
-    return wrap_pi(-math.radians(bearing_deg))
+    """Relative bearing (deg, clockwise from ahead) -> hull-frame angle (rad, CCW from +x),
+    in (-pi, pi]."""
+    # wrap_pi(-math.radians(bearing_deg)), written out: the file reader calls this for
+    # every placement of a plan.
+    a = math.fmod(math.pi - math.radians(bearing_deg), _TAU)
+    if a <= 0:
+        a += _TAU
+    return a - math.pi
 
 
 def angle_to_bearing(angle_rad: float) -> float:
@@ -33,11 +39,14 @@ def site_angle_to_true(angle_rad: float) -> float:
     return 0.0 if b >= 359.9999999995 else b
 
 
+_TAU = 2 * math.pi
+
+
 def wrap_pi(angle_rad: float) -> float:
     """Angle wrapped to (-pi, pi]."""
-    a = math.fmod(angle_rad + math.pi, 2 * math.pi)
+    a = math.fmod(angle_rad + math.pi, _TAU)
     if a <= 0:
-        a += 2 * math.pi
+        a += _TAU
     return a - math.pi
 
 

@@ -319,19 +319,15 @@ def _each(
     if not isinstance(value, list):
         r.fail(_join(path, key), f"must be a list, not {describe(value)}")
         return []
-    out: list[T] = []
-    base = None
+    got = [fast(item) for item in value]
     not_plain = plain.NOT_PLAIN
-    for i, item in enumerate(value):
-        got = fast(item)
-        if got is not_plain:
-            if base is None:
-                base = _join(path, key)
-            got = careful(r, item, f"{base}[{i}]")
-            if got is None:
-                continue
-        out.append(got)
-    return out
+    if any(v is not_plain for v in got):
+        base = _join(path, key)
+        for i, v in enumerate(got):
+            if v is not_plain:
+                got[i] = careful(r, value[i], f"{base}[{i}]")
+        got = [v for v in got if v is not None]
+    return got
 
 
 def decode(data: Any) -> tuple[Project | None, list[Problem]]:
@@ -763,9 +759,8 @@ class _Context:
         }
         self.tugs, self.bodies = tugs, bodies
 
-    def plain_placement(self, value: Any) -> Any:
-        """A plain placement read at once (core.io.plain), or plain.NOT_PLAIN."""
-        return plain.placement(value, self.tugs, self.kinds)
+        #: A plain placement read at once (core.io.plain), or plain.NOT_PLAIN.
+        self.plain_placement = partial(plain.placement, self.tugs, self.kinds)
 
     def placement(self, r: _Reader, value: Any, path: str) -> Placement | None:
         """A placement read the careful way."""
@@ -886,11 +881,13 @@ def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | N
         pose for p, item in r.items(d, "poses", path) if (pose := _decode_pose(r, item, p, ctx))
     ]
     placements = _each(r, d, "tugs", path, ctx.plain_placement, ctx.placement)
-    seen: set[str] = set()
-    for i, pl in enumerate(placements):
-        if pl.tug in seen:
-            r.fail(f"{path}.tugs[{i}].tug", f"{pl.tug!r} is placed twice in this stage")
-        seen.add(pl.tug)
+    placed = [pl.tug for pl in placements]
+    if len(set(placed)) != len(placed):
+        seen: set[str] = set()
+        for i, tug in enumerate(placed):
+            if tug in seen:
+                r.fail(f"{path}.tugs[{i}].tug", f"{tug!r} is placed twice in this stage")
+            seen.add(tug)
     conditions = _decode_conditions(r, d.get("conditions", {}), f"{path}.conditions")
     goal = _decode_goal(r, d.get("goal"), f"{path}.goal")
     limits = _decode_limits(r, d.get("limits", {}), f"{path}.limits")

@@ -19,7 +19,7 @@ from __future__ import annotations
 
 from typing import Any
 
-from core.model.capability import default_capability, tug_kind
+from core.model.capability import Capability, default_capability, tug_kind
 from core.model.headway import placeholder_headway
 from core.model.tugs import Placement, Tug
 
@@ -34,6 +34,9 @@ def _twin(cls: type) -> type:
 
 _PlacementFields = _twin(Placement)
 _TugFields = _twin(Tug)
+_HEADWAY = placeholder_headway()  # frozen, and the one every tug without its own table shares
+#: Each tug type's placeholder capability (no astern pull given), as made before.
+_capability_of_type: dict[str, Capability] = {}
 
 
 def placement(
@@ -81,7 +84,14 @@ def tug(
     """A Tug with its type's placeholder capability and headway table, from fields each
     checked by the rule :class:`Tug` applies to it (the name by :data:`rules.NAME`, the
     texts by :data:`rules.LABEL`, the numbers by their ranges; None where not given)."""
-    share = None if astern_pull_n is None else astern_pull_n / bollard_pull_n
+    if astern_pull_n is None:
+        capability = _capability_of_type.get(tug_type)
+        if capability is None:
+            capability = default_capability(tug_kind(tug_type), None)
+            if len(_capability_of_type) < 1000:
+                _capability_of_type[tug_type] = capability
+    else:
+        capability = default_capability(tug_kind(tug_type), astern_pull_n / bollard_pull_n)
     t: Any = _TugFields()
     t.name = name
     t.bollard_pull_n = bollard_pull_n
@@ -95,7 +105,7 @@ def tug(
     t.call_sign = call_sign
     t.working_channel = working_channel
     t.towline_warn_fraction = towline_warn_fraction
-    t.capability = default_capability(tug_kind(tug_type), share)
-    t.headway = placeholder_headway()
+    t.capability = capability
+    t.headway = _HEADWAY
     t.__class__ = Tug
     return t  # type: ignore[no-any-return]

@@ -47,8 +47,11 @@ def _point(where: str, p: object) -> tuple[float, float]:
 
 
 def _first_repeat(names: Iterable[str]) -> str | None:
+    listed = list(names)
+    if len(set(listed)) == len(listed):  # at once, for plans of thousands of tugs
+        return None
     seen: set[str] = set()
-    for n in names:
+    for n in listed:
         if n in seen:
             return n
         seen.add(n)

@@ -157,10 +157,10 @@ class Range:
         except TypeError:
             return False
 
-    def limits(self) -> tuple[float, float, bool]:
-        """The bounds :meth:`holds` applies, SI: the lowest and highest value kept, and
-        whether the lowest is itself excluded (for readers that inline the test)."""
-        return (self.low, self._hi, True) if self.above else (self._lo, self._hi, False)
+    def limits(self) -> tuple[float, float]:
+        """The least and the greatest float that keep the rule, SI: for a float ``x``,
+        ``lo <= x <= hi`` is :meth:`holds` (for readers that inline the test)."""
+        return (math.nextafter(self.low, math.inf) if self.above else self._lo), self._hi
 
     def check(self, value: float, subject: str = "", units: DisplayUnits = DEFAULT_UNITS) -> float:
         """``value`` as a float if it keeps the rule; else a :class:`RangeError`.

@@ -52,7 +52,7 @@ def _careful_only() -> Any:
     """The loader with its plain path turned off: every entry read the careful way."""
     with (
         mock.patch.object(decode_module.plain, "tug", lambda d: plain.NOT_PLAIN),
-        mock.patch.object(decode_module.plain, "placement", lambda d, t, k: plain.NOT_PLAIN),
+        mock.patch.object(decode_module.plain, "placement", lambda t, k, d: plain.NOT_PLAIN),
     ):
         yield
 
@@ -143,7 +143,7 @@ def test_the_plain_path_reads_what_the_careful_reader_reads(data: dict[str, Any]
     for d in data["tugs"]:
         assert plain.tug(d) is not plain.NOT_PLAIN, d
     for d in data["stages"][0]["tugs"]:
-        took = plain.placement(d, names, kinds) is not plain.NOT_PLAIN
+        took = plain.placement(names, kinds, d) is not plain.NOT_PLAIN
         assert took == (d.get("lead_sector_deg") is None), d
     text = json.dumps(data)
     fast = loads(text)
@@ -271,7 +271,7 @@ def test_a_bad_placement_field_is_refused_with_its_name(
 ) -> None:
     placed = {**base, key: value}
     kinds = {"Barge": {"Bow": "line", "Pad": "push"}}
-    assert plain.placement(placed, {"Castor"}, kinds) is plain.NOT_PLAIN
+    assert plain.placement({"Castor"}, kinds, placed) is plain.NOT_PLAIN
     problems = _problems(_plan([TUG], [placed]))
     path = f"stages[0].tugs[0].{key}: "
     assert any(p.startswith(path) and said in p for p in problems), problems
@@ -279,7 +279,7 @@ def test_a_bad_placement_field_is_refused_with_its_name(
 
 def test_a_placement_missing_its_setting_is_refused() -> None:
     placed = {k: v for k, v in LINE.items() if k != "setting_percent"}
-    assert plain.placement(placed, {"Castor"}, {"Barge": {"Bow": "line"}}) is plain.NOT_PLAIN
+    assert plain.placement({"Castor"}, {"Barge": {"Bow": "line"}}, placed) is plain.NOT_PLAIN
     assert "stages[0].tugs[0].setting_percent: is missing" in _problems(_plan([TUG], [placed]))
 
 
@@ -302,3 +302,26 @@ def test_values_built_from_checked_fields_are_ordinary_frozen_values() -> None:
         t.name = "Pollux"  # type: ignore[misc]
     with pytest.raises(rules.RangeError, match="astern pull"):
         t.with_astern_pull(-1.0)
+
+
+def test_a_tug_placed_twice_in_a_stage_is_refused() -> None:
+    # Both placements are plain; the stage still finds the tug placed twice.
+    problems = _problems(_plan([TUG], [LINE, {**LINE, "point": "Stern"}]))
+    assert problems == ["stages[0].tugs[1].tug: 'Castor' is placed twice in this stage"]
+
+
+ALL_RANGES = [v for v in vars(rules).values() if isinstance(v, rules.Range)]
+
+
+@pytest.mark.parametrize("rule", ALL_RANGES, ids=[r.label for r in ALL_RANGES])
+def test_a_ranges_limits_are_its_rule(rule: rules.Range) -> None:
+    # The plain reader tests a number inline with the rule's limits: they must keep what
+    # the rule keeps and refuse what it refuses, at each bound and either side of it.
+    lo, hi = rule.limits()
+    near = [rule.low, rule.high, lo, hi, 0.0, -0.0, 1.0, -1.0, 1e300, -1e300]
+    values = [math.nan, math.inf, -math.inf]
+    for v in near:
+        if math.isfinite(v):
+            values += [v, math.nextafter(v, math.inf), math.nextafter(v, -math.inf)]
+    for x in values:
+        assert (lo <= x <= hi) == rule.holds(x), (rule.label, x)
