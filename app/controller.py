@@ -44,6 +44,7 @@ from core.analysis.stage import StageResult, body_balance, stage_result
 from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout
 from core.mechanics.bodies import Body, body_name_of_hull, body_of
 from core.mechanics.loads import ConditionLoads
+from core.model.integrity import broken_reference
 from core.model.plan import Project, Stage
 
 
@@ -347,8 +348,13 @@ class Controller(QObject):
         self.changed.emit()
 
     def apply(self, new: Project, text: str, merge_key: object | None = None) -> None:
-        """Record an edit to ``new`` as one undo step (merging with the same key)."""
+        """Record an edit to ``new`` as one undo step (merging with the same key).
+
+        An edit whose names name nothing in the plan (made from a view of a plan that
+        has since been replaced) is refused with an :class:`InputError`; nothing changes.
+        """
         new = self._filtered(new)
+        self._refuse_broken(new)
         if self._preview_base is not None:
             base, self._preview_base = self._preview_base, None
             self._results_override = None
@@ -361,6 +367,11 @@ class Controller(QObject):
             return
         self.undo_stack.push(ProjectCommand(self, self._project, new, text, merge_key))
 
+    def _refuse_broken(self, new: Project) -> None:
+        problem = broken_reference(new, self._project)
+        if problem is not None:
+            raise problem
+
     def preview(self, new: Project, results: dict[str, BodyResult] | None = None) -> None:
         """Show ``new`` live (a drag in progress) without recording it.
 
@@ -368,6 +379,7 @@ class Controller(QObject):
         fast drag path), so they are not computed twice.
         """
         filtered = self._filtered(new, results)
+        self._refuse_broken(filtered)
         if filtered is not new:
             results = None if results is None else self._with_settings(results, filtered)
             new = filtered
