@@ -6,7 +6,7 @@ import math
 
 import numpy as np
 import pytest
-from hypothesis import given, settings
+from hypothesis import example, given, settings
 from hypothesis import strategies as st
 from scipy.optimize import linprog
 
@@ -205,6 +205,11 @@ def test_mirror_symmetric_layout_gives_a_mirror_symmetric_plot(
 
 @settings(max_examples=40, deadline=None)
 @given(leads, st.one_of(st.just(0.0), st.floats(0.05, 1.0)), st.floats(0, 360))
+# found by hypothesis: a slight current puts the start a hair outside a corner of the set of
+# lines only towing; with one tug lost the flow's line crosses that set over a sliver, read
+# as a window by the lost tug's own sweep and as none by the shared half-spaces
+@example([187.5, 22.0, 194.5, 0.0, 20.0, 90.0], 0.125, 0.125)
+@example([187.5, 18.0, 201.0, 0.0, 90.0], 0.125, 0.125)
 def test_losing_a_tug_never_raises_the_limit(
     lead: list[float], current_kn: float, current_to: float
 ) -> None:
@@ -219,11 +224,27 @@ def test_losing_a_tug_never_raises_the_limit(
     )  # rounding on near-parallel lines
     # And the worst lost curve is the least of the sweeps of the problem without each tug,
     # each direction naming a tug whose own sweep gives it.
-    rows = np.array([hold_limits(p.without(t), with_lost=False).all_tugs_ms for t in p.tugs])
-    assert lim.worst_lost_ms == pytest.approx(rows.min(axis=0), rel=1e-7, abs=1e-9)
+    each = [hold_limits(p.without(t), with_lost=False) for t in p.tugs]
+    rows = np.array([e.all_tugs_ms for e in each])
+    # Where the start lies a hair outside the set with a tug lost and the flow's line
+    # crosses it over a sliver (in and out within 1e-4 of the speed), whether there is a
+    # window at all hangs on rounding in the facets (HiGHS's own answer flips with its
+    # tolerances there): the sliver and none are both allowed.
+    lows = np.array(
+        [e.all_tugs_ms if e.all_tugs_min_ms is None else e.all_tugs_min_ms for e in each]
+    )
+    sliver = (rows > 0) & (rows - lows <= 1e-4 * rows)
+    rows_or_none = np.where(sliver, 0.0, rows)
+    low, high = rows_or_none.min(axis=0), rows.min(axis=0)
+    got = lim.worst_lost_ms
+    close = np.isclose(got, high, rtol=1e-7, atol=1e-9) | np.isclose(got, low, rtol=1e-7, atol=1e-9)
+    assert close.all(), (got[~close], high[~close], low[~close])
     named = [p.tugs.index(t) for t in lim.worst_lost_tug]
     own = rows[named, np.arange(rows.shape[1])]
-    assert own == pytest.approx(rows.min(axis=0), rel=1e-7, abs=1e-9)
+    own_or_none = rows_or_none[named, np.arange(rows.shape[1])]
+    assert np.all(
+        np.isclose(own, got, rtol=1e-7, atol=1e-9) | np.isclose(own_or_none, got, atol=1e-9)
+    )
 
 
 def test_worst_lost_names_the_tug() -> None:
