@@ -21,7 +21,17 @@ import numpy as np
 from core.errors import InputError, OutlineError, Problem
 from core.frames import bearing_to_angle
 from core.io import plain
-from core.io.fileformat import FILE_UNITS, FORMAT_NAME, KN, Json, num
+from core.io.fileformat import (
+    FILE_UNITS,
+    FORMAT_NAME,
+    KN,
+    PLACEMENT_OPTIONAL,
+    PLACEMENT_REQUIRED,
+    TUG_OPTIONAL,
+    TUG_REQUIRED,
+    Json,
+    num,
+)
 from core.model import rules
 from core.model.capability import WAYS, Capability, CapabilityCurve
 from core.model.conditions import Conditions
@@ -558,25 +568,7 @@ def _decode_group(r: _Reader, value: Any, path: str, hulls: set[str]) -> LashedG
 
 
 def _decode_tug(r: _Reader, value: Any, path: str) -> Tug | None:
-    d = r.obj(
-        value,
-        path,
-        ("name", "bollard_pull_kN"),
-        (
-            "type",
-            "role",
-            "astern_pull_kN",
-            "towing_point_height_m",
-            "certificate_date",
-            "towline_length_m",
-            "towline_mbl_kN",
-            "call_sign",
-            "working_channel",
-            "towline_warning_share_of_mbl",
-            "capability",
-            "headway",
-        ),
-    )
+    d = r.obj(value, path, TUG_REQUIRED, TUG_OPTIONAL)
     if d is None:
         return None
     before = len(r.problems)
@@ -767,18 +759,8 @@ class _Context:
         return _decode_placement(r, value, path, self)
 
 
-_PLACEMENT_KEYS = (
-    "lead_deg",
-    "line_length_m",
-    "push_angle_deg",
-    "astern",
-    "lead_sector_deg",
-    "push_pull",
-)
-
-
 def _decode_placement(r: _Reader, value: Any, path: str, ctx: _Context) -> Placement | None:
-    d = r.obj(value, path, ("tug", "hull", "point", "setting_percent"), _PLACEMENT_KEYS)
+    d = r.obj(value, path, PLACEMENT_REQUIRED, PLACEMENT_OPTIONAL)
     if d is None:
         return None
     tug, hull_name, point = (

@@ -30,6 +30,33 @@ Json = dict[str, Any]
 #: are phrased in these (``"-5.0 kN must be at least 0.980665 kN"``), whatever the user shows on screen.
 FILE_UNITS = DisplayUnits(force="kN", moment="kN*m", length="m", speed="kn")
 
+#: A tug's keys: those it must have, and those it may have.
+TUG_REQUIRED = ("name", "bollard_pull_kN")
+TUG_OPTIONAL = (
+    "type",
+    "role",
+    "astern_pull_kN",
+    "towing_point_height_m",
+    "certificate_date",
+    "towline_length_m",
+    "towline_mbl_kN",
+    "call_sign",
+    "working_channel",
+    "towline_warning_share_of_mbl",
+    "capability",
+    "headway",
+)
+#: A placement's keys (one of a stage's ``tugs``): those it must have, those it may have.
+PLACEMENT_REQUIRED = ("tug", "hull", "point", "setting_percent")
+PLACEMENT_OPTIONAL = (
+    "lead_deg",
+    "line_length_m",
+    "push_angle_deg",
+    "astern",
+    "lead_sector_deg",
+    "push_pull",
+)
+
 
 def num(v: float) -> float:
     """A float as the file writes it: 12 significant digits, so save -> load -> save is

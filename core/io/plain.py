@@ -17,7 +17,15 @@ from collections.abc import Callable
 from typing import Any
 
 from core.frames import bearing_to_angle
-from core.io.fileformat import FILE_UNITS, KN, num
+from core.io.fileformat import (
+    FILE_UNITS,
+    KN,
+    PLACEMENT_OPTIONAL,
+    PLACEMENT_REQUIRED,
+    TUG_OPTIONAL,
+    TUG_REQUIRED,
+    num,
+)
 from core.model import checked, rules
 from core.model.tugs import TENSION_WARN_FRACTION
 
@@ -61,20 +69,7 @@ _BEARING_F, _BEARING_LO, _BEARING_HI = file_bounds(rules.BEARING)
 _LENGTH_F, _LENGTH_LO, _LENGTH_HI = file_bounds(rules.LINE_LENGTH)
 _push_angle = plain_number(rules.PUSH_ANGLE)
 
-PLACEMENT_KEYS = frozenset(
-    (
-        "tug",
-        "hull",
-        "point",
-        "setting_percent",
-        "lead_deg",
-        "line_length_m",
-        "push_angle_deg",
-        "astern",
-        "lead_sector_deg",
-        "push_pull",
-    )
-)
+PLACEMENT_KEYS = frozenset(PLACEMENT_REQUIRED + PLACEMENT_OPTIONAL)
 
 
 def placement(tugs: set[str] | frozenset[str], kinds: dict[str, dict[str, str]], d: Any) -> Any:
@@ -139,24 +134,7 @@ _share = plain_number(rules.TOWLINE_WARN_SHARE)
 _pull_holds = rules.BOLLARD_PULL.holds
 _astern_holds = rules.ASTERN_PULL.holds
 
-TUG_KEYS = frozenset(
-    (
-        "name",
-        "bollard_pull_kN",
-        "type",
-        "role",
-        "astern_pull_kN",
-        "towing_point_height_m",
-        "certificate_date",
-        "towline_length_m",
-        "towline_mbl_kN",
-        "call_sign",
-        "working_channel",
-        "towline_warning_share_of_mbl",
-        "capability",
-        "headway",
-    )
-)
+TUG_KEYS = frozenset(TUG_REQUIRED + TUG_OPTIONAL)
 
 
 _TEXT_KEYS = ("type", "role", "certificate_date", "call_sign", "working_channel")
