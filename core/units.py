@@ -45,6 +45,19 @@ FACTORS: dict[Quantity, dict[str, float]] = {
 LABELS: dict[str, str] = {"t*m": "t·m", "kN*m": "kN·m", "kip*ft": "kip·ft"}
 
 
+def filed(value: float) -> float:
+    """A number as a plan file holds it: 12 significant digits, so that save -> load ->
+    save is stable. Values worked out from numbers a file holds are worked from these."""
+    return float(f"{value:.12g}") + 0.0
+
+
+def filed_degrees(deg: float) -> float:
+    """An angle in degrees as a plan file holds it: 12 significant digits and at most 11
+    decimals (a bearing near 0 comes back from the hull frame as 90 - (90 - b), good to
+    about 1e-13 degrees, so finer digits would change on each save)."""
+    return filed(round(deg, 11))
+
+
 def factor(quantity: Quantity, unit: str) -> float:
     """SI magnitude of one ``unit`` of ``quantity``; raises InputError if unknown."""
     try:

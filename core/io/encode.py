@@ -12,14 +12,12 @@ from core.model.headway import placeholder_headway
 from core.model.hull import Hull
 from core.model.plan import Project, Stage
 from core.model.tugs import Placement, Tug
-from core.units import CHOICES
+from core.units import CHOICES, filed_degrees
 
 
 def angle(deg: float) -> float:
-    """An angle in degrees written with 12 significant digits and at most 11 decimals: a
-    bearing near 0 comes back from the hull frame as 90 - (90 - b), good to about 1e-13
-    degrees, so finer digits would change on each save."""
-    return num(round(deg, 11))
+    """An angle in degrees as the file writes it (core.units.filed_degrees)."""
+    return filed_degrees(deg)
 
 
 def bearing(deg: float) -> float:

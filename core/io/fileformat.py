@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from typing import Any
 
-from core.units import DisplayUnits, factor
+from core.units import DisplayUnits, factor, filed
 
 FORMAT_NAME = "towboard"
 
@@ -58,7 +58,5 @@ PLACEMENT_OPTIONAL = (
 )
 
 
-def num(v: float) -> float:
-    """A float as the file writes it: 12 significant digits, so save -> load -> save is
-    stable."""
-    return float(f"{v:.12g}") + 0.0
+#: A number as the file writes it: 12 significant digits (core.units.filed).
+num = filed

@@ -21,7 +21,7 @@ from typing import Any
 
 from core.model.capability import Capability, default_capability, tug_kind
 from core.model.headway import placeholder_headway
-from core.model.tugs import Placement, Tug
+from core.model.tugs import Placement, Tug, astern_share
 
 
 def _twin(cls: type) -> type:
@@ -91,7 +91,9 @@ def tug(
             if len(_capability_of_type) < 1000:
                 _capability_of_type[tug_type] = capability
     else:
-        capability = default_capability(tug_kind(tug_type), astern_pull_n / bollard_pull_n)
+        capability = default_capability(
+            tug_kind(tug_type), astern_share(astern_pull_n, bollard_pull_n)
+        )
     t: Any = _TugFields()
     t.name = name
     t.bollard_pull_n = bollard_pull_n

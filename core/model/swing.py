@@ -14,13 +14,16 @@ from typing import Literal
 
 from core.errors import InputError
 from core.model import rules
+from core.units import filed_degrees
 
 SwingSide = Literal["port", "starboard"]
 SWING_SIDES: tuple[SwingSide, ...] = ("port", "starboard")
 
 
 def _heading(value: float, what: str) -> float:
-    h = rules.HEADING.check(value, f"swing {what}") % 360.0
+    """A heading in [0, 360), as a plan file holds it (so a heading of 1e-300
+    is 0 here as it is once saved, and two headings equal in the file are equal here)."""
+    h = filed_degrees(rules.HEADING.check(value, f"swing {what}") % 360.0)
     return 0.0 if h >= 360.0 else h
 
 
@@ -37,7 +40,8 @@ class Swing:
         object.__setattr__(self, "end_heading_deg", _heading(self.end_heading_deg, "end"))
         if self.bow_to not in SWING_SIDES:
             raise InputError("swing: bow swings to", self.bow_to, "is not port or starboard")
-        if self.turn_deg < 1e-9:
+        turn = self.turn_deg
+        if min(turn, 360.0 - turn) < 1e-9:
             raise InputError(
                 "swing: end heading", self.end_heading_deg, "must differ from the start heading"
             )

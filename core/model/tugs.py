@@ -16,6 +16,7 @@ from core.errors import InputError
 from core.model import rules
 from core.model.capability import Capability, TugKind, Way, default_capability, tug_kind
 from core.model.headway import HeadwayTable, placeholder_headway
+from core.units import filed
 
 #: Default share of a towline's minimum breaking load above which its tension is warned
 #: about (common practice, no source: harbour towlines are commonly sized at two to three
@@ -28,6 +29,14 @@ _DEFAULT_ASTERN: dict[str, float] = {
     "conventional single screw": 0.35,
     "conventional twin screw": 0.5,
 }
+
+
+def astern_share(astern_pull_n: float, bollard_pull_n: float) -> float:
+    """The astern pull's share of the pull ahead that a placeholder capability follows,
+    worked from the two pulls as a plan file holds them (kN, 12 significant digits): a
+    pull typed with more digits then gives the shares it gives when loaded back, so the
+    first save is the one every later save repeats."""
+    return filed(astern_pull_n / 1000.0) / filed(bollard_pull_n / 1000.0)
 
 
 @dataclass(frozen=True, slots=True)
@@ -101,7 +110,7 @@ class Tug:
         rules.TOWLINE_MBL.check_optional(self.towline_mbl_n, subject)
         rules.TOWLINE_WARN_SHARE.check(self.towline_warn_fraction, subject)
         if self.capability is None or self.capability.placeholder:
-            share = self.astern_pull / self.bollard_pull_n if given_astern else None
+            share = astern_share(self.astern_pull, self.bollard_pull_n) if given_astern else None
             object.__setattr__(self, "capability", default_capability(self.kind, share))
         if self.headway is None:
             object.__setattr__(self, "headway", placeholder_headway())

@@ -467,6 +467,19 @@ CASES = [
         45.0,
         setup=lambda w: w.controller.set_stage_index(1),  # type: ignore[attr-defined]
     ),
+    # found by the monkey: a start a hair off the end (it typed 1e-300 against an end of 000;
+    # here 270 less 1e-12 against 270) was taken as a whole turn, which the file wrote as
+    # no turn at all and then refused to read
+    Case(
+        "stage: swing start a hair off the end",
+        lambda w: w.plan_ui.stage_details.swing_start,  # type: ignore[attr-defined]
+        "269.999999999999",
+        "must differ from the start heading",
+        "260",
+        lambda p: p.stages[1].swing.start_heading_deg,  # type: ignore[union-attr]
+        260.0,
+        setup=lambda w: w.controller.set_stage_index(1),  # type: ignore[attr-defined]
+    ),
     Case(
         "stage: swing end",
         lambda w: w.plan_ui.stage_details.swing_end,  # type: ignore[attr-defined]

@@ -14,6 +14,7 @@ from hypothesis import strategies as st
 
 from core.errors import InputError, ProjectFileError
 from core.io.projectfile import dumps, load, loads
+from core.model.plan import Project, Stage
 from core.model.swing import Swing
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -74,6 +75,28 @@ def test_a_swing_refuses_what_cannot_be_meant() -> None:
         Swing(90.0, 0.0, "left")  # type: ignore[arg-type]
     with pytest.raises(InputError, match="swing start"):
         Swing(float("nan"), 0.0, "port")
+
+
+@pytest.mark.parametrize("side", ["port", "starboard"])
+@pytest.mark.parametrize(
+    ("start", "end"),
+    [(1e-300, 0.0), (0.0, 1e-300), (1e-10, 0.0), (359.99999999999997, 0.0), (90.0, 90.0 + 5e-12)],
+)
+def test_headings_equal_in_the_file_are_equal_in_the_swing(
+    start: float, end: float, side: str
+) -> None:
+    # Found by the monkey: 1e-300 typed as the start of a swing ending on 000 gave a swing
+    # of a whole turn less 1e-300 (the window took it), which the file wrote as 000 to 000
+    # and then refused to read back.
+    with pytest.raises(InputError, match="must differ from the start heading"):
+        Swing(start, end, side)  # type: ignore[arg-type]
+
+
+def test_a_swing_keeps_the_headings_the_file_holds() -> None:
+    s = Swing(12.3456789012345678, 1e-300 + 200.0, "port")
+    assert (s.start_heading_deg, s.end_heading_deg) == (12.3456789012, 200.0)  # 12 digits
+    again = loads(dumps(Project(stages=(Stage("Swing", "swing", swing=s),))))
+    assert again.stages[0].swing == s
 
 
 def test_words_say_the_turn_and_the_side() -> None:

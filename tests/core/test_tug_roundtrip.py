@@ -36,3 +36,15 @@ def test_a_given_astern_pull_is_kept_and_used() -> None:
     again = loads(dumps(Project(tugs=(tug,))))
     assert again.tugs[0].astern_pull_n == pytest.approx(30 * TF)
     assert again.tugs[0].with_astern_pull(None).astern_pull == pytest.approx(40 * TF)
+
+
+@pytest.mark.parametrize("kind", ["ASD", "conventional twin screw"])
+def test_a_pull_typed_with_more_digits_than_the_file_keeps_saves_the_same_twice(kind) -> None:  # type: ignore[no-untyped-def]
+    # Found by the monkey: pulls typed in tonnes and shown in kN carry more digits than the
+    # file's 12; the placeholder capability's astern share worked from them differed in its
+    # 12th digit from the one worked from the pulls loaded back, so the first save changed.
+    tug = Tug("Tug", 44.123456789123456 * TF, 31.987654321987654 * TF, tug_type=kind)
+    text = dumps(Project(tugs=(tug,)))
+    again = loads(text)
+    assert dumps(again) == text
+    assert again.tugs[0].capability == tug.capability
