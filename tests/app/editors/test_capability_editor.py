@@ -13,6 +13,7 @@ from app.panels.tug_dialog import TugDialog
 from core.analysis.stage import stage_result
 from core.io.projectfile import load, save
 from core.model.capability import PLACEHOLDER_NOTE, WAYS, default_capability
+from core.model.tugs import astern_share
 from tests.app.editors.conftest import retype, type_in_cell
 
 LINE = 1 + WAYS.index("line")  # the table's column of the shares on a line
@@ -46,7 +47,8 @@ def test_a_placeholder_capability_says_so_and_follows_the_type(window, qtbot) ->
     # the polar follows the type at once: a conventional tug works on a line only
     shown = e.polar.capability
     assert shown.push is None and shown.push_pull is None
-    astern = window.controller.project.tug("Gannet").astern_pull / (55 * 9806.65)
+    gannet = window.controller.project.tug("Gannet")
+    astern = astern_share(gannet.astern_pull, gannet.bollard_pull_n)
     assert shown.line == default_capability("conventional single screw", astern).line
     assert not e.boxes["push"].isChecked()
 
