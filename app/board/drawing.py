@@ -305,7 +305,8 @@ class TugDrawing:
         self.label.setZValue(Z_LABEL)
         self.label.priority = 1
         self._key: tuple[object, ...] | None = None
-        self._share: TugShare | None = None
+        self._share: TugShare | None = None  # the share last drawn, and what else it took
+        self._inputs: tuple[object, ...] | None = None
         self._selected = False
 
     def remove(self) -> None:
@@ -313,6 +314,10 @@ class TugDrawing:
             item.setParentItem(None)
             if item.scene() is not None:
                 item.scene().removeItem(item)
+
+    def forget(self) -> None:
+        """Draw this tug again at its next update (its label's words changed)."""
+        self._key = self._share = self._inputs = None
 
     def update(
         self,
@@ -323,24 +328,11 @@ class TugDrawing:
         head: float,
         text: Callable[[TugShare], str],
     ) -> None:
-        if (
-            share is self._share
-            and self._key is not None
-            and self._key[1:3] == (point, direction)
-            and self._key[5:7] == (force_scale, head)
-        ):
+        inputs = (point, direction, force_scale, head)
+        if share is self._share and inputs == self._inputs:
             return  # the very share as before (a drag keeps the other tugs' shares)
-        key = (
-            share.position,
-            point,
-            direction,
-            share.pull_n,
-            share.setting,
-            force_scale,
-            head,
-            share.mode,
-        )
-        self._share = share
+        self._share, self._inputs = share, inputs
+        key = (share.position, share.pull_n, share.setting, share.mode, inputs)
         if key == self._key:
             return  # nothing about this tug changed (the drag moves one tug at a time)
         self._key = key

@@ -161,7 +161,7 @@ class BoardScene(QGraphicsScene):
         self.tug_notes = dict(notes)
         for d in self.bodies.values():
             for t in d.tugs.values():
-                t._key = None
+                t.forget()
         self.refresh()
 
     # -- refresh ------------------------------------------------------------------
@@ -181,7 +181,7 @@ class BoardScene(QGraphicsScene):
             self._units = project.units
             for d in self.bodies.values():
                 for t in d.tugs.values():
-                    t._key = None
+                    t.forget()
         for name in names:
             d = self.bodies.get(name)
             if d is None:
