@@ -16,6 +16,7 @@ from __future__ import annotations
 import math
 import time
 import traceback
+from dataclasses import dataclass
 
 import numpy as np
 from PySide6.QtCore import QAbstractEventDispatcher, QPointF, QRectF, QSize, Qt, QTimer
@@ -41,10 +42,12 @@ from core.model.plan import Stage
 from core.solve.holdlimits import (
     Flow,
     HoldLimits,
+    Steps,
     hold_limits_problem,
     limit_at,
     limit_words,
-    live_hold_limits,
+    live_hold_limits_steps,
+    run_steps,
 )
 from core.units import DisplayUnits, label
 
@@ -371,8 +374,11 @@ class HoldLimitsPanel(QWidget):
     a drag in progress sweeps all tugs every 5 degrees and the worst tug lost every 10
     degrees, so the plot follows the mouse: at most every :data:`FOLLOW_EVERY_S` (and
     :data:`FOLLOW_SPARE` times a sweep's cost), from a timer, so the board's moves are
-    not held up by it; a fleet whose sweep is costly is swept when the mouse rests. The
-    drag's end always shows the stage result's limits.
+    not held up by it; a fleet whose sweep is costly is swept when the mouse rests. A
+    drag's sweep is worked in steps (core.solve.holdlimits.live_hold_limits_steps), one
+    each time the event loop would go idle, so no mouse move waits for more than one
+    step; the plot shows the sweep once it is whole. The drag's end always shows the
+    stage result's limits.
     """
 
     def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
@@ -422,6 +428,13 @@ class HoldLimitsPanel(QWidget):
         self._swept_at: float | None = None  # when the drag's last sweep ended
         self._sweep_cost = 0.0  # what it took, seconds
         self._waiting = False  # for the event loop to go idle (see _schedule_follow)
+        #: A drag's sweep under way: its steps, what it is for, and what it has taken.
+        self._job: _SweepJob | None = None
+        self._step_timer = QTimer(self)
+        self._step_timer.setSingleShot(True)
+        self._step_timer.setInterval(0)
+        self._step_timer.timeout.connect(self._step)
+        self._step_waiting = False
         #: How many sweeps the drags have run (for whoever checks the plot keeps up).
         self.drag_sweeps = 0
         controller.changed.connect(self._changed)
@@ -435,6 +448,7 @@ class HoldLimitsPanel(QWidget):
                 self._schedule_follow()
         else:
             self._follow.stop()
+            self._drop_job()
             self._swept_at = None
             self._timer.start()
 
@@ -443,7 +457,7 @@ class HoldLimitsPanel(QWidget):
         if self._sweep_cost > COSTLY_S:
             self._follow.start(round(REST_S * 1000))  # again on every move: when it rests
             return
-        if self._follow.isActive() or self._waiting:
+        if self._follow.isActive() or self._waiting or self._job is not None:
             return
         # the turn is counted from when the event loop next goes idle (the move handled
         # and the board painted), so the sweep runs between moves, not inside one
@@ -467,14 +481,127 @@ class HoldLimitsPanel(QWidget):
         if not (self.controller.previewing and self.follow_drag and on_screen(self)):
             return
         start = time.perf_counter()
-        self.update_now(coarse=True)
+        job = self._start_sweep()
+        if job is None:  # nothing to sweep: the plot says why at once
+            self._sweep_done(start, 0.0)
+            return
+        self._job = job
+        job.cost = time.perf_counter() - start
+        self._next_step()
+
+    def _next_step(self) -> None:
+        """Run the sweep's next step once the event loop would go idle."""
+        if self._step_waiting:
+            return
+        self._step_waiting = True
+        QAbstractEventDispatcher.instance().aboutToBlock.connect(self._step_idle)
+
+    @guarded
+    def _step_idle(self) -> None:
+        QAbstractEventDispatcher.instance().aboutToBlock.disconnect(self._step_idle)
+        self._step_waiting = False
+        if self._job is not None:
+            self._step_timer.start()
+
+    @guarded
+    def _step(self) -> None:
+        job = self._job
+        if job is None:
+            return
+        if not (self.controller.previewing and self.follow_drag and on_screen(self)):
+            self._drop_job()
+            return
+        start = time.perf_counter()
+        try:
+            next(job.steps)
+        except StopIteration as done:
+            self._job = None
+            self._show_sweep(job, done.value)
+            self._sweep_done(start, job.cost + time.perf_counter() - start)
+            return
+        except TowboardError as e:
+            self._job = None
+            self.plot.set_data(None, job.stage, job.units, f"No hold limits: {e}")
+            self.caption.setText("")
+            self._sweep_done(start, job.cost + time.perf_counter() - start)
+            return
+        job.cost += time.perf_counter() - start
+        self._next_step()
+
+    def _sweep_done(self, start: float, cost: float) -> None:
         self.drag_sweeps += 1
         self._swept_at = time.perf_counter()
-        self._sweep_cost = self._swept_at - start
+        self._sweep_cost = cost
+
+    def _drop_job(self) -> None:
+        self._job = None
+        self._step_timer.stop()
+
+    def _start_sweep(self) -> _SweepJob | None:
+        """A drag's sweep of the plan as it is now, to be worked in steps: all tugs every
+        5 degrees; each tug lost every 10 degrees, at most LOST_EVERY_S apart (the costlier
+        sweep). None when there is nothing to sweep (the plot says why at once)."""
+        c = self.controller
+        stage = c.stage
+        units = c.project.units
+        body = c.main_body()
+        if self._flow() == "current":
+            return None  # the current's curve follows once the drag settles
+        if stage is None or body is None or not stage.placements:
+            self.limits = None
+            self.plot.set_data(None, stage, units, "Place tugs to see what wind they can hold.")
+            self.caption.setText("")
+            return None
+        try:
+            r = c.results().get(body)
+            problem = hold_limits_problem(
+                c.project,
+                stage,
+                body,
+                directions_deg=np.arange(0.0, 360.0, 5.0),
+                layout=r.layout if r else None,
+            )
+        except TowboardError as e:
+            self.limits = None
+            self.plot.set_data(None, stage, units, f"No hold limits: {e}")
+            self.caption.setText("")
+            return None
+        now = time.perf_counter()
+        fresh = self._lost_at is None or now - self._lost_at >= LOST_EVERY_S
+        if fresh:
+            self._lost_at = now
+        steps = live_hold_limits_steps(problem, lost_step=2 if fresh else 0)
+        return _SweepJob(steps, stage, units, fresh, bool(problem.tugs))
+
+    def _show_sweep(self, job: _SweepJob, done: tuple[HoldLimits, np.ndarray, np.ndarray]) -> None:
+        lim, lost_dirs, worst = done
+        if job.fresh:
+            self._lost_curve = (lost_dirs, worst) if job.any_tugs else None
+        self.limits = lim
+        msg = held_words(lim, "wind")
+        self.warning.setText(msg)
+        self.plot.set_data(lim, job.stage, job.units, msg, True, self._lost_curve)
+        self.caption.setText(summary(lim, job.stage, job.units))
+
+    def _flow(self) -> Flow:
+        """The flow shown: the current only for a hold stage whose box asks for it."""
+        stage = self.controller.stage
+        is_hold = stage is not None and stage.goal is not None and stage.goal.kind == "hold"
+        return "current" if is_hold and self.flow_box.currentData() == "current" else "wind"
 
     def update_now(self, coarse: bool) -> None:
         """Show the hold limits: the stage result's (``coarse`` False), or during a drag a
-        coarse sweep of the same problem that follows the mouse."""
+        coarse sweep of the same problem that follows the mouse (worked here in one go)."""
+        if coarse:
+            self._drop_job()
+            job = self._start_sweep()
+            if job is not None:
+                try:
+                    self._show_sweep(job, run_steps(job.steps))
+                except TowboardError as e:
+                    self.plot.set_data(None, job.stage, job.units, f"No hold limits: {e}")
+                    self.caption.setText("")
+            return
         c = self.controller
         stage = c.stage
         units = c.project.units
@@ -483,53 +610,26 @@ class HoldLimitsPanel(QWidget):
         self.warning.setText("")
         is_hold = stage is not None and stage.goal is not None and stage.goal.kind == "hold"
         self.flow_row.setVisible(is_hold)
-        flow: Flow = "current" if is_hold and self.flow_box.currentData() == "current" else "wind"
-        if flow == "current":
-            if not coarse:  # the current's curve follows once a drag settles
-                self._show_current(stage, units)
+        if self._flow() == "current":
+            self._show_current(stage, units)
             return
         if stage is None or body is None or not stage.placements:
             self.plot.set_data(None, stage, units, "Place tugs to see what wind they can hold.")
             self.caption.setText("")
             return
-        lost_curve = None
-        if not coarse:
-            self._lost_at = None
-            r = c.stage_result()
-            main = None if r is None else r.main
-            lim = None if main is None else main.hold_limits
-            if lim is None:
-                why = "; ".join(n for n in (main.notes if main else ()) if "hold limits" in n)
-                self.plot.set_data(None, stage, units, f"No hold limits: {why or 'no tugs'}")
-                self.caption.setText("")
-                return
-        else:
-            try:
-                r = c.results().get(body)
-                problem = hold_limits_problem(
-                    c.project,
-                    stage,
-                    body,
-                    directions_deg=np.arange(0.0, 360.0, 5.0),
-                    layout=r.layout if r else None,
-                )
-                # While dragging: all tugs every 5 degrees on every move; each tug lost
-                # every 10 degrees, at most LOST_EVERY_S apart (the costlier sweep).
-                now = time.perf_counter()
-                fresh = self._lost_at is None or now - self._lost_at >= LOST_EVERY_S
-                lim, lost_dirs, worst = live_hold_limits(problem, lost_step=2 if fresh else 0)
-                if fresh:
-                    self._lost_at = now
-                    self._lost_curve = (lost_dirs, worst) if len(problem.tugs) else None
-                lost_curve = self._lost_curve
-            except TowboardError as e:
-                self.plot.set_data(None, stage, units, f"No hold limits: {e}")
-                self.caption.setText("")
-                return
+        self._lost_at = None
+        r = c.stage_result()
+        main = None if r is None else r.main
+        lim = None if main is None else main.hold_limits
+        if lim is None:
+            why = "; ".join(n for n in (main.notes if main else ()) if "hold limits" in n)
+            self.plot.set_data(None, stage, units, f"No hold limits: {why or 'no tugs'}")
+            self.caption.setText("")
+            return
         self.limits = lim
         msg = held_words(lim, "wind")
         self.warning.setText(msg)
-        self.plot.set_data(lim, stage, units, msg, coarse, lost_curve)
+        self.plot.set_data(lim, stage, units, msg)
         self.caption.setText(summary(lim, stage, units))
 
     def _show_current(self, stage: Stage | None, units: DisplayUnits) -> None:
@@ -549,6 +649,18 @@ class HoldLimitsPanel(QWidget):
         self.warning.setText(msg)
         self.plot.set_data(lim, stage, units, msg, flow="current")
         self.caption.setText(current_summary(lim, stage, units))
+
+
+@dataclass(slots=True)
+class _SweepJob:
+    """A drag's sweep being worked in steps, and what its plot is for."""
+
+    steps: Steps[tuple[HoldLimits, np.ndarray, np.ndarray]]
+    stage: Stage
+    units: DisplayUnits
+    fresh: bool  # it sweeps the worst tug lost too
+    any_tugs: bool
+    cost: float = 0.0  # seconds its steps have taken so far
 
 
 def summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:

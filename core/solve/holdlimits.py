@@ -23,8 +23,9 @@ numpy. With one tug lost the same half-spaces serve, less that tug's part.
 from __future__ import annotations
 
 import math
+from collections.abc import Generator
 from dataclasses import dataclass, replace
-from typing import Literal
+from typing import Literal, TypeVar
 
 import numpy as np
 
@@ -58,10 +59,16 @@ __all__ = [
     "limit_at",
     "limit_words",
     "live_hold_limits",
+    "live_hold_limits_steps",
+    "run_steps",
     "zonotope_normals",
 ]
 
 Flow = Literal["wind", "current"]
+T = TypeVar("T")
+#: Work done in steps: the generator yields between its parts (each a few ms at two dozen
+#: tugs, so a program's event loop can run between them) and returns the result.
+Steps = Generator[None, None, T]
 KNOT = 1852.0 / 3600.0
 #: The sweep is first made with sector polygons this many times coarser (core.solve.walk).
 SWEEP_NEST = 3
@@ -274,17 +281,32 @@ class _Sweep:
         return self.fac.normals
 
 
+def run_steps(steps: Steps[T]) -> T:
+    """Run work done in steps (see :data:`Steps`) to its end; its result."""
+    while True:
+        try:
+            next(steps)
+        except StopIteration as done:
+            return done.value  # type: ignore[no-any-return]
+
+
 def _sweep(problem: HoldLimitsProblem) -> _Sweep:
+    return run_steps(_sweep_steps(problem))
+
+
+def _sweep_steps(problem: HoldLimitsProblem) -> Steps[_Sweep]:
     sc = _scales(problem)
     shapes = _scaled_shapes(problem.shapes, sc)
     coarse = shapes if problem.coarse is None else _scaled_shapes(problem.coarse, sc)
     start = problem.start * sc
     rays = -problem.wind_unit * sc[:, None]
     fac = facets(coarse)
+    yield
     parts = support_parts(fac.normals, coarse)
     full = ray_exit(fac.normals, parts.sum(axis=1), start, rays)
     s_out = full.s_out
     if coarse is not shapes and full.inside:
+        yield
         s_out = _refine(shapes, coarse, fac, full.facet, start, rays, s_out)
     return _Sweep(fac, parts, start, rays, full, s_out, shapes, coarse)
 
@@ -324,6 +346,10 @@ def _refine(
 
 
 def _worst_lost(sw: _Sweep, every: int = 1) -> tuple[np.ndarray, np.ndarray]:
+    return run_steps(_worst_lost_steps(sw, every))
+
+
+def _worst_lost_steps(sw: _Sweep, every: int = 1) -> Steps[tuple[np.ndarray, np.ndarray]]:
     """The sweep with the worst one tug lost, on every ``every``-th direction: (D',) the
     load factor and (D',) the tug whose loss sets it.
 
@@ -350,10 +376,13 @@ def _worst_lost(sw: _Sweep, every: int = 1) -> tuple[np.ndarray, np.ndarray]:
     solid = _ranks_without_each(sw.coarse) == 3
     fast = np.flatnonzero(inside & solid & full.inside)
     if len(fast):
+        yield
         worst, who, facet = worst_lost_exit(normals, sw.parts, sw.start, rays, fast)
         if sw.coarse is not sw.shapes:
+            yield
             worst, who = _refine_worst(sw, rays, fast, worst, who, facet)
     for k in np.flatnonzero(~np.isin(np.arange(n), fast)):
+        yield
         row = _lost_alone(sw, int(k), rays, support, solid[k])
         lower = row < worst
         worst = np.where(lower, row, worst)
@@ -461,7 +490,16 @@ def live_hold_limits(
 
     Returns (limits without the tug lost sweep, lost directions (D',), worst lost m/s (D',)).
     """
-    sw = _sweep(problem)
+    return run_steps(live_hold_limits_steps(problem, lost_step))
+
+
+def live_hold_limits_steps(
+    problem: HoldLimitsProblem, lost_step: int = 2
+) -> Steps[tuple[HoldLimits, np.ndarray, np.ndarray]]:
+    """:func:`live_hold_limits` in steps (see :data:`Steps`): the same work, cut where a
+    program may let its event loop run (a plot that follows a drag sweeps between the
+    mouse's moves, a few ms at a time)."""
+    sw = yield from _sweep_steps(problem)
     d = sw.rays.shape[1]
     limits = HoldLimits(
         problem,
@@ -475,7 +513,8 @@ def live_hold_limits(
     if lost_step <= 0:
         return limits, problem.directions_deg[:0], np.zeros(0)
     k = int(lost_step)
-    worst, _ = _worst_lost(sw, k)
+    yield
+    worst, _ = yield from _worst_lost_steps(sw, k)
     return limits, problem.directions_deg[::k], _speed(worst)
 
 

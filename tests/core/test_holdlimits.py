@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import numpy as np
 import pytest
@@ -264,4 +265,41 @@ def test_live_sweep_is_the_full_sweep_on_fewer_directions() -> None:
     lim, dirs, worst = live_hold_limits(p, lost_step=2)
     assert lim.all_tugs_ms == pytest.approx(full.all_tugs_ms, rel=1e-12)
     assert list(dirs) == list(p.directions_deg[::2])
+    assert worst == pytest.approx(full.worst_lost_ms[::2], rel=1e-12)
+
+
+@pytest.mark.parametrize("sectors", [False, True])
+def test_the_live_sweep_in_steps_is_the_sweep_in_one_go(sectors: bool) -> None:
+    """A plot that follows a drag works the sweep a step at a time: several steps, and
+    what they end with is the same sweep (with working sectors, the walk to the fine set
+    is a step of its own)."""
+    from core.solve.holdlimits import live_hold_limits, live_hold_limits_steps
+
+    cond = Conditions(wind_speed_ms=10.0, current_speed_ms=0.4, current_towards_deg=30.0)
+    project, stage = _plan([90.0, 270.0, 45.0, 180.0], [30.0, 40.0, 25.0, 20.0], conditions=cond)
+    if sectors:
+        wide = tuple(
+            replace(p, lead_sector_rad=(p.lead_rad - 0.6, p.lead_rad + 0.6))
+            for p in stage.placements
+        )
+        stage = replace(stage, placements=wide)
+        project = replace(project, stages=(stage,))
+    p = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 5.0))
+    assert (p.coarse is not None) == sectors
+    steps = live_hold_limits_steps(p, lost_step=2)
+    taken = 0
+    while True:
+        try:
+            next(steps)
+        except StopIteration as done:
+            lim, dirs, worst = done.value
+            break
+        taken += 1
+    assert taken >= 3
+    ref, ref_dirs, ref_worst = live_hold_limits(p, lost_step=2)
+    assert lim.all_tugs_ms == pytest.approx(ref.all_tugs_ms, rel=1e-12)
+    assert list(dirs) == list(ref_dirs)
+    assert worst == pytest.approx(ref_worst, rel=1e-12)
+    full = hold_limits(p)
+    assert lim.all_tugs_ms == pytest.approx(full.all_tugs_ms, rel=1e-12)
     assert worst == pytest.approx(full.worst_lost_ms[::2], rel=1e-12)

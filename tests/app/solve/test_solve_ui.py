@@ -467,6 +467,63 @@ def test_the_plot_sweeps_between_the_moves_of_a_drag_and_shows_the_final_limits(
     assert hold.limits is main.hold_limits  # the final figures are the stage result's
 
 
+def test_a_drag_sweep_is_worked_in_steps_and_shown_whole(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    """The plot's sweep in a live drag runs a step at a time between the event loop's
+    turns; the plot keeps what it showed until the sweep is whole, then shows the same
+    curves as a sweep in one go; the drag's end shows what a direct sweep gives."""
+    from core.solve.holdlimits import live_hold_limits
+
+    c = holding.controller
+    holding.solve_ui.set_live(True)
+    holding.show()
+    hold = holding.solve_ui.hold
+    qtbot.waitUntil(lambda: not hold._timer.isActive())
+    shown = hold.limits
+    stage = c.stage
+    p = stage.placement("Gannet")
+    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    hold._follow_drag()  # its turn has come: the sweep starts, nothing is shown yet
+    assert hold._job is not None and hold.limits is shown
+    hold._step()
+    hold._step()
+    assert hold._job is not None and hold.limits is shown and hold.drag_sweeps == 0
+    qtbot.waitUntil(lambda: hold.drag_sweeps >= 1)
+    problem = hold_limits_problem(
+        c.project, c.stage, "Barge", directions_deg=np.arange(0.0, 360.0, 5.0)
+    )
+    ref, ref_dirs, ref_worst = live_hold_limits(problem, lost_step=2)
+    assert hold.plot.coarse and hold.limits is not shown
+    assert hold.limits.all_tugs_ms == pytest.approx(ref.all_tugs_ms, rel=1e-12)
+    assert hold.plot.lost_curve is not None
+    assert list(hold.plot.lost_curve[0]) == list(ref_dirs)
+    assert hold.plot.lost_curve[1] == pytest.approx(ref_worst, rel=1e-12)
+    c.commit_preview("turn")
+    qtbot.waitUntil(lambda: hold.limits is not None and not hold.plot.coarse)
+    assert hold._job is None
+    direct = hold_limits(hold_limits_problem(c.project, c.stage, "Barge"))
+    assert hold.limits.all_tugs_ms == pytest.approx(direct.all_tugs_ms, rel=1e-12)
+    assert hold.limits.worst_lost_ms == pytest.approx(direct.worst_lost_ms, rel=1e-12)
+
+
+def test_a_drag_sweep_under_way_is_dropped_when_the_drag_ends(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = holding.controller
+    holding.solve_ui.set_live(True)
+    holding.show()
+    hold = holding.solve_ui.hold
+    qtbot.waitUntil(lambda: not hold._timer.isActive())
+    stage = c.stage
+    p = stage.placement("Gannet")
+    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    hold._follow_drag()
+    assert hold._job is not None
+    c.cancel_preview()
+    assert hold._job is None
+    qtbot.waitUntil(lambda: hold.limits is not None and not hold.plot.coarse)
+    qtbot.wait(50)
+    assert hold.drag_sweeps == 0 and not hold.plot.coarse
+    assert hold.limits is c.stage_result().main.hold_limits
+
+
 def test_no_wind_area_says_why_instead_of_a_plot(window) -> None:  # type: ignore[no-untyped-def]
     from dataclasses import replace
 
