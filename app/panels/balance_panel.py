@@ -7,7 +7,7 @@ convention are stated on the panel.
 
 from __future__ import annotations
 
-from PySide6.QtCore import Qt
+from PySide6.QtCore import QSize, Qt
 from PySide6.QtWidgets import QFormLayout, QFrame, QLabel, QScrollArea, QVBoxLayout, QWidget
 
 from app import formatting as fmt
@@ -21,6 +21,9 @@ FRAME_TEXT = (
     "Yaw moment positive counter-clockwise seen from above (bow to port). "
     "Bearings are relative, degrees clockwise from ahead (090 = starboard beam)."
 )
+
+#: Qt's largest widget size (QWIDGETSIZE_MAX): a label's size no longer held.
+FREE = QSize(16_777_215, 16_777_215)
 
 FIELDS = (
     ("body", "Body and stage"),
@@ -86,6 +89,7 @@ class BalancePanel(QWidget):
         layout.addStretch(1)
         self.balance: Balance | None = None
         self._selectable = True
+        self._held = False  # the figures keep their sizes (see _hold_sizes)
         controller.follow(self.refresh, self)
         self.refresh()
 
@@ -112,47 +116,80 @@ class BalancePanel(QWidget):
         for lab in self.fields.values():
             lab.setTextInteractionFlags(flags)
 
+    def _hold_sizes(self, on: bool) -> None:
+        """Keep every figure at the size it has (``on``), or let the layout size it again.
+
+        A label whose text changes asks its layout to work out the whole panel again (its
+        word-wrapped lines may have changed): during a drag, when the figures change on
+        every mouse move, that was a layout pass on every move. Held at their sizes they
+        only repaint; a figure that needs more lines than it has is let go (see
+        :meth:`_set`), and the drag's end lets them all go.
+        """
+        if on == self._held:
+            return
+        self._held = on
+        for lab in self.fields.values():
+            if on:
+                lab.setFixedSize(lab.size())
+            else:
+                lab.setMinimumSize(0, 0)
+                lab.setMaximumSize(FREE)
+
+    def _set(self, key: str, text: str) -> None:
+        """Show ``text`` in figure ``key`` (a held figure that needs more room is let go)."""
+        lab = self.fields[key]
+        if lab.text() == text:
+            return
+        lab.setText(text)
+        held = self._held and lab.maximumHeight() == lab.minimumHeight()
+        if held and lab.heightForWidth(lab.width()) > lab.height():
+            lab.setMinimumSize(0, 0)
+            lab.setMaximumSize(FREE)
+
     @guarded
     def refresh(self) -> None:
-        self._set_selectable(not self.controller.previewing)
+        previewing = self.controller.previewing
+        self._set_selectable(not previewing)
+        self._hold_sizes(previewing and self.isVisible())
         b = self.controller.balance()
         self.balance = b
         u = self.controller.project.units
-        f = self.fields
         if b is None:
-            for lab in f.values():
-                lab.setText("—")
+            for key in self.fields:
+                self._set(key, "—")
             self.warnings.setText("")
             return
         eq = b.equivalent
-        f["body"].setText(f"{b.body}, stage “{b.stage}”")
-        f["net"].setText(fmt.value(u, eq.magnitude, "force"))
-        f["net_bearing"].setText(fmt.bearing(b.net_bearing_deg))
-        f["net_ahead"].setText(fmt.signed(u, eq.force[0], "force"))
-        f["net_abeam"].setText(fmt.signed(u, eq.force[1], "force"))
-        f["net_words"].setText(b.walking)
-        f["moment_centroid"].setText(f"{fmt.signed(u, eq.moment, 'moment')}  {b.turning}")
-        f["moment_cog"].setText(
-            f"{fmt.signed(u, b.moment_cog_nm, 'moment')}  {b.turning_about_cog}"
+        self._set("body", f"{b.body}, stage “{b.stage}”")
+        self._set("net", fmt.value(u, eq.magnitude, "force"))
+        self._set("net_bearing", fmt.bearing(b.net_bearing_deg))
+        self._set("net_ahead", fmt.signed(u, eq.force[0], "force"))
+        self._set("net_abeam", fmt.signed(u, eq.force[1], "force"))
+        self._set("net_words", b.walking)
+        self._set("moment_centroid", f"{fmt.signed(u, eq.moment, 'moment')}  {b.turning}")
+        self._set(
+            "moment_cog", f"{fmt.signed(u, b.moment_cog_nm, 'moment')}  {b.turning_about_cog}"
         )
         if eq.kind == "couple":
-            f["equivalent"].setText("a pure couple: no single force, no line of action")
-            f["offset"].setText("—")
-            f["crossing"].setText("—")
+            self._set("equivalent", "a pure couple: no single force, no line of action")
+            self._set("offset", "—")
+            self._set("crossing", "—")
         elif eq.kind == "balanced":
-            f["equivalent"].setText("balanced: no net force and no yaw moment")
-            f["offset"].setText("—")
-            f["crossing"].setText("—")
+            self._set("equivalent", "balanced: no net force and no yaw moment")
+            self._set("offset", "—")
+            self._set("crossing", "—")
         else:
-            f["equivalent"].setText(fmt.value(u, eq.magnitude, "force"))
+            self._set("equivalent", fmt.value(u, eq.magnitude, "force"))
             off = eq.offset_m or 0.0
             side = "right" if off > 0 else "left"
-            f["offset"].setText(
-                f"{fmt.value(u, abs(off), 'length')}, to the {side} of it looking along the force"
+            self._set(
+                "offset",
+                f"{fmt.value(u, abs(off), 'length')}, to the {side} of it looking along the force",
             )
-            f["crossing"].setText(
+            self._set(
+                "crossing",
                 b.crossing_words(u).replace("crosses the centreline at ", "")
-                + ("" if b.crossing_is_far else " from the reference point")
+                + ("" if b.crossing_is_far else " from the reference point"),
             )
         # While a drag is in progress the verdict waits; the balance's own warnings follow it.
         notices = [n.message for n in b.notices] if self.controller.previewing else []

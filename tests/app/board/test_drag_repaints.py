@@ -3,7 +3,8 @@
 The line of action is drawn in pieces so a move repaints a band along it, not its whole
 bounding box; the hull's selection is not shown again when it did not change; the
 balance panel's figures are not selectable while they change on every move and are
-again, with the final figures, once the drag ends; the drift layer, when off, tells its
+again, with the final figures, once the drag ends, and they keep their sizes while they
+change, so the panel is not laid out again on every move; the drift layer, when off, tells its
 panel nothing on every move.
 """
 
@@ -12,7 +13,7 @@ from __future__ import annotations
 import itertools
 import math
 
-from PySide6.QtCore import QLineF, Qt
+from PySide6.QtCore import QCoreApplication, QEvent, QLineF, QObject, Qt
 from PySide6.QtGui import QColor, QImage, QPainter
 
 from app.board.items import PiecedLine
@@ -170,6 +171,59 @@ def test_the_balance_figures_wait_to_be_selectable_until_the_drag_ends(window) -
         .startswith(fmt.signed(u, b.equivalent.moment, "moment"))
     )
     assert shown() == during  # the last move's figures are the final ones
+
+
+class _Layouts(QObject):
+    """Counts the layout requests that reach a widget."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.count = 0
+
+    def eventFilter(self, obj, event) -> bool:  # type: ignore[no-untyped-def]
+        if event.type() == QEvent.Type.LayoutRequest:
+            self.count += 1
+        return False
+
+
+def test_the_balance_figures_keep_their_sizes_while_a_drag_changes_them(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = window.controller
+    panel = window.balance_panel
+    inner = panel.fields["net"].parentWidget()
+    tug = c.stage.placements[0].tug
+    _drag_step(c, tug, 0.05)  # the first move: the verdict says it is updating
+    qtbot.wait(20)
+    layouts = _Layouts()
+    inner.installEventFilter(layouts)
+    texts = []
+    for k in range(2, 6):
+        _drag_step(c, tug, 0.05 * k)
+        QCoreApplication.processEvents()
+        texts.append(panel.fields["net"].text())
+    inner.removeEventFilter(layouts)
+    assert len(set(texts)) > 1  # the figures changed ...
+    assert layouts.count == 0  # ... and the panel was not laid out again
+    assert all(lab.minimumSize() == lab.maximumSize() for lab in panel.fields.values())
+    c.commit_preview("turn the line")
+    # after the drag the figures are sized by the layout again and show the result's
+    assert all(lab.maximumWidth() > 10_000 for lab in panel.fields.values())
+    assert all(lab.minimumSize().isNull() for lab in panel.fields.values())
+    assert panel.fields["net"].text() == texts[-1]
+
+
+def test_a_held_figure_that_needs_more_lines_gets_them(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = window.controller
+    panel = window.balance_panel
+    tug = c.stage.placements[0].tug
+    _drag_step(c, tug, 0.1)
+    lab = panel.fields["net_words"]
+    assert lab.minimumSize() == lab.maximumSize()  # held
+    height = lab.height()
+    panel._set("net_words", " ".join(["a long reason that wraps"] * 12))
+    assert lab.maximumWidth() > 10_000  # let go: the layout gives it its lines
+    qtbot.waitUntil(lambda: lab.height() > height)
+    c.cancel_preview()
+    assert lab.text() == c.balance().walking
 
 
 def test_the_drift_layer_when_off_tells_its_panel_nothing_during_a_drag(window) -> None:  # type: ignore[no-untyped-def]
