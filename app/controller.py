@@ -168,6 +168,7 @@ class Controller(QObject):
         self._preview_base: Project | None = None
         self._results: dict[str, BodyResult] | None = None
         self._results_override: dict[str, BodyResult] | None = None
+        self._all_but_placements: tuple[Project, int, tuple[object, ...]] | None = None
         #: Callables ``(project, results) -> project`` run on every edit and preview before
         #: it is shown (live solving fills in the settings); ``results`` are the bodies'
         #: results for ``project`` when the caller has them (a drag), else None. The same
@@ -227,17 +228,25 @@ class Controller(QObject):
     def all_but_placements(self) -> tuple[object, ...]:
         """The plan less the tugs' placements in the stage shown, and that stage's index:
         what a view reads that no tug drag changes (for ``follow``'s ``reads``). Values
-        compare by identity first, so this costs a few pointer comparisons."""
+        compare by identity first, so comparing two costs a few pointer comparisons; it
+        is made once per plan and stage shown (every such view reads it on every change)."""
         p = self._project
         i = self._stage_index
+        kept = self._all_but_placements
+        if kept is not None and kept[0] is p and kept[1] == i:
+            return kept[2]
         parts: list[object] = [i]
-        parts += [getattr(p, f.name) for f in fields(p) if f.name[0] != "_" and f.name != "stages"]
+        parts += [getattr(p, name) for name in _fields_of(p) if name != "stages"]
         for k, s in enumerate(p.stages):
             if k == i:
-                parts.append(tuple(getattr(s, f.name) for f in fields(s) if f.name != "placements"))
+                parts.append(
+                    tuple(getattr(s, name) for name in _fields_of(s) if name != "placements")
+                )
             else:
                 parts.append(s)
-        return tuple(parts)
+        out = tuple(parts)
+        self._all_but_placements = (p, i, out)
+        return out
 
     # -- the stage's result ---------------------------------------------------------
     def stage_result(self) -> StageResult | None:
@@ -455,6 +464,18 @@ class Controller(QObject):
             return project, project.stages[min(self._stage_index, len(project.stages) - 1)]
         stage = Stage("Stage 1")
         return replace(project, stages=(stage,)), stage
+
+
+_FIELDS: dict[type, tuple[str, ...]] = {}
+
+
+def _fields_of(value: object) -> tuple[str, ...]:
+    """The names of a dataclass value's public fields (worked out once per class)."""
+    cls = type(value)
+    names = _FIELDS.get(cls)
+    if names is None:
+        names = _FIELDS[cls] = tuple(f.name for f in fields(cls) if f.name[0] != "_")  # type: ignore[arg-type]
+    return names
 
 
 def results_of(result: StageResult | None) -> dict[str, BodyResult]:
