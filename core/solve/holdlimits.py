@@ -444,16 +444,29 @@ def _lost_alone(
 
 
 def _ranks_without_each(shapes: WrenchPolygons) -> np.ndarray:
-    """(n,) rank of the fleet's wrench set with each tug left out."""
+    """(n,) rank of the fleet's wrench set with each tug left out.
+
+    Each tug's columns are set to zero in turn (zero columns leave the singular values as
+    they are), so one stacked SVD serves a batch of tugs.
+    """
     verts, tug = shapes.vertices()
-    out = np.zeros(shapes.n, dtype=int)
-    for k in range(shapes.n):
-        v = verts[:, tug != k]
-        if v.shape[1] == 0:
-            continue
-        sv = np.linalg.svd(v, compute_uv=False)
-        out[k] = int((sv > 1e-9 * max(float(sv[0]), 1e-300)).sum())
+    n, k = shapes.n, verts.shape[1]
+    out = np.zeros(n, dtype=int)
+    if k == 0:
+        return out
+    batch = max(1, _RANK_BATCH // (3 * k))
+    for first in range(0, n, batch):
+        lost = np.arange(first, min(first + batch, n))
+        kept = tug[None, :] != lost[:, None]  # (b, K)
+        stack = verts[None, :, :] * kept[:, None, :]  # (b, 3, K)
+        sv = np.linalg.svd(stack, compute_uv=False)  # (b, 3)
+        ranks = (sv > 1e-9 * np.maximum(sv[:, :1], 1e-300)).sum(axis=1)
+        out[lost] = np.where(kept.any(axis=1), ranks, 0)
     return out
+
+
+#: Elements of the stacked matrices one SVD in _ranks_without_each works at once.
+_RANK_BATCH = 500_000
 
 
 #: Load factors below this (scaled units) are rounding, not a limit: shown as 0.

@@ -97,7 +97,9 @@ def support_parts(normals: np.ndarray, shapes: WrenchPolygons) -> np.ndarray:
         out[:, i] = np.maximum((_projected(normals, shapes.arms[i]) @ poly.T).max(axis=1), 0.0)
     if seg_idx:
         idx = np.array(seg_idx)
-        gens = np.vstack([shapes.wrench(int(i), v)[:, 0] for i, v in zip(idx, seg_v, strict=True)])
+        v = np.array(seg_v)  # (s, 2) each segment's far end
+        a = shapes.arms[idx]
+        gens = np.column_stack([v[:, 0], v[:, 1], a[:, 0] * v[:, 1] - a[:, 1] * v[:, 0]])
         out[:, idx] = np.maximum(normals @ gens.T, 0.0)
     return out
 
@@ -117,17 +119,30 @@ class Edges:
 
 
 def edges_of(shapes: WrenchPolygons) -> Edges:
+    """Every polygon's edges, tug by tug (a segment's one edge worked for all at once)."""
     vecs, outs, tugs, starts, ends, two = [], [], [], [], [], []
-    for i, poly in enumerate(shapes.polygons):
+    polys = shapes.polygons
+    segs = [i for i, poly in enumerate(polys) if len(poly) == 2]
+    if segs:  # fixed leads: one edge each, from the origin to the far end
+        idx = np.array(segs)
+        pts = np.array([polys[i] for i in segs])  # (s, 2, 2)
+        e = pts[:, 1] - pts[:, 0]
+        size = np.hypot(e[:, 0], e[:, 1])
+        keep = size > 1e-12 * np.maximum(size, 1e-300)
+        e, idx = e[keep], idx[keep]
+        a = shapes.arms[idx]
+        vecs.append(np.column_stack([e[:, 0], e[:, 1], a[:, 0] * e[:, 1] - a[:, 1] * e[:, 0]]))
+        outs.append(np.column_stack([e[:, 1], -e[:, 0]]))
+        tugs.append(idx)
+        starts.append(np.zeros(len(idx), dtype=int))
+        ends.append(np.ones(len(idx), dtype=int))
+        two.append(np.ones(len(idx), dtype=bool))
+    for i, poly in enumerate(polys):
         m = len(poly)
-        if m < 2:
+        if m < 3:
             continue
-        if m == 2:
-            st, en = np.array([0]), np.array([1])
-            sides = np.array([True])
-        else:
-            st, en = np.arange(m), (np.arange(m) + 1) % m
-            sides = np.zeros(m, dtype=bool)
+        st, en = np.arange(m), (np.arange(m) + 1) % m
+        sides = np.zeros(m, dtype=bool)
         e = poly[en] - poly[st]
         size = np.hypot(e[:, 0], e[:, 1])
         keep = size > 1e-12 * max(float(size.max()), 1e-300)
@@ -141,13 +156,15 @@ def edges_of(shapes: WrenchPolygons) -> Edges:
     if not vecs:
         z = np.zeros(0, dtype=int)
         return Edges(np.zeros((0, 3)), np.zeros((0, 2)), z, z, z, np.zeros(0, bool))
+    tug = np.concatenate(tugs)
+    order = np.argsort(tug, kind="stable")  # tug by tug, each tug's edges in turn
     return Edges(
-        np.vstack(vecs),
-        np.vstack(outs),
-        np.concatenate(tugs),
-        np.concatenate(starts),
-        np.concatenate(ends),
-        np.concatenate(two),
+        np.vstack(vecs)[order],
+        np.vstack(outs)[order],
+        tug[order],
+        np.concatenate(starts)[order],
+        np.concatenate(ends)[order],
+        np.concatenate(two)[order],
     )
 
 
