@@ -343,7 +343,7 @@ class Controller(QObject):
             new = []
             for p in r.layout.placements:
                 q = placed.get(p.tug)
-                if q is None or replace(q, setting=p.setting) != p:
+                if q is None or not (q is p or _same_but_setting(q, p)):
                     return None
                 new.append(q)
             layout = replace(r.layout, placements=tuple(new))
@@ -476,6 +476,13 @@ def _fields_of(value: object) -> tuple[str, ...]:
     if names is None:
         names = _FIELDS[cls] = tuple(f.name for f in fields(cls) if f.name[0] != "_")  # type: ignore[arg-type]
     return names
+
+
+def _same_but_setting(a: object, b: object) -> bool:
+    """Whether two placements are the same but for their settings."""
+    return type(a) is type(b) and all(
+        getattr(a, name) == getattr(b, name) for name in _fields_of(a) if name != "setting"
+    )
 
 
 def results_of(result: StageResult | None) -> dict[str, BodyResult]:

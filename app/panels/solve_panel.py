@@ -99,11 +99,18 @@ def solved_stage(
         if layout is not None:
             layout = replace(layout, placements=tuple(fixed[p.tug] for p in layout.placements))
     result = solve_pulls(pulls_problem(project, held, goal=goal, layout=layout))
-    out = stage
-    for p, s in zip(result.problem.placements, result.utilisation, strict=True):
-        if abs(p.setting - float(s)) > 1e-12:
-            out = out.with_placement(stage.placement(p.tug).with_setting(float(s)))
-    return out, result
+    solved = {
+        p.tug: float(s)
+        for p, s in zip(result.problem.placements, result.utilisation.tolist(), strict=True)
+        if abs(p.setting - float(s)) > 1e-12
+    }
+    if not solved:
+        return stage, result
+    # one new stage for all the settings (a stage per tug was most of a live move's solve)
+    placements = tuple(
+        p.with_setting(solved[p.tug]) if p.tug in solved else p for p in stage.placements
+    )
+    return replace(stage, placements=placements), result
 
 
 def tug_notes(result: StageResult) -> dict[str, list[str]]:
