@@ -38,7 +38,7 @@ from app.paint import style
 from app.paint.rings import current_scale, polar_scale
 from app.paint.symbols import draw_planned_wind
 from core.errors import TowboardError
-from core.model.plan import Stage
+from core.model.plan import Project, Stage
 from core.solve.holdlimits import (
     Flow,
     HoldLimits,
@@ -480,6 +480,8 @@ class HoldLimitsPanel(QWidget):
     def _follow_drag(self) -> None:
         if not (self.controller.previewing and self.follow_drag and on_screen(self)):
             return
+        if self._job is not None:
+            return  # one under way: it sweeps again when it ends, if the plan moved on
         start = time.perf_counter()
         job = self._start_sweep()
         if job is None:  # nothing to sweep: the plot says why at once
@@ -518,6 +520,8 @@ class HoldLimitsPanel(QWidget):
             self._job = None
             self._show_sweep(job, done.value)
             self._sweep_done(start, job.cost + time.perf_counter() - start)
+            if self.controller.project is not job.project:
+                self._schedule_follow()  # the mouse moved on meanwhile: its turn comes
             return
         except TowboardError as e:
             self._job = None
@@ -571,7 +575,7 @@ class HoldLimitsPanel(QWidget):
         if fresh:
             self._lost_at = now
         steps = live_hold_limits_steps(problem, lost_step=2 if fresh else 0)
-        return _SweepJob(steps, stage, units, fresh, bool(problem.tugs))
+        return _SweepJob(steps, c.project, stage, units, fresh, bool(problem.tugs))
 
     def _show_sweep(self, job: _SweepJob, done: tuple[HoldLimits, np.ndarray, np.ndarray]) -> None:
         lim, lost_dirs, worst = done
@@ -656,6 +660,7 @@ class _SweepJob:
     """A drag's sweep being worked in steps, and what its plot is for."""
 
     steps: Steps[tuple[HoldLimits, np.ndarray, np.ndarray]]
+    project: Project  # the plan it sweeps
     stage: Stage
     units: DisplayUnits
     fresh: bool  # it sweeps the worst tug lost too

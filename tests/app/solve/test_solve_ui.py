@@ -505,6 +505,32 @@ def test_a_drag_sweep_is_worked_in_steps_and_shown_whole(holding, qtbot) -> None
     assert hold.limits.worst_lost_ms == pytest.approx(direct.worst_lost_ms, rel=1e-12)
 
 
+def test_moves_made_while_a_sweep_is_under_way_are_swept_once_it_ends(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    """A sweep in steps is for the plan as it was when it began; when the mouse moved on
+    meanwhile, the plot sweeps again once that one ends (no further move needed), so a
+    mouse at rest is shown where it rests."""
+    from core.solve.holdlimits import live_hold_limits
+
+    c = holding.controller
+    holding.solve_ui.set_live(True)
+    holding.show()
+    hold = holding.solve_ui.hold
+    qtbot.waitUntil(lambda: not hold._timer.isActive())
+    stage = c.stage
+    p = stage.placement("Gannet")
+    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    hold._follow_drag()
+    assert hold._job is not None
+    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.4))))
+    qtbot.waitUntil(lambda: hold.drag_sweeps >= 2)  # the second with no move after it
+    problem = hold_limits_problem(
+        c.project, c.stage, "Barge", directions_deg=np.arange(0.0, 360.0, 5.0)
+    )
+    ref, _, _ = live_hold_limits(problem, lost_step=0)
+    assert hold.limits.all_tugs_ms == pytest.approx(ref.all_tugs_ms, rel=1e-12)
+    c.cancel_preview()
+
+
 def test_a_drag_sweep_under_way_is_dropped_when_the_drag_ends(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     c = holding.controller
     holding.solve_ui.set_live(True)
