@@ -73,6 +73,9 @@ class VerdictView(QLabel):
     @guarded
     def _changed(self) -> None:
         if self.controller.previewing:
+            # a refresh due from before the drag would work out the stage result of a
+            # plan the mouse is still moving: the drag's end brings it up to date
+            self._timer.stop()
             if self.verdict is not None and not self._stale:
                 self._stale = True
                 self.setText(self.text() + " <i style='color:#607d8b'>(updating…)</i>")

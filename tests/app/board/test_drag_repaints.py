@@ -192,7 +192,7 @@ def test_the_balance_figures_keep_their_sizes_while_a_drag_changes_them(window, 
     inner = panel.fields["net"].parentWidget()
     tug = c.stage.placements[0].tug
     _drag_step(c, tug, 0.05)  # the first move: the verdict says it is updating
-    qtbot.wait(20)
+    qtbot.wait(200)  # (longer than the verdict's delay: nothing of before the drag is left)
     layouts = _Layouts()
     inner.installEventFilter(layouts)
     texts = []
@@ -209,6 +209,21 @@ def test_the_balance_figures_keep_their_sizes_while_a_drag_changes_them(window, 
     assert all(lab.maximumWidth() > 10_000 for lab in panel.fields.values())
     assert all(lab.minimumSize().isNull() for lab in panel.fields.values())
     assert panel.fields["net"].text() == texts[-1]
+
+
+def test_a_verdict_due_from_before_a_drag_waits_for_its_end(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    c = window.controller
+    verdict = window.balance_panel.verdict
+    c.invalidate()  # a change: the verdict is read again shortly
+    assert verdict._timer.isActive()
+    tug = c.stage.placements[0].tug
+    _drag_step(c, tug, 0.1)
+    assert not verdict._timer.isActive()  # not on a plan the mouse is still moving
+    qtbot.wait(250)
+    assert "updating" in verdict.text()
+    c.commit_preview("turn the line")
+    qtbot.waitUntil(lambda: "updating" not in verdict.text())
+    assert verdict.verdict is c.stage_result().verdict
 
 
 def test_a_held_figure_that_needs_more_lines_gets_them(window, qtbot) -> None:  # type: ignore[no-untyped-def]
