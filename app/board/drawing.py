@@ -118,9 +118,12 @@ class HullDrawing:
         self.units = DisplayUnits()
         #: The selection last shown (reset when handles or fittings are made again).
         self._selection_shown: object = None
+        #: Counts the changes to this hull's items (a drag's backdrop checks it).
+        self.revision = 0
         self.set_member(member)
 
     def set_member(self, member: Member) -> None:
+        self.revision += 1
         self.frame.setPos(member.x, member.y)
         self.frame.setRotation(math.degrees(member.heading_rad))
         self.outline.setData(ROLE, ("hull", member.hull.name))
@@ -128,6 +131,7 @@ class HullDrawing:
             self.set_hull(member.hull)
 
     def set_hull(self, hull: Hull) -> None:
+        self.revision += 1
         old = self.hull
         self.hull = hull
         if old is None or old.outline != hull.outline:
@@ -142,6 +146,7 @@ class HullDrawing:
         """Write the fittings' tooltips again when the display units change."""
         if units == self.units:
             return
+        self.revision += 1
         self.units = units
         if self.hull is not None:
             for f in self.hull.fittings:
@@ -183,6 +188,7 @@ class HullDrawing:
             h.setData(ROLE, ("vertex", hull.name, i))
 
     def show_handles(self, on: bool, selected: int | None = None) -> None:
+        self.revision += 1
         for i, h in enumerate(self.handles):
             h.setVisible(on)
             h.set_selected(i == selected)
@@ -224,6 +230,7 @@ class HullDrawing:
         """In a lashed group, a side that lies against another hull gets no side mark."""
         if self.hull is None or len(body.members) < 2:
             return
+        self.revision += 1
         g = self.hull.geometry
         ys = [y for _, y in self.hull.outline]
         out = 0.02 * g.length + 1.0
@@ -248,6 +255,7 @@ class HullDrawing:
         """Re-aim the push pads after the body turned (their bar follows the hull edge)."""
         if self.hull is None:
             return
+        self.revision += 1
         self._aim_side_labels()
         for f in self.hull.fittings:
             mark, _ = self.fittings[f.name]
@@ -259,6 +267,7 @@ class HullDrawing:
         key = (selection, self.hull.name if self.hull else None)
         if key == self._selection_shown:
             return  # a refresh in a drag: an outline's pen set again repaints the whole hull
+        self.revision += 1
         self._selection_shown = key
         name = self.hull.name if self.hull else None
         hull_selected = (
@@ -282,6 +291,7 @@ class HullDrawing:
             lab.setVisible(on)
 
     def show_invalid(self, outline: list[tuple[float, float]] | None) -> None:
+        self.revision += 1
         if outline is None:
             self.invalid.setVisible(False)
             return
@@ -308,6 +318,8 @@ class TugDrawing:
         self._share: TugShare | None = None  # the share last drawn, and what else it took
         self._inputs: tuple[object, ...] | None = None
         self._selected = False
+        #: Counts the changes to this tug's items (a drag's backdrop checks it).
+        self.revision = 0
 
     def remove(self) -> None:
         for item in (self.glyph, self.label):
@@ -318,6 +330,7 @@ class TugDrawing:
     def forget(self) -> None:
         """Draw this tug again at its next update (its label's words changed)."""
         self._key = self._share = self._inputs = None
+        self.revision += 1
 
     def update(
         self,
@@ -336,6 +349,7 @@ class TugDrawing:
         if key == self._key:
             return  # nothing about this tug changed (the drag moves one tug at a time)
         self._key = key
+        self.revision += 1
         dx, dy = direction
         towline = None
         if share.mode == "line":
@@ -358,12 +372,14 @@ class TugDrawing:
 
     def set_dragging(self, on: bool) -> None:
         """While dragged, the tug is drawn directly: a pixmap cache would be remade every move."""
+        self.revision += 1
         for item in (self.glyph, self.label):
             item.setCacheMode(NO_CACHE if on else CACHE)
 
     def set_selected(self, on: bool) -> None:
         if on == self._selected:
             return
+        self.revision += 1
         self._selected = on
         self.glyph.set_selected(on)
 
@@ -404,6 +420,9 @@ class BalanceDrawing:
         self.cross_label.priority = 4
         self.action.setData(GUIDE, True)  # it runs across the board
         self.loads: list[tuple[Arrow, Label]] = []
+        self._loads_key: tuple[object, ...] | None = None
+        #: Counts the changes to the load arrows and their labels (a tug drag leaves them).
+        self.loads_revision = 0
         self._moment_label_key: tuple[float, str] | None = None
 
     def update(
@@ -513,6 +532,11 @@ class BalanceDrawing:
     def _update_loads(
         self, balance: Balance, units: DisplayUnits, scale: float, head: float
     ) -> None:
+        key = (tuple((ld.name, ld.point, ld.force) for ld in balance.loads), units, scale, head)
+        if key == self._loads_key:
+            return  # the same loads (a tug drag leaves the wind and the current alone)
+        self._loads_key = key
+        self.loads_revision += 1
         while len(self.loads) > len(balance.loads):
             for item in self.loads.pop():
                 item.setParentItem(None)
@@ -567,11 +591,20 @@ class BodyDrawing:
         self.balance = BalanceDrawing(self.root)
         self.body: Body | None = None
         self._pose: BodyPose | None = None
+        self._revision = 0
+
+    def still_revision(self, moving_tug: str | None) -> int:
+        """A count that changes whenever an item of this body changes, other than the
+        ``moving_tug``'s and the balance's own arrows and labels (the loads' count)."""
+        n = self._revision + self.balance.loads_revision + len(self.tugs) + len(self.hulls)
+        n += sum(h.revision for h in self.hulls.values())
+        return n + sum(t.revision for name, t in self.tugs.items() if name != moving_tug)
 
     def set_pose(self, pose: BodyPose, site_angle_deg: float) -> None:
         if pose == self._pose:
             return
         self._pose = pose
+        self._revision += 1
         self.root.setPos(pose.x, pose.y)
         self.root.setRotation(site_angle_deg)
         for h in self.hulls.values():
@@ -581,6 +614,7 @@ class BodyDrawing:
 
     def set_body(self, body: Body) -> None:
         self.body = body
+        self._revision += 1
         names = {m.hull.name for m in body.members}
         for name in list(self.hulls):
             if name not in names:

@@ -273,6 +273,11 @@ class Interaction:
             self.site.press_point(hit)
         return True
 
+    def dragged_tug(self) -> tuple[str, str] | None:
+        """(body, tug) of the tug being dragged, None when no tug is."""
+        drag = self.drag
+        return (drag.body, drag.placement.tug) if isinstance(drag, _TugDrag) else None
+
     def _drag_overtaken(self) -> bool:
         """True (and the drag dropped) when the plan was edited under a drag in progress."""
         if self.drag is None or self.controller.project is self._drag_plan:

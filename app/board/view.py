@@ -14,6 +14,7 @@ from PySide6.QtCore import QPointF, QRectF, QSizeF, Qt, QTimer
 from PySide6.QtGui import QPainter, QPixmap, QTransform
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsView, QWidget
 
+from app.board.backdrop import Backdrop
 from app.board.cache import fit_pixmap_cache
 from app.board.items import GUIDE, Label, Leader
 from app.board.overlay import draw_north_arrow, draw_scale_bar
@@ -27,6 +28,10 @@ NORTH_ARROW = QSizeF(72, 86)  # top right
 MARGIN = 10.0
 #: How many times a fit may zoom out to leave a corner free for the card.
 FIT_TRIES = 8
+#: A tug drag draws the still items as two pictures (app.board.backdrop) when at least
+#: this many of them would go into the pictures: below it, taking the pictures costs
+#: more than the moves save.
+BACKDROP_MIN_ITEMS = 400
 
 
 class BoardView(QGraphicsView):
@@ -72,6 +77,11 @@ class BoardView(QGraphicsView):
         self._place_timer.setInterval(0)
         self._place_timer.timeout.connect(self.place_labels)
         scene.refresh_hooks.append(lambda _s: self.schedule_placement())
+        #: The still items of a tug drag as two pictures (see app.board.backdrop).
+        self.backdrop = Backdrop(self)
+        self._drag_seen: tuple[object, int] | None = None  # the drag and its still count
+        self._drag_spoilt: object = None  # a drag whose still items changed: no backdrop
+        scene.refresh_hooks.append(lambda _s: self._follow_drag())
         # connected after the scene's own refresh, so a refit sees the new stage's items
         scene.controller.changed.connect(self._controller_changed)
         self._stage_shown = scene.controller.stage_index
@@ -204,6 +214,7 @@ class BoardView(QGraphicsView):
     def place_labels(self) -> None:
         """Choose the card's corner, then move every label clear of the rest (now)."""
         self._place_timer.stop()
+        self.backdrop.thaw()  # the placer reads every item as it is drawn
         if self.viewport().width() < 10:
             return
         self.choose_corner()
@@ -303,11 +314,95 @@ class BoardView(QGraphicsView):
             return
         super().mouseReleaseEvent(event)
 
+    # -- a tug drag's still items as pictures ----------------------------------------------
+    def _moving_tug(self) -> tuple[str, str] | None:
+        """(body, tug) of the tug being dragged with its move shown, else None."""
+        scene = self.board
+        moving = scene.interaction.dragged_tug()
+        if moving is None or not scene.controller.previewing:
+            return None
+        d = scene.bodies.get(moving[0])
+        return moving if d is not None and moving[1] in d.tugs else None
+
+    def _still_revision(self, moving: tuple[str, str]) -> int:
+        bodies = self.board.bodies
+        n = len(bodies)
+        for name, d in bodies.items():
+            n += d.still_revision(moving[1] if name == moving[0] else None)
+        return n
+
+    def _moving_items(self, moving: tuple[str, str]) -> list[QGraphicsItem]:
+        """The items a drag of this tug changes: the tug's, the balance's, its sector's."""
+        body, tug = moving
+        d = self.board.bodies[body]
+        t, b = d.tugs[tug], d.balance
+        items: list[QGraphicsItem] = [t.glyph, t.label, b.centroid, b.cog, b.net, b.moment]
+        items += [b.crossing, b.net_label, b.moment_label, b.cross_label, b.state, b.stale]
+        items += b.action.pieces
+        sectors = self.board.sectors
+        wedge = sectors.wedges.get(tug)
+        items += ([wedge] if wedge is not None else []) + list(sectors.knobs.get(tug, ()))
+        out: list[QGraphicsItem] = []
+        while items:  # with their children (a label's leader)
+            item = items.pop()
+            out.append(item)
+            items += item.childItems()
+        return out
+
+    @guarded
+    def _follow_drag(self) -> None:
+        """After a refresh: take the backdrop once a tug drag's still items stand still,
+        let it go when the drag ends or they change."""
+        moving = self._moving_tug()
+        drag = self.board.interaction.drag
+        if moving is None:
+            self.backdrop.thaw()
+            self._drag_seen = self._drag_spoilt = None
+            return
+        if self.backdrop.frozen:
+            if not self.backdrop.still_true():
+                self.backdrop.thaw()
+                self._drag_spoilt = drag  # live solving moves every tug: draw them as ever
+            return
+        if drag is self._drag_spoilt:
+            return
+        revision = self._still_revision(moving)
+        seen, self._drag_seen = self._drag_seen, (drag, revision)
+        if seen != (drag, revision):
+            return  # the first move, or the still items changed with this one: wait
+        bodies = {d.root for d in self.board.bodies.values()}
+        items = self._moving_items(moving)
+        if len(self.board.items()) - len(items) < BACKDROP_MIN_ITEMS:
+            self._drag_spoilt = drag  # a small board: drawn as it is
+            return
+        self.backdrop.freeze(
+            items,
+            lambda i: i.topLevelItem() in bodies,
+            lambda: self._still_revision(moving),
+        )
+
+    @guarded
+    def paintEvent(self, event) -> None:  # type: ignore[no-untyped-def]
+        if self.backdrop.frozen and (self._moving_tug() is None or not self.backdrop.still_true()):
+            self._drag_spoilt = self.board.interaction.drag
+            self.backdrop.thaw()  # and the whole board is painted again after this
+        super().paintEvent(event)
+
+    @guarded
+    def drawBackground(self, painter: QPainter, rect: QRectF) -> None:
+        if self.backdrop.capture == "over":
+            return  # the picture over the moving items: on a clear ground
+        if not self.backdrop.draw_under(painter):
+            super().drawBackground(painter, rect)
+
     # -- on top: scale bar and north arrow ------------------------------------------------
     @guarded
     def drawForeground(self, painter: QPainter, rect: QRectF) -> None:
+        if self.backdrop.capture is not None:
+            return  # a picture of the still items: no overlays in it
         painter.save()
         painter.resetTransform()
+        self.backdrop.draw_over(painter)
         h = self.viewport().height()
         w = self.viewport().width()
         bar, arrow = self._overlays()

@@ -1,0 +1,167 @@
+"""A tug drag on a crowded board draws what it leaves alone as two pictures.
+
+The pictures show the board exactly as the items would; the still items draw nothing
+while they stand in; the drag's end, a change of zoom or a still item that changes
+after all lets them go. A small board is drawn item by item as ever.
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+from PySide6.QtCore import QEvent, QPointF, QSize, Qt
+from PySide6.QtGui import QImage, QMouseEvent
+from PySide6.QtWidgets import QApplication, QGraphicsItem
+
+from core.model.hull import Fitting, Hull
+from core.model.outlines import box_outline
+from core.model.plan import BodyPose, Project, Stage
+from core.model.tugs import Placement, Tug
+
+NO_CONTENTS = QGraphicsItem.GraphicsItemFlag.ItemHasNoContents
+LEFT = Qt.MouseButton.LeftButton
+
+
+def crowded(n_tugs: int) -> Project:
+    """A 160 m x 40 m box with ``n_tugs`` tugs on lines spread round its edge."""
+    hull = Hull("Crowded", box_outline(160.0, 40.0))
+    fittings, tugs, placements = [], [], []
+    perimeter = hull.geometry.perimeter
+    for i in range(n_tugs):
+        q = hull.geometry.point_at((i + 0.5) / n_tugs * perimeter)
+        fittings.append(Fitting(f"B{i:03d}", "line", q.x, q.y))
+        tugs.append(Tug(f"T{i:03d}", 40e4 + 1e3 * i))
+        out = math.atan2(q.normal[1], q.normal[0])
+        placements.append(Placement(f"T{i:03d}", hull.name, f"B{i:03d}", setting=0.5, lead_rad=out))
+    hull = Hull(hull.name, hull.outline, fittings=tuple(fittings))
+    stage = Stage("One", poses=(BodyPose(hull.name, 0.0, 0.0, 0.0),), placements=tuple(placements))
+    return Project(name="Crowded", hulls=(hull,), tugs=tuple(tugs), stages=(stage,))
+
+
+@pytest.fixture
+def board(qtbot):  # type: ignore[no-untyped-def]
+    def make(n_tugs: int):  # type: ignore[no-untyped-def]
+        from app.board.scene import BoardScene
+        from app.board.view import BoardView
+        from app.controller import Controller
+
+        scene = BoardScene(Controller(crowded(n_tugs)))
+        view = BoardView(scene)
+        qtbot.addWidget(view)
+        view.resize(QSize(900, 700))
+        view.show()
+        qtbot.waitExposed(view)
+        view.fit_to_hull()
+        QApplication.processEvents()
+        return view
+
+    return make
+
+
+def _send(view, kind: QEvent.Type, pt: QPointF, buttons: Qt.MouseButton) -> None:  # type: ignore[no-untyped-def]
+    vp = view.viewport()
+    button = Qt.MouseButton.NoButton if kind == QEvent.Type.MouseMove else LEFT
+    ev = QMouseEvent(
+        kind, pt, QPointF(vp.mapToGlobal(pt.toPoint())), button, buttons,
+        Qt.KeyboardModifier.NoModifier,
+    )  # fmt: skip
+    QApplication.sendEvent(vp, ev)
+    QApplication.processEvents()
+
+
+def _grip(view, tug: str) -> QPointF:  # type: ignore[no-untyped-def]
+    d = next(iter(view.board.bodies.values()))
+    glyph = d.tugs[tug].glyph
+    centre = glyph.mapToScene(glyph.glyph.boundingRect().center())
+    return QPointF(view.mapFromScene(centre))
+
+
+def _start(view, tug: str, moves: int = 3) -> QPointF:  # type: ignore[no-untyped-def]
+    at = _grip(view, tug)
+    _send(view, QEvent.Type.MouseButtonPress, at, LEFT)
+    for k in range(1, moves + 1):
+        _send(view, QEvent.Type.MouseMove, at + QPointF(4.0 * k, 3.0 * k), LEFT)
+    return at + QPointF(4.0 * moves, 3.0 * moves)
+
+
+def _picture(view) -> QImage:  # type: ignore[no-untyped-def]
+    return view.viewport().grab().toImage().convertToFormat(QImage.Format.Format_ARGB32)
+
+
+def _most_apart(a: QImage, b: QImage) -> int:
+    """The largest difference of one colour channel between two pictures of one size."""
+    assert a.size() == b.size()
+    worst = 0
+    for y in range(0, a.height(), 2):
+        for x in range(0, a.width(), 2):
+            p, q = a.pixelColor(x, y), b.pixelColor(x, y)
+            worst = max(
+                worst, abs(p.red() - q.red()), abs(p.green() - q.green()), abs(p.blue() - q.blue())
+            )
+    return worst
+
+
+def test_a_crowded_tug_drag_draws_the_still_items_as_pictures_that_look_the_same(board) -> None:  # type: ignore[no-untyped-def]
+    view = board(150)
+    d = next(iter(view.board.bodies.values()))
+    before = {id(i) for i in view.board.items() if i.flags() & NO_CONTENTS}
+    _start(view, "T010")
+    assert view.backdrop.frozen
+    body, tug = view.board.interaction.dragged_tug()
+    assert body == "Crowded" and tug in ("T009", "T010", "T011")  # the one under the press
+    moving = d.tugs[tug]
+    for item in (moving.glyph, moving.label, d.balance.net, *d.balance.action.pieces):
+        assert not item.flags() & NO_CONTENTS  # drawn on every move
+    # stacked under the dragged tug: in the picture under; its labels over: in the one over
+    assert d.tugs["T005"].glyph.flags() & NO_CONTENTS
+    for name in ("T015", "T140"):
+        assert d.tugs[name].label.flags() & NO_CONTENTS
+    # stacked between moving items (a tug over the dragged one, a label under its label):
+    # in neither picture, drawn on its own in its place
+    assert not d.tugs["T015"].glyph.flags() & NO_CONTENTS
+    assert not d.tugs["T005"].label.flags() & NO_CONTENTS
+    frozen = _picture(view)
+    view.backdrop.thaw()
+    QApplication.processEvents()
+    assert {id(i) for i in view.board.items() if i.flags() & NO_CONTENTS} == before
+    # the same board: at most a level of rounding where translucent label boxes lie
+    assert _most_apart(frozen, _picture(view)) <= 2
+
+
+def test_the_drag_end_lets_the_pictures_go(board) -> None:  # type: ignore[no-untyped-def]
+    view = board(150)
+    before = {id(i) for i in view.board.items() if i.flags() & NO_CONTENTS}
+    end = _start(view, "T020")
+    assert view.backdrop.frozen
+    _send(view, QEvent.Type.MouseButtonRelease, end, Qt.MouseButton.NoButton)
+    assert not view.backdrop.frozen
+    assert {id(i) for i in view.board.items() if i.flags() & NO_CONTENTS} == before
+    assert view.board.controller.undo_stack.count() == 1  # the move was recorded
+
+
+def test_a_zoom_or_a_still_tug_changing_under_the_drag_lets_them_go(board) -> None:  # type: ignore[no-untyped-def]
+    view = board(150)
+    at = _start(view, "T030")
+    assert view.backdrop.frozen
+    view.zoom(1.2)
+    QApplication.processEvents()  # the next paint finds the view moved
+    assert not view.backdrop.frozen
+    _send(view, QEvent.Type.MouseButtonRelease, at, Qt.MouseButton.NoButton)
+    at = _start(view, "T030")
+    assert view.backdrop.frozen
+    view.board.set_tug_notes({"T100": "a note"})  # another tug's label is written again
+    assert not view.backdrop.frozen
+    _send(view, QEvent.Type.MouseMove, at + QPointF(5, 5), LEFT)
+    assert not view.backdrop.frozen  # not taken again in this drag
+    label = view.board.bodies["Crowded"].tugs["T100"].label
+    assert "a note" in label.text and not label.flags() & NO_CONTENTS
+
+
+def test_a_small_board_is_drawn_item_by_item(board) -> None:  # type: ignore[no-untyped-def]
+    view = board(12)
+    before = {id(i) for i in view.board.items() if i.flags() & NO_CONTENTS}
+    _start(view, "T003", moves=4)
+    assert view.board.controller.previewing
+    assert not view.backdrop.frozen
+    assert {id(i) for i in view.board.items() if i.flags() & NO_CONTENTS} == before
