@@ -18,20 +18,27 @@ keeps its place in the stacking order.
 The backdrop is let go (every item drawn again) when the drag ends, when the view's
 zoom, position or size changes, or when a still item changes after all: a body's
 drawing counts its changes (:meth:`app.board.drawing.BodyDrawing.still_revision`), and
-the items of other layers are compared by where they are and whether they are shown.
+the items of other layers are compared by where they are, whether and how faintly they
+are shown, and whether they are still there (the drift layer, the one layer that draws
+during a tug drag, takes its items away and makes new ones).
 """
 
 from __future__ import annotations
 
 from collections.abc import Callable, Iterable
 
-from PySide6.QtCore import QPoint, Qt
+from PySide6.QtCore import QPoint, QRectF, Qt
 from PySide6.QtGui import QPainter, QPixmap, QRegion, QTransform
-from PySide6.QtWidgets import QGraphicsItem, QGraphicsView, QWidget
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsView, QStyleOptionGraphicsItem, QWidget
 from shiboken6 import isValid
 
+from app.guard import guarded
+
 NO_CONTENTS = QGraphicsItem.GraphicsItemFlag.ItemHasNoContents
-Signature = tuple[float, float, float, float, bool, float]
+#: A run of still items between moving ones goes into a picture of its own when it has
+#: at least this many items (a short run is drawn item by item).
+MIN_RUN = 30
+Signature = tuple[float, float, float, float, bool, float, float]
 
 
 def _painted(item: QGraphicsItem) -> bool:
@@ -39,9 +46,55 @@ def _painted(item: QGraphicsItem) -> bool:
     return item.isVisible() and not (item.flags() & NO_CONTENTS)
 
 
+def _still_runs(painted: list[QGraphicsItem], live: set[int]) -> list[list[QGraphicsItem]]:
+    """The runs of consecutive still items in stacking order (``live``: ids of the moving)."""
+    runs: list[list[QGraphicsItem]] = []
+    run: list[QGraphicsItem] = []
+    for item in painted:
+        if id(item) in live:
+            if run:
+                runs.append(run)
+            run = []
+        else:
+            run.append(item)
+    if run:
+        runs.append(run)
+    return runs if len(runs) < len(painted) else []
+
+
+class Picture(QGraphicsItem):
+    """A picture of a run of still items, drawn where the run's last item is stacked.
+
+    It is the last child of that item (a child is drawn after its parent and before the
+    parent's next sibling), it fills the viewport and draws in its pixels.
+    """
+
+    def __init__(self, after: QGraphicsItem, pixmap: QPixmap, vt: QTransform, port: QRectF) -> None:
+        super().__init__(after)
+        self.pixmap = pixmap
+        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+        kids = [c for c in after.childItems() if c is not self]
+        # before the item's own children (they come after it in the stacking order)
+        self.setZValue(min((c.zValue() for c in kids), default=0.0) - 1.0)
+        self._rect = self.deviceTransform(vt).inverted()[0].mapRect(port)
+
+    @guarded(default=QRectF)
+    def boundingRect(self) -> QRectF:
+        return self._rect
+
+    @guarded
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        painter.save()
+        painter.resetTransform()
+        painter.drawPixmap(0, 0, self.pixmap)
+        painter.restore()
+
+
 def _signature(item: QGraphicsItem) -> Signature:
     r = item.sceneBoundingRect()
-    return (r.x(), r.y(), r.width(), r.height(), item.isVisible(), item.zValue())
+    return (r.x(), r.y(), r.width(), r.height(), item.isVisible(), item.zValue(), item.opacity())
 
 
 class Backdrop:
@@ -59,8 +112,8 @@ class Backdrop:
         self.under = QPixmap()
         self.over = QPixmap()
         self._items: list[QGraphicsItem] = []  # told they have nothing to draw
+        self._pictures: list[Picture] = []  # the runs of still items between moving ones
         self._others: dict[QGraphicsItem, Signature] = {}
-        self._count = 0
         self._revision: Callable[[], int] = lambda: 0
         self._revision_at = 0
         self._view_key: tuple[object, ...] = ()
@@ -86,16 +139,24 @@ class Backdrop:
         live = {id(i) for i in moving}
         order = scene.items(Qt.SortOrder.AscendingOrder)
         painted = [i for i in order if _painted(i)]
-        at = [k for k, i in enumerate(painted) if id(i) in live]
-        if not at:
+        runs = _still_runs(painted, live)
+        if not runs:
             return False
-        first, last = at[0], at[-1]
-        under, over = painted[:first], painted[last + 1 :]
-        if len(under) + len(over) < 2:
+        first = runs[0] if runs[0][0] is painted[0] else []
+        last = runs[-1] if runs[-1][-1] is painted[-1] and runs[-1] is not first else []
+        between = [
+            r
+            for r in runs
+            if r is not first
+            and r is not last
+            and len(r) >= MIN_RUN
+            # the picture is the last item's child: it would take a faint item's opacity
+            and r[-1].effectiveOpacity() == 1.0
+        ]
+        if len(first) + len(last) + sum(map(len, between)) < 2:
             return False
         self._revision = revision
         self._revision_at = revision()
-        self._count = len(order)
         self._others = {i: _signature(i) for i in order if not owned(i)}
         self._view_key = self._key()
         ratio = vp.devicePixelRatioF()
@@ -106,23 +167,41 @@ class Backdrop:
             pix.fill(Qt.GlobalColor.transparent)
             return pix
 
-        ends = {id(i) for i in under} | {id(i) for i in over}
-        others = [i for i in painted if id(i) not in ends]
+        shown = {id(i): True for i in painted}
+
+        def only(run: list[QGraphicsItem]) -> None:
+            keep = {id(i) for i in run}
+            for i in painted:
+                on = id(i) in keep
+                if shown[id(i)] != on:
+                    i.setFlag(NO_CONTENTS, not on)
+                    shown[id(i)] = on
+
         # the picture under: the background and the still items below the first moving one
-        self._hide(over + others)
+        only(first)
         self.under = self._draw(picture(), "under")
-        # the picture over: on a clear ground, the still items above the last moving one
-        self._show(over)
-        self._hide(under)
+        # the others on a clear ground: the runs between moving items and the one on top
         mode, fill = self.view.cacheMode(), vp.autoFillBackground()
         self.view.setCacheMode(QGraphicsView.CacheModeFlag.CacheNone)
         vp.setAutoFillBackground(False)
-        self.over = self._draw(picture(), "over")
-        vp.setAutoFillBackground(fill)
-        self.view.setCacheMode(mode)
-        self._show(others)
-        self._hide(over)
-        self._items = under + over
+        try:
+            pictures = []
+            for run in between:
+                only(run)
+                pictures.append(self._draw(picture(), "over"))
+            only(last)
+            self.over = self._draw(picture(), "over")
+        finally:
+            vp.setAutoFillBackground(fill)
+            self.view.setCacheMode(mode)
+        frozen = first + last + [i for r in between for i in r]
+        in_pictures = {id(i) for i in frozen}
+        only([i for i in painted if id(i) not in in_pictures])
+        self._items = frozen
+        vt = self.view.viewportTransform()
+        port = QRectF(vp.rect())
+        for run, pix in zip(between, pictures, strict=True):
+            self._pictures.append(Picture(run[-1], pix, vt, port))
         self.frozen = True
         self.view.resetCachedContent()  # the cached background becomes the picture under
         return True
@@ -164,9 +243,10 @@ class Backdrop:
         if self._key() != self._view_key or self._revision() != self._revision_at:
             return False
         scene = self.view.scene()
-        if scene is None or len(scene.items()) != self._count:
-            return False
-        return all(isValid(i) and _signature(i) == s for i, s in self._others.items())
+        return all(
+            isValid(i) and i.scene() is scene and _signature(i) == s
+            for i, s in self._others.items()
+        )
 
     def thaw(self) -> None:
         """Draw every item on its own again (the whole board is painted afresh)."""
@@ -175,6 +255,12 @@ class Backdrop:
         self.frozen = False
         self._show(self._items)
         self._items = []
+        for pic in self._pictures:
+            if isValid(pic):
+                pic.setParentItem(None)
+                if pic.scene() is not None:
+                    pic.scene().removeItem(pic)
+        self._pictures = []
         self._others = {}
         self.under = QPixmap()
         self.over = QPixmap()

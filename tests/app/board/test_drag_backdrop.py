@@ -117,14 +117,20 @@ def test_a_crowded_tug_drag_draws_the_still_items_as_pictures_that_look_the_same
     assert d.tugs["T005"].glyph.flags() & NO_CONTENTS
     for name in ("T015", "T140"):
         assert d.tugs[name].label.flags() & NO_CONTENTS
-    # stacked between moving items (a tug over the dragged one, a label under its label):
-    # in neither picture, drawn on its own in its place
-    assert not d.tugs["T015"].glyph.flags() & NO_CONTENTS
+    # stacked between moving items: a long run (the tugs over the dragged one, under the
+    # net force) in a picture of its own in its place; a short one (the labels under the
+    # dragged tug's label, over the balance's labels) drawn item by item
+    from app.board.backdrop import Picture
+
+    assert d.tugs["T015"].glyph.flags() & NO_CONTENTS
+    pictures = [i for i in view.board.items() if isinstance(i, Picture)]
+    assert [p.parentItem() for p in pictures] == [d.tugs["T149"].glyph]
     assert not d.tugs["T005"].label.flags() & NO_CONTENTS
     frozen = _picture(view)
     view.backdrop.thaw()
     QApplication.processEvents()
     assert {id(i) for i in view.board.items() if i.flags() & NO_CONTENTS} == before
+    assert not any(isinstance(i, Picture) for i in view.board.items())
     # the same board: at most a level of rounding where translucent label boxes lie
     assert _most_apart(frozen, _picture(view)) <= 2
 
