@@ -70,10 +70,21 @@ def _screen_angle(root: QGraphicsItem, v: tuple[float, float]) -> float:
     return -math.degrees(math.atan2(sy, sx))  # the view flips y so north is up
 
 
+class Changes:
+    """A count of the changes to a body's still drawings (its hulls, its tugs, the loads),
+    shared by them: a tug drag's backdrop (app.board.backdrop) reads it on every move."""
+
+    __slots__ = ("count",)
+
+    def __init__(self) -> None:
+        self.count = 0
+
+
 class HullDrawing:
     """One hull: outline, centreline, bow/stern and side marks, fittings, vertex handles."""
 
-    def __init__(self, root: Root, member: Member) -> None:
+    def __init__(self, root: Root, member: Member, changes: Changes | None = None) -> None:
+        self.changes = changes or Changes()
         self.frame = Root(root)
         self.hull: Hull | None = None
         self.outline = PathItem(self.frame)
@@ -118,12 +129,16 @@ class HullDrawing:
         self.units = DisplayUnits()
         #: The selection last shown (reset when handles or fittings are made again).
         self._selection_shown: object = None
-        #: Counts the changes to this hull's items (a drag's backdrop checks it).
+        #: Counts the changes to this hull's items (so does ``changes``, with the others').
         self.revision = 0
         self.set_member(member)
 
-    def set_member(self, member: Member) -> None:
+    def _changed(self) -> None:
         self.revision += 1
+        self.changes.count += 1
+
+    def set_member(self, member: Member) -> None:
+        self._changed()
         self.frame.setPos(member.x, member.y)
         self.frame.setRotation(math.degrees(member.heading_rad))
         self.outline.setData(ROLE, ("hull", member.hull.name))
@@ -131,7 +146,7 @@ class HullDrawing:
             self.set_hull(member.hull)
 
     def set_hull(self, hull: Hull) -> None:
-        self.revision += 1
+        self._changed()
         old = self.hull
         self.hull = hull
         if old is None or old.outline != hull.outline:
@@ -146,7 +161,7 @@ class HullDrawing:
         """Write the fittings' tooltips again when the display units change."""
         if units == self.units:
             return
-        self.revision += 1
+        self._changed()
         self.units = units
         if self.hull is not None:
             for f in self.hull.fittings:
@@ -188,7 +203,7 @@ class HullDrawing:
             h.setData(ROLE, ("vertex", hull.name, i))
 
     def show_handles(self, on: bool, selected: int | None = None) -> None:
-        self.revision += 1
+        self._changed()
         for i, h in enumerate(self.handles):
             h.setVisible(on)
             h.set_selected(i == selected)
@@ -230,7 +245,7 @@ class HullDrawing:
         """In a lashed group, a side that lies against another hull gets no side mark."""
         if self.hull is None or len(body.members) < 2:
             return
-        self.revision += 1
+        self._changed()
         g = self.hull.geometry
         ys = [y for _, y in self.hull.outline]
         out = 0.02 * g.length + 1.0
@@ -255,7 +270,7 @@ class HullDrawing:
         """Re-aim the push pads after the body turned (their bar follows the hull edge)."""
         if self.hull is None:
             return
-        self.revision += 1
+        self._changed()
         self._aim_side_labels()
         for f in self.hull.fittings:
             mark, _ = self.fittings[f.name]
@@ -267,7 +282,7 @@ class HullDrawing:
         key = (selection, self.hull.name if self.hull else None)
         if key == self._selection_shown:
             return  # a refresh in a drag: an outline's pen set again repaints the whole hull
-        self.revision += 1
+        self._changed()
         self._selection_shown = key
         name = self.hull.name if self.hull else None
         hull_selected = (
@@ -291,7 +306,7 @@ class HullDrawing:
             lab.setVisible(on)
 
     def show_invalid(self, outline: list[tuple[float, float]] | None) -> None:
-        self.revision += 1
+        self._changed()
         if outline is None:
             self.invalid.setVisible(False)
             return
@@ -305,7 +320,8 @@ class HullDrawing:
 class TugDrawing:
     """One tug: its shape where it works, the towline, the force arrow (one item) and a label."""
 
-    def __init__(self, root: Root, name: str) -> None:
+    def __init__(self, root: Root, name: str, changes: Changes | None = None) -> None:
+        self.changes = changes or Changes()
         self.name = name
         self.glyph = TugItem(root)
         self.glyph.setZValue(Z_TUG)
@@ -318,10 +334,15 @@ class TugDrawing:
         self._share: TugShare | None = None  # the share last drawn, and what else it took
         self._inputs: tuple[object, ...] | None = None
         self._selected = False
-        #: Counts the changes to this tug's items (a drag's backdrop checks it).
+        #: Counts the changes to this tug's items (so does ``changes``, with the others').
         self.revision = 0
 
+    def _changed(self) -> None:
+        self.revision += 1
+        self.changes.count += 1
+
     def remove(self) -> None:
+        self.changes.count += 1
         for item in (self.glyph, self.label):
             item.setParentItem(None)
             if item.scene() is not None:
@@ -330,7 +351,7 @@ class TugDrawing:
     def forget(self) -> None:
         """Draw this tug again at its next update (its label's words changed)."""
         self._key = self._share = self._inputs = None
-        self.revision += 1
+        self._changed()
 
     def update(
         self,
@@ -349,7 +370,7 @@ class TugDrawing:
         if key == self._key:
             return  # nothing about this tug changed (the drag moves one tug at a time)
         self._key = key
-        self.revision += 1
+        self._changed()
         dx, dy = direction
         towline = None
         if share.mode == "line":
@@ -372,14 +393,14 @@ class TugDrawing:
 
     def set_dragging(self, on: bool) -> None:
         """While dragged, the tug is drawn directly: a pixmap cache would be remade every move."""
-        self.revision += 1
+        self._changed()
         for item in (self.glyph, self.label):
             item.setCacheMode(NO_CACHE if on else CACHE)
 
     def set_selected(self, on: bool) -> None:
         if on == self._selected:
             return
-        self.revision += 1
+        self._changed()
         self._selected = on
         self.glyph.set_selected(on)
 
@@ -387,7 +408,8 @@ class TugDrawing:
 class BalanceDrawing:
     """The balance of one body: net force, yaw moment, line of action and what they mean."""
 
-    def __init__(self, root: Root) -> None:
+    def __init__(self, root: Root, changes: Changes | None = None) -> None:
+        self.changes = changes or Changes()
         self.root = root
         self.centroid = Mark("centroid", root, 16)
         self.cog = Mark("cog", root, 14)
@@ -421,8 +443,6 @@ class BalanceDrawing:
         self.action.setData(GUIDE, True)  # it runs across the board
         self.loads: list[tuple[Arrow, Label]] = []
         self._loads_key: tuple[object, ...] | None = None
-        #: Counts the changes to the load arrows and their labels (a tug drag leaves them).
-        self.loads_revision = 0
         self._moment_label_key: tuple[float, str] | None = None
 
     def update(
@@ -536,7 +556,7 @@ class BalanceDrawing:
         if key == self._loads_key:
             return  # the same loads (a tug drag leaves the wind and the current alone)
         self._loads_key = key
-        self.loads_revision += 1
+        self.changes.count += 1
         while len(self.loads) > len(balance.loads):
             for item in self.loads.pop():
                 item.setParentItem(None)
@@ -588,23 +608,23 @@ class BodyDrawing:
         scene.addItem(self.root)
         self.hulls: dict[str, HullDrawing] = {}
         self.tugs: dict[str, TugDrawing] = {}
-        self.balance = BalanceDrawing(self.root)
+        #: Every change to the hulls, the tugs and the loads drawn (see still_changes).
+        self.changes = Changes()
+        self.balance = BalanceDrawing(self.root, self.changes)
         self.body: Body | None = None
         self._pose: BodyPose | None = None
-        self._revision = 0
 
-    def still_revision(self, moving_tug: str | None) -> int:
-        """A count that changes whenever an item of this body changes, other than the
-        ``moving_tug``'s and the balance's own arrows and labels (the loads' count)."""
-        n = self._revision + self.balance.loads_revision + len(self.tugs) + len(self.hulls)
-        n += sum(h.revision for h in self.hulls.values())
-        return n + sum(t.revision for name, t in self.tugs.items() if name != moving_tug)
+    def still_changes(self, moving_tug: str | None) -> int:
+        """A count that grows whenever an item of this body changes, other than the
+        ``moving_tug``'s and the balance's own arrows and labels (the loads count)."""
+        t = self.tugs.get(moving_tug) if moving_tug is not None else None
+        return self.changes.count - (t.revision if t is not None else 0)
 
     def set_pose(self, pose: BodyPose, site_angle_deg: float) -> None:
         if pose == self._pose:
             return
         self._pose = pose
-        self._revision += 1
+        self.changes.count += 1
         self.root.setPos(pose.x, pose.y)
         self.root.setRotation(site_angle_deg)
         for h in self.hulls.values():
@@ -614,11 +634,12 @@ class BodyDrawing:
 
     def set_body(self, body: Body) -> None:
         self.body = body
-        self._revision += 1
+        self.changes.count += 1
         names = {m.hull.name for m in body.members}
         for name in list(self.hulls):
             if name not in names:
                 d = self.hulls.pop(name)
+                self.changes.count += 1
                 d.frame.setParentItem(None)
                 if d.frame.scene() is not None:
                     d.frame.scene().removeItem(d.frame)
@@ -626,7 +647,7 @@ class BodyDrawing:
             if m.hull.name in self.hulls:
                 self.hulls[m.hull.name].set_member(m)
             else:
-                self.hulls[m.hull.name] = HullDrawing(self.root, m)
+                self.hulls[m.hull.name] = HullDrawing(self.root, m, self.changes)
             self.hulls[m.hull.name].hide_inner_sides(body, m)
 
     def set_tugs(
@@ -645,7 +666,7 @@ class BodyDrawing:
         for s in shares:
             d = self.tugs.get(s.tug)
             if d is None:
-                d = self.tugs[s.tug] = TugDrawing(self.root, s.tug)
+                d = self.tugs[s.tug] = TugDrawing(self.root, s.tug, self.changes)
             point, direction = points[s.tug]
             d.update(s, point, direction, force_scale, head, text)
 

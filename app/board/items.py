@@ -632,17 +632,18 @@ class LineItem(QGraphicsLineItem):
     def paint(
         self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
     ) -> None:
-        painter.setPen(style.scaled_pen(self.pen(), style.device_scale(painter)))
+        own = self.pen()
+        painter.setPen(style.scaled_pen(own, style.device_scale(painter)))
         line = self.line()
         origin = line.p1() if self.dash_from is None else self.dash_from
         exposed = option.exposedRect  # type: ignore[attr-defined]
-        if not exposed.isEmpty():
+        if not exposed.isEmpty() and not exposed.contains(self.boundingRect()):
             pad = 4.0 * max(exposed.width(), exposed.height()) / 1000.0
             clipped = clip_line(line, exposed.adjusted(-pad, -pad, pad, pad))
             if clipped is None:
                 return
             line = clipped
-        if self.pen().style() != Qt.PenStyle.SolidLine and line.p1() != origin:
+        if own.style() != Qt.PenStyle.SolidLine and line.p1() != origin:
             # keep the dashes where they would be on the whole line: a cosmetic pen's
             # dashes are counted in device pixels along the line's major axis
             t = painter.worldTransform()

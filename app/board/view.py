@@ -328,7 +328,7 @@ class BoardView(QGraphicsView):
         bodies = self.board.bodies
         n = len(bodies)
         for name, d in bodies.items():
-            n += d.still_revision(moving[1] if name == moving[0] else None)
+            n += d.still_changes(moving[1] if name == moving[0] else None)
         return n
 
     def _moving_items(self, moving: tuple[str, str]) -> list[QGraphicsItem]:
