@@ -445,6 +445,12 @@ class BalanceDrawing:
         self._loads_key: tuple[object, ...] | None = None
         self._moment_label_key: tuple[float, str] | None = None
 
+    def set_moving(self, on: bool) -> None:
+        """While a drag moves the balance on every step, its arrows repaint a band along
+        themselves, not their boxes (see app.board.items._ArrowItem)."""
+        self.net.set_banded(on)
+        self.moment.set_banded(on)
+
     def update(
         self,
         balance: Balance,

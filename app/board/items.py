@@ -7,6 +7,7 @@ transformations and are sized in pixels.
 
 from __future__ import annotations
 
+import itertools
 import math
 
 from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
@@ -19,12 +20,14 @@ from PySide6.QtGui import (
     QPainterPath,
     QPen,
     QPolygonF,
+    QRegion,
 )
 from PySide6.QtWidgets import (
     QGraphicsItem,
     QGraphicsLineItem,
     QGraphicsPathItem,
     QGraphicsPolygonItem,
+    QGraphicsView,
     QStyleOptionGraphicsItem,
     QWidget,
 )
@@ -365,8 +368,19 @@ class FittingMark(QGraphicsItem):
             painter.drawRoundedRect(QRectF(-6, -2.5, 12, 5), 1.5, 1.5)
 
 
+#: A banded arrow's repaint band: pieces this long along its shaft (px), this far round it.
+BAND_STEP_PX = 24.0
+BAND_PAD_PX = 4.0
+
+
 class _ArrowItem(QGraphicsItem):
-    """What the straight and the curved arrow share: pen, filled head, cached bounds."""
+    """What the straight and the curved arrow share: pen, filled head, cached bounds.
+
+    A long slanting arrow's box is most of the board. While ``banded`` (the arrow
+    changes on every move of a drag) it keeps a box that only grows, and each change
+    asks its views to repaint a band along the old and the new arrow instead of both
+    boxes: the same arrow is drawn, one item, where the band is exposed.
+    """
 
     def __init__(self, color: QColor, width: float, parent: QGraphicsItem | None = None) -> None:
         super().__init__(parent)
@@ -374,9 +388,55 @@ class _ArrowItem(QGraphicsItem):
         self._brush = QBrush(color)
         self._shaft = QPainterPath()
         self._head = QPolygonF()
-        self._rect = QRectF()
+        self._rect = QRectF()  # the arrow's own box
+        self._box = QRectF()  # the box Qt is given: the arrow's, or one grown in a drag
+        self._banded = False
         self._key: tuple[float, ...] | None = None
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+
+    def set_banded(self, on: bool) -> None:
+        """Repaint a band along the arrow as it changes (True), or its box (False)."""
+        if on == self._banded:
+            return
+        self._banded = on
+        if not on and self._box != self._rect:
+            self.prepareGeometryChange()
+            self._box = QRectF(self._rect)
+            self.update()
+
+    def _reshape(self, shaft: QPainterPath, head: QPolygonF, rect: QRectF) -> None:
+        """Take a new shaft, head and box, and have what changed repainted."""
+        views = self.scene().views() if self._banded and self.scene() is not None else []
+        if not views or not self.isVisible() or not self._box.contains(rect):
+            self.prepareGeometryChange()
+            self._shaft, self._head, self._rect = shaft, head, rect
+            self._box = rect.united(self._box) if views and self.isVisible() else QRectF(rect)
+            self.update()
+            return
+        old = [self._band(v) for v in views]
+        self._shaft, self._head, self._rect = shaft, head, rect
+        for v, band in zip(views, old, strict=True):
+            v.viewport().update(band.united(self._band(v)))
+
+    def _band(self, view: QGraphicsView) -> QRegion:
+        """The viewport pixels the arrow covers, as small boxes along it."""
+        t = self.deviceTransform(view.viewportTransform())
+        pad = BAND_PAD_PX + self._pen.widthF() / 2
+        band = QRegion()
+        pts = [
+            t.map(QPointF(e.x, e.y))
+            for e in map(self._shaft.elementAt, range(self._shaft.elementCount()))
+        ]
+        for a, b in itertools.pairwise(pts):
+            n = max(1, math.ceil(math.hypot(b.x() - a.x(), b.y() - a.y()) / BAND_STEP_PX))
+            for k in range(n):
+                p, q = a + (b - a) * (k / n), a + (b - a) * ((k + 1) / n)
+                box = QRectF(p, q).normalized().adjusted(-pad, -pad, pad, pad)
+                band += box.toAlignedRect()
+        if not self._head.isEmpty():
+            box = t.map(self._head).boundingRect().adjusted(-2, -2, 2, 2)
+            band += box.toAlignedRect()
+        return band
 
     def set_color(self, color: QColor) -> None:
         if self._pen.color() != color:
@@ -386,7 +446,7 @@ class _ArrowItem(QGraphicsItem):
 
     @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
-        return self._rect
+        return self._box
 
     def parts(self) -> tuple[QPainterPath, QPolygonF]:
         """The shaft and the head, in the parent's frame (m)."""
@@ -409,9 +469,7 @@ class Arrow(_ArrowItem):
         if key == self._key:
             return
         self._key = key
-        self.prepareGeometryChange()
-        self._shaft, self._head, self._rect = arrow_parts(start, end, head)
-        self.update()
+        self._reshape(*arrow_parts(start, end, head))
 
 
 def paint_arrow(
@@ -548,19 +606,15 @@ class MomentArrow(_ArrowItem):
         if key == self._key:
             return
         self._key = key
-        self.prepareGeometryChange()
         parts = arc_arrow(centre, radius, start_deg, sweep_deg, head)
         if parts is None:
-            self._shaft, self._head, self._rect = QPainterPath(), QPolygonF(), QRectF()
+            self._reshape(QPainterPath(), QPolygonF(), QRectF())
             return
         shaft, tip = parts
-        self._shaft = polyline_path(shaft)
-        self._head = polygon(tip)
+        path, tip_poly = polyline_path(shaft), polygon(tip)
         w = HEAD_HALF_WIDTH * head
-        self._rect = (
-            self._shaft.boundingRect().united(self._head.boundingRect()).adjusted(-w, -w, w, w)
-        )
-        self.update()
+        rect = path.boundingRect().united(tip_poly.boundingRect()).adjusted(-w, -w, w, w)
+        self._reshape(path, tip_poly, rect)
 
 
 def polygon_path(

@@ -202,6 +202,7 @@ class BoardScene(QGraphicsScene):
             pts, dirs = lay.points.tolist(), lay.directions.tolist()
             points = {p.tug: (tuple(pts[i]), tuple(dirs[i])) for i, p in enumerate(lay.placements)}
             d.set_tugs(r.balance, points, force_scale, head, self.tug_text)  # type: ignore[arg-type]
+            d.balance.set_moving(self.fixed_stage is None and self.controller.previewing)
             if r.balance.shares or r.balance.loads:
                 d.balance.update(
                     r.balance, body, project.units, force_scale, moment_scale, head, self.stale

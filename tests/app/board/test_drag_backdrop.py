@@ -1,4 +1,5 @@
-"""A tug drag on a crowded board draws what it leaves alone as two pictures.
+"""A tug drag on a crowded board draws what it leaves alone as pictures, and the balance's
+arrows repaint a band along themselves.
 
 The pictures show the board exactly as the items would; the still items draw nothing
 while they stand in; the drag's end, a change of zoom or a still item that changes
@@ -171,3 +172,50 @@ def test_a_small_board_is_drawn_item_by_item(board) -> None:  # type: ignore[no-
     assert view.board.controller.previewing
     assert not view.backdrop.frozen
     assert {id(i) for i in view.board.items() if i.flags() & NO_CONTENTS} == before
+
+
+def _screen(view) -> QImage:  # type: ignore[no-untyped-def]
+    """What the window shows now: its backing store, as the moves' repaints left it."""
+    shot = view.screen().grabWindow(view.winId())
+    return shot.toImage().convertToFormat(QImage.Format.Format_ARGB32)
+
+
+def test_what_the_moves_left_on_screen_is_the_board_painted_afresh(board) -> None:  # type: ignore[no-untyped-def]
+    view = board(150)
+    at = _start(view, "T060", moves=2)
+    regions = []
+
+    from PySide6.QtCore import QObject
+
+    class Watch(QObject):
+        def eventFilter(self, obj, event):  # type: ignore[no-untyped-def]
+            if event.type() == QEvent.Type.Paint:
+                regions.append(event.region())
+            return False
+
+    watch = Watch()
+    view.viewport().installEventFilter(watch)
+    for k in range(1, 15):  # round a loop: the net force and the yaw swing about
+        a = 2 * math.pi * k / 15
+        _send(
+            view,
+            QEvent.Type.MouseMove,
+            at + QPointF(60 * math.sin(a), 40 * (1 - math.cos(a))),
+            LEFT,
+        )
+    view.viewport().removeEventFilter(watch)
+    assert view.backdrop.frozen
+    d = view.board.bodies["Crowded"]
+    net = d.balance.net
+    assert net.isVisible() and net.boundingRect().contains(net._rect)
+    moved = _screen(view)
+    view.viewport().repaint()  # every pixel painted again, from the same items
+    assert _most_apart(moved, _screen(view)) == 0
+    # a move repainted a part of the board, not all of it
+    port = view.viewport().width() * view.viewport().height()
+    areas = [sum(r.width() * r.height() for r in region) for region in regions]
+    assert areas and max(areas) < port / 2
+    _send(view, QEvent.Type.MouseButtonRelease, at, Qt.MouseButton.NoButton)
+    # at rest, the arrows have their own boxes again
+    assert net.boundingRect() == net._rect
+    assert d.balance.moment.boundingRect() == d.balance.moment._rect
