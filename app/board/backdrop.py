@@ -1,4 +1,4 @@
-"""What a tug drag leaves alone, drawn once as two pictures instead of on every move.
+"""What a tug drag leaves alone, drawn once as pictures instead of on every move.
 
 A tug drag changes the dragged tug (its shape, towline, arrow, label) and the balance
 (the net force, the yaw moment, the line of action, their marks and labels); every
@@ -6,18 +6,19 @@ other item stays as it is. With 200 tugs those still items are a thousand, and e
 move's repaint drew each one under the parts of the board that changed (a line of
 action runs across the board), which cost more than a frame.
 
-So, once a tug drag's first move has been drawn, the view takes the still items in
+So, once a tug drag's still items have stood still for a move, the view takes them in
 Qt's stacking order: the run of them from the bottom up to the first moving item is
 drawn once into a picture under everything (with the water and the grid), the run
-from the last moving item to the top into a picture over everything, and those items
-are told they have nothing to draw (``ItemHasNoContents``) until the drag ends. Still
-items stacked between moving ones are drawn as before, so the board looks exactly as
-it would: the pictures are the same items drawn by the same view, and each picture
-keeps its place in the stacking order.
+from the last moving item to the top into a picture over everything, each long run
+between moving items into a picture drawn where that run lies (:class:`Picture`), and
+those items are told they have nothing to draw (``ItemHasNoContents``) until the drag
+ends. Short runs are drawn item by item as before. The board looks as it would: the
+pictures are the same items drawn by the same view, each in its place in the stacking
+order (laid over one another, translucent label boxes may differ by a level of 255).
 
 The backdrop is let go (every item drawn again) when the drag ends, when the view's
 zoom, position or size changes, or when a still item changes after all: a body's
-drawing counts its changes (:meth:`app.board.drawing.BodyDrawing.still_revision`), and
+drawing counts its changes (:meth:`app.board.drawing.BodyDrawing.still_changes`), and
 the items of other layers are compared by where they are, whether and how faintly they
 are shown, and whether they are still there (the drift layer, the one layer that draws
 during a tug drag, takes its items away and makes new ones).
@@ -47,11 +48,14 @@ def _painted(item: QGraphicsItem) -> bool:
 
 
 def _still_runs(painted: list[QGraphicsItem], live: set[int]) -> list[list[QGraphicsItem]]:
-    """The runs of consecutive still items in stacking order (``live``: ids of the moving)."""
+    """The runs of consecutive still items in stacking order (``live``: ids of the moving);
+    none when no item moves."""
     runs: list[list[QGraphicsItem]] = []
     run: list[QGraphicsItem] = []
+    moves = False
     for item in painted:
         if id(item) in live:
+            moves = True
             if run:
                 runs.append(run)
             run = []
@@ -59,14 +63,15 @@ def _still_runs(painted: list[QGraphicsItem], live: set[int]) -> list[list[QGrap
             run.append(item)
     if run:
         runs.append(run)
-    return runs if len(runs) < len(painted) else []
+    return runs if moves else []
 
 
 class Picture(QGraphicsItem):
     """A picture of a run of still items, drawn where the run's last item is stacked.
 
-    It is the last child of that item (a child is drawn after its parent and before the
-    parent's next sibling), it fills the viewport and draws in its pixels.
+    It is a child of that item stacked under the item's own children (a child is drawn
+    after its parent, and the children after the item's are moving ones); it covers
+    the viewport and draws in its pixels.
     """
 
     def __init__(self, after: QGraphicsItem, pixmap: QPixmap, vt: QTransform, port: QRectF) -> None:
@@ -98,7 +103,8 @@ def _signature(item: QGraphicsItem) -> Signature:
 
 
 class Backdrop:
-    """The still items of a tug drag on one view, as a picture under and one over.
+    """The still items of a tug drag on one view, as a picture under, one over, and one
+    for each long run between moving items.
 
     ``capture`` is ``"under"`` or ``"over"`` while a picture is being drawn (the view's
     background and foreground read it); ``frozen`` is True while the pictures stand in
@@ -125,7 +131,7 @@ class Backdrop:
         owned: Callable[[QGraphicsItem], bool],
         revision: Callable[[], int],
     ) -> bool:
-        """Draw the still items into the two pictures and stop drawing them one by one.
+        """Draw the still items into pictures and stop drawing them one by one.
 
         ``moving``: the items the drag changes; ``owned(item)``: True for an item whose
         changes ``revision()`` counts (the bodies' drawings); other items are checked

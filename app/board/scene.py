@@ -194,6 +194,7 @@ class BoardScene(QGraphicsScene):
                 h.set_units(project.units)
             pose = self.pose(name, project)
             d.set_pose(pose, site_angle_deg(pose))
+            d.balance.set_moving(self.fixed_stage is None and self.controller.previewing)
             if r is None:
                 d.set_tugs(None, {}, force_scale, head, self.tug_text)
                 d.balance.hide()
@@ -202,7 +203,6 @@ class BoardScene(QGraphicsScene):
             pts, dirs = lay.points.tolist(), lay.directions.tolist()
             points = {p.tug: (tuple(pts[i]), tuple(dirs[i])) for i, p in enumerate(lay.placements)}
             d.set_tugs(r.balance, points, force_scale, head, self.tug_text)  # type: ignore[arg-type]
-            d.balance.set_moving(self.fixed_stage is None and self.controller.previewing)
             if r.balance.shares or r.balance.loads:
                 d.balance.update(
                     r.balance, body, project.units, force_scale, moment_scale, head, self.stale
