@@ -10,7 +10,7 @@ from __future__ import annotations
 import itertools
 import math
 
-from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
+from PySide6.QtCore import QLineF, QPointF, QRect, QRectF, Qt
 from PySide6.QtGui import (
     QBrush,
     QColor,
@@ -371,6 +371,19 @@ class FittingMark(QGraphicsItem):
 #: A banded arrow's repaint band: pieces this long along its shaft (px), this far round it.
 BAND_STEP_PX = 24.0
 BAND_PAD_PX = 4.0
+BAND_GRID_PX = 16
+
+
+def _on_grid(x0: float, y0: float, x1: float, y1: float) -> tuple[int, int, int, int]:
+    """A box grown to a grid of BAND_GRID_PX: neighbouring boxes then merge into few
+    (a repaint clipped to a region of many small boxes costs more for every item in it)."""
+    g = BAND_GRID_PX
+    return (
+        math.floor(x0 / g) * g,
+        math.floor(y0 / g) * g,
+        math.ceil(x1 / g) * g,
+        math.ceil(y1 / g) * g,
+    )
 
 
 class _ArrowItem(QGraphicsItem):
@@ -391,6 +404,7 @@ class _ArrowItem(QGraphicsItem):
         self._rect = QRectF()  # the arrow's own box
         self._box = QRectF()  # the box Qt is given: the arrow's, or one grown in a drag
         self._banded = False
+        self._last_band: tuple[tuple[object, ...], QRegion] | None = None
         self._key: tuple[float, ...] | None = None
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
 
@@ -419,23 +433,36 @@ class _ArrowItem(QGraphicsItem):
             v.viewport().update(band.united(self._band(v)))
 
     def _band(self, view: QGraphicsView) -> QRegion:
-        """The viewport pixels the arrow covers, as small boxes along it."""
+        """The viewport pixels the arrow covers, as small boxes along it (the last one
+        worked out is kept: a change repaints the old band and the new)."""
         t = self.deviceTransform(view.viewportTransform())
+        key = (id(view), t, self._shaft, self._head)
+        if self._last_band is not None and self._last_band[0] == key:
+            return self._last_band[1]
         pad = BAND_PAD_PX + self._pen.widthF() / 2
-        band = QRegion()
-        pts = [
-            t.map(QPointF(e.x, e.y))
-            for e in map(self._shaft.elementAt, range(self._shaft.elementCount()))
-        ]
-        for a, b in itertools.pairwise(pts):
-            n = max(1, math.ceil(math.hypot(b.x() - a.x(), b.y() - a.y()) / BAND_STEP_PX))
-            for k in range(n):
-                p, q = a + (b - a) * (k / n), a + (b - a) * ((k + 1) / n)
-                box = QRectF(p, q).normalized().adjusted(-pad, -pad, pad, pad)
-                band += box.toAlignedRect()
+        boxes: set[tuple[int, int, int, int]] = set()
+        for line in self._shaft.toSubpathPolygons(t):
+            pts = [(p.x(), p.y()) for p in line]
+            for (ax, ay), (bx, by) in itertools.pairwise(pts):
+                n = max(1, math.ceil(math.hypot(bx - ax, by - ay) / BAND_STEP_PX))
+                for k in range(n):
+                    px, py = ax + (bx - ax) * k / n, ay + (by - ay) * k / n
+                    qx, qy = ax + (bx - ax) * (k + 1) / n, ay + (by - ay) * (k + 1) / n
+                    boxes.add(
+                        _on_grid(
+                            min(px, qx) - pad,
+                            min(py, qy) - pad,
+                            max(px, qx) + pad,
+                            max(py, qy) + pad,
+                        )
+                    )
         if not self._head.isEmpty():
-            box = t.map(self._head).boundingRect().adjusted(-2, -2, 2, 2)
-            band += box.toAlignedRect()
+            r = t.map(self._head).boundingRect()
+            boxes.add(_on_grid(r.left() - 2, r.top() - 2, r.right() + 2, r.bottom() + 2))
+        band = QRegion()
+        for x0, y0, x1, y1 in sorted(boxes):
+            band += QRect(x0, y0, x1 - x0, y1 - y0)
+        self._last_band = (key, band)
         return band
 
     def set_color(self, color: QColor) -> None:
