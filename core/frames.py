@@ -9,6 +9,8 @@ north); these helpers are the only place the two meet.
 from __future__ import annotations
 
 import math
+from collections.abc import Iterable
+from itertools import repeat
 
 
 def bearing_to_angle(bearing_deg: float) -> float:
@@ -20,6 +22,14 @@ def bearing_to_angle(bearing_deg: float) -> float:
     if a <= 0:
         a += _TAU
     return a - math.pi
+
+
+def bearings_to_angles(bearings_deg: Iterable[float]) -> list[float]:
+    """:func:`bearing_to_angle` of each bearing, the same floats, for a file's column of
+    thousands (the steps mapped in C, one Python step left)."""
+    pi, tau = math.pi, _TAU
+    turned = map(math.fmod, map(pi.__sub__, map(math.radians, bearings_deg)), repeat(tau))
+    return [(a + tau if a <= 0 else a) - pi for a in turned]
 
 
 def angle_to_bearing(angle_rad: float) -> float:

@@ -319,25 +319,30 @@ def _each(
     d: Json,
     key: str,
     path: str,
+    whole: Callable[[list[Any]], Any],
     fast: Callable[[Any], Any],
     careful: Callable[[_Reader, Any, str], T | None],
 ) -> list[T]:
-    """The values of the list at ``key``: each entry read by ``fast`` (core.io.plain), or
-    where that gives plain.NOT_PLAIN, by ``careful``, which says what is wrong with the
-    entry's path (and gives None)."""
+    """The values of the list at ``key``: all read at once by ``whole`` (core.io.plain) when
+    every entry is plain; else each entry read by ``fast``, or where that gives
+    plain.NOT_PLAIN, by ``careful``, which says what is wrong with the entry's path (and
+    gives None)."""
     value = d.get(key, [])
     if not isinstance(value, list):
         r.fail(_join(path, key), f"must be a list, not {describe(value)}")
         return []
-    got = [fast(item) for item in value]
     not_plain = plain.NOT_PLAIN
+    got = whole(value)
+    if got is not not_plain:
+        return got  # type: ignore[no-any-return]
+    got = [fast(item) for item in value]
     if any(v is not_plain for v in got):
         base = _join(path, key)
         for i, v in enumerate(got):
             if v is not_plain:
                 got[i] = careful(r, value[i], f"{base}[{i}]")
         got = [v for v in got if v is not None]
-    return got
+    return got  # type: ignore[no-any-return]
 
 
 def decode(data: Any) -> tuple[Project | None, list[Problem]]:
@@ -375,7 +380,7 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
         for p, item in r.items(top, "groups", "")
         if (g := _decode_group(r, item, p, hull_names)) is not None
     ]
-    tugs = _each(r, top, "tugs", "", plain.tug, _decode_tug)
+    tugs = _each(r, top, "tugs", "", plain.tugs, plain.tug, _decode_tug)
     efficiency = _decode_efficiency(r, top.get("tug_efficiency"), "tug_efficiency")
     drift = _decode_drift(r, top.get("drift"), "drift")
     site = _decode_site(r, top.get("site", {}))
@@ -753,6 +758,8 @@ class _Context:
 
         #: A plain placement read at once (core.io.plain), or plain.NOT_PLAIN.
         self.plain_placement = partial(plain.placement, self.tugs, self.kinds)
+        #: A list of plain placements read at once, or plain.NOT_PLAIN.
+        self.plain_placements = partial(plain.placements, self.tugs, self.kinds)
 
     def placement(self, r: _Reader, value: Any, path: str) -> Placement | None:
         """A placement read the careful way."""
@@ -862,7 +869,7 @@ def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | N
     poses = [
         pose for p, item in r.items(d, "poses", path) if (pose := _decode_pose(r, item, p, ctx))
     ]
-    placements = _each(r, d, "tugs", path, ctx.plain_placement, ctx.placement)
+    placements = _each(r, d, "tugs", path, ctx.plain_placements, ctx.plain_placement, ctx.placement)
     placed = [pl.tug for pl in placements]
     if len(set(placed)) != len(placed):
         seen: set[str] = set()

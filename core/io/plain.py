@@ -14,11 +14,13 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
+from itertools import repeat
 from typing import Any
 
-from core.frames import bearing_to_angle
+from core.frames import bearing_to_angle, bearings_to_angles
+from core.io import columns
+from core.io.columns import file_bounds
 from core.io.fileformat import (
-    FILE_UNITS,
     KN,
     PLACEMENT_OPTIONAL,
     PLACEMENT_REQUIRED,
@@ -31,14 +33,6 @@ from core.model.tugs import TENSION_WARN_FRACTION
 
 #: What a plain reader gives for a value it does not take.
 NOT_PLAIN: Any = object()
-
-
-def file_bounds(rule: rules.Range) -> tuple[float, float, float]:
-    """The SI value of one file unit of ``rule``'s kind, and the least and the greatest SI
-    value that keep ``rule``: a number ``v`` of the file keeps it when
-    ``lo <= v * factor <= hi`` (a float, or an int within 1e300 so that the product is
-    one; not a bool)."""
-    return (rules.unit_of(rule.kind, FILE_UNITS)[0], *rule.limits())
 
 
 def plain_number(rule: rules.Range, nullable: bool = False) -> Callable[[Any], Any]:
@@ -218,3 +212,202 @@ def tug(d: Any) -> Any:
         channel,
         share,
     )
+
+
+# -- a whole list at once, a column at a time (core.io.columns) -----------------------------
+
+
+def _numbers(entries: list[Any], key: str, rule: rules.Range, default: Any) -> Any:
+    """The SI values of ``key`` of each entry (the number ``default`` where absent), or
+    :data:`NOT_PLAIN` unless every one is plain."""
+    got = columns.numbers(columns.column(entries, key, default), rule)  # type: ignore[arg-type]
+    return NOT_PLAIN if got is None else got
+
+
+def _optional(entries: list[Any], found: set[str], key: str, rule: rules.Range) -> Any:
+    """A column of a nullable number: its SI values (None where null or absent), or
+    :data:`NOT_PLAIN`."""
+    if key not in found:
+        return repeat(None, len(entries))
+    got = columns.numbers(columns.column(entries, key, None), rule, nullable=True)  # type: ignore[arg-type]
+    return NOT_PLAIN if got is None else got
+
+
+def _none_at(entries: list[Any], found: set[str], key: str) -> bool:
+    """Whether no entry gives ``key`` a value other than null."""
+    if key not in found:
+        return True
+    values = columns.column(entries, key, None)
+    return values is not None and values.count(None) == len(values)
+
+
+def _filed_pulls(raw: list[Any], si: list[Any], rule: rules.Range) -> Any:
+    """Pulls as the file writes them (as :func:`tug` keeps them): a pull not given as an
+    integer number of kN rounded to 12 digits, and checked again; :data:`NOT_PLAIN` if one
+    rounds past its bound."""
+    if columns.all_of_type(raw, int):
+        return si
+    filed = [
+        v if v is None or type(r) is int else num(v / KN) * KN for r, v in zip(raw, si, strict=True)
+    ]
+    given = [v for v in filed if v is not None]
+    _, lo, hi = file_bounds(rule)
+    if given and not (lo <= min(given) and max(given) <= hi):
+        return NOT_PLAIN
+    return filed
+
+
+def tugs(entries: list[Any]) -> Any:
+    """Every tug of ``entries``, read a column at a time, if each is plain as :func:`tug`
+    takes it (the same value :func:`tug` gives); else :data:`NOT_PLAIN`."""
+    found = columns.keys(entries)
+    if (
+        found is None
+        or not found <= TUG_KEYS
+        or not _none_at(entries, found, "capability")
+        or not _none_at(entries, found, "headway")
+    ):
+        return NOT_PLAIN
+    names = columns.column(entries, "name")
+    raw_bp = columns.column(entries, "bollard_pull_kN")
+    if names is None or raw_bp is None or not columns.texts(names, rules.NAME):
+        return NOT_PLAIN
+    bp = columns.numbers(raw_bp, rules.BOLLARD_PULL)
+    if bp is None or (bp := _filed_pulls(raw_bp, bp, rules.BOLLARD_PULL)) is NOT_PLAIN:
+        return NOT_PLAIN
+    astern = _optional(entries, found, "astern_pull_kN", rules.ASTERN_PULL)
+    if astern is not NOT_PLAIN and type(astern) is list:
+        raw_astern = columns.column(entries, "astern_pull_kN", None)
+        astern = _filed_pulls(raw_astern, astern, rules.ASTERN_PULL)  # type: ignore[arg-type]
+    numbers = [
+        astern,
+        _optional(entries, found, "towing_point_height_m", rules.TOWING_POINT_HEIGHT),
+        _optional(entries, found, "towline_length_m", rules.TOWLINE_LENGTH),
+        _optional(entries, found, "towline_mbl_kN", rules.TOWLINE_MBL),
+    ]
+    # The share's rule is in plain numbers (one file unit is one SI unit): the default is
+    # the same in the file and in the value.
+    share: Any = repeat(TENSION_WARN_FRACTION, len(entries))
+    if "towline_warning_share_of_mbl" in found:
+        share = _numbers(
+            entries, "towline_warning_share_of_mbl", rules.TOWLINE_WARN_SHARE, TENSION_WARN_FRACTION
+        )
+    texts: list[Any] = []
+    for key in _TEXT_KEYS:
+        if key not in found:
+            texts.append(repeat("", len(entries)))
+            continue
+        values = columns.column(entries, key, "")
+        if not columns.texts(values, rules.LABEL):  # type: ignore[arg-type]
+            return NOT_PLAIN
+        texts.append(values)
+    if share is NOT_PLAIN or any(v is NOT_PLAIN for v in numbers):
+        return NOT_PLAIN
+    astern, height, towline, mbl = numbers
+    tug_type, role, certificate, call_sign, channel = texts
+    return checked.tugs(
+        names,
+        bp,
+        astern,
+        tug_type,
+        role,
+        height,
+        certificate,
+        towline,
+        mbl,
+        call_sign,
+        channel,
+        share,
+    )
+
+
+def _all_str(values: list[Any]) -> bool:
+    """Whether each of ``values`` is text (a name of the plan, if the plan has it)."""
+    return columns.all_of_type(values, str)
+
+
+def _flags(entries: list[Any], found: set[str], key: str) -> Any:
+    """A column of true or false (false where absent), or :data:`NOT_PLAIN`."""
+    if key not in found:
+        return repeat(False, len(entries))
+    values = columns.column(entries, key, False)
+    return values if columns.all_of_type(values, bool) else NOT_PLAIN  # type: ignore[arg-type]
+
+
+def _has(entries: list[Any], found: set[str], key: str) -> bool:
+    """Whether any of the entries has ``key``."""
+    return key in found and any(map(dict.__contains__, entries, repeat(key)))
+
+
+def _leads(entries: list[Any], found: set[str], push: bool) -> Any:
+    """The leads (rad) and line lengths (m) of placements all at line points, or all at
+    push points, as :func:`placement` reads them; or :data:`NOT_PLAIN`."""
+    if push:
+        if _has(entries, found, "lead_deg") or _has(entries, found, "line_length_m"):
+            return NOT_PLAIN
+        angles = _numbers(entries, "push_angle_deg", rules.PUSH_ANGLE, 0.0)
+        if angles is NOT_PLAIN:
+            return NOT_PLAIN
+        return [-math.radians(a) for a in angles], [30.0] * len(entries)
+    if _has(entries, found, "push_angle_deg") or (
+        "push_pull" in found and any(map(dict.get, entries, repeat("push_pull")))
+    ):
+        return NOT_PLAIN
+    # The defaults, 0 and 30 m, are the same in the file's unit and in SI.
+    bearings = _numbers(entries, "lead_deg", rules.BEARING, 0.0)
+    lengths = _numbers(entries, "line_length_m", rules.LINE_LENGTH, 30.0)
+    if bearings is NOT_PLAIN or lengths is NOT_PLAIN:
+        return NOT_PLAIN
+    return bearings_to_angles(bearings), lengths
+
+
+def placements(
+    tugs: set[str] | frozenset[str], kinds: dict[str, dict[str, str]], entries: list[Any]
+) -> Any:
+    """Every placement of ``entries``, read a column at a time, if each is plain as
+    :func:`placement` takes it (the same value :func:`placement` gives); else
+    :data:`NOT_PLAIN`."""
+    found = columns.keys(entries)
+    if (
+        found is None
+        or not found <= PLACEMENT_KEYS
+        or not _none_at(entries, found, "lead_sector_deg")
+    ):
+        return NOT_PLAIN
+    tug, hull, point = (columns.column(entries, key) for key in ("tug", "hull", "point"))
+    if (
+        tug is None
+        or hull is None
+        or point is None
+        or not (_all_str(tug) and _all_str(hull) and _all_str(point))
+    ):
+        return NOT_PLAIN
+    if not tugs.issuperset(tug):  # type: ignore[arg-type]
+        return NOT_PLAIN
+    if hull.count(hull[0]) == len(hull) if hull else True:  # one hull (as a rule)
+        kind = list(map(kinds.get(hull[0], {}).get, point)) if hull else []
+    else:
+        kind_of = {(h, p): k for h, points in kinds.items() for p, k in points.items()}
+        kind = list(map(kind_of.get, zip(hull, point, strict=True)))  # type: ignore[arg-type]
+    settings = _numbers(entries, "setting_percent", rules.SETTING, None)
+    astern, push_pull = _flags(entries, found, "astern"), _flags(entries, found, "push_pull")
+    if settings is NOT_PLAIN or astern is NOT_PLAIN or push_pull is NOT_PLAIN:
+        return NOT_PLAIN
+    at = set(kind)
+    if not at <= {"line", "push"}:
+        return NOT_PLAIN
+    if len(at) < 2:
+        got = _leads(entries, found, "push" in at)
+        if got is NOT_PLAIN:
+            return NOT_PLAIN
+        leads, lengths = got
+    else:
+        leads, lengths = [0.0] * len(entries), [0.0] * len(entries)
+        for push in (False, True):
+            rows = [i for i, k in enumerate(kind) if (k == "push") is push]
+            got = _leads([entries[i] for i in rows], found, push)
+            if got is NOT_PLAIN:
+                return NOT_PLAIN
+            for i, lead, length in zip(rows, *got, strict=True):
+                leads[i], lengths[i] = lead, length
+    return checked.placements(tug, hull, point, settings, leads, lengths, astern, push_pull)

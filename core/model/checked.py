@@ -17,6 +17,7 @@ the usual way.
 
 from __future__ import annotations
 
+from collections.abc import Iterable
 from typing import Any
 
 from core.model.capability import Capability, default_capability, tug_kind
@@ -67,6 +68,51 @@ def placement(
     return p  # type: ignore[no-any-return]
 
 
+def placements(
+    tugs: Iterable[str],
+    hulls: Iterable[str],
+    points: Iterable[str],
+    settings: Iterable[float],
+    leads_rad: Iterable[float],
+    line_lengths_m: Iterable[float],
+    asterns: Iterable[bool],
+    push_pulls: Iterable[bool],
+) -> list[Placement]:
+    """Placements without a working sector, one from each row of the columns (each field
+    checked by its rule, as :func:`placement` asks)."""
+    out: list[Placement] = []
+    add = out.append
+    fields = _PlacementFields
+    for tug, hull, point, setting, lead, length, astern, push_pull in zip(
+        tugs, hulls, points, settings, leads_rad, line_lengths_m, asterns, push_pulls, strict=True
+    ):
+        p: Any = fields()
+        p.tug = tug
+        p.hull = hull
+        p.point = point
+        p.setting = setting
+        p.lead_rad = lead
+        p.line_length_m = length
+        p.astern = astern
+        p.lead_sector_rad = None
+        p.push_pull = push_pull
+        p.__class__ = Placement
+        add(p)
+    return out
+
+
+def _capability(tug_type: str, astern_pull_n: float | None, bollard_pull_n: float) -> Capability:
+    """The placeholder capability of a tug of ``tug_type`` with these pulls."""
+    if astern_pull_n is not None:
+        return default_capability(tug_kind(tug_type), astern_share(astern_pull_n, bollard_pull_n))
+    capability = _capability_of_type.get(tug_type)
+    if capability is None:
+        capability = default_capability(tug_kind(tug_type), None)
+        if len(_capability_of_type) < 1000:
+            _capability_of_type[tug_type] = capability
+    return capability
+
+
 def tug(
     name: str,
     bollard_pull_n: float,
@@ -84,16 +130,7 @@ def tug(
     """A Tug with its type's placeholder capability and headway table, from fields each
     checked by the rule :class:`Tug` applies to it (the name by :data:`rules.NAME`, the
     texts by :data:`rules.LABEL`, the numbers by their ranges; None where not given)."""
-    if astern_pull_n is None:
-        capability = _capability_of_type.get(tug_type)
-        if capability is None:
-            capability = default_capability(tug_kind(tug_type), None)
-            if len(_capability_of_type) < 1000:
-                _capability_of_type[tug_type] = capability
-    else:
-        capability = default_capability(
-            tug_kind(tug_type), astern_share(astern_pull_n, bollard_pull_n)
-        )
+    capability = _capability(tug_type, astern_pull_n, bollard_pull_n)
     t: Any = _TugFields()
     t.name = name
     t.bollard_pull_n = bollard_pull_n
@@ -111,3 +148,75 @@ def tug(
     t.headway = _HEADWAY
     t.__class__ = Tug
     return t  # type: ignore[no-any-return]
+
+
+def tugs(
+    names: Iterable[str],
+    bollard_pulls_n: Iterable[float],
+    astern_pulls_n: Iterable[float | None],
+    tug_types: Iterable[str],
+    roles: Iterable[str],
+    towing_point_heights_m: Iterable[float | None],
+    certificate_dates: Iterable[str],
+    towline_lengths_m: Iterable[float | None],
+    towline_mbls_n: Iterable[float | None],
+    call_signs: Iterable[str],
+    working_channels: Iterable[str],
+    towline_warn_fractions: Iterable[float],
+) -> list[Tug]:
+    """Tugs with their types' placeholder capability and headway table, one from each row
+    of the columns (each field checked by its rule, as :func:`tug` asks)."""
+    out: list[Tug] = []
+    add = out.append
+    fields = _TugFields
+    capability_of_type = _capability_of_type
+    headway = _HEADWAY
+    for (
+        name,
+        bollard_pull_n,
+        astern_pull_n,
+        tug_type,
+        role,
+        height,
+        certificate_date,
+        towline_length,
+        towline_mbl,
+        call_sign,
+        working_channel,
+        warn_fraction,
+    ) in zip(
+        names,
+        bollard_pulls_n,
+        astern_pulls_n,
+        tug_types,
+        roles,
+        towing_point_heights_m,
+        certificate_dates,
+        towline_lengths_m,
+        towline_mbls_n,
+        call_signs,
+        working_channels,
+        towline_warn_fractions,
+        strict=True,
+    ):
+        capability = None if astern_pull_n is not None else capability_of_type.get(tug_type)
+        if capability is None:
+            capability = _capability(tug_type, astern_pull_n, bollard_pull_n)
+        t: Any = fields()
+        t.name = name
+        t.bollard_pull_n = bollard_pull_n
+        t.astern_pull_n = astern_pull_n
+        t.tug_type = tug_type
+        t.role = role
+        t.towing_point_height_m = height
+        t.certificate_date = certificate_date
+        t.towline_length_m = towline_length
+        t.towline_mbl_n = towline_mbl
+        t.call_sign = call_sign
+        t.working_channel = working_channel
+        t.towline_warn_fraction = warn_fraction
+        t.capability = capability
+        t.headway = headway
+        t.__class__ = Tug
+        add(t)
+    return out

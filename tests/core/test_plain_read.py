@@ -48,9 +48,20 @@ def _plan(tugs: list[dict[str, Any]], placed: list[dict[str, Any]]) -> dict[str,
 
 
 @contextmanager
+def _entries_only() -> Any:
+    """The loader with its whole-list readers turned off: each entry read on its own."""
+    with (
+        mock.patch.object(decode_module.plain, "tugs", lambda ds: plain.NOT_PLAIN),
+        mock.patch.object(decode_module.plain, "placements", lambda t, k, ds: plain.NOT_PLAIN),
+    ):
+        yield
+
+
+@contextmanager
 def _careful_only() -> Any:
     """The loader with its plain path turned off: every entry read the careful way."""
     with (
+        _entries_only(),
         mock.patch.object(decode_module.plain, "tug", lambda d: plain.NOT_PLAIN),
         mock.patch.object(decode_module.plain, "placement", lambda t, k, d: plain.NOT_PLAIN),
     ):
@@ -142,15 +153,24 @@ def test_the_plain_path_reads_what_the_careful_reader_reads(data: dict[str, Any]
     names = {t["name"] for t in data["tugs"]}
     for d in data["tugs"]:
         assert plain.tug(d) is not plain.NOT_PLAIN, d
-    for d in data["stages"][0]["tugs"]:
+    assert plain.tugs(data["tugs"]) == [plain.tug(d) for d in data["tugs"]]
+    placed = data["stages"][0]["tugs"]
+    for d in placed:
         took = plain.placement(names, kinds, d) is not plain.NOT_PLAIN
         assert took == (d.get("lead_sector_deg") is None), d
+    whole = plain.placements(names, kinds, placed)
+    if any(d.get("lead_sector_deg") is not None for d in placed):
+        assert whole is plain.NOT_PLAIN
+    else:
+        assert whole == [plain.placement(names, kinds, d) for d in placed]
     text = json.dumps(data)
     fast = loads(text)
+    with _entries_only():
+        by_entry = loads(text)
     with _careful_only():
         careful = loads(text)
-    assert fast == careful
-    assert dumps(fast) == dumps(careful)
+    assert fast == by_entry == careful
+    assert dumps(fast) == dumps(by_entry) == dumps(careful)
     assert dumps(loads(dumps(fast))) == dumps(fast)  # save -> load -> save, byte for byte
 
 
@@ -325,3 +345,126 @@ def test_a_ranges_limits_are_its_rule(rule: rules.Range) -> None:
             values += [v, math.nextafter(v, math.inf), math.nextafter(v, -math.inf)]
     for x in values:
         assert (lo <= x <= hi) == rule.holds(x), (rule.label, x)
+
+
+# -- a whole list at once: one entry not plain sends the list entry by entry -----------------
+
+OTHERS = [{"name": "Rigel", "bollard_pull_kN": 450.5}, {"name": "Vega", "bollard_pull_kN": 700}]
+
+
+def _among_others(entry: dict[str, Any], others: list[dict[str, Any]], at: int) -> list[Any]:
+    return [*others[:at], entry, *others[at:]]
+
+
+@pytest.mark.parametrize("at", [0, 1, 2])
+@pytest.mark.parametrize(("key", "value", "said"), BAD_TUG_FIELDS)
+def test_a_bad_tug_among_good_ones_is_refused_with_its_place(
+    key: str, value: Any, said: str, at: int
+) -> None:
+    tugs = _among_others({**TUG, key: value}, OTHERS, at)
+    assert plain.tugs(tugs) is plain.NOT_PLAIN
+    problems = _problems(_plan(tugs, []))
+    assert any(p.startswith(f"tugs[{at}].{key}: {said}") for p in problems), problems
+
+
+@pytest.mark.parametrize("at", [0, 1, 2])
+@pytest.mark.parametrize(("base", "key", "value", "said"), BAD_PLACEMENT_FIELDS)
+def test_a_bad_placement_among_good_ones_is_refused_with_its_place(
+    base: dict[str, Any], key: str, value: Any, said: str, at: int
+) -> None:
+    good = [
+        {"tug": "Rigel", "hull": "Barge", "point": "Stern", "setting_percent": 20.5},
+        {"tug": "Vega", "hull": "Barge", "point": "Pad", "setting_percent": 30},
+    ]
+    placed = _among_others({**base, key: value}, good, at)
+    kinds = {"Barge": {"Bow": "line", "Stern": "line", "Pad": "push"}}
+    assert plain.placements({"Castor", "Rigel", "Vega"}, kinds, placed) is plain.NOT_PLAIN
+    problems = _problems(_plan([TUG, *OTHERS], placed))
+    path = f"stages[0].tugs[{at}].{key}: "
+    assert any(p.startswith(path) and said in p for p in problems), problems
+
+
+@pytest.mark.parametrize(
+    "bad",
+    [math.nan, math.inf, -math.inf, 10**400, -(10**400), True, None, "5", 1e300, -1e-300],
+)
+@pytest.mark.parametrize("at", [0, 1, 2])
+def test_a_column_with_one_number_not_taken_is_not_plain(bad: Any, at: int) -> None:
+    # The column's least, greatest and sum are tested at once: a NaN or a huge integer
+    # first, in the middle or last must not pass with them.
+    raw = _among_others(bad, [12, 13.5], at)
+    assert plain.columns.numbers(raw, rules.SETTING) is None
+    assert plain.columns.numbers([*raw, math.nan], rules.SETTING) is None
+    assert plain.columns.numbers([math.nan, *raw], rules.SETTING) is None
+
+
+def test_a_column_of_numbers_gives_what_the_entry_reader_gives() -> None:
+    raw = [0, 100, 12, 13.5, -0.0, 99.99999999999]
+    read = plain.plain_number(rules.SETTING)
+    si = plain.columns.numbers(raw, rules.SETTING)
+    assert si == [read(v) for v in raw]
+    assert all(type(v) is float for v in si)  # type: ignore[union-attr]
+    assert [math.copysign(1, v) for v in si] == [math.copysign(1, read(v)) for v in raw]  # type: ignore[union-attr]
+    nullable = [None, 5, None, 7.25]
+    height = plain.plain_number(rules.TOWING_POINT_HEIGHT, nullable=True)
+    got = plain.columns.numbers(nullable, rules.TOWING_POINT_HEIGHT, nullable=True)
+    assert got == [height(v) for v in nullable]
+    assert plain.columns.numbers([None, None], rules.TOWING_POINT_HEIGHT, nullable=True) == [
+        None,
+        None,
+    ]
+    assert plain.columns.numbers([None], rules.TOWING_POINT_HEIGHT) is None
+    assert plain.columns.numbers([], rules.SETTING) == []
+
+
+def test_a_plan_at_line_and_push_points_is_read_at_once() -> None:
+    tugs = [{"name": f"Tug {i}", "bollard_pull_kN": 300 + i / 7} for i in range(40)]
+    points = ["Bow", "Pad", "Stern", "Pad", "Port"]
+    placed: list[dict[str, Any]] = []
+    for i in range(40):
+        d: dict[str, Any] = {
+            "tug": f"Tug {i}",
+            "hull": "Barge",
+            "point": points[i % 5],
+            "setting_percent": i * 2.5,
+            "astern": i % 3 == 0,
+        }
+        if points[i % 5] == "Pad":
+            d |= {"push_angle_deg": i - 20, "push_pull": i % 2 == 0}
+        else:
+            d |= {"lead_deg": i * 17.25 - 300, "line_length_m": 10 + i}
+        placed.append(d)
+    kinds = {"Barge": {**dict.fromkeys(LINE_POINTS, "line"), **dict.fromkeys(PUSH_POINTS, "push")}}
+    names = {t["name"] for t in tugs}
+    whole = plain.placements(names, kinds, placed)
+    assert whole == [plain.placement(names, kinds, d) for d in placed]
+    assert plain.tugs(tugs) == [plain.tug(d) for d in tugs]
+    text = json.dumps(_plan(tugs, placed))
+    with _careful_only():
+        careful = loads(text)
+    assert loads(text) == careful and dumps(loads(text)) == dumps(careful)
+
+
+def test_a_tug_placed_twice_is_refused_when_read_at_once() -> None:
+    tugs = [{"name": f"Tug {i}", "bollard_pull_kN": 300} for i in range(3)]
+    placed = [
+        {"tug": f"Tug {i % 2}", "hull": "Barge", "point": "Bow", "setting_percent": 5}
+        for i in range(3)
+    ]
+    assert _problems(_plan(tugs, placed)) == [
+        "stages[0].tugs[2].tug: 'Tug 0' is placed twice in this stage"
+    ]
+
+
+def test_names_of_a_column_are_held_to_the_name_rule() -> None:
+    rule = rules.Text("test name", 10, required=True)
+    assert rule.keeps_all(["Castor", "Pollux"]) and rule.keeps_all([])
+    assert rule.keeps_all(["Castor", "Pollux"])  # known now: checked once
+    for bad in ["", "   ", "x" * 11, "a\x00", "\ud800", "b\u2028c"]:
+        assert not rule.keeps_all(["Vega", bad, "Rigel"]), bad
+        assert rule.problem(bad) is not None
+    # Two halves of a surrogate pair in two names stay two lone surrogates when joined.
+    assert not rule.keeps_all(["a\ud83d", "\ude00b"])
+    free = rules.Text("test notes", 20, multiline=True)
+    assert free.keeps_all(["line\nbreak", "tab\there", ""])
+    assert not free.keeps_all(["ok", "bell\x07"])
