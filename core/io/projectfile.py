@@ -11,6 +11,7 @@ to. Save -> load -> save is byte-identical.
 from __future__ import annotations
 
 import contextlib
+import gc
 import json
 import os
 import re
@@ -40,8 +41,32 @@ def dumps(project: Project) -> str:
     return _PAIR.sub(r"[\1, \2]", text) + "\n"
 
 
+@contextlib.contextmanager
+def collector_paused() -> Iterator[None]:
+    """Python's cycle collector held off for the block (if it was on, it is on again after).
+
+    Reading a plan makes tens of thousands of values that all live on (and no cycles to
+    free): each collection on the way walks the ones made so far again and frees nothing,
+    a fifth of the time a plan of 10,000 tugs takes to load. Held off, the collector
+    looks at them once, after the load. Only the block that turned it off turns it on
+    again, so that two loads at once never leave it off."""
+    was_on = gc.isenabled()
+    if was_on:
+        gc.disable()
+    try:
+        yield
+    finally:
+        if was_on:
+            gc.enable()
+
+
 def loads(text: str, source: str = "<text>") -> Project:
     """A project from file text; raises ProjectFileError listing every problem."""
+    with collector_paused():
+        return _loads(text, source)
+
+
+def _loads(text: str, source: str) -> Project:
     try:
         data: Any = json.loads(text)
     except json.JSONDecodeError as e:

@@ -7,6 +7,7 @@ as frozen as any other."""
 from __future__ import annotations
 
 import dataclasses
+import gc
 import json
 import math
 from contextlib import contextmanager
@@ -19,7 +20,7 @@ from hypothesis import strategies as st
 
 from core.errors import ProjectFileError
 from core.io import decode as decode_module
-from core.io import plain
+from core.io import plain, projectfile
 from core.io.projectfile import dumps, loads
 from core.model import checked, rules
 from core.model.tugs import Placement, Tug
@@ -468,3 +469,31 @@ def test_names_of_a_column_are_held_to_the_name_rule() -> None:
     free = rules.Text("test notes", 20, multiline=True)
     assert free.keeps_all(["line\nbreak", "tab\there", ""])
     assert not free.keeps_all(["ok", "bell\x07"])
+
+
+def test_a_load_leaves_the_cycle_collector_as_it_found_it() -> None:
+    # The collector is held off while a plan is read, and on again after, whether the
+    # load succeeds or fails; a load made while it is off leaves it off.
+    text = json.dumps(_plan([TUG], [LINE]))
+    seen: list[bool] = []
+    decode = decode_module.decode
+
+    def spy(data: Any) -> Any:
+        seen.append(gc.isenabled())
+        return decode(data)
+
+    assert gc.isenabled()
+    with mock.patch.object(projectfile, "decode", spy):
+        loads(text)
+        with pytest.raises(ProjectFileError):
+            loads(json.dumps(_plan([TUG], [{**LINE, "setting_percent": 101}])))
+    assert seen == [False, False] and gc.isenabled()
+    with pytest.raises(ProjectFileError):
+        loads("{")
+    assert gc.isenabled()
+    gc.disable()
+    try:
+        loads(text)
+        assert not gc.isenabled()
+    finally:
+        gc.enable()
