@@ -14,6 +14,7 @@ import itertools
 import math
 from collections.abc import Callable, Iterator, Sequence
 from functools import partial
+from operator import attrgetter
 from typing import Any, TypeVar, get_args
 
 import numpy as np
@@ -345,6 +346,9 @@ def _each(
     return got  # type: ignore[no-any-return]
 
 
+_NAME, _TUG = attrgetter("name"), attrgetter("tug")
+
+
 def decode(data: Any) -> tuple[Project | None, list[Problem]]:
     """A Project from a JSON tree, or None and the list of every problem found."""
     r = _Reader()
@@ -384,7 +388,7 @@ def decode(data: Any) -> tuple[Project | None, list[Problem]]:
     efficiency = _decode_efficiency(r, top.get("tug_efficiency"), "tug_efficiency")
     drift = _decode_drift(r, top.get("drift"), "drift")
     site = _decode_site(r, top.get("site", {}))
-    ctx = _Context(hulls, {t.name for t in tugs}, hull_names | {g.name for g in groups})
+    ctx = _Context(hulls, set(map(_NAME, tugs)), hull_names | {g.name for g in groups})
     stages = [
         s
         for p, item in r.items(top, "stages", "")
@@ -870,7 +874,7 @@ def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | N
         pose for p, item in r.items(d, "poses", path) if (pose := _decode_pose(r, item, p, ctx))
     ]
     placements = _each(r, d, "tugs", path, ctx.plain_placements, ctx.plain_placement, ctx.placement)
-    placed = [pl.tug for pl in placements]
+    placed = list(map(_TUG, placements))
     if len(set(placed)) != len(placed):
         seen: set[str] = set()
         for i, tug in enumerate(placed):
