@@ -8,6 +8,11 @@ unit, and build the value without checking it again (core.model.checked). Anythi
 capability or headway table) gives :data:`NOT_PLAIN`, and the careful reader in core.io.decode reads
 that entry instead: it says what is wrong with the field's path, or reads what is not
 plain. Both give the same value for an entry both read (tests/core/test_plain_read.py).
+
+:func:`tugs` and :func:`placements` read a whole list a column at a time
+(core.io.columns) when every entry of it is plain, and give the values :func:`tug` and
+:func:`placement` give one by one; a list with one entry that is not plain is read
+entry by entry.
 """
 
 from __future__ import annotations
