@@ -58,6 +58,13 @@ def filed_degrees(deg: float) -> float:
     return filed(round(deg, 11))
 
 
+def filed_bearing(deg: float) -> float:
+    """A bearing round the circle as a plan file holds it: :func:`filed_degrees` of it in
+    [0, 360), what rounds to 360 being 0, so that save -> load -> save is stable."""
+    b = filed_degrees(deg % 360.0)
+    return 0.0 if b >= 360.0 else b
+
+
 def factor(quantity: Quantity, unit: str) -> float:
     """SI magnitude of one ``unit`` of ``quantity``; raises InputError if unknown."""
     try:

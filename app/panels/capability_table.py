@@ -23,7 +23,7 @@ from app.numbers import message, parse_value
 from core.errors import InputError, TowboardError
 from core.model import rules
 from core.model.capability import WAY_WORDS, WAYS, Capability, CapabilityCurve, Way
-from core.units import DisplayUnits
+from core.units import DisplayUnits, filed_bearing
 
 Index = QModelIndex | QPersistentModelIndex
 
@@ -113,7 +113,7 @@ class CapabilityModel(QAbstractTableModel):
                 raise InputError(
                     "capability", None, "has no room between the others", shown="a new bearing"
                 )
-            bearing = round(bearing, 1) if gaps[k] > 0.2 else bearing
+            bearing = round(bearing, 1) if gaps[k] > 0.2 else filed_bearing(bearing)
             shares = {}
             for w in WAYS:
                 curve = CapabilityCurve(tuple(b), tuple(r.shares[w] for r in self.rows))
@@ -224,7 +224,8 @@ class CapabilityModel(QAbstractTableModel):
     def _set(self, r: int, col: int, text: str) -> None:
         row = self.rows[r]
         if col == 0:
-            v = parse_value(text, rules.CAPABILITY_BEARING, self.units) % 360.0
+            # as the file will hold it: one that rounds to 360 there is 0
+            v = filed_bearing(parse_value(text, rules.CAPABILITY_BEARING, self.units))
             if any(
                 abs(o.bearing_deg - v) < 1e-9 or abs(abs(o.bearing_deg - v) - 360) < 1e-9
                 for o in self.rows

@@ -12,7 +12,7 @@ from core.model.headway import placeholder_headway
 from core.model.hull import Hull
 from core.model.plan import Project, Stage
 from core.model.tugs import Placement, Tug
-from core.units import CHOICES, filed_degrees
+from core.units import CHOICES, filed_bearing, filed_degrees
 
 
 def angle(deg: float) -> float:
@@ -23,8 +23,7 @@ def angle(deg: float) -> float:
 def bearing(deg: float) -> float:
     """A bearing written in [0, 360): what rounds to 360 is written 0, so that
     save -> load -> save gives the same bytes."""
-    b = angle(deg % 360.0)
-    return 0.0 if b >= 360.0 else b
+    return filed_bearing(deg)
 
 
 def _opt(v: float | None, scale: float = 1.0) -> float | None:

@@ -31,6 +31,7 @@ import numpy as np
 
 from core.errors import InputError
 from core.model import rules
+from core.units import filed_degrees
 
 TugKind = Literal["ASD", "tractor", "conventional single screw", "conventional twin screw", "other"]
 TUG_KINDS: tuple[TugKind, ...] = (
@@ -76,15 +77,21 @@ class CapabilityCurve:
     fractions: tuple[float, ...]
 
     def __post_init__(self) -> None:
-        b = tuple(float(v) for v in self.bearings_deg)
+        given = tuple(float(v) for v in self.bearings_deg)
         f = tuple(float(v) for v in self.fractions)
-        if not b or len(b) != len(f):
+        if not given or len(given) != len(f):
             raise InputError(
-                "capability", (len(b), len(f)), "needs one share for each bearing, at least one"
+                "capability",
+                (len(given), len(f)),
+                "needs one share for each bearing, at least one",
             )
-        for v in b:
-            if not (math.isfinite(v) and 0.0 <= v < 360.0):
-                raise InputError("capability bearing", v, "must be from 0 up to 360 deg")
+        # the bearings as a file holds them, so that the curve saved is the curve read back
+        b = tuple(filed_degrees(rules.CAPABILITY_BEARING.check(v)) for v in given)
+        for v, held in zip(given, b, strict=True):
+            if held >= 360.0:
+                raise InputError(
+                    "capability bearing", v, "is 360 to the file's 11 decimals, and 360 is 0"
+                )
         if any(b2 <= b1 for b1, b2 in itertools.pairwise(b)):
             raise InputError("capability bearings", list(b), "must be in increasing order")
         for v in f:

@@ -127,7 +127,8 @@ class Range:
     kind:
         How it is shown (see :data:`Kind`).
     low, high:
-        The bounds, SI; ``low`` is excluded when ``above`` is true, both ends are
+        The bounds, SI; ``low`` is excluded when ``above`` is true and ``high`` when
+        ``below`` is (a bearing of a curve round the circle: 360 is 0); both ends are
         included otherwise.
     """
 
@@ -136,18 +137,21 @@ class Range:
     low: float = -math.inf
     high: float = math.inf
     above: bool = False
+    below: bool = False
     # Bounds widened by a part in 1e9, so a value at a bound survives a trip through a
-    # file written with 12 significant digits in another unit.
+    # file written with 12 significant digits in another unit (an excluded top is not
+    # widened: the greatest float below it is the last that keeps the rule).
     _lo: float = field(init=False, repr=False, compare=False)
     _hi: float = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
         object.__setattr__(self, "_lo", self.low - 1e-9 * abs(self.low))
-        object.__setattr__(self, "_hi", self.high + 1e-9 * abs(self.high))
+        hi = math.nextafter(self.high, -math.inf) if self.below else self.high
+        object.__setattr__(self, "_hi", hi if self.below else hi + 1e-9 * abs(hi))
 
     def named(self, label: str) -> Range:
         """The same range under another label (``WIND_SPEED.named("wind limit")``)."""
-        return Range(label, self.kind, self.low, self.high, self.above)
+        return Range(label, self.kind, self.low, self.high, self.above, self.below)
 
     def holds(self, value: float) -> bool:
         """Whether ``value`` (SI) keeps the rule."""
@@ -204,6 +208,8 @@ class Range:
             return (
                 "must not be negative" if lo == 0 else f"must be at least {_bound(lo, unit)}"
             ), text
+        if self.below and v >= self.high:
+            return f"must be below {_bound(self.high / factor, unit)}", text
         if v > self.high:
             return f"must be at most {_bound(self.high / factor, unit)}", text
         return "is within its range", text
@@ -219,7 +225,7 @@ class Range:
         if math.isinf(lo):
             return f"at most {_bound(hi, unit)}"
         start = f"above {_bound(lo, unit)}" if self.above else f"{lo:.6g}"
-        return f"{start} to {_bound(hi, unit)}"
+        return f"{start} to {'under ' if self.below else ''}{_bound(hi, unit)}"
 
 
 # -- text ---------------------------------------------------------------------------------
@@ -377,7 +383,8 @@ TOWLINE_WARN_SHARE = Range("towline warning share of MBL", "plain", 0.0, 1.0, ab
 #: A tug's capability: usable share of its bollard pull at a relative bearing of its own
 #: heading (core.model.capability).
 CAPABILITY_SHARE = Range("capability share", "plain", 0.0, 2.0)
-CAPABILITY_BEARING = Range("capability bearing", "degrees", 0.0, 360.0)
+#: Bearings of a curve round the circle: 360 is 0, so a curve's last bearing is below it.
+CAPABILITY_BEARING = Range("capability bearing", "degrees", 0.0, 360.0, below=True)
 SETTING = Range("setting", "percent", 0.0, 1.0)
 #: A tug's headway table (core.model.headway): speed through the water and the share of
 #: its bollard pull it can give then.

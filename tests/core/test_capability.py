@@ -14,6 +14,7 @@ from core.io.projectfile import dumps, loads
 from core.mechanics.balance import analyse
 from core.mechanics.fittings import line_tension_n
 from core.mechanics.towline import girting_notice, towline_notices
+from core.model import rules
 from core.model.capability import (
     PLACEHOLDER_NOTE,
     Capability,
@@ -83,7 +84,9 @@ def test_curve_is_linear_between_bearings_round_the_circle() -> None:
     ("bearings", "shares", "message"),
     [
         ((0.0, 90.0, 45.0), (1.0, 1.0, 1.0), "increasing order"),
-        ((0.0, 360.0), (1.0, 1.0), "from 0 up to 360"),
+        ((0.0, 360.0), (1.0, 1.0), "must be below 360"),
+        # files as 360 (11 decimals), which is 0: it would save a curve that loads no more
+        ((0.0, 359.9999999999999), (1.0, 1.0), "is 360 to the file's 11 decimals"),
         ((0.0,), (2.5,), "must be at most 2"),
         ((0.0, 90.0), (1.0,), "one share for each bearing"),
         ((0.0,), (math.nan,), "must be a finite number"),
@@ -92,6 +95,16 @@ def test_curve_is_linear_between_bearings_round_the_circle() -> None:
 def test_bad_curves_are_refused_with_a_reason(bearings, shares, message) -> None:  # type: ignore[no-untyped-def]
     with pytest.raises(InputError, match=message):
         CapabilityCurve(bearings, shares)
+
+
+def test_a_curve_holds_its_bearings_to_the_file_s_digits() -> None:
+    # 12 significant digits and at most 11 decimals, as the file writes them
+    # (core.units.filed_degrees): the curve saved is the curve read back
+    c = CapabilityCurve((0.0, 123.4567890123456789, 359.99999), (1.0, 0.5, 1.0))
+    assert c.bearings_deg == (0.0, 123.456789012, 359.99999)
+    assert rules.CAPABILITY_BEARING.span() == "0 to under 360°"
+    assert rules.CAPABILITY_BEARING.holds(math.nextafter(360.0, 0.0))
+    assert not rules.CAPABILITY_BEARING.holds(360.0)
 
 
 def test_capability_needs_one_way_and_the_warning_share_is_checked() -> None:
@@ -258,7 +271,13 @@ def test_an_old_file_without_the_new_fields_loads_with_the_placeholders() -> Non
             lambda d: d["tugs"][0]["capability"]["bearing_deg_and_share"].update(
                 push=[[0, 1], [400, 1]]
             ),
-            "tugs[0].capability.bearing_deg_and_share.push[1][0]: 400.0° must be at most 360°",
+            "tugs[0].capability.bearing_deg_and_share.push[1][0]: 400.0° must be below 360°",
+        ),
+        (
+            lambda d: d["tugs"][0]["capability"]["bearing_deg_and_share"].update(
+                push=[[0, 1], [360, 1]]
+            ),
+            "tugs[0].capability.bearing_deg_and_share.push[1][0]: 360.0° must be below 360°",
         ),
         (
             lambda d: d["tugs"][0].update(towline_warning_share_of_mbl=1.5),

@@ -98,7 +98,7 @@ def test_typing_a_capability_changes_the_file_and_the_hold_limits(window, qtbot,
         (LINE, "-0.1", "on a line: capability share: -0.1 must not be negative"),
         (PUSH_PULL, "lots", "push-pull: capability share: 'lots' is not a number"),
         (0, "45", "capability bearing: 45° is in the table already"),
-        (0, "400", "Not changed: capability bearing: 400.0° must be at most 360°"),
+        (0, "400", "Not changed: capability bearing: 400.0° must be below 360°"),
     ],
 )
 def test_a_refused_figure_is_named_and_changes_nothing(
@@ -115,6 +115,20 @@ def test_a_refused_figure_is_named_and_changes_nothing(
     assert e.placeholder  # still the type's figures
     _ok(qtbot, d)
     assert c.project == before and c.undo_stack.count() == 0
+
+
+def test_a_bearing_that_files_as_360_is_taken_as_0(window, qtbot) -> None:
+    """359.9999999999999 is 360 to the file's 11 decimals, and 360 is 0: the table says 0
+    is there already, where it used to keep a bearing that saved a file that loads no more."""
+    d = _open(qtbot, window, "Gannet")
+    e = _editor(d)
+    assert e.model.rows[0].bearing_deg == 0.0
+    rows = [r.bearing_deg for r in e.model.rows]
+    type_in_cell(qtbot, e.table, 1, 0, "359.9999999999999")
+    assert "capability bearing: 0° is in the table already" in e.error.text()
+    assert [r.bearing_deg for r in e.model.rows] == rows
+    type_in_cell(qtbot, e.table, 1, 0, "359.99999")  # the file holds this one as it is
+    assert e.model.rows[-1].bearing_deg == 359.99999
 
 
 def test_a_bearing_typed_is_kept_in_order_and_rows_come_and_go(window, qtbot) -> None:
