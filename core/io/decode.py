@@ -12,6 +12,7 @@ from __future__ import annotations
 
 import itertools
 import math
+from collections import Counter
 from collections.abc import Callable, Iterator, Sequence
 from functools import partial
 from operator import attrgetter
@@ -876,11 +877,15 @@ def _decode_stage(r: _Reader, value: Any, path: str, ctx: _Context) -> Stage | N
     placements = _each(r, d, "tugs", path, ctx.plain_placements, ctx.plain_placement, ctx.placement)
     placed = list(map(_TUG, placements))
     if len(set(placed)) != len(placed):
+        # said at the file's entry: an entry refused before it is not among those read
+        twice = {tug for tug, n in Counter(placed).items() if n > 1}
         seen: set[str] = set()
-        for i, tug in enumerate(placed):
-            if tug in seen:
-                r.fail(f"{path}.tugs[{i}].tug", f"{tug!r} is placed twice in this stage")
-            seen.add(tug)
+        for i, item in enumerate(d["tugs"]):
+            tug = item.get("tug") if isinstance(item, dict) else None
+            if isinstance(tug, str) and tug in twice:
+                if tug in seen:
+                    r.fail(f"{path}.tugs[{i}].tug", f"{tug!r} is placed twice in this stage")
+                seen.add(tug)
     conditions = _decode_conditions(r, d.get("conditions", {}), f"{path}.conditions")
     goal = _decode_goal(r, d.get("goal"), f"{path}.goal")
     limits = _decode_limits(r, d.get("limits", {}), f"{path}.limits")

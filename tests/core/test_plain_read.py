@@ -331,6 +331,14 @@ def test_a_tug_placed_twice_in_a_stage_is_refused() -> None:
     assert problems == ["stages[0].tugs[1].tug: 'Castor' is placed twice in this stage"]
 
 
+def test_placed_twice_is_said_at_the_file_s_entry_after_a_refused_one() -> None:
+    # The second entry is refused on its own (a list for a name), so two placements are
+    # read: the message still names the third entry, where the file places Castor again.
+    problems = _problems(_plan([TUG], [LINE, {"tug": ["x"]}, {**LINE, "point": "Stern"}]))
+    assert "stages[0].tugs[2].tug: 'Castor' is placed twice in this stage" in problems
+    assert not any("'Castor' is placed twice" in p for p in problems if "tugs[2]" not in p)
+
+
 ALL_RANGES = [v for v in vars(rules).values() if isinstance(v, rules.Range)]
 
 
