@@ -9,7 +9,7 @@ from dataclasses import replace
 
 import numpy as np
 import pytest
-from hypothesis import given, settings
+from hypothesis import example, given, settings
 from hypothesis import strategies as st
 
 from core.mechanics.loads import FlowModel
@@ -118,6 +118,16 @@ def _mirrored(project: Project) -> Project:
     return replace(project, stages=(mirrored,), site=site)
 
 
+#: How closely a mirror image's drift must mirror the plan's: to what the integration is
+#: good to (RTOL 1e-6, TRACK_TOL_M). The arithmetic mirrors all but exactly, except at the
+#: wrap of the heading angle (a heading of 270, -pi, which a float does not hold exactly):
+#: there the adaptive steps may be chosen differently, and the tracks part by about 2e-4 m
+#: on a 100 m track. A sign slip in the mirror shows as metres and knots.
+MIRROR_M = TRACK_TOL_M
+MIRROR_TURN = 1e-4  # sin and cos of the heading: 0.01 m at the end of a 70 m barge
+MIRROR_SPEED = 1e-3  # m/s and rad/s
+
+
 @settings(max_examples=25, deadline=None)
 @given(
     tugs=tug_setups,
@@ -125,6 +135,16 @@ def _mirrored(project: Project) -> Project:
     current=st.tuples(st.floats(0.0, 2 * KNOT), st.floats(0.0, 359.0)),
     pose=st.tuples(st.floats(-50, 50), st.floats(-40, 40), st.floats(0.0, 359.0)),
     scenario=st.sampled_from(["as_set", "let_go", "tug_lost"]),
+)
+# found by hypothesis: heading 270 (the wrap), tracks apart by 4e-5 m and 2.4e-4 m, and
+# the contact 3e-4 s apart in 156 s
+@example([("bow", 1.0, 1.0)], (0.0, 0.0), (0.0, 0.0), (0.0, 34.0, 270.0), "as_set")
+@example(
+    [("bow", 1.0, 1.0), ("port bow", 1.0, 0.0)],
+    (8.0, 45.0),
+    (0.979498107940703, 56.14168452617458),
+    (22.722603253431046, -10.460737170623627, 270.0),
+    "as_set",
 )
 def test_mirror_image_plans_drift_as_mirror_images(
     tugs: list[tuple[str, float, float]],
@@ -140,16 +160,17 @@ def test_mirror_image_plans_drift_as_mirror_images(
     assert a is not None and b is not None
     assert (a.contact is None) == (b.contact is None)
     if a.contact is not None and b.contact is not None:
-        assert b.contact.time_s == pytest.approx(a.contact.time_s, rel=1e-6, abs=1e-6)
+        assert b.contact.time_s == pytest.approx(a.contact.time_s, rel=1e-5, abs=1e-3)
         assert b.contact.other == a.contact.other
-        assert b.contact.point == pytest.approx((a.contact.point[0], -a.contact.point[1]), abs=1e-4)
+        mirrored_point = (a.contact.point[0], -a.contact.point[1])
+        assert b.contact.point == pytest.approx(mirrored_point, abs=MIRROR_M)
     ga, gb = a.ghost_states, b.ghost_states
     assert gb.shape == ga.shape
-    assert gb[:, 0] == pytest.approx(ga[:, 0], abs=1e-5)
-    assert gb[:, 1] == pytest.approx(-ga[:, 1], abs=1e-5)
-    assert np.sin(gb[:, 2]) == pytest.approx(-np.sin(ga[:, 2]), abs=1e-8)
-    assert np.cos(gb[:, 2]) == pytest.approx(np.cos(ga[:, 2]), abs=1e-8)
-    assert gb[:, 3:] * [1, -1, -1] == pytest.approx(ga[:, 3:], abs=1e-8)
+    assert gb[:, 0] == pytest.approx(ga[:, 0], abs=MIRROR_M)
+    assert gb[:, 1] == pytest.approx(-ga[:, 1], abs=MIRROR_M)
+    assert np.sin(gb[:, 2]) == pytest.approx(-np.sin(ga[:, 2]), abs=MIRROR_TURN)
+    assert np.cos(gb[:, 2]) == pytest.approx(np.cos(ga[:, 2]), abs=MIRROR_TURN)
+    assert gb[:, 3:] * [1, -1, -1] == pytest.approx(ga[:, 3:], abs=MIRROR_SPEED)
 
 
 forces = st.tuples(st.floats(-300e3, 300e3), st.floats(-300e3, 300e3), st.floats(-10e6, 10e6))
