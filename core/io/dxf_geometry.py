@@ -28,6 +28,7 @@ from scipy.spatial import cKDTree
 
 from core.errors import DrawingError
 from core.io.drawing_units import INSUNITS_SYMBOLS
+from core.io.paths import file_path
 
 Pt = tuple[float, float]
 
@@ -91,7 +92,7 @@ class Drawing:
         """Read a DXF file; raises DrawingError for a file that is not a readable DXF."""
         p = Path(path)
         try:
-            head = p.read_bytes()[:6]
+            head = file_path(p).read_bytes()[:6]
         except OSError as e:
             raise DrawingError(p.name, f"cannot be read: {e.strerror or e}") from None
         if head.startswith(b"AC10"):

@@ -24,6 +24,7 @@ from core.errors import FormatVersionError, Problem, ProjectFileError
 from core.io.decode import decode
 from core.io.encode import encode
 from core.io.fileformat import FORMAT_VERSION
+from core.io.paths import file_path, shown_path
 from core.model.plan import Project
 
 SUFFIX = ".towboard"
@@ -107,10 +108,10 @@ def load(path: str | os.PathLike[str]) -> Project:
     """Read a ``.towboard`` file."""
     p = Path(path)
     try:
-        raw = p.read_bytes()
+        raw = file_path(p).read_bytes()
     except OSError as e:
         raise ProjectFileError(
-            str(p), [Problem("", f"cannot be read: {e.strerror or e}")]
+            shown_path(p), [Problem("", f"cannot be read: {e.strerror or e}")]
         ) from None
     return load_bytes(raw, str(p))
 
@@ -138,7 +139,7 @@ def current_umask() -> int:
 def target_of(path: str | os.PathLike[str]) -> Path:
     """The file a save to ``path`` writes: ``path`` itself, or through a symbolic link, the
     file the link points to (so the link stays a link)."""
-    p = Path(path)
+    p = file_path(path)
     return Path(os.path.realpath(p)) if p.is_symlink() else p
 
 
@@ -216,6 +217,6 @@ def save(project: Project, path: str | os.PathLike[str]) -> Path:
         write_atomic(real, data)
     except OSError as e:
         raise ProjectFileError(
-            str(p), [Problem("", f"cannot be written: {e.strerror or e}")]
+            shown_path(p), [Problem("", f"cannot be written: {e.strerror or e}")]
         ) from None
     return p

@@ -87,3 +87,28 @@ def test_write_atomic_can_make_a_private_file(tmp_path: Path) -> None:
     assert _mode(path) == 0o600
     write_atomic(path, b"[]")  # and the next write keeps it private
     assert _mode(path) == 0o600
+
+
+def test_a_file_name_with_a_nul_character_is_refused_with_a_message(tmp_path: Path) -> None:
+    # Python refuses such a name with a ValueError, which no caller catches; the project
+    # gives the OSError its writers and readers already turn into a message, and no file.
+    from core.errors import DrawingError, ProjectFileError
+    from core.io.dxf_geometry import Drawing
+    from core.io.tables import write_csv
+
+    project = load(sorted(SAMPLES.glob("*.towboard"))[0])
+    bad = tmp_path / "plan\x00b.towboard"
+    with pytest.raises(ProjectFileError) as e:
+        save(project, bad)
+    said = str(e.value)
+    assert "plan\\0b.towboard" in said and "\x00" not in said  # shown as \0, never itself
+    assert "cannot be written: a file name cannot hold a NUL character" in said
+    with pytest.raises(ProjectFileError, match="cannot be read: a file name cannot hold a NUL"):
+        load(bad)
+    with pytest.raises(OSError, match="a file name cannot hold a NUL character"):
+        write_csv(tmp_path / "t\x00.csv", [["a", "b"]])
+    with pytest.raises(OSError, match="a file name cannot hold a NUL character"):
+        write_atomic(tmp_path / "x\x00", b"data")
+    with pytest.raises(DrawingError, match="cannot be read: a file name cannot hold a NUL"):
+        Drawing.open(tmp_path / "d\x00.dxf")
+    assert list(tmp_path.iterdir()) == []  # nothing written, no temporary file left

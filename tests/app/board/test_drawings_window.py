@@ -9,7 +9,7 @@ from pathlib import Path
 import pytest
 from PySide6.QtCore import QPoint, Qt
 from PySide6.QtGui import QImage
-from PySide6.QtWidgets import QDialog, QDialogButtonBox, QFileDialog
+from PySide6.QtWidgets import QDialog, QDialogButtonBox, QFileDialog, QMessageBox
 
 from app.window.export_dialogs import PictureDialog, TablesDialog
 from app.window.outline_import_dialog import OutlineImportDialog
@@ -326,6 +326,32 @@ def test_export_tables_in_the_plans_units(window, qtbot, tmp_path, monkeypatch) 
                     assert float(cell) == pytest.approx(
                         u.value(want, col.quantity), rel=1e-12, abs=1e-12
                     )
+
+
+def test_a_table_name_with_a_nul_character_is_refused_in_a_message(
+    window, qtbot, tmp_path, monkeypatch
+) -> None:  # type: ignore[no-untyped-def]
+    """Typed into the file field, a NUL character made os.stat raise a ValueError that
+    reached the guard as a fault (the monkey, seed 701): now the tables are not written
+    and a message says why."""
+    out = tmp_path / "tables"
+    out.mkdir()
+    said: list[str] = []
+    monkeypatch.setattr(
+        QMessageBox,
+        "warning",
+        staticmethod(lambda parent, title, text: said.append(title + ": " + text)),
+    )
+
+    def drive(d: TablesDialog) -> None:
+        d.file.setText(str(out / "a\x00b"))
+        _click_ok(qtbot, d)
+
+    _run_dialog(monkeypatch, TablesDialog, drive)
+    assert window.drawings_ui.export_tables() == []
+    assert len(said) == 1 and said[0].startswith("Tables not written: ")
+    assert "a file name cannot hold a NUL character" in said[0]
+    assert list(out.iterdir()) == []
 
 
 def test_tables_dialog_needs_a_table(qtbot, tmp_path) -> None:  # type: ignore[no-untyped-def]
