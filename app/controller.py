@@ -59,6 +59,22 @@ class BodyResult:
     conditions: ConditionLoads | None = None  # the wind and current on it, and what is missing
 
 
+@dataclass(frozen=True, slots=True)
+class BodyParts:
+    """What an edit filter reads of one body in a drag: the body, its tugs as arrays for
+    the plan handed to the filter, and the wind and current on it. No balance: a filter
+    may change the tugs' settings, and the balance is worked out after it, once."""
+
+    body: Body
+    layout: TugLayout
+    loads: tuple[Load, ...]
+    conditions: ConditionLoads | None = None
+
+    @classmethod
+    def of(cls, r: BodyResult) -> BodyParts:
+        return cls(r.body, r.layout, r.loads, r.conditions)
+
+
 _MERGE_IDS: dict[object, int] = {}
 
 
@@ -169,11 +185,11 @@ class Controller(QObject):
         self._results: dict[str, BodyResult] | None = None
         self._results_override: dict[str, BodyResult] | None = None
         self._all_but_placements: tuple[Project, int, tuple[object, ...]] | None = None
-        #: Callables ``(project, results) -> project`` run on every edit and preview before
-        #: it is shown (live solving fills in the settings); ``results`` are the bodies'
-        #: results for ``project`` when the caller has them (a drag), else None. The same
-        #: object back means no change.
-        self.edit_filters: list[Callable[[Project, dict[str, BodyResult] | None], Project]] = []
+        #: Callables ``(project, parts) -> project`` run on every edit and preview before
+        #: it is shown (live solving fills in the settings); ``parts`` are the bodies'
+        #: :class:`BodyParts` for ``project`` when the caller has them (a drag), else None.
+        #: The same object back means no change.
+        self.edit_filters: list[Callable[[Project, dict[str, BodyParts] | None], Project]] = []
         self.undo_stack = QUndoStack(self)
         self.undo_stack.cleanChanged.connect(self._clean_changed)
 
@@ -323,15 +339,16 @@ class Controller(QObject):
             self.stage_changed.emit(self._stage_index)
         self.changed.emit()
 
-    def _filtered(self, new: Project, results: dict[str, BodyResult] | None = None) -> Project:
+    def _filtered(self, new: Project, parts: dict[str, BodyParts] | None = None) -> Project:
         for f in self.edit_filters:
-            new = f(new, results)
+            new = f(new, parts)
         return new
 
     def _with_settings(
-        self, results: dict[str, BodyResult], project: Project
+        self, results: dict[str, BodyParts], project: Project
     ) -> dict[str, BodyResult] | None:
-        """``results`` brought up to ``project`` when only tug settings differ, else None.
+        """Each body's result for ``project`` from its ``results`` parts for a plan that
+        differs from it only in tug settings (else None).
 
         A tug's pull is its setting times its usable pull, so the layouts keep every array
         and only the balances are reduced again (the drag path stays fast).
@@ -387,11 +404,42 @@ class Controller(QObject):
         ``results`` may carry the bodies' results already computed for ``new`` (the
         fast drag path), so they are not computed twice.
         """
-        filtered = self._filtered(new, results)
+        parts = None if results is None else {n: BodyParts.of(r) for n, r in results.items()}
+        filtered = self._filtered(new, parts)
         self._refuse_broken(filtered)
         if filtered is not new:
-            results = None if results is None else self._with_settings(results, filtered)
+            results = None if parts is None else self._with_settings(parts, filtered)
             new = filtered
+        self._show_preview(new, results)
+
+    def preview_moved_tug(self, new: Project, body: str, layout: TugLayout, row: int) -> None:
+        """Show a tug drag's move: ``new`` is the plan shown with one tug of ``body``
+        moved, ``layout`` that body's tugs as arrays for it with only row ``row`` made
+        again (core.mechanics.balance.with_placement_row; the fast path).
+
+        The balance is worked out once: for the plan the edit filters give when they
+        change the settings (live solving), else for the one row.
+        """
+        results = self.results()
+        r = results[body]
+        parts = {n: BodyParts.of(x) for n, x in results.items()}
+        parts[body] = BodyParts(r.body, layout, r.loads, r.conditions)
+        filtered = self._filtered(new, parts)
+        self._refuse_broken(filtered)
+        out: dict[str, BodyResult] | None
+        if filtered is not new:
+            out = self._with_settings(parts, filtered)
+            new = filtered
+        else:
+            stage = new.stages[min(self._stage_index, len(new.stages) - 1)]
+            balance = analyse_layout(
+                stage, r.body, layout, new.units, r.loads, before=r.balance, changed_row=row
+            )
+            out = dict(results)
+            out[body] = BodyResult(r.body, layout, r.loads, balance, r.conditions)
+        self._show_preview(new, out)
+
+    def _show_preview(self, new: Project, results: dict[str, BodyResult] | None) -> None:
         if self._preview_base is None:
             self._preview_base = self._project
         self._set_project(new, results)

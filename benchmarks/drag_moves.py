@@ -69,9 +69,8 @@ def instrument() -> None:
     import app.panels.tugs_model as tugs_model
 
     wrap(interaction.Interaction, "move", "board: the move")
-    wrap(interaction, "analyse_layout", "board: the moved tug's balance")
-    wrap(controller.Controller, "preview", "controller: preview")
-    wrap(controller.Controller, "_with_settings", "controller: balances of the solved settings")
+    wrap(controller.Controller, "preview_moved_tug", "controller: preview")
+    wrap(controller, "analyse_layout", "controller: the balance")
     wrap(solve_panel, "solved_stage", "live solving")
     wrap(scene.BoardScene, "refresh", "board: scene refresh")
     wrap(view.BoardView, "paintEvent", "board: paint")

@@ -29,14 +29,13 @@ from app.board.items import ROLE
 from app.board.poses import pose_in
 from app.board.sector_layer import SectorDrag
 from app.board.site_tools import FeatureDrag, PointDrag, SiteTools
-from app.controller import BodyResult
 from app.edits import bodies as body_edits
 from app.edits import hulls as hull_edits
 from app.edits import site as site_edits
 from app.edits import tugs as tug_edits
 from app.guard import guarded
 from core.errors import OutlineError, TowboardError
-from core.mechanics.balance import analyse_layout, with_placement_row
+from core.mechanics.balance import with_placement_row
 from core.model.hull import Hull
 from core.model.outlines import validate_outline
 from core.model.plan import BodyPose
@@ -96,7 +95,6 @@ class _TugDrag:
     index: int
     placement: Placement
     grab: tuple[float, float]  # from the tug's reference position to the grab point, body frame
-    result: BodyResult
 
 
 @dataclass
@@ -403,7 +401,7 @@ class Interaction:
                     else:
                         px, py = r.layout.positions[i]
                         grab = (local.x() - px, local.y() - py)
-                    self.drag = _TugDrag(name, i, p, grab, r)
+                    self.drag = _TugDrag(name, i, p, grab)
                     self.scene.bodies[name].tugs[tug].set_dragging(True)
                     return
 
@@ -412,7 +410,9 @@ class Interaction:
         d = self.scene.bodies[drag.body]
         local = d.root.mapFromScene(pos)
         target = (local.x() - drag.grab[0], local.y() - drag.grab[1])
-        r = drag.result
+        r = c.results().get(drag.body)
+        if r is None:
+            return
         placement = tug_edits.dragged_placement(r.body, drag.placement, target)
         project = c.project
         stage = c.stage
@@ -422,14 +422,8 @@ class Interaction:
         project = c.with_stage(stage, project)
         # the fast path: the one tug's row of the arrays is made again, the rest are kept
         layout = with_placement_row(r.layout, project, stage, r.body, placement)
-        balance = analyse_layout(
-            stage, r.body, layout, project.units, r.loads, before=r.balance, changed_row=drag.index
-        )
-        results = dict(c.results())
-        results[drag.body] = BodyResult(r.body, layout, r.loads, balance, r.conditions)
-        drag.result = results[drag.body]
         drag.placement = placement
-        c.preview(project, results)
+        c.preview_moved_tug(project, drag.body, layout, drag.index)
 
     # -- moving and turning a body ------------------------------------------------------
     def _start_body_drag(self, pos: QPointF, screen: QPointF) -> None:

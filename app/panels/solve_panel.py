@@ -31,14 +31,13 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from app.controller import BodyResult, Controller
+from app.controller import BodyParts, Controller
 from app.guard import guarded
 from app.numbers import message, parse_value
 from app.panels.table_cells import Cell, fill
 from core.analysis.stage import BodyResult as StageBody
 from core.analysis.stage import StageResult
 from core.errors import TowboardError
-from core.mechanics.balance import TugLayout
 from core.model import rules
 from core.model.goals import GOAL_KINDS, GOAL_WORDS, Goal
 from core.model.plan import Project, Stage
@@ -81,16 +80,24 @@ def solved_stage(
     stage: Stage,
     goal: Goal,
     leads: bool = True,
-    layout: TugLayout | None = None,
+    parts: BodyParts | None = None,
 ) -> tuple[Stage, PullsResult]:
     """``stage`` with every tug's setting (and, with ``leads``, solved lead) for ``goal``
     (the live path: the same problem and solver the stage result uses).
 
     Without ``leads`` each tug works at its lead as set: a working sector is left aside
     for the solve, since the settings are applied with the leads as they are (a solve
-    over the sectors would give settings for leads of its own choosing)."""
+    over the sectors would give settings for leads of its own choosing).
+
+    ``parts`` may lend the body, its layout for ``stage`` and its loads (a drag's fast
+    path), so they are not worked out again."""
+    layout = None if parts is None else parts.layout
+    made = None if parts is None else parts.body
+    loads = None if parts is None else parts.loads
     if leads:
-        result = solve_pulls(pulls_problem(project, stage, goal=goal, layout=layout))
+        result = solve_pulls(
+            pulls_problem(project, stage, goal=goal, loads=loads, layout=layout, made_body=made)
+        )
         return result.applied_to(stage), result
     held = stage
     if any(p.lead_sector_rad is not None for p in stage.placements):
@@ -98,7 +105,9 @@ def solved_stage(
         held = replace(stage, placements=tuple(fixed.values()))
         if layout is not None:
             layout = replace(layout, placements=tuple(fixed[p.tug] for p in layout.placements))
-    result = solve_pulls(pulls_problem(project, held, goal=goal, layout=layout))
+    result = solve_pulls(
+        pulls_problem(project, held, goal=goal, loads=loads, layout=layout, made_body=made)
+    )
     solved = {
         p.tug: float(s)
         for p, s in zip(result.problem.placements, result.utilisation.tolist(), strict=True)
@@ -334,13 +343,11 @@ class SolvePanel(QWidget):
                 + shortfall_words(missing.shortfall, c.project.units)
             )
 
-    def live_filter(
-        self, project: Project, results: dict[str, BodyResult] | None = None
-    ) -> Project:
+    def live_filter(self, project: Project, parts: dict[str, BodyParts] | None = None) -> Project:
         """The project with the stage shown solved for its goal (live mode; no goal, no change).
 
-        ``results`` (the drag's fast path) lend the main body's layout, so it is not
-        worked out again."""
+        ``parts`` (the drag's fast path) lend the main body, its layout and its loads, so
+        they are not worked out again."""
         c = self.controller
         if not project.stages:
             return project
@@ -348,13 +355,9 @@ class SolvePanel(QWidget):
         stage = project.stages[index]
         if not stage.placements or stage.goal is None:
             return project
-        layout = None
-        if results:
-            r = results.get(c.main_body() or "")
-            if r is not None:
-                layout = r.layout
+        lent = None if not parts else parts.get(c.main_body() or "")
         try:
-            new_stage, _ = solved_stage(project, stage, stage.goal, leads=False, layout=layout)
+            new_stage, _ = solved_stage(project, stage, stage.goal, leads=False, parts=lent)
         except TowboardError:
             return project
         return project if new_stage is stage else project.with_stage(new_stage, index)

@@ -39,7 +39,7 @@ import numpy as np
 from core.errors import InputError
 from core.frames import angle_to_bearing, wrap_pi
 from core.mechanics.balance import Load, TugLayout, tug_layout
-from core.mechanics.bodies import stage_body
+from core.mechanics.bodies import Body, stage_body
 from core.mechanics.loads import body_conditions, loads_wrench
 from core.mechanics.tugsets import SECTOR_STEP_DEG, TugSets, tug_sets
 from core.model.goals import Goal
@@ -183,14 +183,16 @@ def pulls_problem(
     loads: tuple[Load, ...] | None = None,
     sector_step_deg: float = SECTOR_STEP_DEG,
     layout: TugLayout | None = None,
+    made_body: Body | None = None,
 ) -> PullsProblem:
     """Describe the solve for ``body`` in ``stage`` (goal: given, the stage's, or hold).
 
     ``loads`` default to the stage's wind and current on the body; a load whose
-    area is unknown is left out and a notice in the problem says so. ``layout`` may
-    lend the body's tug layout already worked out for this stage (the drag path).
+    area is unknown is left out and a notice in the problem says so. ``layout`` and
+    ``made_body`` may lend the body's tug layout and the body already worked out for
+    this stage (the drag path).
     """
-    b = stage_body(project, stage, body)
+    b = made_body if made_body is not None else stage_body(project, stage, body)
     if layout is None or tuple(p.tug for p in layout.placements) != tuple(
         p.tug for p in stage.placements if p.hull in {m.hull.name for m in b.members}
     ):

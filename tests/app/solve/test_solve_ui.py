@@ -247,6 +247,42 @@ def test_live_solving_follows_a_drag(holding, qtbot) -> None:  # type: ignore[no
     assert c.edit_filters == []
 
 
+@pytest.mark.parametrize("live", [False, True])
+def test_a_drag_works_each_moves_balance_out_once(holding, qtbot, monkeypatch, live) -> None:  # type: ignore[no-untyped-def]
+    """A tug drag's move works the balance out once, for the plan shown: with live
+    solving, for the solved settings (it was also worked out for the settings before
+    solving, and thrown away), else for the one moved row."""
+    import app.board.interaction as interaction
+    import app.controller as controller
+    from app.board.poses import pose_in, to_site
+    from core.mechanics import balance
+
+    c = holding.controller
+    ui = holding.solve_ui
+    _choose_goal(qtbot, ui.solve_panel, "hold")
+    ui.solve_panel.live.setChecked(live)
+    worked: list[bool] = []
+    real = balance.analyse_layout
+
+    def counted(*a, **k):  # type: ignore[no-untyped-def]
+        worked.append("changed_row" in k)
+        return real(*a, **k)
+
+    for module in (balance, controller, interaction):  # wherever the board may call it
+        monkeypatch.setattr(module, "analyse_layout", counted, raising=False)
+    share = next(s for s in c.balance().shares if s.tug == "Gannet")
+    start = view_point(holding.view, *to_site(pose_in(c.stage, "Barge"), share.position))
+    qtbot.mousePress(holding.view.viewport(), Qt.MouseButton.LeftButton, pos=start)
+    for k in range(1, 6):
+        worked.clear()
+        move_with_button(holding.view, start + QPointF(-8 * k, -5 * k).toPoint())
+        assert worked == [not live]  # once; the one row's update without live solving
+        b, core_b = c.balance(), balance_of(c.project, c.stage, "Barge")
+        assert b.net_force == pytest.approx(core_b.net_force, rel=1e-9, abs=1e-6)
+        assert b.moment_centroid_nm == pytest.approx(core_b.moment_centroid_nm, rel=1e-9, abs=1e-4)
+    qtbot.mouseRelease(holding.view.viewport(), Qt.MouseButton.LeftButton, pos=start)
+
+
 def test_live_solving_in_a_drag_keeps_working_sectors_at_their_leads(window, qtbot) -> None:  # type: ignore[no-untyped-def]
     """The pontoon sample's tugs have working sectors. Live solving sets the settings for
     the leads as they are (the dragged one where the mouse puts it), so the pulls meet the
