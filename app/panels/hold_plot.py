@@ -75,6 +75,16 @@ FOLLOW_SPARE = 4.0
 #: REST_S (it could not keep up with the mouse anyway).
 COSTLY_S = 0.05
 REST_S = 0.25
+#: A piece of a drag's sweep (building its problem, one step) runs in the time between
+#: mouse moves only when it can end before the next move is due (the moves' recent
+#: spacing), with this much to spare, so no move waits for it...
+ROOM_SPARE = 1.5
+#: ... unless the sweep has waited this long, seconds: a mouse that comes faster than the
+#: board can follow leaves no time between moves, and the plot must still follow it.
+STARVED_S = 0.1
+#: The mouse's moves are taken to be at least this far apart, seconds (one frame at
+#: 240 Hz): moves handled back to back say nothing of the mouse's pace.
+LEAST_GAP_S = 1 / 240
 
 
 class HoldPlot(QWidget):
@@ -435,6 +445,19 @@ class HoldLimitsPanel(QWidget):
         self._step_timer.setInterval(0)
         self._step_timer.timeout.connect(self._step)
         self._step_waiting = False
+        #: The drag's pace: when the last move was shown, the moves' spacing, seconds.
+        self._moved_at: float | None = None
+        self._move_gap = 1 / 60
+        #: What the sweep's pieces have taken lately, seconds (the larger of the last and
+        #: a fading memory of the earlier ones), and when one last ran.
+        self._piece_cost = {"problem": 0.0, "step": 0.0}
+        self._worked_at: float | None = None
+        #: A piece of the sweep held back for the next move's end (no room before it), and
+        #: a timer for when the mouse rests or the sweep has waited too long.
+        self._held: str | None = None
+        self._held_timer = QTimer(self)
+        self._held_timer.setSingleShot(True)
+        self._held_timer.timeout.connect(self._run_held)
         #: How many sweeps the drags have run (for whoever checks the plot keeps up).
         self.drag_sweeps = 0
         controller.changed.connect(self._changed)
@@ -444,13 +467,69 @@ class HoldLimitsPanel(QWidget):
     def _changed(self) -> None:
         if self.controller.previewing:
             self._timer.stop()
+            self._paced()
+            if self._held is not None:
+                self._held_timer.stop()
+                self._after_move()  # its turn comes again once this move is shown
             if self.follow_drag and on_screen(self):
                 self._schedule_follow()
         else:
             self._follow.stop()
             self._drop_job()
             self._swept_at = None
+            self._moved_at = self._worked_at = None
             self._timer.start()
+
+    def _paced(self) -> None:
+        """Note a drag's move: when it came and the moves' recent spacing."""
+        now = time.perf_counter()
+        if self._moved_at is not None and now - self._moved_at < STARVED_S:
+            gap = max(now - self._moved_at, LEAST_GAP_S)
+            self._move_gap = 0.7 * self._move_gap + 0.3 * gap
+        self._moved_at = now
+
+    def _room(self, piece: str) -> bool:
+        """Whether the sweep's ``piece`` may run now: it ends before the next move is due,
+        the mouse rests (no move came when due), or the sweep has waited long enough."""
+        now = time.perf_counter()
+        if self._moved_at is None:
+            return True
+        if self._worked_at is None:
+            self._worked_at = now  # the wait is counted from the first piece held back
+        due = self._moved_at + self._move_gap
+        return (
+            due - now >= ROOM_SPARE * self._piece_cost[piece]
+            or now > due + 0.5 * self._move_gap
+            or now - self._worked_at >= STARVED_S
+        )
+
+    def _hold_back(self, piece: str) -> None:
+        """Keep ``piece`` for when the next move has been shown (or the mouse rests, or
+        the sweep has waited :data:`STARVED_S`)."""
+        self._held = piece
+        now = time.perf_counter()
+        rest = (self._moved_at or now) + 1.5 * self._move_gap
+        starved = (self._worked_at or now) + STARVED_S
+        self._held_timer.start(max(1, math.ceil((min(rest, starved) - now) * 1000)))
+
+    def _after_move(self) -> None:
+        piece, self._held = self._held, None
+        if piece == "step":
+            self._next_step()
+        # a held problem: the move schedules the sweep's turn as any move does
+
+    @guarded
+    def _run_held(self) -> None:
+        piece, self._held = self._held, None
+        if piece == "step":
+            self._step()
+        elif piece == "problem":
+            self._follow_drag()
+
+    def _worked(self, piece: str, start: float) -> None:
+        now = time.perf_counter()
+        self._piece_cost[piece] = max(now - start, 0.8 * self._piece_cost[piece])
+        self._worked_at = now
 
     def _schedule_follow(self) -> None:
         """Sweep for the drag once its turn comes (one sweep for any number of moves)."""
@@ -482,8 +561,12 @@ class HoldLimitsPanel(QWidget):
             return
         if self._job is not None:
             return  # one under way: it sweeps again when it ends, if the plan moved on
+        if not self._room("problem"):
+            self._hold_back("problem")
+            return
         start = time.perf_counter()
         job = self._start_sweep()
+        self._worked("problem", start)
         if job is None:  # nothing to sweep: the plot says why at once
             self._sweep_done(start, 0.0)
             return
@@ -513,12 +596,16 @@ class HoldLimitsPanel(QWidget):
         if not (self.controller.previewing and self.follow_drag and on_screen(self)):
             self._drop_job()
             return
+        if not self._room("step"):
+            self._hold_back("step")
+            return
         start = time.perf_counter()
         try:
             next(job.steps)
         except StopIteration as done:
             self._job = None
             self._show_sweep(job, done.value)
+            self._worked("step", start)
             self._sweep_done(start, job.cost + time.perf_counter() - start)
             if self.controller.project is not job.project:
                 self._schedule_follow()  # the mouse moved on meanwhile: its turn comes
@@ -530,6 +617,7 @@ class HoldLimitsPanel(QWidget):
             self._sweep_done(start, job.cost + time.perf_counter() - start)
             return
         job.cost += time.perf_counter() - start
+        self._worked("step", start)
         self._next_step()
 
     def _sweep_done(self, start: float, cost: float) -> None:
@@ -540,6 +628,8 @@ class HoldLimitsPanel(QWidget):
     def _drop_job(self) -> None:
         self._job = None
         self._step_timer.stop()
+        self._held_timer.stop()
+        self._held = None
 
     def _start_sweep(self) -> _SweepJob | None:
         """A drag's sweep of the plan as it is now, to be worked in steps: all tugs every

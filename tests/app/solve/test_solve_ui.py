@@ -541,6 +541,45 @@ def test_a_drag_sweep_is_worked_in_steps_and_shown_whole(holding, qtbot) -> None
     assert hold.limits.worst_lost_ms == pytest.approx(direct.worst_lost_ms, rel=1e-12)
 
 
+def test_a_sweep_step_waits_for_room_between_the_moves(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    """A piece of a drag's sweep runs between moves only when it can end before the next
+    move is due; held back, its turn comes again after that move, and it runs when the
+    mouse rests or the sweep has waited long enough (a mouse faster than the board)."""
+    from app.panels import hold_plot
+
+    c = holding.controller
+    holding.solve_ui.set_live(True)
+    holding.show()
+    hold = holding.solve_ui.hold
+    qtbot.waitUntil(lambda: not hold._timer.isActive())
+    stage = c.stage
+    p = stage.placement("Gannet")
+
+    def move(turn: float) -> None:
+        c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + turn))))
+
+    move(0.2)
+    hold._follow_drag()
+    assert hold._job is not None
+    hold._piece_cost["step"] = 10.0  # a step longer than the time to the next move
+    hold._step()
+    assert hold._held == "step" and hold._job is not None and hold.drag_sweeps == 0
+    move(0.25)  # the next move: the step's turn comes after it
+    assert hold._held is None
+    qtbot.waitUntil(lambda: hold.drag_sweeps >= 1)  # the mouse rests: the steps run
+    # moves that never leave room: the sweep still ends, once it has waited STARVED_S
+    hold._piece_cost["step"] = 10.0
+    move(0.3)
+    started = hold.drag_sweeps
+    for k in range(round(4 * hold_plot.STARVED_S / 0.004)):
+        if hold.drag_sweeps > started:
+            break
+        move(0.3 + 0.001 * k)
+        qtbot.wait(4)
+    assert hold.drag_sweeps > started
+    c.cancel_preview()
+
+
 def test_moves_made_while_a_sweep_is_under_way_are_swept_once_it_ends(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     """A sweep in steps is for the plan as it was when it began; when the mouse moved on
     meanwhile, the plot sweeps again once that one ends (no further move needed), so a
