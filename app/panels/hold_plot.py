@@ -102,6 +102,8 @@ class HoldPlot(QWidget):
         self.flow: Flow = "wind"
         self._grid_cache: QPixmap | None = None
         self._grid_key: object = None
+        #: What the last paint took, seconds.
+        self.painted_in = 0.0
         self.setMinimumSize(220, 220)
         self.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
 
@@ -182,6 +184,7 @@ class HoldPlot(QWidget):
 
     @guarded
     def paintEvent(self, event: QPaintEvent) -> None:
+        start = time.perf_counter()
         p = QPainter(self)
         try:
             self._paint(p)
@@ -190,6 +193,7 @@ class HoldPlot(QWidget):
         finally:
             if p.isActive():
                 p.end()
+            self.painted_in = time.perf_counter() - start
 
     def _paint(self, p: QPainter) -> None:
         p.setRenderHint(QPainter.RenderHint.Antialiasing)
@@ -450,7 +454,7 @@ class HoldLimitsPanel(QWidget):
         self._move_gap = 1 / 60
         #: What the sweep's pieces have taken lately, seconds (the larger of the last and
         #: a fading memory of the earlier ones), and when one last ran.
-        self._piece_cost = {"problem": 0.0, "step": 0.0}
+        self._piece_cost = {"problem": 0.0, "step": 0.0, "show": 0.0}
         self._worked_at: float | None = None
         #: A piece of the sweep held back for the next move's end (no room before it), and
         #: a timer for when the mouse rests or the sweep has waited too long.
@@ -596,20 +600,17 @@ class HoldLimitsPanel(QWidget):
         if not (self.controller.previewing and self.follow_drag and on_screen(self)):
             self._drop_job()
             return
-        if not self._room("step"):
+        if not self._room("step" if job.result is None else "show"):
             self._hold_back("step")
             return
         start = time.perf_counter()
+        if job.result is not None:
+            self._show_job(job, job.result, start)
+            return
         try:
             next(job.steps)
         except StopIteration as done:
-            self._job = None
-            self._show_sweep(job, done.value)
-            self._worked("step", start)
-            self._sweep_done(start, job.cost + time.perf_counter() - start)
-            if self.controller.project is not job.project:
-                self._schedule_follow()  # the mouse moved on meanwhile: its turn comes
-            return
+            job.result = done.value  # shown as a piece of its own, with the plot's paint
         except TowboardError as e:
             self._job = None
             self.plot.set_data(None, job.stage, job.units, f"No hold limits: {e}")
@@ -619,6 +620,19 @@ class HoldLimitsPanel(QWidget):
         job.cost += time.perf_counter() - start
         self._worked("step", start)
         self._next_step()
+
+    def _show_job(
+        self, job: _SweepJob, result: tuple[HoldLimits, np.ndarray, np.ndarray], start: float
+    ) -> None:
+        self._job = None
+        self._show_sweep(job, result)
+        # the plot paints when the window next does: its last paint's time counts too
+        took = time.perf_counter() - start
+        self._piece_cost["show"] = max(took + self.plot.painted_in, 0.8 * self._piece_cost["show"])
+        self._worked_at = time.perf_counter()
+        self._sweep_done(start, job.cost + took)
+        if self.controller.project is not job.project:
+            self._schedule_follow()  # the mouse moved on meanwhile: its turn comes
 
     def _sweep_done(self, start: float, cost: float) -> None:
         self.drag_sweeps += 1
@@ -756,6 +770,8 @@ class _SweepJob:
     fresh: bool  # it sweeps the worst tug lost too
     any_tugs: bool
     cost: float = 0.0  # seconds its steps have taken so far
+    #: What the steps gave, once they are all done (then shown as a piece of its own).
+    result: tuple[HoldLimits, np.ndarray, np.ndarray] | None = None
 
 
 def summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:

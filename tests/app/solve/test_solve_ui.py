@@ -580,6 +580,32 @@ def test_a_sweep_step_waits_for_room_between_the_moves(holding, qtbot) -> None: 
     c.cancel_preview()
 
 
+def test_a_finished_sweep_is_shown_when_there_is_room_for_the_plots_paint(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
+    """The sweep's last step keeps its result; showing it (and the plot's paint that
+    follows) is a piece of its own, which waits for room between moves like a step."""
+    c = holding.controller
+    holding.solve_ui.set_live(True)
+    holding.show()
+    hold = holding.solve_ui.hold
+    qtbot.waitUntil(lambda: not hold._timer.isActive())
+    shown = hold.limits
+    stage = c.stage
+    p = stage.placement("Gannet")
+    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    hold._follow_drag()
+    job = hold._job
+    while job.result is None:
+        hold._step()
+    assert hold.limits is shown and hold.drag_sweeps == 0  # worked out, not shown yet
+    hold._piece_cost["show"] = 10.0  # no room before the next move
+    hold._step()
+    assert hold._held == "step" and hold.limits is shown
+    qtbot.waitUntil(lambda: hold.drag_sweeps == 1)  # the mouse rests: shown
+    assert hold.limits is job.result[0] and hold._job is None
+    qtbot.waitUntil(lambda: hold.plot.painted_in > 0)
+    c.cancel_preview()
+
+
 def test_moves_made_while_a_sweep_is_under_way_are_swept_once_it_ends(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     """A sweep in steps is for the plan as it was when it began; when the mouse moved on
     meanwhile, the plot sweeps again once that one ends (no further move needed), so a
