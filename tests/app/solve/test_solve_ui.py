@@ -561,7 +561,8 @@ def test_a_sweep_step_waits_for_room_between_the_moves(holding, qtbot) -> None: 
     move(0.2)
     hold._follow_drag()
     assert hold._job is not None
-    hold._piece_cost["step"] = 10.0  # a step longer than the time to the next move
+    hold._move_gap = 1.0  # the next move is due in a second (however slow this machine)
+    hold._piece_cost["step"] = 10.0  # a step longer than that
     hold._step()
     assert hold._held == "step" and hold._job is not None and hold.drag_sweeps == 0
     move(0.25)  # the next move: the step's turn comes after it
@@ -597,7 +598,8 @@ def test_a_finished_sweep_is_shown_when_there_is_room_for_the_plots_paint(holdin
     while job.result is None:
         hold._step()
     assert hold.limits is shown and hold.drag_sweeps == 0  # worked out, not shown yet
-    hold._piece_cost["show"] = 10.0  # no room before the next move
+    hold._move_gap = 1.0  # the next move is due in a second (however slow this machine)
+    hold._piece_cost["show"] = 10.0  # showing takes longer than that
     hold._step()
     assert hold._held == "step" and hold.limits is shown
     qtbot.waitUntil(lambda: hold.drag_sweeps == 1)  # the mouse rests: shown
