@@ -7,11 +7,12 @@ no edit made more than a second before the kill is lost. Prints how much was los
 round (the time between the first edit not on offer and the kill) against the one-second
 limit.
 
-Run: /work/main/.venv/bin/python benchmarks/kill_saves.py [ROUNDS] [SEED]   (default 200, 1)
+Run: /work/main/.venv/bin/python benchmarks/kill_saves.py [--rounds 200] [--seed 1]
 """
 
 from __future__ import annotations
 
+import argparse
 import os
 import random
 import sys
@@ -29,8 +30,11 @@ from tests.app.killing import LOSS_LIMIT_S, kill_round  # noqa: E402
 
 
 def main() -> None:
-    rounds = int(sys.argv[1]) if len(sys.argv) > 1 else 200
-    seed = int(sys.argv[2]) if len(sys.argv) > 2 else 1
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--rounds", type=int, default=200, help="kills (default 200)")
+    ap.add_argument("--seed", type=int, default=1)
+    args = ap.parse_args()
+    rounds, seed = args.rounds, args.seed
     _app = QCoreApplication.instance() or QCoreApplication([])
     rnd = random.Random(seed)
     results = []
