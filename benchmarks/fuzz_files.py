@@ -5,11 +5,12 @@ numbers; every 20th file that loads is also briefed and its PDF text checked for
 inf. Prints the counts, every failure (with the file that caused it, saved beside), and
 the time per file against ``json.loads`` of the same text.
 
-Run: /work/main/.venv/bin/python benchmarks/fuzz_files.py [CASES] [SEED]   (default 10000, 1)
+Run: /work/main/.venv/bin/python benchmarks/fuzz_files.py [--cases 10000] [--seed 1]
 """
 
 from __future__ import annotations
 
+import argparse
 import collections
 import json
 import os
@@ -30,8 +31,11 @@ from tests.fuzz.mutations import random_case  # noqa: E402
 
 
 def main() -> None:
-    cases = int(sys.argv[1]) if len(sys.argv) > 1 else 10_000
-    seed = int(sys.argv[2]) if len(sys.argv) > 2 else 1
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--cases", type=int, default=10_000, help="files (default 10000)")
+    ap.add_argument("--seed", type=int, default=1)
+    args = ap.parse_args()
+    cases, seed = args.cases, args.seed
     warnings.simplefilter("error")  # a numpy overflow warning is a failure too
     from PySide6.QtWidgets import QApplication
 
