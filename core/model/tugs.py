@@ -102,9 +102,7 @@ class Tug:
         ):
             rules.LABEL.check(getattr(self, attr), subject, label)
         rules.BOLLARD_PULL.check(self.bollard_pull_n, subject)
-        given_astern = self.astern_pull_n is not None
-        if given_astern:
-            rules.ASTERN_PULL.check(self.astern_pull_n, subject)
+        given_astern = rules.ASTERN_PULL.check_optional(self.astern_pull_n, subject) is not None
         rules.TOWING_POINT_HEIGHT.check_optional(self.towing_point_height_m, subject)
         rules.TOWLINE_LENGTH.check_optional(self.towline_length_m, subject)
         rules.TOWLINE_MBL.check_optional(self.towline_mbl_n, subject)
