@@ -10,7 +10,7 @@ which it may change its lead when the pulls are solved.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, fields, replace
 
 from core.errors import InputError
 from core.model import rules
@@ -235,7 +235,15 @@ class Placement:
         return replace(self, lead_sector_rad=sector)
 
     def with_setting(self, setting: float) -> Placement:
-        return replace(self, setting=float(setting))
+        """The placement asked for ``setting``: only that value is checked (the others
+        were when this placement was made), since a live solve sets every tug's setting
+        on every mouse move."""
+        value = rules.SETTING.check(float(setting), f"tug {self.tug}")
+        new = object.__new__(Placement)
+        for name in _PLACEMENT_FIELDS:
+            object.__setattr__(new, name, getattr(self, name))
+        object.__setattr__(new, "setting", value)
+        return new
 
     def with_lead(self, lead_rad: float, line_length_m: float | None = None) -> Placement:
         length = self.line_length_m if line_length_m is None else float(line_length_m)
@@ -243,6 +251,9 @@ class Placement:
 
     def at_point(self, hull: str, point: str) -> Placement:
         return replace(self, hull=hull, point=point)
+
+
+_PLACEMENT_FIELDS = tuple(f.name for f in fields(Placement))
 
 
 def sector_span(low_rad: float, high_rad: float) -> tuple[float, float]:

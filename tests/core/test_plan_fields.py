@@ -238,3 +238,21 @@ def test_a_towline_outside_the_permitted_angles_is_warned() -> None:
         n.message for n in check_stage(beam, 2).notices if n.code == "outside_permitted_angles"
     )
     assert "000°" in msg and "030° to 150°" in msg
+
+
+@pytest.mark.parametrize("setting", [0.0, 0.37, 1.0, -0.1, 1.5, math.nan, math.inf])
+def test_a_new_setting_is_the_placement_made_afresh_or_the_same_refusal(setting: float) -> None:
+    """``Placement.with_setting`` copies the placement and checks the one value (the live
+    solve's fast path); it must give what making the placement afresh gives."""
+    placement = two_tug_plan().stages[0].placements[0]
+    before = placement.setting
+    try:
+        made = replace(placement, setting=setting)
+    except InputError as e:
+        with pytest.raises(InputError) as got:
+            placement.with_setting(setting)
+        assert str(got.value) == str(e)
+        return
+    new = placement.with_setting(setting)
+    assert new == made and hash(new) == hash(made) and type(new.setting) is float
+    assert placement.setting == before  # the old one is untouched
