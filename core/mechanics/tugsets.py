@@ -202,6 +202,39 @@ def tug_sets(
     Leads are at most ``step_deg`` apart, in multiples of ``nest`` steps: the polygons
     of ``step_deg * nest`` (and ``nest`` 1) then have every vertex among these ones, so
     they lie inside them (core.solve.walk starts from them)."""
+    frame = layout.lead_frame_rad
+    scale = layout.pull_scale_n
+    if frame is None or scale is None or all(p.lead_sector_rad is None for p in layout.placements):
+        return _fixed_sets(layout, centroid)
+    return _each_tugs_sets(layout, centroid, step_deg, nest)
+
+
+def _fixed_sets(layout: TugLayout, centroid: tuple[float, float]) -> TugSets:
+    """:func:`tug_sets` when every tug works at its lead as set (a live solve's case), all
+    tugs at once: each set is the segment from the origin to the tug's pull (none below
+    :data:`NO_FORCE_N`)."""
+    n = len(layout.placements)
+    pulls = layout.directions * layout.usable_n[:, None]  # (n, 2)
+    working = layout.usable_n > NO_FORCE_N
+    idx = np.flatnonzero(working)
+    segments = np.zeros((n, 2, 2))
+    segments[:, 1] = pulls
+    leads = np.array([p.lead_rad for p in layout.placements], dtype=float)
+    return TugSets(
+        layout=layout,
+        centroid=centroid,
+        vertices=pulls[idx],
+        vertex_tug=idx,
+        vertex_lead=leads[idx],
+        polygons=tuple(segments[i] if working[i] else np.zeros((0, 2)) for i in range(n)),
+        sectors=np.zeros(n, dtype=bool),
+    )
+
+
+def _each_tugs_sets(
+    layout: TugLayout, centroid: tuple[float, float], step_deg: float, nest: int
+) -> TugSets:
+    """:func:`tug_sets` tug by tug (some tug has a working sector)."""
     step = math.radians(step_deg)
     limit = math.radians(MAX_PUSH_OFF_DEG)
     verts: list[np.ndarray] = []
