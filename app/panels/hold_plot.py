@@ -79,8 +79,9 @@ REST_S = 0.25
 #: mouse moves only when it can end before the next move is due (the moves' recent
 #: spacing), with this much to spare, so no move waits for it...
 ROOM_SPARE = 1.5
-#: ... unless the sweep has waited this long, seconds: a mouse that comes faster than the
-#: board can follow leaves no time between moves, and the plot must still follow it.
+#: ... unless the sweep has been under way this long, seconds (its pieces then run at once):
+#: a mouse that comes faster than the board can follow leaves no time between moves, and
+#: the plot must still follow it.
 STARVED_S = 0.1
 #: The mouse's moves are taken to be at least this far apart, seconds (one frame at
 #: 240 Hz): moves handled back to back say nothing of the mouse's pace.
@@ -453,9 +454,10 @@ class HoldLimitsPanel(QWidget):
         self._moved_at: float | None = None
         self._move_gap = 1 / 60
         #: What the sweep's pieces have taken lately, seconds (the larger of the last and
-        #: a fading memory of the earlier ones), and when one last ran.
+        #: a fading memory of the earlier ones), and when the sweep under way first asked
+        #: for room (from then on it has STARVED_S to be shown before it stops waiting).
         self._piece_cost = {"problem": 0.0, "step": 0.0, "show": 0.0}
-        self._worked_at: float | None = None
+        self._began: float | None = None
         #: A piece of the sweep held back for the next move's end (no room before it), and
         #: a timer for when the mouse rests or the sweep has waited too long.
         self._held: str | None = None
@@ -481,7 +483,7 @@ class HoldLimitsPanel(QWidget):
             self._follow.stop()
             self._drop_job()
             self._swept_at = None
-            self._moved_at = self._worked_at = None
+            self._moved_at = self._began = None
             self._timer.start()
 
     def _paced(self) -> None:
@@ -498,13 +500,13 @@ class HoldLimitsPanel(QWidget):
         now = time.perf_counter()
         if self._moved_at is None:
             return True
-        if self._worked_at is None:
-            self._worked_at = now  # the wait is counted from the first piece held back
+        if self._began is None:
+            self._began = now
         due = self._moved_at + self._move_gap
         return (
             due - now >= ROOM_SPARE * self._piece_cost[piece]
             or now > due + 0.5 * self._move_gap
-            or now - self._worked_at >= STARVED_S
+            or now - self._began >= STARVED_S
         )
 
     def _hold_back(self, piece: str) -> None:
@@ -513,7 +515,7 @@ class HoldLimitsPanel(QWidget):
         self._held = piece
         now = time.perf_counter()
         rest = (self._moved_at or now) + 1.5 * self._move_gap
-        starved = (self._worked_at or now) + STARVED_S
+        starved = (self._began or now) + STARVED_S
         self._held_timer.start(max(1, math.ceil((min(rest, starved) - now) * 1000)))
 
     def _after_move(self) -> None:
@@ -531,9 +533,8 @@ class HoldLimitsPanel(QWidget):
             self._follow_drag()
 
     def _worked(self, piece: str, start: float) -> None:
-        now = time.perf_counter()
-        self._piece_cost[piece] = max(now - start, 0.8 * self._piece_cost[piece])
-        self._worked_at = now
+        took = time.perf_counter() - start
+        self._piece_cost[piece] = max(took, 0.8 * self._piece_cost[piece])
 
     def _schedule_follow(self) -> None:
         """Sweep for the drag once its turn comes (one sweep for any number of moves)."""
@@ -629,12 +630,12 @@ class HoldLimitsPanel(QWidget):
         # the plot paints when the window next does: its last paint's time counts too
         took = time.perf_counter() - start
         self._piece_cost["show"] = max(took + self.plot.painted_in, 0.8 * self._piece_cost["show"])
-        self._worked_at = time.perf_counter()
         self._sweep_done(start, job.cost + took)
         if self.controller.project is not job.project:
             self._schedule_follow()  # the mouse moved on meanwhile: its turn comes
 
     def _sweep_done(self, start: float, cost: float) -> None:
+        self._began = None  # the next sweep's wait starts afresh
         self.drag_sweeps += 1
         self._swept_at = time.perf_counter()
         self._sweep_cost = cost
@@ -644,6 +645,7 @@ class HoldLimitsPanel(QWidget):
         self._step_timer.stop()
         self._held_timer.stop()
         self._held = None
+        self._began = None
 
     def _start_sweep(self) -> _SweepJob | None:
         """A drag's sweep of the plan as it is now, to be worked in steps: all tugs every
