@@ -333,6 +333,8 @@ class TugDrawing:
         self._key: tuple[object, ...] | None = None
         self._share: TugShare | None = None  # the share last drawn, and what else it took
         self._inputs: tuple[object, ...] | None = None
+        self._placed: tuple[object, ...] | None = None  # the shape's origin and direction
+        self._glyph = QPolygonF()
         self._selected = False
         #: Counts the changes to this tug's items (so does ``changes``, with the others').
         self.revision = 0
@@ -378,7 +380,10 @@ class TugDrawing:
             towline = QLineF(point[0], point[1], tx, ty)
         # on a line the tug lies along it, stern to the hull; pushing, its bow on the point
         origin = tug_origin(share.mode, point, share.position, direction)
-        glyph = polygon(placed_tug(origin, direction))
+        if (origin, direction) != self._placed:  # else the same shape (a pull changed)
+            self._placed = (origin, direction)
+            self._glyph = polygon(placed_tug(origin, direction))
+        glyph = self._glyph
         # the force arrow starts where the force acts on the hull and points along it
         length = share.pull_n * force_scale
         arrow = (point, (point[0] + dx * length, point[1] + dy * length)) if length > 1e-6 else None

@@ -71,6 +71,9 @@ class Label(QGraphicsItem):
         super().__init__(parent)
         self.setFlag(IGNORES)
         self._font = font or style.label_font()
+        # the font's measures, taken once (a label's text changes on every move of a drag)
+        self._fm = QFontMetricsF(self._font)
+        self._ascent, self._line_height = self._fm.ascent(), self._fm.height()
         self._color = color
         self._offset = offset
         self._outward: tuple[float, float, float] | None = None
@@ -126,10 +129,10 @@ class Label(QGraphicsItem):
             return
         self.prepareGeometryChange()
         self._lines = lines
-        fm = QFontMetricsF(self._font)
+        fm = self._fm
         # a little spare width: printers' font metrics run wider than the screen's
         w = 1.06 * max((fm.horizontalAdvance(s) for s in lines), default=0.0)
-        h = fm.height() * len(lines)
+        h = self._line_height * len(lines)
         if self._outward is not None:
             ux, uy, gap = self._outward
             dx, dy = ux * ((w + 6) / 2 + gap), uy * ((h + 4) / 2 + gap)
@@ -207,11 +210,10 @@ class Label(QGraphicsItem):
         painter.drawRoundedRect(self._rect, 3, 3)
         painter.setPen(self._color)
         painter.setFont(self._font)
-        fm = QFontMetricsF(self._font)
-        y = self._rect.top() + 2 + fm.ascent()
+        y = self._rect.top() + 2 + self._ascent
         for s in self._lines:
             painter.drawText(QPointF(self._rect.left() + 3, y), s)
-            y += fm.height()
+            y += self._line_height
 
 
 class Leader(QGraphicsItem):
@@ -542,6 +544,7 @@ class TugItem(QGraphicsItem):
         self._shaft = QPainterPath()
         self._head = QPolygonF()
         self._rect = QRectF()
+        self._still_rect = QRectF()  # the towline's and the shape's box
         #: (start, end) of the force arrow, m, for whoever checks the drawing
         self.arrow_line: tuple[tuple[float, float], tuple[float, float]] | None = None
 
@@ -553,14 +556,18 @@ class TugItem(QGraphicsItem):
         head: float,
     ) -> None:
         self.prepareGeometryChange()
-        self._towline = towline
-        self._glyph = glyph
-        self._shape = QPainterPath()
-        self._shape.addPolygon(glyph)
-        self._shape.closeSubpath()
-        rect = glyph.boundingRect()
-        if towline is not None:
-            rect = rect.united(QRectF(towline.p1(), towline.p2()).normalized())
+        if glyph is not self._glyph or towline != self._towline:
+            # a live solve changes the pulls of tugs that stay where they are
+            self._towline = towline
+            self._glyph = glyph
+            self._shape = QPainterPath()
+            self._shape.addPolygon(glyph)
+            self._shape.closeSubpath()
+            rect = glyph.boundingRect()
+            if towline is not None:
+                rect = rect.united(QRectF(towline.p1(), towline.p2()).normalized())
+            self._still_rect = rect
+        rect = self._still_rect
         self.arrow_line = arrow
         if arrow is not None:
             self._shaft, self._head, r = arrow_parts(arrow[0], arrow[1], head)
@@ -751,21 +758,29 @@ class PiecedLine:
     def __init__(self, parent: QGraphicsItem, pieces: int = 24) -> None:
         self.pieces = [LineItem(parent) for _ in range(pieces)]
         self._line = QLineF()
+        self._pen = self.pieces[0].pen()
+        self._visible = True
 
     def setLine(self, line: QLineF) -> None:
         if line == self._line:
             return
         self._line = QLineF(line)
         n = len(self.pieces)
-        p, d = line.p1(), line.p2() - line.p1()
+        p = line.p1()
+        x0, y0, x1, y1 = line.x1(), line.y1(), line.x2(), line.y2()
+        dx, dy = x1 - x0, y1 - y0  # the ends worked out as QPointF arithmetic would
         for k, item in enumerate(self.pieces):
             item.dash_from = p
-            item.setLine(QLineF(p + d * (k / n), p + d * ((k + 1) / n)))
+            a, b = k / n, (k + 1) / n
+            item.setLine(x0 + dx * a, y0 + dy * a, x0 + dx * b, y0 + dy * b)
 
     def line(self) -> QLineF:
         return QLineF(self._line)
 
     def setPen(self, pen: QPen) -> None:
+        if pen == self._pen:
+            return  # set on every refresh: 24 pieces compared in C++ for nothing
+        self._pen = QPen(pen)
         for item in self.pieces:
             item.setPen(pen)
 
@@ -773,6 +788,9 @@ class PiecedLine:
         return self.pieces[0].pen()
 
     def setVisible(self, on: bool) -> None:
+        if on == self._visible:
+            return
+        self._visible = on
         for item in self.pieces:
             item.setVisible(on)
 
