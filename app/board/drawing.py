@@ -363,7 +363,12 @@ class TugDrawing:
         force_scale: float,
         head: float,
         text: Callable[[TugShare], str],
+        moving: bool = False,
     ) -> None:
+        """Draw the tug's share; ``moving``: a drag is under way (a pull that changes
+        alone is drawn apart from the rest, see TugItem)."""
+        if not moving and self.glyph.join():
+            self._changed()
         inputs = (point, direction, force_scale, head)
         if share is self._share and inputs == self._inputs:
             return  # the very share as before (a drag keeps the other tugs' shares)
@@ -387,7 +392,7 @@ class TugDrawing:
         # the force arrow starts where the force acts on the hull and points along it
         length = share.pull_n * force_scale
         arrow = (point, (point[0] + dx * length, point[1] + dy * length)) if length > 1e-6 else None
-        self.glyph.set_geometry(towline, glyph, arrow, head)
+        self.glyph.set_geometry(towline, glyph, arrow, head, apart=moving)
         # the label sits just beyond the tug's far end, away from the hull
         lx, ly = tug_label_anchor(share.mode, origin, direction, gap=0.0)
         self.label.setPos(lx, ly)
@@ -668,7 +673,9 @@ class BodyDrawing:
         force_scale: float,
         head: float,
         text: TugText,
+        moving: bool = False,
     ) -> None:
+        """Draw the tugs of ``balance``; ``moving``: a drag is under way."""
         shares = balance.shares if balance is not None else ()
         names = {s.tug for s in shares}
         for name in list(self.tugs):
@@ -679,7 +686,7 @@ class BodyDrawing:
             if d is None:
                 d = self.tugs[s.tug] = TugDrawing(self.root, s.tug, self.changes)
             point, direction = points[s.tug]
-            d.update(s, point, direction, force_scale, head, text)
+            d.update(s, point, direction, force_scale, head, text, moving)
 
     def remove(self) -> None:
         if self.root.scene() is not None:

@@ -530,6 +530,12 @@ class TugItem(QGraphicsItem):
 
     One item rather than three, so a board with many tugs has few items to draw; it is
     grabbed by its shape only.
+
+    While a drag moves the pulls of tugs that stay where they are (live solving), a tug
+    whose pull alone changes draws its arrow apart, in a child item (:class:`TugArrow`,
+    stacked just over it as the arrow is drawn now), so its picture of the towline and
+    the shape is kept and only the arrow is drawn again; :meth:`join` takes the arrow
+    back when the drag ends, so a tug at rest is drawn as one picture, as ever.
     """
 
     def __init__(self, parent: QGraphicsItem | None = None) -> None:
@@ -545,6 +551,10 @@ class TugItem(QGraphicsItem):
         self._head = QPolygonF()
         self._rect = QRectF()
         self._still_rect = QRectF()  # the towline's and the shape's box
+        self._arrow_rect = QRectF()  # the arrow's box
+        #: The arrow drawn apart while a drag changes the pull alone (None: in this item).
+        self._apart: TugArrow | None = None
+        self._spare: TugArrow | None = None  # the child kept hidden for the next drag
         #: (start, end) of the force arrow, m, for whoever checks the drawing
         self.arrow_line: tuple[tuple[float, float], tuple[float, float]] | None = None
 
@@ -554,9 +564,21 @@ class TugItem(QGraphicsItem):
         glyph: QPolygonF,
         arrow: tuple[tuple[float, float], tuple[float, float]] | None,
         head: float,
+        apart: bool = False,
     ) -> None:
+        """Take a new towline, shape and arrow; ``apart``: a drag is under way, and when
+        only the arrow changed it is drawn apart (the picture of the rest is kept)."""
+        still = glyph is self._glyph and towline == self._towline
+        self.arrow_line = arrow
+        if arrow is not None:
+            self._shaft, self._head, self._arrow_rect = arrow_parts(arrow[0], arrow[1], head)
+        else:
+            self._shaft, self._head, self._arrow_rect = QPainterPath(), QPolygonF(), QRectF()
+        if apart and still:
+            (self._apart or self._split()).set_parts(self._shaft, self._head, self._arrow_rect)
+            return
         self.prepareGeometryChange()
-        if glyph is not self._glyph or towline != self._towline:
+        if not still:
             # a live solve changes the pulls of tugs that stay where they are
             self._towline = towline
             self._glyph = glyph
@@ -567,15 +589,48 @@ class TugItem(QGraphicsItem):
             if towline is not None:
                 rect = rect.united(QRectF(towline.p1(), towline.p2()).normalized())
             self._still_rect = rect
-        rect = self._still_rect
-        self.arrow_line = arrow
-        if arrow is not None:
-            self._shaft, self._head, r = arrow_parts(arrow[0], arrow[1], head)
-            rect = rect.united(r)
-        else:
-            self._shaft, self._head = QPainterPath(), QPolygonF()
-        self._rect = rect.adjusted(-1.0, -1.0, 1.0, 1.0)
+        if self._apart is not None:
+            self._unsplit(self._apart)
+        self._rect = self._box()
         self.update()
+
+    def _box(self) -> QRectF:
+        rect = self._still_rect
+        if self._apart is None and not self._arrow_rect.isNull():
+            rect = rect.united(self._arrow_rect)
+        return rect.adjusted(-1.0, -1.0, 1.0, 1.0)
+
+    def _split(self) -> TugArrow:
+        """Draw the arrow apart from now on (this item's picture drawn once more, without)."""
+        arrow = self._spare or TugArrow(self)
+        self._spare = None
+        arrow.set_style(self._arrow_pen)
+        arrow.setVisible(True)
+        self._apart = arrow
+        self.prepareGeometryChange()
+        self._rect = self._box()
+        self.update()
+        return arrow
+
+    def _unsplit(self, arrow: TugArrow) -> None:
+        arrow.setVisible(False)
+        arrow.set_parts(QPainterPath(), QPolygonF(), QRectF())
+        self._spare, self._apart = arrow, None
+
+    def join(self) -> bool:
+        """Draw the arrow in this item again (the drag is over); whether it was apart."""
+        if self._apart is None:
+            return False
+        self.prepareGeometryChange()
+        self._unsplit(self._apart)
+        self._rect = self._box()
+        self.update()
+        return True
+
+    @property
+    def apart(self) -> bool:
+        """Whether the arrow is drawn apart (a drag changes this tug's pull alone)."""
+        return self._apart is not None
 
     @property
     def glyph(self) -> QPolygonF:
@@ -615,14 +670,56 @@ class TugItem(QGraphicsItem):
         painter.setPen(style.scaled_pen(self._edge_pen, k))
         painter.setBrush(self._fill)
         painter.drawPolygon(self._glyph)
-        symbols.paint_arrow(
-            painter,
-            style.scaled_pen(self._arrow_pen, k),
-            self._arrow_pen.color(),
-            self._shaft,
-            self._head,
-            1.0 * k,
-        )
+        if self._apart is None:
+            _paint_tug_arrow(painter, self._arrow_pen, self._shaft, self._head, k)
+
+
+def _paint_tug_arrow(
+    painter: QPainter, pen: QPen, shaft: QPainterPath, head: QPolygonF, k: float
+) -> None:
+    symbols.paint_arrow(painter, style.scaled_pen(pen, k), pen.color(), shaft, head, 1.0 * k)
+
+
+class TugArrow(QGraphicsItem):
+    """A tug's force arrow drawn apart from its tug while a drag changes its pull alone
+    (a child of the TugItem, so stacked over it as the arrow is there). Not grabbed: its
+    shape is empty, the tug is grabbed by its own shape."""
+
+    def __init__(self, parent: TugItem) -> None:
+        super().__init__(parent)
+        self._pen = QPen()
+        self._shaft = QPainterPath()
+        self._head = QPolygonF()
+        self._rect = QRectF()
+        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+
+    def set_style(self, pen: QPen) -> None:
+        self._pen = pen
+
+    def set_parts(self, shaft: QPainterPath, head: QPolygonF, rect: QRectF) -> None:
+        self.prepareGeometryChange()
+        self._shaft, self._head = shaft, head
+        self._rect = rect.adjusted(-1.0, -1.0, 1.0, 1.0) if not rect.isNull() else QRectF()
+        self.update()
+
+    def parts(self) -> tuple[QPainterPath, QPolygonF]:
+        """The shaft and the head drawn, in the tug's frame (m)."""
+        return self._shaft, self._head
+
+    @guarded(default=QRectF)
+    def boundingRect(self) -> QRectF:
+        return self._rect
+
+    @guarded(default=QPainterPath)
+    def shape(self) -> QPainterPath:
+        return QPainterPath()
+
+    @guarded
+    def paint(
+        self, painter: QPainter, option: QStyleOptionGraphicsItem, widget: QWidget | None = None
+    ) -> None:
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing)
+        _paint_tug_arrow(painter, self._pen, self._shaft, self._head, style.device_scale(painter))
 
 
 class MomentArrow(_ArrowItem):

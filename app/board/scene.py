@@ -194,7 +194,8 @@ class BoardScene(QGraphicsScene):
                 h.set_units(project.units)
             pose = self.pose(name, project)
             d.set_pose(pose, site_angle_deg(pose))
-            d.balance.set_moving(self.fixed_stage is None and self.controller.previewing)
+            moving = self.fixed_stage is None and self.controller.previewing
+            d.balance.set_moving(moving)
             if r is None:
                 d.set_tugs(None, {}, force_scale, head, self.tug_text)
                 d.balance.hide()
@@ -202,7 +203,7 @@ class BoardScene(QGraphicsScene):
             lay = r.layout
             pts, dirs = lay.points.tolist(), lay.directions.tolist()
             points = {p.tug: (tuple(pts[i]), tuple(dirs[i])) for i, p in enumerate(lay.placements)}
-            d.set_tugs(r.balance, points, force_scale, head, self.tug_text)  # type: ignore[arg-type]
+            d.set_tugs(r.balance, points, force_scale, head, self.tug_text, moving)  # type: ignore[arg-type]
             if r.balance.shares or r.balance.loads:
                 d.balance.update(
                     r.balance, body, project.units, force_scale, moment_scale, head, self.stale
