@@ -323,6 +323,7 @@ class TugDrawing:
     def __init__(self, root: Root, name: str, changes: Changes | None = None) -> None:
         self.changes = changes or Changes()
         self.name = name
+        self._root = root  # the labels' side on screen is worked out in its frame
         self.glyph = TugItem(root)
         self.glyph.setZValue(Z_TUG)
         self.glyph.setData(ROLE, ("tug", name))
@@ -398,7 +399,7 @@ class TugDrawing:
         self.label.setPos(lx, ly)
         self.label.set_text(text(share))
         away = direction if share.mode == "line" else (-dx, -dy)
-        a = math.radians(_screen_angle(self.label.parentItem(), away))
+        a = math.radians(_screen_angle(self._root, away))
         self.label.set_outward(math.cos(a), math.sin(a), 4.0)
 
     def set_dragging(self, on: bool) -> None:

@@ -822,7 +822,7 @@ class LineItem(QGraphicsLineItem):
         line = self.line()
         origin = line.p1() if self.dash_from is None else self.dash_from
         exposed = option.exposedRect  # type: ignore[attr-defined]
-        if not exposed.isEmpty() and not exposed.contains(self.boundingRect()):
+        if not exposed.isEmpty() and not self._inside(line, exposed):
             pad = 4.0 * max(exposed.width(), exposed.height()) / 1000.0
             clipped = clip_line(line, exposed.adjusted(-pad, -pad, pad, pad))
             if clipped is None:
@@ -840,6 +840,15 @@ class LineItem(QGraphicsLineItem):
             pen.setDashOffset((px / max(pen.widthF(), 1.0)) % period)
             painter.setPen(pen)
         painter.drawLine(line)
+
+    def _inside(self, line: QLineF, exposed: QRectF) -> bool:
+        """Whether ``exposed`` holds the line's box, its pen's width round it (the box Qt
+        works out strokes the line: ends well inside the exposed area answer first)."""
+        pad = max(self.pen().widthF(), 1.0)
+        inner = exposed.adjusted(pad, pad, -pad, -pad)
+        if inner.contains(line.p1()) and inner.contains(line.p2()):
+            return True
+        return exposed.contains(self.boundingRect())
 
 
 class PiecedLine:
