@@ -554,7 +554,6 @@ class TugItem(QGraphicsItem):
         self._arrow_rect = QRectF()  # the arrow's box
         #: The arrow drawn apart while a drag changes the pull alone (None: in this item).
         self._apart: TugArrow | None = None
-        self._spare: TugArrow | None = None  # the child kept hidden for the next drag
         #: (start, end) of the force arrow, m, for whoever checks the drawing
         self.arrow_line: tuple[tuple[float, float], tuple[float, float]] | None = None
 
@@ -602,20 +601,18 @@ class TugItem(QGraphicsItem):
 
     def _split(self) -> TugArrow:
         """Draw the arrow apart from now on (this item's picture drawn once more, without)."""
-        arrow = self._spare or TugArrow(self)
-        self._spare = None
-        arrow.set_style(self._arrow_pen)
-        arrow.setVisible(True)
-        self._apart = arrow
+        arrow = self._apart = TugArrow(self, self._arrow_pen)
         self.prepareGeometryChange()
         self._rect = self._box()
         self.update()
         return arrow
 
     def _unsplit(self, arrow: TugArrow) -> None:
-        arrow.setVisible(False)
-        arrow.set_parts(QPainterPath(), QPolygonF(), QRectF())
-        self._spare, self._apart = arrow, None
+        """Let the arrow apart go (out of the scene: at rest the tug is one item)."""
+        self._apart = None
+        arrow.setParentItem(None)
+        if arrow.scene() is not None:
+            arrow.scene().removeItem(arrow)
 
     def join(self) -> bool:
         """Draw the arrow in this item again (the drag is over); whether it was apart."""
@@ -685,16 +682,13 @@ class TugArrow(QGraphicsItem):
     (a child of the TugItem, so stacked over it as the arrow is there). Not grabbed: its
     shape is empty, the tug is grabbed by its own shape."""
 
-    def __init__(self, parent: TugItem) -> None:
+    def __init__(self, parent: TugItem, pen: QPen) -> None:
         super().__init__(parent)
-        self._pen = QPen()
+        self._pen = pen
         self._shaft = QPainterPath()
         self._head = QPolygonF()
         self._rect = QRectF()
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
-
-    def set_style(self, pen: QPen) -> None:
-        self._pen = pen
 
     def set_parts(self, shaft: QPainterPath, head: QPolygonF, rect: QRectF) -> None:
         self.prepareGeometryChange()

@@ -86,6 +86,7 @@ def test_a_pull_that_changes_alone_draws_its_arrow_again_not_its_tug(view, paint
     c.cancel_preview()
     QApplication.processEvents()
     assert not any(t.glyph.apart for t in tugs.values())
+    assert not [i for i in view.board.items() if isinstance(i, TugArrow)]  # let go
     # the same plan at rest: drawn as it was before the drag, pixel for pixel
     view.viewport().repaint()
     assert _most_apart(at_rest, _screen(view)) == 0
