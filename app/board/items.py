@@ -127,7 +127,6 @@ class Label(QGraphicsItem):
         lines = text.split("\n") if text else []
         if lines == self._lines:
             return
-        self.prepareGeometryChange()
         self._lines = lines
         fm = self._fm
         # a little spare width: printers' font metrics run wider than the screen's
@@ -142,7 +141,10 @@ class Label(QGraphicsItem):
             dx -= w + 6
         elif self._align == "centre":
             dx -= (w + 6) / 2
-        self._rect = QRectF(dx, dy - h / 2 - 2, w + 6, h + 4).translated(*self._shift)
+        rect = QRectF(dx, dy - h / 2 - 2, w + 6, h + 4).translated(*self._shift)
+        if rect != self._rect:  # new figures of the same width keep the box (and its place
+            self.prepareGeometryChange()  # in the scene's index): a drag's labels, often
+        self._rect = rect
         self._aim_leader()
         self.update()
 

@@ -73,6 +73,7 @@ class BoardScene(QGraphicsScene):
         self.interaction = Interaction(self)
         self._fixed_results: dict[str, BodyResult] | None = None
         self._units = controller.project.units
+        self._rect_key: tuple[object, list[tuple[object, BodyPose]]] | None = None
         #: Grid snap: on or off, and the step in the display length unit.
         self.snap_on = False
         self.grid_step = 1.0
@@ -218,7 +219,21 @@ class BoardScene(QGraphicsScene):
             hook(self)
 
     def _update_rect(self) -> None:
-        # room to pan round the bodies and the whole site
+        # room to pan round the bodies and the whole site; the same bodies where they
+        # were and the same site (a tug drag's moves) give the same room
+        key = (
+            self.controller.project.site,
+            [(d.body, self.pose(name)) for name, d in self.bodies.items()],
+        )
+        old = self._rect_key
+        if (
+            old is not None
+            and old[0] is key[0]
+            and len(old[1]) == len(key[1])
+            and all(a[0] is b[0] and a[1] == b[1] for a, b in zip(old[1], key[1], strict=True))
+        ):
+            return
+        self._rect_key = key
         box = self.bodies_rect()
         site = self.features_rect()
         box = site if box.isNull() else (box if site.isNull() else box.united(site))
