@@ -31,6 +31,7 @@ Everything on screen reads :class:`Controller` and writes back through it:
 
 from __future__ import annotations
 
+import time
 from collections.abc import Callable, Hashable
 from dataclasses import dataclass, fields, replace
 from pathlib import Path
@@ -182,6 +183,9 @@ class Controller(QObject):
         self._stage_index = 0
         self._path: Path | None = None
         self._preview_base: Project | None = None
+        #: When the preview shown was asked for (perf_counter seconds): a drag's move as it
+        #: began, before live solving and the views (what paces work between the moves).
+        self.previewed_at = 0.0
         self._results: dict[str, BodyResult] | None = None
         self._results_override: dict[str, BodyResult] | None = None
         self._all_but_placements: tuple[Project, int, tuple[object, ...]] | None = None
@@ -398,19 +402,12 @@ class Controller(QObject):
         if problem is not None:
             raise problem
 
-    def preview(self, new: Project, results: dict[str, BodyResult] | None = None) -> None:
-        """Show ``new`` live (a drag in progress) without recording it.
-
-        ``results`` may carry the bodies' results already computed for ``new`` (the
-        fast drag path), so they are not computed twice.
-        """
-        parts = None if results is None else {n: BodyParts.of(r) for n, r in results.items()}
-        filtered = self._filtered(new, parts)
-        self._refuse_broken(filtered)
-        if filtered is not new:
-            results = None if parts is None else self._with_settings(parts, filtered)
-            new = filtered
-        self._show_preview(new, results)
+    def preview(self, new: Project) -> None:
+        """Show ``new`` live (a drag in progress) without recording it."""
+        self.previewed_at = time.perf_counter()
+        new = self._filtered(new)
+        self._refuse_broken(new)
+        self._show_preview(new, None)
 
     def preview_moved_tug(self, new: Project, body: str, layout: TugLayout, row: int) -> None:
         """Show a tug drag's move: ``new`` is the plan shown with one tug of ``body``
@@ -420,6 +417,7 @@ class Controller(QObject):
         The balance is worked out once: for the plan the edit filters give when they
         change the settings (live solving), else for the one row.
         """
+        self.previewed_at = time.perf_counter()
         results = self.results()
         r = results[body]
         parts = {n: BodyParts.of(x) for n, x in results.items()}

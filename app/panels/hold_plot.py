@@ -487,12 +487,13 @@ class HoldLimitsPanel(QWidget):
             self._timer.start()
 
     def _paced(self) -> None:
-        """Note a drag's move: when it came and the moves' recent spacing."""
-        now = time.perf_counter()
-        if self._moved_at is not None and now - self._moved_at < STARVED_S:
-            gap = max(now - self._moved_at, LEAST_GAP_S)
+        """Note a drag's move: when it began (before live solving and the views, which
+        run before this is told) and the moves' recent spacing."""
+        began = self.controller.previewed_at
+        if self._moved_at is not None and 0 < began - self._moved_at < STARVED_S:
+            gap = max(began - self._moved_at, LEAST_GAP_S)
             self._move_gap = 0.7 * self._move_gap + 0.3 * gap
-        self._moved_at = now
+        self._moved_at = began
 
     def _room(self, piece: str) -> bool:
         """Whether the sweep's ``piece`` may run now: it ends before the next move is due,
