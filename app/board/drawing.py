@@ -17,6 +17,7 @@ from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
 from app.board.items import (
     CACHE,
+    FIXED_CACHE,
     GUIDE,
     NO_CACHE,
     ROLE,
@@ -405,8 +406,8 @@ class TugDrawing:
     def set_dragging(self, on: bool) -> None:
         """While dragged, the tug is drawn directly: a pixmap cache would be remade every move."""
         self._changed()
-        for item in (self.glyph, self.label):
-            item.setCacheMode(NO_CACHE if on else CACHE)
+        self.glyph.setCacheMode(NO_CACHE if on else CACHE)
+        self.label.setCacheMode(NO_CACHE if on else FIXED_CACHE)
 
     def set_selected(self, on: bool) -> None:
         if on == self._selected:

@@ -53,6 +53,11 @@ GUIDE = 1
 IGNORES = QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations
 #: Fixed-size items are kept as pixmaps on screen (render_board turns this off to print).
 CACHE = QGraphicsItem.CacheMode.DeviceCoordinateCache
+#: Items fixed in pixels keep theirs in their own (pixel) frame: the picture is then the same
+#: wherever the item lies. A device cache kept the sub-pixel place it was first drawn at when
+#: the item moved by a fraction of a pixel, until a repaint drew part of it afresh: the text
+#: then stood half a pixel apart from what a full repaint draws.
+FIXED_CACHE = QGraphicsItem.CacheMode.ItemCoordinateCache
 NO_CACHE = QGraphicsItem.CacheMode.NoCache
 
 
@@ -90,7 +95,7 @@ class Label(QGraphicsItem):
         #: True for a label the placer leaves where it is (the others keep clear of it).
         self.fixed = False
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
-        self.setCacheMode(CACHE)
+        self.setCacheMode(FIXED_CACHE)
         self.set_text(text)
 
     @property
@@ -262,7 +267,7 @@ class Mark(QGraphicsItem):
         self.size = size
         self.color = style.TEXT
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
-        self.setCacheMode(CACHE)
+        self.setCacheMode(FIXED_CACHE)
 
     @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
@@ -301,7 +306,7 @@ class Handle(QGraphicsItem):
         self.setFlag(IGNORES)
         self.size = size
         self.selected = False
-        self.setCacheMode(CACHE)
+        self.setCacheMode(FIXED_CACHE)
 
     @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
@@ -335,7 +340,7 @@ class FittingMark(QGraphicsItem):
         self.kind = kind
         self.selected = False
         self.angle_deg = 0.0  # screen angle of the hull edge, for the push pad's bar
-        self.setCacheMode(CACHE)
+        self.setCacheMode(FIXED_CACHE)
 
     @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
@@ -770,41 +775,18 @@ class PathItem(QGraphicsPathItem):
         painter.drawPath(self.path())
 
 
-def clip_line(line: QLineF, rect: QRectF) -> QLineF | None:
-    """The part of ``line`` inside ``rect`` (Liang-Barsky), None when it misses."""
-    x0, y0 = line.x1(), line.y1()
-    dx, dy = line.x2() - x0, line.y2() - y0
-    t0, t1 = 0.0, 1.0
-    for p, q in (
-        (-dx, x0 - rect.left()),
-        (dx, rect.right() - x0),
-        (-dy, y0 - rect.top()),
-        (dy, rect.bottom() - y0),
-    ):
-        if p == 0:
-            if q < 0:
-                return None
-            continue
-        r = q / p
-        if p < 0:
-            t0 = max(t0, r)
-        else:
-            t1 = min(t1, r)
-        if t0 > t1:
-            return None
-    return QLineF(x0 + t0 * dx, y0 + t0 * dy, x0 + t1 * dx, y0 + t1 * dy)
-
-
 class LineItem(QGraphicsLineItem):
     """A line with a cosmetic pen that keeps its screen width on any device.
 
-    Only the part inside the exposed area is drawn, so a line of action running far
-    off the board costs no more than its visible part.
+    The whole line is handed to the painter, whatever part of it is exposed: the painter
+    clips it to what is repainted and keeps its dashes where the whole line has them.
+    Clipped here first, a dashed line started its dashes at the clip's edge, a fraction
+    of a pixel from where the whole line has them, so a repaint of part of the board left
+    dashes a pixel apart from a full repaint's.
     """
 
     def __init__(self, parent: QGraphicsItem | None = None) -> None:
         super().__init__(parent)
-        self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemUsesExtendedStyleOption)
         #: Where the dashes are counted from (parent frame), when the line is a piece of a
         #: longer one (:class:`PiecedLine`); None: from the line's own start.
         self.dash_from: QPointF | None = None
@@ -817,13 +799,6 @@ class LineItem(QGraphicsLineItem):
         painter.setPen(style.scaled_pen(own, style.device_scale(painter)))
         line = self.line()
         origin = line.p1() if self.dash_from is None else self.dash_from
-        exposed = option.exposedRect  # type: ignore[attr-defined]
-        if not exposed.isEmpty() and not self._inside(line, exposed):
-            pad = 4.0 * max(exposed.width(), exposed.height()) / 1000.0
-            clipped = clip_line(line, exposed.adjusted(-pad, -pad, pad, pad))
-            if clipped is None:
-                return
-            line = clipped
         if own.style() != Qt.PenStyle.SolidLine and line.p1() != origin:
             # keep the dashes where they would be on the whole line: a cosmetic pen's
             # dashes are counted in device pixels along the line's major axis
@@ -836,15 +811,6 @@ class LineItem(QGraphicsLineItem):
             pen.setDashOffset((px / max(pen.widthF(), 1.0)) % period)
             painter.setPen(pen)
         painter.drawLine(line)
-
-    def _inside(self, line: QLineF, exposed: QRectF) -> bool:
-        """Whether ``exposed`` holds the line's box, its pen's width round it (the box Qt
-        works out strokes the line: ends well inside the exposed area answer first)."""
-        pad = max(self.pen().widthF(), 1.0)
-        inner = exposed.adjusted(pad, pad, -pad, -pad)
-        if inner.contains(line.p1()) and inner.contains(line.p2()):
-            return True
-        return exposed.contains(self.boundingRect())
 
 
 class PiecedLine:

@@ -356,7 +356,7 @@ def _tug_drawing(window, tug: str):  # type: ignore[no-untyped-def]
 def test_a_drag_ended_without_a_release_leaves_the_tug_in_its_resting_look(
     window, qtbot, ending: str
 ) -> None:  # type: ignore[no-untyped-def]
-    from app.board.items import CACHE, NO_CACHE
+    from app.board.items import CACHE, FIXED_CACHE, NO_CACHE
 
     c = window.controller
     view = window.view
@@ -378,7 +378,7 @@ def test_a_drag_ended_without_a_release_leaves_the_tug_in_its_resting_look(
     assert window.board.interaction.drag is None
     for drawing in {id(dragged): dragged, 0: _tug_drawing(window, "Gannet")}.values():
         assert drawing.glyph.cacheMode() == CACHE
-        assert drawing.label.cacheMode() == CACHE
+        assert drawing.label.cacheMode() == FIXED_CACHE
 
 
 def test_right_clicks_leave_no_menus_behind(window, qtbot) -> None:  # type: ignore[no-untyped-def]
