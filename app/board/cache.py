@@ -1,8 +1,9 @@
 """Qt's picture cache, sized for the board.
 
-Items drawn with ``DeviceCoordinateCache`` (the hull, the tugs, fixed-size marks and
-labels) each keep a pixmap in ``QPixmapCache``, the one cache of the whole program that
-also holds the style's pictures (the docks' title buttons, arrows, check marks). Its
+Cached items (the hull and the tugs in device pixels, fixed-size marks and labels in
+their own pixel frame) each keep a pixmap in ``QPixmapCache``, the one cache of the
+whole program that also holds the style's pictures (the docks' title buttons, arrows,
+check marks). Its
 default size (10 MB) holds the board of a small plan at one device pixel per pixel; 200
 tugs on a high-density screen need several times that. When the board's pixmaps do not
 fit, Qt throws the oldest out and draws them again on the next frame, so every frame
