@@ -466,6 +466,24 @@ def test_the_plot_follows_a_drag_at_five_degrees(holding, qtbot) -> None:  # typ
     )
 
 
+def _live_plot(holding, qtbot):  # type: ignore[no-untyped-def]
+    """Live solving on, the window shown and the hold plot settled: the controller, the
+    plot's panel, and a move of the drag (Gannet's lead turned by ``by`` rad from where it
+    was)."""
+    c = holding.controller
+    holding.solve_ui.set_live(True)
+    holding.show()
+    hold = holding.solve_ui.hold
+    qtbot.waitUntil(lambda: not hold._timer.isActive())
+    stage = c.stage
+    p = stage.placement("Gannet")
+
+    def turn(by: float) -> None:
+        c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + by))))
+
+    return c, hold, turn
+
+
 def test_the_plot_sweeps_between_the_moves_of_a_drag_and_shows_the_final_limits(
     holding, qtbot
 ) -> None:  # type: ignore[no-untyped-def]
@@ -473,27 +491,21 @@ def test_the_plot_sweeps_between_the_moves_of_a_drag_and_shows_the_final_limits(
     loop goes idle (not inside a move); the drag's end shows the stage result's limits."""
     from app.panels import hold_plot
 
-    c = holding.controller
-    holding.solve_ui.set_live(True)
-    holding.show()
-    hold = holding.solve_ui.hold
-    qtbot.waitUntil(lambda: not hold._timer.isActive())
-    p = c.stage.placement("Gannet")
-    stage = c.stage
+    c, hold, turn = _live_plot(holding, qtbot)
     for k in range(1, 6):  # five moves handled one after another, the loop not idle
-        c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.05 * k))))
+        turn(0.05 * k)
     assert hold.drag_sweeps == 0
     qtbot.waitUntil(lambda: hold.drag_sweeps == 1)
     shown = hold.limits
     assert shown is not None and len(shown.problem.directions_deg) == 72
-    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.4))))
+    turn(0.4)
     qtbot.wait(round(hold_plot.FOLLOW_EVERY_S * 500))  # within its turn: the plot waits
     assert hold.drag_sweeps == 1 and hold.limits is shown
     qtbot.waitUntil(lambda: hold.drag_sweeps == 2)
     # a costly sweep (a large fleet) waits for the mouse to rest
     hold._sweep_cost = 2 * hold_plot.COSTLY_S
     for k in range(3):
-        c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.5 + 0.05 * k))))
+        turn(0.5 + 0.05 * k)
         qtbot.wait(round(hold_plot.REST_S * 300))
     assert hold.drag_sweeps == 2
     qtbot.waitUntil(lambda: hold.drag_sweeps == 3)
@@ -509,15 +521,9 @@ def test_a_drag_sweep_is_worked_in_steps_and_shown_whole(holding, qtbot) -> None
     curves as a sweep in one go; the drag's end shows what a direct sweep gives."""
     from core.solve.holdlimits import live_hold_limits
 
-    c = holding.controller
-    holding.solve_ui.set_live(True)
-    holding.show()
-    hold = holding.solve_ui.hold
-    qtbot.waitUntil(lambda: not hold._timer.isActive())
+    c, hold, turn = _live_plot(holding, qtbot)
     shown = hold.limits
-    stage = c.stage
-    p = stage.placement("Gannet")
-    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    turn(0.2)
     hold._follow_drag()  # its turn has come: the sweep starts, nothing is shown yet
     assert hold._job is not None and hold.limits is shown
     hold._step()
@@ -547,35 +553,25 @@ def test_a_sweep_step_waits_for_room_between_the_moves(holding, qtbot) -> None: 
     mouse rests or the sweep has waited long enough (a mouse faster than the board)."""
     from app.panels import hold_plot
 
-    c = holding.controller
-    holding.solve_ui.set_live(True)
-    holding.show()
-    hold = holding.solve_ui.hold
-    qtbot.waitUntil(lambda: not hold._timer.isActive())
-    stage = c.stage
-    p = stage.placement("Gannet")
-
-    def move(turn: float) -> None:
-        c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + turn))))
-
-    move(0.2)
+    c, hold, turn = _live_plot(holding, qtbot)
+    turn(0.2)
     hold._follow_drag()
     assert hold._job is not None
     hold._move_gap = 1.0  # the next move is due in a second (however slow this machine)
     hold._piece_cost["step"] = 10.0  # a step longer than that
     hold._step()
     assert hold._held == "step" and hold._job is not None and hold.drag_sweeps == 0
-    move(0.25)  # the next move: the step's turn comes after it
+    turn(0.25)  # the next move: the step's turn comes after it
     assert hold._held is None
     qtbot.waitUntil(lambda: hold.drag_sweeps >= 1)  # the mouse rests: the steps run
     # moves that never leave room: the sweep still ends, once it has waited STARVED_S
     hold._piece_cost["step"] = 10.0
-    move(0.3)
+    turn(0.3)
     started = hold.drag_sweeps
     for k in range(round(4 * hold_plot.STARVED_S / 0.004)):
         if hold.drag_sweeps > started:
             break
-        move(0.3 + 0.001 * k)
+        turn(0.3 + 0.001 * k)
         qtbot.wait(4)
     assert hold.drag_sweeps > started
     c.cancel_preview()
@@ -584,15 +580,9 @@ def test_a_sweep_step_waits_for_room_between_the_moves(holding, qtbot) -> None: 
 def test_a_finished_sweep_is_shown_when_there_is_room_for_the_plots_paint(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
     """The sweep's last step keeps its result; showing it (and the plot's paint that
     follows) is a piece of its own, which waits for room between moves like a step."""
-    c = holding.controller
-    holding.solve_ui.set_live(True)
-    holding.show()
-    hold = holding.solve_ui.hold
-    qtbot.waitUntil(lambda: not hold._timer.isActive())
+    c, hold, turn = _live_plot(holding, qtbot)
     shown = hold.limits
-    stage = c.stage
-    p = stage.placement("Gannet")
-    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    turn(0.2)
     hold._follow_drag()
     job = hold._job
     while job.result is None:
@@ -614,17 +604,11 @@ def test_moves_made_while_a_sweep_is_under_way_are_swept_once_it_ends(holding, q
     mouse at rest is shown where it rests."""
     from core.solve.holdlimits import live_hold_limits
 
-    c = holding.controller
-    holding.solve_ui.set_live(True)
-    holding.show()
-    hold = holding.solve_ui.hold
-    qtbot.waitUntil(lambda: not hold._timer.isActive())
-    stage = c.stage
-    p = stage.placement("Gannet")
-    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    c, hold, turn = _live_plot(holding, qtbot)
+    turn(0.2)
     hold._follow_drag()
     assert hold._job is not None
-    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.4))))
+    turn(0.4)
     qtbot.waitUntil(lambda: hold.drag_sweeps >= 2)  # the second with no move after it
     problem = hold_limits_problem(
         c.project, c.stage, "Barge", directions_deg=np.arange(0.0, 360.0, 5.0)
@@ -635,14 +619,8 @@ def test_moves_made_while_a_sweep_is_under_way_are_swept_once_it_ends(holding, q
 
 
 def test_a_drag_sweep_under_way_is_dropped_when_the_drag_ends(holding, qtbot) -> None:  # type: ignore[no-untyped-def]
-    c = holding.controller
-    holding.solve_ui.set_live(True)
-    holding.show()
-    hold = holding.solve_ui.hold
-    qtbot.waitUntil(lambda: not hold._timer.isActive())
-    stage = c.stage
-    p = stage.placement("Gannet")
-    c.preview(c.with_stage(stage.with_placement(p.with_lead(p.lead_rad + 0.2))))
+    c, hold, turn = _live_plot(holding, qtbot)
+    turn(0.2)
     hold._follow_drag()
     assert hold._job is not None
     c.cancel_preview()
