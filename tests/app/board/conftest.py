@@ -5,7 +5,7 @@ from __future__ import annotations
 from pathlib import Path
 
 import pytest
-from PySide6.QtCore import QEvent, QPoint, QPointF, Qt
+from PySide6.QtCore import QEvent, QPoint, QPointF, QSize, Qt
 from PySide6.QtGui import QMouseEvent
 from PySide6.QtWidgets import QApplication
 
@@ -98,3 +98,26 @@ def move_with_button(view, pt: QPoint) -> None:  # type: ignore[no-untyped-def]
         Qt.KeyboardModifier.NoModifier,
     )
     QApplication.sendEvent(vp, ev)
+
+
+def send_mouse(view, kind: QEvent.Type, pt: QPointF, buttons: Qt.MouseButton) -> None:  # type: ignore[no-untyped-def]
+    """A mouse press, move or release with the left button, sent to the viewport at ``pt``
+    (pixels, may be fractional), the events it leads to handled."""
+    vp = view.viewport()
+    button = Qt.MouseButton.NoButton if kind == QEvent.Type.MouseMove else Qt.MouseButton.LeftButton
+    ev = QMouseEvent(
+        kind, pt, QPointF(vp.mapToGlobal(pt.toPoint())), button, buttons,
+        Qt.KeyboardModifier.NoModifier,
+    )  # fmt: skip
+    QApplication.sendEvent(vp, ev)
+    QApplication.processEvents()
+
+
+def show_fitted(qtbot, widget, view, size: QSize) -> None:  # type: ignore[no-untyped-def]
+    """Show ``widget`` at ``size``, exposed, with its board ``view`` fitted to the hull."""
+    qtbot.addWidget(widget)
+    widget.resize(size)
+    widget.show()
+    qtbot.waitExposed(widget)
+    view.fit_to_hull()
+    QApplication.processEvents()

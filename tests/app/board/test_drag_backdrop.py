@@ -12,13 +12,14 @@ import math
 
 import pytest
 from PySide6.QtCore import QEvent, QPointF, QSize, Qt
-from PySide6.QtGui import QImage, QMouseEvent
+from PySide6.QtGui import QImage
 from PySide6.QtWidgets import QApplication, QGraphicsItem
 
 from core.model.hull import Fitting, Hull
 from core.model.outlines import box_outline
 from core.model.plan import BodyPose, Project, Stage
 from core.model.tugs import Placement, Tug
+from tests.app.board.conftest import send_mouse, show_fitted
 
 NO_CONTENTS = QGraphicsItem.GraphicsItemFlag.ItemHasNoContents
 LEFT = Qt.MouseButton.LeftButton
@@ -49,26 +50,10 @@ def board(qtbot):  # type: ignore[no-untyped-def]
 
         scene = BoardScene(Controller(crowded(n_tugs)))
         view = BoardView(scene)
-        qtbot.addWidget(view)
-        view.resize(QSize(900, 700))
-        view.show()
-        qtbot.waitExposed(view)
-        view.fit_to_hull()
-        QApplication.processEvents()
+        show_fitted(qtbot, view, view, QSize(900, 700))
         return view
 
     return make
-
-
-def _send(view, kind: QEvent.Type, pt: QPointF, buttons: Qt.MouseButton) -> None:  # type: ignore[no-untyped-def]
-    vp = view.viewport()
-    button = Qt.MouseButton.NoButton if kind == QEvent.Type.MouseMove else LEFT
-    ev = QMouseEvent(
-        kind, pt, QPointF(vp.mapToGlobal(pt.toPoint())), button, buttons,
-        Qt.KeyboardModifier.NoModifier,
-    )  # fmt: skip
-    QApplication.sendEvent(vp, ev)
-    QApplication.processEvents()
 
 
 def _grip(view, tug: str) -> QPointF:  # type: ignore[no-untyped-def]
@@ -80,9 +65,9 @@ def _grip(view, tug: str) -> QPointF:  # type: ignore[no-untyped-def]
 
 def _start(view, tug: str, moves: int = 3) -> QPointF:  # type: ignore[no-untyped-def]
     at = _grip(view, tug)
-    _send(view, QEvent.Type.MouseButtonPress, at, LEFT)
+    send_mouse(view, QEvent.Type.MouseButtonPress, at, LEFT)
     for k in range(1, moves + 1):
-        _send(view, QEvent.Type.MouseMove, at + QPointF(4.0 * k, 3.0 * k), LEFT)
+        send_mouse(view, QEvent.Type.MouseMove, at + QPointF(4.0 * k, 3.0 * k), LEFT)
     return at + QPointF(4.0 * moves, 3.0 * moves)
 
 
@@ -141,7 +126,7 @@ def test_the_drag_end_lets_the_pictures_go(board) -> None:  # type: ignore[no-un
     before = {id(i) for i in view.board.items() if i.flags() & NO_CONTENTS}
     end = _start(view, "T020")
     assert view.backdrop.frozen
-    _send(view, QEvent.Type.MouseButtonRelease, end, Qt.MouseButton.NoButton)
+    send_mouse(view, QEvent.Type.MouseButtonRelease, end, Qt.MouseButton.NoButton)
     assert not view.backdrop.frozen
     assert {id(i) for i in view.board.items() if i.flags() & NO_CONTENTS} == before
     assert view.board.controller.undo_stack.count() == 1  # the move was recorded
@@ -154,12 +139,12 @@ def test_a_zoom_or_a_still_tug_changing_under_the_drag_lets_them_go(board) -> No
     view.zoom(1.2)
     QApplication.processEvents()  # the next paint finds the view moved
     assert not view.backdrop.frozen
-    _send(view, QEvent.Type.MouseButtonRelease, at, Qt.MouseButton.NoButton)
+    send_mouse(view, QEvent.Type.MouseButtonRelease, at, Qt.MouseButton.NoButton)
     at = _start(view, "T030")
     assert view.backdrop.frozen
     view.board.set_tug_notes({"T100": "a note"})  # another tug's label is written again
     assert not view.backdrop.frozen
-    _send(view, QEvent.Type.MouseMove, at + QPointF(5, 5), LEFT)
+    send_mouse(view, QEvent.Type.MouseMove, at + QPointF(5, 5), LEFT)
     assert not view.backdrop.frozen  # not taken again in this drag
     label = view.board.bodies["Crowded"].tugs["T100"].label
     assert "a note" in label.text and not label.flags() & NO_CONTENTS
@@ -197,7 +182,7 @@ def test_what_the_moves_left_on_screen_is_the_board_painted_afresh(board) -> Non
     view.viewport().installEventFilter(watch)
     for k in range(1, 15):  # round a loop: the net force and the yaw swing about
         a = 2 * math.pi * k / 15
-        _send(
+        send_mouse(
             view,
             QEvent.Type.MouseMove,
             at + QPointF(60 * math.sin(a), 40 * (1 - math.cos(a))),
@@ -215,7 +200,7 @@ def test_what_the_moves_left_on_screen_is_the_board_painted_afresh(board) -> Non
     port = view.viewport().width() * view.viewport().height()
     areas = [sum(r.width() * r.height() for r in region) for region in regions]
     assert areas and max(areas) < port / 2
-    _send(view, QEvent.Type.MouseButtonRelease, at, Qt.MouseButton.NoButton)
+    send_mouse(view, QEvent.Type.MouseButtonRelease, at, Qt.MouseButton.NoButton)
     # at rest, the arrows have their own boxes again
     assert net.boundingRect() == net._rect
     assert d.balance.moment.boundingRect() == d.balance.moment._rect

@@ -13,9 +13,10 @@ from __future__ import annotations
 import numpy as np
 import pytest
 from PySide6.QtCore import QEvent, QPoint, QPointF, QSize, Qt
-from PySide6.QtGui import QImage, QKeyEvent, QMouseEvent
+from PySide6.QtGui import QImage, QKeyEvent
 from PySide6.QtWidgets import QApplication
 
+from tests.app.board.conftest import send_mouse, show_fitted
 from tests.app.board.test_drag_backdrop import crowded
 
 LEFT = Qt.MouseButton.LeftButton
@@ -30,26 +31,10 @@ def window(qtbot):  # type: ignore[no-untyped-def]
         from app.window.main_window import MainWindow
 
         w = MainWindow(crowded(n_tugs))
-        qtbot.addWidget(w)
-        w.resize(QSize(1400, 900))
-        w.show()
-        qtbot.waitExposed(w)
-        w.view.fit_to_hull()
-        QApplication.processEvents()
+        show_fitted(qtbot, w, w.view, QSize(1400, 900))
         return w
 
     return make
-
-
-def _send(view, kind: QEvent.Type, pt: QPointF, buttons: Qt.MouseButton) -> None:  # type: ignore[no-untyped-def]
-    vp = view.viewport()
-    button = Qt.MouseButton.NoButton if kind == QEvent.Type.MouseMove else LEFT
-    ev = QMouseEvent(
-        kind, pt, QPointF(vp.mapToGlobal(pt.toPoint())), button, buttons,
-        Qt.KeyboardModifier.NoModifier,
-    )  # fmt: skip
-    QApplication.sendEvent(vp, ev)
-    QApplication.processEvents()
 
 
 def _escape(view) -> None:  # type: ignore[no-untyped-def]
@@ -68,10 +53,10 @@ def _grip(view, tug: str) -> QPointF:  # type: ignore[no-untyped-def]
 def _drag(view, tug: str, steps: list[tuple[float, float]]) -> QPointF:  # type: ignore[no-untyped-def]
     """Press on ``tug`` and move the mouse by ``steps`` (px), the button held."""
     at = _grip(view, tug)
-    _send(view, QEvent.Type.MouseButtonPress, at, LEFT)
+    send_mouse(view, QEvent.Type.MouseButtonPress, at, LEFT)
     for dx, dy in steps:
         at = at + QPointF(dx, dy)
-        _send(view, QEvent.Type.MouseMove, at, LEFT)
+        send_mouse(view, QEvent.Type.MouseMove, at, LEFT)
     return at
 
 
@@ -119,7 +104,7 @@ def test_a_drag_let_go_called_off_undone_and_redone_leaves_the_board_as_painted_
     for k, tug in enumerate(tugs[:: max(1, len(tugs) // 5)][:5]):
         steps = wander[k:] + wander[:k]
         at = _drag(view, tug, steps)
-        _send(view, QEvent.Type.MouseButtonRelease, at, Qt.MouseButton.NoButton)
+        send_mouse(view, QEvent.Type.MouseButtonRelease, at, Qt.MouseButton.NoButton)
         found.append(("let go", tug, _stale(w)))
         _drag(view, tug, steps[::-1])
         _escape(view)

@@ -14,6 +14,7 @@ from PySide6.QtWidgets import QApplication
 
 from app.board.items import TugArrow, TugItem
 from core.model.plan import BodyPose
+from tests.app.board.conftest import show_fitted
 from tests.app.board.test_drag_backdrop import _most_apart, _screen, crowded
 
 
@@ -43,12 +44,7 @@ def view(qtbot, painted):  # type: ignore[no-untyped-def]
     east = (BodyPose("Crowded", 0.0, 0.0, 90.0),)
     plan = replace(plan, stages=(replace(plan.stages[0], poses=east),))
     v = BoardView(BoardScene(Controller(plan)))
-    qtbot.addWidget(v)
-    v.resize(QSize(900, 700))
-    v.show()
-    qtbot.waitExposed(v)
-    v.fit_to_hull()
-    QApplication.processEvents()
+    show_fitted(qtbot, v, v, QSize(900, 700))
     return v
 
 
