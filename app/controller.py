@@ -186,6 +186,9 @@ class Controller(QObject):
         #: When the preview shown was asked for (perf_counter seconds): a drag's move as it
         #: began, before live solving and the views (what paces work between the moves).
         self.previewed_at = 0.0
+        #: How many times the window started afresh on a plan (file new / open): a view
+        #: keeping something of the plan shown knows by it that another plan came.
+        self.plans_opened = 0
         self._results: dict[str, BodyResult] | None = None
         self._results_override: dict[str, BodyResult] | None = None
         self._all_but_placements: tuple[Project, int, tuple[object, ...]] | None = None
@@ -480,6 +483,7 @@ class Controller(QObject):
         """Start afresh on ``project`` (file new / open): clears undo and marks clean."""
         self._preview_base = None
         self._results_override = None
+        self.plans_opened += 1
         self.undo_stack.clear()
         self._path = path
         self._stage_index = 0

@@ -2,7 +2,9 @@
 
 :class:`VerdictView` reads the verdict of the stage shown from the one stage result
 (``controller.stage_result()``) shortly after each change, never during a drag's mouse
-moves (it says "updating" then), and never works anything out itself.
+moves, and never works anything out itself. Until it has read it, it says so: "updating"
+after the verdict of the stage shown, or "working out" when another stage or plan is
+shown (a verdict of the plan as it was is never shown as the plan's).
 """
 
 from __future__ import annotations
@@ -54,7 +56,12 @@ class VerdictView(QLabel):
         self.controller = controller
         self.brief = brief
         self.verdict: Verdict | None = None
+        #: The plan (its number among those opened) and stage the verdict shown is of.
+        self._of: tuple[int, int] | None = None
+        #: The verdict shown is not the plan's (since a change); for which plan and stage
+        #: it says so.
         self._stale = False
+        self._stale_for: tuple[int, int] | None = None
         self.setObjectName("verdict_brief" if brief else "verdict")
         self.setTextFormat(Qt.TextFormat.RichText)
         self.setWordWrap(True)
@@ -72,15 +79,27 @@ class VerdictView(QLabel):
 
     @guarded
     def _changed(self) -> None:
+        self._mark_stale()
         if self.controller.previewing:
             # a refresh due from before the drag would work out the stage result of a
             # plan the mouse is still moving: the drag's end brings it up to date
             self._timer.stop()
-            if self.verdict is not None and not self._stale:
-                self._stale = True
-                self.setText(self.text() + " <i style='color:#607d8b'>(updating…)</i>")
             return
         self._timer.start()
+
+    def _mark_stale(self) -> None:
+        """Say the verdict shown is no longer the plan's, until it is read again."""
+        c = self.controller
+        now = (c.plans_opened, c.stage_index)
+        if self.verdict is None or (self._stale and self._stale_for == now):
+            return
+        if not self._stale and self._of == now:
+            self.setText(self.text() + " <i style='color:#607d8b'>(updating…)</i>")
+        else:  # another stage or plan is shown: nothing of the verdict shown holds
+            prefix = f"Stage {c.stage_index + 1}: " if self.brief else ""
+            self.setText(prefix + "<i style='color:#607d8b'>working the verdict out…</i>")
+            self.setToolTip("")
+        self._stale, self._stale_for = True, now
 
     @guarded
     def refresh(self) -> None:
@@ -92,6 +111,7 @@ class VerdictView(QLabel):
             self.setText("No stage.")
             self.setToolTip("")
             return
+        self._of = (self.controller.plans_opened, r.index)
         prefix = f"Stage {r.index + 1}: " if self.brief else ""
         self.setText(prefix + verdict_html(r.verdict, reasons=not self.brief))
         self.setToolTip("\n".join(f"{x.status.upper()}: {x.text}" for x in r.verdict.reasons))
