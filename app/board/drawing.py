@@ -15,8 +15,8 @@ from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import QPainterPath, QPolygonF
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsScene
 
+from app.board.cache import still_mode
 from app.board.items import (
-    CACHE,
     FIXED_CACHE,
     GUIDE,
     NO_CACHE,
@@ -92,7 +92,6 @@ class HullDrawing:
         self.outline.setZValue(Z_HULL)
         self.outline.setBrush(style.HULL_FILL)
         self.outline.setPen(style.pen(style.HULL_EDGE, 1.6))
-        self.outline.setCacheMode(CACHE)
         self.invalid = PathItem(self.frame)
         self.invalid.setZValue(Z_HULL + 1)
         self.invalid.setPen(style.pen(style.INVALID, 2.0, Qt.PenStyle.DashLine))
@@ -107,7 +106,8 @@ class HullDrawing:
         self.stbd_side.setPen(style.pen(style.STARBOARD, 4.0))
         for item in (self.port_side, self.stbd_side, self.centreline):
             item.setZValue(Z_HULL + 1)
-            item.setCacheMode(CACHE)
+        #: The items drawn in the hull's frame from a device cache while it lies unturned.
+        self.cached = (self.outline, self.port_side, self.stbd_side, self.centreline)
         bold = style.label_font(8.5, bold=True)
         self.bow = Label("BOW", self.frame, style.HULL_EDGE, bold, (0, 0), "centre")
         self.stern = Label("STERN", self.frame, style.HULL_EDGE, bold, (0, 0), "centre")
@@ -142,9 +142,15 @@ class HullDrawing:
         self._changed()
         self.frame.setPos(member.x, member.y)
         self.frame.setRotation(math.degrees(member.heading_rad))
+        self.fit_cache()
         self.outline.setData(ROLE, ("hull", member.hull.name))
         if member.hull is not self.hull:
             self.set_hull(member.hull)
+
+    def fit_cache(self) -> None:
+        """Cache the hull's pictures as it lies on screen now (see app.board.cache)."""
+        for item in self.cached:
+            item.setCacheMode(still_mode(item))
 
     def set_hull(self, hull: Hull) -> None:
         self._changed()
@@ -328,7 +334,7 @@ class TugDrawing:
         self.glyph = TugItem(root)
         self.glyph.setZValue(Z_TUG)
         self.glyph.setData(ROLE, ("tug", name))
-        self.glyph.setCacheMode(CACHE)  # a drag redraws only the tug that moves
+        self.glyph.setCacheMode(still_mode(self.glyph))  # a drag redraws only the tug that moves
         self.label = Label("", root, style.TEXT, style.label_font(8.5), (0, 0), "centre")
         self.label.setZValue(Z_LABEL)
         self.label.priority = 1
@@ -338,6 +344,7 @@ class TugDrawing:
         self._placed: tuple[object, ...] | None = None  # the shape's origin and direction
         self._glyph = QPolygonF()
         self._selected = False
+        self._dragging = False
         #: Counts the changes to this tug's items (so does ``changes``, with the others').
         self.revision = 0
 
@@ -406,8 +413,15 @@ class TugDrawing:
     def set_dragging(self, on: bool) -> None:
         """While dragged, the tug is drawn directly: a pixmap cache would be remade every move."""
         self._changed()
-        self.glyph.setCacheMode(NO_CACHE if on else CACHE)
+        self._dragging = on
+        self.glyph.setCacheMode(NO_CACHE if on else still_mode(self.glyph))
         self.label.setCacheMode(NO_CACHE if on else FIXED_CACHE)
+
+    def fit_cache(self) -> None:
+        """Cache the tug's shape as it lies on screen now (see app.board.cache); a tug
+        being dragged has none (its label, fixed in pixels, never turns)."""
+        if not self._dragging:
+            self.glyph.setCacheMode(still_mode(self.glyph))
 
     def set_selected(self, on: bool) -> None:
         if on == self._selected:
@@ -647,8 +661,10 @@ class BodyDrawing:
         self.root.setRotation(site_angle_deg)
         for h in self.hulls.values():
             h.refresh_screen_angles()
+            h.fit_cache()  # a device cache only while the body lies unturned on screen
         for t in self.tugs.values():
             t._key = None  # the labels' side on screen turned with the body
+            t.fit_cache()
 
     def set_body(self, body: Body) -> None:
         self.body = body
