@@ -352,10 +352,10 @@ class Controller(QObject):
         return new
 
     def _with_settings(
-        self, results: dict[str, BodyParts], project: Project
+        self, parts: dict[str, BodyParts], project: Project
     ) -> dict[str, BodyResult] | None:
-        """Each body's result for ``project`` from its ``results`` parts for a plan that
-        differs from it only in tug settings (else None).
+        """Each body's result for ``project`` from its ``parts`` for a plan that differs
+        from it only in tug settings (else None).
 
         A tug's pull is its setting times its usable pull, so the layouts keep every array
         and only the balances are reduced again (the drag path stays fast).
@@ -363,7 +363,7 @@ class Controller(QObject):
         stage = project.stages[min(self._stage_index, len(project.stages) - 1)]
         placed = {p.tug: p for p in stage.placements}
         out: dict[str, BodyResult] = {}
-        for name, r in results.items():
+        for name, r in parts.items():
             new = []
             for p in r.layout.placements:
                 q = placed.get(p.tug)
