@@ -15,17 +15,16 @@ import traceback
 from dataclasses import dataclass
 
 import numpy as np
-from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt, Signal
+from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt, Signal
 from PySide6.QtGui import QColor
 
 from app.guard import guarded
 from app.numbers import message, parse_value
+from app.panels.model_cells import Index, holds
 from core.errors import InputError, TowboardError
 from core.model import rules
 from core.model.capability import WAY_WORDS, WAYS, Capability, CapabilityCurve, Way
 from core.units import DisplayUnits, filed_bearing
-
-Index = QModelIndex | QPersistentModelIndex
 
 #: What the share columns are called (the way's words and what the figure is).
 SHARE_TITLE = "{way}\n(× BP)"
@@ -175,7 +174,7 @@ class CapabilityModel(QAbstractTableModel):
     @guarded(default=Qt.ItemFlag.NoItemFlags)
     def flags(self, index: Index) -> Qt.ItemFlag:
         base = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
-        if not index.isValid():
+        if not holds(self, index):
             return base
         if index.column() == 0 or WAYS[index.column() - 1] in self.ways:
             return base | Qt.ItemFlag.ItemIsEditable
@@ -190,7 +189,7 @@ class CapabilityModel(QAbstractTableModel):
             return None
 
     def _data(self, index: Index, role: int):  # type: ignore[no-untyped-def]
-        if not index.isValid() or index.row() >= len(self.rows):
+        if not holds(self, index):
             return None
         row, col = self.rows[index.row()], index.column()
         way = None if col == 0 else WAYS[col - 1]
@@ -208,7 +207,7 @@ class CapabilityModel(QAbstractTableModel):
 
     @guarded(default=False)
     def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
-        if role != Qt.ItemDataRole.EditRole or not index.isValid():
+        if role != Qt.ItemDataRole.EditRole or not holds(self, index):
             return False
         try:
             self._set(index.row(), index.column(), str(value))

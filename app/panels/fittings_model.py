@@ -18,7 +18,8 @@ from app.controller import Controller
 from app.edits import hulls as hull_edits
 from app.guard import guarded
 from app.panels import fitting_fields as ff
-from app.panels.hull_rows import HullRowsModel, Index
+from app.panels.hull_rows import HullRowsModel
+from app.panels.model_cells import Index, holds
 from core.errors import TowboardError
 from core.model import rules
 from core.model.hull import Fitting, Hull
@@ -87,7 +88,7 @@ class FittingsModel(HullRowsModel):
     @guarded(default=Qt.ItemFlag.NoItemFlags)
     def flags(self, index: Index) -> Qt.ItemFlag:
         base = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
-        if not index.isValid():
+        if not holds(self, index):
             return base
         f = self.rows[index.row()]
         if COLUMNS[index.column()].key == "lines" and f.kind != "line":
@@ -96,7 +97,7 @@ class FittingsModel(HullRowsModel):
 
     @guarded
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
-        if not index.isValid() or index.row() >= len(self.rows):
+        if not holds(self, index):
             return None
         f = self.rows[index.row()]
         key = COLUMNS[index.column()].key
@@ -135,7 +136,7 @@ class FittingsModel(HullRowsModel):
     # -- editing ----------------------------------------------------------------------
     @guarded(default=False)
     def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
-        if role != Qt.ItemDataRole.EditRole or not index.isValid():
+        if role != Qt.ItemDataRole.EditRole or not holds(self, index):
             return False
         try:
             f = self.rows[index.row()]

@@ -9,13 +9,12 @@ from __future__ import annotations
 from collections.abc import Callable
 from typing import Any
 
-from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt
+from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt
 
 from app.controller import Controller
 from app.guard import guarded
+from app.panels.model_cells import Index
 from core.model.hull import Hull
-
-Index = QModelIndex | QPersistentModelIndex
 
 
 class HullRowsModel(QAbstractTableModel):

@@ -10,7 +10,7 @@ import traceback
 from collections.abc import Callable
 from dataclasses import dataclass, replace
 
-from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt
+from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt
 from PySide6.QtGui import QColor
 
 from app import formatting as fmt
@@ -19,14 +19,13 @@ from app.edits import sectors
 from app.edits import tugs as tug_edits
 from app.guard import guarded
 from app.numbers import message, parse_value
+from app.panels.model_cells import Index, holds
 from core.errors import TowboardError
 from core.mechanics.balance import TugShare
 from core.mechanics.bodies import body_name_of_hull
 from core.model import rules
 from core.model.tugs import Placement, Tug
 from core.units import fmt as plain
-
-Index = QModelIndex | QPersistentModelIndex
 
 NOT_PLACED = "not placed"
 
@@ -206,7 +205,7 @@ class TugsModel(QAbstractTableModel):
     @guarded(default=Qt.ItemFlag.NoItemFlags)
     def flags(self, index: Index) -> Qt.ItemFlag:
         base = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
-        if not index.isValid() or index.column() >= len(COLUMNS):
+        if not holds(self, index) or index.column() >= len(COLUMNS):
             return base
         col = COLUMNS[index.column()]
         row = self.rows[index.row()]
@@ -236,7 +235,7 @@ class TugsModel(QAbstractTableModel):
             return None
 
     def _data(self, index: Index, role: int):  # type: ignore[no-untyped-def]
-        if not index.isValid():
+        if not holds(self, index):
             return None
         row = self.rows[index.row()]
         if index.column() >= len(COLUMNS):
@@ -346,7 +345,7 @@ class TugsModel(QAbstractTableModel):
     # -- editing ----------------------------------------------------------------------
     @guarded(default=False)
     def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
-        if not index.isValid() or index.column() >= len(COLUMNS):
+        if not holds(self, index) or index.column() >= len(COLUMNS):
             return False
         row = self.rows[index.row()]
         key = COLUMNS[index.column()].key

@@ -18,7 +18,8 @@ from app import numbers
 from app.controller import Controller
 from app.edits import hulls as hull_edits
 from app.guard import guarded
-from app.panels.hull_rows import HullRowsModel, Index
+from app.panels.hull_rows import HullRowsModel
+from app.panels.model_cells import Index, holds
 from core.errors import InputError, TowboardError
 from core.model import rules
 from core.model.hull import Hull
@@ -57,11 +58,11 @@ class VerticesModel(HullRowsModel):
     @guarded(default=Qt.ItemFlag.NoItemFlags)
     def flags(self, index: Index) -> Qt.ItemFlag:
         base = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
-        return base | Qt.ItemFlag.ItemIsEditable if index.isValid() else base
+        return base | Qt.ItemFlag.ItemIsEditable if holds(self, index) else base
 
     @guarded
     def data(self, index: Index, role: int = Qt.ItemDataRole.DisplayRole):  # type: ignore[no-untyped-def]
-        if not index.isValid() or index.row() >= len(self.rows):
+        if not holds(self, index):
             return None
         v = self.rows[index.row()][index.column()]
         u = self.controller.project.units
@@ -75,7 +76,7 @@ class VerticesModel(HullRowsModel):
 
     @guarded(default=False)
     def setData(self, index: Index, value: object, role: int = Qt.ItemDataRole.EditRole) -> bool:
-        if role != Qt.ItemDataRole.EditRole or not index.isValid():
+        if role != Qt.ItemDataRole.EditRole or not holds(self, index):
             return False
         try:
             return self._set(index.row(), index.column(), str(value))
