@@ -74,6 +74,10 @@ KNOT = 1852.0 / 3600.0
 SWEEP_NEST = 3
 #: Limits above these are shown as "above N" (a number beyond them says nothing more).
 SHOWN_UP_TO_MS: dict[str, float] = {"wind": 60.0 * KNOT, "current": 8.0 * KNOT}
+#: A flow's load per (m/s)^2 shorter than this, in the sweep's scaled units (the largest
+#: tug's pull is 1) times the reach of the pulls and the fixed load, is taken as none:
+#: its limit would lie above 10^6 m/s.
+_NO_LOAD = 1e-12
 
 
 @dataclass(frozen=True, slots=True, eq=False)
@@ -300,6 +304,10 @@ def _sweep_steps(problem: HoldLimitsProblem) -> Steps[_Sweep]:
     coarse = shapes if problem.coarse is None else _scaled_shapes(problem.coarse, sc)
     start = problem.start * sc
     rays = -problem.wind_unit * sc[:, None]
+    # a flow whose load is nothing beside the pulls (a coefficient of 1e-300) is no load:
+    # its exit lies beyond any speed shown, and dividing by so short a ray overflows
+    reach = 1.0 + len(shapes.polygons) + float(np.abs(start).max(initial=0.0))
+    rays[:, np.linalg.norm(rays, axis=0) < _NO_LOAD * reach] = 0.0
     fac = facets(coarse)
     yield
     parts = support_parts(fac.normals, coarse)

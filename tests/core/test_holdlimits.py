@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+import warnings
 from dataclasses import replace
 
 import numpy as np
@@ -154,6 +155,29 @@ def test_current_too_strong_alone_is_held_only_with_a_head_wind() -> None:
         math.sqrt((f_current - 5 * TF) / k_wind), rel=1e-9
     )
     assert np.all(lim.all_tugs_ms[1:] == 0.0)  # from anywhere else the wind cannot help
+
+
+@pytest.mark.parametrize("tiny", [1e-300, 1e-320])
+def test_a_flow_with_next_to_no_load_is_held_at_any_speed(tiny: float) -> None:
+    # Found by the file fuzzer: a current coefficient of 1e-300 (coefficients need only be
+    # above 0) gave a load so small that the exits overflowed (RuntimeWarning). Its limit
+    # from dead ahead lies beyond any speed: unbounded, where the usual 0.6 has one.
+    def limits(coeff: float):  # type: ignore[no-untyped-def]
+        cond = Conditions(
+            wind_speed_ms=5.0,
+            current_speed_ms=0.5,
+            current_towards_deg=0.0,
+            current_coeff_head=coeff,
+        )
+        project, stage = _plan([0.0, 180.0, 90.0, 270.0], [20.0] * 4, POINTS[:4], conditions=cond)
+        with warnings.catch_warnings():
+            warnings.simplefilter("error")
+            return hold_limits(hold_limits_problem(project, stage, flow="current"))
+
+    usual, faint = limits(0.6), limits(tiny)
+    assert 0.0 < usual.all_tugs_ms[0] < math.inf
+    assert faint.all_tugs_ms[0] == math.inf
+    assert np.all(np.isfinite(faint.worst_lost_ms) | (faint.worst_lost_ms == math.inf))
 
 
 leads = st.lists(LEAD, min_size=2, max_size=6)
