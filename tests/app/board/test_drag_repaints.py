@@ -222,9 +222,9 @@ def test_a_verdict_due_from_before_a_drag_waits_for_its_end(window, qtbot) -> No
     qtbot.wait(250)
     # it says the verdict shown is old: "updating", or "working out" when the plan just
     # opened had not been read yet
-    assert "updating" in verdict.text() or "working the verdict out" in verdict.text()
+    assert "updating" in verdict.says() or "working the verdict out" in verdict.says()
     c.commit_preview("turn the line")
-    qtbot.waitUntil(lambda: "updating" not in verdict.text() and "working" not in verdict.text())
+    qtbot.waitUntil(lambda: "updating" not in verdict.says() and "working" not in verdict.says())
     assert verdict.verdict is c.stage_result().verdict
 
 

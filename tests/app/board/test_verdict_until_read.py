@@ -6,6 +6,7 @@ a sample just opened, its stage 2 headed "Stage 1")."""
 from __future__ import annotations
 
 from PySide6.QtCore import Qt
+from PySide6.QtWidgets import QApplication
 
 from app.panels.verdict_view import DELAY_MS
 from tests.conftest import SAMPLES
@@ -20,8 +21,8 @@ def _settled(window, qtbot) -> None:  # type: ignore[no-untyped-def]
     qtbot.waitUntil(
         lambda: all(
             v.verdict is window.controller.stage_result().verdict
-            and "working" not in v.text()
-            and "updating" not in v.text()
+            and "working" not in v.says()
+            and "updating" not in v.says()
             for v in _views(window)
         ),
         timeout=3000,
@@ -46,17 +47,28 @@ def test_another_plan_or_stage_says_working_out_until_its_verdict_is_read(window
 def test_an_edit_marks_the_verdict_updating_until_it_is_read(window, qtbot) -> None:  # type: ignore[no-untyped-def]
     c = window.controller
     _settled(window, qtbot)
-    before = window.verdict_line.text()
+    texts = [v.text() for v in _views(window)]
+    sizes = [v.size() for v in _views(window)]
+    looks = [v.grab().toImage() for v in _views(window)]
     stage = c.stage
     p = stage.placements[0]
     c.apply(c.with_stage(stage.with_placement(p.with_setting(1.0 - p.setting))), "edit")
-    for v in _views(window):
-        assert v.text().endswith("(updating…)</i>")
-    assert window.verdict_line.text().startswith(before)  # the stage's, marked as old
-    qtbot.wait(DELAY_MS // 2)
-    assert "updating" in window.verdict_line.text()
+    for v, text, size, look in zip(_views(window), texts, sizes, looks, strict=True):
+        assert v.says() == text + " <i>(updating…)</i>"  # the stage's, marked as old
+        # drawn over the verdict: its text and size are kept, so nothing is laid out again
+        assert v.text() == text and v.size() == size
+        assert v.grab().toImage() != look
+    # what is queued runs; the verdict is read only when its timer is due (a wait of half
+    # the delay was sometimes the whole delay on a loaded machine)
+    QApplication.processEvents()
+    assert (
+        window.verdict_line._timer.isActive() and window.verdict_line._timer.interval() == DELAY_MS
+    )
+    assert "updating" in window.verdict_line.says()
     _settled(window, qtbot)
+    assert not any(v.updating for v in _views(window))
     qtbot.keyClick(window.view.viewport(), Qt.Key.Key_Z, Qt.KeyboardModifier.ControlModifier)
     assert c.stage.placements[0].setting == p.setting  # undone by the keyboard
-    assert "updating" in window.verdict_line.text()
+    assert "updating" in window.verdict_line.says()
     _settled(window, qtbot)
+    assert not any(v.updating for v in _views(window))
