@@ -12,40 +12,23 @@ is unchanged.
 
 from __future__ import annotations
 
-import pytest
 from PySide6.QtCore import QAbstractItemModel, QModelIndex, Qt
-from PySide6.QtWidgets import QAbstractItemView, QMessageBox
+from PySide6.QtWidgets import QAbstractItemView
 
 from app.panels.capability_table import CapabilityModel
 from app.panels.fittings_model import FittingsModel
 from app.panels.tugs_model import TugsModel
 from app.panels.vertices_model import VerticesModel
-from app.window.main_window import MainWindow
-from core.io.projectfile import load
 from core.model.capability import default_capability
 from core.model.plan import Project, Stage
 from core.units import DisplayUnits
-from tests.conftest import SAMPLES
 
-TWIN = SAMPLES / "twin_barge_move.towboard"
 ROLES = (
     Qt.ItemDataRole.DisplayRole,
     Qt.ItemDataRole.EditRole,
     Qt.ItemDataRole.ToolTipRole,
     Qt.ItemDataRole.CheckStateRole,
 )
-
-
-@pytest.fixture
-def window(qtbot, tmp_path, monkeypatch):  # type: ignore[no-untyped-def]
-    monkeypatch.setenv("TOWBOARD_SETTINGS_FILE", str(tmp_path / "settings.ini"))
-    monkeypatch.setenv("TOWBOARD_RECOVERY_DIR", str(tmp_path / "recovery"))
-    w = MainWindow(load(TWIN), TWIN)
-    qtbot.addWidget(w)
-    w.show()
-    discard = QMessageBox.StandardButton.Discard
-    monkeypatch.setattr(QMessageBox, "question", staticmethod(lambda *a, **k: discard))
-    return w
 
 
 def _last_cells(model: QAbstractItemModel) -> list[QModelIndex]:
