@@ -539,6 +539,13 @@ def targets(s: dict[tuple[float, str, str], dict[str, dict[str, float]]]) -> Non
             f"(CPU {w['cpu']['p50'] / bare['cpu']['p50']:.2f}x; target <= 5x), "
             f"p99 {w['wall']['p99']:.1f} ms wall (target < {FRAME_MS:.1f})"
         )
+        # what the machine adds to a wall p99 in this run, whatever the code: the bare
+        # view's wall p99 over its CPU p99 (the process waiting for a core)
+        lines.append(
+            f"the machine in this run: the bare view's p99 {bare['wall']['p99']:.1f} ms wall "
+            f"against {bare['cpu']['p99']:.1f} ms CPU; the board's {b['wall']['p99']:.1f} "
+            f"against {b['cpu']['p99']:.1f}"
+        )
     w = get(1.0, "200", "window")
     if w is not None:
         lines.append(
