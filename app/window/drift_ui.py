@@ -57,6 +57,8 @@ class DriftUi:
         window.menu("board").addAction(self.act_drift)
         self._base_caution = window.caution.text()
         self.layer.updated.connect(self._show)
+        #: The placed tugs the scenarios offered were made for (see _fill_scenarios).
+        self._filled_for: tuple[str, ...] | None = None
         self.controller.changed.connect(self._fill_scenarios)
         self._fill_scenarios()
 
@@ -87,6 +89,11 @@ class DriftUi:
 
     @guarded
     def _fill_scenarios(self) -> None:
+        stage = self.controller.stage
+        tugs = tuple(p.tug for p in stage.placements) if stage is not None else ()
+        if tugs == self._filled_for:
+            return  # the same tugs (a drag's move): the same scenarios, nothing to read
+        self._filled_for = tugs
         box = self.scenario_box
         wanted = self.scenarios()
         words = [s.words()[0].upper() + s.words()[1:] for s in wanted]

@@ -94,6 +94,29 @@ def test_each_scenario_on_the_toolbar(twin) -> None:  # type: ignore[no-untyped-
     assert got.ghost_states == pytest.approx(expected.ghost_states)
 
 
+def test_the_scenarios_follow_the_tugs_placed_and_nothing_else(twin, monkeypatch) -> None:  # type: ignore[no-untyped-def]
+    # every change of the plan (each move of a drag) once made a scenario per tug and read
+    # the whole list back from the box: with 200 tugs, a millisecond or more a move
+    c = twin.controller
+    c.set_stage_index(1)
+    box = twin.drift_ui.scenario_box
+    made = []
+    original = DriftScenario.words
+    monkeypatch.setattr(DriftScenario, "words", lambda s: made.append(s) or original(s))
+    stage = c.stage
+    p = stage.placements[0]
+    c.apply(c.with_stage(stage.with_placement(p.with_setting(1.0 - p.setting))), "edit")
+    assert made == []  # the same tugs: nothing made again
+    c.apply(c.project.without_tug(p.tug), "remove")
+    names = [box.itemText(i) for i in range(box.count())]
+    assert f"{p.tug} lost" not in names
+    assert names[1:-2] == [f"{q.tug} lost" for q in c.stage.placements]
+    c.undo_stack.undo()
+    assert [box.itemText(i) for i in range(box.count())][1:-2] == [
+        f"{q.tug} lost" for q in c.stage.placements
+    ]
+
+
 def test_ghosts_lie_where_the_core_puts_the_body(twin) -> None:  # type: ignore[no-untyped-def]
     c = twin.controller
     c.set_stage_index(1)
