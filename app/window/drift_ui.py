@@ -93,12 +93,9 @@ class DriftUi:
         tugs = tuple(p.tug for p in stage.placements) if stage is not None else ()
         if tugs == self._filled_for:
             return  # the same tugs (a drag's move): the same scenarios, nothing to read
-        self._filled_for = tugs
         box = self.scenario_box
         wanted = self.scenarios()
         words = [s.words()[0].upper() + s.words()[1:] for s in wanted]
-        if [box.itemText(i) for i in range(box.count())] == words:
-            return
         current = self.layer.scenario
         box.blockSignals(True)
         box.clear()
@@ -108,6 +105,7 @@ class DriftUi:
         box.setCurrentIndex(keep)
         box.blockSignals(False)
         self.layer.set_scenario(wanted[keep])
+        self._filled_for = tugs
 
     @guarded
     def _scenario_chosen(self, index: int) -> None:
