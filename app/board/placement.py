@@ -110,9 +110,10 @@ class CostMap:
         """(k,) cost of each of (k, 4) boxes x0, y0, x1, y1 (px)."""
         if self.base is None or self.hull is None:
             raise RuntimeError("CostMap.finish() first")
-        total = _box_sums(self.base, boxes, self.w, self.h)
+        x0, y0, x1, y1 = _cells(boxes, self.w, self.h)
+        total = _box_sums(self.base, x0, y0, x1, y1)
         if not on_hull:
-            total = total + _box_sums(self.hull, boxes, self.w, self.h)
+            total = total + _box_sums(self.hull, x0, y0, x1, y1)
         return total
 
 
@@ -123,11 +124,18 @@ def _summed(grid: np.ndarray) -> np.ndarray:
     return out
 
 
-def _box_sums(sat: np.ndarray, boxes: np.ndarray, w: int, h: int) -> np.ndarray:
-    x0 = np.clip(np.floor(boxes[:, 0] / CELL), 0, w).astype(int)
-    y0 = np.clip(np.floor(boxes[:, 1] / CELL), 0, h).astype(int)
-    x1 = np.clip(np.ceil(boxes[:, 2] / CELL), 0, w).astype(int)
-    y1 = np.clip(np.ceil(boxes[:, 3] / CELL), 0, h).astype(int)
+def _cells(boxes: np.ndarray, w: int, h: int) -> np.ndarray:
+    """(4, k) cell indices x0, y0, x1, y1 of (k, 4) pixel boxes: the cells they touch,
+    within the raster."""
+    cells = boxes.T / CELL
+    cells[:2] = np.floor(cells[:2])
+    cells[2:] = np.ceil(cells[2:])
+    return np.clip(cells, 0, np.array([[w], [h], [w], [h]])).astype(int)
+
+
+def _box_sums(
+    sat: np.ndarray, x0: np.ndarray, y0: np.ndarray, x1: np.ndarray, y1: np.ndarray
+) -> np.ndarray:
     return sat[y1, x1] - sat[y0, x1] - sat[y1, x0] + sat[y0, x0]
 
 
@@ -205,24 +213,44 @@ def cost_map(
     return m
 
 
-def _candidates(home: QRectF, anchor: QPointF) -> np.ndarray:
-    """(k, 2) shifts (px) to try for a label whose home box is ``home`` (device px)."""
-    shifts = [(0.0, 0.0)]
-    for d in (6.0, 12.0, 20.0):
-        shifts += [(d, 0.0), (-d, 0.0), (0.0, d), (0.0, -d)]
-    cx, cy = home.center().x(), home.center().y()
-    hw, hh = home.width() / 2, home.height() / 2
-    for extra in (4.0, 14.0, 28.0, 48.0, 75.0, 110.0, 160.0):
-        for k in range(16):
-            a = 2 * math.pi * k / 16
-            ux, uy = math.cos(a), math.sin(a)
-            reach = hw * abs(ux) + hh * abs(uy) + extra
-            shifts.append((anchor.x() + ux * reach - cx, anchor.y() + uy * reach - cy))
-    return np.array(shifts)
+#: The shifts tried first: the home box, then 6, 12 and 20 px right, left, down, up.
+_NEAR = np.array(
+    [(0.0, 0.0)]
+    + [s for d in (6.0, 12.0, 20.0) for s in ((d, 0.0), (-d, 0.0), (0.0, d), (0.0, -d))]
+)
+#: Then boxes round the anchor: 16 directions, each at these gaps (px) beyond the box.
+_GAPS = np.array([4.0, 14.0, 28.0, 48.0, 75.0, 110.0, 160.0])[:, None]
+_UX = np.array([math.cos(2 * math.pi * k / 16) for k in range(16)])
+_UY = np.array([math.sin(2 * math.pi * k / 16) for k in range(16)])
+_AUX, _AUY = np.abs(_UX), np.abs(_UY)
+#: Where a leader is sampled along its length (0: the anchor, 1: the box).
+_LEADER_T = np.linspace(0.0, 1.0, 12)
+
+
+def _candidates(homes: np.ndarray, anchors: np.ndarray) -> np.ndarray:
+    """(n, k, 2) shifts (px) to try for each of n labels: ``homes`` (n, 4) their home
+    boxes' centres and half sizes cx, cy, half width, half height (device px), ``anchors``
+    (n, 2) their anchors."""
+    cx, cy, hw, hh = (homes[:, i, None, None] for i in range(4))
+    reach = (hw * _AUX + hh * _AUY) + _GAPS  # (n, 7, 16)
+    dx = anchors[:, 0, None, None] + _UX * reach - cx
+    dy = anchors[:, 1, None, None] + _UY * reach - cy
+    far = np.stack([dx, dy], axis=-1).reshape(len(homes), -1, 2)
+    near = np.broadcast_to(_NEAR, (len(homes), *_NEAR.shape))
+    return np.concatenate([near, far], axis=1)
+
+
+def _near(boxes: np.ndarray, others: np.ndarray) -> np.ndarray:
+    """(m,) True for each of (m, 4) ``boxes`` that reaches inside the box round all of
+    (k, 4) ``others`` (one that does not overlaps none of them)."""
+    x0, y0 = others[:, 0].min(initial=np.inf), others[:, 1].min(initial=np.inf)
+    x1, y1 = others[:, 2].max(initial=-np.inf), others[:, 3].max(initial=-np.inf)
+    return (boxes[:, 0] < x1) & (boxes[:, 2] > x0) & (boxes[:, 1] < y1) & (boxes[:, 3] > y0)
 
 
 def _overlap(boxes: np.ndarray, others: np.ndarray) -> np.ndarray:
     """(k,) total overlap area of each of (k, 4) boxes with (m, 4) boxes."""
+    others = others[_near(others, boxes)]  # the others add nothing
     if len(others) == 0:
         return np.zeros(len(boxes))
     w = np.minimum(boxes[:, None, 2], others[None, :, 2]) - np.maximum(
@@ -234,26 +262,40 @@ def _overlap(boxes: np.ndarray, others: np.ndarray) -> np.ndarray:
     return (np.clip(w, 0, None) * np.clip(h, 0, None)).sum(1)
 
 
-def _leaders_cross(
-    boxes: np.ndarray, anchor: QPointF, reserved: np.ndarray, samples: int = 12
-) -> np.ndarray:
-    """(k,) True where the leader from ``anchor`` to the nearest point of each of (k, 4)
-    boxes runs through any of (m, 4) ``reserved`` boxes (sampled along its length)."""
+def _leaders_cross(boxes: np.ndarray, anchors: np.ndarray, reserved: np.ndarray) -> np.ndarray:
+    """(k,) True where the leader from each of (k, 2) ``anchors`` to the nearest point of
+    its box, one of (k, 4) ``boxes``, runs through any of (m, 4) ``reserved`` boxes
+    (sampled along its length)."""
+    out = np.zeros(len(boxes), dtype=bool)
     if len(reserved) == 0:
-        return np.zeros(len(boxes), dtype=bool)
-    ax, ay = anchor.x(), anchor.y()
+        return out
+    ax, ay = anchors[:, 0], anchors[:, 1]
     ex = np.clip(ax, boxes[:, 0], boxes[:, 2])  # where Label._aim_leader ends the line
     ey = np.clip(ay, boxes[:, 1], boxes[:, 3])
-    t = np.linspace(0.0, 1.0, samples)
-    px = ax + (ex[:, None] - ax) * t[None, :]  # (k, s)
-    py = ay + (ey[:, None] - ay) * t[None, :]
+    # only a leader whose own box (a hair larger) meets a reserved box can have a sample in it
+    pad = 1e-6
+    x0, x1 = np.minimum(ax, ex) - pad, np.maximum(ax, ex) + pad
+    y0, y1 = np.minimum(ay, ey) - pad, np.maximum(ay, ey) + pad
+    meets = (
+        (reserved[None, :, 0] < x1[:, None])
+        & (reserved[None, :, 2] > x0[:, None])
+        & (reserved[None, :, 1] < y1[:, None])
+        & (reserved[None, :, 3] > y0[:, None])
+    ).any(axis=1)
+    rows = np.flatnonzero(meets)
+    if rows.size == 0:
+        return out
+    ax, ay, ex, ey = ax[rows, None], ay[rows, None], ex[rows, None], ey[rows, None]
+    px = ax + (ex - ax) * _LEADER_T[None, :]  # (r, s)
+    py = ay + (ey - ay) * _LEADER_T[None, :]
     inside = (
         (px[:, :, None] > reserved[None, None, :, 0])
         & (px[:, :, None] < reserved[None, None, :, 2])
         & (py[:, :, None] > reserved[None, None, :, 1])
         & (py[:, :, None] < reserved[None, None, :, 3])
     )
-    return np.asarray(inside.any(axis=(1, 2)))
+    out[rows] = inside.any(axis=(1, 2))
+    return out
 
 
 def _outside(boxes: np.ndarray, width: float, height: float) -> np.ndarray:
@@ -271,6 +313,10 @@ def place_labels(
     ``vt`` is the view's viewport transform (scene to pixels); ``reserved`` are pixel
     boxes drawn over the board (overlays) that no label may cover. Returns the labels
     placed, in the order they were placed.
+
+    What a box costs apart from the labels placed before it (what it covers, how far it
+    moved, its leader) is worked out for every label's boxes at once; only the overlap
+    with the labels placed before is worked out label by label.
     """
     items = scene.items()
     reserved = list(reserved)
@@ -280,9 +326,9 @@ def place_labels(
     overlays = overlays.reshape(-1, 4)
     view_box = QRectF(0, 0, size.width(), size.height())
     labels = [i for i in items if isinstance(i, Label) and _shown(i) and i.text]
-    placed: list[Label] = []
-    boxes: list[tuple[float, float, float, float]] = []
     order = sorted(labels, key=lambda lab: (not lab.fixed, lab.priority, -lab.home_rect().width()))
+    placed: list[Label] = []
+    homes, anchors = [], []  # of the labels placed: edges, centre, half sizes; anchor (px)
     for lab in order:
         dt = lab.deviceTransform(vt)
         anchor = dt.map(QPointF(0, 0))
@@ -290,27 +336,44 @@ def place_labels(
         if not view_box.intersects(home.adjusted(-200, -200, 200, 200)):
             lab.set_shift(0.0, 0.0)  # far off the view: nothing to place it against
             continue
-        shifts = np.zeros((1, 2)) if lab.fixed else _candidates(home, anchor)
-        cand = np.column_stack(
-            [
-                home.left() + shifts[:, 0],
-                home.top() + shifts[:, 1],
-                home.right() + shifts[:, 0],
-                home.bottom() + shifts[:, 1],
-            ]
+        c, half_w, half_h = home.center(), home.width() / 2, home.height() / 2
+        homes.append(
+            (home.left(), home.top(), home.right(), home.bottom(), c.x(), c.y(), half_w, half_h)
         )
-        cost = costs.cost(cand, lab.on_hull)
-        cost += W_LABEL * _overlap(cand, np.array(boxes).reshape(-1, 4))
-        cost += W_OUTSIDE * _outside(cand, size.width(), size.height())
-        moved = np.hypot(shifts[:, 0], shifts[:, 1])
-        cost += W_MOVE * moved
-        cost += np.where(moved > 0, W_LEADER, 0.0)
-        cost += np.where(_leaders_cross(cand, anchor, overlays) & (moved > 0), W_LEADER_HIDDEN, 0)
+        anchors.append((anchor.x(), anchor.y()))
+        placed.append(lab)
+    if not placed:
+        return placed
+    home_a, anchor_a = np.array(homes), np.array(anchors)  # (n, 8), (n, 2)
+    shifts = _candidates(home_a[:, 4:], anchor_a)  # (n, k, 2)
+    fixed = np.array([lab.fixed for lab in placed])
+    shifts[fixed] = 0.0  # a fixed label stays home (its every box is the home box)
+    n, k = shifts.shape[:2]
+    cand = np.concatenate([home_a[:, None, 0:2] + shifts, home_a[:, None, 2:4] + shifts], axis=2)
+    flat = cand.reshape(-1, 4)
+    on_hull = np.array([lab.on_hull for lab in placed])
+    covered = np.where(
+        on_hull[:, None],
+        costs.cost(flat, on_hull=True).reshape(n, k),
+        costs.cost(flat).reshape(n, k),
+    )
+    outside = W_OUTSIDE * _outside(flat, size.width(), size.height()).reshape(n, k)
+    moved = np.hypot(shifts[..., 0], shifts[..., 1])
+    leader = np.where(moved > 0, W_LEADER, 0.0)
+    hidden_leader = _leaders_cross(flat, np.repeat(anchor_a, k, axis=0), overlays).reshape(n, k)
+    hidden = np.where(hidden_leader & (moved > 0), W_LEADER_HIDDEN, 0)
+    moved *= W_MOVE
+    boxes = np.empty((n, 4))  # the boxes of the labels placed, in order
+    for i, lab in enumerate(placed):
+        cost = covered[i] + W_LABEL * _overlap(cand[i], boxes[:i])
+        cost += outside[i]
+        cost += moved[i]
+        cost += leader[i]
+        cost += hidden[i]
         best = int(np.argmin(cost))
         # pixels of the device are the label's own (it ignores the view's scale)
-        lab.set_shift(float(shifts[best, 0]), float(shifts[best, 1]))
-        boxes.append(tuple(cand[best]))  # type: ignore[arg-type]
-        placed.append(lab)
+        lab.set_shift(float(shifts[i, best, 0]), float(shifts[i, best, 1]))
+        boxes[i] = cand[i, best]
     return placed
 
 
