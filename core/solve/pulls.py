@@ -809,7 +809,8 @@ class TugLostCase:
         """The remaining tug working hardest."""
         if not len(self.result.pulls_n):
             return None
-        return self.result.problem.tugs[int(np.argmax(self.result.utilisation))]
+        # one placement's name (the tugs property makes the tuple of all of them)
+        return self.result.problem.placements[int(np.argmax(self.result.utilisation))].tug
 
 
 @dataclass(frozen=True, slots=True, eq=False)
