@@ -26,9 +26,13 @@ FITTING_TYPES = ("bitt", "bollard", "fairlead", "chock", "pushing pad")
 #: pontoons, box-shaped modules); "ship" uses the Clarke, Gedling and Hine regressions
 #: for ship-shaped hulls. Both take the surge added mass from Soding's estimate.
 ADDED_MASS_METHODS = ("sections", "ship")
-#: How near the outline a fitting is taken to lie on it, m (well under the file's precision
-#: of 12 significant digits on a hull of a few hundred metres, far under any drawing's).
+#: How near the outline a fitting is taken to lie on it: ON_OUTLINE_M, m, plus
+#: ON_OUTLINE_REL times the outline's largest coordinate. The file keeps 12 significant
+#: digits, so a point written at 20 km from the hull's origin (an outline drawn in a
+#: site's or a chart's coordinates) moves by up to 5e-8 m: the allowance grows with the
+#: coordinates, 20 times that rounding, and stays far under any drawing's precision.
 ON_OUTLINE_M = 1e-9
+ON_OUTLINE_REL = 1e-10
 
 
 @dataclass(frozen=True, slots=True)
@@ -283,16 +287,18 @@ class Hull:
             if f.name in seen:
                 raise InputError(f"{subject}: fitting name", f.name, "is used twice")
             seen.add(f.name)
-        snapped = tuple(f.moved_to(*self._snap(f.x, f.y)) for f in self.fittings)
+        reach = float(np.abs(np.asarray(outline)).max())
+        on = ON_OUTLINE_M + ON_OUTLINE_REL * reach
+        snapped = tuple(f.moved_to(*self._snap(f.x, f.y, on)) for f in self.fittings)
         object.__setattr__(self, "fittings", snapped)
         object.__setattr__(self, "_by_name", {f.name: f for f in snapped})
 
-    def _snap(self, x: float, y: float) -> tuple[float, float]:
+    def _snap(self, x: float, y: float, on: float) -> tuple[float, float]:
         p = self.geometry.nearest(x, y)
-        # Within a nanometre the point is on the outline already: a snapped point written
+        # Within ``on`` m the point is on the outline already: a snapped point written
         # to the file's 12 significant digits lands a hair off a slanted edge, and snapping
         # it again on load would change its last digits at every save.
-        return (p.x, p.y) if p.distance > ON_OUTLINE_M else (x, y)
+        return (p.x, p.y) if p.distance > on else (x, y)
 
     # -- derived values -------------------------------------------------------------
     @property

@@ -265,16 +265,23 @@ def test_the_documented_example_loads_and_matches_the_schema() -> None:
 
 
 @pytest.mark.parametrize("t", [1 / 3, 1 / 7, 0.123456789, 0.5, 2 / 3, 0.987654321])
-def test_a_fitting_on_a_slanted_edge_saves_to_the_same_text_every_time(t: float) -> None:
+@pytest.mark.parametrize("far", [0.0, -20538.41, 95_345.678], ids=["at 0", "20 km", "95 km"])
+def test_a_fitting_on_a_slanted_edge_saves_to_the_same_text_every_time(
+    t: float, far: float
+) -> None:
     # Found by the monkey: a fitting snapped onto a slanted edge is written to 12 significant
     # digits, which puts it a hair off the edge; loading snapped it again to a slightly other
     # point, so every save of the loaded plan wrote different digits. A point within a
-    # nanometre of the outline is on it (the file's own precision, docs/file-format.md).
+    # nanometre of the outline is on it (the file's own precision, docs/file-format.md),
+    # and within more as the coordinates grow (the monkey again: a hull dragged 20 km off;
+    # an outline drawn in a site's coordinates lies kilometres out).
     from core.model.hull import Fitting, Hull
     from core.model.plan import Project, Stage
 
-    outline = ((0.0, 0.0), (60.0, 0.0), (71.3, 9.1), (60.0, 18.0), (0.0, 18.0))
-    at = (60.0 + 11.3 * t, 9.1 * t)  # on the raked edge from (60, 0) to (71.3, 9.1)
+    raked = ((0.0, 0.0), (60.0, 0.0), (71.3, 9.1), (60.0, 18.0), (0.0, 18.0))
+    outline = tuple((x + far, y + far / 10) for x, y in raked)
+    x0, y0 = outline[1]
+    at = (x0 + 11.3 * t, y0 + 9.1 * t)  # on the raked edge from (60, 0) to (71.3, 9.1)
     hull = Hull("Raked", outline, fittings=(Fitting("Bow bitt", "line", *at),))
     project = Project(name="Raked bow", hulls=(hull,), stages=(Stage("Stage 1"),))
     first = dumps(project)
@@ -282,4 +289,4 @@ def test_a_fitting_on_a_slanted_edge_saves_to_the_same_text_every_time(t: float)
     assert dumps(again) == first
     assert loads(dumps(again)) == again
     f = again.hull("Raked").fitting("Bow bitt")
-    assert (f.x, f.y) == pytest.approx(at, abs=1e-9)
+    assert (f.x, f.y) == pytest.approx(at, rel=5e-12, abs=1e-9)  # the file's 12 digits
