@@ -32,6 +32,9 @@ FIT_TRIES = 8
 #: this many of them would go into the pictures: below it, taking the pictures costs
 #: more than the moves save.
 BACKDROP_MIN_ITEMS = 400
+#: A pan or a wheel's zoom places the labels once the view has stood still this long, ms
+#: (in between they move with the board, as on a chart).
+PLACE_AT_REST_MS = 150
 
 
 class BoardView(QGraphicsView):
@@ -76,6 +79,10 @@ class BoardView(QGraphicsView):
         self._place_timer.setSingleShot(True)
         self._place_timer.setInterval(0)
         self._place_timer.timeout.connect(self.place_labels)
+        self._rest_timer = QTimer(self)  # restarted by every step of a pan or a wheel's zoom
+        self._rest_timer.setSingleShot(True)
+        self._rest_timer.setInterval(PLACE_AT_REST_MS)
+        self._rest_timer.timeout.connect(self.schedule_placement)
         scene.refresh_hooks.append(lambda _s: self.schedule_placement())
         #: The still items of a tug drag as two pictures (see app.board.backdrop).
         self.backdrop = Backdrop(self)
@@ -91,13 +98,18 @@ class BoardView(QGraphicsView):
         t = self.transform()
         return math.hypot(t.m11(), t.m12())
 
-    def zoom(self, factor: float) -> None:
+    def zoom(self, factor: float, *, placing: str = "now") -> None:
+        """Zoom by ``factor`` round the anchor; the labels are placed ``"now"`` (once the
+        events in hand are done) or ``"at rest"`` (once the view has stood still)."""
         ppm = self.pixels_per_metre()
         new = min(max(ppm * factor, 0.02), 200.0)
         f = new / ppm
         self.scale(f, f)
         self.user_zoomed = True
-        self.schedule_placement()
+        if placing == "now":
+            self.schedule_placement()
+        else:
+            self.place_at_rest()
 
     def fit_to_hull(self) -> None:
         """Zoom so every body (with room for its tugs) fills the board."""
@@ -210,6 +222,13 @@ class BoardView(QGraphicsView):
         if not self.board.controller.previewing:
             self._place_timer.start()
 
+    def place_at_rest(self) -> None:
+        """Place the labels once the view has stood still for PLACE_AT_REST_MS.
+
+        A pan or a wheel's zoom moves the view in many small steps; placing the labels
+        after each cost more than a frame (a tenth of a second with 200 tugs)."""
+        self._rest_timer.start()
+
     @guarded
     def place_labels(self) -> None:
         """Choose the card's corner, then move every label clear of the rest (now)."""
@@ -261,7 +280,7 @@ class BoardView(QGraphicsView):
             return
         steps = event.angleDelta().y() / 120.0
         if steps:
-            self.zoom(1.2**steps)
+            self.zoom(1.2**steps, placing="at rest")
         event.accept()
 
     def _over_tug(self, pos: QPointF, tug: str) -> bool:
@@ -298,7 +317,7 @@ class BoardView(QGraphicsView):
             self._pan = event.position()
             if d.x() or d.y():
                 self.user_zoomed = True
-                self.schedule_placement()
+                self.place_at_rest()
             self.horizontalScrollBar().setValue(self.horizontalScrollBar().value() - int(d.x()))
             self.verticalScrollBar().setValue(self.verticalScrollBar().value() - int(d.y()))
             event.accept()
@@ -310,6 +329,9 @@ class BoardView(QGraphicsView):
         if self._pan is not None:
             self._pan = None
             self.viewport().unsetCursor()
+            if self._rest_timer.isActive():  # let go: the labels are placed at once
+                self._rest_timer.stop()
+                self.schedule_placement()
             event.accept()
             return
         super().mouseReleaseEvent(event)
