@@ -73,6 +73,7 @@ class Subject:
     """Something to drag: a viewport, where to press, and how to tidy up."""
 
     name = ""
+    button = "left"  # the mouse button held: "left" or "middle"
 
     def __init__(self) -> None:
         self.viewport = None
@@ -343,7 +344,7 @@ def burst(subject: Subject, moves: int, interval_ms: float) -> dict[str, list[fl
         )
         QApplication.postEvent(vp, ev)
 
-    left = Qt.MouseButton.LeftButton
+    held = Qt.MouseButton.MiddleButton if subject.button == "middle" else Qt.MouseButton.LeftButton
 
     class Watch(QObject):
         def eventFilter(self, obj, event):  # type: ignore[no-untyped-def]
@@ -361,7 +362,7 @@ def burst(subject: Subject, moves: int, interval_ms: float) -> dict[str, list[fl
             post(
                 QEvent.Type.MouseButtonRelease,
                 subject.path(moves - 1, moves),
-                left,
+                held,
                 Qt.MouseButton.NoButton,
             )
             QTimer.singleShot(0, loop.quit)
@@ -369,7 +370,7 @@ def burst(subject: Subject, moves: int, interval_ms: float) -> dict[str, list[fl
         state["painted"] = False
         state["waiting"] = True
         state["cpu0"] = time.process_time()
-        post(QEvent.Type.MouseMove, subject.path(k, moves), Qt.MouseButton.NoButton, left)
+        post(QEvent.Type.MouseMove, subject.path(k, moves), Qt.MouseButton.NoButton, held)
 
     pacer = QTimer()
     pacer.setSingleShot(True)
@@ -398,7 +399,7 @@ def burst(subject: Subject, moves: int, interval_ms: float) -> dict[str, list[fl
     wake = QTimer()  # a move that paints nothing must not leave the loop asleep for ever
     wake.start(250)
     subject.start = subject.grip()
-    post(QEvent.Type.MouseButtonPress, QPointF(subject.start), left, left)
+    post(QEvent.Type.MouseButtonPress, QPointF(subject.start), held, held)
     _settle(0.05)
     if not subject.grabbed():
         raise RuntimeError(f"{subject.name}: the press did not take hold of the tug")
