@@ -98,18 +98,19 @@ class BoardView(QGraphicsView):
         t = self.transform()
         return math.hypot(t.m11(), t.m12())
 
-    def zoom(self, factor: float, *, placing: str = "now") -> None:
-        """Zoom by ``factor`` round the anchor; the labels are placed ``"now"`` (once the
-        events in hand are done) or ``"at rest"`` (once the view has stood still)."""
+    def zoom(self, factor: float, *, at_rest: bool = False) -> None:
+        """Zoom by ``factor`` round the anchor; the labels are placed once the events in
+        hand are done, or with ``at_rest`` once the view has stood still (a wheel's
+        notches in a row)."""
         ppm = self.pixels_per_metre()
         new = min(max(ppm * factor, 0.02), 200.0)
         f = new / ppm
         self.scale(f, f)
         self.user_zoomed = True
-        if placing == "now":
-            self.schedule_placement()
-        else:
+        if at_rest:
             self.place_at_rest()
+        else:
+            self.schedule_placement()
 
     def fit_to_hull(self) -> None:
         """Zoom so every body (with room for its tugs) fills the board."""
@@ -217,6 +218,7 @@ class BoardView(QGraphicsView):
             out.append(self.corner_rect)
         return out
 
+    @guarded
     def schedule_placement(self) -> None:
         """Place the labels once the events in hand are done (not during a drag)."""
         if not self.board.controller.previewing:
@@ -226,13 +228,16 @@ class BoardView(QGraphicsView):
         """Place the labels once the view has stood still for PLACE_AT_REST_MS.
 
         A pan or a wheel's zoom moves the view in many small steps; placing the labels
-        after each cost more than a frame (a tenth of a second with 200 tugs)."""
+        after each cost more than a frame (a tenth of a second with 200 tugs). The card's
+        corner and the item picture cache are chosen with the labels, so they too wait
+        until the view stands still."""
         self._rest_timer.start()
 
     @guarded
     def place_labels(self) -> None:
         """Choose the card's corner, then move every label clear of the rest (now)."""
         self._place_timer.stop()
+        self._rest_timer.stop()  # placed now: for the view as it stands
         self.backdrop.thaw()  # the placer reads every item as it is drawn
         if self.viewport().width() < 10:
             return
@@ -280,7 +285,7 @@ class BoardView(QGraphicsView):
             return
         steps = event.angleDelta().y() / 120.0
         if steps:
-            self.zoom(1.2**steps, placing="at rest")
+            self.zoom(1.2**steps, at_rest=True)
         event.accept()
 
     def _over_tug(self, pos: QPointF, tug: str) -> bool:

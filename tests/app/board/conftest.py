@@ -5,7 +5,7 @@ from __future__ import annotations
 from pathlib import Path
 
 import pytest
-from PySide6.QtCore import QEvent, QPoint, QPointF, QSize, Qt
+from PySide6.QtCore import QEvent, QPoint, QPointF, QSize, Qt, QTimer
 from PySide6.QtGui import QMouseEvent
 from PySide6.QtWidgets import QApplication
 
@@ -121,3 +121,17 @@ def show_fitted(qtbot, widget, view, size: QSize) -> None:  # type: ignore[no-un
     qtbot.waitExposed(widget)
     view.fit_to_hull()
     QApplication.processEvents()
+
+
+def settle(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    """Wait until every pending one-shot timer of the window has fired.
+
+    The stage's checks run a moment after a change and add notes under the tugs' names;
+    the labels are placed again once those events are done.
+    """
+    qtbot.wait(1)
+    qtbot.waitUntil(
+        lambda: not any(t.isActive() for t in window.findChildren(QTimer) if t.isSingleShot()),
+        timeout=5000,
+    )
+    qtbot.wait(1)

@@ -14,10 +14,11 @@ import math
 from pathlib import Path
 
 import pytest
-from PySide6.QtCore import QRectF, QTimer
+from PySide6.QtCore import QRectF
 from PySide6.QtWidgets import QGraphicsItem
 
 from app.board.items import GUIDE, Arrow, Label, TugItem
+from tests.app.board.conftest import settle
 from tests.conftest import SAMPLES
 
 STAGES = [
@@ -41,20 +42,6 @@ def _show(window, path: Path, index: int, qtbot) -> None:  # type: ignore[no-unt
     window.stage_box.setCurrentIndex(index)
     window.view.fit_to_hull()
     settle(window, qtbot)
-
-
-def settle(window, qtbot) -> None:  # type: ignore[no-untyped-def]
-    """Wait until every pending one-shot timer of the window has fired.
-
-    The stage's checks run a moment after a change and add notes under the tugs' names;
-    the labels are placed again once those events are done.
-    """
-    qtbot.wait(1)
-    qtbot.waitUntil(
-        lambda: not any(t.isActive() for t in window.findChildren(QTimer) if t.isSingleShot()),
-        timeout=5000,
-    )
-    qtbot.wait(1)
 
 
 def _labels(window) -> list[Label]:  # type: ignore[no-untyped-def]

@@ -15,6 +15,7 @@ from PySide6.QtWidgets import QApplication
 
 import app.board.view as board_view
 from app.board.items import Label
+from tests.app.board.conftest import settle
 
 MIDDLE = Qt.MouseButton.MiddleButton
 
@@ -56,19 +57,28 @@ def _labels(window) -> dict[int, tuple[QPointF, tuple[float, float]]]:  # type: 
     }
 
 
-def _at_rest(qtbot, window) -> None:  # type: ignore[no-untyped-def]
-    view = window.view
-    timers = (view._rest_timer, view._place_timer)
-    qtbot.waitUntil(lambda: not any(t.isActive() for t in timers), timeout=3000)
+def _still(qtbot, window) -> None:  # type: ignore[no-untyped-def]
+    """Every pending timer of the window run (the stage's checks, a placing), then the
+    view's wait for rest made long: under load a step of the test may take longer than
+    the real wait, which must not run out while the view is still being moved."""
+    settle(window, qtbot)
+    window.view._rest_timer.setInterval(60_000)
+
+
+def _rest(qtbot, window) -> None:  # type: ignore[no-untyped-def]
+    """The view stands still: its wait for rest, back to its real length, runs out."""
+    timer = window.view._rest_timer
+    assert timer.isActive()
+    timer.setInterval(board_view.PLACE_AT_REST_MS)  # started again, from now
+    qtbot.waitUntil(lambda: not timer.isActive(), timeout=3000)
     qtbot.wait(1)
-    QApplication.processEvents()
 
 
 def test_a_pan_carries_the_labels_and_places_them_once_it_stands_still(
     window, qtbot, placings
 ) -> None:  # type: ignore[no-untyped-def]
     view = window.view
-    _at_rest(qtbot, window)
+    _still(qtbot, window)
     start = QPointF(view.viewport().rect().center())
     before = _labels(window)
     placings.clear()
@@ -81,7 +91,7 @@ def test_a_pan_carries_the_labels_and_places_them_once_it_stands_still(
     for key, (anchor, shift) in during.items():
         assert shift == before[key][1]  # each label where it was beside its anchor
         assert anchor - before[key][0] == QPointF(48, 32)  # carried with the board
-    _at_rest(qtbot, window)  # the mouse stands still, the button still down
+    _rest(qtbot, window)  # the mouse stands still, the button still down
     assert placings == [1]
     _pan(view, QEvent.Type.MouseButtonRelease, start + QPointF(48, 32))
     qtbot.wait(1)
@@ -90,7 +100,7 @@ def test_a_pan_carries_the_labels_and_places_them_once_it_stands_still(
 
 def test_letting_go_of_a_pan_places_the_labels_at_once(window, qtbot, placings) -> None:  # type: ignore[no-untyped-def]
     view = window.view
-    _at_rest(qtbot, window)
+    _still(qtbot, window)
     start = QPointF(view.viewport().rect().center())
     placings.clear()
     _pan(view, QEvent.Type.MouseButtonPress, start)
@@ -102,7 +112,7 @@ def test_letting_go_of_a_pan_places_the_labels_at_once(window, qtbot, placings) 
 
 def test_wheel_notches_in_a_row_place_the_labels_once_at_rest(window, qtbot, placings) -> None:  # type: ignore[no-untyped-def]
     view = window.view
-    _at_rest(qtbot, window)
+    _still(qtbot, window)
     placings.clear()
     at = view.viewport().rect().center()
     scale = view.pixels_per_metre()
@@ -116,5 +126,5 @@ def test_wheel_notches_in_a_row_place_the_labels_once_at_rest(window, qtbot, pla
         QApplication.processEvents()
     assert view.pixels_per_metre() == pytest.approx(scale * 1.2**3)
     assert placings == []
-    _at_rest(qtbot, window)
+    _rest(qtbot, window)
     assert placings == [1]
