@@ -106,15 +106,17 @@ class CostMap:
         self.base = _summed(base)
         self.hull = _summed(grids["hull"].astype(np.float64) * W_HULL)
 
-    def cost(self, boxes: np.ndarray, on_hull: bool = False) -> np.ndarray:
-        """(k,) cost of each of (k, 4) boxes x0, y0, x1, y1 (px)."""
+    def cost(self, boxes: np.ndarray, on_hull: bool | np.ndarray = False) -> np.ndarray:
+        """(k,) cost of each of (k, 4) boxes x0, y0, x1, y1 (px); ``on_hull`` (one for
+        all, or (k,) one per box): the box's label belongs on its hull, whose area it
+        may cover for nothing."""
         if self.base is None or self.hull is None:
             raise RuntimeError("CostMap.finish() first")
         x0, y0, x1, y1 = _cells(boxes, self.w, self.h)
         total = _box_sums(self.base, x0, y0, x1, y1)
-        if not on_hull:
-            total = total + _box_sums(self.hull, x0, y0, x1, y1)
-        return total
+        if np.all(on_hull):
+            return total
+        return np.where(on_hull, total, total + _box_sums(self.hull, x0, y0, x1, y1))
 
 
 def _summed(grid: np.ndarray) -> np.ndarray:
@@ -351,12 +353,8 @@ def place_labels(
     n, k = shifts.shape[:2]
     cand = np.concatenate([home_a[:, None, 0:2] + shifts, home_a[:, None, 2:4] + shifts], axis=2)
     flat = cand.reshape(-1, 4)
-    on_hull = np.array([lab.on_hull for lab in placed])
-    covered = np.where(
-        on_hull[:, None],
-        costs.cost(flat, on_hull=True).reshape(n, k),
-        costs.cost(flat).reshape(n, k),
-    )
+    on_hull = np.repeat([lab.on_hull for lab in placed], k)
+    covered = costs.cost(flat, on_hull).reshape(n, k)
     outside = W_OUTSIDE * _outside(flat, size.width(), size.height()).reshape(n, k)
     moved = np.hypot(shifts[..., 0], shifts[..., 1])
     leader = np.where(moved > 0, W_LEADER, 0.0)

@@ -37,8 +37,8 @@ def dumps(project: Project, compact: bool = False) -> str:
     """The file text of a project (UTF-8 JSON, two-space indent, final newline).
 
     Coordinate pairs are kept on one line, ``[x, y]``, so outlines stay readable.
-    ``compact``: all on one line without spaces, for a file no one reads (the recovery
-    file). It is written by json's C encoder, which indented text cannot use: about six
+    ``compact``: all on one line without spaces, for a file only the program reads (the
+    recovery file). It is written by json's C encoder, which indented text cannot use: about six
     times faster for a plan of 200 tugs.
     """
     data = encode(project)

@@ -248,8 +248,7 @@ class HoldLimits:
         """(D,) which tug's loss sets the worst-lost limit, per direction ("" without)."""
         if not self.with_lost:
             return tuple("" for _ in self.all_tugs_ms)
-        names = self.problem.tugs  # made once: the property builds the tuple
-        return tuple(names[i] for i in self.worst_lost_index)
+        return tuple(self.problem.tugs[i] for i in self.worst_lost_index)
 
     def lowest(self, curve: np.ndarray | None = None) -> tuple[float, float]:
         """(direction deg, speed m/s) of the lowest limit of a curve (default: all tugs)."""
