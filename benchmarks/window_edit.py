@@ -114,12 +114,9 @@ def measure(n_tugs: int, rounds: int) -> dict[str, dict[str, list[float]]]:
     return out
 
 
-def _p(values: list[float], q: float) -> float:
-    s = sorted(values)
-    return s[min(len(s) - 1, round(q * (len(s) - 1)))]
-
-
 def main() -> None:
+    from window_drag import pct
+
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--tugs", type=int, nargs="*", default=[24, 200])
     ap.add_argument("--rounds", type=int, default=20)
@@ -137,8 +134,8 @@ def main() -> None:
         for name, r in res.items():
             c50 = statistics.median(r["cpu"])
             print(
-                f"  {name:<9} {statistics.median(r['wall']):8.1f} {_p(r['wall'], 0.95):7.1f}"
-                f"    {c50:7.1f} {_p(r['cpu'], 0.95):7.1f}   {c50 / base:5.1f}x"
+                f"  {name:<9} {statistics.median(r['wall']):8.1f} {pct(r['wall'], 0.95):7.1f}"
+                f"    {c50:7.1f} {pct(r['cpu'], 0.95):7.1f}   {c50 / base:5.1f}x"
             )
         share = statistics.median(res["labels"]["cpu"]) / statistics.median(res["edit"]["cpu"])
         print("  (an edit's wall: until the window answers; its CPU: all the work it sets off)")

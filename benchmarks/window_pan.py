@@ -25,7 +25,7 @@ sys.path.insert(0, str(HERE))
 if str(HERE.parent) not in sys.path:
     sys.path.insert(1, str(HERE.parent))
 
-from window_drag import Subject, WindowSubject, burst  # noqa: E402
+from window_drag import Subject, WindowSubject, burst, pct  # noqa: E402
 
 
 class PanSubject(Subject):
@@ -45,11 +45,6 @@ class PanSubject(Subject):
 
     def grabbed(self) -> bool:
         return self.view._pan is not None
-
-
-def _p(values: list[float], q: float) -> float:
-    s = sorted(values)
-    return s[min(len(s) - 1, round(q * (len(s) - 1)))]
 
 
 def main() -> None:
@@ -85,8 +80,8 @@ def main() -> None:
         for name, f in figures.items():
             w, c = f["wall"], f["cpu"]
             print(
-                f"  {name:<10} {statistics.median(w):8.1f} {_p(w, 0.95):6.1f} {_p(w, 0.99):6.1f}"
-                f"   {statistics.median(c):8.1f} {_p(c, 0.95):6.1f} {_p(c, 0.99):6.1f}"
+                f"  {name:<10} {statistics.median(w):8.1f} {pct(w, 0.95):6.1f} {pct(w, 0.99):6.1f}"
+                f"   {statistics.median(c):8.1f} {pct(c, 0.95):6.1f} {pct(c, 0.99):6.1f}"
                 f"   {statistics.median(c) / base:5.2f}x CPU"
             )
     print(f"load average at the end: {' '.join(f'{x:.1f}' for x in os.getloadavg())}")

@@ -100,11 +100,17 @@ def move_with_button(view, pt: QPoint) -> None:  # type: ignore[no-untyped-def]
     QApplication.sendEvent(vp, ev)
 
 
-def send_mouse(view, kind: QEvent.Type, pt: QPointF, buttons: Qt.MouseButton) -> None:  # type: ignore[no-untyped-def]
-    """A mouse press, move or release with the left button, sent to the viewport at ``pt``
-    (pixels, may be fractional), the events it leads to handled."""
+def send_mouse(  # type: ignore[no-untyped-def]
+    view,
+    kind: QEvent.Type,
+    pt: QPointF,
+    buttons: Qt.MouseButton,
+    button: Qt.MouseButton = Qt.MouseButton.LeftButton,
+) -> None:
+    """A mouse press, move or release of ``button`` (``buttons``: those held), sent to the
+    viewport at ``pt`` (pixels, may be fractional), the events it leads to handled."""
     vp = view.viewport()
-    button = Qt.MouseButton.NoButton if kind == QEvent.Type.MouseMove else Qt.MouseButton.LeftButton
+    button = Qt.MouseButton.NoButton if kind == QEvent.Type.MouseMove else button
     ev = QMouseEvent(
         kind, pt, QPointF(vp.mapToGlobal(pt.toPoint())), button, buttons,
         Qt.KeyboardModifier.NoModifier,

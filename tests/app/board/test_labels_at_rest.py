@@ -10,12 +10,12 @@ from __future__ import annotations
 
 import pytest
 from PySide6.QtCore import QEvent, QPoint, QPointF, Qt
-from PySide6.QtGui import QMouseEvent, QWheelEvent
+from PySide6.QtGui import QWheelEvent
 from PySide6.QtWidgets import QApplication
 
 import app.board.view as board_view
 from app.board.items import Label
-from tests.app.board.conftest import settle
+from tests.app.board.conftest import send_mouse, settle
 
 MIDDLE = Qt.MouseButton.MiddleButton
 
@@ -36,15 +36,8 @@ def placings(monkeypatch: pytest.MonkeyPatch) -> list[int]:
 
 def _pan(view, kind: QEvent.Type, pt: QPointF) -> None:  # type: ignore[no-untyped-def]
     """A press, move or release of the middle button (it pans anywhere on the board)."""
-    vp = view.viewport()
-    button = Qt.MouseButton.NoButton if kind == QEvent.Type.MouseMove else MIDDLE
     held = Qt.MouseButton.NoButton if kind == QEvent.Type.MouseButtonRelease else MIDDLE
-    ev = QMouseEvent(
-        kind, pt, QPointF(vp.mapToGlobal(pt.toPoint())), button, held,
-        Qt.KeyboardModifier.NoModifier,
-    )  # fmt: skip
-    QApplication.sendEvent(vp, ev)
-    QApplication.processEvents()
+    send_mouse(view, kind, pt, held, button=MIDDLE)
 
 
 def _labels(window) -> dict[int, tuple[QPointF, tuple[float, float]]]:  # type: ignore[no-untyped-def]
