@@ -30,7 +30,7 @@ ADDED_MASS_METHODS = ("sections", "ship")
 #: ON_OUTLINE_REL times the outline's largest coordinate. The file keeps 12 significant
 #: digits, so a point written at 20 km from the hull's origin (an outline drawn in a
 #: site's or a chart's coordinates) moves by up to 5e-8 m: the allowance grows with the
-#: coordinates, 20 times that rounding, and stays far under any drawing's precision.
+#: coordinates (at least 20 times that rounding) and stays far under any drawing's.
 ON_OUTLINE_M = 1e-9
 ON_OUTLINE_REL = 1e-10
 
