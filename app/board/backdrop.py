@@ -33,6 +33,7 @@ from PySide6.QtGui import QPainter, QPixmap, QRegion, QTransform
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsView, QStyleOptionGraphicsItem, QWidget
 from shiboken6 import isValid
 
+from app.board.items import take_out
 from app.guard import guarded
 
 NO_CONTENTS = QGraphicsItem.GraphicsItemFlag.ItemHasNoContents
@@ -263,9 +264,7 @@ class Backdrop:
         self._items = []
         for pic in self._pictures:
             if isValid(pic):
-                pic.setParentItem(None)
-                if pic.scene() is not None:
-                    pic.scene().removeItem(pic)
+                take_out(pic)
         self._pictures = []
         self._others = {}
         self.under = QPixmap()

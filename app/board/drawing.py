@@ -32,6 +32,7 @@ from app.board.items import (
     PiecedLine,
     TugItem,
     polygon_path,
+    take_out,
 )
 from app.formatting import fitting_summary
 from app.guard import guarded
@@ -104,8 +105,8 @@ class HullDrawing:
         self.port_side.setPen(style.pen(style.PORT, 4.0))
         self.stbd_side = LineItem(self.frame)
         self.stbd_side.setPen(style.pen(style.STARBOARD, 4.0))
-        for item in (self.port_side, self.stbd_side, self.centreline):
-            item.setZValue(Z_HULL + 1)
+        for line in (self.port_side, self.stbd_side, self.centreline):
+            line.setZValue(Z_HULL + 1)
         #: The items drawn in the hull's frame from a device cache while it lies unturned.
         self.cached = (self.outline, self.port_side, self.stbd_side, self.centreline)
         bold = style.label_font(8.5, bold=True)
@@ -197,9 +198,7 @@ class HullDrawing:
         n = len(hull.outline)
         while len(self.handles) > n:
             h = self.handles.pop()
-            h.setParentItem(None)
-            if h.scene() is not None:
-                h.scene().removeItem(h)
+            take_out(h)
         while len(self.handles) < n:
             h = Handle(self.frame)
             h.setZValue(Z_HANDLE)
@@ -222,16 +221,12 @@ class HullDrawing:
             if name not in names:
                 mark, lab = self.fittings.pop(name)
                 for item in (mark, lab):
-                    item.setParentItem(None)
-                    if item.scene() is not None:
-                        item.scene().removeItem(item)
+                    take_out(item)
         for f in hull.fittings:
             if f.name not in self.fittings or self.fittings[f.name][0].kind != f.kind:
                 if f.name in self.fittings:
                     for item in self.fittings.pop(f.name):
-                        item.setParentItem(None)
-                        if item.scene() is not None:
-                            item.scene().removeItem(item)
+                        take_out(item)
                 mark = FittingMark(f.kind, self.frame)
                 mark.setZValue(Z_FITTING)
                 lab = Label("", self.frame, style.LINE_POINT, style.label_font(8), (9, 12))
@@ -292,8 +287,8 @@ class HullDrawing:
         self._changed()
         self._selection_shown = key
         name = self.hull.name if self.hull else None
-        hull_selected = (
-            bool(selection) and selection[1] == name and selection[0] in ("hull", "vertex")
+        hull_selected = bool(
+            selection and selection[1] == name and selection[0] in ("hull", "vertex")
         )
         self.outline.setPen(
             style.pen(
@@ -308,7 +303,7 @@ class HullDrawing:
         )
         self.show_handles(hull_selected, vertex)  # type: ignore[arg-type]
         for fname, (mark, lab) in self.fittings.items():
-            on = bool(selection) and selection[0] == "fitting" and selection[1:] == (name, fname)
+            on = bool(selection and selection[0] == "fitting" and selection[1:] == (name, fname))
             mark.set_selected(on)
             lab.setVisible(on)
 
@@ -355,9 +350,7 @@ class TugDrawing:
     def remove(self) -> None:
         self.changes.count += 1
         for item in (self.glyph, self.label):
-            item.setParentItem(None)
-            if item.scene() is not None:
-                item.scene().removeItem(item)
+            take_out(item)
 
     def forget(self) -> None:
         """Draw this tug again at its next update (its label's words changed)."""
@@ -591,9 +584,7 @@ class BalanceDrawing:
         self.changes.count += 1
         while len(self.loads) > len(balance.loads):
             for item in self.loads.pop():
-                item.setParentItem(None)
-                if item.scene() is not None:
-                    item.scene().removeItem(item)
+                take_out(item)
         while len(self.loads) < len(balance.loads):
             a = Arrow(style.LOAD_FORCE, 3.0, self.root)
             a.setZValue(Z_FORCE)
@@ -674,9 +665,7 @@ class BodyDrawing:
             if name not in names:
                 d = self.hulls.pop(name)
                 self.changes.count += 1
-                d.frame.setParentItem(None)
-                if d.frame.scene() is not None:
-                    d.frame.scene().removeItem(d.frame)
+                take_out(d.frame)
         for m in body.members:
             if m.hull.name in self.hulls:
                 self.hulls[m.hull.name].set_member(m)

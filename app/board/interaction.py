@@ -127,23 +127,26 @@ class _VertexDrag:
     moved: bool = False
 
 
+#: Whatever a drag in progress moves.
+_Drag = (
+    _TugDrag
+    | _FittingDrag
+    | _VertexDrag
+    | _BodyDrag
+    | _TurnDrag
+    | PointDrag
+    | FeatureDrag
+    | SectorDrag
+)
+
+
 class Interaction:
     """Mouse and key handling of one BoardScene (kept apart from the drawing)."""
 
     def __init__(self, scene: BoardScene) -> None:
         self.scene = scene
         self.tool = "select"
-        self.drag: (
-            _TugDrag
-            | _FittingDrag
-            | _VertexDrag
-            | _BodyDrag
-            | _TurnDrag
-            | PointDrag
-            | FeatureDrag
-            | SectorDrag
-            | None
-        ) = None
+        self.drag: _Drag | None = None
         #: The plan as the drag left it: if it is another, something else (a key, a menu,
         #: undo) edited the plan under the drag, whose indexes and names may be stale.
         self._drag_plan: object = None
@@ -284,7 +287,7 @@ class Interaction:
         self._clear_invalid()
         return True
 
-    def drop_drag(self) -> object:
+    def drop_drag(self) -> _Drag | None:
         """End the drag in progress, however it ends, and return it: a dragged tug goes
         back to its resting look (Escape or an edit under the drag has no release)."""
         drag, self.drag = self.drag, None

@@ -61,6 +61,15 @@ FIXED_CACHE = QGraphicsItem.CacheMode.ItemCoordinateCache
 NO_CACHE = QGraphicsItem.CacheMode.NoCache
 
 
+def take_out(item: QGraphicsItem) -> None:
+    """Take ``item`` off its parent and out of its scene: it is drawn no more."""
+    scene = item.scene()
+    # Qt takes a null parent (the item is made top-level); PySide6's stubs leave None out
+    item.setParentItem(None)  # type: ignore[arg-type]
+    if scene is not None:
+        scene.removeItem(item)
+
+
 class Label(QGraphicsItem):
     """Text on a light box, fixed in pixels; ``offset`` (px, y down) from its anchor."""
 
@@ -451,7 +460,7 @@ class _ArrowItem(QGraphicsItem):
         pad = BAND_PAD_PX + self._pen.widthF() / 2
         boxes: set[tuple[int, int, int, int]] = set()
         for line in self._shaft.toSubpathPolygons(t):
-            pts = [(p.x(), p.y()) for p in line]
+            pts = [(p.x(), p.y()) for p in line.toList()]
             for (ax, ay), (bx, by) in itertools.pairwise(pts):
                 n = max(1, math.ceil(math.hypot(bx - ax, by - ay) / BAND_STEP_PX))
                 for k in range(n):
@@ -617,9 +626,7 @@ class TugItem(QGraphicsItem):
     def _unsplit(self, arrow: TugArrow) -> None:
         """Let the arrow apart go (out of the scene: at rest the tug is one item)."""
         self._apart = None
-        arrow.setParentItem(None)
-        if arrow.scene() is not None:
-            arrow.scene().removeItem(arrow)
+        take_out(arrow)
 
     def join(self) -> bool:
         """Draw the arrow in this item again (the drag is over); whether it was apart."""

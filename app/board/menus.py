@@ -23,6 +23,7 @@ from app.edits import sectors
 from app.guard import guarded
 from core.errors import TowboardError
 from core.mechanics.bodies import body_name_of_hull
+from core.model.plan import Stage
 from core.model.swing import Swing
 from core.model.tugs import Placement
 
@@ -64,25 +65,23 @@ def board_menu(scene: BoardScene, pos: QPointF) -> QMenu:
     menu = QMenu(_parent(scene))
     if target is not None and target[0] != "turn":
         scene.select(target)
-    kind = target[0] if target else None
-    if kind == "tug":
-        _tug_entries(scene, menu, str(target[1]))  # type: ignore[index]
-    elif kind == "fitting":
-        name = str(target[2])  # type: ignore[index]
-        menu.addAction(f"Delete {name}", scene.interaction.delete_selection)
-    elif kind == "vertex":
-        menu.addAction(f"Delete vertex {int(target[2]) + 1}", scene.interaction.delete_selection)  # type: ignore[index, call-overload]
-        _body_entries(scene, menu, str(target[1]))  # type: ignore[index]
-    elif kind in ("hull", "turn"):
-        _body_entries(scene, menu, str(target[1]))  # type: ignore[index]
-    elif kind == "site_point":
-        i = int(target[2])  # type: ignore[index, call-overload]
-        menu.addAction(f"Delete point {i + 1}", scene.interaction.delete_selection)
-        _site_entries(scene, menu, str(target[1]))  # type: ignore[index]
-    elif kind == "site":
-        _site_entries(scene, menu, str(target[1]))  # type: ignore[index]
-    else:
-        _water_entries(scene, menu)
+    match target:
+        case ("tug", tug, *_):
+            _tug_entries(scene, menu, str(tug))
+        case ("fitting", _, name, *_):
+            menu.addAction(f"Delete {name}", scene.interaction.delete_selection)
+        case ("vertex", hull, int(i), *_):
+            menu.addAction(f"Delete vertex {i + 1}", scene.interaction.delete_selection)
+            _body_entries(scene, menu, str(hull))
+        case ("hull" | "turn", hull_or_body, *_):
+            _body_entries(scene, menu, str(hull_or_body))
+        case ("site_point", feature, int(i), *_):
+            menu.addAction(f"Delete point {i + 1}", scene.interaction.delete_selection)
+            _site_entries(scene, menu, str(feature))
+        case ("site", feature, *_):
+            _site_entries(scene, menu, str(feature))
+        case _:
+            _water_entries(scene, menu)
     for hook in getattr(scene, "menu_hooks", ()):
         hook(menu, target)
     return menu
@@ -100,16 +99,15 @@ def _tug_entries(scene: BoardScene, menu: QMenu, tug: str) -> None:
     sub = menu.addMenu(f"Setting of {tug} ({setting * 100:.0f} %)")
     for pct in (0, 25, 50, 75, 100):
         sub.addAction(f"{pct} %", guarded(lambda p=pct: inter.step_setting(tug, p / 100 - setting)))
-    _sector_entries(scene, menu, tug)
+    _sector_entries(scene, menu, stage, tug)
     menu.addSeparator()
     menu.addAction(f"Let go {tug}", inter.delete_selection)
 
 
-def _sector_entries(scene: BoardScene, menu: QMenu, tug: str) -> None:
-    """The tug's working sector (about its lead as set, the whole circle, none) and, at a
-    push point, whether it is made fast (push-pull); each one undo step."""
+def _sector_entries(scene: BoardScene, menu: QMenu, stage: Stage, tug: str) -> None:
+    """The working sector of ``tug`` in ``stage`` (about its lead as set, the whole circle,
+    none) and, at a push point, whether it is made fast (push-pull); each one undo step."""
     c = scene.controller
-    stage = c.stage
     placement = stage.placement(tug)
     at_push = c.project.hull(placement.hull).fitting(placement.point).kind == "push"
 
@@ -194,7 +192,10 @@ def _swing_entries(scene: BoardScene, menu: QMenu, body: str) -> None:
         base = swing or Swing(now, (now - 90.0) % 360.0, "port")
         what = "end" if end else "start"
         try:
-            new = replace(base, **{f"{what}_heading_deg": now})
+            if end:
+                new = replace(base, end_heading_deg=now)
+            else:
+                new = replace(base, start_heading_deg=now)
         except TowboardError as e:
             c.message.emit(f"Swing {what}: not set ({e})")
             return

@@ -40,9 +40,9 @@ from app.guard import guarded
 from app.paint import style
 from app.paint.shapes import drawing_scales
 from core.mechanics.balance import TugShare
-from core.mechanics.bodies import body_name_of_hull, body_of
+from core.mechanics.bodies import Body, body_name_of_hull, body_of
 from core.mechanics.site import body_pose
-from core.model.plan import BodyPose, Project, Stage
+from core.model.plan import BodyPose, Project, Site, Stage
 
 Selection = tuple[object, ...] | None
 
@@ -73,7 +73,7 @@ class BoardScene(QGraphicsScene):
         self.interaction = Interaction(self)
         self._fixed_results: dict[str, BodyResult] | None = None
         self._units = controller.project.units
-        self._rect_key: tuple[object, list[tuple[object, BodyPose]]] | None = None
+        self._rect_key: tuple[Site, list[tuple[Body | None, BodyPose]]] | None = None
         #: Grid snap: on or off, and the step in the display length unit.
         self.snap_on = False
         self.grid_step = 1.0
@@ -180,8 +180,8 @@ class BoardScene(QGraphicsScene):
         force_scale, moment_scale, head = self.scales()
         if project.units != self._units:  # every label is written again in the new units
             self._units = project.units
-            for d in self.bodies.values():
-                for t in d.tugs.values():
+            for shown in self.bodies.values():
+                for t in shown.tugs.values():
                     t.forget()
         for name in names:
             d = self.bodies.get(name)

@@ -24,7 +24,7 @@ from PySide6.QtGui import QPainter, QPainterPath, QPen
 from PySide6.QtWidgets import QGraphicsItem, QStyleOptionGraphicsItem, QWidget
 from shiboken6 import isValid
 
-from app.board.items import CACHE, GUIDE, IGNORES, ROLE
+from app.board.items import CACHE, GUIDE, IGNORES, ROLE, take_out
 from app.guard import guarded
 from app.paint import style
 from app.paint.shapes import TUG_LENGTH_M
@@ -244,10 +244,7 @@ class SectorLayer:
         for item in items:
             if not isValid(item):
                 continue  # already deleted with its body's root
-            s = item.scene()
-            item.setParentItem(None)
-            if s is not None:
-                s.removeItem(item)
+            take_out(item)
 
     # -- the drag -------------------------------------------------------------------------
     def start(self, tug: str, which: str, pos: QPointF) -> SectorDrag | None:
@@ -294,6 +291,8 @@ class SectorLayer:
             lo = max(min(self._snapped(drag, lo, step), hi), hi - TAU)
         c = self.scene.controller
         stage = c.stage
+        if stage is None:
+            return  # no stage to preview on (an edit under a drag drops it before a move)
         new = drag.placement.with_sector((lo, hi))
         c.preview(c.with_stage(stage.with_placement(new)))
         c.message.emit(self.words(drag, lo, hi))
