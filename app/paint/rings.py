@@ -10,7 +10,7 @@ outer ring is drawn on it.
 from __future__ import annotations
 
 import math
-from collections.abc import Sequence
+from collections.abc import Iterable
 
 from core.units import DisplayUnits
 
@@ -33,7 +33,7 @@ def ring_step(top: float) -> float:
 
 
 def polar_scale(
-    all_tugs_ms: Sequence[float] | None,
+    all_tugs_ms: Iterable[float] | None,
     planned_ms: float,
     max_wind_ms: float | None,
     units: DisplayUnits,
@@ -60,7 +60,7 @@ def polar_scale(
 
 
 def current_scale(
-    limits_ms: Sequence[float] | None,
+    limits_ms: Iterable[float] | None,
     planned_ms: float,
     max_current_ms: float | None,
     units: DisplayUnits,

@@ -12,6 +12,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, replace
+from typing import Any
 
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
@@ -416,7 +417,8 @@ class ConditionsPanel(QWidget):
             if not text.strip() and not f.optional:
                 raise InputError(f.title, text, "must be given")
             value = parse_optional(text, rule(f.attr), self._units())
-            new = replace(c, **{f.attr: value})
+            field: dict[str, Any] = {f.attr: value}  # a field named at run time
+            new = replace(c, **field)
         except InputError as e:
             self.controller.message.emit(message(e, self._units()))
             self.refresh_field(f)
@@ -461,7 +463,8 @@ class ConditionsPanel(QWidget):
             except InputError as e:
                 self.controller.message.emit(message(e, self._units()))
                 return
-        self._apply(replace(c, **{attr: value}), "Set centre of pressure", attr)
+        field: dict[str, Any] = {attr: value}  # a field named at run time
+        self._apply(replace(c, **field), "Set centre of pressure", attr)
 
     @guarded
     def edit_efficiency(self) -> None:

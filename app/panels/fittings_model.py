@@ -124,10 +124,10 @@ class FittingsModel(HullRowsModel):
             v = f.x if key == "x" else f.y
             return ff.edit_text(u, v, "length") if editing else fmt.number(u, v, "length", 2)
         if key in ("swl", "tow"):
-            v = f.swl_n if key == "swl" else f.tow_n
-            if v is None:
+            rating = f.swl_n if key == "swl" else f.tow_n
+            if rating is None:
                 return "" if editing else "not given"
-            return ff.edit_text(u, v, "force") if editing else fmt.number(u, v, "force")
+            return ff.edit_text(u, rating, "force") if editing else fmt.number(u, rating, "force")
         if key == "lines":
             text = ff.sector_text(f)
             return "" if editing and text == "any" else text

@@ -9,6 +9,7 @@ coordinates. Fittings: every line point and push point with its ratings.
 from __future__ import annotations
 
 from dataclasses import replace
+from typing import Any
 
 from PySide6.QtCore import Signal
 from PySide6.QtWidgets import (
@@ -84,7 +85,7 @@ class HullPanel(QWidget):
         form = QFormLayout()
         form.addRow("Name", self.name)
         self._length_labels: list[tuple[QLabel, str]] = []
-        for text, w in (
+        for text, widget in (
             ("Length overall", self.length),
             ("Beam", self.beam),
             ("Plan area", self.area),
@@ -94,7 +95,7 @@ class HullPanel(QWidget):
         ):
             lab = QLabel(text)
             self._length_labels.append((lab, text))
-            form.addRow(lab, w)
+            form.addRow(lab, widget)
         form.addRow("Displacement (t mass)", self.displacement)
         cog = QHBoxLayout()
         cog.addWidget(self.cog_x)
@@ -183,8 +184,8 @@ class HullPanel(QWidget):
         ):
             w.setEnabled(enabled)
         if h is None:
-            for w in (self.length, self.beam, self.area, self.centroid, self.reference):
-                w.setText("—")
+            for shown in (self.length, self.beam, self.area, self.centroid, self.reference):
+                shown.setText("—")
             return
         g = h.geometry
         k = u.value(1.0, "length")
@@ -256,7 +257,8 @@ class HullPanel(QWidget):
         def go() -> None:
             si = self._number(edit, rules.DRAUGHT if attr == "draught_m" else rules.FREEBOARD)
             if si != getattr(h, attr):
-                self._apply(replace(h, **{attr: si}), f"{attr.split('_')[0].title()} of {h.name}")
+                field: dict[str, Any] = {attr: si}  # a field named at run time
+                self._apply(replace(h, **field), f"{attr.split('_')[0].title()} of {h.name}")
 
         self._guard(go)
 

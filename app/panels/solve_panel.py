@@ -281,7 +281,8 @@ class SolvePanel(QWidget):
         speed = 0.0
         if kind == "transit":
             speed = parse_value(self.speed.text() or "0", rules.TRANSIT_SPEED, u, "goal")
-        return Goal(kind, *vals, speed_ms=speed)
+        fx, fy, mz = vals
+        return Goal(kind, fx, fy, mz, speed_ms=speed)
 
     @guarded
     def _kind_chosen(self) -> None:

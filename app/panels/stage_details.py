@@ -327,7 +327,8 @@ class StageDetails(QWidget):
             return
         project = self.controller.project
         u = project.units
-        name = self.poses.item(item.row(), 0).text()
+        first = self.poses.item(item.row(), 0)
+        name = "" if first is None else first.text()
         if name not in project.body_names():  # a row left from a plan no longer shown
             self.fill(force=True)
             return

@@ -132,8 +132,10 @@ class TugsModel(QAbstractTableModel):
                 shares[s.tug] = (s, body)
         rows = []
         for t in c.project.tugs:
-            s = shares.get(t.name)
-            rows.append(Row(t, placed.get(t.name), s[0] if s else None, s[1] if s else None))
+            got = shares.get(t.name)
+            rows.append(
+                Row(t, placed.get(t.name), got[0] if got else None, got[1] if got else None)
+            )
         self.rows = rows
 
     @guarded
@@ -370,14 +372,15 @@ class TugsModel(QAbstractTableModel):
         project = c.project
         u = project.units
         t, p = row.tug, row.placement
-        if role == Qt.ItemDataRole.CheckStateRole and key == "push_pull" and p is not None:
-            on = value in (Qt.CheckState.Checked, Qt.CheckState.Checked.value, 2, True)
-            push = row.share is not None and row.share.mode != "line"
-            new_p = sectors.with_push_pull(p, push, on)
-            return c.with_stage(c.stage.with_placement(new_p)), f"{t.name} push-pull"
-        if role == Qt.ItemDataRole.CheckStateRole and key == "astern" and p is not None:
-            on = value in (Qt.CheckState.Checked, Qt.CheckState.Checked.value, 2, True)
+        if role == Qt.ItemDataRole.CheckStateRole and key in ("push_pull", "astern"):
             stage = c.stage
+            if p is None or stage is None:  # a tug not placed: nothing to tick
+                return None, ""
+            on = value in (Qt.CheckState.Checked, Qt.CheckState.Checked.value, 2, True)
+            if key == "push_pull":
+                push = row.share is not None and row.share.mode != "line"
+                new_p = sectors.with_push_pull(p, push, on)
+                return c.with_stage(stage.with_placement(new_p)), f"{t.name} push-pull"
             return c.with_stage(
                 stage.with_placement(replace(p, astern=bool(on)))
             ), f"{t.name} astern"
