@@ -61,7 +61,7 @@ class FittingDialog(QDialog):
         self.type = QComboBox()
         self.type.setEditable(True)
         self.type.addItems(list(FITTING_TYPES))
-        self.x, self.y = QLineEdit(), QLineEdit()
+        self.pos_x, self.pos_y = QLineEdit(), QLineEdit()
         self.swl, self.tow = QLineEdit(), QLineEdit()
         for w in (self.swl, self.tow):
             w.setPlaceholderText("not given")
@@ -85,7 +85,7 @@ class FittingDialog(QDialog):
         form.addRow("Kind", self.kind)
         form.addRow("Type", self.type)
         pos = QHBoxLayout()
-        for text, w in (("x", self.x), ("y", self.y)):
+        for text, w in (("x", self.pos_x), ("y", self.pos_y)):
             pos.addWidget(QLabel(text))
             pos.addWidget(w, 1)
         form.addRow(f"Position ({ln})", pos)
@@ -114,8 +114,8 @@ class FittingDialog(QDialog):
         self.name.setText(f.name)
         self.kind.setCurrentText(ff.KIND_TEXT[f.kind])
         self.type.setCurrentText(f.fitting_type)
-        self.x.setText(ff.edit_text(u, f.x, "length"))
-        self.y.setText(ff.edit_text(u, f.y, "length"))
+        self.pos_x.setText(ff.edit_text(u, f.x, "length"))
+        self.pos_y.setText(ff.edit_text(u, f.y, "length"))
         self.swl.setText(ff.edit_text(u, f.swl_n, "force"))
         self.tow.setText(ff.edit_text(u, f.tow_n, "force"))
         sector = ff.sector_bearings(f)
@@ -125,7 +125,7 @@ class FittingDialog(QDialog):
         self._kind_changed(self.kind.currentText())
 
     def _numbers(self) -> tuple[QLineEdit, ...]:
-        return (self.x, self.y, self.swl, self.tow, self.lines_from, self.lines_to)
+        return (self.pos_x, self.pos_y, self.swl, self.tow, self.lines_from, self.lines_to)
 
     def _changed(self, edit: QLineEdit) -> bool:
         return edit.text() != self._loaded.get(edit)
@@ -149,10 +149,10 @@ class FittingDialog(QDialog):
                 ff.parse_bearing(self.lines_to.text(), "permitted lines: to"),
             )
         x, y, swl, tow = old.x, old.y, old.swl_n, old.tow_n
-        if self._changed(self.x):
-            x = ff.parse_length(u, self.x.text(), "x", "position")
-        if self._changed(self.y):
-            y = ff.parse_length(u, self.y.text(), "y", "position")
+        if self._changed(self.pos_x):
+            x = ff.parse_length(u, self.pos_x.text(), "x", "position")
+        if self._changed(self.pos_y):
+            y = ff.parse_length(u, self.pos_y.text(), "y", "position")
         if self._changed(self.swl):
             swl = ff.parse_rating(u, self.swl.text(), rules.SWL, old.name)
         if self._changed(self.tow):

@@ -42,9 +42,9 @@ class TugForm(QWidget):
         self.bollard_pull, self.astern_pull = QLineEdit(), QLineEdit()
         self.certificate = QLineEdit()
         self.certificate.setPlaceholderText("date of the bollard pull certificate")
-        self.height = QLineEdit()
+        self.towing_point_height = QLineEdit()
         self.towline_length, self.towline_mbl = QLineEdit(), QLineEdit()
-        for w in (self.height, self.towline_length, self.towline_mbl):
+        for w in (self.towing_point_height, self.towline_length, self.towline_mbl):
             w.setPlaceholderText("not given")
         self.warn_share = QLineEdit()
         self.warn_share.setToolTip(
@@ -67,7 +67,7 @@ class TugForm(QWidget):
         form.addRow(f"Rated bollard pull ({f})", self.bollard_pull)
         form.addRow(f"Astern pull ({f})", self.astern_pull)
         form.addRow("Certificate date", self.certificate)
-        form.addRow(f"Towing point height ({ln})", self.height)
+        form.addRow(f"Towing point height ({ln})", self.towing_point_height)
         form.addRow(f"Towline length ({ln})", self.towline_length)
         form.addRow(f"Towline MBL ({f})", self.towline_mbl)
         form.addRow("", self.mbl_ratio)
@@ -85,7 +85,7 @@ class TugForm(QWidget):
             self.bollard_pull,
             self.astern_pull,
             self.certificate,
-            self.height,
+            self.towing_point_height,
             self.towline_length,
             self.towline_mbl,
             self.warn_share,
@@ -112,7 +112,7 @@ class TugForm(QWidget):
         default = self.units.show(tug.with_astern_pull(None).astern_pull, "force")
         self.astern_pull.setPlaceholderText(f"not given: {default} for its type")
         self.certificate.setText(tug.certificate_date)
-        self.height.setText(self._text(tug.towing_point_height_m, "length"))
+        self.towing_point_height.setText(self._text(tug.towing_point_height_m, "length"))
         self.towline_length.setText(self._text(tug.towline_length_m, "length"))
         self.towline_mbl.setText(self._text(tug.towline_mbl_n, "force"))
         self.warn_share.setText(f"{tug.towline_warn_fraction:.6g}")
@@ -152,7 +152,7 @@ class TugForm(QWidget):
             tug_type=self.type.currentText().strip(),
             role=self.role.text().strip(),
             towing_point_height_m=self._number(
-                self.height, old.towing_point_height_m, rules.TOWING_POINT_HEIGHT, name
+                self.towing_point_height, old.towing_point_height_m, rules.TOWING_POINT_HEIGHT, name
             ),
             certificate_date=self.certificate.text().strip(),
             towline_length_m=self._number(
@@ -172,8 +172,9 @@ class TugForm(QWidget):
             bp = numbers.parse_number(self.bollard_pull.text())
             mbl = numbers.parse_number(self.towline_mbl.text())
         except InputError:
-            bp = mbl = None
-        if bp is None or mbl is None or bp <= 0:
+            self.mbl_ratio.setText("")
+            return
+        if bp <= 0:
             self.mbl_ratio.setText("")
             return
         self.mbl_ratio.setText(f"MBL is {mbl / bp:.1f} × the rated bollard pull")

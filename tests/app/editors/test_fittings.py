@@ -190,3 +190,12 @@ def test_board_tooltips_say_the_ratings_in_the_display_units(window) -> None:
     assert mark.toolTip() == "Bow centre bitt (line point, bitt, SWL 784.5 kN)"
     _at, pad = _mark_point(window, "Stbd shoulder pad")
     assert pad.toolTip() == "Stbd shoulder pad (push point, pushing pad, no rating given)"
+
+
+def test_the_dialog_keeps_the_widget_methods_its_fields_are_named_after(window) -> None:
+    """The position's fields once stood in the attributes ``x`` and ``y``, which hid
+    QWidget.x() and y(): asking the dialog where it lies raised TypeError."""
+    d = window.editors.edit_fitting(HULL, "Bow centre bitt")
+    d.move(40, 50)
+    assert (d.x(), d.y()) == (d.pos().x(), d.pos().y())
+    assert (d.width(), d.height()) == (d.size().width(), d.size().height())

@@ -6,6 +6,7 @@ import pytest
 from PySide6.QtCore import Qt
 
 from app.panels.tug_dialog import TugDialog
+from app.panels.tug_form import TugForm
 from core.units import DisplayUnits
 from tests.app.editors.conftest import click_cell, retype
 
@@ -53,7 +54,7 @@ def test_typing_every_particular_is_one_undo_step(window, qtbot) -> None:
     retype(qtbot, f.bollard_pull, "38.5")
     retype(qtbot, f.astern_pull, "35")
     retype(qtbot, f.certificate, "2026-05-02")
-    retype(qtbot, f.height, "4.2")
+    retype(qtbot, f.towing_point_height, "4.2")
     retype(qtbot, f.towline_length, "160")
     retype(qtbot, f.towline_mbl, "120")
     assert f.mbl_ratio.text() == "MBL is 3.1 × the rated bollard pull"
@@ -92,9 +93,9 @@ def test_the_fields_are_in_the_display_units(window, qtbot) -> None:
     c.apply(c.project.with_units(DisplayUnits(force="kN", length="ft")), "Units")
     d = window.editors.edit_tug("Gannet")
     assert d.form.bollard_pull.text() == "539.366"
-    assert d.form.height.text() == f"{5.5 / 0.3048:.6g}"  # 0.3048 m per ft exactly
+    assert d.form.towing_point_height.text() == f"{5.5 / 0.3048:.6g}"  # 0.3048 m per ft exactly
     retype(qtbot, d.form.towline_mbl, "1600")
-    retype(qtbot, d.form.height, "20")
+    retype(qtbot, d.form.towing_point_height, "20")
     _ok(qtbot, d)
     t = c.project.tug("Gannet")
     assert t.towline_mbl_n == pytest.approx(1600e3)
@@ -128,3 +129,13 @@ def test_refused_input_is_named_and_nothing_is_lost(
     assert d.isVisible() and words in d.error.text()
     assert d.form.call_sign.text() == "GNT8"
     assert c.project == before
+
+
+def test_the_form_keeps_the_widget_methods_its_fields_are_named_after(qtbot) -> None:
+    """A field of the form once stood in the attribute ``height``, which hid QWidget.height():
+    asking the form its height raised TypeError."""
+    form = TugForm(DisplayUnits())
+    qtbot.addWidget(form)
+    form.resize(320, 400)
+    assert form.height() == form.geometry().height()
+    assert form.width() == form.geometry().width()

@@ -251,7 +251,7 @@ def test_a_whole_plan_from_file_new_with_mouse_and_keys(
                 f.bollard_pull,
                 f.astern_pull,
                 f.certificate,
-                f.height,
+                f.towing_point_height,
                 f.towline_length,
                 f.towline_mbl,
                 f.call_sign,
