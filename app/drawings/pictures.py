@@ -224,6 +224,7 @@ def _write_png(project: Project, spec: PictureSpec, tmp: Path) -> Drawn:
         drawn = paint_picture(project, spec, p, image)
     finally:
         p.end()
-    if not image.save(str(tmp), "PNG"):
+    # PySide6 takes the format as a str (bytes raise ValueError); its stubs say bytes
+    if not image.save(str(tmp), "PNG"):  # type: ignore[call-overload]
         raise OSError(f"cannot write {tmp.name}")
     return drawn

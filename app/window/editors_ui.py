@@ -40,7 +40,10 @@ class EditorsUi:
         )
         tugs = window.menu("tugs")
         first = tugs.actions()[0] if tugs.actions() else None
-        tugs.insertAction(first, self.act_edit_tug)
+        if first is None:
+            tugs.addAction(self.act_edit_tug)
+        else:
+            tugs.insertAction(first, self.act_edit_tug)
         tugs.addSeparator()
         tugs.addAction(self.act_substitute)
         window.tugs_panel.edit_requested.connect(self.edit_tug)

@@ -75,7 +75,7 @@ class OutlineDialog(QDialog):
         form.addRow("Shape", self.shape)
         form.addRow(f"Length overall ({ln})", self.length)
         form.addRow(f"Beam ({ln})", self.beam)
-        self.rows = {
+        self.rows: dict[str, list[tuple[str, QWidget]]] = {
             "raked": [
                 (f"Bow rake length ({ln})", self.bow_rake),
                 (f"Stern rake length ({ln})", self.stern_rake),

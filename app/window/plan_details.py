@@ -11,7 +11,7 @@ from __future__ import annotations
 import datetime
 from dataclasses import replace
 
-from PySide6.QtCore import Qt
+from PySide6.QtCore import QModelIndex, Qt
 from PySide6.QtWidgets import (
     QAbstractItemView,
     QDialog,
@@ -182,7 +182,9 @@ class PlanDetailsDialog(QDialog):
         date = self.date.text().strip() or today()
         row = self._append((rev, date, self.prepared.text().strip(), ""))
         self.history.setCurrentCell(row, len(HISTORY_COLUMNS) - 1)
-        self.history.editItem(self.history.item(row, len(HISTORY_COLUMNS) - 1))
+        item = self.history.item(row, len(HISTORY_COLUMNS) - 1)
+        if item is not None:  # _append gave every cell its item
+            self.history.editItem(item)
 
     @guarded
     def _remove_line(self) -> None:
@@ -192,8 +194,9 @@ class PlanDetailsDialog(QDialog):
 
     @guarded
     def accept(self) -> None:
-        # a cell still being typed in counts
-        self.history.setCurrentItem(None)
+        # a cell still being typed in counts (what setCurrentItem(None) does, which
+        # PySide6's stubs do not let through)
+        self.history.setCurrentIndex(QModelIndex())
         try:
             new = self.project()
         except TowboardError as e:

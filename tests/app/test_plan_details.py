@@ -127,6 +127,17 @@ def test_remove_line_and_blank_lines_are_dropped(window, qtbot) -> None:
     assert [r.revision for r in c.project.history] == ["B", "C"]
 
 
+def test_ok_keeps_a_history_cell_still_being_typed_in(window, qtbot) -> None:
+    c = window.controller
+    d = opened(window)
+    qtbot.mouseClick(d.add_line, Qt.MouseButton.LeftButton)
+    editor = d.history.focusWidget()
+    assert editor is not None and d.history.isAncestorOf(editor)  # the new line is open
+    qtbot.keyClicks(editor, "Tug Wren added aft")
+    d.accept()  # no Enter and no click away: the open cell is read all the same
+    assert c.project.history[-1].description == "Tug Wren added aft"
+
+
 def test_an_undo_then_a_new_dialog_shows_the_plan_as_it_is_now(window) -> None:
     c = window.controller
     c.apply(c.project.with_title_block(revision="E"), "Revision E")
