@@ -582,9 +582,11 @@ class MainWindow(QMainWindow):
 
     def recent_files(self) -> list[str]:
         value = settings().value("recent_files", [])
-        if isinstance(value, str):
-            value = [value]
-        return [str(v) for v in (value or [])]
+        if isinstance(value, str):  # one file comes back from an ini file as a string
+            return [value]
+        if isinstance(value, list | tuple):
+            return [str(v) for v in value]
+        return []  # nothing stored, or a value of another kind: no recent files
 
     def add_recent(self, path: Path) -> None:
         s = settings()

@@ -203,3 +203,23 @@ def test_a_recent_file_opened_from_its_menu_entry_is_not_deleted_under_it(
     assert not shiboken6.isValid(entry)  # then gone: the menu holds the new entries only
     assert window.recent_menu.actions()[0].toolTip() == str(copy.resolve())
     assert window.controller.path == copy
+
+
+@pytest.mark.parametrize(
+    ("stored", "files"),
+    [(5, []), ("/plans/a.towboard", ["/plans/a.towboard"]), (["/a", "/b"], ["/a", "/b"])],
+)
+def test_the_recent_files_setting_of_any_kind_lets_the_window_open(  # type: ignore[no-untyped-def]
+    qtbot, stored: object, files: list[str]
+) -> None:
+    """A settings store may hand back any kind of value (a registry or a plist keeps a
+    number as a number): the window once iterated over it and did not open."""
+    from app.window.main_window import MainWindow, settings
+
+    s = settings()
+    s.setValue("recent_files", stored)
+    s.sync()
+    w = MainWindow()
+    qtbot.addWidget(w)
+    assert w.recent_files() == files
+    assert w.recent_menu.isEnabled() == bool(files)
