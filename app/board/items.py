@@ -797,6 +797,29 @@ class LineItem(QGraphicsLineItem):
         #: Where the dashes are counted from (parent frame), when the line is a piece of a
         #: longer one (:class:`PiecedLine`); None: from the line's own start.
         self.dash_from: QPointF | None = None
+        self._rect = _line_box(self.line(), self.pen())
+
+    def setLine(self, *line: object) -> None:  # type: ignore[override]
+        """Qt's ``setLine`` (a QLineF, or x1, y1, x2, y2), keeping the box."""
+        new = QLineF(*line)  # type: ignore[call-overload]
+        if new == self.line():
+            return
+        self.prepareGeometryChange()  # while the box is still the old line's
+        self._rect = _line_box(new, self.pen())
+        super().setLine(new)
+
+    def setPen(self, pen: QPen) -> None:  # type: ignore[override]
+        if pen == self.pen():
+            return
+        self.prepareGeometryChange()
+        self._rect = _line_box(self.line(), pen)
+        super().setPen(pen)
+
+    @guarded(default=QRectF)
+    def boundingRect(self) -> QRectF:
+        # Qt's own strokes the line into a path on every call, and it is called several
+        # times a frame for every piece of the line of action that moves with a drag
+        return self._rect
 
     @guarded
     def paint(
@@ -818,6 +841,15 @@ class LineItem(QGraphicsLineItem):
             pen.setDashOffset((px / max(pen.widthF(), 1.0)) % period)
             painter.setPen(pen)
         painter.drawLine(line)
+
+
+def _line_box(line: QLineF, pen: QPen) -> QRectF:
+    """The box of ``line`` drawn with ``pen``, its width in the line's units as Qt's
+    QGraphicsLineItem takes it. A square cap's corner reaches half a width along the line
+    and half across, up to half a width times root 2 on an axis, more than a round cap's
+    curve points (1.14 times)."""
+    pad = pen.widthF() / 2 * math.sqrt(2.0)
+    return QRectF(line.p1(), line.p2()).normalized().adjusted(-pad, -pad, pad, pad)
 
 
 class PiecedLine:
