@@ -736,7 +736,7 @@ class Interaction:
                     f"Nudge {f.name}",
                     merge_key=("nudge", "fitting", hull.name, f.name),
                 )
-        except OutlineError as e:
+        except TowboardError as e:  # a bad step, or what was selected is gone
             self._say(f"Not moved: {e}")
 
     def turn_selected(self, degrees: float) -> None:

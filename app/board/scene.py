@@ -22,6 +22,7 @@ Hooks for other parts of the program:
 from __future__ import annotations
 
 import math
+import operator
 from collections.abc import Callable
 
 from PySide6.QtCore import QPointF, QRectF, Signal
@@ -45,6 +46,43 @@ from core.mechanics.site import body_pose
 from core.model.plan import BodyPose, Project, Site, Stage
 
 Selection = tuple[object, ...] | None
+
+
+def selection_exists(project: Project, selection: Selection) -> bool:
+    """Whether what ``selection`` names is in ``project``: an undo, a redo or another
+    window's edit may take away the hull, vertex, fitting, tug or site feature selected,
+    and the keys that nudge or delete the selection must not reach for it."""
+    if not selection:
+        return True
+    kind, name = selection[0], str(selection[1]) if len(selection) > 1 else ""
+    if kind in ("hull", "vertex", "fitting"):
+        hull = next((h for h in project.hulls if h.name == name), None)
+        if hull is None:
+            return kind == "hull" and any(g.name == name for g in project.groups)
+        if kind == "vertex":
+            return _index_in(selection, len(hull.outline))
+        if kind == "fitting":
+            return any(f.name == selection[2] for f in hull.fittings)
+        return True
+    if kind == "turn":
+        return name in project.body_names()
+    if kind in ("site", "site_point"):
+        feature = next((f for f in project.site.features if f.name == name), None)
+        if feature is None:
+            return False
+        return kind == "site" or _index_in(selection, len(feature.points))
+    if kind == "tug":
+        return any(t.name == name for t in project.tugs)
+    return True
+
+
+def _index_in(selection: tuple[object, ...], count: int) -> bool:
+    """Whether the selection's third part is an index below ``count``."""
+    try:
+        k = operator.index(selection[2])  # type: ignore[arg-type]
+    except (IndexError, TypeError):
+        return False
+    return 0 <= k < count
 
 
 class BoardScene(QGraphicsScene):
@@ -213,6 +251,8 @@ class BoardScene(QGraphicsScene):
                 d.balance.hide()
                 d.balance.centroid.setPos(*body.centroid)
                 d.balance.cog.setPos(*body.centre_of_gravity)
+        if not selection_exists(project, self.selection):
+            self.select(None)  # an undo took away what was selected
         self._apply_selection()
         self._update_rect()
         for hook in self.refresh_hooks:

@@ -404,3 +404,53 @@ def test_right_clicks_leave_no_menus_behind(window, qtbot) -> None:  # type: ign
         counts.append(len(view.findChildren(QMenu)))
     assert max(counts) <= 2  # at most the one just closed, with its submenu, going
     qtbot.waitUntil(lambda: not view.findChildren(QMenu), timeout=2000)
+
+
+def test_keys_after_an_undo_took_the_selected_vertex_away(window, qtbot, monkeypatch) -> None:  # type: ignore[no-untyped-def]
+    """Insert a vertex on the closing edge (it is selected, the last one), undo the
+    insertion, press the arrow and Delete keys: the selection is dropped with the vertex,
+    and no key reaches for it."""
+    import sys
+
+    faults: list[BaseException] = []
+    monkeypatch.setattr(sys, "excepthook", lambda t, e, tb: faults.append(e))
+    c = window.controller
+    view = window.view
+    pose = _pose(window, "Kestrel 3")
+    outline = c.project.hull("Kestrel 3").outline
+    qtbot.mouseDClick(
+        view.viewport(), Qt.MouseButton.LeftButton, pos=view_point(view, *_site(pose, (0.0, 2.0)))
+    )
+    assert outline[-1][0] == outline[0][0] == 0.0  # the closing edge runs along x = 0
+    sel = window.board.selection
+    assert sel[0] == "vertex" and sel[2] == len(outline)  # the new vertex, one past the old last
+    c.undo_stack.undo()
+    assert c.project.hull("Kestrel 3").outline == outline
+    assert window.board.selection != sel  # it went with the vertex
+    view.setFocus()
+    for key in (Qt.Key.Key_Down, Qt.Key.Key_Right, Qt.Key.Key_Delete):
+        QTest.keyClick(view.viewport(), key)
+    assert not faults
+    assert c.project.hull("Kestrel 3").outline == outline
+
+
+def test_a_selection_exists_only_while_what_it_names_does(window) -> None:  # type: ignore[no-untyped-def]
+    from app.board.scene import selection_exists
+
+    p = window.controller.project
+    hull = p.hull("Kestrel 3")
+    n = len(hull.outline)
+    fitting = hull.fittings[0].name
+    tug = p.tugs[0].name
+    assert selection_exists(p, None)
+    assert selection_exists(p, ("hull", "Kestrel 3"))
+    assert not selection_exists(p, ("hull", "No such hull"))
+    assert selection_exists(p, ("vertex", "Kestrel 3", n - 1))
+    assert not selection_exists(p, ("vertex", "Kestrel 3", n))
+    assert not selection_exists(p, ("vertex", "Kestrel 3", -1))
+    assert selection_exists(p, ("fitting", "Kestrel 3", fitting))
+    assert not selection_exists(p, ("fitting", "Kestrel 3", fitting + " gone"))
+    assert selection_exists(p, ("tug", tug))
+    assert not selection_exists(p, ("tug", tug + " gone"))
+    assert not selection_exists(p, ("site", "No such quay"))
+    assert not selection_exists(p, ("site_point", "No such quay", 0))
