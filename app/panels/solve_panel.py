@@ -122,6 +122,13 @@ def solved_stage(
     return replace(stage, placements=placements), result
 
 
+def _either(names: list[str]) -> str:
+    """``Gannet``, ``Gannet or Tern``, ``Gannet, Tern or Puffin``: any one of them."""
+    if len(names) <= 1:
+        return names[0] if names else "a tug"
+    return ", ".join(names[:-1]) + " or " + names[-1]
+
+
 def tug_notes(result: StageResult) -> dict[str, list[str]]:
     """Short warnings per tug from the stage's verdict and its tug lost check."""
     notes: dict[str, list[str]] = {}
@@ -458,7 +465,8 @@ class SolvePanel(QWidget):
         if c.passes:
             head = "Tug lost check: the goal still holds with any one tug lost."
         else:
-            head = "Tug lost check FAILS: the goal does not hold with every single tug lost."
+            failing = [case.tug for case in c.cases if not case.holds]
+            head = f"Tug lost check FAILS: the goal is not held if {_either(failing)} is lost."
         if worst is not None:
             head += f" The loss that hurts most: {worst.tug}."
         self.lost_title.setText(head)

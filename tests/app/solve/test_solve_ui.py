@@ -378,6 +378,11 @@ def test_losing_the_big_tug_fails_and_is_flagged(holding, qtbot) -> None:  # typ
     panel.recheck()
     assert panel.check is not None and panel.check.full.feasible
     assert "FAILS" in panel.lost_title.text()
+    # the headline names the tugs whose loss fails the goal: any one, not all of them lost
+    failing = [case.tug for case in panel.check.cases if not case.holds]
+    assert failing[:2] == ["Gannet", "Puffin"] and "Skua" not in failing
+    words = ", ".join(failing[:-1]) + " or " + failing[-1]
+    assert f"the goal is not held if {words} is lost" in panel.lost_title.text()
     for tug in ("Gannet", "Puffin"):
         assert "goal fails without it" in holding.board.tug_notes[tug]
     assert "Skua" not in holding.board.tug_notes or "fails" not in holding.board.tug_notes["Skua"]
