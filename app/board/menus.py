@@ -152,6 +152,7 @@ def _body_entries(scene: BoardScene, menu: QMenu, hull_or_body: str) -> None:
     _swing_entries(scene, menu, body)
     menu.addSeparator()
     if group is not None:
+        menu.addAction(f"Rename {group.name}…", guarded(lambda: _ask_group_name(scene, group.name)))
         menu.addAction(
             f"Unlash {group.name}",
             guarded(
@@ -262,6 +263,18 @@ def _site_entries(scene: BoardScene, menu: QMenu, name: str) -> None:
     menu.addAction(
         f"Delete {name}",
         guarded(lambda: _run(scene, f"Delete {name}", lambda: tools.delete(("site", name)))),
+    )
+
+
+def _ask_group_name(scene: BoardScene, name: str) -> None:
+    c = scene.controller
+    new, ok = QInputDialog.getText(_parent(scene), "Rename lashed group", "Name:", text=name)
+    if not ok or new.strip() == name:
+        return
+    _run(
+        scene,
+        f"Rename {name}",
+        lambda: c.apply(body_edits.renamed_group(c.project, name, new), f"Rename {name}"),
     )
 
 

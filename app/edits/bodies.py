@@ -148,6 +148,24 @@ def unlashed(project: Project, group: str) -> Project:
     return replace(project, groups=groups, stages=tuple(stages))
 
 
+def renamed_group(project: Project, old: str, new: str) -> Project:
+    """Rename lashed group ``old`` and the stages' poses of it (a group is a body: its poses
+    go by its name)."""
+    new = new.strip()
+    if not any(g.name == old for g in project.groups):
+        raise InputError("group", old, "does not exist")
+    if new != old and (
+        any(h.name == new for h in project.hulls) or any(g.name == new for g in project.groups)
+    ):
+        raise InputError("group name", new, "is used twice")
+    groups = tuple(replace(g, name=new) if g.name == old else g for g in project.groups)
+    stages = tuple(
+        replace(s, poses=tuple(replace(p, body=new) if p.body == old else p for p in s.poses))
+        for s in project.stages
+    )
+    return replace(project, groups=groups, stages=stages)
+
+
 def group_name(project: Project, hulls: tuple[str, ...]) -> str:
     """A free name for a group of ``hulls``: "<first> + <second>", numbered if taken."""
     taken = {h.name for h in project.hulls} | {g.name for g in project.groups}

@@ -268,3 +268,38 @@ def test_a_tugs_context_menu_sets_and_lets_go(window, qtbot) -> None:  # type: i
     _action(menu, "Let go Gannet").trigger()
     menu.close()
     assert all(p.tug != "Gannet" for p in c.stage.placements)
+
+
+def test_rename_a_lashed_group_from_the_context_menu(window, qtbot, monkeypatch) -> None:  # type: ignore[no-untyped-def]
+    """A group's name (printed in every view and the briefing) is edited in the window:
+    its poses in every stage follow it; a name in use is refused and nothing changes."""
+    assert window.open_path(SAMPLES / "twin_barge_move.towboard", ask=False)
+    window.view.fit_to_hull()
+    c = window.controller
+    view = window.view
+    old = c.project.groups[0].name
+    placed = {s.name: _poly(c.project, s, old) for s in c.project.stages}
+    pose = window.board.pose(old)
+    a = math.pi / 2 - math.radians(pose.heading_deg)
+    x, y = 20.0, -5.0  # inside Lark 41
+    at = (pose.x + math.cos(a) * x - math.sin(a) * y, pose.y + math.sin(a) * x + math.cos(a) * y)
+    monkeypatch.setattr(QInputDialog, "getText", lambda *a, **k: ("Lark twins", True))
+    menu = _context(view, *at)
+    _action(menu, f"Rename {old}…").trigger()
+    menu.close()
+    assert [g.name for g in c.project.groups] == ["Lark twins"]
+    assert c.undo_stack.undoText() == f"Rename {old}"
+    for s in c.project.stages:  # the same group where it lay, under its new name
+        assert all(p.body != old for p in s.poses)
+        assert _poly(c.project, s, "Lark twins").symmetric_difference(placed[s.name]).area == (
+            pytest.approx(0.0, abs=1e-6)
+        )
+    before = c.project
+    hull = c.project.hulls[0].name
+    monkeypatch.setattr(QInputDialog, "getText", lambda *a, **k: (hull, True))
+    menu = _context(view, *at)
+    _action(menu, "Rename Lark twins…").trigger()
+    menu.close()
+    assert c.project is before  # a hull's name is taken: refused, said on the status bar
+    c.undo_stack.undo()
+    assert [g.name for g in c.project.groups] == [old]
