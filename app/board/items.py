@@ -799,6 +799,7 @@ class LineItem(QGraphicsLineItem):
         self.dash_from: QPointF | None = None
         self._rect = _line_box(self.line(), self.pen())
 
+    @guarded
     def setLine(self, *line: object) -> None:  # type: ignore[override]
         """Qt's ``setLine`` (a QLineF, or x1, y1, x2, y2), keeping the box."""
         new = QLineF(*line)  # type: ignore[call-overload]
@@ -808,6 +809,7 @@ class LineItem(QGraphicsLineItem):
         self._rect = _line_box(new, self.pen())
         super().setLine(new)
 
+    @guarded
     def setPen(self, pen: QPen) -> None:  # type: ignore[override]
         if pen == self.pen():
             return
