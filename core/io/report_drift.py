@@ -145,6 +145,34 @@ def track_json(r: DriftResult, every_s: float) -> list[dict[str, float]]:
 
 # -- towboard drift ----------------------------------------------------------------------
 
+#: The shortest step between the printed track's rows, s (the track itself is sampled a
+#: second or two apart: finer rows are read off it in straight lines).
+MIN_EVERY_S = 0.1
+#: The most rows the printed track may have (an hour's look ahead every 0.4 s).
+MAX_TRACK_ROWS = 10_000
+
+
+def check_every(every_s: float, horizon_s: float) -> float:
+    """``--every`` as given, checked against its range and the rows it would print over a
+    look ahead of ``horizon_s``.
+
+    Raises InputError naming ``--every``.
+    """
+    if not (math.isfinite(every_s) and MIN_EVERY_S <= every_s <= MAX_HORIZON_S):
+        raise InputError(
+            "--every", every_s, f"must be from {MIN_EVERY_S:g} to {MAX_HORIZON_S:g} seconds"
+        )
+    rows = math.ceil(horizon_s / every_s) + 1  # the rows from 0 s and the end
+    if rows > MAX_TRACK_ROWS:
+        least = horizon_s / (MAX_TRACK_ROWS - 1)
+        raise InputError(
+            "--every",
+            every_s,
+            f"gives {rows:,} rows over the {horizon_s:g} s look ahead, more than "
+            f"{MAX_TRACK_ROWS:,}: take at least {math.ceil(least * 100) / 100:g} s",
+        )
+    return every_s
+
 
 def command_drift(
     project: Project,
@@ -152,10 +180,12 @@ def command_drift(
     lose: str | None,
     let_go: bool,
     seconds: float | None,
+    every_s: float,
 ) -> DriftResult:
-    """The one drift ``towboard drift`` asks for (stage numbers count from 1).
+    """The one drift ``towboard drift`` asks for (stage numbers count from 1), its track
+    to be printed every ``every_s`` seconds.
 
-    Raises InputError naming the option that is wrong.
+    Raises InputError naming the option that is wrong, before any work.
     """
     n = len(project.stages)
     if not 1 <= stage_number <= n:
@@ -167,6 +197,9 @@ def command_drift(
         if not (math.isfinite(seconds) and 0 < seconds <= MAX_HORIZON_S):
             raise InputError("--seconds", seconds, f"must be above 0 and at most {MAX_HORIZON_S:g}")
         settings = DriftSettings(settings.times_s, seconds)
+    check_every(every_s, settings.horizon_s)
+    if lose is not None and not lose.strip():
+        raise InputError("--lose", lose, "must name a tug (leave --lose out for pulls as set)")
     if not project.hulls:
         raise InputError("plan", project.name, "has no hull to drift")
     stage = project.stages[stage_number - 1]
@@ -183,12 +216,6 @@ def command_drift(
     return result
 
 
-def _every(every_s: float) -> float:
-    if not (math.isfinite(every_s) and every_s > 0):
-        raise InputError("--every", every_s, "must be a positive number of seconds")
-    return every_s
-
-
 def drift_command_text(
     project: Project,
     stage_number: int,
@@ -198,8 +225,7 @@ def drift_command_text(
     every_s: float,
 ) -> str:
     """What ``towboard drift`` prints: the track in the plan's units, then the first contact."""
-    every = _every(every_s)
-    r = command_drift(project, stage_number, lose, let_go, seconds)
+    r = command_drift(project, stage_number, lose, let_go, seconds, every_s)
     u = project.units
     ine = r.problem.motion.inertia
     out = [
@@ -210,7 +236,7 @@ def drift_command_text(
         f"{u.show(ine.gyradius_m, 'length')} ({ine.method})",
         "Track of the centroid (site frame: east, north); heading true; turn positive with the "
         "bow swinging to port",
-        *track_lines(r, u, every),
+        *track_lines(r, u, every_s),
         "",
         f"First contact: {contact_words(r, u)}",
     ]
@@ -237,8 +263,7 @@ def drift_command_json(
     every_s: float,
 ) -> dict[str, Any]:
     """What ``towboard drift --json`` prints, in SI."""
-    every = _every(every_s)
-    r = command_drift(project, stage_number, lose, let_go, seconds)
+    r = command_drift(project, stage_number, lose, let_go, seconds, every_s)
     ine = r.problem.motion.inertia
     return {
         "plan": project.name,
@@ -259,7 +284,7 @@ def drift_command_json(
             "method": ine.method,
         },
         **(result_json(r) or {}),
-        "track": track_json(r, every),
+        "track": track_json(r, every_s),
         "notes": [n.message for n in r.notices],
         "caution": DRIFT_CAUTION,
     }

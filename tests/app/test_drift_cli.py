@@ -62,7 +62,19 @@ def test_let_go_with_a_short_look_ahead(capsys: pytest.CaptureFixture[str]) -> N
         (("--stage", "9"), "towboard: --stage: 9 must be from 1 to 4"),
         (("--stage", "1", "--lose", "Nobody"), "'Nobody' does not work on Lark pair"),
         (("--stage", "1", "--seconds", "-3"), "--seconds: -3.0 must be above 0 and at most 3600"),
-        (("--stage", "1", "--every", "0"), "--every: 0.0 must be a positive number of seconds"),
+        (("--stage", "1", "--every", "0"), "--every: 0.0 must be from 0.1 to 3600 seconds"),
+        # 1e-9 s over the plan's 600 s once asked numpy for 6e11 times (37 GiB)
+        (("--stage", "1", "--every", "1e-9"), "--every: 1e-09 must be from 0.1 to 3600 seconds"),
+        (("--stage", "1", "--every", "nan"), "--every: nan must be from 0.1 to 3600 seconds"),
+        # 3600 s / 0.1 s = 36,000 steps, and the row at 0 s: 36,001 rows, over the cap
+        (
+            ("--stage", "1", "--seconds", "3600", "--every", "0.1"),
+            "--every: 0.1 gives 36,001 rows over the 3600 s look ahead, more than 10,000: "
+            "take at least 0.37 s",
+        ),
+        # an empty name once meant "pulls as set"
+        (("--stage", "1", "--lose", ""), "--lose: '' must name a tug"),
+        (("--stage", "1", "--lose", " "), "--lose: ' ' must name a tug"),
         (("--stage", "1", "--lose", "Rowan", "--let-go"), "not allowed with argument --lose"),
         (("--stage", "x"), "argument --stage: invalid int value"),
     ],
@@ -74,6 +86,15 @@ def test_bad_input_exits_2_with_one_line(
     err = capsys.readouterr().err
     assert message in err
     assert err.count("\n") == 1 and "Traceback" not in err
+
+
+def test_the_finest_track_allowed_prints_every_row(capsys: pytest.CaptureFixture[str]) -> None:
+    # 60 s every 0.1 s: 600 steps and the row at 0 s, well within the cap of 10,000 rows
+    argv = ["drift", str(TWIN), "--stage", "2", "--let-go", "--seconds", "60", "--every", "0.1"]
+    assert main([*argv, "--json"]) == 0
+    track = json.loads(capsys.readouterr().out)["track"]
+    assert len(track) == 601
+    assert track[1]["time_s"] == pytest.approx(0.1)
 
 
 def test_a_file_that_cannot_be_read(capsys: pytest.CaptureFixture[str], tmp_path: Path) -> None:
