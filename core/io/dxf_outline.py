@@ -16,7 +16,12 @@ import shapely
 from core.errors import DrawingError
 from core.io.drawing_units import metres_per_unit
 from core.io.dxf_geometry import Drawing, LayerShapes, Pt
-from core.io.outline_import import SIMPLIFY_SHARE, ImportedOutline, OutlinePlacement, place_outline
+from core.io.outline_import import (
+    ImportedOutline,
+    OutlinePlacement,
+    drawing_tolerances,
+    place_outline,
+)
 from core.notices import Notice
 
 #: Defaults, m: a chord may stray 10 mm from its arc; ends 5 mm apart are joined.
@@ -53,8 +58,8 @@ class LayerSummary:
 def _shapes(
     drawing: Drawing, layer: str, units: str, chord_error_m: float, tolerance_m: float
 ) -> LayerShapes:
-    k = metres_per_unit(units)
-    return drawing.shapes(layer, (1 - SIMPLIFY_SHARE) * chord_error_m / k, tolerance_m / k)
+    chord, tol = drawing_tolerances(chord_error_m, tolerance_m, metres_per_unit(units))
+    return drawing.shapes(layer, chord, tol)
 
 
 def _largest(loops: tuple[tuple[Pt, ...], ...]) -> tuple[int, float]:

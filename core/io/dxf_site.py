@@ -17,7 +17,7 @@ from core.errors import DrawingError, InputError
 from core.io.drawing_units import metres_per_unit
 from core.io.dxf_geometry import Drawing
 from core.io.dxf_outline import CHORD_ERROR_M, JOIN_TOLERANCE_M
-from core.io.outline_import import SIMPLIFY_SHARE, invalid_reason
+from core.io.outline_import import SIMPLIFY_SHARE, drawing_tolerances, invalid_reason
 from core.io.site_import import ImportedSite, SiteFrame
 from core.model.plan import SITE_FEATURE_KINDS, SiteFeature
 from core.notices import Notice
@@ -45,6 +45,7 @@ def import_site(
         raise DrawingError(drawing.source, "no layer is chosen for the site")
     frame = frame or SiteFrame()
     k = metres_per_unit(units)
+    chord_du, join_du = drawing_tolerances(chord_error_m, tolerance_m, k)
     tol = SIMPLIFY_SHARE * chord_error_m / k
     features: list[SiteFeature] = []
     notices: list[Notice] = []
@@ -53,7 +54,7 @@ def import_site(
             raise InputError(
                 f"layer {layer}: kind", kind, f"is not one of {', '.join(SITE_FEATURE_KINDS)}"
             )
-        s = drawing.shapes(layer, (1 - SIMPLIFY_SHARE) * chord_error_m / k, tolerance_m / k)
+        s = drawing.shapes(layer, chord_du, join_du)
         n = 0
         for loop in s.loops:
             poly = shapely.Polygon(loop)

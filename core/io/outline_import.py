@@ -24,6 +24,7 @@ import numpy as np
 import shapely
 
 from core.errors import DrawingError, InputError, OutlineError
+from core.model import rules
 from core.model.hull import Hull, HullGeometry
 from core.model.outlines import Outline, validate_outline
 from core.model.plan import Project, Stage
@@ -125,6 +126,20 @@ class ImportedOutline:
         return Hull(name, self.outline)
 
 
+def drawing_tolerances(
+    chord_error_m: float, tolerance_m: float, metres_per_unit: float
+) -> tuple[float, float]:
+    """The chord error left to flattening and the join tolerance, in drawing units, from
+    the two as given in metres; each is checked first by its rule, so a refusal shows the
+    value the user gave.
+
+    Raises RangeError naming the chord error or the join tolerance.
+    """
+    chord = rules.CHORD_ERROR.check(chord_error_m)
+    tol = rules.JOIN_TOLERANCE.check(tolerance_m)
+    return (1 - SIMPLIFY_SHARE) * chord / metres_per_unit, tol / metres_per_unit
+
+
 def invalid_reason(poly: shapely.Polygon) -> tuple[str, Pt | None]:
     """Why shapely finds ``poly`` invalid, in words, and where (drawing units) if it says."""
     reason = shapely.is_valid_reason(poly)
@@ -152,7 +167,10 @@ def place_outline(
     DrawingError
         The outline crosses itself or has no area (naming the layer and, where
         shapely says, the drawing point).
+    RangeError
+        The chord error is outside its rule (:data:`core.model.rules.CHORD_ERROR`).
     """
+    chord_error_m = rules.CHORD_ERROR.check(chord_error_m)
     name = f"layer {layer}" if layer is not None else "the outline"
     if len(points) < 3:
         raise DrawingError(source, "the outline has fewer than three points", layer=layer)

@@ -432,6 +432,12 @@ EFFICIENCY = Range("efficiency", "plain", 0.0, 1.0)
 DRIFT_TIME = Range("drift time", "time", 0.0, 3600.0, above=True)
 DRIFT_HORIZON = Range("drift horizon", "time", 0.0, 3600.0, above=True)
 
+# drawings read in (DXF, tables of offsets): how far a chord may stray from its arc, and
+# how near two line ends must be to be joined; 0.01 mm is far finer than any drawing is
+# drawn, and keeps an arc's chords countable (common practice, no source)
+CHORD_ERROR = Range("chord error", "length", 1e-5, 10.0)
+JOIN_TOLERANCE = Range("join tolerance", "length", 0.0, 10.0)
+
 # goals and limits
 GOAL_FORCE = Range("net force", "force", -10_000 * TONNE_FORCE, 10_000 * TONNE_FORCE)
 GOAL_FORCE_AHEAD = Range("force ahead", "force", GOAL_FORCE.low, GOAL_FORCE.high)

@@ -95,6 +95,17 @@ def test_the_layer_is_found_when_not_named(
             "towboard import-outline: d.dxf: the drawing does not say its units ($INSUNITS is 0); "
             "give --units mm|cm|m|in|ft",
         ),
+        # the drawing is in mm: the message once showed -900.0, 0.9 x the value in mm
+        (
+            dd.ship_mm_x_aft,
+            ("--chord-error=-1",),
+            "towboard import-outline: chord error: -1.0 m must be at least 1e-05 m",
+        ),
+        (
+            dd.ship_mm_x_aft,
+            ("--join-tolerance=-0.5",),
+            "towboard import-outline: join tolerance: -0.5 m must not be negative",
+        ),
     ],
 )
 def test_refusals_exit_2_with_one_line_and_write_nothing(
@@ -123,6 +134,38 @@ def test_an_existing_plan_is_not_replaced_without_force(
     assert out.read_text() == "precious"
     assert main(["import-outline", str(tmp_path / "box.dxf"), "-o", str(out), "--force"]) == 0
     assert load(out).hulls[0].geometry.area == pytest.approx(60 * 18)
+
+
+@pytest.mark.parametrize(
+    ("value", "message"),
+    [
+        ("nan", "chord error: NaN m must be a finite number"),  # was an AttributeError
+        ("-1", "chord error: -1.0 m must be at least 1e-05 m"),  # was a GEOSException
+        ("inf", "chord error: infinity m must be a finite number"),  # wrote a 3-vertex outline
+        ("0", "chord error: 0.0 m must be at least 1e-05 m"),
+        ("11", "chord error: 11.0 m must be at most 10 m"),
+    ],
+)
+def test_offsets_refuse_a_chord_error_out_of_range(
+    tmp_path: Path, capsys: pytest.CaptureFixture[str], value: str, message: str
+) -> None:
+    csv_path = tmp_path / "offsets.csv"
+    csv_path.write_text("0,5\n10,5\n20,5\n")
+    out = tmp_path / "plan.towboard"
+    assert main(["import-outline", str(csv_path), "-o", str(out), f"--chord-error={value}"]) == 2
+    err = capsys.readouterr().err
+    assert err == f"towboard import-outline: {message}\n"
+    assert not out.exists()
+
+
+def test_offsets_with_a_bad_chord_error_give_no_traceback_from_a_real_process(
+    tmp_path: Path,
+) -> None:
+    csv_path = tmp_path / "offsets.csv"
+    csv_path.write_text("0,5\n10,5\n20,5\n")
+    done = _run("import-outline", str(csv_path), "-o", str(tmp_path / "p"), "--chord-error", "nan")
+    assert done.returncode == 2 and "Traceback" not in done.stderr
+    assert done.stderr == "towboard import-outline: chord error: NaN m must be a finite number\n"
 
 
 def test_no_traceback_from_a_real_process(tmp_path: Path) -> None:
