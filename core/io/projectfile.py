@@ -24,10 +24,15 @@ from core.errors import FormatVersionError, Problem, ProjectFileError
 from core.io.decode import decode
 from core.io.encode import encode
 from core.io.fileformat import FORMAT_VERSION
-from core.io.paths import file_path, shown_path
+from core.io.paths import TooLarge, file_path, read_at_most, shown_path
 from core.model.plan import Project
 
 SUFFIX = ".towboard"
+#: The largest plan file read, bytes. A plan of 10,000 placed tugs is 16 MB as saved and
+#: one of a 100,000-vertex outline 4 MB (benchmarks/growth.py); real plans are well under
+#: 1 MB. Anything bigger, or a device that never ends, is refused before it fills memory
+#: (reading JSON takes some ten times the text's size).
+MAX_FILE_BYTES = 128_000_000
 
 
 _PAIR = re.compile(r"\[\s+(-?[0-9][0-9.eE+-]*),\s+(-?[0-9][0-9.eE+-]*)\s+\]")
@@ -114,7 +119,18 @@ def load(path: str | os.PathLike[str]) -> Project:
     """Read a ``.towboard`` file."""
     p = Path(path)
     try:
-        raw = file_path(p).read_bytes()
+        raw = read_at_most(p, MAX_FILE_BYTES)
+    except TooLarge:
+        raise ProjectFileError(
+            shown_path(p),
+            [
+                Problem(
+                    "",
+                    f"is larger than {MAX_FILE_BYTES / 1e6:g} MB, far more than any "
+                    "plan holds; not read",
+                )
+            ],
+        ) from None
     except OSError as e:
         raise ProjectFileError(
             shown_path(p), [Problem("", f"cannot be read: {e.strerror or e}")]

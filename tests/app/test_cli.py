@@ -52,6 +52,15 @@ def test_bad_input_exits_2_with_one_line_and_no_traceback(
     assert len(done.stderr.strip().splitlines()) == 1
 
 
+def test_report_of_an_endless_device_is_refused_in_one_line() -> None:
+    # /dev/zero was read until memory ran out (a MemoryError traceback under a limit)
+    done = _run("report", "/dev/zero")
+    assert done.returncode == 2
+    assert done.stderr == (
+        "towboard: /dev/zero: is larger than 128 MB, far more than any plan holds; not read\n"
+    )
+
+
 def test_broken_file_names_the_field(tmp_path: Path) -> None:
     data = json.loads(SAMPLE.read_text())
     data["stages"][0]["tugs"][0]["setting_percent"] = 130

@@ -6,6 +6,8 @@ import copy
 import json
 import os
 import re
+import sys
+import threading
 from pathlib import Path
 from typing import Any
 
@@ -14,7 +16,8 @@ import pytest
 
 from core.errors import FormatVersionError, ProjectFileError
 from core.io import projectfile
-from core.io.projectfile import backup_path, dumps, load, loads, save
+from core.io.paths import TooLarge, read_at_most
+from core.io.projectfile import MAX_FILE_BYTES, backup_path, dumps, load, loads, save
 
 ROOT = Path(__file__).resolve().parents[2]
 SCHEMA = json.loads((ROOT / "docs" / "towboard.schema.json").read_text())
@@ -198,6 +201,65 @@ def test_unreadable_and_non_utf8_files(tmp_path: Path) -> None:
     bad.write_bytes(b"\xff\xfe{}")
     with pytest.raises(ProjectFileError, match="is not UTF-8 text"):
         load(bad)
+
+
+def test_a_file_over_the_limit_is_refused_by_its_size_unread(
+    tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    monkeypatch.setattr(projectfile, "MAX_FILE_BYTES", 1000)
+    big = tmp_path / "big.towboard"
+    big.write_bytes(b" " * 1001)
+    with pytest.raises(ProjectFileError) as e:
+        load(big)
+    assert str(e.value) == f"{big}: is larger than 0.001 MB, far more than any plan holds; not read"
+    big.write_bytes(b" " * 1000)  # at the limit it is read (and is no plan)
+    with pytest.raises(ProjectFileError, match="not valid JSON"):
+        load(big)
+
+
+def test_a_device_is_read_only_up_to_the_limit() -> None:
+    # /dev/zero never ends: it was once read until memory ran out
+    with pytest.raises(TooLarge):
+        read_at_most("/dev/zero", 3_000_000)
+    assert read_at_most("/dev/null", 10) == b""
+
+
+@pytest.mark.skipif(not hasattr(os, "mkfifo"), reason="no FIFOs here")
+@pytest.mark.parametrize(("size", "refused"), [(5000, False), (5001, True)])
+def test_a_fifo_is_read_only_up_to_the_limit(tmp_path: Path, size: int, refused: bool) -> None:
+    fifo = tmp_path / "plan.towboard"
+    os.mkfifo(fifo)
+
+    def write() -> None:
+        try:
+            with open(fifo, "wb") as f:
+                for _ in range(size // 1000):
+                    f.write(b"x" * 1000)
+                f.write(b"x" * (size % 1000))
+        except BrokenPipeError:  # the reader refused and closed its end
+            pass
+
+    writer = threading.Thread(target=write)
+    writer.start()
+    try:
+        if refused:
+            with pytest.raises(TooLarge):
+                read_at_most(fifo, 5000)
+        else:
+            assert read_at_most(fifo, 5000) == b"x" * size
+    finally:
+        writer.join()
+
+
+def test_the_largest_plans_of_the_growth_benchmark_are_far_under_the_limit() -> None:
+    sys.path.insert(0, str(ROOT / "benchmarks"))
+    try:
+        from growth import outline_text, placements_text
+    finally:
+        sys.path.remove(str(ROOT / "benchmarks"))
+    for text in (outline_text(100_000), placements_text(10_000)):
+        saved = dumps(loads(text)).encode("utf-8")  # as the program writes them: 4 and 16 MB
+        assert len(saved) * 5 < MAX_FILE_BYTES
 
 
 def test_save_keeps_the_previous_file_as_a_backup(tmp_path: Path) -> None:
