@@ -1,8 +1,8 @@
 """``towboard brief FILE -o plan.pdf [--paper a4|letter]``: the briefing without a window.
 
 Exits 0 when the PDF is written; 2 with a one-line message on stderr for a file that
-cannot be read, a bad option or an output that cannot be written. Nothing is written
-unless the whole PDF is.
+cannot be read, a bad option or an output that cannot be written, does not end in .pdf
+or is the plan itself. Nothing is written unless the whole PDF is.
 """
 
 from __future__ import annotations
@@ -46,7 +46,7 @@ def brief_command(argv: list[str]) -> int:
         _app = _application()
         from app.briefing.document import write_pdf
 
-        pages = write_pdf(project, args.output, args.paper)
+        pages = write_pdf(project, args.output, args.paper, plan_path=args.file)
     except TowboardError as e:
         print(f"towboard brief: {str(e).splitlines()[0]}", file=sys.stderr)
         return 2

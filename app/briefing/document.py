@@ -169,13 +169,42 @@ def pdf_writer(path: str, project: Project, paper: str) -> QPdfWriter:
     return w
 
 
-def write_pdf(project: Project, path: str | os.PathLike[str], paper: str = "a4") -> int:
+def check_output(path: Path, plan_path: str | os.PathLike[str] | None = None) -> None:
+    """Refuse a briefing file that does not end in .pdf, or that is the plan it is made
+    from (by name, or through a link: the plan would be replaced by its briefing).
+
+    Raises InputError naming the briefing file.
+    """
+    if path.suffix.lower() != ".pdf":
+        raise InputError("briefing file", path.name, "must end in .pdf")
+    if plan_path is not None and _same_file(path, Path(plan_path)):
+        raise InputError(
+            "briefing file", str(path), "is the plan itself; give the briefing its own name"
+        )
+
+
+def _same_file(a: Path, b: Path) -> bool:
+    try:
+        return os.path.samefile(a, b)
+    except (OSError, ValueError):  # either missing (then not the same), or a bad name
+        return False
+
+
+def write_pdf(
+    project: Project,
+    path: str | os.PathLike[str],
+    paper: str = "a4",
+    plan_path: str | os.PathLike[str] | None = None,
+) -> int:
     """Write the briefing to ``path`` as a PDF, atomically; returns the page count.
 
-    The PDF is written to a temporary file in the same folder and renamed over
-    ``path`` only once it is complete, so a failure never leaves a half-written file.
+    ``path`` must end in .pdf and must not be ``plan_path``, the file the plan was read
+    from (:func:`check_output`). The PDF is written to a temporary file in the same folder
+    and renamed over ``path`` only once it is complete, so a failure never leaves a
+    half-written file.
     """
     target = Path(path)
+    check_output(target, plan_path)
     page_layout(paper)  # refuse a bad paper before touching the disk
     if not target.parent.is_dir():
         raise InputError("output folder", str(target.parent), "does not exist")

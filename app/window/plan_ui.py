@@ -193,7 +193,7 @@ class PlanUi:
         if path.suffix.lower() != ".pdf":
             path = path.with_suffix(".pdf")
         try:
-            n = write_pdf(c.project, path, self.paper)
+            n = write_pdf(c.project, path, self.paper, plan_path=c.path)
         except (TowboardError, OSError) as e:
             QMessageBox.warning(self.window, "Briefing not written", str(e).splitlines()[0])
             return None

@@ -304,6 +304,27 @@ def test_cli_bad_input_exits_2_with_one_line_and_writes_nothing(tmp_path, make, 
     assert list(out_dir.iterdir()) == []
 
 
+@pytest.mark.parametrize("how", ["the plan itself", "a .pdf link to the plan", "not a .pdf"])
+def test_cli_never_writes_over_the_plan(tmp_path, how):
+    # `brief PLAN -o PLAN` once replaced the plan by its PDF, with no .bak kept
+    plan = tmp_path / "plan.towboard"
+    plan.write_bytes(TWIN.read_bytes())
+    if how == "the plan itself":
+        out, message = plan, "briefing file: 'plan.towboard' must end in .pdf"
+    elif how == "a .pdf link to the plan":
+        out = tmp_path / "brief.pdf"
+        out.symlink_to(plan)
+        message = f"briefing file: '{out}' is the plan itself; give the briefing its own name"
+    else:
+        out, message = tmp_path / "brief.txt", "briefing file: 'brief.txt' must end in .pdf"
+    done = _brief(str(plan), "-o", str(out))
+    assert done.returncode == 2 and "Traceback" not in done.stderr
+    assert done.stderr == f"towboard brief: {message}\n"
+    assert plan.read_bytes() == TWIN.read_bytes()
+    assert load(plan).name == load(TWIN).name
+    assert not (tmp_path / "brief.txt").exists()
+
+
 def test_cli_needs_an_output(tmp_path):
     done = _brief(str(TWIN))
     assert done.returncode == 2

@@ -122,6 +122,20 @@ def test_export_to_a_missing_folder_says_so_and_writes_nothing(window, tmp_path,
     assert not target.parent.exists()
 
 
+def test_export_never_writes_over_the_plan_it_was_opened_from(window, tmp_path, monkeypatch):
+    # a plan kept under a .pdf name: the export's suggested name is the plan itself
+    plan = tmp_path / "plan.pdf"
+    plan.write_bytes((SAMPLES / "pontoon_swing.towboard").read_bytes())
+    assert window.open_path(plan, ask=False)
+    monkeypatch.setattr(QFileDialog, "getSaveFileName", lambda *a, **k: (str(plan), ""))
+    said = []
+    monkeypatch.setattr(QMessageBox, "warning", lambda parent, title, text: said.append(text))
+    assert window.plan_ui.export_pdf() is None
+    assert said == [f"briefing file: '{plan}' is the plan itself; give the briefing its own name"]
+    assert load(plan).name == window.controller.project.name
+    assert not [p for p in tmp_path.iterdir() if "pdf" in p.name and p != plan]  # no temporary
+
+
 def test_print_preview_shows_every_page(window, monkeypatch):
     seen = {}
 
