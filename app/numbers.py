@@ -6,7 +6,8 @@ in the display units the user chose:
 
 - :func:`parse_number` reads a plain number: ``12.5``, ``12,5`` (a comma as the
   decimal mark), ``-3``, ``1e3``, ``1 200``, a typographic minus; it refuses words,
-  ``nan`` and ``inf``.
+  ``nan`` and ``inf``, and a comma before exactly three digits (``2,800``: a thousands
+  separator and a decimal comma cannot be told apart; ``2800`` or ``2.8`` is asked for).
 - :func:`parse_value` reads a number in the display unit of a core rule
   (:mod:`core.model.rules`), accepts an explicit unit typed after it (``400 kN`` in a
   field shown in t), converts to SI and checks the rule, so ``120`` typed as a setting
@@ -18,6 +19,7 @@ in the display units the user chose:
 from __future__ import annotations
 
 import math
+import re
 
 from core.errors import InputError, TowboardError
 from core.model.rules import Range, RangeError, unit_of
@@ -26,9 +28,21 @@ from core.units import CHOICES, FACTORS, LABELS, DisplayUnits
 _MINUSES = str.maketrans({"\u2212": "-", "\u2013": "-", "\u00a0": "", "\u202f": "", " ": ""})
 
 
+#: A comma with exactly three digits after it: ``2,800`` is 2800 to some and 2.8 to others.
+_COMMA_THOUSANDS = re.compile(r",\d{3}(?!\d)")
+
+
 def parse_number(text: str, what: str = "value") -> float:
     """A finite number typed by a person; raises InputError naming ``what``."""
-    t = str(text).strip().translate(_MINUSES).replace(",", ".").replace("_", "")
+    t = str(text).strip().translate(_MINUSES).replace("_", "")
+    if _COMMA_THOUSANDS.search(t):
+        if t.count(",") == 1:
+            why = f"the comma may mark thousands or decimals): write {t.replace(',', '')} or "
+            why += t.replace(",", ".")
+        else:
+            why = "a comma may mark thousands or decimals): write it without the commas"
+        raise InputError(what, text, f"is ambiguous ({why}")
+    t = t.replace(",", ".")
     try:
         v = float(t)
     except (ValueError, OverflowError):

@@ -636,6 +636,52 @@ def test_refusals_follow_the_display_units(env) -> None:  # type: ignore[no-unty
         c.message.disconnect(said.append)
 
 
+@pytest.mark.parametrize(
+    ("case_id", "typed", "said", "good", "expect"),
+    [
+        # "2,800" was read as 2.8 t; "1,500" as 1.5 t·m
+        (
+            "hull: displacement",
+            "2,800",
+            "displacement: '2,800' is ambiguous (the comma may mark thousands or decimals): "
+            "write 2800 or 2.800",
+            "2800",
+            2.8e6,  # kg
+        ),
+        (
+            "goal: yaw moment",
+            "1,500",
+            "goal: yaw moment: '1,500' is ambiguous (the comma may mark thousands or "
+            "decimals): write 1500 or 1.500",
+            "1,5",  # a decimal comma before fewer than three digits is read as ever
+            1.5 * TF,  # t·m to N·m
+        ),
+    ],
+)
+def test_a_comma_before_three_digits_is_refused_not_guessed(  # type: ignore[no-untyped-def]
+    env, case_id: str, typed: str, said: str, good: str, expect: float
+) -> None:
+    w = env
+    c = w.controller
+    c.reset(load(SAMPLE))
+    c.set_stage_index(0)
+    QApplication.processEvents()
+    case = next(x for x in CASES if x.id == case_id)
+    messages: list[str] = []
+    c.message.connect(messages.append)
+    try:
+        if case.setup is not None:
+            case.setup(w)
+        before = c.project
+        _enter(w, case, typed)
+        assert c.project is before, f"{typed!r} changed the plan"
+        assert messages and messages[-1].endswith(f"ot changed: {said}")
+        _enter(w, case, good)
+        assert case.got(c.project) == pytest.approx(expect, abs=1e-9)
+    finally:
+        c.message.disconnect(messages.append)
+
+
 #: Line edits of the panels that hold text, not numbers (names, or a list of numbers
 #: checked in its own dialog).
 TEXT_FIELDS = {"hull_panel.name"}
