@@ -20,7 +20,7 @@ from app.edits import tugs as tug_edits
 from app.guard import guarded
 from app.numbers import message, parse_value
 from app.panels.model_cells import Index, holds
-from core.errors import TowboardError
+from core.errors import InputError, TowboardError
 from core.mechanics.balance import TugShare
 from core.mechanics.bodies import body_name_of_hull
 from core.model import rules
@@ -28,6 +28,8 @@ from core.model.tugs import Placement, Tug
 from core.units import fmt as plain
 
 NOT_PLACED = "not placed"
+#: Where a tug works: its hull and point, or None when it is not placed.
+Point = tuple[str, str] | None
 
 
 @dataclass(frozen=True, slots=True)
@@ -386,13 +388,15 @@ class TugsModel(QAbstractTableModel):
             ), f"{t.name} astern"
         if role != Qt.ItemDataRole.EditRole:
             return None, ""
+        if key == "point":
+            where = self.point_of_value(value)
+            said = NOT_PLACED if where is None else f"{where[0]}: {where[1]}"
+            return self._moved_to_point(row, where), f"{t.name} works at {said}"
         text = str(value).strip()
         if key == "name":
             if not text or text == t.name:
                 return None, ""
             return tug_edits.renamed_tug(project, t.name, text), f"Rename {t.name}"
-        if key == "point":
-            return self._moved_to_point(row, text), f"{t.name} works at {text}"
         if key in ("sector_from", "sector_to"):
             return self._sector_edited(row, key, text), f"Working sector of {t.name}"
         if key not in _RULES:
@@ -435,19 +439,46 @@ class TugsModel(QAbstractTableModel):
             new = sectors.with_limit(body, p, which, value)
         return c.with_stage(stage.with_placement(new))
 
-    def point_choices(self) -> list[str]:
-        out = [NOT_PLACED]
+    def point_choices(self) -> list[tuple[str, Point]]:
+        """The "Works at" list: each entry's words and its (hull, point), "not placed" first.
+
+        The pair, not the words, says where the tug goes: a hull or point name may hold
+        ": " itself.
+        """
+        out: list[tuple[str, Point]] = [(NOT_PLACED, None)]
         for h in self.controller.project.hulls:
-            out += [f"{h.name}: {f.name}" for f in h.fittings]
+            out += [(f"{h.name}: {f.name}", (h.name, f.name)) for f in h.fittings]
         return out
 
-    def _moved_to_point(self, row: Row, text: str):  # type: ignore[no-untyped-def]
+    def point_at(self, index: Index) -> Point:
+        """Where the tug of ``index``'s row works in the stage shown (None: not placed)."""
+        if not holds(self, index):
+            return None
+        p = self.rows[index.row()].placement
+        return None if p is None else (p.hull, p.point)
+
+    def point_of_value(self, value: object) -> Point:
+        """The (hull, point) a "Works at" edit gives: the pair itself, or words of the list
+        that name one entry and one only. Raises InputError for anything else."""
+        if value is None:
+            return None
+        if isinstance(value, tuple) and len(value) == 2 and all(isinstance(v, str) for v in value):
+            return (value[0], value[1])
+        text = str(value).strip()
+        found = [pair for words, pair in self.point_choices() if words == text]
+        if len(found) == 1:
+            return found[0]
+        if found:
+            raise InputError("works at", text, "names more than one point: choose it in the list")
+        raise InputError("works at", text, "is not a line point or push point of the plan")
+
+    def _moved_to_point(self, row: Row, where: Point):  # type: ignore[no-untyped-def]
         c = self.controller
         project, stage = c.ensure_stage(c.project)
         t, p = row.tug, row.placement
-        if text == NOT_PLACED:
+        if where is None:
             return None if p is None else c.with_stage(stage.without_placement(t.name), project)
-        hull_name, _, point = text.partition(": ")
+        hull_name, point = where
         hull = project.hull(hull_name)
         fitting = hull.fitting(point)
         from core.mechanics.bodies import body_of

@@ -19,11 +19,20 @@ from PySide6.QtWidgets import (
 from app.controller import Controller
 from app.edits import tugs as tug_edits
 from app.guard import guarded
-from app.panels.tugs_model import KEYS, TugsModel
+from app.panels.tugs_model import KEYS, Point, TugsModel
 from core.mechanics.bodies import body_name_of_hull, body_of
 from core.model.tugs import Placement, Tug
 
 Index = QModelIndex | QPersistentModelIndex
+
+
+class PointBox(QComboBox):
+    """The "Works at" list; keeps each entry's (hull, point) beside its words."""
+
+    def __init__(self, choices: list[tuple[str, Point]], parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.points = [pair for _words, pair in choices]
+        self.addItems([words for words, _pair in choices])
 
 
 class PointDelegate(QStyledItemDelegate):
@@ -35,19 +44,19 @@ class PointDelegate(QStyledItemDelegate):
 
     @guarded
     def createEditor(self, parent: QWidget, option: QStyleOptionViewItem, index: Index) -> QWidget:
-        box = QComboBox(parent)
-        box.addItems(self.model.point_choices())
-        return box
+        return PointBox(self.model.point_choices(), parent)
 
     @guarded
     def setEditorData(self, editor: QWidget, index: Index) -> None:
-        if isinstance(editor, QComboBox):  # the editor createEditor made
-            editor.setCurrentText(str(index.data(Qt.ItemDataRole.EditRole)))
+        if isinstance(editor, PointBox):  # the editor createEditor made
+            where = self.model.point_at(index)
+            if where in editor.points:
+                editor.setCurrentIndex(editor.points.index(where))
 
     @guarded
     def setModelData(self, editor: QWidget, model, index: Index) -> None:  # type: ignore[no-untyped-def]
-        if isinstance(editor, QComboBox):
-            model.setData(index, editor.currentText(), Qt.ItemDataRole.EditRole)
+        if isinstance(editor, PointBox) and 0 <= editor.currentIndex() < len(editor.points):
+            model.setData(index, editor.points[editor.currentIndex()], Qt.ItemDataRole.EditRole)
 
 
 class TugsPanel(QWidget):
