@@ -36,6 +36,7 @@ from app.controller import Controller
 from app.guard import guarded
 from app.numbers import message, parse_number, parse_optional, parse_value
 from app.panels.dialog_parts import ok_cancel
+from app.panels.panel_field import PanelField
 from core.errors import InputError, TowboardError
 from core.frames import turning_words
 from core.mechanics.bodies import stage_body
@@ -155,9 +156,9 @@ class ConditionsPanel(QWidget):
     def __init__(self, controller: Controller, parent: QWidget | None = None) -> None:
         super().__init__(parent)
         self.controller = controller
-        self.edits: dict[str, QLineEdit] = {}
+        self.edits: dict[str, PanelField] = {}
         self.labels: dict[str, QLabel] = {}
-        self.centre_edits: dict[str, tuple[QLineEdit, QLineEdit]] = {}
+        self.centre_edits: dict[str, tuple[PanelField, PanelField]] = {}
         inner = QWidget()
         col = QVBoxLayout(inner)
         col.addWidget(self._group("Wind", WIND))
@@ -187,11 +188,11 @@ class ConditionsPanel(QWidget):
         for f in TRAVEL:
             self._add_field(form, f)  # type: ignore[arg-type]
         for attr, title in CENTRES:
-            x, y = QLineEdit(), QLineEdit()
+            x, y = PanelField(), PanelField()
             for w in (x, y):
                 w.setPlaceholderText("auto")
                 w.setToolTip("Blank: the centre of the projected area")
-                w.editingFinished.connect(guarded(lambda a=attr: self._set_centre(a)))
+                w.committed.connect(guarded(lambda a=attr: self._set_centre(a)))
             row = QHBoxLayout()
             row.addWidget(x)
             row.addWidget(y)
@@ -234,9 +235,9 @@ class ConditionsPanel(QWidget):
         return box
 
     def _add_field(self, form: QFormLayout, f: Field) -> None:
-        e = QLineEdit()
+        e = PanelField()
         e.setToolTip(f.tip)
-        e.editingFinished.connect(guarded(lambda f=f: self._set(f)))
+        e.committed.connect(guarded(lambda f=f: self._set(f)))
         lab = QLabel(f.title)
         lab.setToolTip(f.tip)
         self.edits[f.attr] = e

@@ -21,7 +21,6 @@ from PySide6.QtWidgets import (
     QGroupBox,
     QHeaderView,
     QLabel,
-    QLineEdit,
     QScrollArea,
     QTableWidget,
     QTableWidgetItem,
@@ -32,6 +31,7 @@ from PySide6.QtWidgets import (
 from app.controller import Controller
 from app.guard import guarded
 from app.numbers import message, parse_optional, parse_value
+from app.panels.panel_field import PanelField
 from core.errors import TowboardError
 from core.model import rules
 from core.model.drift import DriftSettings
@@ -86,15 +86,15 @@ class DriftPanel(QWidget):
         self.notes = QLabel("")
         self.notes.setWordWrap(True)
         self.notes.setStyleSheet("color: #8a5a00;")
-        self.times = QLineEdit()
+        self.times = PanelField()
         self.times.setToolTip(
             "Seconds after the tug is lost or the lines let go, apart by commas or spaces: "
             "30, 60, 120"
         )
-        self.horizon = QLineEdit()
+        self.horizon = PanelField()
         self.horizon.setToolTip("How long to look ahead for a contact, s (at most 3600)")
-        self.times.editingFinished.connect(self._set_times)
-        self.horizon.editingFinished.connect(self._set_horizon)
+        self.times.committed.connect(self._set_times)
+        self.horizon.committed.connect(self._set_horizon)
         self.hulls = QTableWidget(0, 3)
         self.hulls.setObjectName("drift_hulls")
         self.hulls.verticalHeader().setVisible(False)

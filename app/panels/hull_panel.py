@@ -30,6 +30,7 @@ from app.edits import hulls as hull_edits
 from app.guard import guarded
 from app.numbers import message, parse_optional
 from app.panels.hull_tables import FittingsTab, OutlineTab
+from app.panels.panel_field import PanelField
 from core.errors import TowboardError
 from core.model import rules
 from core.model.hull import Hull
@@ -52,32 +53,30 @@ class HullPanel(QWidget):
         self.current: str | None = None
         self.choose = QComboBox()
         self.choose.currentTextChanged.connect(self._chosen)
-        self.name = QLineEdit()
+        self.name = PanelField()
         self.length = QLabel("—")
         self.beam = QLabel("—")
         self.area = QLabel("—")
         self.centroid = QLabel("—")
-        self.draught = QLineEdit()
-        self.freeboard = QLineEdit()
-        self.displacement = QLineEdit()
-        self.cog_x = QLineEdit()
-        self.cog_y = QLineEdit()
+        self.draught = PanelField()
+        self.freeboard = PanelField()
+        self.displacement = PanelField()
+        self.cog_x = PanelField()
+        self.cog_y = PanelField()
         self.reference = QLabel("—")
         self.reference.setWordWrap(True)
         for w in (self.cog_x, self.cog_y):
             w.setPlaceholderText("at the centroid")
         for w in (self.draught, self.freeboard, self.displacement):
             w.setPlaceholderText("not given")
-        self.name.editingFinished.connect(self._rename)
-        self.draught.editingFinished.connect(
-            guarded(lambda: self._set_length("draught_m", self.draught))
-        )
-        self.freeboard.editingFinished.connect(
+        self.name.committed.connect(self._rename)
+        self.draught.committed.connect(guarded(lambda: self._set_length("draught_m", self.draught)))
+        self.freeboard.committed.connect(
             guarded(lambda: self._set_length("freeboard_m", self.freeboard))
         )
-        self.displacement.editingFinished.connect(self._set_displacement)
-        self.cog_x.editingFinished.connect(self._set_cog)
-        self.cog_y.editingFinished.connect(self._set_cog)
+        self.displacement.committed.connect(self._set_displacement)
+        self.cog_x.committed.connect(self._set_cog)
+        self.cog_y.committed.connect(self._set_cog)
         self.to_aft = QPushButton("Reference to aft end on centreline")
         self.to_aft.clicked.connect(self._reference_to_aft)
         self.generate = QPushButton("Outline from dimensions…")

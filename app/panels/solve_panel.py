@@ -24,7 +24,6 @@ from PySide6.QtWidgets import (
     QHBoxLayout,
     QHeaderView,
     QLabel,
-    QLineEdit,
     QPushButton,
     QTableWidget,
     QVBoxLayout,
@@ -34,6 +33,7 @@ from PySide6.QtWidgets import (
 from app.controller import BodyParts, Controller
 from app.guard import guarded
 from app.numbers import message, parse_value
+from app.panels.panel_field import PanelField
 from app.panels.table_cells import Cell, fill
 from core.analysis.stage import BodyResult as StageBody
 from core.analysis.stage import StageResult
@@ -163,19 +163,19 @@ class SolvePanel(QWidget):
         for k in (NO_GOAL, *GOAL_KINDS):
             self.kind.addItem(GOAL_TITLES[k], k)
         self.kind.currentIndexChanged.connect(self._kind_chosen)
-        self.fx, self.fy, self.mz = QLineEdit("0"), QLineEdit("0"), QLineEdit("0")
+        self.fx, self.fy, self.mz = PanelField("0"), PanelField("0"), PanelField("0")
         for w, name in ((self.fx, "goal_fx"), (self.fy, "goal_fy"), (self.mz, "goal_mz")):
             w.setObjectName(name)
-            w.editingFinished.connect(self._figures_edited)
+            w.committed.connect(self._figures_edited)
         self.fx_label, self.fy_label, self.mz_label = QLabel(), QLabel(), QLabel()
         #: A transit's planned speed through the water (each tug's headway table is read at it).
-        self.speed = QLineEdit("0")
+        self.speed = PanelField("0")
         self.speed.setObjectName("goal_speed")
         self.speed.setToolTip(
             "Planned speed through the water: each tug's usable pull is read from its "
             "headway table at this speed (Tugs > Edit tug…)"
         )
-        self.speed.editingFinished.connect(self._figures_edited)
+        self.speed.committed.connect(self._figures_edited)
         self.speed_label = QLabel()
         self.solve_button = QPushButton("Solve pulls")
         self.solve_button.setToolTip(

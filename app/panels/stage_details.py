@@ -19,7 +19,6 @@ from PySide6.QtWidgets import (
     QHBoxLayout,
     QHeaderView,
     QLabel,
-    QLineEdit,
     QPlainTextEdit,
     QTableWidget,
     QTableWidgetItem,
@@ -30,6 +29,7 @@ from PySide6.QtWidgets import (
 from app.controller import Controller
 from app.guard import guarded
 from app.numbers import message, parse_optional, parse_value
+from app.panels.panel_field import PanelField
 from core.errors import InputError
 from core.mechanics.site import body_pose
 from core.model import rules
@@ -89,22 +89,22 @@ class StageDetails(QWidget):
         self.notes = _Notes(self._notes_done, self)
         self.notes.setPlaceholderText("Notes for the briefing: order of work, who does what…")
         self.notes.setMaximumHeight(90)
-        self.limit_fields: dict[str, QLineEdit] = {}
+        self.limit_fields: dict[str, PanelField] = {}
         self.limit_units: dict[str, QLabel] = {}
         limits = QGroupBox("Go / no-go limits (empty: not set)", self)
         form = QFormLayout(limits)
         form.setRowWrapPolicy(QFormLayout.RowWrapPolicy.WrapLongRows)  # a narrow dock
         for key, text, _q in self.LIMITS:
-            f = QLineEdit(self)
+            f = PanelField(parent=self)
             f.setObjectName(f"limit_{key}")
-            f.editingFinished.connect(guarded(lambda k=key: self._limit_done(k)))
+            f.committed.connect(guarded(lambda k=key: self._limit_done(k)))
             unit = QLabel(self)
             form.addRow(text, _with_unit(f, unit))
             self.limit_fields[key] = f
             self.limit_units[key] = unit
-        self.margin = QLineEdit(self)
+        self.margin = PanelField(parent=self)
         self.margin.setObjectName("clearance_margin")
-        self.margin.editingFinished.connect(self._margin_done)
+        self.margin.committed.connect(self._margin_done)
         self.margin_unit = QLabel(self)
         form.addRow("Plan clearance margin", _with_unit(self.margin, self.margin_unit))
         self.poses = QTableWidget(0, 4, self)
@@ -137,9 +137,9 @@ class StageDetails(QWidget):
         box.setToolTip("Both headings empty: the stage gives no swing")
         form = QFormLayout(box)
         form.setRowWrapPolicy(QFormLayout.RowWrapPolicy.WrapLongRows)  # a narrow dock
-        self.swing_start = QLineEdit(box)
+        self.swing_start = PanelField(parent=box)
         self.swing_start.setObjectName("swing_start")
-        self.swing_end = QLineEdit(box)
+        self.swing_end = PanelField(parent=box)
         self.swing_end.setObjectName("swing_end")
         for f in (self.swing_start, self.swing_end):
             f.setPlaceholderText("none")
@@ -150,7 +150,7 @@ class StageDetails(QWidget):
         self.swing_turn = QLabel(box)
         self.swing_turn.setWordWrap(True)
         for f in (self.swing_start, self.swing_end):
-            f.editingFinished.connect(self._swing_done)
+            f.committed.connect(self._swing_done)
         self.swing_side.currentIndexChanged.connect(guarded(lambda _i: self._swing_done()))
         form.addRow("Starts on", _with_unit(self.swing_start, QLabel("°", box)))
         form.addRow("Ends on", _with_unit(self.swing_end, QLabel("°", box)))

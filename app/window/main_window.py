@@ -502,7 +502,12 @@ class MainWindow(QMainWindow):
 
     # -- files --------------------------------------------------------------------------
     def maybe_discard(self) -> bool:
-        """True when the current plan may be replaced (saved, or the user said so)."""
+        """True when the current plan may be replaced (saved, or the user said so).
+
+        A field with typing in it is committed first, as leaving it would: the question
+        then sees that edit, and nothing typed is lost or applied to the next plan.
+        """
+        self.commit_typing()
         if not self.controller.dirty:
             return True
         answer = QMessageBox.question(
@@ -517,6 +522,16 @@ class MainWindow(QMainWindow):
         if answer == QMessageBox.StandardButton.Save:
             return self.file_save()
         return answer == QMessageBox.StandardButton.Discard
+
+    def commit_typing(self) -> None:
+        """Commit what is typed in the focused field of this window (its docks too, even
+        floating) by taking the focus from it: the field's own "left" commits it."""
+        focus = QApplication.focusWidget()
+        w: QWidget | None = focus
+        while w is not None and w is not self:
+            w = w.parentWidget()
+        if focus is not None and w is self:
+            focus.clearFocus()
 
     def file_new(self) -> None:
         if self.maybe_discard():
