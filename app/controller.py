@@ -6,8 +6,10 @@ Everything on screen reads :class:`Controller` and writes back through it:
   ``controller.stage_index`` / ``controller.stage`` the stage on the board (None when
   the project has no stage).
 - ``controller.apply(new_project, text, merge_key=None)`` records one undoable edit.
-  Edits with the same ``merge_key`` pushed one after another merge into one undo step
-  (nudges, wheel steps of one tug).
+  Edits with the same ``merge_key`` pushed one after another in the same stage merge
+  into one undo step (nudges, wheel steps of one tug). Each step remembers the stage
+  shown when it was made: undoing or redoing it shows that stage again, and the status
+  bar says so when it was another, so no edit changes a stage out of sight.
 - ``controller.preview(new_project)`` shows a value live without recording it (a drag
   in progress); ``controller.commit_preview(text)`` records the whole drag as one
   undo step, ``controller.cancel_preview()`` puts the value from before the drag back.
@@ -85,7 +87,12 @@ def _merge_id(key: object) -> int:
 
 
 class ProjectCommand(QUndoCommand):
-    """Swap one project value for another (redo is safe when already applied)."""
+    """Swap one project value for another (redo is safe when already applied).
+
+    ``stage`` is the index of the stage shown when the edit was made: undo and redo show
+    it (the stages are then as they were when the edit was made, the stack being undone
+    in order), and edits of two stages never merge.
+    """
 
     def __init__(
         self,
@@ -100,24 +107,25 @@ class ProjectCommand(QUndoCommand):
         self.old = old
         self.new = new
         self.merge_key = merge_key
+        self.stage = controller.stage_index
 
     @guarded
     def redo(self) -> None:
-        self._controller._set_recorded(self.new)
+        self._controller._set_recorded(self.new, self.stage, f"Redone: {self.text()}")
 
     @guarded
     def undo(self) -> None:
-        self._controller._set_recorded(self.old)
+        self._controller._set_recorded(self.old, self.stage, f"Undone: {self.text()}")
 
     @guarded(default=-1)
     def id(self) -> int:
-        return -1 if self.merge_key is None else _merge_id(self.merge_key)
+        return -1 if self.merge_key is None else _merge_id((self.stage, self.merge_key))
 
     @guarded(default=False)
     def mergeWith(self, other: QUndoCommand) -> bool:
         if not isinstance(other, ProjectCommand) or other.merge_key != self.merge_key:
             return False
-        if self.merge_key is None:
+        if self.merge_key is None or other.stage != self.stage:
             return False
         self.new = other.new
         return True
@@ -328,12 +336,24 @@ class Controller(QObject):
         return names[0]
 
     # -- writing ------------------------------------------------------------------
-    def _set_recorded(self, project: Project) -> None:
-        """Undo or redo put ``project`` in place: a drag's preview under way is dropped
-        (undo works on what was recorded, never on a half-finished drag)."""
+    def _set_recorded(self, project: Project, stage: int, said: str) -> None:
+        """Undo or redo put ``project`` in place, showing stage ``stage`` (the one shown
+        when the edit was made; when another was shown, the status bar says ``said`` in
+        that stage). A drag's preview under way is dropped (undo works on what
+        was recorded, never on a half-finished drag)."""
         self._preview_base = None
         self._results_override = None
-        self._set_project(project)
+        stage = max(0, min(stage, len(project.stages) - 1))
+        if not project.stages or stage == self._stage_index:
+            self._set_project(project)
+            return
+        self._project = project
+        self._results = None
+        self._stage_index = stage
+        self.stage_changed.emit(stage)
+        self.changed.emit()
+        name = project.stages[stage].name
+        self.message.emit(f"{said} (in stage {stage + 1} “{name}”, now shown)")
 
     def _set_project(self, project: Project, results: dict[str, BodyResult] | None = None) -> None:
         if project is self._project and results is None:

@@ -43,7 +43,7 @@ from PySide6.QtWidgets import (
 from app.board.interaction import TOOL_INFO
 from app.board.scene import BoardScene
 from app.board.view import BoardView
-from app.controller import Controller
+from app.controller import Controller, ProjectCommand
 from app.guard import REPORTER, guarded
 from app.panels.balance_panel import BalancePanel
 from app.panels.hull_panel import HullPanel
@@ -253,6 +253,10 @@ class MainWindow(QMainWindow):
         self.act_undo.setShortcut(QKeySequence(K.Undo))
         self.act_redo = self.controller.undo_stack.createRedoAction(self, "&Redo")
         self.act_redo.setShortcut(QKeySequence(K.Redo))
+        stack = self.controller.undo_stack
+        for signal in (stack.indexChanged, stack.undoTextChanged, stack.redoTextChanged):
+            signal.connect(self._undo_words)
+        self.controller.stage_changed.connect(self._undo_words)
         self.act_delete = self._action(
             "&Delete",
             self.board.interaction.delete_selection,
@@ -411,6 +415,23 @@ class MainWindow(QMainWindow):
             box.addItems(names)
         box.setCurrentIndex(min(self.controller.stage_index, len(names) - 1))
         box.blockSignals(False)
+
+    @guarded
+    def _undo_words(self, *_args: object) -> None:
+        """Undo and Redo in the Edit menu name the stage of a step made in another stage
+        than the one shown (undoing it shows that stage)."""
+        stack = self.controller.undo_stack
+        for action, index, verb in (
+            (self.act_undo, stack.index() - 1, "Undo"),
+            (self.act_redo, stack.index(), "Redo"),
+        ):
+            command = stack.command(index) if 0 <= index < stack.count() else None
+            if not isinstance(command, ProjectCommand):
+                continue
+            words = f"&{verb} {command.text()}"
+            if command.stage != self.controller.stage_index:
+                words += f" (stage {command.stage + 1})"
+            action.setText(words)
 
     @guarded
     def say(self, text: str, msecs: int = 8000) -> None:
