@@ -794,11 +794,11 @@ class Interaction:
                 c.apply(c.project.with_hull(new), f"Delete vertex {sel[2]} of {hull.name}")
                 self.scene.select(("hull", hull.name))
             elif sel[0] == "fitting":
-                c.apply(
-                    hull_edits.without_fitting(c.project, str(sel[1]), str(sel[2])),
-                    f"Delete {sel[2]}",
-                )
-                self.scene.select(("hull", sel[1]))
+                hull_name, name = str(sel[1]), str(sel[2])
+                words = hull_edits.fitting_deleted_words(c.project, hull_name, name)
+                c.apply(hull_edits.without_fitting(c.project, hull_name, name), words)
+                self.scene.select(("hull", hull_name))
+                self._say(words)
             elif sel[0] == "tug" and c.stage is not None:
                 c.apply(c.with_stage(c.stage.without_placement(str(sel[1]))), f"Let go {sel[1]}")
                 self.scene.select(None)

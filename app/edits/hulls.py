@@ -103,6 +103,33 @@ def without_fitting(project: Project, hull: str, name: str) -> Project:
     return replace(project.with_hull(h), stages=stages)
 
 
+def stage_numbers(indices: list[int]) -> str:
+    """Stage indices (from 0) in words, runs joined: "stage 2", "stages 1-4, 6"."""
+    runs: list[list[int]] = []
+    for i in sorted(set(indices)):
+        if runs and i == runs[-1][-1] + 1:
+            runs[-1].append(i)
+        else:
+            runs.append([i])
+    parts = [f"{r[0] + 1}" if len(r) == 1 else f"{r[0] + 1}-{r[-1] + 1}" for r in runs]
+    word = "stage" if len(indices) == 1 else "stages"
+    return f"{word} {', '.join(parts)}"
+
+
+def fitting_deleted_words(project: Project, hull: str, name: str, verb: str = "Deleted") -> str:
+    """What deleting fitting ``name`` of ``hull`` does, in words (for the undo step and the
+    status bar): "Deleted Bow bitt; let go Gannet in stages 1-4, Tern in stage 2"."""
+    where: dict[str, list[int]] = {}
+    for i, s in enumerate(project.stages):
+        for p in s.placements:
+            if (p.hull, p.point) == (hull, name):
+                where.setdefault(p.tug, []).append(i)
+    if not where:
+        return f"{verb} {name}"
+    tugs = ", ".join(f"{tug} in {stage_numbers(stages)}" for tug, stages in where.items())
+    return f"{verb} {name}; let go {tugs}"
+
+
 def renamed_fitting(project: Project, hull: str, old: str, new: str) -> Project:
     """Rename a fitting and every placement that works at it."""
     h = project.hull(hull)

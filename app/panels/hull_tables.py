@@ -219,8 +219,6 @@ class FittingsTab(QWidget):
         if name is None or h is None:
             return
         c = self.controller
-        placed = sum(
-            1 for s in c.project.stages for p in s.placements if (p.hull, p.point) == (h.name, name)
-        )
-        text = f"Remove {name}" + (f" ({placed} tug placements let go)" if placed else "")
-        c.apply(hull_edits.without_fitting(c.project, h.name, name), text)
+        words = hull_edits.fitting_deleted_words(c.project, h.name, name, "Removed")
+        c.apply(hull_edits.without_fitting(c.project, h.name, name), words)
+        c.message.emit(words)
