@@ -64,9 +64,7 @@ def test_escape_in_the_hull_panel_and_the_stage_details_too(window, qtbot) -> No
         assert c.project is before, dock
 
 
-def test_quit_with_typing_in_a_field_asks_and_keeps_the_typing(
-    window, qtbot, dialogs
-) -> None:  # type: ignore[no-untyped-def]
+def test_quit_with_typing_in_a_field_asks_and_keeps_the_typing(window, qtbot, dialogs) -> None:  # type: ignore[no-untyped-def]
     c = window.controller
     window.panels["hull"].raise_()
     _active(window, qtbot)
