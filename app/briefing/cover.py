@@ -21,6 +21,7 @@ from app.briefing.layout import (
     Text,
     heading,
 )
+from app.briefing.stage_tables import STANDING_BY, standing_by
 from app.paint import style
 from core.analysis.stage import StageResult
 from core.analysis.verdict import Verdict
@@ -103,7 +104,14 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
     rows, colors = [], []
     for r in results:
         v = r.verdict
-        tugs = ", ".join(p.tug for p in r.stage.placements if p.setting > 0) or "-"
+        # every tug made fast works in the stage; one at 0 % stands by on its line
+        tugs = (
+            ", ".join(
+                f"{p.tug} ({STANDING_BY})" if standing_by(p.setting) else p.tug
+                for p in r.stage.placements
+            )
+            or "-"
+        )
         rows.append([str(r.index + 1), r.stage.name, r.stage.kind, tugs, v.headline()])
         colors.append(None if v.is_go else verdict_color(v))
     out.append(

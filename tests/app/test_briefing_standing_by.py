@@ -1,0 +1,40 @@
+"""A tug made fast at 0 % is working (standing by on its line): the cover and the stage
+page both list it, in the same words."""
+
+from __future__ import annotations
+
+from app.briefing.cover import cover
+from app.briefing.layout import Table
+from app.briefing.stage_page import stage_blocks
+from core.analysis.stage import plan_results
+from core.io.projectfile import load
+from tests.conftest import SAMPLES
+
+
+def _tables(blocks, first: str) -> list[Table]:  # type: ignore[no-untyped-def]
+    return [b for b in blocks if isinstance(b, Table) and b.columns[0].title == first]
+
+
+def test_a_tug_at_0_percent_is_listed_as_standing_by_on_the_cover_and_its_page() -> None:
+    project = load(SAMPLES / "deck_barge_unberth.towboard")
+    stage = project.stages[0]
+    tugs = [p.tug for p in stage.placements]
+    assert len(tugs) >= 2
+    idle, busy = tugs[0], tugs[1]
+    stage = stage.with_placement(stage.placement(idle).with_setting(0.0))
+    stage = stage.with_placement(stage.placement(busy).with_setting(0.5))
+    project = project.with_stage(stage, 0)
+    results = plan_results(project)
+
+    verdicts = next(
+        t for t in _tables(cover(project, results), "#") if t.columns[3].title == "Tugs working"
+    )
+    listed = verdicts.rows[0][3].split(", ")
+    assert listed[0] == f"{idle} (standing by)"
+    assert listed[1] == busy  # a tug pulling is listed plainly
+    assert [t.split(" (")[0] for t in listed] == tugs  # every tug placed, in order
+
+    page = _tables(stage_blocks(project, results[0], 60.0), "Tug")
+    rows = {row[0]: row for t in page if t.columns[3].title == "Setting" for row in t.rows}
+    assert rows[idle][3] == "0 %, standing by"
+    assert rows[busy][3] == "50 %"
