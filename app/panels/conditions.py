@@ -150,6 +150,11 @@ def _parse(text: str) -> float:
     return parse_number(text)
 
 
+def _index_of(values: list[float], value: float) -> int | None:
+    """Where ``value`` is in ``values`` (as typed, so compared closely), else None."""
+    return next((k for k, v in enumerate(values) if math.isclose(v, value, rel_tol=1e-9)), None)
+
+
 class ConditionsPanel(QWidget):
     """Edits the conditions of the stage shown (one undo step per field)."""
 
@@ -497,7 +502,9 @@ class EfficiencyDialog(QDialog):
         note = QLabel(
             "The share of its rated pull a tug can use. These are your figures: the values "
             "Towboard starts with are placeholders, not published data. Between rows and "
-            "columns the table is interpolated linearly; beyond them the edge values hold."
+            "columns the table is interpolated linearly; beyond them the edge values hold. "
+            "A bollard pull or sea state added to the lists gets its row or column read "
+            "from the table so; one taken out takes its row or column with it."
         )
         note.setWordWrap(True)
         buttons = ok_cancel(self, accept=self._accept)
@@ -508,6 +515,10 @@ class EfficiencyDialog(QDialog):
         layout.addWidget(buttons)
         self.pulls.editingFinished.connect(self._reshape)
         self.seas.editingFinished.connect(self._reshape)
+        #: The bollard pulls (display unit) and sea states the grid's rows and columns are
+        #: for: a reshape keeps each value with the pull and sea state it was entered for.
+        self._rows: list[float] = [units.value(v, "force") for v in table.bollard_pulls_n]
+        self._cols: list[float] = list(table.sea_states)
         self._fill(table)
         self.resize(520, 360)
 
@@ -542,22 +553,49 @@ class EfficiencyDialog(QDialog):
 
     @guarded
     def _reshape(self) -> None:
+        """Rows and columns for the pulls and sea states now listed: a value stays with
+        the pull and sea state it was entered for (matched by value, not by position); a
+        new row or column is read from the table as it was (the core's interpolation,
+        held at the edges), or left empty when that table is not valid."""
         try:
             pulls, seas = self._lists()
-            values = self._values()
         except InputError:
             return
         g = self.grid
+        old: dict[tuple[int, int], str] = {}
+        for i in range(g.rowCount()):
+            for j in range(g.columnCount()):
+                item = g.item(i, j)
+                old[(i, j)] = item.text() if item is not None else ""
+        try:
+            before: EfficiencyTable | None = EfficiencyTable(
+                tuple(self.units.si(v, "force") for v in self._rows),
+                tuple(self._cols),
+                tuple(
+                    tuple(_parse(old[(i, j)]) for j in range(len(self._cols)))
+                    for i in range(len(self._rows))
+                ),
+            )
+        except InputError:
+            before = None
+        g.clearContents()
         g.setRowCount(len(pulls))
         g.setColumnCount(len(seas))
         g.setHorizontalHeaderLabels([f"sea {v:g}" for v in seas])
         f = label(self.units.unit("force"))
         g.setVerticalHeaderLabels([f"{v:g} {f}" for v in pulls])
-        for i in range(len(pulls)):
-            for j in range(len(seas)):
-                if g.item(i, j) is None:
-                    near = values[min(i, len(values) - 1)] if values else [1.0]
-                    g.setItem(i, j, QTableWidgetItem(f"{near[min(j, len(near) - 1)]:g}"))
+        for i, pull in enumerate(pulls):
+            oi = _index_of(self._rows, pull)
+            for j, sea in enumerate(seas):
+                oj = _index_of(self._cols, sea)
+                if oi is not None and oj is not None:
+                    text = old[(oi, oj)]
+                elif before is not None:
+                    text = f"{before.efficiency(self.units.si(pull, 'force'), sea):g}"
+                else:
+                    text = ""
+                g.setItem(i, j, QTableWidgetItem(text))
+        self._rows, self._cols = pulls, seas
 
     def build(self) -> EfficiencyTable:
         pulls, seas = self._lists()
