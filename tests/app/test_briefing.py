@@ -84,10 +84,13 @@ def test_every_tug_and_assigned_pull_of_every_stage_is_the_core_value(twin_pdf):
         assert r.worked
         for body in r.worked:
             for sh in body.balance.shares:
+                setting = f"{sh.setting * 100:.0f} %"
+                if setting == "0 %":  # made fast, not pulling
+                    setting += ", standing by"
                 row = (
                     re.escape(f"{sh.tug} {sh.hull}: {sh.point} ")
                     + r"[^%]*? "
-                    + re.escape(f"{sh.setting * 100:.0f} % {u.show(sh.pull_n, 'force')} ")
+                    + re.escape(f"{setting} {u.show(sh.pull_n, 'force')} ")
                     + re.escape(f"{u.show(sh.usable_n, 'force')} ")
                 )
                 assert re.search(row, text), (r.stage.name, sh.tug, u.show(sh.pull_n, "force"))
