@@ -46,6 +46,7 @@ NO_GO_CODES = frozenset(
         "pulls_miss_goal",
         "setting_over",
         "push_outward",
+        "line_over_hull",
         "fitting_over_rating",
         "outside_permitted_angles",
         "low_clearance",

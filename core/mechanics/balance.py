@@ -25,6 +25,7 @@ from core.mechanics.forces import (
     moments_about,
     transfer_moment,
 )
+from core.mechanics.leads import ends_on_hull, over_hull_allowance_m, over_hull_m
 from core.mechanics.usable import STEEP_LINE_DEG, line_angle_rad
 from core.model.capability import WAY_WORDS, CapabilityCurve, Way
 from core.model.plan import Project, Stage
@@ -394,8 +395,32 @@ def _chord(body: Body, eq: Equivalent) -> tuple[tuple[float, float], tuple[float
     return ((float(a[0]), float(a[1])), (float(b[0]), float(b[1])))
 
 
+def _over_hull_notices(layout: TugLayout, body: Body, units: DisplayUnits) -> list[Notice]:
+    """A towline led over the hull, or a tug lying on it (core.mechanics.leads): no tug
+    can take that lead."""
+    lines = np.flatnonzero(~layout.is_push)
+    if len(lines) == 0:
+        return []
+    over = over_hull_m(body.polygon, layout.points[lines], layout.positions[lines])
+    on_deck = ends_on_hull(body.polygon, layout.positions[lines])
+    out = []
+    for k, i in enumerate(lines.tolist()):
+        p = layout.placements[i]
+        if on_deck[k]:
+            text = f"{p.tug}: at the end of its line from {p.point} the tug lies over the hull"
+        elif over[k] > over_hull_allowance_m(body.breadth_of(p.hull)):
+            text = (
+                f"{p.tug}: the towline from {p.point} runs {units.show(float(over[k]), 'length')} "
+                "over the hull"
+            )
+        else:
+            continue
+        out.append(Notice("line_over_hull", p.tug, text + "; lead it out over the side"))
+    return out
+
+
 def _notices(layout: TugLayout, pulls: np.ndarray, body: Body, units: DisplayUnits) -> list[Notice]:
-    out: list[Notice] = []
+    out: list[Notice] = _over_hull_notices(layout, body, units)
     seen: dict[tuple[str, str], str] = {}
     for i, p in enumerate(layout.placements):
         if p.setting > 1 + 1e-9:

@@ -98,6 +98,11 @@ class Body:
         m = self.member(hull)
         return m, m.hull.fitting(point)
 
+    def breadth_of(self, hull: str) -> float:
+        """The breadth of member ``hull``: its outline's extent across its own centreline, m."""
+        ys = [p[1] for p in self.member(hull).hull.outline]
+        return float(max(ys) - min(ys))
+
     def inward_normal(self, hull: str, point: str) -> tuple[float, float]:
         """Unit inward normal of the hull at a fitting, in the body frame."""
         key = (hull, point)

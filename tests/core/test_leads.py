@@ -1,0 +1,145 @@
+"""A towline led over the hull: measured in plan, said as a no-go for its tug.
+
+A line may lie over the hull by half its hull's breadth and 2 m more (a centre bitt's
+line crossing the bow's shoulder to the near side); more, or a tug at the end of its
+line over the hull, is a no-go.
+
+Hand geometry on a 60 m x 20 m box barge (x 0..60 forward, y -10..10 to port). A line's
+part over the hull is the length of the fitting-to-tug segment inside the outline less the
+fitting's shortest way out to the edge. The outline is taken EDGE_M (5 cm) in, which the
+hand figures below allow for. A hull's fittings lie on its outline (a point given inside
+is put on the nearest edge); a point inside the outline (a deck point of a lashed group,
+inside the pair's joint outline) is measured with the geometry alone.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+import shapely
+
+from core.analysis.verdict import NO_GO_CODES
+from core.frames import bearing_to_angle
+from core.mechanics.balance import analyse
+from core.mechanics.leads import (
+    EDGE_M,
+    OVER_HULL_TOL_M,
+    ends_on_hull,
+    over_hull_allowance_m,
+    over_hull_m,
+)
+from core.model.hull import Fitting, Hull
+from core.model.outlines import box_outline
+from core.model.plan import Project, Stage
+from core.model.tugs import Placement, Tug
+
+TF = 9806.65  # N per tonne-force
+BOX = shapely.Polygon(box_outline(60, 20))
+SQ2 = math.sqrt(2)
+COS10, SIN10 = math.cos(math.radians(10)), math.sin(math.radians(10))
+
+
+def _project(*placements: Placement) -> Project:
+    hull = Hull(
+        "Barge",
+        box_outline(60, 20),
+        fittings=(
+            Fitting("Bow", "line", 60, 0),
+            Fitting("Port quarter", "line", 5, 10),
+        ),
+    )
+    tugs = (Tug("A", 50 * TF), Tug("B", 30 * TF))
+    return Project(hulls=(hull,), tugs=tugs, stages=(Stage("S", placements=placements),))
+
+
+def _over(point: str, bearing: float, length: float) -> list[str]:
+    p = _project(Placement("A", "Barge", point, 0.5, bearing_to_angle(bearing), length))
+    return [n.message for n in analyse(p, p.stages[0]).notices if n.code == "line_over_hull"]
+
+
+@pytest.mark.parametrize(
+    ("point", "end", "expected"),
+    [
+        ((60, 0), (100, 0), 0.0),  # the bow bitt's line led ahead: clear
+        ((60, 0), (20, 0), 40.0),  # led aft along the deck: all 40 m over it
+        ((60, 0), (-20, 0), 60.0),  # longer than the hull: out over the stern
+        ((5, 10), (5, 50), 0.0),  # the port quarter's line to port
+        ((5, 10), (5, -30), 20.0),  # to starboard: across the 20 m beam
+        ((30, 8), (30, 40), 0.0),  # a point 2 m in from the port side, to port: its way out
+        # 45 degrees forward of the beam: w / cos 45 inside, less the way out w (w = 2 m
+        # less the edge allowance)
+        ((30, 8), (30 + 30 / SQ2, 8 + 30 / SQ2), (2 - EDGE_M) * (SQ2 - 1)),
+        # 10 degrees off ahead: w / sin 10 inside, less w
+        ((30, 8), (30 + 25 * COS10, 8 + 25 * SIN10), (2 - EDGE_M) * (1 / SIN10 - 1)),
+    ],
+)
+def test_over_the_hull_by_hand(point, end, expected) -> None:  # type: ignore[no-untyped-def]
+    got = over_hull_m(BOX, np.array([point]), np.array([end]))[0]
+    assert got == pytest.approx(expected, abs=2 * EDGE_M + 1e-6)
+
+
+def test_a_bow_line_led_aft_over_the_deck_is_a_no_go() -> None:
+    said = _over("Bow", 180, 40)  # the tug 20 m aft of the stem, on the deck
+    assert said == [
+        "A: at the end of its line from Bow the tug lies over the hull; lead it out over the side"
+    ]
+    said = _over("Bow", 180, 80)  # out past the stern: 60 m along the deck
+    assert said and "A: the towline from Bow runs 59.9 m over the hull" in said[0]
+    assert "line_over_hull" in NO_GO_CODES
+    assert not _over("Bow", 0, 40)  # ahead: clear
+    assert not _over("Bow", 300, 40)  # 60 degrees off ahead to port: clear of the bow
+
+
+def test_a_side_fitting_may_lead_out_over_its_own_side_only() -> None:
+    assert not _over("Port quarter", 270, 30)  # to port
+    assert not _over("Port quarter", 355, 30)  # 5 degrees off ahead, still outboard
+    said = _over("Port quarter", 90, 40)  # to starboard: 20 m across the 20 m beam
+    assert said and "runs 19.9 m over the hull" in said[0]  # 20 m less the edges' 5 cm
+    # 5 degrees inboard of ahead from the edge: 55 m along the deck to the bow
+    assert _over("Port quarter", 5, 60)
+    # and the allowance: half the 20 m breadth and 2 m more
+    assert over_hull_allowance_m(20.0) == pytest.approx(10.0 + OVER_HULL_TOL_M) == 12.0
+
+
+def test_a_centre_line_crossing_the_bows_shoulder_to_the_near_side_is_allowed() -> None:
+    """A bow centre bitt on a chamfered bow (84 x 24 m, corners cut 9 m forward to 3 m in),
+    its tug on the starboard beam a little abaft it: the line crosses the shoulder, about
+    9.6 m over the deck, within half the 24 m breadth and 2 m."""
+    outline = ((0, -9), (5, -12), (75, -12), (84, -9), (84, 9), (75, 12), (5, 12), (0, 9))
+    hull = Hull("Deck barge", outline, fittings=(Fitting("Bow centre bitt", "line", 84, 0),))
+    p = Project(
+        hulls=(hull,),
+        tugs=(Tug("A", 50 * TF),),
+        stages=(
+            Stage(
+                "S",
+                placements=(
+                    Placement(
+                        "A", "Deck barge", "Bow centre bitt", 0.5, math.radians(-102.2), 45.0
+                    ),
+                ),
+            ),
+        ),
+    )
+    b = analyse(p, p.stages[0])
+    assert not [n for n in b.notices if n.code == "line_over_hull"]
+    a = math.radians(-102.2)
+    end = np.array([(84 + 45 * math.cos(a), 45 * math.sin(a))])
+    over = over_hull_m(shapely.Polygon(outline), np.array([(84.0, 0.0)]), end)[0]
+    assert 9.0 < over < over_hull_allowance_m(24.0)
+
+
+def test_a_tug_ends_on_the_hull_or_clear_of_it() -> None:
+    ends = np.array([(30.0, 0.0), (30.0, 10.02), (30.0, 10.5), (-1.0, 0.0)])
+    assert ends_on_hull(BOX, ends).tolist() == [True, False, False, False]  # 10.02: on the edge
+
+
+def test_lines_far_apart_are_measured_each_on_its_own() -> None:
+    pts = np.array([(60, 0), (5, 10), (30, 8)], dtype=float)
+    ends = np.array([(20, 0), (5, 50), (30, -40)], dtype=float)
+    got = over_hull_m(BOX, pts, ends)
+    # the third from 2 m in from the port side across to starboard: 18 m inside, less 2
+    assert got == pytest.approx([40.0, 0.0, 16.0], abs=2 * EDGE_M + 1e-6)
+    assert over_hull_m(BOX, np.zeros((0, 2)), np.zeros((0, 2))).shape == (0,)
