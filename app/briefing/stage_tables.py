@@ -145,6 +145,29 @@ def fittings_table(project: Project, result: StageResult, body: BodyResult) -> l
         )
         unrated = fl.rating_n is None and fl.mode == "line"
         colors.append(FAIL if fl.over_rating else (WARN if unrated else None))
+    for t in body.fitting_totals:
+        if not t.shared:
+            continue
+        if t.rating_n is None:
+            state = "no rating given" if t.mode == "line" else "-"
+        elif t.over_rating:
+            state = "OVER its rating"
+        else:
+            state = f"{(t.use_of_rating or 0.0) * 100:.0f} % of its {t.rating_label}"
+        rows.append(
+            [
+                " + ".join(t.tugs),
+                f"{t.hull}: {t.point}",
+                t.fitting_type,
+                "together",
+                u.show(t.load_n, "force"),
+                "not given"
+                if t.rating_n is None
+                else f"{t.rating_label} {u.show(t.rating_n, 'force')}",
+                state,
+            ]
+        )
+        colors.append(FAIL if t.over_rating else None)
     return [
         heading(f"Fittings of {body.name}: line tension against rating", 2),
         Table(

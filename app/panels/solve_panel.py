@@ -138,6 +138,12 @@ def tug_notes(result: StageResult) -> dict[str, list[str]]:
         if words is not None and r.subject in tugs and words not in notes.get(r.subject, []):
             notes.setdefault(r.subject, []).append(words)
     for b in result.worked:
+        for t in b.fitting_totals:
+            if t.shared and t.over_rating:
+                for tug in t.tugs:
+                    notes.setdefault(tug, []).append(
+                        f"{t.point} over its rating with {len(t.tugs)} tugs"
+                    )
         check = b.tug_lost
         if check is not None and check.full.feasible:
             for case in check.cases:

@@ -26,7 +26,7 @@ from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout, tug
 from core.mechanics.bodies import Body, body_name_of_hull, body_of, stage_body
 from core.mechanics.clearance import Clearance, stage_clearances
 from core.mechanics.depth import DepthCheck, depth_check
-from core.mechanics.fittings import FittingLoad, fitting_loads
+from core.mechanics.fittings import FittingLoad, FittingTotal, fitting_loads, fitting_totals
 from core.mechanics.loads import ConditionLoads, body_conditions, missing_inputs
 from core.mechanics.site import posed_bodies
 from core.model.goals import Goal
@@ -71,6 +71,8 @@ class BodyResult:
     stage: Stage | None = None  # the stage value it is about
     units: DisplayUnits | None = None  # the plan's display units (for the words of warnings)
     depth: DepthCheck | None = None  # the stage's water depth under the body (None: deep)
+    #: Each fitting in use and the load of every tug at it together (core.mechanics.fittings).
+    fitting_totals: tuple[FittingTotal, ...] = ()
     _lost: list[tuple[tuple[str, Balance], ...]] = field(
         default_factory=list, repr=False, compare=False
     )
@@ -83,6 +85,10 @@ class BodyResult:
     def loads(self) -> tuple[Load, ...]:
         """The wind and current loads on the body (those that could be worked out)."""
         return self.conditions.loads
+
+    def fitting_total(self, hull: str, point: str) -> FittingTotal | None:
+        """The load of every tug at fitting ``point`` of ``hull`` together (None: unused)."""
+        return next((t for t in self.fitting_totals if (t.hull, t.point) == (hull, point)), None)
 
     @property
     def solved(self) -> PullsResult | None:
@@ -248,6 +254,7 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
         stage=stage,
         units=units,
         depth=depth_check(body, stage.conditions, units),
+        fitting_totals=fitting_totals(fits, layout),
     )
 
 

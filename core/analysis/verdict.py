@@ -2,7 +2,8 @@
 
 A stage is **no-go** when its goal cannot be met with every tug, or the pulls as set
 miss it; a setting is above 100 % or a push points out of the hull; a fitting's load
-(the line's tension) is above its rating; a clearance is under the margin; the planned
+(the line's tension) is above its rating, or the load of all the tugs at one fitting
+together is (core.mechanics.fittings.fitting_totals); a clearance is under the margin; the planned
 wind or current is above what the fleet can hold (a hold stage) or above the stage's
 own go / no-go limit; the water is no deeper than the body's draught (aground); or a load
 the conditions ask for cannot be worked out (the reason says which input is missing). Whether the fleet can hold the planned wind and current is
@@ -48,6 +49,7 @@ NO_GO_CODES = frozenset(
         "push_outward",
         "line_over_hull",
         "fitting_over_rating",
+        "fitting_total_over_rating",
         "outside_permitted_angles",
         "low_clearance",
         "conditions_over_limit",
@@ -205,6 +207,18 @@ def _fitting_reasons(b: BodyResult, u: DisplayUnits) -> list[Reason]:
                     f"{f.rating_label} {u.show(f.rating_n, 'force')} of {f.point}; the fitting is "
                     "not rated for this tug (IMO MSC.1/Circ.1175)",
                     f.tug,
+                )
+            )
+    for t in b.fitting_totals:
+        if t.shared and t.over_rating and t.rating_n is not None:
+            what = "lines" if t.mode == "line" else "pushes"
+            out.append(
+                reason(
+                    "fitting_total_over_rating",
+                    f"{t.point}: the {what} of {' and '.join(t.tugs)} together load it with "
+                    f"{u.show(t.load_n, 'force')}, over its {t.rating_label} "
+                    f"{u.show(t.rating_n, 'force')} ({(t.use_of_rating or 0.0) * 100:.0f} %)",
+                    t.point,
                 )
             )
     return out

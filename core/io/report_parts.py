@@ -14,6 +14,7 @@ import numpy as np
 
 from core.analysis.stage import BodyResult
 from core.frames import angle_to_bearing, turning_words
+from core.mechanics.fittings import FittingLoad, FittingTotal
 from core.model.plan import Stage
 from core.solve.holdlimits import HoldLimits, limit_at
 from core.solve.pulls import (
@@ -107,24 +108,43 @@ def goal_json(br: BodyResult) -> dict[str, Any] | None:
 
 
 def fittings_json(br: BodyResult) -> list[dict[str, Any]]:
-    """Each tug's load on its fitting: the line's tension (or the push) against the SWL."""
+    """Each tug's load on its fitting: the line's tension (or the push) against the SWL,
+    and the load of every tug at that fitting together (core.mechanics.fittings)."""
     return [
         {
-            "tug": f.tug,
-            "hull": f.hull,
-            "point": f.point,
-            "mode": f.mode,
-            "fitting_type": f.fitting_type,
-            "pull_N": f.pull_n,
-            "line_angle_deg": math.degrees(f.line_angle_rad),
-            "tension_N": f.tension_n,
-            "load_N": f.load_n,
-            "rating_N": f.rating_n,
-            "over_rating": f.over_rating,
-            "rated_for_the_tug": f.suits_tug,
+            **_fitting_json(f),
+            **_total_json(br.fitting_total(f.hull, f.point)),
         }
         for f in br.fittings
     ]
+
+
+def _total_json(t: FittingTotal | None) -> dict[str, Any]:
+    if t is None:
+        return {}
+    return {
+        "tugs_at_fitting": list(t.tugs),
+        "fitting_total_load_N": t.load_n,
+        "fitting_total_use_of_rating": t.use_of_rating,
+        "fitting_total_over_rating": t.over_rating,
+    }
+
+
+def _fitting_json(f: FittingLoad) -> dict[str, Any]:
+    return {
+        "tug": f.tug,
+        "hull": f.hull,
+        "point": f.point,
+        "mode": f.mode,
+        "fitting_type": f.fitting_type,
+        "pull_N": f.pull_n,
+        "line_angle_deg": math.degrees(f.line_angle_rad),
+        "tension_N": f.tension_n,
+        "load_N": f.load_n,
+        "rating_N": f.rating_n,
+        "over_rating": f.over_rating,
+        "rated_for_the_tug": f.suits_tug,
+    }
 
 
 def solve_json(br: BodyResult) -> dict[str, Any] | None:
@@ -290,6 +310,20 @@ def fitting_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
         out.append(
             f"    {f.tug:<14}{f.point:<22}{load} {u.show(f.load_n, 'force')} against "
             f"{rating}{use}{flag}"
+        )
+    for t in br.fitting_totals:
+        if not t.shared:
+            continue
+        rating = (
+            "no rating given"
+            if t.rating_n is None
+            else f"{t.rating_label} {u.show(t.rating_n, 'force')}"
+        )
+        use = "" if t.use_of_rating is None else f" ({t.use_of_rating * 100:.0f} %)"
+        flag = "  OVER" if t.over_rating else ""
+        out.append(
+            f"    {'together':<14}{t.point:<22}load {u.show(t.load_n, 'force')} from "
+            f"{' and '.join(t.tugs)} against {rating}{use}{flag}"
         )
     return (
         ["  Fittings        each tug's load (line tension = pull / cos(line angle))", *out]

@@ -68,6 +68,10 @@ TUG_COLUMNS: tuple[Column, ...] = (
     Column("Line tension", ("_fitting", "tension_N"), "force", "N"),
     Column("Fitting rating", ("_fitting", "rating_N"), "force", "N"),
     Column("Over the fitting's rating", ("_fitting", "over_rating")),
+    Column(
+        "Fitting's load from every tug at it", ("_fitting", "fitting_total_load_N"), "force", "N"
+    ),
+    Column("Fitting's load over its rating", ("_fitting", "fitting_total_over_rating")),
 )
 
 _B = ("balance",)

@@ -9,12 +9,18 @@ fitting's towing rating: its TOW (safe towing load) where given, else its SWL.
 Separately, IMO MSC.1/Circ.1175 (2005) sizes a towing fitting for the tug that will use
 it: design load 1.25 x the intended maximum towing load, SWL at most 80 % of that, so a
 fitting of SWL S suits tugs of bollard pull up to S (:func:`core.mechanics.usable.fitting_suits`).
+
+Several tugs may work at one fitting: the fitting then carries all their lines at once,
+and :func:`fitting_totals` works out that load once for every view and the verdict.
 """
 
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
+
+import numpy as np
 
 from core.mechanics.balance import TugLayout
 from core.mechanics.bodies import Body
@@ -68,12 +74,85 @@ class FittingLoad:
 
     @property
     def over_rating(self) -> bool:
-        return self.rating_n is not None and self.load_n > self.rating_n * (1 + RATING_TOL)
+        return _over(self.load_n, self.rating_n)
 
     @property
     def use_of_rating(self) -> float | None:
         """Load as a fraction of the rating (None without a rating)."""
         return None if self.rating_n is None else self.load_n / self.rating_n
+
+
+def _over(load_n: float, rating_n: float | None) -> bool:
+    return rating_n is not None and load_n > rating_n * (1 + RATING_TOL)
+
+
+@dataclass(frozen=True, slots=True)
+class FittingTotal:
+    """The load on one fitting from every tug working at it, in one stage.
+
+    ``load_n`` is the resultant of the lines' tensions (or the pushes) at the fitting:
+    their horizontal parts added as vectors, and the vertical parts of the lines (a line
+    from a high deck down to the tug pulls the fitting down as well as out) added, N.
+    That is the force the fitting and its seating carry, so it is what is held against
+    the one TOW or SWL; for one tug it is that tug's own load. Two lines pulling the same
+    way add up in full; lines spread apart load the fitting less than the sum of their
+    tensions (``sum_n``, never less than ``load_n``).
+    """
+
+    hull: str
+    point: str
+    fitting_type: str
+    mode: str  # "line" or "push"
+    tugs: tuple[str, ...]
+    load_n: float
+    sum_n: float  # the tensions (or pushes) added as numbers, N
+    rating_n: float | None
+    rating_label: str
+
+    @property
+    def shared(self) -> bool:
+        """More than one tug works at the fitting."""
+        return len(self.tugs) > 1
+
+    @property
+    def over_rating(self) -> bool:
+        return _over(self.load_n, self.rating_n)
+
+    @property
+    def use_of_rating(self) -> float | None:
+        """Load as a fraction of the rating (None without a rating)."""
+        return None if self.rating_n is None else self.load_n / self.rating_n
+
+
+def fitting_totals(loads: Sequence[FittingLoad], layout: TugLayout) -> tuple[FittingTotal, ...]:
+    """Each fitting's load from all the tugs at it (``loads`` in placement order, as
+    :func:`fitting_loads` gives them), in the order the fittings are first used."""
+    groups: dict[tuple[str, str], list[int]] = {}
+    for i, f in enumerate(loads):
+        groups.setdefault((f.hull, f.point), []).append(i)
+    out = []
+    for idx in groups.values():
+        first = loads[idx[0]]
+        horizontal = np.zeros(2)
+        vertical = 0.0
+        for i in idx:
+            f = loads[i]
+            horizontal += f.pull_n * layout.directions[i]
+            vertical += f.load_n * math.sin(f.line_angle_rad) if f.mode == "line" else 0.0
+        out.append(
+            FittingTotal(
+                hull=first.hull,
+                point=first.point,
+                fitting_type=first.fitting_type,
+                mode=first.mode,
+                tugs=tuple(loads[i].tug for i in idx),
+                load_n=math.hypot(float(np.hypot(*horizontal)), vertical),
+                sum_n=sum(loads[i].load_n for i in idx),
+                rating_n=first.rating_n,
+                rating_label=first.rating_label,
+            )
+        )
+    return tuple(out)
 
 
 def fitting_loads(project: Project, body: Body, layout: TugLayout) -> tuple[FittingLoad, ...]:
