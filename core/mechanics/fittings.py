@@ -12,6 +12,8 @@ fitting of SWL S suits tugs of bollard pull up to S (:func:`core.mechanics.usabl
 
 Several tugs may work at one fitting: the fitting then carries all their lines at once,
 and :func:`fitting_totals` works out that load once for every view and the verdict.
+What the ratings allow each tug's horizontal pull is :func:`pull_limits_n`, which the
+solvers read through the tugs' sets (core.mechanics.tugsets).
 """
 
 from __future__ import annotations
@@ -153,6 +155,53 @@ def fitting_totals(loads: Sequence[FittingLoad], layout: TugLayout) -> tuple[Fit
             )
         )
     return tuple(out)
+
+
+def pull_limits_n(layout: TugLayout, *, split_shared: bool = False) -> np.ndarray:
+    """(n,) the largest horizontal pull each tug may give before its load on its fitting
+    passes the rating, N: rating x cos(line angle) on a line (its tension T = H / cos(angle)
+    is then the rating), the rating itself for a push; inf where no rating is given.
+
+    These bound each tug alone; several tugs at one fitting are held to its rating
+    together by the solver's own constraint (:func:`shared_fittings`). ``split_shared``
+    instead shares the rating out among them in proportion to their usable pulls, so that
+    each tug's set stays its own (the hold limits' sweep needs that): never more than the
+    fitting takes, possibly less than the solver finds.
+    """
+    n = len(layout.placements)
+    rating = np.asarray(layout.swl_n, dtype=float)
+    per_n = tension_per_pull(layout)
+    share = np.ones(n)
+    if split_shared:
+        most = layout.usable_n if layout.pull_scale_n is None else layout.pull_scale_n
+        most = np.maximum(most, layout.usable_n)  # (n,) the most each can pull, N
+        for idx in shared_fittings(layout).values():
+            if float((most[idx] * per_n[idx]).sum()) <= float(rating[idx[0]]) * (1 + 1e-9):
+                continue  # together they cannot pass it
+            usable = most[idx]
+            total = float(usable.sum())
+            share[idx] = usable / total if total > 0 else 1.0 / len(idx)
+    limit = np.divide(rating * share, per_n, out=np.zeros(n), where=np.isfinite(per_n))
+    return np.where(np.isnan(rating), np.inf, limit)
+
+
+def tension_per_pull(layout: TugLayout) -> np.ndarray:
+    """(n,) the load each tug puts on its fitting per newton of horizontal pull: 1 /
+    cos(line angle) on a line, 1 for a push (inf for a vertical line)."""
+    n = len(layout.placements)
+    angle = np.zeros(n) if layout.line_angle_rad is None else layout.line_angle_rad
+    cos = np.where(layout.is_push, 1.0, np.cos(angle))
+    return np.divide(1.0, cos, out=np.full(n, np.inf), where=cos > 1e-12)
+
+
+def shared_fittings(layout: TugLayout) -> dict[tuple[str, str], np.ndarray]:
+    """The rated fittings that more than one tug works at: (hull, point) -> the tugs'
+    indices into the layout."""
+    groups: dict[tuple[str, str], list[int]] = {}
+    for i, p in enumerate(layout.placements):
+        if not math.isnan(float(layout.swl_n[i])):
+            groups.setdefault((p.hull, p.point), []).append(i)
+    return {k: np.array(v) for k, v in groups.items() if len(v) > 1}
 
 
 def fitting_loads(project: Project, body: Body, layout: TugLayout) -> tuple[FittingLoad, ...]:

@@ -11,6 +11,11 @@ uniform capability: at most 1 - cos(step / 2), 0.06 % at 4 degrees. Where the
 capability is not convex (or a sector is wider than 180 degrees) the hull also holds
 forces the tug cannot give with one lead; :meth:`TugSets.outside` finds them.
 
+Each tug's pull is also held within what its fitting's rating allows
+(core.mechanics.fittings.pull_limits_n: rating x cos(line angle) on a line): the
+polygon is cut off at that radius, so no solve proposes a pull whose line is over the
+fitting's TOW or SWL.
+
 A tug without a sector keeps its lead as set: its set is the segment from nothing to
 its usable pull along that lead. A push (not made fast) stays at most
 :data:`MAX_PUSH_OFF_DEG` off square to the hull.
@@ -28,6 +33,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from core.mechanics.balance import TugLayout
+from core.mechanics.fittings import pull_limits_n
 
 #: Largest step of lead between neighbouring vertices of a sector's polygon, degrees.
 SECTOR_STEP_DEG = 4.0
@@ -196,26 +202,34 @@ def tug_sets(
     *,
     step_deg: float = SECTOR_STEP_DEG,
     nest: int = 1,
+    limits_n: np.ndarray | None = None,
 ) -> TugSets:
     """Every tug's polygon of reachable forces, from its layout row and its sector.
 
     Leads are at most ``step_deg`` apart, in multiples of ``nest`` steps: the polygons
     of ``step_deg * nest`` (and ``nest`` 1) then have every vertex among these ones, so
-    they lie inside them (core.solve.walk starts from them)."""
+    they lie inside them (core.solve.walk starts from them). ``limits_n`` (n,) caps each
+    tug's pull, N: by default what its fitting's rating allows it alone."""
     frame = layout.lead_frame_rad
     scale = layout.pull_scale_n
+    limits = pull_limits_n(layout) if limits_n is None else np.asarray(limits_n, dtype=float)
     if frame is None or scale is None or all(p.lead_sector_rad is None for p in layout.placements):
-        return _fixed_sets(layout, centroid)
-    return _each_tugs_sets(layout, centroid, step_deg, nest)
+        return _fixed_sets(layout, centroid, limits)
+    return _each_tugs_sets(layout, centroid, step_deg, nest, limits)
 
 
-def _fixed_sets(layout: TugLayout, centroid: tuple[float, float]) -> TugSets:
+def _fixed_sets(
+    layout: TugLayout, centroid: tuple[float, float], limits: np.ndarray | None = None
+) -> TugSets:
     """:func:`tug_sets` when every tug works at its lead as set (a live solve's case), all
     tugs at once: each set is the segment from the origin to the tug's pull (none below
     :data:`NO_FORCE_N`)."""
     n = len(layout.placements)
-    pulls = layout.directions * layout.usable_n[:, None]  # (n, 2)
-    working = layout.usable_n > NO_FORCE_N
+    if limits is None:
+        limits = pull_limits_n(layout)
+    reach = np.minimum(layout.usable_n, limits)  # (n,)
+    pulls = layout.directions * reach[:, None]  # (n, 2)
+    working = reach > NO_FORCE_N
     idx = np.flatnonzero(working)
     segments = np.zeros((n, 2, 2))
     segments[:, 1] = pulls
@@ -232,9 +246,15 @@ def _fixed_sets(layout: TugLayout, centroid: tuple[float, float]) -> TugSets:
 
 
 def _each_tugs_sets(
-    layout: TugLayout, centroid: tuple[float, float], step_deg: float, nest: int
+    layout: TugLayout,
+    centroid: tuple[float, float],
+    step_deg: float,
+    nest: int,
+    limits: np.ndarray | None = None,
 ) -> TugSets:
     """:func:`tug_sets` tug by tug (some tug has a working sector)."""
+    if limits is None:
+        limits = pull_limits_n(layout)
     step = math.radians(step_deg)
     limit = math.radians(MAX_PUSH_OFF_DEG)
     verts: list[np.ndarray] = []
@@ -246,8 +266,9 @@ def _each_tugs_sets(
     scale = layout.pull_scale_n
     for i, p in enumerate(layout.placements):
         if p.lead_sector_rad is None or frame is None or scale is None:
-            v = layout.directions[i] * layout.usable_n[i]
-            if layout.usable_n[i] > NO_FORCE_N:
+            reach = min(float(layout.usable_n[i]), float(limits[i]))
+            v = layout.directions[i] * reach
+            if reach > NO_FORCE_N:
                 verts.append(v[None, :])
                 tugs.append(np.array([i]))
                 leads_out.append(np.array([p.lead_rad]))
@@ -266,6 +287,7 @@ def _each_tugs_sets(
         if layout.ways and layout.ways[i] == "push":
             leads = _push_allowed(leads, lo, hi, limit)
         r = scale[i] * layout.shares(i, leads) if len(leads) else np.zeros(0)
+        r = np.minimum(r, limits[i])  # the fitting's rating (the chords stay within it)
         angles = frame[i] + leads
         pts = np.column_stack([r * np.cos(angles), r * np.sin(angles)])
         keep = r > max(1e-12 * float(scale[i]), NO_FORCE_N)

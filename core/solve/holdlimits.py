@@ -15,6 +15,11 @@ stated height, with its gust factor). This is a quasi-static force balance with 
 co-linear environment raised until the pulls just hold it, swept over directions (as
 in DNV-ST-0111's level 1 capability assessment).
 
+Each tug's polygon is cut off where its line would pass its fitting's rating, as in
+the solve; where several tugs share a fitting its rating is shared out among them in
+proportion to their usable pulls (core.mechanics.fittings.pull_limits_n), which never
+lets the fitting pass its rating but may hold a little less than the solve finds.
+
 The fleet's set is the Minkowski sum of the tugs' polygons; its half-spaces are worked
 out once (core.solve.polytope) and every direction's ray is cut with them at once with
 numpy. With one tug lost the same half-spaces serve, less that tug's part.
@@ -31,6 +36,7 @@ import numpy as np
 
 from core.mechanics.balance import TugLayout, tug_layout
 from core.mechanics.bodies import stage_body
+from core.mechanics.fittings import pull_limits_n
 from core.mechanics.loads import current_model, flow_angle_rad, wind_model
 from core.mechanics.tugsets import SECTOR_STEP_DEG, tug_sets
 from core.model.goals import Goal
@@ -197,11 +203,14 @@ def hold_limits_problem(
     heading = stage.pose_of(b.name).heading_deg
     dirs = np.arange(360.0) if directions_deg is None else np.asarray(directions_deg, float)
     unit, fixed = _flow_unit(project, stage, b.name, flow, dirs)
-    sets = tug_sets(layout, b.centroid, step_deg=sector_step_deg, nest=SWEEP_NEST)
+    # The fittings' ratings bound the pulls as in the solve; a rating several tugs share
+    # is shared out among them (each tug's set stays its own, as the sweep needs).
+    limits = pull_limits_n(layout, split_shared=True)
+    sets = tug_sets(layout, b.centroid, step_deg=sector_step_deg, nest=SWEEP_NEST, limits_n=limits)
     g = goal or stage.goal or Goal("hold")
     coarse = None
     if sets.sectors.any():
-        rough = tug_sets(layout, b.centroid, step_deg=sector_step_deg * SWEEP_NEST)
+        rough = tug_sets(layout, b.centroid, step_deg=sector_step_deg * SWEEP_NEST, limits_n=limits)
         coarse = WrenchPolygons(rough.polygons, rough.arms())
     return HoldLimitsProblem(
         stage=stage.name,

@@ -27,6 +27,15 @@ share of the way from nothing to the polygon's edge along its force):
 
 Lines only pull and pushes only push (unless made fast, push-pull): every pull is zero
 or positive along a lead the tug can take.
+
+Fitting ratings bound the pulls too. Each tug's polygon is cut off where its own line
+would pass its fitting's TOW or SWL (core.mechanics.fittings.pull_limits_n: the pull at
+most rating x cos(line angle)). Where several tugs work at one fitting and could together
+pass its rating, one more linear row keeps the sum of their tensions (each column's pull
+/ cos(line angle)) within it. The fitting's load that the verdict checks is the resultant
+of those tensions (core.mechanics.fittings.fitting_totals), never more than their sum, so
+a solve within the sum always passes that check. Such a row ties tugs together: the
+solves then go by the linear programmes, not the fleet's set of wrenches.
 """
 
 from __future__ import annotations
@@ -40,6 +49,7 @@ from core.errors import InputError
 from core.frames import angle_to_bearing, wrap_pi
 from core.mechanics.balance import Load, TugLayout, tug_layout
 from core.mechanics.bodies import Body, stage_body
+from core.mechanics.fittings import tension_per_pull
 from core.mechanics.loads import body_conditions, loads_wrench
 from core.mechanics.tugsets import SECTOR_STEP_DEG, TugSets, tug_sets
 from core.model.goals import Goal
@@ -97,6 +107,8 @@ class PullsProblem:
     set_wrench: np.ndarray | None = None  # (3, n) each tug's wrench as set
     reach: Reach | None = None  # the fleet's support mapping for the walk (with sectors)
     step_deg: float = SECTOR_STEP_DEG  # largest step of lead between a sector's vertices
+    rating_n: np.ndarray | None = None  # (n,) each tug's fitting's TOW, else SWL, N; nan: none
+    tension_per_n: np.ndarray | None = None  # (n,) load on the fitting per N of pull
 
     @property
     def tugs(self) -> tuple[str, ...]:
@@ -137,6 +149,8 @@ class PullsProblem:
             tug_index=np.delete(self.rows(), i),
             set_wrench=None if self.set_wrench is None else np.delete(self.set_wrench, i, axis=1),
             reach=None if self.reach is None else self.reach.without(i),
+            rating_n=None if self.rating_n is None else np.delete(self.rating_n, i),
+            tension_per_n=None if self.tension_per_n is None else np.delete(self.tension_per_n, i),
         )
 
     def shapes(self) -> WrenchPolygons | None:
@@ -251,6 +265,8 @@ def _problem_of(
         sets=sets,
         tug_index=np.arange(len(layout.placements)),
         set_wrench=set_wrench,
+        rating_n=np.asarray(layout.swl_n, dtype=float).copy(),
+        tension_per_n=tension_per_pull(layout),
     )
 
 
@@ -369,6 +385,28 @@ class _Scaled:
         self._normal: np.ndarray | None = None  # the exit face's normal, scaled rows
         #: The zonotope's half-spaces when worked out already (the tug lost check's).
         self.halfspaces: HalfSpaces | None = None
+        # (f, k), (f,): each shared fitting's tension per column share, and its rating
+        self.fit_rows, self.fit_caps = _fitting_rows(problem, self.u_ref)
+        self.coupled = bool(len(self.fit_caps))
+
+    def _with_fittings(
+        self, c: np.ndarray, a: np.ndarray, b: np.ndarray, up: np.ndarray, cols: np.ndarray
+    ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+        """A programme whose first variables are the shares of ``cols``, with each shared
+        fitting's row (the tensions plus a slack make its rating) added after the rest."""
+        if not self.coupled:
+            return c, a, b, up
+        f, (m, n) = len(self.fit_caps), a.shape
+        rows = np.zeros((f, n + f))
+        rows[:, : len(cols)] = self.fit_rows[:, cols]
+        rows[:, n:] = np.eye(f)
+        a2 = np.vstack([np.hstack([a, np.zeros((m, f))]), rows])
+        return (
+            np.concatenate([c, np.zeros(f)]),
+            a2,
+            np.concatenate([b, self.fit_caps]),
+            np.concatenate([up, np.full(f, np.inf)]),
+        )
 
     def coarse(self) -> _Scaled:
         """The problem with coarser sectors, in the same scaled units."""
@@ -401,9 +439,9 @@ class _Scaled:
         along ``target`` leaves it (its half-spaces, as in core.solve.pulls.holdlimits); with sectors
         it is a small LP.
         """
-        if not self.shared:
+        if not self.shared and not self.coupled:
             return self._ray_exit(target)
-        if self.sectors:
+        if self.sectors and not self.coupled:
             reach = self._walk_reach(target)
             if reach is not None:
                 return reach
@@ -418,10 +456,10 @@ class _Scaled:
         c = np.zeros(self.k + s + 1)
         c[-1] = -1.0
         up = np.concatenate([np.ones(self.k), np.full(s, np.inf), [np.inf]])
-        r = solve_lp(c, a, b, up)
+        r = solve_lp(*self._with_fittings(c, a, b, up, np.arange(self.k)))
         if r.status == "unbounded":
             return math.inf
-        return float(r.x[-1]) if r.ok else 0.0
+        return float(r.x[self.k + s]) if r.ok else 0.0
 
     def _walk_reach(self, target: np.ndarray) -> float | None:
         """The reach with sectors: a walk over triangles of the fleet's set out to the face
@@ -575,7 +613,7 @@ class _Scaled:
         b = np.concatenate([target, np.full(s, cap)])
         c = np.concatenate([self.cost[cols], np.zeros(s)])
         up = np.concatenate([np.full(k, cap), np.full(s, np.inf)])
-        r = solve_lp(c, a, b, up)
+        r = solve_lp(*self._with_fittings(c, a, b, up, cols))
         if not r.ok:
             return None
         g = np.zeros(self.k)
@@ -605,17 +643,50 @@ class _Scaled:
         c = np.zeros(k + s + 10)
         c[-1] = 1.0
         up = np.concatenate([np.ones(k), np.full(s + 10, np.inf)])
-        r = solve_lp(c, a, b, up)
+        every = np.arange(k)
+        r = solve_lp(*self._with_fittings(c, a, b, up, every))
         if not r.ok:
             return np.zeros(k)
-        worst = float(r.x[-1]) * (1 + 1e-9) + 1e-12
+        worst = float(r.x[k + s + 9]) * (1 + 1e-9) + 1e-12
         # L1 with every component held within the worst found.
         a = np.vstack([np.hstack([self.gen, np.zeros((3, s)), eye, -eye]), self._shared_rows(6)])
         b = np.concatenate([target, np.ones(s)])
         c = np.concatenate([np.zeros(k + s), w, w])
         up = np.concatenate([np.ones(k), np.full(s, np.inf), worst / w, worst / w])
-        r2 = solve_lp(c, a, b, up)
+        r2 = solve_lp(*self._with_fittings(c, a, b, up, every))
         return (r2 if r2.ok else r).x[:k]
+
+
+def _fitting_rows(problem: PullsProblem, u_ref: float) -> tuple[np.ndarray, np.ndarray]:
+    """((f, k), (f,)): for each rated fitting that several tugs work at and that their
+    largest pulls could together load past its rating, each column's load on it per unit
+    share (its pull x tension per pull, scaled by ``u_ref``), and the rating / ``u_ref``.
+
+    The row holds the sum of the tensions within the rating: linear, and never less than
+    their resultant, which is what the verdict checks (so a solve within it passes)."""
+    rating, per_n = problem.rating_n, problem.tension_per_n
+    k = problem.columns.shape[1]
+    if rating is None or per_n is None or not k:
+        return np.zeros((0, k)), np.zeros(0)
+    groups: dict[tuple[str, str], list[int]] = {}
+    for i, p in enumerate(problem.placements):
+        if math.isfinite(float(rating[i])):
+            groups.setdefault((p.hull, p.point), []).append(i)
+    col_load = problem.column_pull_n * per_n[problem.column_tug]  # (k,) N at each vertex
+    rows, caps = [], []
+    for idx in groups.values():
+        if len(idx) < 2:
+            continue
+        mine = np.isin(problem.column_tug, idx)
+        most = sum(float(col_load[problem.column_tug == i].max(initial=0.0)) for i in idx)
+        r = float(rating[idx[0]])
+        if most <= r * (1 + 1e-9):
+            continue  # they cannot pass it together
+        rows.append(np.where(mine, col_load, 0.0) / u_ref)
+        caps.append(r / u_ref)
+    if not rows:
+        return np.zeros((0, k)), np.zeros(0)
+    return np.array(rows), np.array(caps)
 
 
 def _spread(sc: _Scaled, target: np.ndarray) -> np.ndarray | None:
@@ -624,11 +695,11 @@ def _spread(sc: _Scaled, target: np.ndarray) -> np.ndarray | None:
     if reach < 1.0 - 1e-9:
         return None
     t = 0.0 if math.isinf(reach) else min(1.0, 1.0 / reach)
-    if not sc.shared and reach >= 1.0:
+    if not sc.shared and not sc.coupled and reach >= 1.0:
         g = sc.on_exit_face(target, t)
         if g is not None:
             return g
-    got = sc.face_columns() if sc.sectors else None
+    got = sc.face_columns() if sc.sectors and not sc.coupled else None
     if got is not None:  # only the face's columns can reach the target at use t
         face, at_origin = got
         g = sc.face_allocation(target, t, face, at_origin)
@@ -652,7 +723,7 @@ def solve_pulls(
     to make ``problem``, whose half-spaces then serve (core.solve.zonotope).
     """
     sc = _Scaled(problem)
-    if lost_from is not None and not sc.shared:
+    if lost_from is not None and not sc.shared and not sc.coupled:
         zonotope, lost = lost_from
         sc.halfspaces = zonotope.without(lost, sc.u_ref)
     required = problem.required
@@ -860,7 +931,7 @@ def _fleet_zonotope(problem: PullsProblem) -> FleetZonotope | None:
     """The fleet's half-spaces once for all the check's solves, when every tug is one
     column (every lead as set) and the fleet is large enough for it to pay."""
     sc = _Scaled(problem)
-    if sc.shared or sc.k != len(problem.placements) or sc.k < ZONOTOPE_FROM:
+    if sc.shared or sc.coupled or sc.k != len(problem.placements) or sc.k < ZONOTOPE_FROM:
         return None
     z = FleetZonotope(sc.gen, sc.u_ref)
     return z if z.usable else None
