@@ -42,6 +42,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, replace
+from typing import Literal
 
 import numpy as np
 
@@ -65,9 +66,11 @@ from core.units import DisplayUnits
 #: The reach of a fleet with working sectors is first found with polygons this many
 #: times coarser, then walked out to the fine ones (core.solve.walk).
 SOLVE_NEST = 9
-#: A goal counts as met when the shortfall is below this fraction of the usable pull
-#: (forces) or of usable pull x body length (moment).
-GOAL_TOL = 1e-6
+#: A goal counts as met when what is missing is within this share of the larger of the
+#: goal's force and the strongest tug's usable pull (forces), or that times the body's
+#: length (moment): half a percent, below what a tug master can set or a planner can know
+#: of the conditions (common practice, no source; the pulls as set are held to 1 %).
+GOAL_TOL = 0.005
 #: Weights of the shortfall's components on scaled rows (force ahead, force abeam,
 #: moment / length): the moment counts as the force at an end that would make it.
 _SHORTFALL_WEIGHTS = np.array([1.0, 1.0, 2.0])
@@ -743,8 +746,7 @@ def solve_pulls(
     pulls, leads, dirs, usable, uses = _per_tug(problem, g * sc.col_u)
     achieved = problem.columns @ (g * sc.col_u) if sc.k else np.zeros(3)
     shortfall = required - achieved
-    scale = np.array([1.0, 1.0, sc.l_ref]) * max(sc.u_ref, 1.0)
-    met = bool(np.all(np.abs(shortfall) <= GOAL_TOL * scale))
+    met = bool(np.all(np.abs(shortfall) <= goal_tolerance(problem)))
     return PullsResult(
         problem,
         met,
@@ -756,6 +758,14 @@ def solve_pulls(
         usable,
         uses,
     )
+
+
+def goal_tolerance(problem: PullsProblem) -> np.ndarray:
+    """(3,) how much of (force ahead, force to port, moment) may be missing with the goal
+    still met, N and N*m (:data:`GOAL_TOL`)."""
+    t = problem.goal.target()
+    ref = max(math.hypot(t[0], t[1]), float(problem.column_pull_n.max(initial=0.0)), 1.0)
+    return GOAL_TOL * ref * np.array([1.0, 1.0, max(problem.length_m, 1.0)])
 
 
 def _per_tug(
@@ -946,10 +956,19 @@ def shortfall_words(shortfall: np.ndarray, units: DisplayUnits) -> str:
     parts = []
     tol_f = 1e-9 * (abs(fx) + abs(fy)) + 1e-6
     if abs(fx) > tol_f:
-        parts.append(f"{units.show(abs(fx), 'force')} more {'ahead' if fx > 0 else 'astern'}")
+        parts.append(f"{_amount(abs(fx), 'force', units)} more {'ahead' if fx > 0 else 'astern'}")
     if abs(fy) > tol_f:
-        parts.append(f"{units.show(abs(fy), 'force')} more to {'port' if fy > 0 else 'starboard'}")
+        parts.append(
+            f"{_amount(abs(fy), 'force', units)} more to {'port' if fy > 0 else 'starboard'}"
+        )
     if abs(m) > 1e-6:
         side = "port" if m > 0 else "starboard"
-        parts.append(f"{units.show(abs(m), 'moment')} more swinging the bow to {side}")
+        parts.append(f"{_amount(abs(m), 'moment', units)} more swinging the bow to {side}")
     return "needs " + ", ".join(parts) if parts else "nothing missing"
+
+
+def _amount(value_si: float, quantity: Literal["force", "moment"], units: DisplayUnits) -> str:
+    """``value_si`` in the display unit, or in N (N*m) where it would read 0.0 there."""
+    if round(units.value(value_si, quantity), 1) != 0:
+        return units.show(value_si, quantity)
+    return f"{value_si:.3g} {'N' if quantity == 'force' else 'N·m'}"
