@@ -66,11 +66,14 @@ from core.units import DisplayUnits
 #: The reach of a fleet with working sectors is first found with polygons this many
 #: times coarser, then walked out to the fine ones (core.solve.walk).
 SOLVE_NEST = 9
-#: A goal counts as met when what is missing is within this share of the larger of the
-#: goal's force and the strongest tug's usable pull (forces), or that times the body's
-#: length (moment): half a percent, below what a tug master can set or a planner can know
-#: of the conditions (common practice, no source; the pulls as set are held to 1 %).
+#: A goal counts as met when what is missing is within this share of what the goal asks
+#: of the tugs (the goal less the conditions: its force, and for the moment the larger of
+#: its moment and that force times the body's length): half a percent, below what a tug
+#: master can set or a planner can know of the conditions (common practice, no source;
+#: the pulls as set are held to 1 %). :data:`GOAL_FLOOR` of the strongest tug's usable
+#: pull is always allowed (the solvers' rounding).
 GOAL_TOL = 0.005
+GOAL_FLOOR = 1e-6
 #: Weights of the shortfall's components on scaled rows (force ahead, force abeam,
 #: moment / length): the moment counts as the force at an end that would make it.
 _SHORTFALL_WEIGHTS = np.array([1.0, 1.0, 2.0])
@@ -762,10 +765,14 @@ def solve_pulls(
 
 def goal_tolerance(problem: PullsProblem) -> np.ndarray:
     """(3,) how much of (force ahead, force to port, moment) may be missing with the goal
-    still met, N and N*m (:data:`GOAL_TOL`)."""
-    t = problem.goal.target()
-    ref = max(math.hypot(t[0], t[1]), float(problem.column_pull_n.max(initial=0.0)), 1.0)
-    return GOAL_TOL * ref * np.array([1.0, 1.0, max(problem.length_m, 1.0)])
+    still met, N and N*m (:data:`GOAL_TOL`, :data:`GOAL_FLOOR`)."""
+    fx, fy, m = (float(v) for v in problem.required)
+    length = max(problem.length_m, 1.0)
+    force = math.hypot(fx, fy)
+    floor = GOAL_FLOOR * max(float(problem.column_pull_n.max(initial=0.0)), 1.0)
+    tol_f = max(GOAL_TOL * force, floor)
+    tol_m = max(GOAL_TOL * max(abs(m), force * length), floor * length)
+    return np.array([tol_f, tol_f, tol_m])
 
 
 def _per_tug(
