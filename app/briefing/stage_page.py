@@ -25,6 +25,7 @@ from app.briefing.stage_tables import (
 )
 from app.paint import style
 from core.analysis.stage import BodyResult, StageResult
+from core.analysis.swing import is_swing_stage, swing_words
 from core.analysis.verdict import Verdict
 from core.model.goals import GOAL_WORDS
 from core.model.plan import Project
@@ -54,6 +55,17 @@ def verdict_box(v: Verdict) -> Block:
     return Boxed(lines, 8.5, color, QColor(fill), f"Verdict: {v.label}", color)
 
 
+def swing_blocks(result: StageResult) -> list[Block]:
+    """A swing stage's headings and side, and each body's moments against them
+    (core.analysis.swing, as the verdict reads them)."""
+    if not is_swing_stage(result.stage):
+        return []
+    u = result.project.units
+    lines = [f"Swing: {swing_words(result.stage)}"]
+    lines += [b.swing.words(u) for b in result.worked if b.swing is not None]
+    return [Text(lines[0], 8.5, True), *(Text(line, 8.5) for line in lines[1:])]
+
+
 def stage_blocks(project: Project, result: StageResult, diagram_mm: float) -> list[Block]:
     u = project.units
     s = result.stage
@@ -78,6 +90,7 @@ def stage_blocks(project: Project, result: StageResult, diagram_mm: float) -> li
     ]
     if pose_txt:
         out.append(Text(pose_txt, 8.0, color=QColor(MUTED)))
+    out.extend(swing_blocks(result))
     out.append(verdict_box(v))
     if s.notes:
         out.append(Text(s.notes, 8.5))

@@ -20,6 +20,7 @@ from collections import OrderedDict
 from dataclasses import dataclass, field
 
 from core.analysis.drift import drift_of
+from core.analysis.swing import SwingSense, swing_sense
 from core.analysis.verdict import Verdict, judge
 from core.errors import TowboardError
 from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout, tug_layout
@@ -73,6 +74,8 @@ class BodyResult:
     depth: DepthCheck | None = None  # the stage's water depth under the body (None: deep)
     #: Each fitting in use and the load of every tug at it together (core.mechanics.fittings).
     fitting_totals: tuple[FittingTotal, ...] = ()
+    #: A swing stage: the goal's and the pulls' yaw moments against the way it swings.
+    swing: SwingSense | None = None
     _lost: list[tuple[tuple[str, Balance], ...]] = field(
         default_factory=list, repr=False, compare=False
     )
@@ -233,6 +236,12 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
                 limits = hold_limits(hold_limits_problem(project, stage, body.name, layout=layout))
             except TowboardError as e:
                 notes.append(f"hold limits not worked out: {e}")
+    tolerance = _goal_tolerance(balance, body.length)
+    sense = (
+        swing_sense(stage, body.name, goal, balance.moment_centroid_nm, tolerance[1])
+        if worked
+        else None
+    )
     current = None
     if worked and layout.placements and goal is not None and goal.kind == "hold":
         current = _current_limits(project, stage, body, layout, notes)
@@ -246,7 +255,7 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
         fittings=fits,
         goal=goal,
         goal_residual=None if goal is None else _residual(balance, goal),
-        goal_tolerance=_goal_tolerance(balance, body.length),
+        goal_tolerance=tolerance,
         tug_lost=check,
         hold_limits=limits,
         notes=tuple(notes),
@@ -255,6 +264,7 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
         units=units,
         depth=depth_check(body, stage.conditions, units),
         fitting_totals=fitting_totals(fits, layout),
+        swing=sense,
     )
 
 

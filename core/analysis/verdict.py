@@ -147,6 +147,7 @@ def judge(
             for n in b.notes
             if n.startswith("pulls not solved")
         )
+        out.extend(_swing_reasons(b, u))
     out.extend(_from_notice(n) for n in clearance_notices(tuple(clearances), u))
     out.extend(_limit_reasons(stage, u))
     return verdict_of(_unique(out))
@@ -344,4 +345,27 @@ def _limit_reasons(stage: Stage, u: DisplayUnits) -> list[Reason]:
                     stage.name,
                 )
             )
+    return out
+
+
+def _swing_reasons(b: BodyResult, u: DisplayUnits) -> list[Reason]:
+    """A swing stage whose goal (or, with no goal, whose pulls as set) turns the bow the
+    other way from the swing is no-go, as are pulls as set turning it the other way from a
+    goal that is right; one that gives no yaw moment to speak of is a caution
+    (core.analysis.swing). Made here, not by :func:`reason`, so the codes stay with the
+    swing."""
+    sense = b.swing
+    if sense is None:
+        return []
+    out = []
+    head = f"{b.name}: {sense.stage_words()} but "
+    if sense.goal_against or (sense.goal is None and sense.as_set_against):
+        who, m, _ = sense.judged
+        out.append(Reason("swing_against", head + sense.turn_words(who, m, u), "no-go", b.name))
+    elif sense.as_set_against:
+        words = sense.turn_words("the pulls as set", sense.as_set_moment_nm, u)
+        out.append(Reason("swing_against", head + words, "no-go", b.name))
+    if sense.no_turn:
+        who, m, _ = sense.judged
+        out.append(Reason("swing_no_turn", head + sense.turn_words(who, m, u), "caution", b.name))
     return out

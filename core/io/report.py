@@ -17,6 +17,8 @@ from core.io.report_parts import (
     hold_limits_json,
     solve_json,
     solve_lines,
+    swing_json,
+    swing_lines,
 )
 from core.mechanics.balance import Balance
 from core.model.plan import Project
@@ -113,6 +115,7 @@ def _stage_json(r: StageResult) -> dict[str, Any]:
         "kind": s.kind,
         "verdict": verdict_json(r.verdict),
         "goal": None if main is None else goal_json(main),
+        "swing": swing_json(r),
         "balance": None if main is None else balance_json(main.balance),
     }
     if main is not None:
@@ -191,6 +194,7 @@ def report_text(project: Project) -> str:
         out.append(f"Stage {r.index + 1}: {s.name} [{s.kind}]")
         out.append(f"  Verdict         {r.verdict.label}")
         out.extend(f"    {reason.status.upper():<8}{reason.text}" for reason in r.verdict.reasons)
+        out.extend(swing_lines(r))
         for b in r.worked:
             if len(r.worked) > 1:
                 out.append(f"  Body            {b.name}")

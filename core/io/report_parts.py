@@ -12,7 +12,8 @@ from typing import Any
 
 import numpy as np
 
-from core.analysis.stage import BodyResult
+from core.analysis.stage import BodyResult, StageResult
+from core.analysis.swing import is_swing_stage, swing_words
 from core.frames import angle_to_bearing, turning_words
 from core.mechanics.fittings import FittingLoad, FittingTotal
 from core.model.plan import Stage
@@ -200,7 +201,47 @@ def hold_limits_json(stage: Stage, lim: HoldLimits | None) -> dict[str, Any] | N
     }
 
 
+def swing_json(r: StageResult) -> dict[str, Any] | None:
+    """A swing stage's headings and side, and each worked body's moments against them
+    (core.analysis.swing); None for a stage that is not a swing."""
+    if not is_swing_stage(r.stage):
+        return None
+    sw = r.stage.swing
+    u = r.project.units
+    return {
+        "start_heading_deg": None if sw is None else sw.start_heading_deg,
+        "end_heading_deg": None if sw is None else sw.end_heading_deg,
+        "bow_swings_to": None if sw is None else sw.bow_to,
+        "turn_deg": None if sw is None else sw.turn_deg,
+        "words": swing_words(r.stage),
+        "bodies": [
+            {
+                "body": s.body,
+                "goal_yaw_moment_about_centroid_Nm": s.goal_moment_nm,
+                "goal_turns_bow_to": s.goal_turn,
+                "as_set_yaw_moment_about_centroid_Nm": s.as_set_moment_nm,
+                "as_set_turns_bow_to": s.as_set_turn,
+                "against_the_swing": s.against,
+                "no_turn": s.no_turn,
+                "words": s.words(u),
+            }
+            for s in (b.swing for b in r.worked)
+            if s is not None
+        ],
+    }
+
+
 # -- text (display units) ---------------------------------------------------------------
+
+
+def swing_lines(r: StageResult) -> list[str]:
+    """A swing stage's headings and side, then each worked body's moments against them."""
+    if not is_swing_stage(r.stage):
+        return []
+    u = r.project.units
+    out = [f"  {'Swing':<16}{swing_words(r.stage)}"]
+    out.extend(f"  {'':<16}{b.swing.words(u)}" for b in r.worked if b.swing is not None)
+    return out
 
 
 def conditions_lines(stage: Stage, br: BodyResult, u: DisplayUnits) -> list[str]:

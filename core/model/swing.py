@@ -58,6 +58,16 @@ class Swing:
         """+1 when the heading grows through the swing (bow to starboard), -1 to port."""
         return 1.0 if self.bow_to == "starboard" else -1.0
 
+    @property
+    def moment_sign(self) -> float:
+        """The sign of the yaw moment that turns the body this way: +1 to port (a positive
+        moment turns counter-clockwise seen from above, bow to port), -1 to starboard."""
+        return -self.sign
+
+    def span_words(self) -> str:
+        """The headings in words: "090.0° to 270.0°"."""
+        return f"{self.start_heading_deg:05.1f}° to {self.end_heading_deg:05.1f}°"
+
     def heading_at(self, fraction: float) -> float:
         """The true heading a ``fraction`` (0 start, 1 end) of the way through the swing."""
         h = (self.start_heading_deg + self.sign * fraction * self.turn_deg) % 360.0
@@ -72,7 +82,4 @@ class Swing:
 
     def words(self) -> str:
         """The swing in words, e.g. "swings bow to port 180° from 090° to 270°"."""
-        return (
-            f"swings bow to {self.bow_to} {self.turn_deg:.0f}° "
-            f"from {self.start_heading_deg:05.1f}° to {self.end_heading_deg:05.1f}°"
-        )
+        return f"swings bow to {self.bow_to} {self.turn_deg:.0f}° from {self.span_words()}"
