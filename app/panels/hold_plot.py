@@ -37,6 +37,7 @@ from app.guard import guarded
 from app.paint import style
 from app.paint.rings import current_scale, polar_scale
 from app.paint.symbols import draw_planned_wind
+from app.panels.body_choice import BodyChoice
 from core.errors import TowboardError
 from core.model.plan import Project, Stage
 from core.solve.holdlimits import (
@@ -422,6 +423,10 @@ class HoldLimitsPanel(QWidget):
         row.addWidget(self.flow_box, 1)
         layout = QVBoxLayout(self)
         layout.setContentsMargins(4, 4, 4, 4)
+        #: In a stage with more than one worked body: the body shown and the stage's verdict.
+        self.body_choice = BodyChoice()
+        self.body_choice.chosen.connect(guarded(lambda: self.update_now(coarse=False)))
+        layout.addWidget(self.body_choice)
         layout.addWidget(self.flow_row)
         layout.addWidget(self.plot, 1)
         layout.addWidget(self.warning)
@@ -655,7 +660,7 @@ class HoldLimitsPanel(QWidget):
         c = self.controller
         stage = c.stage
         units = c.project.units
-        body = c.main_body()
+        body = self.body_choice.name() or c.main_body()
         if self._flow() == "current":
             return None  # the current's curve follows once the drag settles
         if stage is None or body is None or not stage.placements:
@@ -682,7 +687,9 @@ class HoldLimitsPanel(QWidget):
         if fresh:
             self._lost_at = now
         steps = live_hold_limits_steps(problem, lost_step=2 if fresh else 0)
-        return _SweepJob(steps, c.project, stage, units, fresh, bool(problem.tugs))
+        job = _SweepJob(steps, c.project, stage, units, fresh, bool(problem.tugs))
+        job.body = body
+        return job
 
     def _show_sweep(self, job: _SweepJob, done: tuple[HoldLimits, np.ndarray, np.ndarray]) -> None:
         lim, lost_dirs, worst = done
@@ -692,7 +699,7 @@ class HoldLimitsPanel(QWidget):
         msg = held_words(lim, "wind")
         self.warning.setText(msg)
         self.plot.set_data(lim, job.stage, job.units, msg, True, self._lost_curve)
-        self.caption.setText(summary(lim, job.stage, job.units))
+        self.caption.setText(f"{job.body}: {summary(lim, job.stage, job.units)}")
 
     def _flow(self) -> Flow:
         """The flow shown: the current only for a hold stage whose box asks for it."""
@@ -725,14 +732,14 @@ class HoldLimitsPanel(QWidget):
             self._show_current(stage, units)
             return
         if stage is None or body is None or not stage.placements:
+            self.body_choice.body(None)
             self.plot.set_data(None, stage, units, "Place tugs to see what wind they can hold.")
             self.caption.setText("")
             return
         self._lost_at = None
-        r = c.stage_result()
-        main = None if r is None else r.main
+        main = self.body_choice.body(c.stage_result())
         lim = None if main is None else main.hold_limits
-        if lim is None:
+        if main is None or lim is None:
             why = "; ".join(n for n in (main.notes if main else ()) if "hold limits" in n)
             self.plot.set_data(None, stage, units, f"No hold limits: {why or 'no tugs'}")
             self.caption.setText("")
@@ -741,14 +748,13 @@ class HoldLimitsPanel(QWidget):
         msg = held_words(lim, "wind")
         self.warning.setText(msg)
         self.plot.set_data(lim, stage, units, msg)
-        self.caption.setText(summary(lim, stage, units))
+        self.caption.setText(f"{main.name}: {summary(lim, stage, units)}")
 
     def _show_current(self, stage: Stage | None, units: DisplayUnits) -> None:
         """The stage result's current limits (a hold stage), or why there are none."""
-        r = self.controller.stage_result()
-        main = None if r is None else r.main
+        main = self.body_choice.body(self.controller.stage_result())
         lim = None if main is None else main.current_limits
-        if stage is None or lim is None:
+        if stage is None or main is None or lim is None:
             why = "; ".join(n for n in (main.notes if main else ()) if "current limits" in n)
             self.plot.set_data(
                 None, stage, units, f"No current limits: {why or 'no tugs'}", flow="current"
@@ -759,7 +765,7 @@ class HoldLimitsPanel(QWidget):
         msg = held_words(lim, "current")
         self.warning.setText(msg)
         self.plot.set_data(lim, stage, units, msg, flow="current")
-        self.caption.setText(current_summary(lim, stage, units))
+        self.caption.setText(f"{main.name}: {current_summary(lim, stage, units)}")
 
 
 @dataclass(slots=True)
@@ -775,6 +781,7 @@ class _SweepJob:
     cost: float = 0.0  # seconds its steps have taken so far
     #: What the steps gave, once they are all done (then shown as a piece of its own).
     result: tuple[HoldLimits, np.ndarray, np.ndarray] | None = None
+    body: str = ""  # the body swept
 
 
 def summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:

@@ -33,6 +33,7 @@ from PySide6.QtWidgets import (
 from app.controller import BodyParts, Controller
 from app.guard import guarded
 from app.numbers import message, parse_value
+from app.panels.body_choice import BodyChoice
 from app.panels.panel_field import PanelField
 from app.panels.table_cells import Cell, fill
 from core.analysis.stage import BodyResult as StageBody
@@ -193,6 +194,9 @@ class SolvePanel(QWidget):
             "The settings follow the solver on every change (needs a goal); "
             "the leads stay where you put them"
         )
+        #: In a stage with more than one worked body: the body shown and the stage's verdict.
+        self.body_choice = BodyChoice()
+        self.body_choice.chosen.connect(self.recheck)
         self.outcome = QLabel("—")
         self.outcome.setWordWrap(True)
         self.outcome.setObjectName("solve_outcome")
@@ -222,6 +226,7 @@ class SolvePanel(QWidget):
         form.addRow(buttons)
         layout = QVBoxLayout(self)
         layout.addWidget(goal_box)
+        layout.addWidget(self.body_choice)
         layout.addWidget(self.outcome)
         layout.addWidget(self.uses, 2)
         layout.addWidget(self.lost_title)
@@ -388,7 +393,7 @@ class SolvePanel(QWidget):
         """Show the stage result: the solved pulls, the tug lost check, each tug's notes."""
         c = self.controller
         r = c.stage_result()
-        main = r.main if r is not None else None
+        main = self.body_choice.body(r)  # the body chosen (the worst off), or the only one
         self.result = None if main is None else main.solved
         self.check = None if main is None else main.tug_lost
         self._set_notes(tug_notes(r) if r is not None else {})
@@ -405,15 +410,15 @@ class SolvePanel(QWidget):
             return "No goal set: the pulls as set are shown, not checked. Choose a goal above."
         r = self.result
         if r is None:
-            return "Cannot solve: " + "; ".join(main.notes)
+            return f"{main.name}: cannot solve: " + "; ".join(main.notes)
         u = c.project.units
         if r.feasible:
             text = (
-                f"The goal can be met: largest use {r.max_utilisation * 100:.0f} %, total pull "
-                f"{u.show(r.total_pull_n, 'force')}."
+                f"{main.name}: the goal can be met: largest use {r.max_utilisation * 100:.0f} %, "
+                f"total pull {u.show(r.total_pull_n, 'force')}."
             )
         else:
-            text = f"The goal is out of reach: {shortfall_words(r.shortfall, u)}."
+            text = f"{main.name}: the goal is out of reach: {shortfall_words(r.shortfall, u)}."
         if main.goal_met_as_set is False and r.feasible:
             text += " The pulls as set miss it: press Solve pulls to use these."
         return text
