@@ -14,6 +14,7 @@ from app.briefing.holdplot import HoldPlot
 from app.briefing.layout import FAIL, MUTED, WARN, Block, Column, Drawing, Table, Text, heading
 from core.analysis.stage import BodyResult, StageResult
 from core.mechanics.balance import Balance
+from core.mechanics.fittings import FittingLoad, FittingTotal
 from core.model.plan import Project
 from core.units import DisplayUnits, fmt, label
 
@@ -115,6 +116,30 @@ def headway_note(project: Project, body: BodyResult) -> list[Block]:
     return [] if words is None else [Text(words, 8.0, color=QColor(MUTED))]
 
 
+def _fitting_cells(load: FittingLoad | FittingTotal, angle: str, u: DisplayUnits) -> list[str]:
+    """A fitting's row after the tug column: the fitting, its type, ``angle``, the load,
+    the rating and the load's use of it."""
+    if load.rating_n is None:
+        state = "no rating given" if load.mode == "line" else "-"
+    elif load.over_rating:
+        state = "OVER its rating"
+    else:
+        state = f"{(load.use_of_rating or 0.0) * 100:.0f} % of its {load.rating_label}"
+    rating = (
+        "not given"
+        if load.rating_n is None
+        else f"{load.rating_label} {u.show(load.rating_n, 'force')}"
+    )
+    return [
+        f"{load.hull}: {load.point}",
+        load.fitting_type,
+        angle,
+        u.show(load.load_n, "force"),
+        rating,
+        state,
+    ]
+
+
 def fittings_table(project: Project, result: StageResult, body: BodyResult) -> list[Block]:
     """Each tug's load on its fitting: the towline's tension (or the push) against the
     fitting's rating."""
@@ -123,51 +148,14 @@ def fittings_table(project: Project, result: StageResult, body: BodyResult) -> l
     u = project.units
     rows, colors = [], []
     for fl in body.fittings:
-        if fl.rating_n is None:
-            state = "no rating given" if fl.mode == "line" else "-"
-        elif fl.over_rating:
-            state = "OVER its rating"
-        else:
-            state = f"{(fl.use_of_rating or 0.0) * 100:.0f} % of its {fl.rating_label}"
         angle = f"{abs(math.degrees(fl.line_angle_rad)):.0f}°" if fl.mode == "line" else "push"
-        rows.append(
-            [
-                fl.tug,
-                f"{fl.hull}: {fl.point}",
-                fl.fitting_type,
-                angle,
-                u.show(fl.load_n, "force"),
-                "not given"
-                if fl.rating_n is None
-                else f"{fl.rating_label} {u.show(fl.rating_n, 'force')}",
-                state,
-            ]
-        )
+        rows.append([fl.tug, *_fitting_cells(fl, angle, u)])
         unrated = fl.rating_n is None and fl.mode == "line"
         colors.append(FAIL if fl.over_rating else (WARN if unrated else None))
     for t in body.fitting_totals:
-        if not t.shared:
-            continue
-        if t.rating_n is None:
-            state = "no rating given" if t.mode == "line" else "-"
-        elif t.over_rating:
-            state = "OVER its rating"
-        else:
-            state = f"{(t.use_of_rating or 0.0) * 100:.0f} % of its {t.rating_label}"
-        rows.append(
-            [
-                " + ".join(t.tugs),
-                f"{t.hull}: {t.point}",
-                t.fitting_type,
-                "together",
-                u.show(t.load_n, "force"),
-                "not given"
-                if t.rating_n is None
-                else f"{t.rating_label} {u.show(t.rating_n, 'force')}",
-                state,
-            ]
-        )
-        colors.append(FAIL if t.over_rating else None)
+        if t.shared:
+            rows.append([" + ".join(t.tugs), *_fitting_cells(t, "together", u)])
+            colors.append(FAIL if t.over_rating else None)
     return [
         heading(f"Fittings of {body.name}: line tension against rating", 2),
         Table(

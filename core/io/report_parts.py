@@ -336,36 +336,30 @@ def solve_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
     return out
 
 
+def _against(load: FittingLoad | FittingTotal, u: DisplayUnits) -> str:
+    """A load's rating, its use of it and OVER: "TOW 50.0 t (80 %)", "no rating given"."""
+    if load.rating_n is None:
+        return "no rating given"
+    use = "" if load.use_of_rating is None else f" ({load.use_of_rating * 100:.0f} %)"
+    flag = "  OVER" if load.over_rating else ""
+    return f"{load.rating_label} {u.show(load.rating_n, 'force')}{use}{flag}"
+
+
 def fitting_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
     """Each tug's load on its fitting against its rating (TOW, else SWL), one line each."""
     out = []
     for f in br.fittings:
         load = "push" if f.mode == "push" else "tension"
-        rating = (
-            "no rating given"
-            if f.rating_n is None
-            else f"{f.rating_label} {u.show(f.rating_n, 'force')}"
-        )
-        use = "" if f.use_of_rating is None else f" ({f.use_of_rating * 100:.0f} %)"
-        flag = "  OVER" if f.over_rating else ""
         out.append(
             f"    {f.tug:<14}{f.point:<22}{load} {u.show(f.load_n, 'force')} against "
-            f"{rating}{use}{flag}"
+            f"{_against(f, u)}"
         )
     for t in br.fitting_totals:
-        if not t.shared:
-            continue
-        rating = (
-            "no rating given"
-            if t.rating_n is None
-            else f"{t.rating_label} {u.show(t.rating_n, 'force')}"
-        )
-        use = "" if t.use_of_rating is None else f" ({t.use_of_rating * 100:.0f} %)"
-        flag = "  OVER" if t.over_rating else ""
-        out.append(
-            f"    {'together':<14}{t.point:<22}load {u.show(t.load_n, 'force')} from "
-            f"{' and '.join(t.tugs)} against {rating}{use}{flag}"
-        )
+        if t.shared:
+            out.append(
+                f"    {'together':<14}{t.point:<22}load {u.show(t.load_n, 'force')} from "
+                f"{' and '.join(t.tugs)} against {_against(t, u)}"
+            )
     return (
         ["  Fittings        each tug's load (line tension = pull / cos(line angle))", *out]
         if out
