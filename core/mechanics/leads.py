@@ -29,6 +29,24 @@ OVER_HULL_TOL_M = 2.0
 EDGE_M = 0.05
 
 
+def _inner(polygon: shapely.Polygon | shapely.MultiPolygon) -> shapely.Geometry:
+    """``polygon`` taken EDGE_M in, prepared for fast tests; kept for the last few bodies
+    (a drag asks for the same body's on every move)."""
+    key = id(polygon)
+    got = _INNER.get(key)
+    if got is None or got[0] is not polygon:
+        inner = polygon.buffer(-EDGE_M)
+        shapely.prepare(inner)
+        if len(_INNER) >= 16:
+            _INNER.pop(next(iter(_INNER)))
+        got = _INNER[key] = (polygon, inner)
+    return got[1]
+
+
+#: id(polygon) -> (polygon, its inner polygon), the polygon held so its id stays its own.
+_INNER: dict[int, tuple[shapely.Geometry, shapely.Geometry]] = {}
+
+
 def over_hull_m(
     polygon: shapely.Polygon | shapely.MultiPolygon, points: np.ndarray, ends: np.ndarray
 ) -> np.ndarray:
@@ -37,17 +55,20 @@ def over_hull_m(
     clear of the hull). ``points`` and ``ends`` are (n, 2), in the polygon's frame."""
     points = np.asarray(points, dtype=float).reshape(-1, 2)
     ends = np.asarray(ends, dtype=float).reshape(-1, 2)
-    if len(points) == 0:
-        return np.zeros(0)
-    inner = polygon.buffer(-EDGE_M)
-    if inner.is_empty:  # a hull thinner than the edge allowance: nothing is over it
-        return np.zeros(len(points))
+    out = np.zeros(len(points))
+    inner = _inner(polygon)
+    if len(points) == 0 or inner.is_empty:  # a hull thinner than the edge allowance
+        return out
     lines = shapely.linestrings(np.stack([points, ends], axis=1))
-    over = shapely.length(shapely.intersection(lines, inner))
-    starts = shapely.points(points)
+    hit = np.flatnonzero(shapely.intersects(inner, lines))  # most lines lead clear of it
+    if len(hit) == 0:
+        return out
+    over = shapely.length(shapely.intersection(lines[hit], inner))
+    starts = shapely.points(points[hit])
     inside = shapely.contains(inner, starts)
     way_out = np.where(inside, shapely.distance(inner.boundary, starts), 0.0)
-    return np.maximum(np.nan_to_num(over - way_out, nan=0.0), 0.0)
+    out[hit] = np.maximum(np.nan_to_num(over - way_out, nan=0.0), 0.0)
+    return out
 
 
 def over_hull_allowance_m(breadth_m: float) -> float:
@@ -59,7 +80,7 @@ def over_hull_allowance_m(breadth_m: float) -> float:
 def ends_on_hull(polygon: shapely.Polygon | shapely.MultiPolygon, ends: np.ndarray) -> np.ndarray:
     """(n,) whether each tug, at the end of its line, lies over ``polygon`` (taken EDGE_M in)."""
     ends = np.asarray(ends, dtype=float).reshape(-1, 2)
-    inner = polygon.buffer(-EDGE_M)
+    inner = _inner(polygon)
     if len(ends) == 0 or inner.is_empty:
         return np.zeros(len(ends), dtype=bool)
     return np.asarray(shapely.contains(inner, shapely.points(ends)), dtype=bool)
