@@ -404,7 +404,8 @@ def _over_hull_notices(layout: TugLayout, body: Body, units: DisplayUnits) -> li
     over = over_hull_m(body.polygon, layout.points[lines], layout.positions[lines])
     on_deck = ends_on_hull(body.polygon, layout.positions[lines])
     out = []
-    for k, i in enumerate(lines.tolist()):
+    for k in np.flatnonzero(on_deck | (over > 0.0)).tolist():  # most lines lead clear
+        i = int(lines[k])
         p = layout.placements[i]
         if on_deck[k]:
             text = f"{p.tug}: at the end of its line from {p.point} the tug lies over the hull"
