@@ -41,6 +41,7 @@ from app.briefing.particulars import particulars
 from app.briefing.stage_page import stage_blocks
 from core.analysis.stage import StageResult, plan_results
 from core.errors import InputError
+from core.io.paths import same_file
 from core.io.projectfile import replacing
 from core.model.plan import Project
 
@@ -177,17 +178,10 @@ def check_output(path: Path, plan_path: str | os.PathLike[str] | None = None) ->
     """
     if path.suffix.lower() != ".pdf":
         raise InputError("briefing file", path.name, "must end in .pdf")
-    if plan_path is not None and _same_file(path, Path(plan_path)):
+    if plan_path is not None and same_file(path, plan_path):
         raise InputError(
             "briefing file", str(path), "is the plan itself; give the briefing its own name"
         )
-
-
-def _same_file(a: Path, b: Path) -> bool:
-    try:
-        return os.path.samefile(a, b)
-    except (OSError, ValueError):  # either missing (then not the same), or a bad name
-        return False
 
 
 def write_pdf(

@@ -28,6 +28,7 @@ from core.io.dxf_outline import (
 )
 from core.io.offsets import import_offsets
 from core.io.outline_import import REFERENCES, ImportedOutline, OutlinePlacement, new_plan
+from core.io.paths import read_table, same_file
 from core.io.projectfile import SUFFIX, load, save
 from core.units import fmt
 
@@ -86,13 +87,9 @@ def read_outline(args: argparse.Namespace) -> ImportedOutline:
     src = Path(args.drawing)
     placement = OutlinePlacement("-x" if args.x_aft else "+x", reference=args.reference)
     if src.suffix.lower() == ".csv":
-        try:
-            text = src.read_text(encoding="utf-8-sig")
-        except (OSError, UnicodeError) as e:
-            raise DrawingError(
-                src.name, f"cannot be read: {getattr(e, 'strerror', None) or e}"
-            ) from None
-        return import_offsets(text, src.name, args.units, args.x_aft, placement, args.chord_error)
+        return import_offsets(
+            read_table(src), src.name, args.units, args.x_aft, placement, args.chord_error
+        )
     drawing = Drawing.open(src)
     units = args.units or drawing.units
     if units is None:
@@ -193,8 +190,16 @@ def export_command(argv: list[str]) -> int:
     stages = [args.stage - 1] if args.stage is not None else list(range(n))
     _app = _application()
     w, h = args.size
-    for i in stages:
-        target = out if len(stages) == 1 else out.with_name(f"{out.stem}-{i + 1}{out.suffix}")
+    targets = {
+        i: out if len(stages) == 1 else out.with_name(f"{out.stem}-{i + 1}{out.suffix}")
+        for i in stages
+    }
+    for target in targets.values():  # every name checked before anything is written
+        if same_file(target, args.file):
+            raise InputError(
+                "picture file", str(target), "is the plan itself; give the picture its own name"
+            )
+    for i, target in targets.items():
         try:
             write_picture(project, target, PictureSpec(args.picture, i, w, h, args.dpi))
         except OSError as e:

@@ -49,7 +49,7 @@ from core.io.dxf_outline import (
 )
 from core.io.offsets import import_offsets, read_offsets
 from core.io.outline_import import REFERENCE_WORDS, ImportedOutline, OutlinePlacement
-from core.io.paths import file_path
+from core.io.paths import read_table
 from core.model.plan import Project
 from core.units import DisplayUnits, factor, label
 
@@ -95,10 +95,7 @@ class OutlineImportDialog(QDialog):
 
     def _load(self) -> None:
         if self.is_table:
-            try:
-                self.offsets_text = file_path(self.path).read_text(encoding="utf-8-sig")
-            except (OSError, UnicodeError) as e:
-                raise DrawingError(self.path.name, f"cannot be read: {e}") from None
+            self.offsets_text = read_table(self.path)
             self.header_units = read_offsets(self.offsets_text, self.path.name).units
         else:
             self.drawing = Drawing.open(self.path)

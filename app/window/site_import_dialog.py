@@ -39,7 +39,7 @@ from core.errors import DrawingError, InputError, TowboardError
 from core.io.drawing_units import METRES_PER_UNIT, UNIT_WORDS
 from core.io.dxf_geometry import Drawing
 from core.io.dxf_site import import_site
-from core.io.paths import file_path
+from core.io.paths import read_table
 from core.io.site_import import KIND_WORDS, ImportedSite, Joining, SiteFrame, guess_kind
 from core.io.site_points import import_site_points
 from core.mechanics.site import placed_bodies
@@ -84,10 +84,7 @@ class SiteImportDialog(QDialog):
         self.text = ""
         self.setWindowTitle(f"Import site from {self.path.name}")
         if self.is_table:
-            try:
-                self.text = file_path(self.path).read_text(encoding="utf-8-sig")
-            except (OSError, UnicodeError) as e:
-                raise DrawingError(self.path.name, f"cannot be read: {e}") from None
+            self.text = read_table(self.path)
         else:
             self.drawing = Drawing.open(self.path)
         self._build()

@@ -14,6 +14,7 @@ whose ends meet is a loop.
 
 from __future__ import annotations
 
+import io
 import math
 from collections import Counter
 from collections.abc import Iterator, Sequence
@@ -24,11 +25,14 @@ from typing import Any
 import ezdxf
 import numpy as np
 from ezdxf import recover
+from ezdxf.document import Drawing as DxfDocument
+from ezdxf.filemanagement import dxf_stream_info
+from ezdxf.lldxf.tagger import binary_tags_loader
 from scipy.spatial import cKDTree
 
 from core.errors import DrawingError
 from core.io.drawing_units import INSUNITS_SYMBOLS
-from core.io.paths import file_path
+from core.io.paths import read_source
 
 Pt = tuple[float, float]
 
@@ -89,22 +93,23 @@ class Drawing:
 
     @classmethod
     def open(cls, path: str | Path) -> Drawing:
-        """Read a DXF file; raises DrawingError for a file that is not a readable DXF."""
+        """Read a DXF file (at most ``core.io.paths.MAX_SOURCE_BYTES``); raises DrawingError for a
+        file that cannot be read, is too large, or is not a readable DXF."""
         p = Path(path)
-        try:
-            head = file_path(p).read_bytes()[:6]
-        except OSError as e:
-            raise DrawingError(p.name, f"cannot be read: {e.strerror or e}") from None
-        if head.startswith(b"AC10"):
+        data = read_source(p)
+        if data.startswith(b"AC10"):
             raise DrawingError(p.name, "is a DWG file; save it as DXF from the drawing program")
-        bad = (ezdxf.DXFStructureError, ezdxf.DXFError, UnicodeError, ValueError, OSError)
+        # ezdxf's readers raise more than their documented errors on a damaged file (a
+        # header cut short ends in StopIteration), so any failure of theirs is the file's.
         try:
-            doc = ezdxf.readfile(p)
-        except bad:
+            doc = _read_dxf(data)
+        except Exception:
             try:  # a damaged file: ezdxf's slower recovering reader mends what it can
-                doc, _auditor = recover.readfile(p)
-            except bad as e:
-                raise DrawingError(p.name, f"is not a readable DXF drawing ({e})") from None
+                doc, _auditor = recover.read(io.BytesIO(data))
+            except Exception as e:
+                raise DrawingError(
+                    p.name, f"is not a readable DXF drawing ({_reason(e)})"
+                ) from None
         return cls(p.name, doc)
 
     def layers(self) -> tuple[str, ...]:
@@ -400,3 +405,21 @@ def join_runs(
         else:
             chains.append(tuple(pts))
     return loops, chains, branches
+
+
+_BINARY_DXF = b"AutoCAD Binary DXF\r\n\x1a\x00"
+
+
+def _read_dxf(data: bytes) -> Any:
+    """An ezdxf document from a DXF file's bytes, binary or text, as ``ezdxf.readfile``
+    reads a file: a text file's encoding is the one its header names."""
+    if data.startswith(_BINARY_DXF):
+        return DxfDocument.load(binary_tags_loader(data))
+    info = dxf_stream_info(io.StringIO(data.decode("utf-8", errors="ignore")))
+    return ezdxf.read(io.StringIO(data.decode(info.encoding, errors="surrogateescape")))
+
+
+def _reason(e: Exception) -> str:
+    """ezdxf's complaint in one line, or the kind of failure when it says nothing."""
+    text = str(e).strip().splitlines()
+    return text[0] if text else f"{type(e).__name__} while reading"

@@ -7,6 +7,8 @@ import os
 import stat
 from pathlib import Path
 
+from core.errors import DrawingError
+
 #: Bytes read at a time from a file of unknown size (a device, a pipe).
 _CHUNK = 1 << 20
 
@@ -22,6 +24,15 @@ def file_path(path: str | os.PathLike[str]) -> Path:
     if "\x00" in str(p):
         raise OSError(errno.EINVAL, "a file name cannot hold a NUL character", str(p))
     return p
+
+
+def same_file(a: str | os.PathLike[str], b: str | os.PathLike[str]) -> bool:
+    """Whether ``a`` and ``b`` name one file, by name or through a link; False when either
+    is missing or is a name no file can have."""
+    try:
+        return os.path.samefile(a, b)
+    except (OSError, ValueError):
+        return False
 
 
 def shown_path(path: str | os.PathLike[str]) -> str:
@@ -52,3 +63,43 @@ def read_at_most(path: str | os.PathLike[str], limit: int) -> bytes:
             got += len(chunk)
             if got > limit:
                 raise TooLarge(errno.EFBIG, "too large", str(path))
+
+
+#: The most a drawing (DXF) or a table of offsets or points is read to: far more than any
+#: hull's or site's drawing holds, and well short of what would exhaust the machine.
+MAX_SOURCE_BYTES = 128_000_000
+
+
+def read_source(path: str | os.PathLike[str], limit: int | None = None) -> bytes:
+    """The bytes of a drawing or table to import, read to at most ``limit`` bytes
+    (default :data:`MAX_SOURCE_BYTES`).
+
+    Raises DrawingError naming the file: it cannot be read, or it is larger than any
+    drawing (a device such as /dev/zero is refused once it passes the limit).
+    """
+    name = Path(shown_path(path)).name
+    limit = MAX_SOURCE_BYTES if limit is None else limit
+    try:
+        return read_at_most(path, limit)
+    except TooLarge:
+        raise DrawingError(
+            name, f"is larger than {limit / 1e6:g} MB, far more than any drawing holds; not read"
+        ) from None
+    except OSError as e:
+        raise DrawingError(name, f"cannot be read: {e.strerror or e}") from None
+
+
+def read_table(path: str | os.PathLike[str], limit: int | None = None) -> str:
+    """The text of a table (CSV) of offsets or points: UTF-8, a byte order mark dropped.
+
+    Raises DrawingError naming the file, as :func:`read_source` does, or when the file
+    is not UTF-8 text.
+    """
+    raw = read_source(path, limit)
+    try:
+        return raw.decode("utf-8-sig")
+    except UnicodeDecodeError as e:
+        raise DrawingError(
+            Path(shown_path(path)).name,
+            f"is not UTF-8 text (byte {e.start + 1} cannot be read); save it as UTF-8 CSV",
+        ) from None

@@ -265,3 +265,19 @@ def test_report_csv_both_tables_in_display_units(capsys: pytest.CaptureFixture[s
     assert tugs.startswith("Stage no.,Stage,Tug,") and "Assigned pull (kN)" in tugs
     assert balance.startswith("Stage no.,Stage,Kind,Verdict,Reasons,Body,") and "(kN·m)" in balance
     assert len(balance.strip().splitlines()) == 1 + len(plan.stages)
+
+
+@pytest.mark.parametrize(("plan_name", "stage"), [("plan.svg", ("--stage", "1")), ("p-2.png", ())])
+def test_export_never_writes_over_the_plan(
+    qapp, tmp_path: Path, capsys: pytest.CaptureFixture[str], plan_name: str, stage
+) -> None:  # type: ignore[no-untyped-def]
+    # A plan named like a picture: the one picture, or any of the numbered pictures of
+    # every stage, would have replaced it. Nothing is written, not even the other stages.
+    plan = tmp_path / plan_name
+    plan.write_bytes(PONTOON.read_bytes())
+    out = plan if stage else tmp_path / "p.png"
+    assert main(["export", str(plan), *stage, "-o", str(out)]) == 2
+    err = capsys.readouterr().err
+    assert err.startswith(f"towboard export: picture file: {str(plan)!r} is the plan itself")
+    assert plan.read_bytes() == PONTOON.read_bytes()
+    assert list(tmp_path.iterdir()) == [plan]
