@@ -64,6 +64,12 @@ class Reach:
         out.tugs = self.tugs[:i] + self.tugs[i + 1 :]
         return out
 
+    def _size(self) -> float:
+        """The largest force component of any tug's set: the scale of the nudge."""
+        return max(
+            (abs(v) for t in self.tugs if t is not None for xy in t[2] for v in xy), default=1.0
+        )
+
     def support(self, n: Vec) -> Vec:
         """The set's farthest point in direction ``n``, less the (nudged) start."""
         w = self._w
@@ -155,10 +161,7 @@ class Reach:
         where no first triangle is found (a flat set, or the origin on its edge)."""
         # a line through an edge or a corner leaves the walk no way on: it is moved a hair
         # sideways, and the answer read off the face it ends on for the line as given
-        scale = max(
-            (abs(v) for t in self.tugs if t is not None for xy in t[2] for v in xy), default=1.0
-        )
-        w = nudge(np.array([d]), scale)[0]
+        w = nudge(np.array([d]), self._size())[0]
         self._w = (float(w[0]), float(w[1]), float(w[2]))
         tri = self._first_triangle(d)
         if tri is None:
@@ -226,3 +229,26 @@ def _barycentric(
     q = _cross(sv, e1)
     v = f * _dot(d, q)
     return (1.0 - u - v, u, v), f * _dot(e2, q)
+
+
+class SegmentsReach(Reach):
+    """The same walk for a set made of segments from the origin, one per column of
+    ``gen`` (3, k): a zonotope, whose support point in a direction is the sum of the
+    columns that point into it. Each step costs one product with ``gen``, where finding
+    the exit among the zonotope's facets (a pair of columns each) costs k^3."""
+
+    def __init__(self, gen: np.ndarray) -> None:
+        self.start = (0.0, 0.0, 0.0)
+        self._w = (0.0, 0.0, 0.0)
+        self.tugs = []
+        self.gen = np.asarray(gen, dtype=float)
+        self._rows = self.gen.T.copy()  # (k, 3): one product a step
+
+    def _size(self) -> float:
+        return float(np.abs(self.gen).max(initial=0.0)) or 1.0
+
+    def support(self, n: Vec) -> Vec:
+        out = self._rows @ np.array(n) > 0
+        p = self.gen[:, out].sum(axis=1)
+        w = self._w
+        return (float(p[0]) - w[0], float(p[1]) - w[1], float(p[2]) - w[2])
