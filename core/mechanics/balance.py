@@ -77,6 +77,7 @@ _ROW_ARRAYS = (
     "lead_frame_rad",
     "share_angle_rad",
     "headway_share",
+    "over_allowance_m",
 )
 
 
@@ -108,6 +109,10 @@ class TugLayout:
     curves: tuple[CapabilityCurve | None, ...] = ()  # (n,) None: cannot work that way
     headway_share: np.ndarray | None = None  # (n,) share of BP at the speed through the water
     speed_through_water_ms: float = 0.0  # a transit's planned speed (0 for other goals)
+    #: the body's outline (body frame), which towlines must lead clear of
+    outline: shapely.Polygon | shapely.MultiPolygon | None = None
+    #: (n,) how far each tug's line may lie over the hull, m (core.mechanics.leads)
+    over_allowance_m: np.ndarray | None = None
 
     @property
     def pulls_n(self) -> np.ndarray:
@@ -205,6 +210,13 @@ def transit_speed_ms(stage: Stage) -> float:
     return g.speed_ms if g is not None and g.kind == "transit" else 0.0
 
 
+def over_allowances(body: Body, placements: tuple[Placement, ...]) -> np.ndarray:
+    """(n,) how far each placement's towline may lie over the hull, m: by its hull's breadth
+    (core.mechanics.leads.over_hull_allowance_m)."""
+    allowed = {h: over_hull_allowance_m(body.breadth_of(h)) for h in {p.hull for p in placements}}
+    return np.array([allowed[p.hull] for p in placements], dtype=float)
+
+
 def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
     """Arrays of every tug placed on ``body`` in ``stage``, in placement order."""
     members = {m.hull.name for m in body.members}
@@ -252,7 +264,13 @@ def tug_layout(project: Project, stage: Stage, body: Body) -> TugLayout:
         scale, frame, fixed, tuple(ways), tuple(curves), headway, speed,
     )  # fmt: skip
     share = np.array([layout.shares(i, np.array([p.lead_rad]))[0] for i, p in enumerate(placed)])
-    return replace(layout, rated_n=bp * share, usable_n=scale * share)
+    return replace(
+        layout,
+        rated_n=bp * share,
+        usable_n=scale * share,
+        outline=body.polygon,
+        over_allowance_m=over_allowances(body, placed),
+    )
 
 
 def with_placement_row(
@@ -402,6 +420,9 @@ def _over_hull_notices(layout: TugLayout, body: Body, units: DisplayUnits) -> li
     if len(lines) == 0:
         return []
     over = over_hull_m(body.polygon, layout.points[lines], layout.positions[lines])
+    allowance = layout.over_allowance_m
+    if allowance is None:
+        allowance = over_allowances(body, layout.placements)
     on_deck = ends_on_hull(body.polygon, layout.positions[lines])
     out = []
     for k in np.flatnonzero(on_deck | (over > 0.0)).tolist():  # most lines lead clear
@@ -409,7 +430,7 @@ def _over_hull_notices(layout: TugLayout, body: Body, units: DisplayUnits) -> li
         p = layout.placements[i]
         if on_deck[k]:
             text = f"{p.tug}: at the end of its line from {p.point} the tug lies over the hull"
-        elif over[k] > over_hull_allowance_m(body.breadth_of(p.hull)):
+        elif over[k] > allowance[i]:
             text = (
                 f"{p.tug}: the towline from {p.point} runs {units.show(float(over[k]), 'length')} "
                 "over the hull"

@@ -49,6 +49,7 @@ class Body:
     """A rigid body's outline and mass centre in its own frame (computed once)."""
 
     __slots__ = (
+        "_breadths",
         "_normals",
         "beam",
         "centre_of_gravity",
@@ -63,6 +64,7 @@ class Body:
 
     def __init__(self, name: str, members: tuple[Member, ...]) -> None:
         self._normals: dict[tuple[str, str], tuple[float, float]] = {}
+        self._breadths: dict[str, float] = {}
         self.name = name
         self.members = members
         polys = [shapely.Polygon([m.to_body(p) for p in m.hull.outline]) for m in members]
@@ -100,8 +102,11 @@ class Body:
 
     def breadth_of(self, hull: str) -> float:
         """The breadth of member ``hull``: its outline's extent across its own centreline, m."""
-        ys = [p[1] for p in self.member(hull).hull.outline]
-        return float(max(ys) - min(ys))
+        got = self._breadths.get(hull)
+        if got is None:  # a body never changes: each member's breadth is worked out once
+            ys = [p[1] for p in self.member(hull).hull.outline]
+            got = self._breadths[hull] = float(max(ys) - min(ys))
+        return got
 
     def inward_normal(self, hull: str, point: str) -> tuple[float, float]:
         """Unit inward normal of the hull at a fitting, in the body frame."""

@@ -84,3 +84,82 @@ def ends_on_hull(polygon: shapely.Polygon | shapely.MultiPolygon, ends: np.ndarr
     if len(ends) == 0 or inner.is_empty:
         return np.zeros(len(ends), dtype=bool)
     return np.asarray(shapely.contains(inner, shapely.points(ends)), dtype=bool)
+
+
+#: Leads are tried this far apart to find the part of a working sector clear of the hull,
+#: degrees: at the end of a 60 m line a step moves the tug 2 m, the allowance's margin.
+CLEAR_STEP_DEG = 2.0
+
+
+def is_clear(
+    polygon: shapely.Polygon | shapely.MultiPolygon,
+    points: np.ndarray,
+    ends: np.ndarray,
+    allowance_m: np.ndarray | float,
+) -> np.ndarray:
+    """(n,) whether each line from ``points[i]`` to ``ends[i]`` leads clear: over the hull
+    by no more than its allowance, and its tug not on the hull."""
+    over = over_hull_m(polygon, points, ends)
+    return (over <= np.asarray(allowance_m, dtype=float)) & ~ends_on_hull(polygon, ends)
+
+
+def clear_arc(
+    polygon: shapely.Polygon | shapely.MultiPolygon,
+    point: tuple[float, float],
+    frame_rad: float,
+    length_m: float,
+    allowance_m: float,
+    sector: tuple[float, float],
+) -> tuple[float, float] | None:
+    """The part of a towline's working sector ``sector`` (leads lo..hi, rad, from
+    ``frame_rad`` in the body frame) whose leads run clear of ``polygon`` (:func:`is_clear`):
+    the longest unbroken run of clear leads tried :data:`CLEAR_STEP_DEG` apart, ends
+    included; the whole sector when every lead is clear; None when none is.
+
+    Only one run is kept, so that every lead between its ends is clear: a set of forces
+    spanning two runs would hold forces along the leads between them.
+    """
+    key = (id(polygon), point, frame_rad, length_m, allowance_m, sector)
+    got = _ARCS.get(key)
+    if got is not None and got[0] is polygon:
+        return got[1]
+    lo, hi = sector
+    width = hi - lo
+    whole = width >= 2 * np.pi - 1e-12
+    n = max(1, int(np.ceil(width / np.radians(CLEAR_STEP_DEG) - 1e-9)))
+    leads = lo + width * np.arange(n + 1) / n
+    if whole:
+        leads = leads[:-1]
+    ang = frame_rad + leads
+    starts = np.broadcast_to(np.asarray(point, dtype=float), (len(leads), 2))
+    ends = starts + length_m * np.column_stack([np.cos(ang), np.sin(ang)])
+    ok = is_clear(polygon, starts, ends, allowance_m)
+    arc: tuple[float, float] | None
+    if ok.all():
+        arc = (lo, hi)
+    elif not ok.any():
+        arc = None
+    else:
+        if whole:  # round the circle: start the runs just after a blocked lead
+            shift = int(np.flatnonzero(~ok)[0]) + 1
+            ok = np.roll(ok, -shift)
+            leads = np.roll(leads, -shift)
+            leads = np.where(np.arange(len(leads)) >= len(leads) - shift, leads + 2 * np.pi, leads)
+        best, first, run_start = 0, 0, None
+        for j, good in enumerate(np.append(ok, False).tolist()):
+            if good and run_start is None:
+                run_start = j
+            elif not good and run_start is not None:
+                if j - run_start > best:
+                    best, first = j - run_start, run_start
+                run_start = None
+        arc = (float(leads[first]), float(leads[first + best - 1]))
+    if len(_ARCS) >= 512:
+        _ARCS.pop(next(iter(_ARCS)))
+    _ARCS[key] = (polygon, arc)
+    return arc
+
+
+#: The arcs worked out lately (a drag and the hold limits ask for the same ones again),
+#: each with its polygon held so that the id in its key stays that polygon's.
+_ARCS: dict[tuple[object, ...], tuple[shapely.Geometry, tuple[float, float] | None]] = {}

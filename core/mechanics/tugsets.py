@@ -16,6 +16,12 @@ Each tug's pull is also held within what its fitting's rating allows
 polygon is cut off at that radius, so no solve proposes a pull whose line is over the
 fitting's TOW or SWL.
 
+A tug on a towline takes only the leads of its sector that run clear of the hull
+(core.mechanics.leads.clear_arc: the longest unbroken run of them, and of a run wider
+than half a turn the half turn about its middle, since a convex set spanning more would
+hold forces along the leads cut), so that no solve proposes a lead the verdict would call
+over the hull; a sector with none gives no set.
+
 A tug without a sector keeps its lead as set: its set is the segment from nothing to
 its usable pull along that lead. A push (not made fast) stays at most
 :data:`MAX_PUSH_OFF_DEG` off square to the hull.
@@ -34,6 +40,7 @@ import numpy as np
 
 from core.mechanics.balance import TugLayout
 from core.mechanics.fittings import pull_limits_n
+from core.mechanics.leads import clear_arc
 
 #: Largest step of lead between neighbouring vertices of a sector's polygon, degrees.
 SECTOR_STEP_DEG = 4.0
@@ -134,6 +141,8 @@ class TugSets:
     vertex_lead: np.ndarray  # (k,) the lead of each vertex, rad (placement frame)
     polygons: tuple[np.ndarray, ...]  # (n,) each (m_i, 2)
     sectors: np.ndarray  # (n,) bool: the tug has a working sector
+    #: tugs on a line whose working sector holds no lead clear of the hull: no set
+    no_clear_lead: tuple[int, ...] = ()
 
     @property
     def n(self) -> int:
@@ -262,6 +271,7 @@ def _each_tugs_sets(
     leads_out: list[np.ndarray] = []
     polys: list[np.ndarray] = []
     sectors = np.zeros(len(layout.placements), dtype=bool)
+    no_clear: list[int] = []
     frame = layout.lead_frame_rad
     scale = layout.pull_scale_n
     for i, p in enumerate(layout.placements):
@@ -278,6 +288,14 @@ def _each_tugs_sets(
             continue
         sectors[i] = True
         lo, hi = p.lead_sector_rad
+        if not layout.is_push[i]:
+            # a towline takes only the leads that run clear of the hull
+            arc = _clear_part(layout, i, frame[i], (lo, hi))
+            if arc is None:
+                polys.append(np.zeros((0, 2)))
+                no_clear.append(i)
+                continue
+            lo, hi = arc
         curve = layout.curves[i] if layout.curves else None
         on_line = layout.share_angle_rad is not None and not math.isnan(layout.share_angle_rad[i])
         breaks = (
@@ -309,4 +327,31 @@ def _each_tugs_sets(
         vertex_lead=np.concatenate(leads_out) if leads_out else np.zeros(0),
         polygons=tuple(polys),
         sectors=sectors,
+        no_clear_lead=tuple(no_clear),
     )
+
+
+def _clear_part(
+    layout: TugLayout, i: int, frame_rad: float, sector: tuple[float, float]
+) -> tuple[float, float] | None:
+    """Tug ``i``'s working sector cut to the leads its towline takes clear of the hull
+    (core.mechanics.leads.clear_arc); None when no lead does."""
+    if layout.outline is None or layout.over_allowance_m is None:
+        return sector
+    p = layout.placements[i]
+    point = (float(layout.points[i, 0]), float(layout.points[i, 1]))
+    arc = clear_arc(
+        layout.outline,
+        point,
+        float(frame_rad),
+        float(p.line_length_m),
+        float(layout.over_allowance_m[i]),
+        sector,
+    )
+    if arc is None or arc == sector or arc[1] - arc[0] <= math.pi:
+        return arc
+    # More than half a turn is left, and leads were cut: the polygon, being convex, would
+    # hold forces along the cut leads (a chord across the gap passes by the origin). The
+    # half turn about the middle of what is left is kept: no force along a cut lead.
+    mid = 0.5 * (arc[0] + arc[1])
+    return (mid - 0.5 * math.pi, mid + 0.5 * math.pi)

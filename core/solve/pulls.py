@@ -229,6 +229,15 @@ def pulls_problem(
         loads, notices = cond.loads, cond.notices
     c = b.centroid
     sets = tug_sets(layout, c, step_deg=sector_step_deg, nest=SOLVE_NEST)
+    notices += tuple(
+        Notice(
+            "no_clear_lead",
+            layout.placements[i].tug,
+            f"{layout.placements[i].tug}: no lead in its working sector from "
+            f"{layout.placements[i].point} runs clear of the hull; the solve leaves it out",
+        )
+        for i in sets.no_clear_lead
+    )
     problem = _problem_of(stage, b.name, goal, layout, sets, c, b.length, loads, notices)
     if not sets.sectors.any():
         return problem

@@ -15,25 +15,34 @@ inside the pair's joint outline) is measured with the geometry alone.
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import numpy as np
 import pytest
 import shapely
+from hypothesis import given, settings
+from hypothesis import strategies as st
+from scipy.optimize import brentq
 
 from core.analysis.verdict import NO_GO_CODES
 from core.frames import bearing_to_angle
 from core.mechanics.balance import analyse
 from core.mechanics.leads import (
+    CLEAR_STEP_DEG,
     EDGE_M,
     OVER_HULL_TOL_M,
+    clear_arc,
     ends_on_hull,
+    is_clear,
     over_hull_allowance_m,
     over_hull_m,
 )
+from core.model.goals import Goal
 from core.model.hull import Fitting, Hull
 from core.model.outlines import box_outline
 from core.model.plan import Project, Stage
 from core.model.tugs import Placement, Tug
+from core.solve.pulls import pulls_problem, solve_pulls
 
 TF = 9806.65  # N per tonne-force
 BOX = shapely.Polygon(box_outline(60, 20))
@@ -143,3 +152,85 @@ def test_lines_far_apart_are_measured_each_on_its_own() -> None:
     # the third from 2 m in from the port side across to starboard: 18 m inside, less 2
     assert got == pytest.approx([40.0, 0.0, 16.0], abs=2 * EDGE_M + 1e-6)
     assert over_hull_m(BOX, np.zeros((0, 2)), np.zeros((0, 2))).shape == (0,)
+
+
+# -- the solve takes only leads clear of the hull ------------------------------------------
+
+
+def test_the_clear_part_of_a_bow_bitts_whole_circle_by_hand() -> None:
+    # A 40 m line from the stem of the 60 x 20 m box: led ahead of the beam it is clear;
+    # led aft at theta off ahead it crosses the deck for (10 - EDGE_M) / sin(theta) to
+    # leave by a side, allowed up to 12 m (half the breadth and 2 m): clear while
+    # over = (10 - e) / sin(theta) - e / |cos(theta)| (e = EDGE_M: the hull taken e in,
+    # the stem's e counted as its way out), clear while that is at most 12 m.
+    arc = clear_arc(BOX, (60.0, 0.0), 0.0, 40.0, 12.0, (-math.pi, math.pi))
+    assert arc is not None
+    edge = math.degrees(
+        brentq(
+            lambda t: (10 - EDGE_M) / math.sin(t) - EDGE_M / abs(math.cos(t)) - 12.0,
+            math.radians(95),
+            math.radians(175),
+        )
+    )
+    lo, hi = (math.degrees(a) for a in arc)
+    assert edge - CLEAR_STEP_DEG <= hi <= edge  # the last clear lead tried
+    assert lo == pytest.approx(-hi)
+    # ... and a narrow sector wholly clear is kept as it is; one wholly over, none
+    assert clear_arc(BOX, (60.0, 0.0), 0.0, 40.0, 12.0, (-0.3, 0.4)) == (-0.3, 0.4)
+    assert clear_arc(BOX, (60.0, 0.0), 0.0, 40.0, 12.0, (3.0, 3.2)) is None
+
+
+def test_a_sector_clear_in_two_runs_keeps_the_longer() -> None:
+    # The port quarter (5, 10) on a 30 m line, sector from 60 degrees off ahead to port
+    # round through astern (lead angle 60..300 degrees counter-clockwise): to port and
+    # astern clear; round to the starboard quarter over the deck. Runs: 60..~186
+    # (clear, port side and aft) and a short one past the starboard quarter: the first.
+    arc = clear_arc(BOX, (5.0, 10.0), 0.0, 30.0, 12.0, (math.radians(60), math.radians(300)))
+    assert arc is not None
+    lo, hi = (math.degrees(a) for a in arc)
+    assert lo == pytest.approx(60.0)
+    # Every lead kept is clear, by the measure the verdict uses.
+    leads = np.radians(np.linspace(lo, hi, 50))
+    ends = np.column_stack([5 + 30 * np.cos(leads), 10 + 30 * np.sin(leads)])
+    assert is_clear(BOX, np.tile((5.0, 10.0), (50, 1)), ends, 12.0).all()
+
+
+def _sector_plan(goal: Goal, bow_sector: tuple[float, float] = (-math.pi, math.pi)) -> Project:
+    p = _project(
+        Placement("A", "Barge", "Bow", 0.5, 0.0, 40.0, lead_sector_rad=bow_sector),
+        Placement("B", "Barge", "Port quarter", 0.5, math.pi / 2, 30.0,
+                  lead_sector_rad=(-math.pi, math.pi)),
+    )  # fmt: skip
+    return replace(p, stages=(replace(p.stages[0], goal=goal),))
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.floats(-60, 60), st.floats(-60, 60), st.floats(-1500, 1500))
+def test_no_solve_proposes_a_lead_over_the_hull(fx_t: float, fy_t: float, m_tm: float) -> None:
+    # Before the sectors were cut, a goal astern had the bow tug solved to lead aft
+    # along the deck, which the verdict then called a no-go.
+    project = _sector_plan(Goal("force", fx_t * TF, fy_t * TF, m_tm * TF))
+    stage = project.stages[0]
+    solved = solve_pulls(pulls_problem(project, stage)).applied_to(stage)
+    notices = analyse(replace(project, stages=(solved,)), solved).notices
+    assert not [n.message for n in notices if n.code == "line_over_hull"]
+
+
+def test_a_goal_astern_leads_the_bow_tug_clear() -> None:
+    project = _sector_plan(Goal("force", -30 * TF, 0.0, 0.0))
+    stage = project.stages[0]
+    result = solve_pulls(pulls_problem(project, stage))
+    # Its clear arc (+-124 degrees, above) is wider than half a turn: the half turn about
+    # its middle is kept, leads forward of the beam, so it cannot help pull astern.
+    assert abs(math.degrees(result.leads_rad[0])) <= 90.0 + 1e-6
+    assert not result.feasible or result.pulls_n[0] <= 1e-6 * TF
+
+
+def test_a_sector_wholly_over_the_hull_leaves_the_tug_out_and_says_so() -> None:
+    project = _sector_plan(Goal("force", -30 * TF, 0.0, 0.0), bow_sector=(3.0, 3.2))
+    problem = pulls_problem(project, project.stages[0])
+    said = [n.message for n in problem.notices if n.code == "no_clear_lead"]
+    assert said == [
+        "A: no lead in its working sector from Bow runs clear of the hull; the solve leaves it out"
+    ]
+    assert solve_pulls(problem).pulls_n[0] == 0.0

@@ -46,6 +46,27 @@ HULL = Hull(
     freeboard_m=4.0,
     fittings=tuple(Fitting(n, k, x, y) for n, ((x, y), k, _) in POINTS.items()),
 )
+#: A half turn of leads about each line point's outboard direction, deg CCW from ahead: a
+#: 60 m line led anywhere in it runs clear of the box (at worst along an edge). The
+#: random fleets keep their sectors within these, so that the program does not cut them
+#: (its cut of sectors to the leads clear of the hull is tested in test_leads.py).
+CLEAR_CENTRE = {
+    "bow": 0.0,
+    "stern": 180.0,
+    "port bow": 45.0,
+    "stbd bow": -45.0,
+    "port quarter": 135.0,
+    "stbd quarter": -135.0,
+}
+
+
+def _clear_sector(point: str, lead: float, low: float, high: float) -> tuple[float, float, float]:
+    """(lead, low, high) held within ``point``'s clear half turn, deg."""
+    c = CLEAR_CENTRE[point]
+    lo, hi = max(low, c - 90.0), min(high, c + 90.0)
+    return min(max(lead, lo), hi), lo, max(lo, hi)
+
+
 FINE = 1024  # vertices of the reference's polygons on a whole circle (at least 64 a sector)
 
 
@@ -170,11 +191,10 @@ def _random_fleet(seed: int) -> list[tuple[str, float, float, tuple[float, float
     pads = ["port pad", "stbd pad", "port fwd pad", "stbd aft pad"]
     out = []
     for point in rng.permutation(lines)[: rng.integers(2, 4)]:
-        lead = float(rng.uniform(0, 360))
+        lead = CLEAR_CENTRE[str(point)] + float(rng.uniform(-90, 90))
         half = float(rng.uniform(0, 100))
-        out.append(
-            (str(point), float(rng.uniform(20, 60)), lead, (lead - half, lead + half), False)
-        )
+        lead, lo, hi = _clear_sector(str(point), lead, lead - half, lead + half)
+        out.append((str(point), float(rng.uniform(20, 60)), lead, (lo, hi), False))
     for point in rng.permutation(pads)[: rng.integers(1, 3)]:
         if rng.random() < 0.5:
             out.append((str(point), float(rng.uniform(20, 60)), 0.0, (-180.0, 180.0), True))
@@ -326,10 +346,12 @@ SECTOR_FLEET = st.lists(
 
 
 def _lines(fleet: list[tuple[str, float, float]], widen: float = 0.0) -> list:
-    return [
-        (p, 40.0, lead, (lead - half - widen, lead + half + widen), False)
-        for p, lead, half in fleet
-    ]
+    out = []
+    for p, lead, half in fleet:
+        lead = CLEAR_CENTRE[p] - 90.0 + lead % 180.0  # somewhere in the clear half turn
+        lead, lo, hi = _clear_sector(p, lead, lead - half - widen, lead + half + widen)
+        out.append((p, 40.0, lead, (lo, hi), False))
+    return out
 
 
 @settings(max_examples=25, deadline=None)
