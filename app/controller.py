@@ -348,10 +348,7 @@ class Controller(QObject):
             self._set_project(project)
             return
         self._project = project
-        self._results = None
-        self._stage_index = stage
-        self.stage_changed.emit(stage)
-        self.changed.emit()
+        self.set_stage_index(stage)  # clears the results and says the stage changed
         name = project.stages[stage].name
         self.message.emit(f"{said} (in stage {stage + 1} “{name}”, now shown)")
 
