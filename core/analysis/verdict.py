@@ -265,8 +265,9 @@ def _goal_reasons(stage: Stage, b: BodyResult, u: DisplayUnits) -> list[Reason]:
     solved = b.solved
     words = GOAL_WORDS[goal.kind].split(":")[0]
     if solved is not None and not solved.feasible:
+        fleet = "with every tug" if solved.problem.placements else "with no tug placed on it"
         text = (
-            f"{b.name}: the goal ({words}) cannot be met with every tug: "
+            f"{b.name}: the goal ({words}) cannot be met {fleet}: "
             f"{shortfall_words(solved.shortfall, u)}"
         )
         if goal.kind == "hold":

@@ -317,7 +317,8 @@ def solve_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
     c = br.tug_lost
     worst = c.worst
     if not r.feasible:
-        out.append("  Tug lost check  not meaningful: the goal is not met with every tug")
+        fleet = "with every tug" if r.problem.placements else "with no tug placed"
+        out.append(f"  Tug lost check  not meaningful: the goal is not met {fleet}")
         out.extend(f"  NOTE: {n}" for n in br.notes)
         return out
     out.append(

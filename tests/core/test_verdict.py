@@ -14,6 +14,7 @@ from dataclasses import replace
 import pytest
 
 from core.analysis.stage import balance_of, stage_result
+from core.io.report import report_text
 from core.model.conditions import Conditions
 from core.model.goals import Goal
 from core.model.plan import BodyPose, Project, Stage
@@ -189,3 +190,16 @@ def test_the_result_is_worked_out_once_per_project_value() -> None:
     assert stage_result(q, 0) is not stage_result(p, 0)
     with pytest.raises(IndexError):
         stage_result(p, 1)
+
+
+def test_a_goal_with_no_tug_placed_says_so_not_with_every_tug() -> None:
+    # Wind on a barge with nothing placed: "with every tug" would read as if tugs were
+    # there and too weak.
+    p = _plan((), wind_kn=20.0)
+    v = stage_result(p, 0).verdict
+    (r,) = [r for r in v.reasons if r.code == "goal_cannot_be_met"]
+    assert "cannot be met with no tug placed on it" in r.text
+    assert "every tug" not in r.text
+    text = report_text(p)
+    assert "Tug lost check  not meaningful: the goal is not met with no tug placed" in text
+    assert "every tug" not in text
