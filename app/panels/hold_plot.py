@@ -204,7 +204,7 @@ class HoldPlot(QWidget):
         p.drawPixmap(0, 0, self._grid_pixmap(centre, radius, top, step))
         lim = self.limits
         if lim is None:
-            self._message(p, centre, self.message or "No hold limits for this stage.")
+            self._message(p, centre, radius, self.message or "No hold limits for this stage.")
             p.end()
             return
         k = self.units.value(1.0, "speed")  # display units per m/s
@@ -376,10 +376,14 @@ class HoldPlot(QWidget):
                 x, y = 8.0, y + p.fontMetrics().height() + 2  # a line of its own
             p.drawText(QPointF(x, y + 4), note)
 
-    def _message(self, p: QPainter, at: QPointF, text: str) -> None:
+    def _message(self, p: QPainter, at: QPointF, radius: float, text: str) -> None:
+        """``text`` wrapped within the rings (clear of the compass letters round them)."""
         p.setPen(style.NO_GO)
-        rect = QRectF(at.x() - 150, at.y() - 30, 300, 60)
-        p.drawText(rect, Qt.AlignmentFlag.AlignCenter | Qt.TextFlag.TextWordWrap, text)
+        width = max(80.0, min(300.0, 1.6 * radius))
+        flags = Qt.AlignmentFlag.AlignCenter | Qt.TextFlag.TextWordWrap
+        high = p.fontMetrics().boundingRect(QRectF(0, 0, width, 1e4).toRect(), int(flags), text)
+        h = float(high.height())
+        p.drawText(QRectF(at.x() - width / 2, at.y() - h / 2, width, h), flags, text)
 
 
 class HoldLimitsPanel(QWidget):

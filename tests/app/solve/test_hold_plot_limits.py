@@ -11,8 +11,10 @@ import numpy as np
 from PySide6.QtCore import QPointF, Qt
 from PySide6.QtGui import QImage
 
-from app.panels.hold_plot import LIMIT, current_summary, summary
+from app.paint import style
+from app.panels.hold_plot import LIMIT, HoldPlot, current_summary, summary
 from core.solve.holdlimits import SHOWN_UP_TO_MS, limit_at, limit_words
+from core.units import DisplayUnits
 
 HOLD = 2  # the sample's stage "Hold while the dredger clears the entrance"
 
@@ -96,3 +98,28 @@ def test_limits_beyond_the_cores_range_are_said_as_above(window) -> None:
     text = summary(wind, stage, units)
     assert float(np.max(wind.all_tugs_ms)) > SHOWN_UP_TO_MS["wind"]
     assert f"above {units.show(SHOWN_UP_TO_MS['wind'], 'speed')} with all tugs" in text
+
+
+def test_a_message_stays_within_the_rings_clear_of_the_compass_letters(qtbot) -> None:  # type: ignore[no-untyped-def]
+    # On a narrow plot (File > New's dock) the message once ran 300 px wide, over the W
+    # and E letters. Every pixel of its colour now lies inside 0.85 of the outer ring.
+    plot = HoldPlot()
+    qtbot.addWidget(plot)
+    plot.resize(260, 300)
+    plot.set_data(None, None, DisplayUnits(), "Place tugs to see what wind they can hold.")
+    image = plot.grab().toImage().convertToFormat(QImage.Format.Format_RGB32)
+    centre, radius = plot._frame()
+    ratio = image.width() / plot.width()
+    red = style.NO_GO
+    found = 0
+    for y in range(image.height()):
+        for x in range(image.width()):
+            c = image.pixelColor(x, y)
+            if (
+                abs(c.red() - red.red()) + abs(c.green() - red.green()) + abs(c.blue() - red.blue())
+                < 60
+            ):
+                found += 1
+                d = math.hypot(x / ratio - centre.x(), y / ratio - centre.y())
+                assert d <= 0.85 * radius, (x, y, d, radius)
+    assert found > 50  # the message is drawn
