@@ -31,6 +31,17 @@ UNIT_WORDS = {
 INSUNITS_SYMBOLS = {1: "in", 2: "ft", 4: "mm", 5: "cm", 6: "m"}
 
 
+#: A coordinate smaller than this, in any unit, is read as zero: far below any length a
+#: drawing means (1e-100 mm), while subnormal numbers such as 5e-324 make shapely divide by
+#: zero when it simplifies an outline.
+NEGLIGIBLE = 1e-100
+
+
+def read_coordinate(value: float) -> float:
+    """A coordinate as read from a drawing or table: a negligible one (and -0.0) is 0.0."""
+    return 0.0 if abs(value) < NEGLIGIBLE else value
+
+
 def metres_per_unit(unit: str) -> float:
     """Metres in one ``unit``; raises InputError for a unit not offered."""
     try:

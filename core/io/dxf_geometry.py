@@ -10,14 +10,23 @@ Curves are flattened to points on the curve, as few as keep every chord within
 angle a between two points has the sagitta r (1 - cos(a / 2)) (circle geometry).
 Lines and arcs whose ends meet within ``tolerance`` are joined into chains; a chain
 whose ends meet is a loop.
+
+A drawing is input like any other: an entity whose points are not finite numbers,
+lie farther than :data:`MAX_DRAWING_COORDINATE` from the origin, or would take more
+than :data:`MAX_CURVE_POINTS` points to flatten is refused by a DrawingError naming
+its layer, type and handle. A damaged file that ezdxf's recovering reader mends is
+read, and what it mended is kept (``Drawing.repairs``) for the importers to say.
 """
 
 from __future__ import annotations
 
 import io
+import itertools
+import logging
 import math
 from collections import Counter
 from collections.abc import Iterator, Sequence
+from contextlib import contextmanager
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
@@ -31,8 +40,9 @@ from ezdxf.lldxf.tagger import binary_tags_loader
 from scipy.spatial import cKDTree
 
 from core.errors import DrawingError
-from core.io.drawing_units import INSUNITS_SYMBOLS
+from core.io.drawing_units import INSUNITS_SYMBOLS, NEGLIGIBLE
 from core.io.paths import read_source
+from core.notices import Notice
 
 Pt = tuple[float, float]
 
@@ -43,6 +53,26 @@ ANNOTATION_TYPES = frozenset(
     {"TEXT", "MTEXT", "DIMENSION", "LEADER", "MLEADER", "ATTRIB", "ATTDEF", "POINT", "VIEWPORT"}
 )
 MAX_BLOCK_DEPTH = 8
+#: The most entities model space may hold with its blocks opened up: a small file of
+#: blocks inserting each other ten times over, eight deep, would make 10^8 of them.
+MAX_ENTITIES = 500_000
+#: The most points one entity may be flattened into (as many as an outline may hold).
+MAX_CURVE_POINTS = 200_000
+#: The farthest a point may lie from the drawing's origin, drawing units: 1e9 km in
+#: millimetres, far beyond any site's survey grid, and small enough that areas and
+#: lengths worked from such points stay finite.
+MAX_DRAWING_COORDINATE = 1e12
+#: What ezdxf raises on an entity it cannot make a curve of (a spline of one repeated fit
+#: point ends in an IndexError, a damaged vertex list in a TypeError).
+_EZDXF_FAILURES = (
+    ezdxf.DXFError,
+    ValueError,
+    ArithmeticError,
+    AttributeError,
+    IndexError,
+    KeyError,
+    TypeError,
+)
 _SPLINE_FRAME_VERTEX = 16  # DXF vertex flag: a spline frame control point, not on the curve
 
 
@@ -73,12 +103,44 @@ class LayerShapes:
         return float(d[i, j]), ends[int(i)], ends[int(j)]
 
 
-class Drawing:
-    """A DXF file opened for its plan geometry (an open file, not a value)."""
+class BadEntity(Exception):
+    """An entity that cannot be read as plan geometry, and why (words to follow its name,
+    as in "a SPLINE (handle 2F) cannot be drawn ..."); :meth:`Drawing.shapes` turns it
+    into a DrawingError naming the file and the layer."""
 
-    def __init__(self, source: str, doc: Any) -> None:
+
+@contextmanager
+def _ezdxf_messages() -> Iterator[list[str]]:
+    """ezdxf's log messages while reading, collected rather than printed to stderr (its
+    recovering reader logs every value it mends)."""
+    got: list[str] = []
+
+    class Collect(logging.Handler):
+        def emit(self, record: logging.LogRecord) -> None:
+            got.append(record.getMessage())
+
+    log = logging.getLogger("ezdxf")
+    handler, propagate = Collect(logging.INFO), log.propagate
+    log.addHandler(handler)
+    log.propagate = False
+    try:
+        yield got
+    finally:
+        log.removeHandler(handler)
+        log.propagate = propagate
+
+
+class Drawing:
+    """A DXF file opened for its plan geometry (an open file, not a value).
+
+    ``repairs`` lists what ezdxf's recovering reader mended in a damaged file (empty
+    for a file read as it is).
+    """
+
+    def __init__(self, source: str, doc: Any, repairs: Sequence[str] = ()) -> None:
         self.source = source
         self._doc = doc
+        self.repairs = tuple(repairs)
         insunits = doc.header.get("$INSUNITS", 0)
         self.insunits = int(insunits) if isinstance(insunits, int | float) else 0
         #: The drawing's units as one of ours ("mm", "m", ...), or None when it does not say.
@@ -87,7 +149,16 @@ class Drawing:
         self._names: dict[str, str] = {}
         for layer in doc.layers:
             self._names.setdefault(layer.dxf.name.upper(), layer.dxf.name)
-        for e, layer in _modelspace(doc):
+        too_many = DrawingError(
+            source,
+            f"holds more than {MAX_ENTITIES} entities in model space with its blocks "
+            "opened up (blocks inserted many times within each other); not read",
+        )
+        if _opened_up_count(doc) > MAX_ENTITIES:  # counted before anything is opened up
+            raise too_many
+        for count, (e, layer) in enumerate(_modelspace(doc), start=1):
+            if count > MAX_ENTITIES:
+                raise too_many
             name = self._names.setdefault(layer.upper(), layer)
             self._entities.setdefault(name, []).append(e)
 
@@ -101,16 +172,35 @@ class Drawing:
             raise DrawingError(p.name, "is a DWG file; save it as DXF from the drawing program")
         # ezdxf's readers raise more than their documented errors on a damaged file (a
         # header cut short ends in StopIteration), so any failure of theirs is the file's.
-        try:
-            doc = _read_dxf(data)
-        except Exception:
-            try:  # a damaged file: ezdxf's slower recovering reader mends what it can
-                doc, _auditor = recover.read(io.BytesIO(data))
-            except Exception as e:
-                raise DrawingError(
-                    p.name, f"is not a readable DXF drawing ({_reason(e)})"
-                ) from None
-        return cls(p.name, doc)
+        repairs: list[str] = []
+        with _ezdxf_messages() as messages:
+            try:
+                doc = _read_dxf(data)
+            except Exception:
+                try:  # a damaged file: ezdxf's slower recovering reader mends what it can
+                    doc, auditor = recover.read(io.BytesIO(data))
+                except Exception as e:
+                    raise DrawingError(
+                        p.name, f"is not a readable DXF drawing ({_reason(e)})"
+                    ) from None
+                repairs = list(messages) + [f.message for f in auditor.fixes]
+            drawing = cls(p.name, doc, repairs)
+        return drawing
+
+    def repair_notice(self) -> Notice | None:
+        """A caution that the file was damaged and mended on reading (None: read as it is)."""
+        if not self.repairs:
+            return None
+        n = len(self.repairs)
+        first = " ".join(self.repairs[0].split())[:160]
+        return Notice(
+            "drawing_repaired",
+            self.source,
+            f"{self.source} is damaged and was read by mending it ({n} repair"
+            f"{'s' if n > 1 else ''} reported; the first: {first}). "
+            "Check the shapes against the drawing.",
+            "caution",
+        )
 
     def layers(self) -> tuple[str, ...]:
         """Layers that hold something in model space, in name order."""
@@ -144,7 +234,11 @@ class Drawing:
         runs: list[list[Pt]] = []
         skipped: Counter[str] = Counter()
         for e in self._entities[name]:
-            got = _flatten(e, chord_error)
+            try:
+                with _ezdxf_messages():
+                    got = _flatten(e, chord_error)
+            except BadEntity as bad:
+                raise DrawingError(self.source, f"{_named(e)} {bad}", layer=name) from None
             if got is None:
                 if e.dxftype() not in ANNOTATION_TYPES:
                     skipped[e.dxftype()] += 1
@@ -168,6 +262,31 @@ class Drawing:
         )
 
 
+def _opened_up_count(doc: Any) -> int:
+    """How many entities :func:`_modelspace` would give, from the block definitions alone
+    (opening blocks up with ezdxf takes a fraction of a millisecond an entity)."""
+    memo: dict[tuple[str, int], int] = {}
+
+    def count(entities: Any, depth: int) -> int:
+        total = 0
+        for e in entities:
+            if e.dxftype() == "INSERT" and depth < MAX_BLOCK_DEPTH:
+                total += block(str(e.dxf.get("name", "")), depth + 1)
+            else:
+                total += 1
+        return total
+
+    def block(name: str, depth: int) -> int:
+        key = (name.upper(), depth)
+        if key not in memo:
+            memo[key] = 1  # a block inside itself counts once while it is being counted
+            layout = doc.blocks.get(name)
+            memo[key] = 1 if layout is None else count(layout, depth)
+        return memo[key]
+
+    return count(doc.modelspace(), 0)
+
+
 def _modelspace(doc: Any) -> Iterator[tuple[Any, str]]:
     """Every entity of model space with its layer, blocks opened up."""
 
@@ -179,7 +298,7 @@ def _modelspace(doc: Any) -> Iterator[tuple[Any, str]]:
             if e.dxftype() == "INSERT" and depth < MAX_BLOCK_DEPTH:
                 try:
                     inner = list(e.virtual_entities())
-                except (ezdxf.DXFError, ValueError, ZeroDivisionError, ArithmeticError):
+                except (*_EZDXF_FAILURES, RecursionError):
                     yield e, layer
                     continue
                 yield from walk(inner, layer, depth + 1)
@@ -197,12 +316,22 @@ def arc_segments(radius: float, sweep_rad: float, chord_error: float) -> int:
 
     A chord over the angle a sits r (1 - cos(a / 2)) inside the arc at its middle, so
     a <= 2 acos(1 - e / r); at least one chord for each quarter turn.
+
+    Raises BadEntity for a radius or angle that is not finite, or an arc that would take
+    more than :data:`MAX_CURVE_POINTS` chords.
     """
+    if not (math.isfinite(radius) and math.isfinite(sweep_rad)):
+        raise BadEntity("has an arc whose radius or angle is not a finite number")
     sweep = abs(sweep_rad)
     if radius <= 0 or sweep == 0:
         return 1
     step = 2.0 * math.acos(max(-1.0, 1.0 - chord_error / radius))
     step = min(step, math.pi / 2)
+    if step * MAX_CURVE_POINTS < sweep:  # (a step of 0 too: a radius far beyond the chord error)
+        raise BadEntity(
+            f"has an arc of radius {radius:.6g} that would take more than "
+            f"{MAX_CURVE_POINTS} points to draw within the chord error"
+        )
     return max(1, math.ceil(sweep / step - 1e-9))
 
 
@@ -263,7 +392,48 @@ def _to_wcs(ocs: Any, pts: Sequence[Pt], z: float = 0.0) -> list[Pt]:
 
 
 def _flatten(e: Any, chord_error: float) -> tuple[list[Pt], bool] | None:
-    """(points in drawing units, closed) for a plan entity; None for one not read."""
+    """(points in drawing units, closed) for a plan entity; None for one not read.
+
+    Raises BadEntity for an entity whose points are not finite or lie too far out, or
+    that would take too many points.
+    """
+    got = _flatten_points(e, chord_error)
+    if got is not None:
+        a = np.asarray(got[0], dtype=float).reshape(-1, 2)  # (n, 2)
+        if (np.abs(a) < NEGLIGIBLE).any():  # read as zero (see core.io.drawing_units)
+            a[np.abs(a) < NEGLIGIBLE] = 0.0
+            got = ([(float(x), float(y)) for x, y in a.tolist()], got[1])
+        if not np.isfinite(a).all():
+            raise BadEntity("has a point that is not a finite number")
+        if len(a) and float(np.abs(a).max()) > MAX_DRAWING_COORDINATE:
+            raise BadEntity(
+                f"has a point farther than {MAX_DRAWING_COORDINATE:g} drawing units from the origin"
+            )
+    return got
+
+
+def _named(e: Any) -> str:
+    """'the LINE (handle 2F)' for a message."""
+    handle = e.dxf.get("handle")
+    return f"the {e.dxftype()}" + (f" (handle {handle})" if handle else "")
+
+
+def _curve_points(e: Any, chord_error: float) -> list[Pt]:
+    """An ellipse's or spline's points by ezdxf's flattening, bounded: its subdivision
+    recurses without end on a degenerate curve (a NaN distance is never small enough)
+    and takes ever more points on one far larger than the chord error."""
+    try:
+        got = list(itertools.islice(e.flattening(chord_error), MAX_CURVE_POINTS + 1))
+    except RecursionError:
+        raise BadEntity("cannot be drawn: its defining points are degenerate") from None
+    if len(got) > MAX_CURVE_POINTS:
+        raise BadEntity(
+            f"would take more than {MAX_CURVE_POINTS} points to draw within the chord error"
+        )
+    return [(float(v.x), float(v.y)) for v in got]
+
+
+def _flatten_points(e: Any, chord_error: float) -> tuple[list[Pt], bool] | None:
     kind = e.dxftype()
     try:
         if kind == "LINE":
@@ -292,14 +462,14 @@ def _flatten(e: Any, chord_error: float) -> tuple[list[Pt], bool] | None:
         if kind == "POLYLINE":
             return _polyline(e, chord_error)
         if kind in ("ELLIPSE", "SPLINE"):
-            pts = [(float(v.x), float(v.y)) for v in e.flattening(chord_error)]
+            pts = _curve_points(e, chord_error)
             closed = len(pts) > 2 and _dist(pts[0], pts[-1]) <= 1e-9 * (1 + _extent(pts))
             if kind == "SPLINE":
                 closed = closed or bool(e.closed)
             if closed and len(pts) > 1 and _dist(pts[0], pts[-1]) <= 1e-9 * (1 + _extent(pts)):
                 pts = pts[:-1]
             return pts, closed
-    except (ezdxf.DXFError, ValueError, ZeroDivisionError, ArithmeticError, AttributeError):
+    except _EZDXF_FAILURES:  # a damaged entity ezdxf cannot make a curve of: not read
         return None
     return None
 

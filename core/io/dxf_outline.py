@@ -131,7 +131,8 @@ def import_outline(
     if not s.loops:
         raise no_outline(drawing, s, units)
     i, _area = _largest(s.loops)
-    notices: list[Notice] = []
+    repaired = drawing.repair_notice()
+    notices: list[Notice] = [repaired] if repaired else []
     if len(s.loops) > 1:
         notices.append(
             Notice(

@@ -48,7 +48,8 @@ def import_site(
     chord_du, join_du = drawing_tolerances(chord_error_m, tolerance_m, k)
     tol = SIMPLIFY_SHARE * chord_error_m / k
     features: list[SiteFeature] = []
-    notices: list[Notice] = []
+    repaired = drawing.repair_notice()
+    notices: list[Notice] = [repaired] if repaired else []
     for layer, kind in layer_kinds.items():
         if kind not in SITE_FEATURE_KINDS:
             raise InputError(

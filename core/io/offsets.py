@@ -22,9 +22,10 @@ import re
 from dataclasses import dataclass
 
 from core.errors import DrawingError
-from core.io.drawing_units import metres_per_unit
+from core.io.drawing_units import metres_per_unit, read_coordinate
 from core.io.dxf_outline import CHORD_ERROR_M
 from core.io.outline_import import ImportedOutline, OutlinePlacement, place_outline
+from core.io.paths import shown_row
 
 X_NAMES = frozenset({"x", "station", "stations", "position"})
 HB_NAMES = frozenset({"half_breadth", "halfbreadth", "hb", "y", "half_beam", "b/2"})
@@ -53,7 +54,7 @@ def _number(cell: str, decimal_comma: bool) -> float:
     text = cell.strip()
     if decimal_comma:
         text = text.replace(",", ".")
-    return float(text)
+    return read_coordinate(float(text))
 
 
 def read_offsets(text: str, source: str) -> Offsets:
@@ -79,7 +80,7 @@ def read_offsets(text: str, source: str) -> Offsets:
             raise DrawingError(
                 source,
                 "the first row names no x and half-breadth columns "
-                f"(it has {', '.join(c.strip() for c in first)})",
+                f"(it has {shown_row(delim.join(c.strip() for c in first))})",
                 line=first_line,
             ) from None
         units = names[xi][1] or names[hi][1]
@@ -90,7 +91,7 @@ def read_offsets(text: str, source: str) -> Offsets:
             x, hb = _number(row[xi], decimal_comma), _number(row[hi], decimal_comma)
         except (ValueError, IndexError):
             raise DrawingError(
-                source, f"is not an x and a half-breadth: {delim.join(row)!r}", line=line
+                source, f"is not an x and a half-breadth: {shown_row(delim.join(row))}", line=line
             ) from None
         if not (math.isfinite(x) and math.isfinite(hb)):
             raise DrawingError(source, "x and half-breadth must be finite", line=line)

@@ -144,7 +144,7 @@ def invalid_reason(poly: shapely.Polygon) -> tuple[str, Pt | None]:
     """Why shapely finds ``poly`` invalid, in words, and where (drawing units) if it says."""
     reason = shapely.is_valid_reason(poly)
     m = re.search(r"\[\s*([-+0-9.eE]+)\s+([-+0-9.eE]+)", reason)
-    where = (float(m.group(1)), float(m.group(2))) if m else None
+    where = (float(m.group(1)) + 0.0, float(m.group(2)) + 0.0) if m else None  # no "-0"
     words = "crosses itself" if "intersection" in reason.lower() else reason.split("[")[0].lower()
     return words, where
 

@@ -70,6 +70,18 @@ def read_at_most(path: str | os.PathLike[str], limit: int) -> bytes:
 MAX_SOURCE_BYTES = 128_000_000
 
 
+#: The most characters of a table's row a message quotes.
+SHOWN_ROW_CHARS = 60
+
+
+def shown_row(text: str) -> str:
+    """A table's row as a message quotes it: in quotes, cut short after
+    :data:`SHOWN_ROW_CHARS` characters (a row may run to megabytes)."""
+    if len(text) <= SHOWN_ROW_CHARS:
+        return repr(text)
+    return f"{text[:SHOWN_ROW_CHARS]!r}... ({len(text)} characters)"
+
+
 def read_source(path: str | os.PathLike[str], limit: int | None = None) -> bytes:
     """The bytes of a drawing or table to import, read to at most ``limit`` bytes
     (default :data:`MAX_SOURCE_BYTES`).

@@ -13,7 +13,8 @@ import csv
 import math
 
 from core.errors import DrawingError
-from core.io.drawing_units import metres_per_unit
+from core.io.drawing_units import metres_per_unit, read_coordinate
+from core.io.paths import shown_row
 from core.io.site_import import ImportedSite, SiteFrame
 from core.model.plan import SITE_FEATURE_KINDS, SiteFeature
 
@@ -60,11 +61,12 @@ def import_site_points(
         try:
             name = row[cols["feature"]].strip()
             kind = row[cols["kind"]].strip().lower()
-            x, y = float(row[cols["x"]]), float(row[cols["y"]])
+            x = read_coordinate(float(row[cols["x"]]))
+            y = read_coordinate(float(row[cols["y"]]))
             flag = row[cols["closed"]].strip().lower() if "closed" in cols else None
         except (IndexError, ValueError):
             raise DrawingError(
-                source, f"is not a feature, kind, x and y: {delim.join(row)!r}", line=line
+                source, f"is not a feature, kind, x and y: {shown_row(delim.join(row))}", line=line
             ) from None
         if not name:
             raise DrawingError(source, "the feature has no name", line=line)
