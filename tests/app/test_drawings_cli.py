@@ -281,3 +281,52 @@ def test_export_never_writes_over_the_plan(
     assert err.startswith(f"towboard export: picture file: {str(plan)!r} is the plan itself")
     assert plan.read_bytes() == PONTOON.read_bytes()
     assert list(tmp_path.iterdir()) == [plan]
+
+
+def _nasty_drawings(tmp: Path) -> list[Path]:
+    """Damaged and hostile drawings the fuzzing refused (tests/fuzz/drawing_mutations.py)."""
+    import io
+    import random
+
+    from tests.fuzz.drawing_mutations import HOSTILE, base_drawings
+
+    hull = base_drawings()["hull_polyline"]
+    files = {
+        "cut.dxf": hull[: len(hull) // 3],  # a file cut short
+        "nan.dxf": hull.replace("\n60000.0\n", "\nnan\n", 1),  # a corner at NaN
+        "mended.dxf": base_drawings()["loose_lines"].replace(
+            "$LTSCALE\n 40\n1.0\n", "$LTSCALE\n 40\n--1.0\n", 1
+        ),  # a header value ezdxf mends
+    }
+    for name in ("recursive_blocks", "degenerate_spline", "far_coordinates"):
+        out = io.StringIO()
+        HOSTILE[name](random.Random(3)).write(out)
+        files[f"{name}.dxf"] = out.getvalue()
+    paths = []
+    for name, text in files.items():
+        (tmp / name).write_text(text)
+        paths.append(tmp / name)
+    return paths
+
+
+def test_nasty_drawings_exit_2_with_one_line_from_a_real_process(tmp_path: Path) -> None:
+    """Each refused with one line and exit 2, nothing written; the mended one is read, with
+    the repair on stdout as a warning and nothing from ezdxf on stderr, and blocks inserting
+    themselves are opened up to a depth and the inserts left said as not read."""
+    for path in _nasty_drawings(tmp_path):
+        out = tmp_path / f"{path.stem}.towboard"
+        done = _run("import-outline", str(path), "-o", str(out))
+        if path.name == "mended.dxf":
+            assert done.returncode == 0 and done.stderr == "", done.stderr
+            assert "WARNING: mended.dxf is damaged and was read by mending it" in done.stdout
+            assert out.exists()
+            continue
+        if path.name == "recursive_blocks.dxf":
+            assert done.returncode == 0 and done.stderr == "", done.stderr
+            assert "area 40.0 m²" in done.stdout  # the 10 m x 4 m box in block A
+            assert "WARNING: Not read on layer HULL: " in done.stdout
+            continue
+        assert done.returncode == 2, (path.name, done.stdout, done.stderr)
+        assert "Traceback" not in done.stderr and len(done.stderr.splitlines()) == 1, done.stderr
+        assert done.stderr.startswith(f"towboard import-outline: {path.name}: "), done.stderr
+        assert not out.exists() and not list(tmp_path.glob("*.tmp*"))
