@@ -31,6 +31,10 @@ UNIT_WORDS = {
 INSUNITS_SYMBOLS = {1: "in", 2: "ft", 4: "mm", 5: "cm", 6: "m"}
 
 
+#: The farthest a point may lie from the origin of a drawing or table, drawing units: a million
+#: kilometres in millimetres, far beyond any survey grid, and small enough that areas and
+#: lengths worked from such points stay finite.
+MAX_DRAWING_COORDINATE = 1e12
 #: A coordinate smaller than this, in any unit, is read as zero: far below any length a
 #: drawing means (1e-100 mm), while subnormal numbers such as 5e-324 make shapely divide by
 #: zero when it simplifies an outline.

@@ -40,7 +40,7 @@ from ezdxf.lldxf.tagger import binary_tags_loader
 from scipy.spatial import cKDTree
 
 from core.errors import DrawingError
-from core.io.drawing_units import INSUNITS_SYMBOLS, NEGLIGIBLE
+from core.io.drawing_units import INSUNITS_SYMBOLS, MAX_DRAWING_COORDINATE, NEGLIGIBLE
 from core.io.paths import read_source
 from core.notices import Notice
 
@@ -58,10 +58,6 @@ MAX_BLOCK_DEPTH = 8
 MAX_ENTITIES = 500_000
 #: The most points one entity may be flattened into (as many as an outline may hold).
 MAX_CURVE_POINTS = 200_000
-#: The farthest a point may lie from the drawing's origin, drawing units: 1e9 km in
-#: millimetres, far beyond any site's survey grid, and small enough that areas and
-#: lengths worked from such points stay finite.
-MAX_DRAWING_COORDINATE = 1e12
 #: What ezdxf raises on an entity it cannot make a curve of (a spline of one repeated fit
 #: point ends in an IndexError, a damaged vertex list in a TypeError).
 _EZDXF_FAILURES = (

@@ -22,7 +22,7 @@ import re
 from dataclasses import dataclass
 
 from core.errors import DrawingError
-from core.io.drawing_units import metres_per_unit, read_coordinate
+from core.io.drawing_units import MAX_DRAWING_COORDINATE, metres_per_unit, read_coordinate
 from core.io.dxf_outline import CHORD_ERROR_M
 from core.io.outline_import import ImportedOutline, OutlinePlacement, place_outline
 from core.io.paths import shown_row
@@ -95,6 +95,12 @@ def read_offsets(text: str, source: str) -> Offsets:
             ) from None
         if not (math.isfinite(x) and math.isfinite(hb)):
             raise DrawingError(source, "x and half-breadth must be finite", line=line)
+        if max(abs(x), abs(hb)) > MAX_DRAWING_COORDINATE:
+            raise DrawingError(
+                source,
+                f"x and half-breadth must be at most {MAX_DRAWING_COORDINATE:g} from zero",
+                line=line,
+            )
         if hb < 0:
             raise DrawingError(source, f"half-breadth {hb:g} is negative", line=line)
         stations.append((x, hb))

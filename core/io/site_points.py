@@ -13,7 +13,7 @@ import csv
 import math
 
 from core.errors import DrawingError
-from core.io.drawing_units import metres_per_unit, read_coordinate
+from core.io.drawing_units import MAX_DRAWING_COORDINATE, metres_per_unit, read_coordinate
 from core.io.paths import shown_row
 from core.io.site_import import ImportedSite, SiteFrame
 from core.model.plan import SITE_FEATURE_KINDS, SiteFeature
@@ -76,6 +76,10 @@ def import_site_points(
             )
         if not (math.isfinite(x) and math.isfinite(y)):
             raise DrawingError(source, "x and y must be finite", line=line)
+        if max(abs(x), abs(y)) > MAX_DRAWING_COORDINATE:
+            raise DrawingError(
+                source, f"x and y must be at most {MAX_DRAWING_COORDINATE:g} from zero", line=line
+            )
         closed: bool | None = None
         if flag is not None:
             if flag not in _YES | _NO:

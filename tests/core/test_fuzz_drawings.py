@@ -354,3 +354,16 @@ def test_a_drawing_of_subnormal_size_has_no_area(tmp_path: Path) -> None:
         import_site(d, {"DOT": "vessel"}, "m")
     points = import_site_points("feature,kind,x,y\nQ,quay,5e-324,0\nQ,quay,10,-5e-324\n", "p.csv")
     assert points.features[0].points == ((0.0, 0.0), (10.0, 0.0))
+
+
+def test_table_values_beyond_any_drawing_are_refused_naming_the_line() -> None:
+    """Was: a half-breadth of 1e308 overflowed in shapely's validity check (a RuntimeWarning;
+    found by benchmarks/fuzz_drawings.py, seed 7), and without warnings as errors shapely
+    did not come back (over 40 s); a site point of -1e300 was refused naming the feature's
+    first line, not its own."""
+    with pytest.raises(DrawingError) as got:
+        import_offsets("station,y\n0,3\n12.5,3\n25,1e308\n", "t.csv")
+    assert str(got.value) == "t.csv: line 4: x and half-breadth must be at most 1e+12 from zero"
+    with pytest.raises(DrawingError) as got:
+        import_site_points("feature,kind,x,y\nQ,quay,0,0\nQ,quay,-1e300,0\n", "p.csv")
+    assert str(got.value) == "p.csv: line 3: x and y must be at most 1e+12 from zero"
