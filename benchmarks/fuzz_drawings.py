@@ -15,6 +15,7 @@ from __future__ import annotations
 import argparse
 import collections
 import random
+import signal
 import sys
 import tempfile
 import time
@@ -27,6 +28,17 @@ sys.path.insert(0, str(ROOT))
 
 from tests.fuzz.drawing_checks import drawing_outcome, table_outcome  # noqa: E402
 from tests.fuzz.drawing_mutations import drawing_case, table_case  # noqa: E402
+
+#: A case still running after this many seconds is stopped and counted a failure (a hang).
+CASE_SECONDS = 120
+
+
+class Hang(Exception):
+    """A case ran past CASE_SECONDS."""
+
+
+def _hang(_signum: int, _frame: object) -> None:
+    raise Hang(f"still running after {CASE_SECONDS} s")
 
 
 def main() -> None:
@@ -46,6 +58,7 @@ def main() -> None:
     print(f"failures are saved in {out_dir}", flush=True)
     counts: collections.Counter[str] = collections.Counter()
     failures: collections.Counter[str] = collections.Counter()
+    signal.signal(signal.SIGALRM, _hang)
     t0 = time.perf_counter()
     for i in range(args.cases):
         if rnd.random() < args.tables:
@@ -54,6 +67,7 @@ def main() -> None:
         else:
             what, suffix = "drawing", ".dxf"
             how, data = drawing_case(rnd)
+        signal.alarm(CASE_SECONDS)
         try:
             if what == "drawing":
                 outline, site = drawing_outcome(data, work)
@@ -69,6 +83,8 @@ def main() -> None:
                 bad.write_bytes(data)
                 print(f"case {i + 1} ({how}): {key}\n  file: {bad}", flush=True)
             failures[key] += 1
+        finally:
+            signal.alarm(0)
         if (i + 1) % 1000 == 0:
             print(
                 f"{i + 1} cases, {dict(sorted(counts.items()))}, {sum(failures.values())} failed",
