@@ -138,7 +138,8 @@ class Drawing:
         self._doc = doc
         self.repairs = tuple(repairs)
         insunits = doc.header.get("$INSUNITS", 0)
-        self.insunits = int(insunits) if isinstance(insunits, int | float) else 0
+        finite = isinstance(insunits, int | float) and math.isfinite(insunits)
+        self.insunits = int(insunits) if finite else 0
         #: The drawing's units as one of ours ("mm", "m", ...), or None when it does not say.
         self.units: str | None = INSUNITS_SYMBOLS.get(self.insunits)
         self._entities: dict[str, list[Any]] = {}
@@ -174,7 +175,7 @@ class Drawing:
                 doc = _read_dxf(data)
             except Exception:
                 try:  # a damaged file: ezdxf's slower recovering reader mends what it can
-                    doc, auditor = recover.read(io.BytesIO(data))
+                    doc, auditor = recover.read(io.BytesIO(data), errors="replace")
                 except Exception as e:
                     raise DrawingError(
                         p.name, f"is not a readable DXF drawing ({_reason(e)})"
@@ -258,6 +259,16 @@ class Drawing:
         )
 
 
+def _layer_of(e: Any) -> str:
+    """The entity's layer; "0" for one of a type ezdxf does not know (a damaged name), which
+    has no layer to ask for, and for a layer name that is not text."""
+    try:
+        layer = e.dxf.get("layer", "0")
+    except _EZDXF_FAILURES:
+        return "0"
+    return layer if isinstance(layer, str) else "0"
+
+
 def _opened_up_count(doc: Any) -> int:
     """How many entities :func:`_modelspace` would give, from the block definitions alone
     (opening blocks up with ezdxf takes a fraction of a millisecond an entity)."""
@@ -288,7 +299,7 @@ def _modelspace(doc: Any) -> Iterator[tuple[Any, str]]:
 
     def walk(entities: Any, inherited: str | None, depth: int) -> Iterator[tuple[Any, str]]:
         for e in entities:
-            layer = e.dxf.get("layer", "0")
+            layer = _layer_of(e)
             if inherited is not None and layer == "0":
                 layer = inherited
             if e.dxftype() == "INSERT" and depth < MAX_BLOCK_DEPTH:
@@ -580,9 +591,9 @@ def _read_dxf(data: bytes) -> Any:
     """An ezdxf document from a DXF file's bytes, binary or text, as ``ezdxf.readfile``
     reads a file: a text file's encoding is the one its header names."""
     if data.startswith(_BINARY_DXF):
-        return DxfDocument.load(binary_tags_loader(data))
+        return DxfDocument.load(binary_tags_loader(data, errors="replace"))
     info = dxf_stream_info(io.StringIO(data.decode("utf-8", errors="ignore")))
-    return ezdxf.read(io.StringIO(data.decode(info.encoding, errors="surrogateescape")))
+    return ezdxf.read(io.StringIO(data.decode(info.encoding, errors="replace")))
 
 
 def _reason(e: Exception) -> str:

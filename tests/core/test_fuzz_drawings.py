@@ -367,3 +367,20 @@ def test_table_values_beyond_any_drawing_are_refused_naming_the_line() -> None:
     with pytest.raises(DrawingError) as got:
         import_site_points("feature,kind,x,y\nQ,quay,0,0\nQ,quay,-1e300,0\n", "p.csv")
     assert str(got.value) == "p.csv: line 3: x and y must be at most 1e+12 from zero"
+
+
+def test_an_entity_whose_type_name_is_damaged_is_not_read(tmp_path: Path) -> None:
+    """Was: ezdxf keeps an entity of a type it does not know without a layer, and asking
+    for it raised DXFAttributeError (a traceback; found by benchmarks/fuzz_drawings.py,
+    seed 7); the bad byte came through as a lone surrogate, which no terminal prints."""
+    text = base_drawings()["site"].encode()
+    i = text.index(b"ENTITIES")
+    i = text.index(b"\nLWPOLYLINE\n", i)
+    path = tmp_path / "name.dxf"
+    path.write_bytes(text[:i] + b"\nLW\xffOLYLINE\n" + text[i + 12 :])
+    d = Drawing.open(path)
+    assert d.counts("0") == {"LW\ufffdOLYLINE": 1}
+    (zero,) = [s for s in layer_summaries(d, "mm") if s.layer == "0"]
+    assert zero.words() == "0: no outline (1 LW\ufffdOLYLINE)"
+    assert "QUAY" not in d.layers()  # the quay was that polyline
+    assert import_site(d, {"VESSELS": "vessel"}, "mm").counts() == {"vessel": 1}
