@@ -137,8 +137,9 @@ class HoldPlot:
             y += ctx.mm(4.5)
         y += ctx.mm(2)
         d_low, v_low = lim.lowest()
+        meaning = lim.meaning()
         facts = [
-            f"Wind speed ({sp}) the tugs can hold the body against, by the true direction it "
+            f"{meaning[:1].upper()}{meaning[1:]} ({sp}), by the true direction the wind "
             "blows from, with the current as planned; same measure as the planned wind "
             "(mean at its height, with its gust factor).",
             f"Lowest with all tugs: {limit_words(v_low, u)} from {d_low:03.0f}°.",
@@ -164,8 +165,8 @@ class HoldPlot:
                 "others the tugs, within their working sectors (or at their leads as set where "
                 "they have none), cannot resist any wind."
             )
-        if not lim.holds_current:
-            facts.append("The tugs cannot hold the body against the current alone.")
+        if lim.calm_words():
+            facts.append(lim.calm_words() + ".")
         if self.current is not None:
             facts.append(self.current_words())
         beyond = ~np.isfinite(all_v) | (all_v > top * (1 + 1e-9))

@@ -314,14 +314,14 @@ def hold_limits_plot(project: Project, result: StageResult, body: BodyResult) ->
     plot = HoldPlot(hl, result.stage, project.units, body.current_limits)
     if not plot.has_curve:
         why = (
-            "cannot hold the body against the planned current alone"
+            hl.calm_words()
             if not hl.holds_current
-            else "cannot resist wind from any direction"
+            else "With the tugs placed and leading as in this stage, the fleet cannot resist "
+            "wind from any direction"
         )
         out.append(
             Text(
-                f"With the tugs placed and leading as in this stage, the fleet {why}, so there "
-                "is no hold limit to plot.",
+                f"{why}, so there is no hold limit to plot.",
                 8.0,
                 color=QColor(MUTED),
             )

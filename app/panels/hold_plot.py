@@ -827,19 +827,21 @@ EXPLAIN = (
     "The highest wind the tugs can hold the body against, by the true direction it blows "
     "from (north up), with the current as set; each tug may take any lead in its working "
     "sector (the lead as set where it has none). Speeds are in the same "
-    "measure as the stage's wind: the mean at its stated height, with its gust factor."
+    "measure as the stage's wind: the mean at its stated height, with its gust factor. "
+    "A limit is held from calm up: 0 where the goal is not met even with no wind."
 )
 
 
 def held_words(lim: HoldLimits, flow: Flow) -> str:
     """What the plot cannot show by itself: the other flow is more than the tugs hold
     alone, or from some directions they hold none of ``flow``; else nothing."""
-    other = "current" if flow == "wind" else "wind"
-    if not lim.holds_current:  # the flow held as set (the current for a wind sweep)
-        return f"The tugs as set cannot hold the {other} alone (only some {flow}s help)."
+    calm = lim.calm_words()
+    if not lim.holds_current:  # not met even in calm (the other flow as set)
+        return calm + "."
+    out = [calm + "."] if calm else []
     if float(np.min(lim.all_tugs_ms)) <= 0:
-        return f"From some directions the tugs as set cannot hold any {flow}."
-    return ""
+        out.append(f"From some directions the tugs as set cannot hold any {flow}.")
+    return " ".join(out)
 
 
 def _speed(v: float, units: DisplayUnits, flow: Flow = "wind") -> str:

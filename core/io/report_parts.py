@@ -184,9 +184,18 @@ def hold_limits_json(stage: Stage, lim: HoldLimits | None) -> dict[str, Any] | N
     planned = limit_at(lim, stage.conditions.wind_from_deg)
     return {
         "wind_measure": "mean speed at the stage's wind height, with its gust factor",
+        "meaning": "the goal is met for every wind from calm up to the limit; 0: not even in calm",
         "holds_current_alone": lim.holds_current,
+        "goal_not_met_in_calm": lim.calm_words() or None,
+        "tugs_whose_loss_fails_in_calm": list(lim.calm_fails),
         "directions_true_deg": [float(d) for d in lim.problem.directions_deg],
         "all_tugs_ms": [_finite(v) for v in lim.all_tugs_ms],
+        "all_tugs_band_ms": None
+        if lim.all_tugs_min_ms is None or lim.all_tugs_max_ms is None
+        else {
+            "lowest": [_finite(v) for v in lim.all_tugs_min_ms],
+            "highest": [_finite(v) for v in lim.all_tugs_max_ms],
+        },
         "worst_tug_lost_ms": [_finite(v) for v in w],
         "worst_tug_lost": list(lim.worst_lost_tug),
         "lowest_all_tugs": {"from_true_deg": d_lo, "speed_ms": _finite(v_lo)},
@@ -378,7 +387,8 @@ def hold_limit_lines(stage: Stage, lim: HoldLimits | None, u: DisplayUnits) -> l
         return "  beyond" if not math.isfinite(v) else f"{u.value(v, 'speed'):>8.1f}"
 
     out = [
-        f"  Hold limits     highest wind ({sp}, as the stage's wind is given) by true direction:"
+        f"  Hold limits     {lim.meaning()}, by true direction ({sp}, as the stage's wind "
+        "is given):"
     ]
     out.append("    from   " + "".join(f"{d:03d}".rjust(8) for d in TEXT_DIRECTIONS))
     out.append("    all    " + "".join(show(limit_at(lim, float(d))) for d in TEXT_DIRECTIONS))
@@ -394,8 +404,9 @@ def hold_limit_lines(stage: Stage, lim: HoldLimits | None, u: DisplayUnits) -> l
         f"{c.wind_from_deg:03.0f} true: {show(planned).strip()} {sp} against the planned "
         f"{u.show(c.wind_speed_ms, 'speed')}"
     )
-    if not lim.holds_current:
-        out.append("    WARNING: the tugs cannot hold the body against the current alone")
-    elif float(np.min(lim.all_tugs_ms)) <= 0:
+    calm = lim.calm_words()
+    if calm:
+        out.append(f"    WARNING: {calm[:1].lower()}{calm[1:]}")
+    if lim.holds_current and float(np.min(lim.all_tugs_ms)) <= 0:
         out.append("    WARNING: from some directions the tugs cannot hold any wind")
     return out

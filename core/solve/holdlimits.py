@@ -23,6 +23,16 @@ lets the fitting pass its rating but may hold a little less than the solve finds
 The fleet's set is the Minkowski sum of the tugs' polygons; its half-spaces are worked
 out once (core.solve.polytope) and every direction's ray is cut with them at once with
 numpy. With one tug lost the same half-spaces serve, less that tug's part.
+
+A limit is "held up to V": every lighter wind from that direction is held too. The winds
+s (s ~ V^2) at which the goal is met along one direction's ray form an interval; it
+starts at calm (s = 0) only when the goal is met with no swept flow at all (the start
+lies in the set). When it does not (the wind must help the tugs, as it may in a walk,
+or with a tug lost), the goal is met only in a band of winds and no wind is held from
+calm: the limit is 0, and :attr:`HoldLimits.calm_fails` names the tugs whose loss
+does that. Whether the start lies in the fine set is tested on the coarse set's
+half-spaces first (inside them: inside), then the fine set's supports on the same
+normals (outside them: outside), and only in between by a linear programme.
 """
 
 from __future__ import annotations
@@ -39,8 +49,9 @@ from core.mechanics.bodies import stage_body
 from core.mechanics.fittings import pull_limits_n
 from core.mechanics.loads import current_model, flow_angle_rad, wind_model
 from core.mechanics.tugsets import SECTOR_STEP_DEG, tug_sets
-from core.model.goals import Goal
+from core.model.goals import GOAL_WORDS, Goal
 from core.model.plan import Project, Stage
+from core.solve.lp import solve_lp
 from core.solve.polytope import (
     Exit,
     Facets,
@@ -233,20 +244,27 @@ def hold_limits_problem(
 class HoldLimits:
     """Limiting speed per direction, m/s, all tugs and with the worst one tug lost.
 
-    A speed of 0 means the fleet cannot meet the goal against any flow from that
-    direction. When the fleet cannot meet it with the other flow alone
-    (``holds_current`` False), the swept flow from some directions may help: there the
-    goal is met only between ``all_tugs_min_ms`` and ``all_tugs_ms``. Without the tug
-    lost sweep (``with_lost`` False) the worst-lost curve is zero and names no tug.
+    A limit V means the goal is met for every speed of the flow from 0 up to V from that
+    direction. A speed of 0 means no flow from there is held from calm: the fleet cannot
+    meet the goal against any flow from that direction, or cannot meet it in calm at all.
+    When the fleet cannot meet it with the other flow alone (``holds_current`` False),
+    the swept flow from some directions may help: there the goal is met only between
+    ``all_tugs_min_ms`` and ``all_tugs_max_ms``, and the limit is 0 from every
+    direction. ``calm_fails`` names the tugs whose loss leaves the goal unmet in calm
+    (the other flow as set): with any of them lost the worst-lost limit is 0 from
+    every direction. Without the tug lost sweep (``with_lost`` False) the worst-lost
+    curve is zero and names no tug.
     """
 
     problem: HoldLimitsProblem
     all_tugs_ms: np.ndarray  # (D,)
     worst_lost_ms: np.ndarray  # (D,) the limit with the worst single tug lost
     worst_lost_index: np.ndarray  # (D,) which tug's loss sets it (index into problem.tugs)
-    holds_current: bool
+    holds_current: bool  # the goal is met with none of the swept flow (the other as set)
     all_tugs_min_ms: np.ndarray | None = None  # (D,) below this the fixed load wins (all tugs)
     with_lost: bool = True
+    all_tugs_max_ms: np.ndarray | None = None  # (D,) the top of that band (all tugs)
+    calm_fails: tuple[str, ...] = ()  # tugs whose loss leaves the goal unmet in calm
 
     @property
     def flow(self) -> Flow:
@@ -264,6 +282,36 @@ class HoldLimits:
         v = self.all_tugs_ms if curve is None else curve
         i = int(np.argmin(v))
         return float(self.problem.directions_deg[i]), float(v[i])
+
+    def _aim(self) -> str:
+        kind = self.problem.goal_kind
+        if kind == "hold":
+            return "hold the body"
+        return f"meet the goal ({GOAL_WORDS[kind].split(':')[0]})"
+
+    def meaning(self) -> str:
+        """What a limit means, in words every view prints with it."""
+        if self.problem.goal_kind == "hold":
+            return f"the highest {self.flow} held, from calm up"
+        return f"the highest {self.flow} up to which the tugs {self._aim()}, from calm up"
+
+    def calm_words(self) -> str:
+        """The goal not met even in calm, in words ("" when it is met): all tugs, or
+        which tugs' loss. Every view says it with these words."""
+        other = "current" if self.flow == "wind" else "wind"
+        aim = self._aim()
+        if not self.holds_current:
+            return (
+                f"The tugs cannot {aim} with no {self.flow} (the {other} as set): no {self.flow} "
+                f"is held from calm, the limit is 0 from every direction"
+            )
+        if self.with_lost and self.calm_fails:
+            return (
+                f"With {' or '.join(self.calm_fails)} lost the tugs cannot {aim} even with no "
+                f"{self.flow} (the {other} as set): the limit with the worst tug lost is 0 from "
+                "every direction"
+            )
+        return ""
 
 
 def _scales(problem: HoldLimitsProblem) -> np.ndarray:
@@ -288,6 +336,7 @@ class _Sweep:
     s_out: np.ndarray  # (D,) the exits carried to the fine set
     shapes: WrenchPolygons  # fine, scaled
     coarse: WrenchPolygons  # coarse, scaled (the same object when nothing is coarser)
+    calm: bool  # the start lies in the fine set: the goal is met with no swept flow
 
     @property
     def normals(self) -> np.ndarray:
@@ -325,7 +374,28 @@ def _sweep_steps(problem: HoldLimitsProblem) -> Steps[_Sweep]:
     if coarse is not shapes and full.inside:
         yield
         s_out = _refine(shapes, coarse, fac, full.facet, start, rays, s_out)
-    return _Sweep(fac, parts, start, rays, full, s_out, shapes, coarse)
+    calm = full.inside or _holds_start(fac.normals, shapes, start)
+    return _Sweep(fac, parts, start, rays, full, s_out, shapes, coarse, calm)
+
+
+def _holds_start(normals: np.ndarray, shapes: WrenchPolygons, start: np.ndarray) -> bool:
+    """Whether ``start`` (3,) lies in the fleet's set ``shapes`` (scaled), for a start
+    outside a coarser set whose half-spaces have ``normals`` (P, 3): outside the fine set's
+    supports on those normals it lies outside; else a linear programme says (each tug's
+    wrench a share of its polygon's vertices, the shares at most 1 together)."""
+    if len(normals):
+        fine = support_parts(normals, shapes).sum(axis=1)
+        if np.any(normals @ start > fine + _SLACK + _SLACK * np.abs(fine)):
+            return False
+    verts, tug = shapes.vertices()  # (3, K), (K,)
+    n, k = shapes.n, verts.shape[1]
+    a = np.zeros((3 + n, k + n))
+    a[:3, :k] = verts
+    a[3 + tug, np.arange(k)] = 1.0
+    a[3:, k:] = np.eye(n)  # each tug's share left unused (its polygon holds the origin)
+    b = np.concatenate([start, np.ones(n)])
+    got = solve_lp(np.zeros(k + n), a, b, np.ones(k + n))
+    return got.ok
 
 
 def _refine(
@@ -362,13 +432,16 @@ def _refine(
     return out
 
 
-def _worst_lost(sw: _Sweep, every: int = 1) -> tuple[np.ndarray, np.ndarray]:
+def _worst_lost(sw: _Sweep, every: int = 1) -> tuple[np.ndarray, np.ndarray, tuple[int, ...]]:
     return run_steps(_worst_lost_steps(sw, every))
 
 
-def _worst_lost_steps(sw: _Sweep, every: int = 1) -> Steps[tuple[np.ndarray, np.ndarray]]:
+def _worst_lost_steps(
+    sw: _Sweep, every: int = 1
+) -> Steps[tuple[np.ndarray, np.ndarray, tuple[int, ...]]]:
     """The sweep with the worst one tug lost, on every ``every``-th direction: (D',) the
-    load factor and (D',) the tug whose loss sets it.
+    load factor, (D',) the tug whose loss sets it, and the tugs whose loss leaves the goal
+    unmet with none of the swept flow (their limit is 0 from every direction).
 
     Tugs whose loss leaves the start inside a solid set share the fleet's half-spaces
     (core.solve.polytope.worst_lost_exit: one cut for all of them); on finer polygons the
@@ -382,7 +455,9 @@ def _worst_lost_steps(sw: _Sweep, every: int = 1) -> Steps[tuple[np.ndarray, np.
     worst = np.full(d, np.inf)
     who = np.zeros(d, dtype=int)
     if not n:
-        return np.zeros(d), who
+        return np.zeros(d), who, ()
+    if not sw.calm:  # not met in calm with every tug: nor with any one lost
+        return np.zeros(d), who, tuple(range(n))
     full = sw.full
     if every != 1:
         full = Exit(full.s_out[::every], full.s_in[::every], full.inside, full.facet[::every])
@@ -398,13 +473,19 @@ def _worst_lost_steps(sw: _Sweep, every: int = 1) -> Steps[tuple[np.ndarray, np.
         if sw.coarse is not sw.shapes:
             yield
             worst, who = _refine_worst(sw, rays, fast, worst, who, facet)
+    fails: list[int] = []
     for k in np.flatnonzero(~np.isin(np.arange(n), fast)):
         yield
-        row = _lost_alone(sw, int(k), rays, support, solid[k])
+        row, calm = _lost_alone(sw, int(k), rays, support, solid[k])
+        if not calm:
+            fails.append(int(k))
+            row = np.zeros(d)
         lower = row < worst
         worst = np.where(lower, row, worst)
         who = np.where(lower, k, who)
-    return worst, who
+    if fails:  # a loss that fails in calm is named where it sets the (zero) limit
+        who = np.full(d, fails[0])
+    return worst, who, tuple(fails)
 
 
 def _refine_worst(
@@ -441,23 +522,25 @@ def _refine_worst(
 
 def _lost_alone(
     sw: _Sweep, k: int, rays: np.ndarray, support: np.ndarray, solid: bool
-) -> np.ndarray:
+) -> tuple[np.ndarray, bool]:
     """(D',) the sweep with tug k lost, on its own (its loss leaves the start outside the
-    fleet's set, or flattens it)."""
+    fleet's set, or flattens it), and whether the start lies in the set without it."""
     finer = sw.coarse is not sw.shapes
+    fine = sw.shapes.without(k)
     if solid:
         ex = ray_exit(sw.normals, support - sw.parts[:, k], sw.start, rays)
         if finer and ex.inside:
             lost = np.full(rays.shape[1], k)
-            return _refine(sw.shapes, sw.coarse, sw.fac, ex.facet, sw.start, rays, ex.s_out, lost)
-        return ex.s_out
+            s = _refine(sw.shapes, sw.coarse, sw.fac, ex.facet, sw.start, rays, ex.s_out, lost)
+            return s, True
+        return ex.s_out, ex.inside or _holds_start(sw.normals, fine, sw.start)
     # losing this tug flattens the set: its own half-spaces are needed
-    rest, fine = sw.coarse.without(k), sw.shapes.without(k)
+    rest = sw.coarse.without(k)
     fac = facets(rest)
     ex = ray_exit(fac.normals, support_parts(fac.normals, rest).sum(axis=1), sw.start, rays)
     if finer and ex.inside:
-        return _refine(fine, rest, fac, ex.facet, sw.start, rays, ex.s_out)
-    return ex.s_out
+        return _refine(fine, rest, fac, ex.facet, sw.start, rays, ex.s_out), True
+    return ex.s_out, ex.inside or _holds_start(fac.normals, fine, sw.start)
 
 
 def _ranks_without_each(shapes: WrenchPolygons) -> np.ndarray:
@@ -486,6 +569,10 @@ def _ranks_without_each(shapes: WrenchPolygons) -> np.ndarray:
 _RANK_BATCH = 500_000
 
 
+#: A start this far (scaled units) outside the fine set's supports is outside it.
+_SLACK = 1e-9
+
+
 #: Load factors below this (scaled units) are rounding, not a limit: shown as 0.
 _S_TINY = 1e-10
 
@@ -495,21 +582,40 @@ def _speed(s: np.ndarray) -> np.ndarray:
     return np.sqrt(np.where(s < _S_TINY, 0.0, s))
 
 
+def _limits(
+    problem: HoldLimitsProblem,
+    sw: _Sweep,
+    worst: np.ndarray,
+    who: np.ndarray,
+    fails: tuple[int, ...],
+    with_lost: bool,
+) -> HoldLimits:
+    """The sweep's limits: held from calm up to the exit, or 0 where calm is not held."""
+    top = _speed(sw.s_out)
+    band = None if sw.calm else (_speed(sw.full.s_in), top)
+    return HoldLimits(
+        problem,
+        top if band is None else np.zeros_like(top),
+        _speed(worst),
+        who,
+        sw.calm,
+        None if band is None else band[0],
+        with_lost,
+        None if band is None else band[1],
+        tuple(problem.tugs[i] for i in fails) if with_lost else (),
+    )
+
+
 def hold_limits(problem: HoldLimitsProblem, *, with_lost: bool = True) -> HoldLimits:
     """Sweep every direction, all tugs and (``with_lost``) the worst one tug lost."""
     sw = _sweep(problem)
     d = sw.rays.shape[1]
     with_lost = with_lost and bool(problem.tugs)
-    worst, who = _worst_lost(sw) if with_lost else (np.zeros(d), np.zeros(d, dtype=int))
-    return HoldLimits(
-        problem,
-        _speed(sw.s_out),
-        _speed(worst),
-        who,
-        sw.full.inside,
-        _speed(sw.full.s_in),
-        with_lost,
+    none: tuple[int, ...] = ()
+    worst, who, fails = (
+        _worst_lost(sw) if with_lost else (np.zeros(d), np.zeros(d, dtype=int), none)
     )
+    return _limits(problem, sw, worst, who, fails, with_lost)
 
 
 def live_hold_limits(
@@ -531,20 +637,12 @@ def live_hold_limits_steps(
     mouse's moves, a few ms at a time)."""
     sw = yield from _sweep_steps(problem)
     d = sw.rays.shape[1]
-    limits = HoldLimits(
-        problem,
-        _speed(sw.s_out),
-        np.zeros(d),
-        np.zeros(d, dtype=int),
-        sw.full.inside,
-        _speed(sw.full.s_in),
-        False,
-    )
+    limits = _limits(problem, sw, np.zeros(d), np.zeros(d, dtype=int), (), False)
     if lost_step <= 0:
         return limits, problem.directions_deg[:0], np.zeros(0)
     k = int(lost_step)
     yield
-    worst, _ = yield from _worst_lost_steps(sw, k)
+    worst, _, _ = yield from _worst_lost_steps(sw, k)
     return limits, problem.directions_deg[::k], _speed(worst)
 
 

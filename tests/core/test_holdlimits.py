@@ -49,9 +49,20 @@ def _plan(
 
 
 def _linprog_limit(gens: np.ndarray, fixed: np.ndarray, wind: np.ndarray) -> float:
-    """max s: G g + s w = -fixed, 0 <= g <= 1 (HiGHS), as V = sqrt(s)."""
+    """max s: G g + s w = -fixed, 0 <= g <= 1 (HiGHS), as V = sqrt(s); 0 when s = 0 is
+    not feasible (then the winds met form a band that does not start at calm, and no
+    wind is held from calm)."""
     n = gens.shape[1]
     sc = np.array([1.0, 1.0, 1 / 80.0]) / max(np.abs(gens).max(), 1.0)
+    calm = linprog(
+        np.zeros(n),
+        A_eq=gens * sc[:, None],
+        b_eq=-fixed * sc,
+        bounds=[(0, 1)] * n,
+        method="highs",
+    )
+    if calm.status == 2:
+        return 0.0
     for options in (TIGHT, {}):  # tight tolerances, or HiGHS's own where they trip it up
         r = linprog(
             np.r_[np.zeros(n), -1.0],
@@ -149,12 +160,15 @@ def test_current_too_strong_alone_is_held_only_with_a_head_wind() -> None:
     lim = hold_limits(hold_limits_problem(project, stage))
     assert not lim.holds_current
     f_current, k_wind = 0.5 * 1025 * 0.6 * 60.0 * 9.0, 0.5 * 1.225 * 0.8 * 80.0
-    assert lim.all_tugs_ms[0] == pytest.approx(math.sqrt(f_current / k_wind), rel=1e-9)
+    # No wind is held from calm: the limit is 0; the band is given apart.
+    assert np.all(lim.all_tugs_ms == 0.0)
+    assert lim.all_tugs_max_ms is not None
+    assert lim.all_tugs_max_ms[0] == pytest.approx(math.sqrt(f_current / k_wind), rel=1e-9)
     assert lim.all_tugs_min_ms is not None
     assert lim.all_tugs_min_ms[0] == pytest.approx(
         math.sqrt((f_current - 5 * TF) / k_wind), rel=1e-9
     )
-    assert np.all(lim.all_tugs_ms[1:] == 0.0)  # from anywhere else the wind cannot help
+    assert np.all(lim.all_tugs_max_ms[1:] == 0.0)  # from anywhere else the wind cannot help
 
 
 @pytest.mark.parametrize("tiny", [1e-300, 1e-320])
@@ -279,11 +293,16 @@ def test_worst_lost_names_the_tug() -> None:
     assert lim.worst_lost_ms[90] == pytest.approx(0.0, abs=1e-9)  # one tug alone turns the body
 
 
+LIVE_LEADS = [90.0, 270.0, 45.0, 180.0, 0.0, 200.0, 250.0, 100.0]
+
+
 def test_live_sweep_is_the_full_sweep_on_fewer_directions() -> None:
     from core.solve.holdlimits import live_hold_limits
 
     cond = Conditions(wind_speed_ms=10.0, current_speed_ms=0.4, current_towards_deg=30.0)
-    project, stage = _plan([90.0, 270.0, 45.0, 180.0], [30.0, 40.0, 25.0, 20.0], conditions=cond)
+    # eight fixed leads that hold the current with any one tug lost (with the first four
+    # alone the current is not held in calm, and no wind is: every limit would be 0)
+    project, stage = _plan(LIVE_LEADS, [30.0, 40.0, 25.0] + [20.0] * 5, conditions=cond)
     p = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 5.0))
     full = hold_limits(p)
     lim, dirs, worst = live_hold_limits(p, lost_step=2)
@@ -300,7 +319,9 @@ def test_the_live_sweep_in_steps_is_the_sweep_in_one_go(sectors: bool) -> None:
     from core.solve.holdlimits import live_hold_limits, live_hold_limits_steps
 
     cond = Conditions(wind_speed_ms=10.0, current_speed_ms=0.4, current_towards_deg=30.0)
-    project, stage = _plan([90.0, 270.0, 45.0, 180.0], [30.0, 40.0, 25.0, 20.0], conditions=cond)
+    # eight fixed leads that hold the current with any one tug lost (with the first four
+    # alone the current is not held in calm, and no wind is: every limit would be 0)
+    project, stage = _plan(LIVE_LEADS, [30.0, 40.0, 25.0] + [20.0] * 5, conditions=cond)
     if sectors:
         wide = tuple(
             replace(p, lead_sector_rad=(p.lead_rad - 0.6, p.lead_rad + 0.6))
