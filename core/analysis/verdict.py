@@ -9,7 +9,8 @@ own go / no-go limit; the water is no deeper than the body's draught (aground); 
 the conditions ask for cannot be worked out (the reason says which input is missing). Whether the fleet can hold the planned wind and current is
 the hold goal's own solve (the hold limits, for the same conditions, say it again with the
 margin, and are quoted in the reason). It is a **caution** when it passes with every tug but not
-with the worst tug lost, when no goal is set ("the pulls as set"), and for every other
+with the worst tug lost, when no goal is set ("the pulls as set"), when from some
+direction the tugs hold less wind than the stage's own wind limit, and for every other
 warning (a steep line, a fitting not rated for the tug's bollard pull, two tugs at one
 point, an under-keel clearance below the stage's margin...). Otherwise it is **go**. Nothing says "go" that is not.
 """
@@ -21,6 +22,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Literal
 
+from core.analysis.wind_limit import wind_limit_words
 from core.frames import angle_to_bearing, turning_words
 from core.mechanics.clearance import Clearance, clearance_notices
 from core.mechanics.towline import towline_notices
@@ -148,6 +150,7 @@ def judge(
             if n.startswith("pulls not solved")
         )
         out.extend(_swing_reasons(b, u))
+        out.extend(_wind_limit_reasons(stage, b, u))
     out.extend(_from_notice(n) for n in clearance_notices(tuple(clearances), u))
     out.extend(_limit_reasons(stage, u))
     return verdict_of(_unique(out))
@@ -327,6 +330,15 @@ def _hold_words(stage: Stage, b: BodyResult, u: DisplayUnits) -> str:
         f"; they hold at most {u.show(v, 'speed')} of wind from {c.wind_from_deg:03.0f}° true "
         f"(planned {u.show(c.wind_speed_ms, 'speed')})"
     )
+
+
+def _wind_limit_reasons(stage: Stage, b: BodyResult, u: DisplayUnits) -> list[Reason]:
+    """A caution when the tugs hold less than the stage's wind limit from some direction
+    (core.analysis.wind_limit), from the body's hold limits already swept."""
+    if b.goal is None or b.hold_limits is None:
+        return []
+    text = wind_limit_words(b.hold_limits, stage.limits.max_wind_ms, u)
+    return [reason("wind_limit_not_held_all_round", f"{b.name}: {text}", b.name)] if text else []
 
 
 def _limit_reasons(stage: Stage, u: DisplayUnits) -> list[Reason]:
