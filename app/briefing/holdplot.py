@@ -169,11 +169,17 @@ class HoldPlot:
             facts.append(lim.calm_words() + ".")
         if self.current is not None:
             facts.append(self.current_words())
-        beyond = ~np.isfinite(all_v) | (all_v > top * (1 + 1e-9))
-        if np.any(beyond):
+        beyond = [
+            f"{int(np.count_nonzero(far))} directions for {name}"
+            for name, v in (("all tugs", all_v), ("the worst tug lost", lost_v))
+            if v is not None
+            for far in [~np.isfinite(v) | (v > top * (1 + 1e-9))]
+            if np.any(far)
+        ]
+        if beyond:
             facts.append(
-                f"From {int(np.count_nonzero(beyond))} directions the limit is beyond the outer "
-                f"ring ({fmt(top, 0)} {sp}) and is drawn on it."
+                f"Limits beyond the outer ring ({fmt(top, 0)} {sp}) are drawn on it: from "
+                f"{' and from '.join(beyond)}."
             )
         width = rect.right() - x
         p.setFont(ctx.font(7.0))

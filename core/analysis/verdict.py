@@ -29,7 +29,7 @@ from core.mechanics.towline import towline_notices
 from core.model.goals import GOAL_WORDS
 from core.model.plan import Project, Stage
 from core.notices import Notice
-from core.solve.holdlimits import limit_at
+from core.solve.holdlimits import limit_at, limit_words
 from core.solve.pulls import shortfall_words
 from core.units import DisplayUnits
 
@@ -327,7 +327,7 @@ def _hold_words(stage: Stage, b: BodyResult, u: DisplayUnits) -> str:
     if not math.isfinite(v):
         return ""
     return (
-        f"; they hold at most {u.show(v, 'speed')} of wind from {c.wind_from_deg:03.0f}° true "
+        f"; they hold at most {limit_words(v, u)} of wind from {c.wind_from_deg:03.0f}° true "
         f"(planned {u.show(c.wind_speed_ms, 'speed')})"
     )
 

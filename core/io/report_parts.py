@@ -17,7 +17,15 @@ from core.analysis.swing import is_swing_stage, swing_words
 from core.frames import angle_to_bearing, turning_words
 from core.mechanics.fittings import FittingLoad, FittingTotal
 from core.model.plan import Stage
-from core.solve.holdlimits import HoldLimits, limit_at
+from core.solve.holdlimits import (
+    SHOWN_UP_TO_MS,
+    HoldLimits,
+    above_words,
+    limit_at,
+    limit_cell,
+    limit_words,
+    shown_limit,
+)
 from core.solve.pulls import (
     PullsResult,
     shortfall_words,
@@ -177,32 +185,37 @@ def solve_json(br: BodyResult) -> dict[str, Any] | None:
 
 
 def hold_limits_json(stage: Stage, lim: HoldLimits | None) -> dict[str, Any] | None:
+    """The hold limits, m/s, each as every view reports it (core.solve.holdlimits.
+    shown_limit): null above ``shown_up_to_ms``."""
     if lim is None:
         return None
     d_lo, v_lo = lim.lowest()
     w = lim.worst_lost_ms
     planned = limit_at(lim, stage.conditions.wind_from_deg)
+
+    def shown(values: np.ndarray) -> list[float | None]:
+        return [shown_limit(float(v)) for v in values]
+
     return {
         "wind_measure": "mean speed at the stage's wind height, with its gust factor",
         "meaning": "the goal is met for every wind from calm up to the limit; 0: not even in calm",
+        "shown_up_to_ms": SHOWN_UP_TO_MS["wind"],
+        "null_means": "above shown_up_to_ms",
         "holds_current_alone": lim.holds_current,
         "goal_not_met_in_calm": lim.calm_words() or None,
         "tugs_whose_loss_fails_in_calm": list(lim.calm_fails),
         "directions_true_deg": [float(d) for d in lim.problem.directions_deg],
-        "all_tugs_ms": [_finite(v) for v in lim.all_tugs_ms],
+        "all_tugs_ms": shown(lim.all_tugs_ms),
         "all_tugs_band_ms": None
         if lim.all_tugs_min_ms is None or lim.all_tugs_max_ms is None
-        else {
-            "lowest": [_finite(v) for v in lim.all_tugs_min_ms],
-            "highest": [_finite(v) for v in lim.all_tugs_max_ms],
-        },
-        "worst_tug_lost_ms": [_finite(v) for v in w],
+        else {"lowest": shown(lim.all_tugs_min_ms), "highest": shown(lim.all_tugs_max_ms)},
+        "worst_tug_lost_ms": shown(w),
         "worst_tug_lost": list(lim.worst_lost_tug),
-        "lowest_all_tugs": {"from_true_deg": d_lo, "speed_ms": _finite(v_lo)},
+        "lowest_all_tugs": {"from_true_deg": d_lo, "speed_ms": shown_limit(v_lo)},
         "at_planned_wind_direction": {
             "from_true_deg": stage.conditions.wind_from_deg,
-            "all_tugs_ms": _finite(planned),
-            "worst_tug_lost_ms": _finite(limit_at(lim, stage.conditions.wind_from_deg, w))
+            "all_tugs_ms": shown_limit(planned),
+            "worst_tug_lost_ms": shown_limit(limit_at(lim, stage.conditions.wind_from_deg, w))
             if len(w)
             else None,
             "planned_ms": stage.conditions.wind_speed_ms,
@@ -384,7 +397,7 @@ def hold_limit_lines(stage: Stage, lim: HoldLimits | None, u: DisplayUnits) -> l
     w = lim.worst_lost_ms
 
     def show(v: float) -> str:
-        return "  beyond" if not math.isfinite(v) else f"{u.value(v, 'speed'):>8.1f}"
+        return limit_cell(v, u).rjust(8)
 
     out = [
         f"  Hold limits     {lim.meaning()}, by true direction ({sp}, as the stage's wind "
@@ -399,9 +412,14 @@ def hold_limit_lines(stage: Stage, lim: HoldLimits | None, u: DisplayUnits) -> l
     d_lo, v_lo = lim.lowest()
     c = stage.conditions
     planned = limit_at(lim, c.wind_from_deg)
+    curves = (None, w) if len(w) else (None,)
+    if any(
+        shown_limit(limit_at(lim, float(d), v)) is None for d in TEXT_DIRECTIONS for v in curves
+    ):
+        out.append(f"    ({above_words(u)})")
     out.append(
-        f"    lowest {show(v_lo).strip()} {sp} from {d_lo:03.0f} true; from the planned "
-        f"{c.wind_from_deg:03.0f} true: {show(planned).strip()} {sp} against the planned "
+        f"    lowest {limit_words(v_lo, u)} from {d_lo:03.0f} true; from the planned "
+        f"{c.wind_from_deg:03.0f} true: {limit_words(planned, u)} against the planned "
         f"{u.show(c.wind_speed_ms, 'speed')}"
     )
     calm = lim.calm_words()

@@ -71,13 +71,16 @@ from core.units import DisplayUnits
 __all__ = [
     "HoldLimits",
     "HoldLimitsProblem",
+    "above_words",
     "hold_limits",
     "hold_limits_problem",
     "limit_at",
+    "limit_cell",
     "limit_words",
     "live_hold_limits",
     "live_hold_limits_steps",
     "run_steps",
+    "shown_limit",
     "zonotope_normals",
 ]
 
@@ -655,14 +658,36 @@ def limit_at(limits: HoldLimits, wind_from_deg: float, curve: np.ndarray | None 
     return float(np.interp(wind_from_deg % 360.0, np.append(d, d[0] + 360.0), np.append(v, v[0])))
 
 
+def shown_limit(speed_ms: float, flow: Flow = "wind") -> float | None:
+    """A limit as every view reports it: the speed, m/s, or None when it lies above
+    :data:`SHOWN_UP_TO_MS` (or is unbounded), said as "above N" (a figure beyond that
+    says nothing a planner can use)."""
+    if not math.isfinite(speed_ms) or speed_ms > SHOWN_UP_TO_MS[flow]:
+        return None
+    return max(float(speed_ms), 0.0)
+
+
+def limit_cell(speed_ms: float, units: DisplayUnits, flow: Flow = "wind") -> str:
+    """A limit in a table cell, display units, no unit: "12.3", or "above" beyond
+    :data:`SHOWN_UP_TO_MS` (the table says how far that is: :func:`above_words`)."""
+    v = shown_limit(speed_ms, flow)
+    return "above" if v is None else f"{units.value(v, 'speed'):.1f}"
+
+
+def above_words(units: DisplayUnits, flow: Flow = "wind") -> str:
+    """What "above" in a table of limits means."""
+    return f"above: more than {units.show(SHOWN_UP_TO_MS[flow], 'speed')}"
+
+
 def limit_words(speed_ms: float, units: DisplayUnits, flow: Flow = "wind") -> str:
     """A limit for people: "above 60.0 kn" beyond :data:`SHOWN_UP_TO_MS`, else the speed.
 
-    A limit of zero is "none": the fleet cannot meet the goal against any of that flow.
+    A limit of zero is "0 kn (not held)": the fleet cannot meet the goal against any of
+    that flow from there (or not even in calm).
     """
-    cap = SHOWN_UP_TO_MS[flow]
-    if not math.isfinite(speed_ms) or speed_ms > cap:
-        return f"above {units.show(cap, 'speed')}"
-    if speed_ms <= 0:
-        return "none"
-    return units.show(speed_ms, "speed")
+    v = shown_limit(speed_ms, flow)
+    if v is None:
+        return f"above {units.show(SHOWN_UP_TO_MS[flow], 'speed')}"
+    if v <= 0:
+        return f"{units.show(0.0, 'speed')} (not held)"
+    return units.show(v, "speed")

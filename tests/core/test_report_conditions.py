@@ -66,10 +66,14 @@ def test_json_has_the_conditions_the_solve_and_the_hold_limits() -> None:
     assert solve["tug_lost"]["passes"] is False
     hl = st["hold_limits"]
     assert len(hl["directions_true_deg"]) == 360
-    # Closed form from the port beam: 60 t = 1/2 rho C A V^2.
+    # Closed form from the port beam: 60 t = 1/2 rho C A V^2, 50.0 m/s (97 kn): above the
+    # range every view reports (60 kn), so null, as the window and briefing say "above"
+    # (the sweep's own figure is checked in tests/core/test_holdlimits.py).
     v = math.sqrt(60 * TF / (0.5 * 1.225 * 1.2 * 320.0))
-    assert hl["all_tugs_ms"][270] == pytest.approx(v, rel=1e-9)
-    assert hl["at_planned_wind_direction"]["all_tugs_ms"] == pytest.approx(v, rel=1e-9)
+    assert v > hl["shown_up_to_ms"]
+    assert hl["null_means"] == "above shown_up_to_ms"
+    assert hl["all_tugs_ms"][270] is None
+    assert hl["at_planned_wind_direction"]["all_tugs_ms"] is None
     assert hl["worst_tug_lost_ms"][270] == pytest.approx(0.0, abs=1e-9)
 
 
