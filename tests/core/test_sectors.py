@@ -139,21 +139,30 @@ def _reference_reach(cols: np.ndarray, owner: np.ndarray, target: np.ndarray) ->
 def _reference_limit(
     cols: np.ndarray, owner: np.ndarray, start: np.ndarray, ray: np.ndarray
 ) -> float:
-    """max s: sum of lambda_j w_j = start + s ray (the hold limit's LP), as V = sqrt(s)."""
+    """max s: sum of lambda_j w_j = start + s ray (the hold limit's LP), as V = sqrt(s);
+    0 when the start itself (calm) is not met: a limit is held from calm up."""
     n, k = int(owner.max()) + 1, cols.shape[1]
     sc = np.array([1.0, 1.0, 1.0 / L]) / np.abs(cols[:2]).max()
     a_ub = np.zeros((n, k + 1))
     a_ub[owner, np.arange(k)] = 1.0
-    r = linprog(
-        np.r_[np.zeros(k), -1.0],
-        A_ub=a_ub,
-        b_ub=np.ones(n),
-        A_eq=np.c_[cols * sc[:, None], -ray * sc],
-        b_eq=start * sc,
-        bounds=[(0, None)] * (k + 1),
-        method="highs",
-    )
-    return math.sqrt(max(float(r.x[-1]), 0.0)) if r.status == 0 else 0.0
+    got = []
+    for sense in (-1.0, 1.0):  # the largest s, then the smallest
+        r = linprog(
+            np.r_[np.zeros(k), sense],
+            A_ub=a_ub,
+            b_ub=np.ones(n),
+            A_eq=np.c_[cols * sc[:, None], -ray * sc],
+            b_eq=start * sc,
+            bounds=[(0, None)] * (k + 1),
+            method="highs",
+        )
+        if r.status != 0:
+            return 0.0
+        got.append(float(r.x[-1]))
+    s_max, s_min = got
+    if s_min > 1e-6 * max(s_max, 1e-12):  # met only in a band that does not start at calm
+        return 0.0
+    return math.sqrt(max(s_max, 0.0))
 
 
 # -- plans ------------------------------------------------------------------------------
