@@ -533,9 +533,7 @@ class BalanceDrawing:
             )
             self.action.setVisible(True)
             self.action.setPen(style.pen(colour or style.LINE_OF_ACTION, 1.0, Qt.PenStyle.DashLine))
-            if balance.centreline_x is not None and abs(balance.centreline_x) < 10 * max(
-                body.length, 1
-            ):
+            if balance.crossing_shown and balance.centreline_x is not None:
                 self.crossing.setPos(balance.centreline_x, 0.0)
                 self.crossing.setVisible(True)
                 self.cross_label.setPos(balance.centreline_x, 0.0)
@@ -552,12 +550,7 @@ class BalanceDrawing:
             self.cross_label.setVisible(False)
         # ahead of the centroid to starboard, clear of the yaw arrow (drawn astern of it)
         self.state.setPos(cx + 0.25 * body.length, cy - 0.22 * body.beam)
-        if eq.kind == "couple":
-            self.state.set_text("pure couple: no single equivalent force")
-        elif eq.kind == "balanced":
-            self.state.set_text("balanced: no net force, no yaw moment")
-        else:
-            self.state.set_text("")
+        self.state.set_text("" if eq.kind == "force" else balance.equivalent_words(units))
         self.state.setVisible(eq.kind != "force")
         self.stale.setPos(cx, cy)
         # the board says it briefly; the balance panel gives the whole reason

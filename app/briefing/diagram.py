@@ -382,7 +382,7 @@ class StageDiagram:
         c = f.to_px((pt[0] + d[0] * reach, pt[1] + d[1] * reach))
         p.setPen(QPen(style.LINE_OF_ACTION, ctx.mm(0.3), Qt.PenStyle.DashLine))
         p.drawLine(a, c)
-        if b.centreline_x is not None:
+        if b.crossing_shown and b.centreline_x is not None:
             x = f.to_px(pl.point((b.centreline_x, 0.0)))
             if f.area.contains(x):
                 draw_crossing(p, x, ctx.mm(1.6), style.LINE_OF_ACTION, ctx.mm(0.3))

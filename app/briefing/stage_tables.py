@@ -193,19 +193,10 @@ def balance_table(project: Project, result: StageResult, body: BodyResult) -> li
             f"{signed(u, b.moment_cog_nm, 'moment')} about the centre of gravity",
         ],
     ]
-    if eq.kind == "couple":
-        rows.append(["Equivalent", "a pure couple: no single force, no line of action"])
-    elif eq.kind == "balanced":
-        rows.append(["Equivalent", "balanced: no net force and no yaw moment"])
+    if eq.kind == "force":
+        rows.append(["Equivalent force", f"{b.equivalent_words(u)} (dashed on the diagram)"])
     else:
-        rows.append(
-            [
-                "Equivalent force",
-                f"{u.show(eq.magnitude, 'force')} on a line "
-                f"{u.show(abs(eq.offset_m or 0.0), 'length')} from the centroid, "
-                f"{b.crossing_words(u)} (dashed on the diagram)",
-            ]
-        )
+        rows.append(["Equivalent", b.equivalent_words(u)])
     for ld in b.loads:
         rows.append(
             [

@@ -170,12 +170,8 @@ class BalancePanel(QWidget):
         self._set(
             "moment_cog", f"{fmt.signed(u, b.moment_cog_nm, 'moment')}  {b.turning_about_cog}"
         )
-        if eq.kind == "couple":
-            self._set("equivalent", "a pure couple: no single force, no line of action")
-            self._set("offset", "—")
-            self._set("crossing", "—")
-        elif eq.kind == "balanced":
-            self._set("equivalent", "balanced: no net force and no yaw moment")
+        if eq.kind != "force":
+            self._set("equivalent", b.equivalent_words(u))
             self._set("offset", "—")
             self._set("crossing", "—")
         else:
@@ -189,7 +185,7 @@ class BalancePanel(QWidget):
             self._set(
                 "crossing",
                 b.crossing_words(u).replace("crosses the centreline at ", "")
-                + ("" if b.crossing_is_far else " from the reference point"),
+                + (" from the reference point" if b.crossing_shown else ""),
             )
         # While a drag is in progress the verdict waits; the balance's own warnings follow it.
         notices = [n.message for n in b.notices] if self.controller.previewing else []

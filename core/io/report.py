@@ -56,6 +56,7 @@ def balance_json(b: Balance) -> dict[str, Any]:
             "offset_from_centroid_m": eq.offset_m,
             "crosses_centreline_at_x_m": b.centreline_x,
             "crossing_far_off_the_hull": b.crossing_is_far,
+            "along_centreline": b.along_centreline,
             "enters_outline_m": None if b.chord is None else list(b.chord[0]),
             "leaves_outline_m": None if b.chord is None else list(b.chord[1]),
         },
@@ -145,7 +146,7 @@ def _stage_json(r: StageResult) -> dict[str, Any]:
 
 def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
     eq = b.equivalent
-    f, m, ln = u.unit("force"), u.unit("moment"), u.unit("length")
+    f, m = u.unit("force"), u.unit("moment")
     lines = []
     bearing = "" if b.net_bearing_deg is None else f" towards {b.net_bearing_deg:05.1f} relative"
     lines.append(
@@ -161,16 +162,7 @@ def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
     lines.append(
         f"                  {fmt(u.value(b.moment_cog_nm, 'moment'), signed=True)} {label(m)} about the centre of gravity"
     )
-    if eq.kind == "couple":
-        lines.append("  Equivalent      a pure couple: no single force, no line of action")
-    elif eq.kind == "balanced":
-        lines.append("  Equivalent      balanced: no net force and no yaw moment")
-    else:
-        cross = b.crossing_words(u)
-        lines.append(
-            f"  Equivalent      {u.show(eq.magnitude, 'force')} on a line "
-            f"{abs(u.value(eq.offset_m or 0.0, 'length')):.1f} {ln} from the centroid; {cross}"
-        )
+    lines.append(f"  Equivalent      {b.equivalent_words(u)}")
     lines.append(
         f"  {'Tug':<14}{'Point':<22}{'Mode':<6}{'Setting':>8}{'Pull':>12}{'Bearing':>9}{'Moment':>14}{'Use':>6}"
     )

@@ -23,6 +23,7 @@ from core.mechanics.forces import (
     equivalent_of,
     moment_of,
     moments_about,
+    negligible,
     transfer_moment,
 )
 from core.mechanics.leads import ends_on_hull, over_hull_allowance_m, over_hull_m
@@ -33,17 +34,15 @@ from core.model.tugs import Placement
 from core.notices import Notice
 from core.units import DisplayUnits
 
-#: A line of action that crosses the centreline further than this many body lengths from
-#: the centroid is, for people, "nearly parallel" to it: the crossing is real but says
-#: nothing useful, and near parallel it is mostly rounding.
-FAR_CROSSING_LENGTHS = 10.0
-
-#: A net force below this fraction of the forces present (and a moment below that times the
-#: body's length) is said in words as none: "no net force", "no swing" (common practice,
-#: no source: half a percent is below what tugs can set or a planner would call a push).
-WORDS_TOLERANCE = 0.005
-#: ... and never below this, N (about 0.01 t).
-WORDS_FLOOR_N = 100.0
+#: A line of action that crosses the centreline more than this many body lengths beyond
+#: either end of the hull crosses it "far off the hull": the crossing is real but says
+#: nothing a tug master can use, and near parallel it is mostly rounding (common
+#: practice, no source).
+FAR_CROSSING_LENGTHS = 1.0
+#: A line of action that stays within this share of the body's length of the centreline
+#: from one end of the hull to the other lies "along the centreline" (common practice,
+#: no source: closer than a planner draws).
+ALONG_SHARE = 0.01
 
 #: Drawn distance from a push point to the pushing tug's centre, m.
 PUSH_STANDOFF_M = 8.0
@@ -329,49 +328,104 @@ class Balance:
     loads: tuple[Load, ...]
     notices: tuple[Notice, ...]
     length_m: float = 0.0  # the body's length overall, m
+    #: (force N, moment N*m) within which the net force and the yaw moment are negligible:
+    #: core.mechanics.forces.negligible of the tugs' pulls and the loads. The equivalent,
+    #: the words and every view read this one decision.
+    tolerance: tuple[float, float] = (0.0, 0.0)
+    ends_x: tuple[float, float] = (0.0, 0.0)  # the hull's aft and forward ends, body frame, m
+
+    @property
+    def along_centreline(self) -> bool:
+        """True when the line of action lies along the centreline over the whole hull
+        (within :data:`ALONG_SHARE` of the length at both ends)."""
+        eq = self.equivalent
+        if eq.point is None or eq.direction is None:
+            return False
+        (px, py), (ux, uy) = eq.point, eq.direction
+        if abs(ux) < 1e-12:
+            return False
+        near = ALONG_SHARE * max(self.length_m, 1.0)
+        return all(abs(py + (x - px) * uy / ux) <= near for x in self.ends_x)
 
     @property
     def crossing_is_far(self) -> bool:
-        """True when the centreline crossing lies far off the hull (or there is none)."""
+        """True when the line of action does not cross the centreline near the hull: no
+        crossing, or one more than :data:`FAR_CROSSING_LENGTHS` lengths beyond an end."""
         if self.centreline_x is None:
             return True
-        return abs(self.centreline_x - self.centroid[0]) > FAR_CROSSING_LENGTHS * max(
-            self.length_m, 1.0
-        )
+        reach = FAR_CROSSING_LENGTHS * max(self.length_m, 1.0)
+        aft, fwd = self.ends_x
+        return not aft - reach <= self.centreline_x <= fwd + reach
 
     @property
-    def tolerance(self) -> tuple[float, float]:
-        """(force N, moment N*m) below which a net force or moment is said as none in words:
-        :data:`WORDS_TOLERANCE` of the forces present (tugs and loads), at least
-        :data:`WORDS_FLOOR_N`, and that times the body's length for moments. Words follow
-        what a planner would call a push or a swing, not the last digit of a number."""
-        scale = sum(abs(sh.pull_n) for sh in self.shares) + sum(
-            math.hypot(*ld.force) for ld in self.loads
-        )
-        tol_f = max(WORDS_TOLERANCE * scale, WORDS_FLOOR_N)
-        return tol_f, tol_f * max(self.length_m, 1.0)
+    def crossing_shown(self) -> bool:
+        """True when the crossing is worth marking and naming: near the hull, and the line
+        not along the centreline (where every point of it is a crossing)."""
+        return not self.crossing_is_far and not self.along_centreline
+
+    @property
+    def centreline_offset_m(self) -> float | None:
+        """Where the line of action passes abeam the centroid, m to port of the centreline
+        (None without a line of action or for a line square to the centreline)."""
+        eq = self.equivalent
+        if eq.point is None or eq.direction is None or abs(eq.direction[0]) < 1e-12:
+            return None
+        (px, py), (ux, uy) = eq.point, eq.direction
+        return py + (self.centroid[0] - px) * uy / ux
 
     @property
     def walking(self) -> str:
-        """Which way the net force moves the body, in words ("walks to port and moves ahead")."""
+        """Which way the net force moves the body, in words ("walks to port and moves ahead");
+        a negligible net force (the one decision, :attr:`tolerance`) moves it nowhere."""
+        if self.equivalent.kind != "force":
+            return (
+                "no net force" if self.net_magnitude == 0 else "no net force (within the tolerance)"
+            )
         return walking_words(*self.equivalent.force, self.tolerance[0])
 
     @property
     def turning(self) -> str:
         """Which way the yaw moment turns the body, in words ("swings bow to port")."""
-        return turning_words(self.equivalent.moment, self.tolerance[1])
+        return _turning(self.equivalent.moment, self.tolerance[1])
 
     @property
     def turning_about_cog(self) -> str:
-        return turning_words(self.moment_cog_nm, self.tolerance[1])
+        return _turning(self.moment_cog_nm, self.tolerance[1])
 
     def crossing_words(self, units: DisplayUnits) -> str:
-        """Where the line of action crosses the centreline, in words for people."""
+        """Where the line of action lies against the centreline, in words for people."""
+        if self.along_centreline:
+            return "along the centreline"
+        if self.crossing_shown and self.centreline_x is not None:
+            return f"crosses the centreline at x = {units.show(self.centreline_x, 'length')}"
+        off = self.centreline_offset_m
+        side = (
+            ""
+            if off is None
+            else (
+                f", {units.show(abs(off), 'length')} to {'port' if off > 0 else 'starboard'} of it"
+            )
+        )
         if self.centreline_x is None:
-            return "parallel to the centreline"
-        if self.crossing_is_far:
-            return "nearly parallel to the centreline (it crosses it far off the hull)"
-        return f"crosses the centreline at x = {units.show(self.centreline_x, 'length')}"
+            return "parallel to the centreline" + side
+        d = self.equivalent.direction
+        if d is not None and abs(d[1]) > abs(d[0]):  # steeper than 45 deg to the centreline
+            x = units.show(self.centreline_x, "length")
+            return f"crosses the centreline far off the hull, at x = {x}"
+        return f"nearly parallel to the centreline{side} (it crosses it far off the hull)"
+
+    def equivalent_words(self, units: DisplayUnits) -> str:
+        """The single equivalent force in words: a force on a line, a couple, or nothing."""
+        eq = self.equivalent
+        if eq.kind == "couple":
+            return f"a couple of {units.show(abs(eq.moment), 'moment')}, no single line of action"
+        if eq.kind == "balanced":
+            return "balanced: no net force and no yaw moment"
+        return (
+            f"{units.show(eq.magnitude, 'force')} on a line "
+            f"{units.show(abs(eq.offset_m or 0.0), 'length')} from the centroid; "
+            f"{self.crossing_words(units)}"
+        )
 
     @property
     def net_force(self) -> tuple[float, float]:
@@ -394,6 +448,16 @@ class Balance:
 
     def moment_about(self, point: tuple[float, float]) -> float:
         return self.equivalent.moment_about(point)
+
+
+def _within(value: float, tolerance: float) -> str:
+    """ " (within the tolerance)" for a negligible value that is more than rounding."""
+    return " (within the tolerance)" if abs(value) > 1e-3 * tolerance else ""
+
+
+def _turning(moment_nm: float, tolerance_nm: float) -> str:
+    words = turning_words(moment_nm, tolerance_nm)
+    return words + _within(moment_nm, tolerance_nm) if words == "no swing" else words
 
 
 def _chord(body: Body, eq: Equivalent) -> tuple[tuple[float, float], tuple[float, float]] | None:
@@ -512,6 +576,12 @@ def _kept_shares(
     return kept if same else None
 
 
+def _ends_x(body: Body) -> tuple[float, float]:
+    """The aft and forward ends of the body along its x axis, m."""
+    x0, _, x1, _ = body.polygon.bounds
+    return float(x0), float(x1)
+
+
 def analyse_layout(
     stage: Stage,
     body: Body,
@@ -535,12 +605,13 @@ def analyse_layout(
     tug_m = moments_about(layout.points, forces, c)  # (n,)
     net = forces.sum(axis=0)
     moment = float(tug_m.sum())
-    scale = float(pulls.sum())
+    scale = float(np.abs(pulls).sum())
     for ld in loads:
         net = net + np.asarray(ld.force)
         moment += ld.moment_about(c)
         scale += math.hypot(*ld.force)
-    eq = equivalent_of(net, moment, c, scale, body.length)
+    tolerance = negligible(scale, body.length)
+    eq = equivalent_of(net, moment, c, tolerance)
     cog = body.centre_of_gravity
     # plain floats once for all tugs (the same values float() of each element gives)
     pull_l, usable_l, rated_l = pulls.tolist(), layout.usable_n.tolist(), layout.rated_n.tolist()
@@ -587,6 +658,8 @@ def analyse_layout(
         loads=tuple(loads),
         notices=tuple(_notices(layout, pulls, body, units)),
         length_m=body.length,
+        tolerance=tolerance,
+        ends_x=_ends_x(body),
     )
 
 

@@ -18,12 +18,33 @@ from typing import Literal
 
 import numpy as np
 
-#: A net force is negligible when it is below this fraction of the sum of the force
-#: magnitudes present; a moment, when below this fraction of that sum times the
-#: body's length. Below both, the system is balanced; below the first only, a couple.
-NEGLIGIBLE = 1e-6
+#: The one rule for "negligible", read by the equivalent force, the words, the goal check
+#: and the solvers: a net force is negligible when it is within this share of what the
+#: stage deals in (the sum of the magnitudes of the tugs' pulls and of the loads), and a
+#: yaw moment when within that force times the body's length. Half a percent: below what a
+#: tug master can set or a planner can know of the conditions (common practice, no source).
+#: A force within it with a moment beyond it is a couple (statics: a system whose
+#: resultant is zero reduces to a couple, the same about every point); within both, the
+#: system is balanced.
+NEGLIGIBLE = 0.005
+#: ... and never below this, N (about 0.01 t): a stage with next to no forces says nothing
+#: of a few newtons.
+NEGLIGIBLE_FLOOR_N = 100.0
 
 EquivalentKind = Literal["force", "couple", "balanced"]
+
+
+def negligible(
+    scale_n: float, length_m: float, floor_n: float = NEGLIGIBLE_FLOOR_N
+) -> tuple[float, float]:
+    """(force N, moment N*m) within which a net force and a yaw moment are negligible.
+
+    ``scale_n`` is what the stage deals in (the tugs' pulls and the loads, N) and
+    ``length_m`` the body's length: :data:`NEGLIGIBLE` of the first, at least ``floor_n``,
+    and that times the length for the moment.
+    """
+    tol_f = max(NEGLIGIBLE * max(scale_n, 0.0), floor_n)
+    return tol_f, tol_f * max(length_m, 1.0)
 
 
 def cross2(a: np.ndarray, b: np.ndarray) -> np.ndarray:
@@ -101,27 +122,26 @@ def equivalent(
 
     The line of action is every r with (r - ref) x R = M_ref; its nearest point to
     ``ref`` is ref + M (R_y, -R_x) / |R|^2
-    (computed through the unit direction, so a tiny |R| cannot underflow). See :data:`NEGLIGIBLE` for couples and
-    balanced systems; ``length_scale`` (m, the body's length) sets the moment scale.
+    (computed through the unit direction, so a tiny |R| cannot underflow). Couples and
+    balanced systems by :func:`negligible` of the sum of the force magnitudes, with no
+    floor; ``length_scale`` (m, the body's length) sets the moment scale.
     """
     net, m = resultant(points, forces, ref)
-    return equivalent_of(
-        net, m, ref, float(np.hypot(forces[:, 0], forces[:, 1]).sum()), length_scale
-    )
+    scale = float(np.hypot(forces[:, 0], forces[:, 1]).sum())
+    return equivalent_of(net, m, ref, negligible(scale, length_scale, floor_n=0.0))
 
 
 def equivalent_of(
-    net: np.ndarray, moment: float, ref: tuple[float, float], scale_n: float, length_scale: float
+    net: np.ndarray, moment: float, ref: tuple[float, float], tolerance: tuple[float, float]
 ) -> Equivalent:
     """The equivalent of a known net force and moment about ``ref``.
 
-    ``scale_n`` is the sum of the magnitudes of the forces present, against which
-    "negligible" is judged.
+    ``tolerance`` is (force N, moment N*m) within which each is negligible
+    (:func:`negligible`): a negligible force is no force, and has no line of action.
     """
     fx, fy = float(net[0]), float(net[1])
     r = math.hypot(fx, fy)
-    tol_f = NEGLIGIBLE * scale_n
-    tol_m = NEGLIGIBLE * scale_n * max(length_scale, 1e-9)
+    tol_f, tol_m = tolerance
     if r <= tol_f:
         kind: EquivalentKind = "balanced" if abs(moment) <= tol_m else "couple"
         return Equivalent(kind, (fx, fy), moment, ref, None, None, None)

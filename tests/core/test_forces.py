@@ -108,7 +108,8 @@ def test_collinear_equal_and_opposite_pair_is_balanced() -> None:
 
 
 def test_negligible_is_relative_to_the_forces_present() -> None:
-    # A net of one millionth of the forces present is still a force; much less is not.
+    # A net of ten times the negligible share of the forces present is a force; a
+    # milli-newton in two meganewtons is not.
     big = 1e6
     pts = np.array([[0.0, 0.0], [0.0, 0.0]])
     small = equivalent(pts, np.array([[big, 0.0], [-big + 1e-3, 0.0]]), (0.0, 0.0))

@@ -213,7 +213,9 @@ def test_report_json_numbers_are_the_cores() -> None:
 def test_report_text_speaks_the_display_units_and_the_turning_sense() -> None:
     text = report_text(load(ROOT / "sample_projects" / "pontoon_swing.towboard"))
     assert "kN·m about the centroid, swings bow to port" in text
-    assert "a pure couple: no single force, no line of action" in text
+    # Alder and Damson 12 t each square to the centreline, 60 m apart: a pure couple of
+    # 12 x 60 = 720 t·m = 7060.8 kN·m (hand calculation; the sample's stage notes)
+    assert "a couple of 7060.8 kN·m, no single line of action" in text
     assert "Planning aid only" in text
     assert "-0.0" not in text
 
