@@ -37,12 +37,6 @@ from core.solve.holdlimits import HoldLimits, hold_limits, hold_limits_problem
 from core.solve.pulls import PullsResult, TugLostCheck, pulls_problem, tug_lost_check
 from core.units import DisplayUnits
 
-#: A goal is met by the pulls as set when the residual force is within this fraction of
-#: the forces present (at least :data:`GOAL_FLOOR_N`) and the residual moment within that
-#: times the body's length (common practice, no source: a 1 % planning tolerance).
-GOAL_TOLERANCE = 0.01
-GOAL_FLOOR_N = 1000.0
-
 
 @dataclass(frozen=True, slots=True, eq=False)
 class BodyResult:
@@ -62,7 +56,9 @@ class BodyResult:
     fittings: tuple[FittingLoad, ...]
     goal: Goal | None
     goal_residual: tuple[float, float, float] | None  # as set, less the goal's target
-    goal_tolerance: tuple[float, float]  # (force N, moment N*m) within which it is met
+    #: (force N, moment N*m) within which the goal is met: the balance's own tolerance
+    #: (core.mechanics.forces.negligible), the one that decides the words too
+    goal_tolerance: tuple[float, float]
     tug_lost: TugLostCheck | None  # the goal solved with every tug, and with each lost
     hold_limits: HoldLimits | None
     notes: tuple[str, ...] = ()
@@ -197,14 +193,6 @@ def worked_bodies(project: Project, stage: Stage) -> tuple[str, ...]:
     return tuple(names)
 
 
-def _goal_tolerance(balance: Balance, length_m: float) -> tuple[float, float]:
-    scale = sum(sh.pull_n for sh in balance.shares) + sum(
-        math.hypot(*ld.force) for ld in balance.loads
-    )
-    tol_f = max(GOAL_TOLERANCE * scale, GOAL_FLOOR_N)
-    return tol_f, tol_f * max(length_m, 1.0)
-
-
 def _residual(balance: Balance, goal: Goal) -> tuple[float, float, float]:
     tx, ty, tm = goal.target()
     fx, fy = balance.net_force
@@ -257,7 +245,7 @@ def body_result(project: Project, stage: Stage, body: Body, worked: bool) -> Bod
                 limits = hold_limits(hold_limits_problem(project, stage, body.name, layout=layout))
             except TowboardError as e:
                 notes.append(f"hold limits not worked out: {e}")
-    tolerance = _goal_tolerance(balance, body.length)
+    tolerance = balance.tolerance  # one rule: what the words call none is met
     sense = (
         swing_sense(stage, body.name, goal, balance.moment_centroid_nm, tolerance[1])
         if worked

@@ -51,6 +51,7 @@ from core.frames import angle_to_bearing, wrap_pi
 from core.mechanics.balance import Load, TugLayout, tug_layout
 from core.mechanics.bodies import Body, stage_body
 from core.mechanics.fittings import tension_per_pull
+from core.mechanics.forces import NEGLIGIBLE, negligible
 from core.mechanics.loads import body_conditions, loads_wrench
 from core.mechanics.tugsets import SECTOR_STEP_DEG, TugSets, tug_sets
 from core.model.goals import Goal
@@ -66,13 +67,12 @@ from core.units import DisplayUnits
 #: The reach of a fleet with working sectors is first found with polygons this many
 #: times coarser, then walked out to the fine ones (core.solve.walk).
 SOLVE_NEST = 9
-#: A goal counts as met when what is missing is within this share of what the goal asks
-#: of the tugs (the goal less the conditions: its force, and for the moment the larger of
-#: its moment and that force times the body's length): half a percent, below what a tug
-#: master can set or a planner can know of the conditions (common practice, no source;
-#: the pulls as set are held to 1 %). :data:`GOAL_FLOOR` of the strongest tug's usable
-#: pull is always allowed (the solvers' rounding).
-GOAL_TOL = 0.005
+#: A goal counts as met when what is missing is negligible by the one rule
+#: (core.mechanics.forces.negligible, half a percent) of what the goal asks of the tugs
+#: (the goal less the conditions: its force, or its moment over the body's length where
+#: that is larger). :data:`GOAL_FLOOR` of the strongest tug's usable pull is always
+#: allowed (the solvers' rounding).
+GOAL_TOL = NEGLIGIBLE
 GOAL_FLOOR = 1e-6
 #: From this many columns (tugs without working sectors) the ray's exit from the fleet's
 #: zonotope is found by the walk of core.solve.reach (a product with the columns a step)
@@ -791,10 +791,9 @@ def goal_tolerance(problem: PullsProblem) -> np.ndarray:
     still met, N and N*m (:data:`GOAL_TOL`, :data:`GOAL_FLOOR`)."""
     fx, fy, m = (float(v) for v in problem.required)
     length = max(problem.length_m, 1.0)
-    force = math.hypot(fx, fy)
+    asked = max(math.hypot(fx, fy), abs(m) / length)
     floor = GOAL_FLOOR * max(float(problem.column_pull_n.max(initial=0.0)), 1.0)
-    tol_f = max(GOAL_TOL * force, floor)
-    tol_m = max(GOAL_TOL * max(abs(m), force * length), floor * length)
+    tol_f, tol_m = negligible(asked, length, floor_n=floor)
     return np.array([tol_f, tol_f, tol_m])
 
 
@@ -876,9 +875,6 @@ def _direction_at(sets: TugSets, row: int, lead: float) -> np.ndarray:
 #: From this many tugs on (every lead as set), the tug lost check's solves share the
 #: fleet's half-spaces (below it, each solve making its own costs no more).
 ZONOTOPE_FROM = 8
-#: "As set", the goal counts as still met when what is missing is below this share of
-#: the remaining tugs' usable pull (forces), or that times the body's length (moment).
-AS_SET_TOL = 0.01
 
 
 @dataclass(frozen=True, slots=True, eq=False)
@@ -906,10 +902,20 @@ class TugLostCase:
         """The goal is still met as set (None when the settings are not known)."""
         if self.as_set_shortfall is None:
             return None
+        tol_f, tol_m = self.as_set_tolerance
+        fx, fy, m = (float(v) for v in self.as_set_shortfall)
+        return math.hypot(fx, fy) <= tol_f and abs(m) <= tol_m
+
+    @property
+    def as_set_tolerance(self) -> tuple[float, float]:
+        """(force N, moment N*m) within which the goal is still met as set: the one rule of
+        the balance (core.mechanics.forces.negligible) of the remaining tugs' pulls as set
+        and the loads, as the stage's balance without that tug would judge it."""
         p = self.result.problem
-        u = max(float(p.usable_n.sum()), 1.0)
-        tol = AS_SET_TOL * u * np.array([1.0, 1.0, max(p.length_m, 1.0)])
-        return bool(np.all(np.abs(self.as_set_shortfall) <= tol))
+        w = p.set_wrench  # (3, n - 1): the lost tug's column taken out (problem.without)
+        pulls = 0.0 if w is None else float(np.hypot(w[0], w[1]).sum())
+        loads = sum(math.hypot(*ld.force) for ld in p.loads)
+        return negligible(pulls + loads, p.length_m)
 
     @property
     def worst_utilisation(self) -> float:

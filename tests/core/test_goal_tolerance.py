@@ -9,14 +9,17 @@ from __future__ import annotations
 import math
 
 import numpy as np
+import pytest
 
 from core.analysis.stage import stage_result
+from core.io.projectfile import load
 from core.model.conditions import Conditions
 from core.model.goals import Goal
 from core.model.plan import BodyPose, Project, Stage
 from core.model.tugs import Placement, Tug
 from core.solve.pulls import GOAL_TOL, shortfall_words
 from core.units import DisplayUnits
+from tests.conftest import SAMPLES
 from tests.core.plan_builders import TF, box_hull
 
 KNOT = 1852 / 3600  # m/s (NIST SP 811)
@@ -69,3 +72,44 @@ def test_a_shortfall_that_rounds_to_nothing_is_said_in_newtons() -> None:
     assert shortfall_words(np.array([0.0, 0.0, 300.0]), u) == (
         "needs 300 N·m more swinging the bow to port"
     )
+
+
+# -- one tolerance for "met" and for the words ------------------------------------------
+
+
+def test_a_hold_is_met_exactly_when_the_words_say_it_holds() -> None:
+    # One rule (core.mechanics.forces.negligible) decides both: a hold whose pulls as set
+    # meet the goal is never said to walk or swing, and one that walks or swings misses it.
+    seen = 0
+    for path in sorted(SAMPLES.glob("*.towboard")):
+        project = load(path)
+        for i, stage in enumerate(project.stages):
+            if stage.goal is None or stage.goal.kind != "hold":
+                continue
+            body = stage_result(project, i).main
+            assert body is not None
+            b = body.balance
+            still = b.walking.startswith("no net force") and b.turning.startswith("no swing")
+            assert body.goal_met_as_set == still, (path.name, stage.name, b.walking, b.turning)
+            seen += 1
+    assert seen >= 2
+
+
+def test_the_deck_barge_hold_as_set_is_a_miss_not_a_go_that_walks() -> None:
+    # Deck barge stage 3 as set: net (351.2, -827.4) N = 898.8 N and -30 193 N·m (hand
+    # check in the review). The stage deals in 6 782 N of pulls and 7 070 N of wind and
+    # current: half a percent is 0.005 x 13 852 = 69.3 N, below the rule's 100 N floor, so
+    # 100 N, and x 84 m = 8 400 N·m. Both residuals are past it: the pulls as set miss the hold (the solved pulls meet it),
+    # and the words say it walks and swings. Before, the goal check's 1 000 N floor
+    # called it GO beside "walks to starboard ... swings bow to starboard".
+    r = stage_result(load(SAMPLES / "deck_barge_unberth.towboard"), 2)
+    body = r.main
+    assert body is not None and body.solved is not None
+    tol_f, tol_m = body.goal_tolerance
+    assert tol_f == pytest.approx(100.0)
+    assert tol_m == pytest.approx(8400.0)
+    assert body.goal_tolerance == body.balance.tolerance
+    assert body.goal_met_as_set is False
+    assert body.solved.feasible
+    assert r.verdict.status != "go"
+    assert "pulls_miss_goal" in [x.code for x in r.verdict.reasons]
