@@ -83,6 +83,9 @@ WALK_FROM_COLUMNS = 40
 #: Weights of the shortfall's components on scaled rows (force ahead, force abeam,
 #: moment / length): the moment counts as the force at an end that would make it.
 _SHORTFALL_WEIGHTS = np.array([1.0, 1.0, 2.0])
+#: Sides of the polygon that stands for a force's length in the shortfall's programme
+#: (its length to within 1 - cos(pi / 64) = 0.1 %).
+_NORM_SIDES = 64
 #: What the tug lost check "as re-set" assumes, said wherever it is shown.
 RESET_NOTE = (
     "as re-set: the other tugs take new leads within their sectors and new pulls; "
@@ -685,6 +688,70 @@ class _Scaled:
         r2 = solve_lp(*self._with_fittings(c, a, b, up, every))
         return (r2 if r2.ok else r).x[:k]
 
+    def actionable(self, target: np.ndarray) -> np.ndarray:
+        """Fractions g (k,) at most 1 that leave a shortfall a tug master can act on: the
+        force met and the least yaw moment missing, or the yaw moment met and the least
+        force missing, whichever misses less (the moment counted as the force at the bow
+        or the stern that would make it, :data:`_SHORTFALL_WEIGHTS`); where the fleet can
+        meet neither alone, the closest state (:meth:`closest`)."""
+        best: tuple[float, np.ndarray] | None = None
+        for free, weight in ((2, float(_SHORTFALL_WEIGHTS[2])), (0, 1.0)):
+            got = self.met_but(target, free)
+            if got is not None and (best is None or weight * got[1] < best[0]):
+                best = (weight * got[1], got[0])
+        return self.closest(target) if best is None else best[1]
+
+    def met_but(self, target: np.ndarray, free: int) -> tuple[np.ndarray, float] | None:
+        """Fractions g (k,) at most 1 that meet ``target`` exactly but for row ``free``
+        (2: the moment; 0: the force, both its rows), and come closest there; with the
+        closeness in scaled rows (the force as the length of its shortfall, to 1 %: a
+        polygon of :data:`_NORM_SIDES` sides); None when the other rows cannot be met.
+        """
+        s, k = len(self.shared), self.k
+        if free == 2:
+            # rows: force rows exact; moment row + r+ - r- = target; shared. min r+ + r-.
+            extra = 2
+            a = np.vstack(
+                [
+                    np.hstack([self.gen, np.zeros((3, s)), np.array([[0, 0], [0, 0], [1, -1]])]),
+                    self._shared_rows(extra),
+                ]
+            )
+            b = np.concatenate([target, np.ones(s)])
+            c = np.concatenate([np.zeros(k + s), [1.0, 1.0]])
+        else:
+            # force rows + r+ - r- (x, y) = target; moment exact; shared; and for each
+            # direction d of the polygon d.(r+ - r-) + q - z = 0 (z >= d.r). min z.
+            m = _NORM_SIDES
+            ang = 2 * math.pi * np.arange(m) / m
+            d = np.column_stack([np.cos(ang), np.sin(ang)])  # (m, 2)
+            extra = 4 + m + 1
+            r = np.zeros((3, extra))
+            r[0, 0], r[0, 1], r[1, 2], r[1, 3] = 1.0, -1.0, 1.0, -1.0
+            poly = np.zeros((m, k + s + extra))
+            poly[:, k + s + 0], poly[:, k + s + 1] = d[:, 0], -d[:, 0]
+            poly[:, k + s + 2], poly[:, k + s + 3] = d[:, 1], -d[:, 1]
+            poly[:, k + s + 4 : k + s + 4 + m] = np.eye(m)
+            poly[:, -1] = -1.0
+            a = np.vstack(
+                [
+                    np.hstack([self.gen, np.zeros((3, s)), r]),
+                    self._shared_rows(extra),
+                    poly,
+                ]
+            )
+            b = np.concatenate([target, np.ones(s), np.zeros(m)])
+            c = np.zeros(k + s + extra)
+            c[-1] = 1.0
+        up = np.concatenate([np.ones(k), np.full(s + extra, np.inf)])
+        res = solve_lp(*self._with_fittings(c, a, b, up, np.arange(k)))
+        if not res.ok:
+            return None
+        g = np.clip(res.x[:k], 0.0, 1.0)
+        miss = target - self.gen @ g  # scaled rows
+        size = abs(float(miss[2])) if free == 2 else float(np.hypot(miss[0], miss[1]))
+        return g, size
+
 
 def _fitting_rows(problem: PullsProblem, u_ref: float) -> tuple[np.ndarray, np.ndarray]:
     """((f, k), (f,)): for each rated fitting that several tugs work at and that their
@@ -763,9 +830,9 @@ def solve_pulls(
         spread = _spread(sc, target)
         if spread is None:
             near = sc.coarse()  # with sectors, the closest state of the coarse set
-            reach_target = near.gen @ near.closest(target)
+            reach_target = near.gen @ near.actionable(target)
             spread = _spread(sc, reach_target)
-            g = spread if spread is not None else sc.closest(target)
+            g = spread if spread is not None else sc.actionable(target)
         else:
             g = spread
     g = np.clip(g, 0.0, 1.0)
@@ -986,25 +1053,37 @@ def _fleet_zonotope(problem: PullsProblem) -> FleetZonotope | None:
 def shortfall_words(shortfall: np.ndarray, units: DisplayUnits) -> str:
     """What the tugs would need on top of what they give, in words and display units.
 
-    ``shortfall`` is (force ahead, force to port, moment about the centroid), N and N*m.
+    ``shortfall`` is (force ahead, force to port, moment about the centroid), N and N*m;
+    a part that is nothing but rounding is met (:func:`solve_pulls` leaves either the
+    force or the yaw moment met where the fleet can, and the words say which).
     """
     fx, fy, m = (float(v) for v in shortfall)
     parts = []
     tol_f = 1e-9 * (abs(fx) + abs(fy)) + 1e-6
+    force_met = abs(fx) <= tol_f and abs(fy) <= tol_f
+    moment_met = abs(m) <= 1e-6
     if abs(fx) > tol_f:
         parts.append(f"{_amount(abs(fx), 'force', units)} more {'ahead' if fx > 0 else 'astern'}")
     if abs(fy) > tol_f:
         parts.append(
             f"{_amount(abs(fy), 'force', units)} more to {'port' if fy > 0 else 'starboard'}"
         )
-    if abs(m) > 1e-6:
+    if not moment_met:
         side = "port" if m > 0 else "starboard"
         parts.append(f"{_amount(abs(m), 'moment', units)} more swinging the bow to {side}")
-    return "needs " + ", ".join(parts) if parts else "nothing missing"
+    if not parts:
+        return "nothing missing"
+    met = ""
+    if force_met:
+        met = ", with the force met"
+    elif moment_met:
+        met = ", with the yaw moment met"
+    return "needs " + ", ".join(parts) + met
 
 
 def _amount(value_si: float, quantity: Literal["force", "moment"], units: DisplayUnits) -> str:
-    """``value_si`` in the display unit, or in N (N*m) where it would read 0.0 there."""
-    if round(units.value(value_si, quantity), 1) != 0:
-        return units.show(value_si, quantity)
-    return f"{value_si:.3g} {'N' if quantity == 'force' else 'N·m'}"
+    """``value_si`` in the display unit, with as many decimals as it takes to show its first
+    significant digit (390 N in tonnes-force: "0.04 t", never "0.0 t" nor a switch to N)."""
+    v = abs(units.value(value_si, quantity))
+    digits = 1 if v == 0 or v >= 0.095 else min(-math.floor(math.log10(v)), 12)
+    return units.show(value_si, quantity, digits)

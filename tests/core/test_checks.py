@@ -93,9 +93,11 @@ def test_a_goal_the_substitute_cannot_meet_even_re_solved():
     sub = substitute_tug(p, "Gannet", Tug("Skua", 20 * TF), keep="settings")
     (f,) = sub.after[0].failures
     assert f.code == "goal_cannot_be_met"
-    # at 100 % the substitute gives 20 t of the 30 t wanted: 10 t short
+    # at 100 % the substitute gives 20 t of the 30 t wanted: 10 t short, along the
+    # centreline, so with no yaw moment missing
     assert f.message == (
-        "Barge: the goal (transit) cannot be met with every tug: needs 10.0 t more ahead"
+        "Barge: the goal (transit) cannot be met with every tug: needs 10.0 t more ahead, "
+        "with the yaw moment met"
     )
 
 

@@ -65,12 +65,25 @@ def test_a_stronger_current_is_a_shortfall_in_the_units_shown() -> None:
     assert "more ahead" in why.text and "needs 0.0 t" not in why.text
 
 
-def test_a_shortfall_that_rounds_to_nothing_is_said_in_newtons() -> None:
+def test_a_small_shortfall_is_said_in_the_display_unit_with_its_first_digit() -> None:
+    # In a plan whose forces are in t, a shortfall is said in t: 43.6 N / 9806.65 = 0.0044 t,
+    # 390 N = 0.0398 t, 300 N·m = 0.0306 t·m (hand calculation), to their first
+    # significant digit rather than "0.0 t" or a switch to newtons.
     u = DisplayUnits()
-    assert shortfall_words(np.array([43.6, 0.0, 0.0]), u) == "needs 43.6 N more ahead"
-    assert shortfall_words(np.array([0.0, -2.0 * TF, 0.0]), u) == "needs 2.0 t more to starboard"
+    assert (
+        shortfall_words(np.array([43.6, 0.0, 0.0]), u)
+        == "needs 0.004 t more ahead, with the yaw moment met"
+    )
+    assert (
+        shortfall_words(np.array([0.0, -390.0, 0.0]), u)
+        == "needs 0.04 t more to starboard, with the yaw moment met"
+    )
+    assert (
+        shortfall_words(np.array([0.0, -2.0 * TF, 0.0]), u)
+        == "needs 2.0 t more to starboard, with the yaw moment met"
+    )
     assert shortfall_words(np.array([0.0, 0.0, 300.0]), u) == (
-        "needs 300 N·m more swinging the bow to port"
+        "needs 0.03 t·m more swinging the bow to port, with the force met"
     )
 
 
