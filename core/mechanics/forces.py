@@ -27,9 +27,10 @@ import numpy as np
 #: resultant is zero reduces to a couple, the same about every point); within both, the
 #: system is balanced.
 NEGLIGIBLE = 0.005
-#: ... and never below this, N (about 0.01 t): a stage with next to no forces says nothing
-#: of a few newtons.
-NEGLIGIBLE_FLOOR_N = 100.0
+#: ... and never below this, N (about 0.1 t): finer than a tug master can set a pull, so a
+#: stage in light conditions is not said to walk, or to miss its goal, by a few hundred
+#: newtons (common practice, no source).
+NEGLIGIBLE_FLOOR_N = 1000.0
 
 EquivalentKind = Literal["force", "couple", "balanced"]
 

@@ -50,12 +50,12 @@ def _near_couple(setting_b: float) -> Project:
 
 def test_a_net_force_within_the_tolerance_with_a_moment_is_a_couple() -> None:
     # B at 33.2 % gives 9.96 t: net 10 - 9.96 = 0.04 t = 392.3 N to port, against 0.5 % of
-    # the 19.96 t pulled = 978.7 N: negligible. Moment about the centroid
+    # the 19.96 t pulled = 978.7 N, raised to the 1 000 N floor: negligible. Moment about the centroid
     # 30 x 10 + 30 x 9.96 = 598.8 t·m, bow to port. The old 1e-6 rule made it a 0.04 t
     # force on a line 598.8 x 9806.65 / 392.3 = 14 970 m from the centroid.
     b = analyse(p := _near_couple(0.332), p.stages[0])
     assert b.net_magnitude == pytest.approx(0.04 * TF, rel=1e-9)
-    assert b.tolerance[0] == pytest.approx(0.005 * 19.96 * TF, rel=1e-9)
+    assert b.tolerance[0] == pytest.approx(max(0.005 * 19.96 * TF, 1000.0), rel=1e-9)
     assert b.equivalent.kind == "couple"
     assert b.equivalent.point is None and b.equivalent.offset_m is None
     assert b.net_bearing_deg is None  # no bearing for a nil force
@@ -90,14 +90,19 @@ def test_a_force_through_the_centreline_along_it_is_said_so() -> None:
     assert not b.crossing_shown
 
 
-def test_a_crossing_seven_lengths_beyond_the_pontoon_is_far_off_the_hull() -> None:
-    # Pontoon stage 2: the line crosses the centreline at x = 410.3 m on a 60 m pontoon
-    # (hand check in the review: 410.258 m), 350 m = 5.8 lengths beyond its bow end.
-    project = load(SAMPLES / "pontoon_swing.towboard")
-    b = stage_result(project, 1).main.balance
-    assert b.centreline_x == pytest.approx(410.258, abs=0.01)
+def test_a_crossing_five_lengths_beyond_the_bow_is_far_off_the_hull() -> None:
+    # B at 28 % gives 8.4 t: net 1.6 t to port, beyond the half percent of 18.4 t. Moment
+    # 30 x 10 + 30 x 8.4 = 552 t·m; the line crosses the centreline at x with
+    # (x - 30) x 1.6 t = 552 t·m: x = 375 m, 315 m (5.25 lengths) beyond the 60 m barge's
+    # bow. (The review's case, the pontoon's stage 2 at 410 m, has a net force of less
+    # than 0.1 t, which is now no force at all.)
+    b = analyse(p := _near_couple(0.28), p.stages[0])
+    assert b.equivalent.kind == "force"
+    assert b.centreline_x == pytest.approx(375.0)
     assert b.crossing_is_far and not b.crossing_shown
-    assert "far off the hull" in b.crossing_words(project.units)
+    assert "far off the hull" in b.crossing_words(DisplayUnits())
+    pontoon = load(SAMPLES / "pontoon_swing.towboard")
+    assert stage_result(pontoon, 1).main.balance.equivalent.kind != "force"
 
 
 # Deck barge stage 2 (the swing): net 168.8 N and +396.3 t·m (hand check in the review,
