@@ -27,6 +27,7 @@ from typing import Any
 import ezdxf
 
 from tests.fuzz.mutations import Source, choice
+from tests.fuzz.mutations import mutate_bytes as plan_mutate_bytes
 
 MM, M = 4, 6  # $INSUNITS codes (DXF reference)
 
@@ -397,26 +398,14 @@ def mutate_tags(text: str, rnd: Source, count: int = 1) -> str:
     return untag(pairs)
 
 
+#: Bytes a drawing's mutation inserts: a DXF's numbers and line ends, and three bad ones.
+DXF_BYTES = (*b"0123456789.-eE \r\n", 0, 255, 195)
+
+
 def mutate_bytes(data: bytes, rnd: Source, count: int = 1) -> bytes:
-    """``data`` with ``count`` bytes flipped, inserted, deleted, a cut, or a run repeated."""
-    b = bytearray(data)
-    for _ in range(count):
-        if not b:
-            break
-        i = rnd.randrange(len(b))
-        op = rnd.randrange(5)
-        if op == 0:
-            b[i] = rnd.randrange(256)
-        elif op == 1:
-            b.insert(i, choice(rnd, [*list(b"0123456789.-eE \r\n"), 0, 255, 195]))
-        elif op == 2:
-            del b[i : i + 1 + rnd.randrange(8)]
-        elif op == 3:
-            del b[i:]
-        else:
-            j = rnd.randrange(len(b))
-            b[i:i] = b[j : j + rnd.randrange(200)]
-    return bytes(b)
+    """``data`` with ``count`` bytes flipped, inserted (a DXF's own), deleted (up to 8), a
+    cut, or a run of up to 200 repeated (tests.fuzz.mutations.mutate_bytes)."""
+    return plan_mutate_bytes(data, rnd, count, DXF_BYTES, longest_cut=8, longest_repeat=200)
 
 
 # -- tables ---------------------------------------------------------------------------------

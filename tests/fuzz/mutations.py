@@ -203,8 +203,21 @@ def to_bytes(text: str) -> bytes:
     return text.encode("utf-8", errors="surrogatepass")
 
 
-def mutate_bytes(data: bytes, rnd: Source, count: int = 1) -> bytes:
-    """``data`` with ``count`` random byte flips, insertions, deletions or a cut."""
+#: Bytes a plan file's mutation inserts: JSON's own, and two that start bad UTF-8.
+JSON_BYTES = (*b'{}[]",:0123456789.-eE\\ntfu', 255, 195)
+
+
+def mutate_bytes(
+    data: bytes,
+    rnd: Source,
+    count: int = 1,
+    inserts: tuple[int, ...] = JSON_BYTES,
+    longest_cut: int = 1,
+    longest_repeat: int = 64,
+) -> bytes:
+    """``data`` with ``count`` random byte flips, insertions (of ``inserts``), deletions
+    (of up to ``longest_cut`` bytes), a cut, or a run of up to ``longest_repeat`` bytes
+    repeated."""
     b = bytearray(data)
     for _ in range(count):
         if not b:
@@ -214,14 +227,14 @@ def mutate_bytes(data: bytes, rnd: Source, count: int = 1) -> bytes:
         if op == 0:
             b[i] = rnd.randrange(256)
         elif op == 1:
-            b.insert(i, choice(rnd, [*list(b'{}[]",:0123456789.-eE\\ntfu'), 255, 195]))
+            b.insert(i, choice(rnd, list(inserts)))
         elif op == 2:
-            del b[i]
+            del b[i : i + (1 + rnd.randrange(longest_cut) if longest_cut > 1 else 1)]
         elif op == 3:
             del b[i:]
         else:
             j = rnd.randrange(len(b))
-            b[i:i] = b[j : j + rnd.randrange(64)]
+            b[i:i] = b[j : j + rnd.randrange(longest_repeat)]
     return bytes(b)
 
 
