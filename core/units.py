@@ -92,6 +92,24 @@ def fmt(value: float, digits: int = 1, signed: bool = False) -> str:
     return f"{v:+.{digits}f}" if signed else f"{v:.{digits}f}"
 
 
+def percent(fraction: float) -> str:
+    """A fraction as a percent for people, without the "%": whole percents from 1 %, and
+    below it the digits it needs so that only nothing at all reads "0" (0.005 -> "0.5",
+    0.0004 -> "0.04"); below 0.001 % it reads "under 0.001"."""
+    pct = fraction * 100
+    if pct == 0:
+        return "0"
+    if abs(pct) >= 1:
+        return f"{pct:.0f}"
+    for digits in (1, 2, 3):
+        text = f"{pct:.{digits}f}"
+        if abs(float(text)) >= 1:
+            return f"{pct:.0f}"
+        if float(text) != 0:
+            return text
+    return "under 0.001" if pct > 0 else "over -0.001"
+
+
 def label(unit: str) -> str:
     """How a unit symbol is printed."""
     return LABELS.get(unit, unit)

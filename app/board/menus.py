@@ -25,7 +25,7 @@ from core.errors import TowboardError
 from core.mechanics.bodies import body_name_of_hull
 from core.model.plan import Stage
 from core.model.swing import Swing
-from core.model.tugs import Placement
+from core.model.tugs import Placement, setting_words
 
 if TYPE_CHECKING:
     from app.board.scene import BoardScene
@@ -96,7 +96,7 @@ def _tug_entries(scene: BoardScene, menu: QMenu, tug: str) -> None:
         setting = stage.placement(tug).setting
     except TowboardError:
         return
-    sub = menu.addMenu(f"Setting of {tug} ({setting * 100:.0f} %)")
+    sub = menu.addMenu(f"Setting of {tug} ({setting_words(setting)})")
     for pct in (0, 25, 50, 75, 100):
         sub.addAction(f"{pct} %", guarded(lambda p=pct: inter.step_setting(tug, p / 100 - setting)))
     _sector_entries(scene, menu, stage, tug)

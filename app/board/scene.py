@@ -192,7 +192,7 @@ class BoardScene(QGraphicsScene):
 
     def tug_text(self, share: TugShare) -> str:
         u = self.controller.project.units
-        text = f"{share.tug}\n{u.show(share.pull_n, 'force')} ({share.setting * 100:.0f} %)"
+        text = f"{share.tug}\n{u.show(share.pull_n, 'force')} ({share.setting_words})"
         note = self.tug_notes.get(share.tug)
         return f"{text}\n{note}" if note else text
 

@@ -21,13 +21,13 @@ from app.briefing.layout import (
     Text,
     heading,
 )
-from app.briefing.stage_tables import STANDING_BY, standing_by
 from app.paint import style
 from core.analysis.stage import StageResult
 from core.analysis.verdict import Verdict
 from core.io.report import CAUTION
 from core.mechanics.bodies import body_of
 from core.model.plan import Project, Stage
+from core.model.tugs import STANDING_BY
 from core.units import label
 
 CAUTIONS = (
@@ -104,11 +104,10 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
     rows, colors = [], []
     for r in results:
         v = r.verdict
-        # every tug made fast works in the stage; one at 0 % stands by on its line
+        # every tug made fast works in the stage; one set to nothing stands by on its line
         tugs = (
             ", ".join(
-                f"{p.tug} ({STANDING_BY})" if standing_by(p.setting) else p.tug
-                for p in r.stage.placements
+                f"{p.tug} ({STANDING_BY})" if p.standing_by else p.tug for p in r.stage.placements
             )
             or "-"
         )

@@ -27,21 +27,6 @@ def signed(u: DisplayUnits, value_si: float, quantity: str) -> str:
     return f"{fmt(u.value(value_si, quantity), 1, signed=True)} {label(unit)}"  # type: ignore[arg-type]
 
 
-#: A tug made fast at a setting that prints as 0 %: on the line, not pulling.
-STANDING_BY = "standing by"
-
-
-def standing_by(setting: float) -> bool:
-    """Whether a placed tug's setting prints as 0 % (it is made fast and standing by)."""
-    return f"{setting * 100:.0f}" in ("0", "-0")
-
-
-def setting_words(setting: float) -> str:
-    """A tug's setting as the briefing prints it: "60 %", or "0 %, standing by"."""
-    words = f"{setting * 100:.0f} %"
-    return f"{words}, {STANDING_BY}" if standing_by(setting) else words
-
-
 def tugs_table(project: Project, result: StageResult, body: BodyResult) -> list[Block]:
     u = project.units
     s = result.stage
@@ -57,7 +42,7 @@ def tugs_table(project: Project, result: StageResult, body: BodyResult) -> list[
                 sh.tug,
                 f"{sh.hull}: {sh.point}",
                 lead + (" (astern)" if p.astern else ""),
-                setting_words(sh.setting),
+                sh.setting_words,
                 u.show(sh.pull_n, "force"),
                 u.show(sh.usable_n, "force"),
                 f"{sh.utilisation * 100:.0f} %",

@@ -300,7 +300,7 @@ class TugsModel(QAbstractTableModel):
         if key == "push_pull":
             return "" if s.mode != "line" else "—"
         if key == "setting":
-            return f"{p.setting * 100:.0f}"
+            return s.setting_words.replace(" %", "", 1)  # the column's title says "%"
         if key == "pull":
             return fmt.number(u, s.pull_n, "force")
         if key == "moment":

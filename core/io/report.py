@@ -164,11 +164,11 @@ def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
     )
     lines.append(f"  Equivalent      {b.equivalent_words(u)}")
     lines.append(
-        f"  {'Tug':<14}{'Point':<22}{'Mode':<6}{'Setting':>8}{'Pull':>12}{'Bearing':>9}{'Moment':>14}{'Use':>6}"
+        f"  {'Tug':<14}{'Point':<22}{'Mode':<6}{'Setting':>17}{'Pull':>12}{'Bearing':>9}{'Moment':>14}{'Use':>6}"
     )
     for sh in b.shares:
         lines.append(
-            f"  {sh.tug:<14}{sh.point:<22}{sh.mode:<6}{sh.setting * 100:>7.0f}%"
+            f"  {sh.tug:<14}{sh.point:<22}{sh.mode:<6}{sh.setting_words:>17}"
             f"{u.value(sh.pull_n, 'force'):>8.1f} {label(f):<3}{sh.lead_bearing_deg:>8.0f} "
             f"{fmt(u.value(sh.moment_centroid_nm, 'moment')):>9} {label(m):<4}{sh.utilisation * 100:>5.0f}%"
         )

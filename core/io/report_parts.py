@@ -17,6 +17,7 @@ from core.analysis.swing import is_swing_stage, swing_words
 from core.frames import angle_to_bearing, turning_words
 from core.mechanics.fittings import FittingLoad, FittingTotal
 from core.model.plan import Stage
+from core.model.tugs import setting_words
 from core.solve.holdlimits import (
     SHOWN_UP_TO_MS,
     HoldLimits,
@@ -334,7 +335,7 @@ def solve_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
     for i, pl in enumerate(r.problem.placements):
         out.append(
             f"    {pl.tug:<14}{u.show(float(r.pulls_n[i]), 'force'):>10}  setting "
-            f"{r.utilisation[i] * 100:>4.0f} %  pulling towards {r.bearing_deg(i):05.1f} relative"
+            f"{setting_words(float(r.utilisation[i])):>6}  pulling towards {r.bearing_deg(i):05.1f} relative"
         )
     c = br.tug_lost
     worst = c.worst

@@ -30,7 +30,7 @@ from core.mechanics.leads import ends_on_hull, over_hull_allowance_m, over_hull_
 from core.mechanics.usable import STEEP_LINE_DEG, line_angle_rad
 from core.model.capability import WAY_WORDS, CapabilityCurve, Way
 from core.model.plan import Project, Stage
-from core.model.tugs import Placement
+from core.model.tugs import Placement, setting_words, standing_by
 from core.notices import Notice
 from core.units import DisplayUnits
 
@@ -302,6 +302,16 @@ class TugShare:
     moment_centroid_nm: float
     lead_bearing_deg: float  # relative bearing of the force on the body
     position: tuple[float, float]
+
+    @property
+    def standing_by(self) -> bool:
+        """Made fast and not pulling: a setting of exactly nothing (core.model.tugs)."""
+        return standing_by(self.setting)
+
+    @property
+    def setting_words(self) -> str:
+        """The setting as every view prints it: "60 %", "0.5 %", "0 %, standing by"."""
+        return setting_words(self.setting)
 
     @property
     def utilisation(self) -> float:

@@ -16,7 +16,7 @@ from core.errors import InputError
 from core.model import rules
 from core.model.capability import Capability, TugKind, Way, default_capability, tug_kind
 from core.model.headway import HeadwayTable, placeholder_headway
-from core.units import filed
+from core.units import filed, percent
 
 #: Default share of a towline's minimum breaking load above which its tension is warned
 #: about (common practice, no source: harbour towlines are commonly sized at two to three
@@ -169,6 +169,23 @@ class Tug:
         return self.towline_mbl_n * self.towline_warn_fraction
 
 
+#: The words for a tug made fast with a setting of exactly nothing: on its line, not pulling.
+STANDING_BY = "standing by"
+
+
+def standing_by(setting: float) -> bool:
+    """Whether a tug made fast at ``setting`` stands by: only at a setting of exactly
+    nothing. Any pull, however small, counts in the stage's balance (and may be what its
+    verdict rests on), so a tug giving it is working, whatever its setting rounds to."""
+    return setting == 0.0
+
+
+def setting_words(setting: float) -> str:
+    """A tug's setting as every view prints it: "60 %", "0.5 %", or "0 %, standing by"."""
+    words = f"{percent(setting)} %"
+    return f"{words}, {STANDING_BY}" if standing_by(setting) else words
+
+
 @dataclass(frozen=True, slots=True)
 class Placement:
     """Where one tug works in one stage, and how hard.
@@ -223,6 +240,11 @@ class Placement:
             lo = rules.LEAD.check(sector[0], f"{subject}: lead sector")
             hi = rules.LEAD.check(sector[1], f"{subject}: lead sector")
             object.__setattr__(self, "lead_sector_rad", sector_span(lo, hi))
+
+    @property
+    def standing_by(self) -> bool:
+        """The tug is made fast and not pulling (its setting is exactly nothing)."""
+        return standing_by(self.setting)
 
     @property
     def sector_width_rad(self) -> float:

@@ -84,9 +84,7 @@ def test_every_tug_and_assigned_pull_of_every_stage_is_the_core_value(twin_pdf):
         assert r.worked
         for body in r.worked:
             for sh in body.balance.shares:
-                setting = f"{sh.setting * 100:.0f} %"
-                if setting == "0 %":  # made fast, not pulling
-                    setting += ", standing by"
+                setting = sh.setting_words  # "0 %, standing by" only for nothing
                 row = (
                     re.escape(f"{sh.tug} {sh.hull}: {sh.point} ")
                     + r"[^%]*? "

@@ -38,3 +38,17 @@ def test_a_tug_at_0_percent_is_listed_as_standing_by_on_the_cover_and_its_page()
     rows = {row[0]: row for t in page if t.columns[3].title == "Setting" for row in t.rows}
     assert rows[idle][3] == "0 %, standing by"
     assert rows[busy][3] == "50 %"
+
+
+def test_a_tug_at_a_small_setting_is_working_on_the_cover_and_its_page() -> None:
+    # The sample's hold (stage 3): Gannet at 0.5 % gives 0.3 t, which the hold's GO rests
+    # on (tests/core/test_standing_by.py), so it is listed plainly, its setting "0.5 %".
+    project = load(SAMPLES / "deck_barge_unberth.towboard")
+    results = plan_results(project)
+    verdicts = next(
+        t for t in _tables(cover(project, results), "#") if t.columns[3].title == "Tugs working"
+    )
+    assert verdicts.rows[2][3].split(", ")[0] == "Gannet"
+    page = _tables(stage_blocks(project, results[2], 60.0), "Tug")
+    rows = {row[0]: row for t in page if t.columns[3].title == "Setting" for row in t.rows}
+    assert rows["Gannet"][3] == "0.5 %"

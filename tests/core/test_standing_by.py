@@ -1,0 +1,65 @@
+"""A tug is standing by only at a setting of exactly nothing: any pull the stage counts
+is work, and a small setting is printed with the digits it needs (F2 of the hand check:
+a 0.5 % setting printed "0 %, standing by" while the stage's GO rested on its pull)."""
+
+from __future__ import annotations
+
+import pytest
+
+from core.analysis.stage import plan_results, stage_result
+from core.io.projectfile import load
+from core.io.report import report_text
+from core.model.tugs import setting_words, standing_by
+from core.units import percent
+from tests.conftest import SAMPLES
+
+DECK = SAMPLES / "deck_barge_unberth.towboard"
+HOLD = 2  # stage 3, hold while the dredger clears the entrance: Gannet at 0.5 %
+
+
+@pytest.mark.parametrize(
+    ("fraction", "text"),
+    [
+        (0.0, "0"),
+        (0.005, "0.5"),  # the sample's Gannet: 0.5 %, not "0"
+        (0.0004, "0.04"),
+        (0.00000001, "under 0.001"),
+        (0.0064, "0.6"),
+        (0.0096, "1"),  # rounds up to a whole percent
+        (0.22, "22"),
+        (1.0, "100"),
+    ],
+)
+def test_a_percent_reads_0_only_for_nothing(fraction: float, text: str) -> None:
+    # hand written: fraction x 100, whole percents, and a small one to its first digit
+    assert percent(fraction) == text
+
+
+def test_standing_by_is_a_setting_of_exactly_nothing() -> None:
+    assert standing_by(0.0)
+    assert not standing_by(0.005)
+    assert not standing_by(1e-9)
+    assert setting_words(0.0) == "0 %, standing by"
+    assert setting_words(0.005) == "0.5 %"
+    assert setting_words(0.6) == "60 %"
+
+
+def test_the_sample_tug_whose_pull_the_hold_needs_is_not_standing_by() -> None:
+    project = load(DECK)
+    result = stage_result(project, HOLD)
+    gannet = next(s for s in result.main.balance.shares if s.tug == "Gannet")
+    assert gannet.setting == pytest.approx(0.005)
+    assert result.verdict.is_go
+    # the review's check that its pull matters: set to nothing, the hold is NO-GO
+    stage = project.stages[HOLD]
+    idle = project.with_stage(
+        stage.with_placement(stage.placement("Gannet").with_setting(0.0)), HOLD
+    )
+    assert plan_results(idle)[HOLD].verdict.status == "no-go"
+
+    assert not gannet.standing_by
+    assert not stage.placement("Gannet").standing_by
+    assert gannet.setting_words == "0.5 %"
+    text = report_text(project).split("Stage 3:")[1].split("Stage 4:")[0]
+    row = next(ln for ln in text.splitlines() if ln.startswith("  Gannet ") and " line " in ln)
+    assert " 0.5 % " in row and "standing by" not in row
