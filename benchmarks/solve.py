@@ -70,7 +70,7 @@ def main() -> None:
     r = solve_pulls(sp)
     print(
         f"12 tugs with working sectors ({sp.columns.shape[1]} polygon vertices): goal met "
-        f"{r.feasible}, largest use {r.max_utilisation * 100:.1f} %"
+        f"{r.feasible}, largest use {r.largest_setting * 100:.1f} %"
     )
     t = paired(
         {

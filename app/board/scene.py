@@ -12,7 +12,7 @@ a body are children of its root item, in the body frame (x forward, y to port).
 
 Hooks for other parts of the program:
 
-- ``tug_notes``: ``{tug name: text}`` shown under the tug's label (utilisation...).
+- ``tug_notes``: ``{tug name: text}`` shown under the tug's label (its checks).
 - ``refresh_hooks``: callables ``(scene) -> None`` run after every refresh, for
   extra items (wind and current arrows, clearances); ``body_root(name)`` is the item
   to parent body-frame drawings to.

@@ -41,6 +41,20 @@ CAUTIONS = (
 )
 
 
+#: How each of a tug's figures is worked out, in the words every table uses.
+PULL_WORDS = (
+    "Rated pull: the tug's bollard pull times its capability share at the lead (the share "
+    "of its bollard pull its type gives in that direction and way of working: on a line, "
+    "pushing, or working astern).",
+    "Usable pull: rated pull × efficiency (sea state) × cos(towline angle to the "
+    "horizontal; 1 for a push) × headway share (the share of its bollard pull at a "
+    "transit's speed through the water; 1 otherwise).",
+    "Setting: assigned pull ÷ usable pull; the assigned pull is setting × usable pull. A tug "
+    "is standing by only at a setting of exactly nothing.",
+    "Share of rated pull: assigned pull ÷ rated pull.",
+)
+
+
 def verdict_color(v: Verdict) -> QColor:
     """The verdict's colour: go green, caution amber-brown, no-go red."""
     return QColor({"go": style.GO, "caution": style.CAUTION}.get(v.status, style.NO_GO))
@@ -211,9 +225,7 @@ def conventions(project: Project) -> list[Block]:
         "090 starboard beam, 180 astern, 270 port beam). Headings and the conditions are true "
         "bearings. Wind is given as the direction it blows from; current as the direction it "
         "sets towards.",
-        "A tug's assigned pull is its setting times its usable pull (rated bollard pull, or "
-        "astern pull when it works astern, times its efficiency and the towline angle factor). "
-        "Use is the assigned pull as a share of the rated pull.",
+        *PULL_WORDS,
         "Forces are quasi-static: no inertia, waves, squat or interaction with other vessels "
         "are included. Wind and current loads follow F = 1/2 rho C A V^2 with the areas and "
         "coefficients of each stage.",

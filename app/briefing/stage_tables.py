@@ -16,7 +16,7 @@ from core.analysis.stage import BodyResult, StageResult
 from core.mechanics.balance import Balance
 from core.mechanics.fittings import FittingLoad, FittingTotal
 from core.model.plan import Project
-from core.units import DisplayUnits, fmt, label
+from core.units import DisplayUnits, fmt, label, percent
 
 #: Clearances listed per stage besides those below the margin (the nearest first).
 SHOWN_CLEARANCES = 4
@@ -45,7 +45,7 @@ def tugs_table(project: Project, result: StageResult, body: BodyResult) -> list[
                 sh.setting_words,
                 u.show(sh.pull_n, "force"),
                 u.show(sh.usable_n, "force"),
-                f"{sh.utilisation * 100:.0f} %",
+                f"{percent(sh.share_of_rated)} %",
                 signed(u, sh.moment_centroid_nm, "moment"),
             ]
         )
@@ -60,7 +60,7 @@ def tugs_table(project: Project, result: StageResult, body: BodyResult) -> list[
                 Column("Setting", 0.8, "right"),
                 Column("Assigned pull", 1.0, "right"),
                 Column("Usable pull", 1.0, "right"),
-                Column("Use of rated", 0.8, "right"),
+                Column("Share of rated pull", 0.8, "right"),
                 Column("Yaw moment about centroid", 1.4, "right"),
             ],
             rows,
@@ -225,7 +225,7 @@ def tug_lost_table(project: Project, result: StageResult, body: BodyResult) -> l
                 [
                     case.tug,
                     "yes" if case.holds else "NO",
-                    f"{case.worst_utilisation * 100:.0f} %"
+                    f"{percent(case.largest_setting)} %"
                     + (f" ({case.worst_tug})" if case.worst_tug else ""),
                     short,
                     "worst" if worst is not None and worst.tug == case.tug else "",
@@ -237,7 +237,7 @@ def tug_lost_table(project: Project, result: StageResult, body: BodyResult) -> l
                 [
                     Column("Tug lost", 1.0),
                     Column("Goal still met", 1.0),
-                    Column("Hardest-worked tug left", 1.6),
+                    Column("Largest setting of the tugs left", 1.6),
                     Column("Shortfall", 3.0),
                     Column("", 0.6),
                 ],

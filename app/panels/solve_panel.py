@@ -43,7 +43,7 @@ from core.model import rules
 from core.model.goals import GOAL_KINDS, GOAL_WORDS, Goal
 from core.model.plan import Project, Stage
 from core.solve.pulls import PullsResult, TugLostCheck, pulls_problem, shortfall_words, solve_pulls
-from core.units import label
+from core.units import label, percent
 
 NO_GOAL = "none"
 GOAL_TITLES = {
@@ -111,7 +111,7 @@ def solved_stage(
     )
     solved = {
         p.tug: float(s)
-        for p, s in zip(result.problem.placements, result.utilisation.tolist(), strict=True)
+        for p, s in zip(result.problem.placements, result.settings.tolist(), strict=True)
         if abs(p.setting - float(s)) > 1e-12
     }
     if not solved:
@@ -201,13 +201,13 @@ class SolvePanel(QWidget):
         self.outcome.setWordWrap(True)
         self.outcome.setObjectName("solve_outcome")
         self.uses = QTableWidget(0, 5)
-        self.uses.setHorizontalHeaderLabels(
-            ["Tug", "Usable pull", "Pull", "Use of usable", "Checks"]
-        )
+        self.uses.setHorizontalHeaderLabels(["Tug", "Usable pull", "Pull", "Setting", "Checks"])
         self.lost_title = QLabel("Tug lost check")
         self.lost_title.setWordWrap(True)
         self.lost = QTableWidget(0, 4)
-        self.lost.setHorizontalHeaderLabels(["Tug lost", "Goal", "Largest use", "What is missing"])
+        self.lost.setHorizontalHeaderLabels(
+            ["Tug lost", "Goal", "Largest setting", "What is missing"]
+        )
         for t in (self.uses, self.lost):
             t.verticalHeader().setVisible(False)
             t.setEditTriggers(QTableWidget.EditTrigger.NoEditTriggers)
@@ -232,7 +232,7 @@ class SolvePanel(QWidget):
         layout.addWidget(self.lost_title)
         layout.addWidget(self.lost, 2)
         note = QLabel(
-            "Spreads the work: the least largest use of usable pull, then the least total pull. "
+            "Spreads the work: the least largest setting (pull over usable pull), then the least total pull. "
             "Usable pull = rated × efficiency (sea state) × towline angle × headway share "
             "(a transit's speed through the water)."
         )
@@ -352,9 +352,9 @@ class SolvePanel(QWidget):
         for s in solved:
             new = s.applied_to(new)
         c.apply(c.with_stage(new), f"Solve pulls ({stage.goal.kind})")
-        worst = max(s.max_utilisation for s in solved)
+        worst = max(s.largest_setting for s in solved)
         if all(s.feasible for s in solved):
-            c.message.emit(f"Solved: largest use {worst * 100:.0f} %")
+            c.message.emit(f"Solved: largest setting {percent(worst)} %")
         else:
             missing = next(s for s in solved if not s.feasible)
             c.message.emit(
@@ -414,7 +414,7 @@ class SolvePanel(QWidget):
         u = c.project.units
         if r.feasible:
             text = (
-                f"{main.name}: the goal can be met: largest use {r.max_utilisation * 100:.0f} %, "
+                f"{main.name}: the goal can be met: largest setting {percent(r.largest_setting)} %, "
                 f"total pull {u.show(r.total_pull_n, 'force')}."
             )
         else:
@@ -435,7 +435,6 @@ class SolvePanel(QWidget):
         solved = {} if r is None else {p.tug: i for i, p in enumerate(r.problem.placements)}
         rows = []
         for sh in shares:
-            use = sh.pull_n / sh.usable_n if sh.usable_n > 0 else 0.0
             pull = u.show(sh.pull_n, "force")
             if r is not None and sh.tug in solved:
                 i = solved[sh.tug]
@@ -447,7 +446,7 @@ class SolvePanel(QWidget):
                     Cell(sh.tug),
                     Cell(u.show(sh.usable_n, "force"), right=True),
                     Cell(pull, right=True),
-                    Cell(f"{use * 100:.0f} %", True, FAIL if use > 1 + 1e-9 else None),
+                    Cell(sh.setting_words, True, FAIL if sh.setting > 1 + 1e-9 else None),
                     Cell(notes, color=FAIL if notes else None),
                 ]
             )
@@ -488,7 +487,7 @@ class SolvePanel(QWidget):
             texts = [
                 case.tug,
                 "holds" if case.holds else "fails",
-                f"{case.worst_utilisation * 100:.0f} % ({case.worst_tug or '—'})",
+                f"{percent(case.largest_setting)} % ({case.worst_tug or '—'})",
                 missing,
             ]
             colour = None if case.holds else FAIL

@@ -20,6 +20,7 @@ from app.panels.conditions import ConditionsPanel
 from app.panels.hold_plot import HoldLimitsPanel
 from app.panels.solve_panel import SolvePanel
 from core.mechanics.balance import TugShare
+from core.units import percent
 
 if TYPE_CHECKING:
     from app.window.main_window import MainWindow
@@ -46,7 +47,7 @@ class SolveUi:
         self.solve_panel.notes_changed.connect(self._notes)
         self.solve_panel.live.toggled.connect(self.set_live)
         model = window.tugs_panel.model
-        model.extra.append(("Use of rated BP %", _use_text))
+        model.extra.append(("Share of rated pull %", _share_of_rated_text))
         model.extra.append(("Checks", self._check_text))
         model.refresh()
         menu = window.menu("solve")
@@ -98,12 +99,13 @@ class SolveUi:
         return ", ".join(self.solve_panel.notes.get(share.tug, []))
 
 
-def _use_text(share: TugShare | None) -> str:
-    """Assigned pull over the rated pull for the way the tug works (the setting is over
-    the usable pull, which efficiency and the towline angle make smaller)."""
+def _share_of_rated_text(share: TugShare | None) -> str:
+    """Share of rated pull: assigned pull over the rated pull at the lead (bollard pull x
+    capability share); the setting is over the usable pull, which efficiency, the towline
+    angle and headway make smaller."""
     if share is None or share.rated_n <= 0:
         return ""
-    return f"{share.utilisation * 100:.0f}"
+    return f"{percent(share.share_of_rated)}"
 
 
 def install(window: MainWindow) -> SolveUi:

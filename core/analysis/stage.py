@@ -150,7 +150,7 @@ class StageResult:
     def worst(self) -> BodyResult | None:
         """The worked body worst off, for a view that shows one body at a time: one whose
         goal cannot be met with every tug, then the most no-go reasons of the verdict about
-        it (naming it or one of its tugs), then the most cautions, then the largest use of
+        it (naming it or one of its tugs), then the most cautions, then the largest setting of
         its solved pulls; the main body on a tie."""
         w = self.worked
         if len(w) < 2:
@@ -160,7 +160,7 @@ class StageResult:
             b = w[k]
             names = {b.name, *(p.tug for p in b.layout.placements)}
             about = [r for r in self.verdict.reasons if r.subject in names]
-            use = b.solved.max_utilisation if b.solved is not None else 0.0
+            use = b.solved.largest_setting if b.solved is not None else 0.0
             nogo = sum(r.status == "no-go" for r in about)
             out_of_reach = b.solved is not None and not b.solved.feasible
             return (out_of_reach, nogo, len(about) - nogo, use, -k)

@@ -31,7 +31,7 @@ from core.model.plan import Project, Stage
 from core.notices import Notice
 from core.solve.holdlimits import limit_at, limit_words
 from core.solve.pulls import shortfall_words
-from core.units import DisplayUnits
+from core.units import DisplayUnits, percent
 
 if TYPE_CHECKING:  # the stage result builds the verdict from its own parts
     from core.analysis.stage import BodyResult
@@ -295,7 +295,7 @@ def _miss_words(b: BodyResult, u: DisplayUnits, words: str, solved: object) -> s
         parts.append(f"yaw moment off by {u.show(abs(rm), 'moment')} ({turning_words(rm, tol_m)})")
     fix = ""
     if b.solved is not None and b.solved.feasible:
-        fix = f"; Solve pulls would meet it (largest use {b.solved.max_utilisation * 100:.0f} %)"
+        fix = f"; Solve pulls would meet it (largest setting {percent(b.solved.largest_setting)} %)"
     return f"{b.name}: the pulls as set miss the goal ({words}): " + "; ".join(parts) + fix
 
 

@@ -23,7 +23,7 @@ from core.io.report_parts import (
 from core.mechanics.balance import Balance
 from core.model.plan import Project
 from core.motion.drift import DRIFT_CAUTION
-from core.units import DisplayUnits, fmt, label
+from core.units import DisplayUnits, fmt, label, percent
 
 FRAME_NOTE = (
     "Hull frame: origin at the hull's reference point on the centreline, x forward, y to port. "
@@ -70,7 +70,7 @@ def balance_json(b: Balance) -> dict[str, Any]:
                 "assigned_pull_N": sh.pull_n,
                 "usable_pull_N": sh.usable_n,
                 "rated_pull_N": sh.rated_n,
-                "utilisation": sh.utilisation,
+                "share_of_rated_pull": sh.share_of_rated,
                 "force_N": {"ahead": sh.force[0], "to_port": sh.force[1]},
                 "force_bearing_deg": sh.lead_bearing_deg,
                 "yaw_moment_about_centroid_Nm": sh.moment_centroid_nm,
@@ -164,13 +164,13 @@ def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
     )
     lines.append(f"  Equivalent      {b.equivalent_words(u)}")
     lines.append(
-        f"  {'Tug':<14}{'Point':<22}{'Mode':<6}{'Setting':>17}{'Pull':>12}{'Bearing':>9}{'Moment':>14}{'Use':>6}"
+        f"  {'Tug':<14}{'Point':<22}{'Mode':<6}{'Setting':>17}{'Pull':>12}{'Bearing':>9}{'Moment':>14}{'Share of rated pull':>22}"
     )
     for sh in b.shares:
         lines.append(
             f"  {sh.tug:<14}{sh.point:<22}{sh.mode:<6}{sh.setting_words:>17}"
             f"{u.value(sh.pull_n, 'force'):>8.1f} {label(f):<3}{sh.lead_bearing_deg:>8.0f} "
-            f"{fmt(u.value(sh.moment_centroid_nm, 'moment')):>9} {label(m):<4}{sh.utilisation * 100:>5.0f}%"
+            f"{fmt(u.value(sh.moment_centroid_nm, 'moment')):>9} {label(m):<4}{percent(sh.share_of_rated) + ' %':>22}"
         )
     for n in b.notices:
         lines.append(f"  WARNING: {n.message}")

@@ -31,7 +31,7 @@ from core.solve.pulls import (
     PullsResult,
     shortfall_words,
 )
-from core.units import DisplayUnits, fmt, label
+from core.units import DisplayUnits, fmt, label, percent
 
 #: Directions listed in the text report's hold limits table, degrees true.
 TEXT_DIRECTIONS = tuple(range(0, 360, 30))
@@ -80,7 +80,7 @@ def _result_json(r: PullsResult) -> dict[str, Any]:
     p = r.problem
     return {
         "goal_met": r.feasible,
-        "largest_utilisation": r.max_utilisation,
+        "largest_setting": r.largest_setting,
         "total_pull_N": r.total_pull_n,
         "shortfall": {
             "force_ahead_N": float(r.shortfall[0]),
@@ -93,7 +93,7 @@ def _result_json(r: PullsResult) -> dict[str, Any]:
                 "point": pl.point,
                 "pull_N": float(r.pulls_n[i]),
                 "usable_pull_N": float(p.usable_n[i]),
-                "setting_percent": float(r.utilisation[i] * 100),
+                "setting_percent": float(r.settings[i] * 100),
                 "force_bearing_deg": r.bearing_deg(i),
                 "lead_deg": angle_to_bearing(float(r.leads_rad[i]))
                 if r.problem.placements[i].lead_sector_rad is not None
@@ -171,7 +171,7 @@ def solve_json(br: BodyResult) -> dict[str, Any] | None:
                 {
                     "tug_lost": case.tug,
                     "goal_still_met": case.holds,
-                    "largest_utilisation": case.worst_utilisation,
+                    "largest_setting": case.largest_setting,
                     "hardest_working_tug": case.worst_tug,
                     "shortfall": {
                         "force_ahead_N": float(case.result.shortfall[0]),
@@ -327,7 +327,7 @@ def solve_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
     }[g.kind]
     given = ""
     state = (
-        f"can be met, largest use {r.max_utilisation * 100:.0f} %"
+        f"can be met, largest setting {percent(r.largest_setting)} %"
         if r.feasible
         else f"CANNOT be met: {shortfall_words(r.shortfall, u)}"
     )
@@ -335,7 +335,7 @@ def solve_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
     for i, pl in enumerate(r.problem.placements):
         out.append(
             f"    {pl.tug:<14}{u.show(float(r.pulls_n[i]), 'force'):>10}  setting "
-            f"{setting_words(float(r.utilisation[i])):>6}  pulling towards {r.bearing_deg(i):05.1f} relative"
+            f"{setting_words(float(r.settings[i])):>6}  pulling towards {r.bearing_deg(i):05.1f} relative"
         )
     c = br.tug_lost
     worst = c.worst
@@ -351,7 +351,7 @@ def solve_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
     )
     for case in c.cases:
         res = (
-            f"holds, largest use {case.worst_utilisation * 100:.0f} % ({case.worst_tug})"
+            f"holds, largest setting {percent(case.largest_setting)} % ({case.worst_tug})"
             if case.holds
             else f"does not hold: {shortfall_words(case.result.shortfall, u)}"
         )

@@ -314,9 +314,11 @@ class TugShare:
         return setting_words(self.setting)
 
     @property
-    def utilisation(self) -> float:
-        """Assigned pull as a fraction of the tug's rated pull (ahead or astern); 0 for a
-        tug that cannot work the way it is placed (no rated pull there, so no pull)."""
+    def share_of_rated(self) -> float:
+        """Share of rated pull: the assigned pull as a fraction of the tug's rated pull at
+        its lead (bollard pull x its capability share there, before efficiency, towline
+        angle and headway); 0 for a tug that cannot work the way it is placed (no rated
+        pull there, so no pull). Not the setting, which is over the usable pull."""
         if self.rated_n > 0:
             return self.pull_n / self.rated_n
         return 0.0 if self.pull_n <= 0 else math.inf

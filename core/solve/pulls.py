@@ -15,7 +15,7 @@ point of the polygon: one force from the tug's point, with a real lead.
 The allocation, for n tugs, with each tug's use t_i its gauge in its polygon (the
 share of the way from nothing to the polygon's edge along its force):
 
-1. Spread the work: minimise the largest use t = max t_i subject to the tugs' wrench
+1. Spread the work: minimise the largest setting t = max t_i subject to the tugs' wrench
    (force ahead, force to port, moment about the centroid) = required (solved as its
    equivalent "largest s with s * required reachable at full use", t = 1 / s).
 2. Among those, the smallest total pull (a second linear programme with every t_i <= t).
@@ -323,7 +323,7 @@ class PullsResult:
         return self.problem.usable_n
 
     @property
-    def utilisation(self) -> np.ndarray:
+    def settings(self) -> np.ndarray:
         """(n,) pull as a fraction of the usable pull at its lead (the setting; 0 for a
         tug with none). Above 1 only where a non-convex capability was made convex."""
         u = self.usable_n
@@ -333,7 +333,7 @@ class PullsResult:
         """Tugs asked for more than their capability at the solved lead (the convex hull
         of a capability that is not convex), by name."""
         return tuple(
-            t for t, v in zip(self.problem.tugs, self.utilisation, strict=True) if v > 1 + 1e-6
+            t for t, v in zip(self.problem.tugs, self.settings, strict=True) if v > 1 + 1e-6
         )
 
     def what_each_does(self, units: DisplayUnits) -> tuple[str, ...]:
@@ -345,14 +345,14 @@ class PullsResult:
                 out.append(f"{p.tug}: not needed")
                 continue
             out.append(
-                f"{p.tug}: {units.show(pull, 'force')} ({self.utilisation[i] * 100:.0f} %) "
+                f"{p.tug}: {units.show(pull, 'force')} ({self.settings[i] * 100:.0f} %) "
                 f"towards {self.bearing_deg(i):05.1f} relative"
             )
         return tuple(out)
 
     @property
-    def max_utilisation(self) -> float:
-        return float(self.utilisation.max(initial=0.0))
+    def largest_setting(self) -> float:
+        return float(self.settings.max(initial=0.0))
 
     @property
     def total_pull_n(self) -> float:
@@ -373,7 +373,7 @@ class PullsResult:
         return tuple(
             replace(p, setting=float(s), lead_rad=float(lead))
             for p, s, lead in zip(
-                self.problem.placements, self.utilisation, self.leads_rad, strict=True
+                self.problem.placements, self.settings, self.leads_rad, strict=True
             )
         )
 
@@ -786,7 +786,7 @@ def _fitting_rows(problem: PullsProblem, u_ref: float) -> tuple[np.ndarray, np.n
 
 
 def _spread(sc: _Scaled, target: np.ndarray) -> np.ndarray | None:
-    """Steps 1 and 2: least largest utilisation, then least total pull; None if out of reach."""
+    """Steps 1 and 2: least largest setting, then least total pull; None if out of reach."""
     reach = sc.widest_reach(target)
     if reach < 1.0 - 1e-9:
         return None
@@ -985,8 +985,8 @@ class TugLostCase:
         return negligible(pulls + loads, p.length_m)
 
     @property
-    def worst_utilisation(self) -> float:
-        return self.result.max_utilisation
+    def largest_setting(self) -> float:
+        return self.result.largest_setting
 
     @property
     def worst_tug(self) -> str | None:
@@ -994,7 +994,7 @@ class TugLostCase:
         if not len(self.result.pulls_n):
             return None
         # one placement's name (the tugs property makes the tuple of all of them)
-        return self.result.problem.placements[int(np.argmax(self.result.utilisation))].tug
+        return self.result.problem.placements[int(np.argmax(self.result.settings))].tug
 
 
 @dataclass(frozen=True, slots=True, eq=False)
@@ -1019,7 +1019,7 @@ class TugLostCheck:
         w = np.array([1.0, 1.0, 1.0 / l_ref])
 
         def hurt(c: TugLostCase) -> tuple[float, float]:
-            return (float(np.abs(c.result.shortfall * w).sum()), c.worst_utilisation)
+            return (float(np.abs(c.result.shortfall * w).sum()), c.largest_setting)
 
         return max(self.cases, key=hurt)
 

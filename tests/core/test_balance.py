@@ -47,7 +47,7 @@ def test_bow_tug_pulling_to_port_walks_and_swings_bow_to_port() -> None:
     assert b.equivalent.offset_m == pytest.approx(30.0)
     share = b.shares[0]
     assert share.pull_n == pytest.approx(f)
-    assert share.utilisation == pytest.approx(0.5)
+    assert share.share_of_rated == pytest.approx(0.5)
     assert share.position == pytest.approx((60.0, 40.0))
 
 

@@ -121,8 +121,8 @@ def test_the_solver_asks_more_of_each_tug_with_way_on() -> None:
     assert rest.feasible and moving.feasible
     assert rest.pulls_n[0] == pytest.approx(18 * TF, rel=1e-6)
     assert moving.pulls_n[0] == pytest.approx(18 * TF, rel=1e-6)
-    assert moving.utilisation[0] == pytest.approx(18 / (30 * 0.65), rel=1e-6)
-    assert rest.utilisation[0] == pytest.approx(18 / 30, rel=1e-6)
+    assert moving.settings[0] == pytest.approx(18 / (30 * 0.65), rel=1e-6)
+    assert rest.settings[0] == pytest.approx(18 / 30, rel=1e-6)
     assert not fast.feasible
 
 

@@ -69,7 +69,7 @@ def _independent_b(stage: Stage) -> np.ndarray:
 
 
 def _linprog_allocation(b: np.ndarray, u: np.ndarray, tau: np.ndarray) -> tuple[float, float]:
-    """(least largest utilisation, least total pull at it) by two HiGHS solves, or (inf, inf).
+    """(least largest setting, least total pull at it) by two HiGHS solves, or (inf, inf).
 
     Variables are the pulls as fractions g of usable pull; rows are scaled to order one.
     """
@@ -125,7 +125,7 @@ def test_solved_pulls_match_an_independent_linprog(
     if t < 1 - 1e-7:
         assert result.feasible
     if result.feasible:
-        assert result.max_utilisation == pytest.approx(t, rel=1e-6, abs=1e-8)
+        assert result.largest_setting == pytest.approx(t, rel=1e-6, abs=1e-8)
         if not math.isnan(total):
             assert result.total_pull_n == pytest.approx(total, rel=1e-5, abs=1e-2)
 
@@ -195,7 +195,7 @@ def test_three_tugs_equal_fossens_pseudo_inverse() -> None:
 @given(st.lists(LEAD, min_size=4, max_size=6), st.integers(0, 2**31))
 def test_min_max_never_worse_than_the_pseudo_inverse(leads_deg: list[float], seed: int) -> None:
     # Where Fossen's unconstrained pseudo-inverse happens to respect the limits, it is one
-    # allowed allocation: the solved largest utilisation can only be lower or equal.
+    # allowed allocation: the solved largest setting can only be lower or equal.
     project, stage = _plan(leads_deg, [50.0] * len(leads_deg))
     b = _independent_b(stage)
     rng = np.random.default_rng(seed)
@@ -205,8 +205,8 @@ def test_min_max_never_worse_than_the_pseudo_inverse(leads_deg: list[float], see
     r = solve_pulls(pulls_problem(project, stage, goal=Goal("force", *tau)))
     assert r.feasible
     if np.all(f >= 0) and np.all(f <= 50 * TF):
-        assert r.max_utilisation <= f.max() / (50 * TF) + 1e-9
-    assert r.max_utilisation <= f_true.max() / (50 * TF) + 1e-9
+        assert r.largest_setting <= f.max() / (50 * TF) + 1e-9
+    assert r.largest_setting <= f_true.max() / (50 * TF) + 1e-9
 
 
 def test_impossible_goal_returns_the_shortfall() -> None:
@@ -339,12 +339,12 @@ def test_tug_lost_check_of_a_large_fleet_matches_linprog(
         alone = solve_pulls(problem.without(case.tug))
         assert case.result.feasible == alone.feasible
         # the same optimum; the pulls the same to the solvers' rounding (a millionth)
-        assert case.result.max_utilisation == pytest.approx(alone.max_utilisation, rel=1e-9)
+        assert case.result.largest_setting == pytest.approx(alone.largest_setting, rel=1e-9)
         assert case.result.total_pull_n == pytest.approx(alone.total_pull_n, rel=1e-6)
         np.testing.assert_allclose(case.result.pulls_n, alone.pulls_n, atol=1e-6 * u.max())
         keep = np.arange(len(u)) != i
         t, _total = _linprog_allocation(b[:, keep], u[keep], np.array(goal.target()))
         if case.result.feasible and not math.isinf(t):
-            assert case.result.max_utilisation == pytest.approx(t, rel=1e-6, abs=1e-8)
+            assert case.result.largest_setting == pytest.approx(t, rel=1e-6, abs=1e-8)
         if t < 1 - 1e-7:
             assert case.holds

@@ -88,7 +88,7 @@ def test_the_walked_exit_is_the_highs_reach(k: int, seed: int, sides: bool) -> N
 def test_a_large_fleet_solves_as_highs_does(
     leads_deg: list[float], bp_t: float, fx_t: float, fy_t: float, m_tm: float
 ) -> None:
-    # The solve's laws (least largest utilisation, then least total pull) by two HiGHS
+    # The solve's laws (least largest setting, then least total pull) by two HiGHS
     # programmes written out independently (tests.core.test_solve), for a fleet large
     # enough that the solve walks to the exit instead of searching the facets.
     goal = Goal("force", fx_t * 1e3, fy_t * 1e3, m_tm * 1e4)
@@ -102,7 +102,7 @@ def test_a_large_fleet_solves_as_highs_does(
     if math.isinf(t) or t > 1 + 1e-7 or t < 1e-6:
         return  # out of reach, or nothing asked: test_solve covers those laws
     assert result.feasible
-    assert result.max_utilisation == pytest.approx(t, rel=1e-6, abs=1e-8)
+    assert result.largest_setting == pytest.approx(t, rel=1e-6, abs=1e-8)
     if not math.isnan(total):
         assert result.total_pull_n == pytest.approx(total, rel=1e-5, abs=1e-2)
 

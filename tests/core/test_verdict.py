@@ -165,7 +165,7 @@ def test_pulls_as_set_that_miss_a_goal_the_tugs_can_meet_is_no_go_and_says_solve
     (r,) = [r for r in v.reasons if r.code == "pulls_miss_goal"]
     assert r.status == "no-go"
     assert "net force 15.0 t to port of it" in r.text
-    assert r.text.endswith("Solve pulls would meet it (largest use 0 %)")
+    assert r.text.endswith("Solve pulls would meet it (largest setting 0 %)")
 
 
 def test_each_tug_lost_as_set_is_the_stage_without_that_tug() -> None:

@@ -180,7 +180,7 @@ def test_solve_pulls_fills_every_setting_in_one_undo_step(holding, qtbot) -> Non
     ref = solve_pulls(pulls_problem(before, before.stages[0], goal=Goal("hold")))
     assert ref.feasible
     settings = [stage.placement(p.tug).setting for p in ref.problem.placements]
-    assert settings == pytest.approx(list(ref.utilisation), abs=1e-12)
+    assert settings == pytest.approx(list(ref.settings), abs=1e-12)
     # The stage now holds: tugs plus conditions sum to nothing, on the board's balance.
     b = c.balance()
     tol = 1e-6 * 30 * 9806.65
@@ -232,7 +232,7 @@ def test_live_solving_follows_a_drag(holding, qtbot) -> None:  # type: ignore[no
         move_with_button(view, start + QPointF(-8 * k, -5 * k).toPoint())
         stage = c.stage
         ref = solve_pulls(pulls_problem(c.project, stage, goal=Goal("hold")))
-        for p, s in zip(ref.problem.placements, ref.utilisation, strict=True):
+        for p, s in zip(ref.problem.placements, ref.settings, strict=True):
             assert stage.placement(p.tug).setting == pytest.approx(float(s), abs=1e-9)
         # The board's balance (patched on the drag's fast path) is the core's for this value.
         b, core_b = c.balance(), balance_of(c.project, stage, "Barge")
@@ -310,7 +310,7 @@ def test_live_solving_in_a_drag_keeps_working_sectors_at_their_leads(window, qtb
         fixed = replace(stage, placements=tuple(p.with_sector(None) for p in stage.placements))
         ref = solve_pulls(pulls_problem(c.project, fixed, goal=stage.goal))
         assert ref.feasible
-        for p, s in zip(ref.problem.placements, ref.utilisation, strict=True):
+        for p, s in zip(ref.problem.placements, ref.settings, strict=True):
             assert stage.placement(p.tug).setting == pytest.approx(float(s), abs=1e-9)
         codes = [r.code for r in stage_result(c.project, c.stage_index).verdict.reasons]
         assert "pulls_miss_goal" not in codes
