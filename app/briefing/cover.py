@@ -22,6 +22,7 @@ from app.briefing.layout import (
     heading,
 )
 from app.paint import style
+from core.analysis.limits import WIND_LIMIT_LABEL, WIND_LIMIT_MEASURE
 from core.analysis.stage import StageResult
 from core.analysis.verdict import Verdict
 from core.io.report import CAUTION
@@ -151,7 +152,7 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
                 Column("Current (towards)", 1.6),
                 Column("Depth / UKC", 1.2),
                 Column("Sea state", 0.6),
-                Column("Max wind", 0.9),
+                Column(WIND_LIMIT_LABEL, 1.0),
                 Column("Max current", 0.9),
                 Column("Min clearance", 1.1),
             ],
@@ -178,6 +179,8 @@ def cover(project: Project, results: Sequence[StageResult]) -> list[Block]:
     out.append(
         Text(
             "The limits are the stage's own (min clearance: the stage's, else the plan's margin). "
+            f"The wind limit is a {WIND_LIMIT_MEASURE}: the planned wind is brought to 10 m "
+            "and compared with it, and gusts above it are a caution. "
             "Each stage's verdict above says whether its planned conditions are within them "
             "and what its tugs can hold.",
             8.0,

@@ -13,6 +13,7 @@ from app.briefing.layout import FAIL, INK, MUTED, RULE, Ctx
 from app.paint.rings import polar_scale
 from app.paint.style import ALL_TUGS, ALL_TUGS_FILL, TUG_LOST
 from app.paint.symbols import draw_planned_wind
+from core.analysis.limits import wind_limit_as_given
 from core.model.plan import Stage
 from core.solve.holdlimits import HoldLimits, limit_at, limit_words
 from core.units import DisplayUnits, fmt, label
@@ -53,7 +54,7 @@ class HoldPlot:
         lost_v = self._speed(np.asarray(lim.worst_lost_ms)) if lim.with_lost else None
         c = self.stage.conditions
         planned = u.value(c.wind_speed_ms, "speed")
-        max_wind = self.stage.limits.max_wind_ms
+        max_wind = wind_limit_as_given(self.stage)
         top, ring = polar_scale(lim.all_tugs_ms, c.wind_speed_ms, max_wind, u)
         size = min(rect.height(), rect.width() * 0.55)
         r_max = size / 2 - ctx.mm(6)

@@ -38,6 +38,7 @@ from app.paint import style
 from app.paint.rings import current_scale, polar_scale
 from app.paint.symbols import draw_planned_wind
 from app.panels.body_choice import BodyChoice
+from core.analysis.limits import wind_limit_as_given
 from core.errors import TowboardError
 from core.model.plan import Project, Stage
 from core.solve.holdlimits import (
@@ -147,7 +148,7 @@ class HoldPlot(QWidget):
         return polar_scale(
             None if self.limits is None else self.limits.all_tugs_ms,
             0.0 if stage is None else stage.conditions.wind_speed_ms,
-            None if stage is None else stage.limits.max_wind_ms,
+            None if stage is None else wind_limit_as_given(stage),
             self.units,
         )
 
@@ -236,7 +237,7 @@ class HoldPlot(QWidget):
         if self.stage is None:
             return None
         lim = self.stage.limits
-        return lim.max_current_ms if self.flow == "current" else lim.max_wind_ms
+        return lim.max_current_ms if self.flow == "current" else wind_limit_as_given(self.stage)
 
     def _at(self, centre: QPointF, radius: float, top: float, from_deg: float, v: float) -> QPointF:
         r = radius * min(max(v, 0.0), top) / top if top > 0 else 0.0
@@ -798,8 +799,9 @@ def summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
         lost = limit_at(lim, c.wind_from_deg, lim.worst_lost_ms)
         text += f", {_speed(lost, units)} with the worst tug lost"
     text += f" (planned {units.show(c.wind_speed_ms, 'speed')}"
-    if stage.limits.max_wind_ms is not None:
-        text += f", limit {units.show(stage.limits.max_wind_ms, 'speed')}"
+    limit = wind_limit_as_given(stage)
+    if limit is not None:
+        text += f", limit {units.show(limit, 'speed')}"
     text += f"). Lowest: {_speed(v_all, units)} from {d_all:03.0f}°T"
     if lim.with_lost:
         d_l, v_l = lim.lowest(lim.worst_lost_ms)

@@ -30,6 +30,7 @@ from app.controller import Controller
 from app.guard import guarded
 from app.numbers import message, parse_optional, parse_value
 from app.panels.panel_field import PanelField
+from core.analysis.limits import WIND_LIMIT_LABEL
 from core.errors import InputError
 from core.mechanics.site import body_pose
 from core.model import rules
@@ -71,7 +72,7 @@ class StageDetails(QWidget):
     """Kind, notes, limits and poses of the stage shown; the plan's clearance margin."""
 
     LIMITS: tuple[tuple[str, str, Quantity], ...] = (
-        ("max_wind_ms", "Max wind", "speed"),
+        ("max_wind_ms", WIND_LIMIT_LABEL, "speed"),
         ("max_current_ms", "Max current", "speed"),
         ("min_clearance_m", "Min clearance", "length"),
     )

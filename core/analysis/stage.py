@@ -20,6 +20,7 @@ from collections import OrderedDict
 from dataclasses import dataclass, field
 
 from core.analysis.drift import drift_of
+from core.analysis.limits import WindAgainstLimit, wind_against_limit
 from core.analysis.swing import SwingSense, swing_sense
 from core.analysis.verdict import Verdict, judge
 from core.errors import TowboardError
@@ -166,6 +167,12 @@ class StageResult:
             return (out_of_reach, nogo, len(about) - nogo, use, -k)
 
         return w[max(range(len(w)), key=rank)]
+
+    @property
+    def wind_limit(self) -> WindAgainstLimit | None:
+        """The planned wind against the stage's wind limit, in its measure (mean at 10 m);
+        None without a limit (core.analysis.limits, as the verdict judges it)."""
+        return wind_against_limit(self.stage)
 
     @property
     def drift(self) -> StageDrift:

@@ -22,6 +22,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Literal
 
+from core.analysis.limits import WIND_LIMIT_MEASURE, wind_against_limit
 from core.analysis.wind_limit import wind_limit_words
 from core.frames import angle_to_bearing, turning_words
 from core.mechanics.clearance import Clearance, clearance_notices
@@ -342,22 +343,48 @@ def _wind_limit_reasons(stage: Stage, b: BodyResult, u: DisplayUnits) -> list[Re
 
 
 def _limit_reasons(stage: Stage, u: DisplayUnits) -> list[Reason]:
-    """The planned conditions against the stage's own go / no-go limits."""
+    """The planned conditions against the stage's own go / no-go limits: the wind in the
+    limit's measure, the mean at 10 m (core.analysis.limits), with a caution where only
+    the gusts the load is worked with are above it."""
     c, lim = stage.conditions, stage.limits
     out = []
-    for what, planned, limit in (
-        ("wind", c.wind_speed_ms, lim.max_wind_ms),
-        ("current", c.current_speed_ms, lim.max_current_ms),
-    ):
-        if limit is not None and planned > limit * (1 + 1e-9):
+    wind = wind_against_limit(stage)
+    if wind is not None:
+        limit = f"{u.show(wind.limit_ms, 'speed')} ({WIND_LIMIT_MEASURE})"
+        given = (
+            ""
+            if c.wind_height_m == 10.0
+            else f" (given as {u.show(c.wind_speed_ms, 'speed')} at {c.wind_height_m:g} m)"
+        )
+        if wind.over:
             out.append(
                 reason(
                     "conditions_over_limit",
-                    f"planned {what} {u.show(planned, 'speed')} is above the stage's go / no-go "
-                    f"limit {u.show(limit, 'speed')}",
+                    f"planned wind {u.show(wind.mean_10m_ms, 'speed')} mean at 10 m{given} is "
+                    f"above the stage's go / no-go limit {limit}",
                     stage.name,
                 )
             )
+        elif wind.gusts_over:
+            out.append(
+                reason(
+                    "gusts_over_limit",
+                    f"gusts of {u.show(wind.gust_10m_ms, 'speed')} at 10 m (planned mean "
+                    f"{u.show(wind.mean_10m_ms, 'speed')}{given} x gust factor "
+                    f"{c.gust_factor:.2f}), which the load is worked with, are above the "
+                    f"stage's limit {limit}",
+                    stage.name,
+                )
+            )
+    if lim.max_current_ms is not None and c.current_speed_ms > lim.max_current_ms * (1 + 1e-9):
+        out.append(
+            reason(
+                "conditions_over_limit",
+                f"planned current {u.show(c.current_speed_ms, 'speed')} is above the stage's "
+                f"go / no-go limit {u.show(lim.max_current_ms, 'speed')}",
+                stage.name,
+            )
+        )
     return out
 
 

@@ -19,6 +19,7 @@ from core.io.report_parts import (
     solve_lines,
     swing_json,
     swing_lines,
+    wind_limit_lines,
 )
 from core.mechanics.balance import Balance
 from core.model.plan import Project
@@ -186,6 +187,7 @@ def report_text(project: Project) -> str:
         out.append(f"Stage {r.index + 1}: {s.name} [{s.kind}]")
         out.append(f"  Verdict         {r.verdict.label}")
         out.extend(f"    {reason.status.upper():<8}{reason.text}" for reason in r.verdict.reasons)
+        out.extend(wind_limit_lines(r, u))
         out.extend(swing_lines(r))
         for b in r.worked:
             if len(r.worked) > 1:

@@ -12,6 +12,7 @@ from typing import Any
 
 import numpy as np
 
+from core.analysis.limits import WIND_LIMIT_LABEL
 from core.analysis.stage import BodyResult, StageResult
 from core.analysis.swing import is_swing_stage, swing_words
 from core.frames import angle_to_bearing, turning_words
@@ -265,6 +266,20 @@ def swing_lines(r: StageResult) -> list[str]:
     out = [f"  {'Swing':<16}{swing_words(r.stage)}"]
     out.extend(f"  {'':<16}{b.swing.words(u)}" for b in r.worked if b.swing is not None)
     return out
+
+
+def wind_limit_lines(r: StageResult, u: DisplayUnits) -> list[str]:
+    """The stage's wind limit in its measure and the planned wind in the same measure."""
+    w = r.wind_limit
+    if w is None:
+        return []
+    gusts = (
+        "" if w.gust_10m_ms == w.mean_10m_ms else f", {u.show(w.gust_10m_ms, 'speed')} with gusts"
+    )
+    return [
+        f"  {WIND_LIMIT_LABEL}  {u.show(w.limit_ms, 'speed')}: planned "
+        f"{u.show(w.mean_10m_ms, 'speed')} mean at 10 m{gusts}"
+    ]
 
 
 def conditions_lines(stage: Stage, br: BodyResult, u: DisplayUnits) -> list[str]:

@@ -202,3 +202,20 @@ def test_a_pose_row_left_from_another_plan_adds_no_pose(form):
     assert all(pose.body in names for s in p.stages for pose in s.poses)
     assert dumps(loads(dumps(p))) == dumps(p)
     assert w.poses.item(0, 0).text() == "Lark pair"  # the table is made again from the plan
+
+
+def test_the_wind_limit_says_its_measure_in_the_form_and_the_briefing(form):
+    # the limit is a mean wind at 10 m (core.analysis.limits); every view names it so
+    from PySide6.QtWidgets import QLabel
+
+    from app.briefing.cover import cover
+    from core.analysis.stage import plan_results
+
+    controller, w = form
+    labels = [lb.text() for lb in w.findChildren(QLabel)]
+    assert "Max wind (mean at 10 m)" in labels and "Max wind" not in labels
+    project = controller.project
+    titles = [
+        c.title for b in cover(project, plan_results(project)) for c in getattr(b, "columns", [])
+    ]
+    assert "Max wind (mean at 10 m)" in titles and "Max wind" not in titles

@@ -1,0 +1,81 @@
+"""A stage's wind limit is a mean wind at 10 m, and the planned wind is compared in that
+measure (F5 of the hand check: 19 kn with gust factor 1.4, worked as 26.6 kn for the
+load, passed a 20 kn limit unremarked, and a wind given at 30 m was compared as given)."""
+
+from __future__ import annotations
+
+from dataclasses import replace
+
+import pytest
+
+from core.analysis.limits import WIND_LIMIT_LABEL, wind_against_limit
+from core.analysis.stage import plan_results
+from core.io.projectfile import load
+from core.io.report import report_text
+from core.model.plan import Project
+from core.model.rules import KNOT
+from tests.conftest import SAMPLES
+
+TOW_OUT = 3  # the deck barge's stage 4, limit 20 kn
+
+
+def _with_wind(speed_kn: float, gust: float, height_m: float = 10.0) -> Project:
+    project = load(SAMPLES / "deck_barge_unberth.towboard")
+    s = project.stages[TOW_OUT]
+    c = replace(
+        s.conditions, wind_speed_ms=speed_kn * KNOT, gust_factor=gust, wind_height_m=height_m
+    )
+    return project.with_stage(replace(s, conditions=c), TOW_OUT)
+
+
+def _reasons(project: Project) -> dict[str, str]:
+    r = plan_results(project)[TOW_OUT]
+    return {x.code: x.text for x in r.verdict.reasons if x.code.endswith("over_limit")}
+
+
+def test_gusts_over_the_limit_are_a_caution_the_mean_over_it_no_go() -> None:
+    # hand check: 19 kn x 1.4 = 26.6 kn of gusts against 20 kn; the mean 19 kn is within it
+    gusty = _with_wind(19.0, 1.4)
+    w = wind_against_limit(gusty.stages[TOW_OUT])
+    assert w is not None
+    assert w.mean_10m_ms / KNOT == pytest.approx(19.0)
+    assert w.gust_10m_ms / KNOT == pytest.approx(26.6)
+    assert not w.over and w.gusts_over
+    reasons = _reasons(gusty)
+    assert list(reasons) == ["gusts_over_limit"]
+    assert reasons["gusts_over_limit"].startswith("gusts of 26.6 kn at 10 m")
+    assert "limit 20.0 kn (mean at 10 m)" in reasons["gusts_over_limit"]
+    assert plan_results(gusty)[TOW_OUT].verdict.status != "go"
+
+    over = _reasons(_with_wind(21.0, 1.0))
+    assert over == {
+        "conditions_over_limit": "planned wind 21.0 kn mean at 10 m is above the stage's "
+        "go / no-go limit 20.0 kn (mean at 10 m)"
+    }
+
+
+def test_a_wind_given_at_another_height_is_brought_to_10_m_first() -> None:
+    # hand calculation, power law U10 = U(z) / (z/10)^a, a = 0.12 (the sample's exponent):
+    # (30/10)^0.12 = 1.14091; 22 kn at 30 m = 19.28 kn at 10 m, within the 20 kn limit;
+    # 19 kn at 30 m x 1.4 = 23.31 kn of gusts at 10 m, above it.
+    calm = _with_wind(22.0, 1.0, 30.0)
+    w = wind_against_limit(calm.stages[TOW_OUT])
+    assert w is not None
+    assert w.mean_10m_ms / KNOT == pytest.approx(22.0 / 1.14091, rel=1e-4)
+    assert not w.over and not w.gusts_over
+    assert _reasons(calm) == {}
+
+    gusty = _with_wind(19.0, 1.4, 30.0)
+    reasons = _reasons(gusty)
+    assert list(reasons) == ["gusts_over_limit"]
+    assert reasons["gusts_over_limit"].startswith(
+        "gusts of 23.3 kn at 10 m (planned mean 16.7 kn (given as 19.0 kn at 30 m)"
+    )
+
+
+def test_the_report_names_the_limit_and_the_planned_wind_in_its_measure() -> None:
+    text = report_text(_with_wind(19.0, 1.4)).split("Stage 4:")[1]
+    assert WIND_LIMIT_LABEL == "Max wind (mean at 10 m)"
+    assert "Max wind (mean at 10 m) 20.0 kn: planned 19.0 kn mean at 10 m, 26.6 kn with gusts" in (
+        " ".join(text.split())
+    )
