@@ -77,7 +77,7 @@ def test_goal_met_then_missed_when_a_substitute_keeps_the_setting():
     # 20 t ahead less 0.5 x 30 t = 15 t astern leaves 5 t ahead
     assert "net force 5.0 t ahead of it" in f.message
     # with no wind or current, tugs that do not pull hold it: re-solving meets the goal
-    assert f.message.endswith("; Solve pulls would meet it (largest use 0 %)")
+    assert f.message.endswith("; Solve pulls would meet it (largest setting 0 %)")
 
 
 def test_a_goal_the_substitute_cannot_meet_even_re_solved():
@@ -114,7 +114,8 @@ def test_conditions_over_the_stage_limit_and_low_clearance_are_no_go():
     codes = sorted(n.code for n in c.failures)
     assert codes == ["conditions_over_limit", "low_clearance"]
     assert any(
-        "planned wind 25.0 kn is above the stage's go / no-go limit 20.0 kn" in n.message
+        "planned wind 25.0 kn mean at 10 m is above the stage's go / no-go limit 20.0 kn "
+        "(mean at 10 m)" in n.message
         for n in c.failures
     )
 

@@ -218,7 +218,7 @@ def _random_fleet(seed: int) -> list[tuple[str, float, float, tuple[float, float
 
 @pytest.mark.parametrize("seed", range(8))
 def test_solve_agrees_with_linprog_on_fine_polygons(seed: int) -> None:
-    # The least largest use (1 / the widest reach along the goal) on random fleets of lines
+    # The least largest setting (1 / the widest reach along the goal) on random fleets of lines
     # and pushes with sectors, ASD capability: within 1e-3 relative of HiGHS on polygons of
     # 64 to 1024 vertices (the program's own polygons are at most 5 deg a side: 1e-3).
     project, stage = _plan(_random_fleet(seed))
