@@ -22,7 +22,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Literal
 
-from core.analysis.limits import WIND_LIMIT_MEASURE, wind_against_limit
+from core.analysis.limits import WIND_LIMIT_MEASURE, wind_against_limit, wind_limit_as_given
 from core.analysis.wind_limit import wind_limit_words
 from core.frames import angle_to_bearing, turning_words
 from core.mechanics.clearance import Clearance, clearance_notices
@@ -338,7 +338,8 @@ def _wind_limit_reasons(stage: Stage, b: BodyResult, u: DisplayUnits) -> list[Re
     (core.analysis.wind_limit), from the body's hold limits already swept."""
     if b.goal is None or b.hold_limits is None:
         return []
-    text = wind_limit_words(b.hold_limits, stage.limits.max_wind_ms, u)
+    # the hold limits are speeds as the stage's wind is given: the limit brought to them
+    text = wind_limit_words(b.hold_limits, wind_limit_as_given(stage), u)
     return [reason("wind_limit_not_held_all_round", f"{b.name}: {text}", b.name)] if text else []
 
 
