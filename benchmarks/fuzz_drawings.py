@@ -19,7 +19,6 @@ import signal
 import sys
 import tempfile
 import time
-import traceback
 import warnings
 from pathlib import Path
 
@@ -28,6 +27,7 @@ sys.path.insert(0, str(ROOT))
 
 from tests.fuzz.drawing_checks import drawing_outcome, table_outcome  # noqa: E402
 from tests.fuzz.drawing_mutations import drawing_case, table_case  # noqa: E402
+from tests.fuzz.failures import record_failure  # noqa: E402
 
 #: A case still running after this many seconds is stopped and counted a failure (a hang).
 CASE_SECONDS = 120
@@ -76,13 +76,7 @@ def main() -> None:
             else:
                 counts[f"{what} {table_outcome(what, data, work)}"] += 1
         except Exception as e:
-            where = traceback.extract_tb(e.__traceback__)[-1]
-            key = f"{type(e).__name__} at {Path(where.filename).name}:{where.lineno}: {e}"[:200]
-            if key not in failures:
-                bad = out_dir / f"failure-{len(failures) + 1}{suffix}"
-                bad.write_bytes(data)
-                print(f"case {i + 1} ({how}): {key}\n  file: {bad}", flush=True)
-            failures[key] += 1
+            record_failure(e, data, failures, out_dir, suffix, f"case {i + 1} ({how})")
         finally:
             signal.alarm(0)
         if (i + 1) % 1000 == 0:

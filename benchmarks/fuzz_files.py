@@ -18,7 +18,6 @@ import random
 import sys
 import tempfile
 import time
-import traceback
 import warnings
 from pathlib import Path
 
@@ -27,6 +26,7 @@ sys.path.insert(0, str(ROOT))
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
 from tests.fuzz.checks import brief_is_finite, outcome  # noqa: E402
+from tests.fuzz.failures import record_failure  # noqa: E402
 from tests.fuzz.mutations import random_case  # noqa: E402
 
 
@@ -64,13 +64,7 @@ def main() -> None:
                 brief_is_finite(project, out_dir)
                 counts["briefed"] += 1
         except Exception as e:
-            where = traceback.extract_tb(e.__traceback__)[-1]
-            key = f"{type(e).__name__} at {Path(where.filename).name}:{where.lineno}: {e}"[:200]
-            if key not in failures:
-                bad = out_dir / f"failure-{len(failures) + 1}.towboard"
-                bad.write_bytes(data)
-                print(f"case {i + 1}: {key}\n  file: {bad}", flush=True)
-            failures[key] += 1
+            record_failure(e, data, failures, out_dir, ".towboard", f"case {i + 1}")
         if (i + 1) % 1000 == 0:
             print(f"{i + 1} files, {dict(counts)}, {sum(failures.values())} failed", flush=True)
     spent = time.perf_counter() - t0
