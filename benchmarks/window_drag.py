@@ -109,15 +109,16 @@ class Subject:
 
 def _tug_grip(view, controller, pulling: bool = False):  # type: ignore[no-untyped-def]
     """The viewport point of the first tug on a line (its towing point); ``pulling``: the
-    first on a line that pulls (with live solving, a tug the solver gives no pull may be
-    dragged without any setting changing)."""
+    tug on a line with the largest setting (with live solving, a tug the solver gives no
+    pull may be dragged without any setting changing; with 200 tugs sharing the load,
+    every setting is under 1 %)."""
     from PySide6.QtCore import QPointF
 
     r = next(iter(controller.results().values()))
     lay = r.layout
     rows = [k for k in range(len(lay.placements)) if not lay.is_push[k]]
     if pulling:
-        rows = [k for k in rows if lay.placements[k].setting > 0.01] or rows
+        rows = [max(rows, key=lambda k: lay.placements[k].setting)]
     return QPointF(view.mapFromScene(QPointF(*lay.positions[rows[0]])))
 
 
@@ -585,8 +586,7 @@ def main() -> None:
         type=int,
         nargs="*",
         default=None,
-        help="drag with live solving on only with these numbers of tugs (default: every "
-        "--tugs; 200 tugs live take seconds a move)",
+        help="drag with live solving on only with these numbers of tugs (default: every --tugs)",
     )
     ap.add_argument("--interval", type=float, default=FRAME_MS, help="ms between moves")
     ap.add_argument("--child", action="store_true", help=argparse.SUPPRESS)
