@@ -20,7 +20,8 @@ A tug on a towline takes only the leads of its sector that run clear of the hull
 (core.mechanics.leads.clear_arc: the longest unbroken run of them, and of a run wider
 than half a turn the half turn about its middle, since a convex set spanning more would
 hold forces along the leads cut), so that no solve proposes a lead the verdict would call
-over the hull; a sector with none gives no set.
+over the hull; a sector with none gives no set. :func:`used_arc` gives that part, and the
+board draws it.
 
 A tug without a sector keeps its lead as set: its set is the segment from nothing to
 its usable pull along that lead. A push (not made fast) stays at most
@@ -287,15 +288,12 @@ def _each_tugs_sets(
                 polys.append(np.zeros((0, 2)))
             continue
         sectors[i] = True
-        lo, hi = p.lead_sector_rad
-        if not layout.is_push[i]:
-            # a towline takes only the leads that run clear of the hull
-            arc = _clear_part(layout, i, frame[i], (lo, hi))
-            if arc is None:
-                polys.append(np.zeros((0, 2)))
-                no_clear.append(i)
-                continue
-            lo, hi = arc
+        arc = used_arc(layout, i)  # a towline's leads clear of the hull
+        if arc is None:
+            polys.append(np.zeros((0, 2)))
+            no_clear.append(i)
+            continue
+        lo, hi = arc
         curve = layout.curves[i] if layout.curves else None
         on_line = layout.share_angle_rad is not None and not math.isnan(layout.share_angle_rad[i])
         breaks = (
@@ -331,19 +329,27 @@ def _each_tugs_sets(
     )
 
 
-def _clear_part(
-    layout: TugLayout, i: int, frame_rad: float, sector: tuple[float, float]
-) -> tuple[float, float] | None:
-    """Tug ``i``'s working sector cut to the leads its towline takes clear of the hull
-    (core.mechanics.leads.clear_arc); None when no lead does."""
-    if layout.outline is None or layout.over_allowance_m is None:
-        return sector
+def used_arc(layout: TugLayout, i: int) -> tuple[float, float] | None:
+    """The leads of tug ``i``'s working sector that Solve and the hold limits take, (lo, hi)
+    in rad from its lead 0 (``layout.lead_frame_rad[i]``), lo <= hi: for a towline the part
+    clear of the hull (core.mechanics.leads.clear_arc, a run wider than half a turn cut to
+    the half turn about its middle), for a push the whole sector; None when no lead runs
+    clear (the tug is left out: notice ``no_clear_lead``). The board draws this arc.
+
+    Tug ``i`` must have a working sector and the layout its lead frames.
+    """
     p = layout.placements[i]
+    frame = layout.lead_frame_rad
+    if p.lead_sector_rad is None or frame is None:
+        raise ValueError(f"{p.tug} has no working sector in this layout")
+    sector = p.lead_sector_rad
+    if layout.is_push[i] or layout.outline is None or layout.over_allowance_m is None:
+        return sector
     point = (float(layout.points[i, 0]), float(layout.points[i, 1]))
     arc = clear_arc(
         layout.outline,
         point,
-        float(frame_rad),
+        float(frame[i]),
         float(p.line_length_m),
         float(layout.over_allowance_m[i]),
         sector,

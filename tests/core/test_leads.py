@@ -234,3 +234,29 @@ def test_a_sector_wholly_over_the_hull_leaves_the_tug_out_and_says_so() -> None:
         "A: no lead in its working sector from Bow runs clear of the hull; the solve leaves it out"
     ]
     assert solve_pulls(problem).pulls_n[0] == 0.0
+
+
+def test_used_arc_is_the_part_the_tugs_polygon_is_made_of() -> None:
+    # The bow tug's whole circle is clear from about -124 to +124 degrees (above), wider
+    # than half a turn: the half turn about its middle, -90..90, is what the solve takes.
+    from core.mechanics.balance import tug_layout
+    from core.mechanics.bodies import stage_body
+    from core.mechanics.tugsets import tug_sets, used_arc
+
+    project = _sector_plan(Goal("hold"))
+    stage = project.stages[0]
+    body = stage_body(project, stage)
+    layout = tug_layout(project, stage, body)
+    lo, hi = used_arc(layout, 0)  # type: ignore[misc]
+    assert math.remainder(lo + math.pi / 2, 2 * math.pi) == pytest.approx(0.0, abs=1e-9)
+    assert hi - lo == pytest.approx(math.pi)
+    # every vertex of its polygon lies along a lead of that arc, and the ends are among them
+    sets = tug_sets(layout, body.centroid)
+    leads = sets.vertex_lead[sets.vertex_tug == 0]
+    off = np.mod(leads - lo, 2 * math.pi)
+    assert np.all(off <= hi - lo + 1e-9)
+    assert off.min() == pytest.approx(0.0, abs=1e-9)
+    assert off.max() == pytest.approx(hi - lo)
+    # a sector wholly over the hull: none
+    over = replace(stage, placements=(stage.placements[0].with_sector((3.0, 3.2)),))
+    assert used_arc(tug_layout(project, over, body), 0) is None
