@@ -3,11 +3,17 @@
 The wedge shows where the tug may lie when the pulls are solved: for a tug on a line,
 the directions its towline may lead (the tug sits on the arc, at its line's length); for
 a tug at a push point, the directions it may push from (the wedge lies outside the hull,
-opposite its force). A whole circle is a faint disc. The selected tug's wedge has a knob
+opposite its force). A whole circle is a faint disc. Only the part of it the solve takes
+(core.mechanics.tugsets.used_arc: a towline's leads clear of the hull, at most a half turn
+of them where some were cut) is filled; the rest is hatched, and all of it hatched when no
+lead runs clear. The selected tug's wedge has a knob
 at the end of each edge: drag one to move that limit (whole degrees of the relative
 bearing of the force, 5 degrees with Shift); the drag previews live and records one
-undo step on release. The sector is the placement's own (core.model.tugs.Placement); the
-layer draws it and writes it back, nothing else.
+undo step on release. The knobs are on the sector's own ends, not the used part's: they
+edit the sector. The sector is the placement's own (core.model.tugs.Placement); the layer
+draws it and the core's used arc, and writes the sector back, nothing else. The used arc
+is asked of the core again only when what it hangs on changed (the tug's point, lead
+frame, line, sector, or the hull's outline), not on every move of a drag.
 
 Printed and exported boards (a scene for a fixed stage) show no wedges.
 """
@@ -20,7 +26,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 from PySide6.QtCore import QPointF, QRectF, Qt
-from PySide6.QtGui import QPainter, QPainterPath, QPen
+from PySide6.QtGui import QBrush, QPainter, QPainterPath, QPen
 from PySide6.QtWidgets import QGraphicsItem, QStyleOptionGraphicsItem, QWidget
 from shiboken6 import isValid
 
@@ -29,6 +35,8 @@ from app.guard import guarded
 from app.paint import style
 from app.paint.shapes import TUG_LENGTH_M
 from core.frames import angle_to_bearing, wrap_pi
+from core.mechanics.balance import TugLayout
+from core.mechanics.tugsets import used_arc
 from core.model.tugs import Placement
 
 if TYPE_CHECKING:
@@ -42,8 +50,26 @@ PUSH_RADIUS_M = 1.25 * TUG_LENGTH_M
 KNOB_PX = 11.0
 
 
+def _pie(apex: QPointF, radius: float, start: float, width: float) -> QPainterPath:
+    """A wedge from ``start`` counter-clockwise through ``width`` (rad, body frame): a disc
+    for a whole turn."""
+    path = QPainterPath()
+    r = radius
+    box = QRectF(apex.x() - r, apex.y() - r, 2 * r, 2 * r)
+    if width >= TAU - 1e-9:
+        path.addEllipse(box)
+    elif width > 0.0:
+        # arcTo's angles run as on a y-down screen; the body frame has y up (to port)
+        path.moveTo(apex)
+        path.arcTo(box, -math.degrees(start), -math.degrees(width))
+        path.closeSubpath()
+    return path
+
+
 class SectorWedge(QGraphicsItem):
-    """A faint wedge (body frame, m): from ``start`` counter-clockwise through ``width``."""
+    """A faint wedge (body frame, m): from ``start`` counter-clockwise through ``width``,
+    the part the solve uses (``used``: its start and width, None for none) filled and the
+    rest hatched."""
 
     def __init__(self, parent: QGraphicsItem) -> None:
         super().__init__(parent)
@@ -53,8 +79,11 @@ class SectorWedge(QGraphicsItem):
         self.start = 0.0
         self.width = 0.0
         self.radius = -1.0  # no geometry yet
+        self.used: tuple[float, float] | None = None
         self.selected = False
-        self._path = QPainterPath()
+        self.used_path = QPainterPath()
+        self.unused_path = QPainterPath()
+        self._cuts: list[float] = []  # the used part's ends that are not the sector's, rad
         self._rect = QRectF()
 
     def set_selected(self, on: bool) -> None:
@@ -62,31 +91,61 @@ class SectorWedge(QGraphicsItem):
             self.selected = on
             self.update()
 
-    def set_geometry(self, apex: QPointF, start: float, width: float, radius: float) -> None:
-        if (apex, start, width, radius) == (self.apex, self.start, self.width, self.radius):
+    def set_geometry(
+        self,
+        apex: QPointF,
+        start: float,
+        width: float,
+        radius: float,
+        used: tuple[float, float] | None,
+    ) -> None:
+        """The sector and the part of it the solve uses (start, width; rad, body frame)."""
+        if (apex, start, width, radius, used) == (
+            self.apex,
+            self.start,
+            self.width,
+            self.radius,
+            self.used,
+        ):
             return  # unchanged (a drag of another tug redraws the board on every move)
         self.prepareGeometryChange()
         self.apex, self.start, self.width, self.radius = QPointF(apex), start, width, radius
-        path = QPainterPath()
-        r = radius
-        box = QRectF(apex.x() - r, apex.y() - r, 2 * r, 2 * r)
-        if width >= TAU - 1e-9:
-            path.addEllipse(box)
+        self.used = used
+        whole = width >= TAU - 1e-9
+        self._cuts = []
+        if used is None:
+            self.used_path = QPainterPath()
+            self.unused_path = _pie(apex, radius, start, width)
         else:
-            # arcTo's angles run as on a y-down screen; the body frame has y up (to port)
-            path.moveTo(apex)
-            path.arcTo(box, -math.degrees(start), -math.degrees(width))
-            path.closeSubpath()
-        self._path = path
-        self._rect = box.adjusted(-1, -1, 1, 1)
+            # within the sector (the core's arc of a whole circle may start past its end)
+            u_start, u_width = used
+            self.used_path = _pie(apex, radius, u_start, u_width)
+            self.unused_path = QPainterPath()
+            if u_width < TAU - 1e-9:
+                u_end = u_start + u_width
+                if whole:
+                    self.unused_path = _pie(apex, radius, u_end, TAU - u_width)
+                    self._cuts = [u_start, u_end]
+                else:
+                    if u_start - start > 1e-9:
+                        self.unused_path.addPath(_pie(apex, radius, start, u_start - start))
+                        self._cuts.append(u_start)
+                    if start + width - u_end > 1e-9:
+                        self.unused_path.addPath(_pie(apex, radius, u_end, start + width - u_end))
+                        self._cuts.append(u_end)
+        r = radius
+        self._rect = QRectF(apex.x() - r, apex.y() - r, 2 * r, 2 * r).adjusted(-1, -1, 1, 1)
         self.update()
+
+    def _rim(self, angle: float) -> QPointF:
+        return QPointF(
+            self.apex.x() + self.radius * math.cos(angle),
+            self.apex.y() + self.radius * math.sin(angle),
+        )
 
     def edge_end(self, which: str) -> QPointF:
         """The outer end of the ``"low"`` (start) or ``"high"`` edge, m."""
-        a = self.start if which == "low" else self.start + self.width
-        return QPointF(
-            self.apex.x() + self.radius * math.cos(a), self.apex.y() + self.radius * math.sin(a)
-        )
+        return self._rim(self.start if which == "low" else self.start + self.width)
 
     @guarded(default=QRectF)
     def boundingRect(self) -> QRectF:
@@ -102,15 +161,23 @@ class SectorWedge(QGraphicsItem):
     ) -> None:
         try:
             k = style.device_scale(painter)
+            sel = self.selected
             painter.setRenderHint(QPainter.RenderHint.Antialiasing)
             painter.setPen(Qt.PenStyle.NoPen)
-            painter.setBrush(style.SECTOR_FILL_SELECTED if self.selected else style.SECTOR_FILL)
-            painter.drawPath(self._path)
+            painter.setBrush(style.SECTOR_FILL_SELECTED if sel else style.SECTOR_FILL)
+            painter.drawPath(self.used_path)
+            if not self.unused_path.isEmpty():
+                # hatched, in screen pixels whatever the zoom (a pattern brush is cosmetic)
+                unused = style.SECTOR_UNUSED_SELECTED if sel else style.SECTOR_UNUSED
+                painter.setBrush(QBrush(unused, Qt.BrushStyle.BDiagPattern))
+                painter.drawPath(self.unused_path)
+            edge = style.SECTOR_EDGE_SELECTED if sel else style.SECTOR_EDGE
+            painter.setPen(style.scaled_pen(style.pen(edge, 1.4 if sel else 1.0), k))
             if self.width < TAU - 1e-9:
-                edge = style.SECTOR_EDGE_SELECTED if self.selected else style.SECTOR_EDGE
-                painter.setPen(style.scaled_pen(style.pen(edge, 1.4 if self.selected else 1.0), k))
                 for which in ("low", "high"):
                     painter.drawLine(self.apex, self.edge_end(which))
+            for angle in self._cuts:  # where the used part meets the hatched
+                painter.drawLine(self.apex, self._rim(angle))
         except Exception:  # nothing may escape into Qt
             traceback.print_exc()
 
@@ -176,6 +243,8 @@ class SectorLayer:
         self.scene = scene
         self.wedges: dict[str, SectorWedge] = {}
         self.knobs: dict[str, tuple[SectorKnob, SectorKnob]] = {}
+        #: each tug's used arc with what it was worked out for: (key, outline, arc)
+        self._arcs: dict[str, tuple[tuple[object, ...], object, tuple[float, float] | None]] = {}
         scene.refresh_hooks.append(self.refresh)
         scene.selection_changed.connect(self.refresh)
 
@@ -199,13 +268,38 @@ class SectorLayer:
                     lo, hi = p.lead_sector_rad
                     apex = QPointF(float(lay.points[i, 0]), float(lay.points[i, 1]))
                     radius = PUSH_RADIUS_M if push else p.line_length_m
+                    frame = float(lay.lead_frame_rad[i]) + flip
+                    arc = self._used(lay, i)
+                    used = None if arc is None else (frame + arc[0], arc[1] - arc[0])
                     wedge = self._wedge(p.tug, d.root)
-                    wedge.set_geometry(
-                        apex, float(lay.lead_frame_rad[i]) + lo + flip, hi - lo, radius
-                    )
+                    wedge.set_geometry(apex, frame + lo, hi - lo, radius, used)
                     self._knobs(p.tug, d.root, wedge)
         for tug in [t for t in self.wedges if t not in seen]:
             self._drop(tug)
+
+    def _used(self, lay: TugLayout, i: int) -> tuple[float, float] | None:
+        """The core's used arc of tug ``i``'s sector (tugsets.used_arc), asked again only
+        when what it hangs on changed."""
+        p = lay.placements[i]
+        frame = lay.lead_frame_rad
+        allowance = lay.over_allowance_m
+        key = (
+            bool(lay.is_push[i]),
+            float(lay.points[i, 0]),
+            float(lay.points[i, 1]),
+            None if frame is None else float(frame[i]),
+            p.line_length_m,
+            p.lead_sector_rad,
+            None if allowance is None else float(allowance[i]),
+        )
+        got = self._arcs.get(p.tug)
+        # the same outline: the same object (a tug dragged), else an equal one (a body
+        # made again for a preview)
+        if got is not None and got[0] == key and (got[1] is lay.outline or got[1] == lay.outline):
+            return got[2]
+        arc = used_arc(lay, i)
+        self._arcs[p.tug] = (key, lay.outline, arc)
+        return arc
 
     def _wedge(self, tug: str, root: QGraphicsItem) -> SectorWedge:
         w = self.wedges.get(tug)
@@ -233,6 +327,7 @@ class SectorLayer:
 
     def _drop(self, tug: str) -> None:
         w = self.wedges.pop(tug, None)
+        self._arcs.pop(tug, None)
         self._remove([] if w is None else [w])
         self._drop_knobs(tug)
 

@@ -93,6 +93,9 @@ SECTOR_FILL = QColor(30, 95, 180, 20)  # a tug's working sector on the board, fa
 SECTOR_EDGE = QColor(30, 95, 180, 90)
 SECTOR_FILL_SELECTED = QColor(30, 95, 180, 42)  # the selected tug's, a little stronger
 SECTOR_EDGE_SELECTED = QColor(21, 101, 192, 200)
+#: the part of a working sector the solve cannot use (leads over the hull, or cut off): hatched
+SECTOR_UNUSED = QColor(110, 90, 80, 90)
+SECTOR_UNUSED_SELECTED = QColor(110, 90, 80, 190)
 
 # -- the verdict -------------------------------------------------------------------------
 GO = QColor("#1e6b35")

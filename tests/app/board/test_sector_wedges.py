@@ -8,10 +8,13 @@ import math
 import numpy as np
 import pytest
 from PySide6.QtCore import QPointF, Qt
+from scipy.optimize import brentq
 
 from app.board.sector_layer import SectorLayer, SectorWedge
 from app.edits import sectors
 from core.frames import bearing_to_angle
+from core.mechanics.leads import CLEAR_STEP_DEG
+from core.mechanics.tugsets import used_arc
 from tests.app.board.conftest import move_with_button
 
 
@@ -166,3 +169,122 @@ def test_wedges_follow_another_plan_opened_and_a_tug_removed(window, qtbot) -> N
     c.undo_stack.undo()
     assert "Gannet" in window.board.sectors.wedges
     assert not errors
+
+
+# -- the part of a sector the solve uses ----------------------------------------------------
+
+
+def _at(wedge: SectorWedge, lead: float, share: float = 0.5) -> QPointF:
+    """A point inside ``wedge`` at body-frame angle ``lead`` (rad), ``share`` of its radius."""
+    r = share * wedge.radius
+    return QPointF(wedge.apex.x() + r * math.cos(lead), wedge.apex.y() + r * math.sin(lead))
+
+
+def _core_used(window, tug: str):  # type: ignore[no-untyped-def]
+    """The core's used arc of ``tug``'s sector in the stage shown (tugsets.used_arc)."""
+    layout = window.controller.results()["Kestrel 3"].layout
+    i = next(k for k, p in enumerate(layout.placements) if p.tug == tug)
+    return used_arc(layout, i), float(layout.lead_frame_rad[i])
+
+
+def test_the_wedge_fills_the_leads_the_solve_uses_and_hatches_the_rest(window) -> None:
+    # Stage 1: Gannet on a 45 m line from the bow centre bitt (84, 0) of Kestrel 3, sector
+    # leads -140..-60 degrees (starboard, aft of the beam). The deck's starboard shoulder
+    # runs from (84, -9) to (75, -12), so a line at lead a crosses the deck for
+    # t(a) = 9 / (cos(a) / 3 - sin(a)) before it leaves the hull; it may lie over the hull
+    # for half the breadth and 2 m, 24 / 2 + 2 = 14 m (core.mechanics.leads). Clear while
+    # t(a) <= 14: from the edge lead below up to -60.
+    c = window.controller
+    edge = math.degrees(
+        brentq(
+            lambda a: 9 / (math.cos(a) / 3 - math.sin(a)) - 14.0,
+            math.radians(-135),
+            math.radians(-100),
+        )
+    )
+    wedge = window.board.sectors.wedges["Gannet"]
+    (lo, hi), frame = _core_used(window, "Gannet")
+    assert frame == 0.0  # the hull's ahead: the body frame's x
+    assert wedge.used == pytest.approx((frame + lo, hi - lo), abs=1e-12)  # the core's arc
+    # the first lead tried that is clear (the hull taken EDGE_M in lets it be a hair past)
+    assert edge - 0.5 <= math.degrees(wedge.used[0]) <= edge + CLEAR_STEP_DEG
+    assert math.degrees(wedge.used[0] + wedge.used[1]) == pytest.approx(-60.0)
+    # the used part is filled, the part over the shoulder hatched, each holding its leads
+    assert wedge.used_path.contains(_at(wedge, math.radians(-90)))
+    assert not wedge.used_path.contains(_at(wedge, math.radians(-134)))
+    assert wedge.unused_path.contains(_at(wedge, math.radians(-134)))
+    assert not wedge.unused_path.contains(_at(wedge, math.radians(-90)))
+    # the knobs stay on the sector's own ends (lead -140), not on the used part's
+    window.board.select(("tug", "Gannet"))
+    low = window.board.sectors.knobs["Gannet"][0]
+    a = math.radians(-140)
+    assert (low.pos().x(), low.pos().y()) == pytest.approx(
+        (84 + 45 * math.cos(a), 45 * math.sin(a)), abs=1e-9
+    )
+    # A whole circle: clear from -edge round ahead to +edge (the bow is symmetric), wider
+    # than half a turn, so the half turn about its middle (ahead) is used: -90..90.
+    stage = c.stage
+    whole = stage.placement("Gannet").with_sector((-math.pi, math.pi))
+    c.apply(c.with_stage(stage.with_placement(whole)), "whole circle")
+    (lo, hi), _ = _core_used(window, "Gannet")
+    assert wedge.used == pytest.approx((lo, hi - lo), abs=1e-12)
+    # (the core's arc of a whole circle may be given a turn round)
+    assert math.remainder(wedge.used[0] + math.pi / 2, 2 * math.pi) == pytest.approx(0, abs=1e-9)
+    assert wedge.used[1] == pytest.approx(math.pi)
+    assert wedge.unused_path.contains(_at(wedge, math.pi))  # astern, over the deck
+    assert wedge.unused_path.contains(_at(wedge, math.radians(110)))  # clear, but cut off
+    assert wedge.used_path.contains(_at(wedge, math.radians(80)))
+
+
+def test_a_sector_with_no_clear_lead_is_hatched_whole(window) -> None:
+    # Gannet's sector led astern from the bow centre bitt (171.9..183.3 degrees): every line
+    # runs the length of the 84 m deck, far over its 14 m allowance.
+    c = window.controller
+    stage = c.stage
+    c.apply(
+        c.with_stage(stage.with_placement(stage.placement("Gannet").with_sector((3.0, 3.2)))), "x"
+    )
+    wedge = window.board.sectors.wedges["Gannet"]
+    assert _core_used(window, "Gannet")[0] is None
+    assert wedge.used is None
+    assert wedge.used_path.isEmpty()
+    assert wedge.unused_path.contains(_at(wedge, 3.1))
+    # the whole wedge, from the apex out to the rim at both ends
+    box = wedge.unused_path.boundingRect().adjusted(-1e-6, -1e-6, 1e-6, 1e-6)
+    for lead in (3.0, 3.2):
+        assert box.contains(_at(wedge, lead, 1.0))
+    assert box.contains(wedge.apex)
+
+
+def test_the_used_part_follows_a_drag_of_the_sectors_edge(window, qtbot) -> None:
+    # Gannet's low edge (lead -140, bearing 140) dragged to bearing 100 (lead -100): every
+    # lead from -100 to -60 is clear of the shoulder (edge near -124, above), so all of
+    # it is used; on to bearing 150 (lead -150), the part aft of the edge is hatched again.
+    c = window.controller
+    _select(qtbot, window, "Gannet")
+    wedge = window.board.sectors.wedges["Gannet"]
+    ax, ay, r = wedge.apex.x(), wedge.apex.y(), wedge.radius
+    vp = window.view.viewport()
+    qtbot.mousePress(vp, Qt.MouseButton.LeftButton, pos=_knob_px(window, "Gannet", "low"))
+
+    def to(bearings) -> None:  # type: ignore[no-untyped-def]
+        for bearing in bearings:
+            a = bearing_to_angle(float(bearing))
+            move_with_button(
+                window.view, _body_px(window, ax + r * math.cos(a), ay + r * math.sin(a))
+            )
+
+    to(np.linspace(138.0, 100.2, 12))
+    assert c.previewing
+    assert c.stage.placement("Gannet").lead_sector_rad == pytest.approx(
+        (math.radians(-100), math.radians(-60))
+    )
+    assert wedge.used == pytest.approx((math.radians(-100), math.radians(40)), abs=1e-9)
+    assert wedge.unused_path.isEmpty()
+    to(np.linspace(102.0, 149.8, 20))
+    assert c.previewing
+    (lo, hi), _ = _core_used(window, "Gannet")
+    assert math.degrees(lo) < -120.0  # the edge of the clear leads, as at rest
+    assert wedge.used == pytest.approx((lo, hi - lo), abs=1e-12)
+    assert wedge.unused_path.contains(_at(wedge, math.radians(-145)))
+    qtbot.mouseRelease(vp, Qt.MouseButton.LeftButton)
