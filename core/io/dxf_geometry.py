@@ -3,7 +3,8 @@
 Coordinates stay in the drawing's own units and axes (x, y of the world coordinate
 system; z dropped) until :mod:`core.io.dxf_outline` or :mod:`core.io.dxf_site`
 places them. Only model space is read; blocks inserted there are read as if
-exploded, an entity on layer 0 inside a block taking the layer of its insert.
+exploded, an entity on layer 0 inside a block taking the layer of its insert, and an
+insert placing its block as an array of rows and columns (a MINSERT) as every copy.
 
 Curves are flattened to points on the curve, as few as keep every chord within
 ``chord_error`` (drawing units) of the arc it stands for: an arc of radius r and
@@ -146,12 +147,17 @@ class Drawing:
         self._names: dict[str, str] = {}
         for layer in doc.layers:
             self._names.setdefault(layer.dxf.name.upper(), layer.dxf.name)
+        count, array = _opened_up_count(doc)
+        how = "blocks inserted many times within each other"
+        if array is not None:
+            name, rows, cols = array
+            how += f" or in arrays; the largest: block {name!r}, {rows} x {cols} copies"
         too_many = DrawingError(
             source,
             f"holds more than {MAX_ENTITIES} entities in model space with its blocks "
-            "opened up (blocks inserted many times within each other); not read",
+            f"opened up ({how}); not read",
         )
-        if _opened_up_count(doc) > MAX_ENTITIES:  # counted before anything is opened up
+        if count > MAX_ENTITIES:  # counted before anything is opened up
             raise too_many
         for count, (e, layer) in enumerate(_modelspace(doc), start=1):
             if count > MAX_ENTITIES:
@@ -269,16 +275,43 @@ def _layer_of(e: Any) -> str:
     return layer if isinstance(layer, str) else "0"
 
 
-def _opened_up_count(doc: Any) -> int:
+def _grid(e: Any) -> tuple[int, int]:
+    """The rows and columns of copies an INSERT places: a MINSERT's array, 1 x 1 for a
+    plain insert. Along a direction whose spacing is 0 every copy lies on the first, so
+    it places one (as ezdxf's ``Insert.mcount`` counts); a count below 1, or not a whole
+    number, is read as 1."""
+
+    def one_way(count_key: str, spacing_key: str) -> int:
+        try:
+            count = e.dxf.get(count_key, 1)
+            spacing = e.dxf.get(spacing_key, 0.0)
+        except _EZDXF_FAILURES:
+            return 1
+        if not isinstance(count, int) or isinstance(count, bool) or count < 1:
+            return 1
+        if not isinstance(spacing, int | float) or spacing == 0:
+            return 1
+        return count
+
+    return one_way("row_count", "row_spacing"), one_way("column_count", "column_spacing")
+
+
+def _opened_up_count(doc: Any) -> tuple[int, tuple[str, int, int] | None]:
     """How many entities :func:`_modelspace` would give, from the block definitions alone
-    (opening blocks up with ezdxf takes a fraction of a millisecond an entity)."""
+    (opening blocks up with ezdxf takes a fraction of a millisecond an entity), and the
+    insert placing the most copies as an array (block name, rows, columns), if any."""
     memo: dict[tuple[str, int], int] = {}
+    largest: list[tuple[str, int, int]] = []
 
     def count(entities: Any, depth: int) -> int:
         total = 0
         for e in entities:
             if e.dxftype() == "INSERT" and depth < MAX_BLOCK_DEPTH:
-                total += block(str(e.dxf.get("name", "")), depth + 1)
+                name = str(e.dxf.get("name", ""))
+                rows, cols = _grid(e)
+                if rows * cols > 1 and (not largest or rows * cols > largest[0][1] * largest[0][2]):
+                    largest[:] = [(name, rows, cols)]
+                total += rows * cols * block(name, depth + 1)
             else:
                 total += 1
         return total
@@ -291,7 +324,7 @@ def _opened_up_count(doc: Any) -> int:
             memo[key] = 1 if layout is None else count(layout, depth)
         return memo[key]
 
-    return count(doc.modelspace(), 0)
+    return count(doc.modelspace(), 0), (largest[0] if largest else None)
 
 
 def _modelspace(doc: Any) -> Iterator[tuple[Any, str]]:
@@ -304,7 +337,7 @@ def _modelspace(doc: Any) -> Iterator[tuple[Any, str]]:
                 layer = inherited
             if e.dxftype() == "INSERT" and depth < MAX_BLOCK_DEPTH:
                 try:
-                    inner = list(e.virtual_entities())
+                    inner = [x for copy in _copies(e) for x in copy.virtual_entities()]
                 except (*_EZDXF_FAILURES, RecursionError):
                     yield e, layer
                     continue
@@ -313,6 +346,18 @@ def _modelspace(doc: Any) -> Iterator[tuple[Any, str]]:
                 yield e, layer
 
     yield from walk(doc.modelspace(), None, 0)
+
+
+def _copies(e: Any) -> list[Any]:
+    """The plain inserts an INSERT stands for: itself, or each copy of a MINSERT's array
+    (ezdxf's ``Insert.multi_insert``, of :func:`_grid`'s rows and columns: counted before,
+    so never more than the entity limit allows)."""
+    rows, cols = _grid(e)
+    if rows * cols == 1:
+        return [e]  # a plain insert (ezdxf opens up the first copy of an array only)
+    grid = e.copy()
+    grid.dxf.row_count, grid.dxf.column_count = rows, cols
+    return list(grid.multi_insert())
 
 
 # -- flattening ---------------------------------------------------------------------------

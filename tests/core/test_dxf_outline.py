@@ -290,6 +290,31 @@ def test_outline_inside_a_block(tmp_path: Path) -> None:
     assert got.area_m2 == pytest.approx(4 * 20 * 6)  # scaled twice each way
 
 
+def test_an_array_insert_is_read_as_every_copy(tmp_path: Path) -> None:
+    # A MINSERT of a 2 m x 1 m fender block, 2 rows 6 m apart by 3 columns 10 m apart,
+    # turned 90 degrees: copy (row r, column c) sits at the insert point plus the grid
+    # offset (10 c, 6 r) turned 90 degrees, (-6 r, 10 c) (the DXF reference: the array
+    # is laid out in the insert's own axes, turned with it; its spacing not scaled).
+    doc = dd.new_doc(layers=("FENDERS",))
+    doc.blocks.new("FENDER").add_lwpolyline([(0, 0), (2, 0), (2, 1), (0, 1)], close=True)
+    ref = doc.modelspace().add_blockref(
+        "FENDER", (100, 50), dxfattribs={"layer": "FENDERS", "rotation": 90}
+    )
+    ref.grid(size=(2, 3), spacing=(6, 10))
+    doc.saveas(tmp_path / "array.dxf")
+    d = Drawing.open(tmp_path / "array.dxf")
+    assert d.counts("FENDERS") == {"LWPOLYLINE": 6}
+    loops = d.shapes("FENDERS", chord_error=0.01, tolerance=0.001).loops
+    # the box turned 90 degrees has corners (0, 0), (0, 2), (-1, 2), (-1, 0): its lowest
+    # (x, then y), (-1, 0), lands at the insert point plus each copy's offset
+    corners = sorted((round(x, 9), round(y, 9)) for x, y in (min(loop) for loop in loops))
+    assert corners == sorted((100.0 - 6 * r - 1, 50.0 + 10 * c) for r in range(2) for c in range(3))
+    # ... and an array whose spacing is 0 along a way places one copy that way
+    ref.dxf.row_spacing = 0
+    doc.saveas(tmp_path / "stacked.dxf")
+    assert Drawing.open(tmp_path / "stacked.dxf").counts("FENDERS") == {"LWPOLYLINE": 3}
+
+
 def test_self_crossing_outline_names_the_point(tmp_path: Path) -> None:
     doc = dd.new_doc()
     doc.modelspace().add_lwpolyline(

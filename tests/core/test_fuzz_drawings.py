@@ -247,6 +247,31 @@ def test_blocks_inserted_within_each_other_many_times_are_refused_before_opening
     )
 
 
+def test_an_array_insert_of_a_million_by_a_million_is_refused_before_opening_up(
+    tmp_path: Path,
+) -> None:
+    """A MINSERT of 10^6 x 10^6 copies of a one-line block is 10^12 entities opened up:
+    counted from its rows and columns, refused at once with the array named; with its
+    spacings 0 every copy lies on the first, one copy (ezdxf's multi_insert would still
+    walk all 10^12 places)."""
+    doc = ezdxf.new(units=6)
+    doc.layers.add("HULL")
+    doc.blocks.new("GRID").add_line((0, 0), (1, 0))
+    ref = doc.modelspace().add_blockref("GRID", (0, 0), dxfattribs={"layer": "HULL"})
+    ref.grid(size=(10**6, 10**6), spacing=(2, 2))
+    doc.saveas(tmp_path / "array.dxf")
+    with pytest.raises(DrawingError) as got:
+        Drawing.open(tmp_path / "array.dxf")
+    assert str(got.value) == (
+        f"array.dxf: holds more than {MAX_ENTITIES} entities in model space with its blocks "
+        "opened up (blocks inserted many times within each other or in arrays; the largest: "
+        "block 'GRID', 1000000 x 1000000 copies); not read"
+    )
+    ref.dxf.row_spacing = ref.dxf.column_spacing = 0
+    doc.saveas(tmp_path / "stacked.dxf")
+    assert Drawing.open(tmp_path / "stacked.dxf").counts("HULL") == {"LINE": 1}
+
+
 def test_a_spline_ezdxf_cannot_make_a_curve_of_is_not_read(tmp_path: Path) -> None:
     """Was: a spline of one fit point repeated ended in ezdxf's IndexError (not among the
     errors caught), a traceback; now it is left out and said so."""

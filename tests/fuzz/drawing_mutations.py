@@ -295,7 +295,8 @@ def _recursive_blocks(rnd: Source) -> Any:
 
 
 def _wild_inserts(rnd: Source) -> Any:
-    """Inserts scaled to nothing, by huge factors, or in arrays."""
+    """Inserts scaled to nothing, by huge factors, or in arrays (of up to 10^6 x 10^6
+    copies, their spacing 0 or not a number)."""
     doc = _new(M, ("HULL",))
     blk = doc.blocks.new("BOX")
     blk.add_lwpolyline([(0, 0), (10, 0), (10, 4), (0, 4)], close=True)
@@ -304,9 +305,9 @@ def _wild_inserts(rnd: Source) -> Any:
     attribs = {"layer": "HULL", "xscale": s, "yscale": choice(rnd, [1.0, s])}
     ref = doc.modelspace().add_blockref("BOX", (0, 0), dxfattribs=attribs)
     if rnd.random() < 0.3:
-        ref.dxf.column_count = choice(rnd, [2, 1000])
-        ref.dxf.row_count = choice(rnd, [2, 1000])
-        ref.dxf.column_spacing = 20
+        ref.dxf.column_count = choice(rnd, [2, 1000, 10**6])
+        ref.dxf.row_count = choice(rnd, [2, 1000, 10**6])
+        ref.dxf.column_spacing = choice(rnd, [20.0, 0.0, math.nan])
         ref.dxf.row_spacing = 20
     return doc
 
