@@ -33,6 +33,15 @@ calm: the limit is 0, and :attr:`HoldLimits.calm_fails` names the tugs whose los
 does that. Whether the start lies in the fine set is tested on the coarse set's
 half-spaces first (inside them: inside), then the fine set's supports on the same
 normals (outside them: outside), and only in between by a linear programme.
+
+"Met" is judged as the solve and the tug lost check judge it: within the goal's
+tolerance (core.solve.pulls.tolerance_of, worked out for the stage's flows as planned),
+so a load too small to count (a current of a tenth of a knot that no tug lost can
+answer) does not make a limit of 0 beside a tug lost check that holds. The tolerance is
+a box (+-tol on the force ahead, the force to port and the moment) added to the fleet's
+set as two more polygons the sweep treats as tugs that are never lost: a square of
+forces at the centroid, and a force a thousand arms away whose moment is the box's
+moment side (its force, a thousandth of the force tolerance, is a hair of slack).
 """
 
 from __future__ import annotations
@@ -47,7 +56,13 @@ import numpy as np
 from core.mechanics.balance import TugLayout, tug_layout
 from core.mechanics.bodies import stage_body
 from core.mechanics.fittings import pull_limits_n
-from core.mechanics.loads import current_model, flow_angle_rad, wind_model
+from core.mechanics.loads import (
+    body_conditions,
+    current_model,
+    flow_angle_rad,
+    loads_wrench,
+    wind_model,
+)
 from core.mechanics.tugsets import SECTOR_STEP_DEG, tug_sets
 from core.model.goals import GOAL_WORDS, Goal
 from core.model.plan import Project, Stage
@@ -64,6 +79,7 @@ from core.solve.polytope import (
     worst_lost_exit,
     zonotope_normals,
 )
+from core.solve.pulls import tolerance_of
 from core.solve.reach import Reach
 from core.solve.walk import nudged_triangles, set_size, walk
 from core.units import DisplayUnits
@@ -107,7 +123,9 @@ class HoldLimitsProblem:
     ``fixed`` is the load that stays as set (the current, when the wind is swept);
     ``target`` what tugs and loads together must give (the stage's goal). ``coarse``
     holds the tugs' polygons with :data:`SWEEP_NEST` times fewer sector vertices, each
-    one a vertex of ``shapes`` (None: the same as ``shapes``).
+    one a vertex of ``shapes`` (None: the same as ``shapes``). ``tolerance`` (3,) is how
+    much of (force ahead, force to port, moment), N and N*m, may be missing with the
+    goal met (None: none at all).
     """
 
     stage: str
@@ -123,6 +141,7 @@ class HoldLimitsProblem:
     flow: Flow = "wind"
     goal_kind: str = "hold"
     coarse: WrenchPolygons | None = None
+    tolerance: np.ndarray | None = None
 
     @property
     def generators(self) -> np.ndarray:
@@ -226,6 +245,13 @@ def hold_limits_problem(
     if sets.sectors.any():
         rough = tug_sets(layout, b.centroid, step_deg=sector_step_deg * SWEEP_NEST, limits_n=limits)
         coarse = WrenchPolygons(rough.polygons, rough.arms())
+    target = np.asarray(g.target(), dtype=float)
+    # "met" as the tug lost check has it: within the tolerance of what the tugs must
+    # supply with the stage's flows as planned
+    planned = loads_wrench(body_conditions(stage, b).loads, b.centroid)
+    strongest = max(
+        (float(np.hypot(p[:, 0], p[:, 1]).max()) for p in sets.polygons if len(p)), default=0.0
+    )
     return HoldLimitsProblem(
         stage=stage.name,
         body=b.name,
@@ -236,10 +262,11 @@ def hold_limits_problem(
         wind_unit=unit,
         directions_deg=dirs,
         length_m=b.length,
-        target=np.asarray(g.target(), dtype=float),
+        target=target,
         flow=flow,
         goal_kind=g.kind,
         coarse=coarse,
+        tolerance=tolerance_of(target - planned, b.length, strongest),
     )
 
 
@@ -337,9 +364,10 @@ class _Sweep:
     rays: np.ndarray  # (3, D)
     full: Exit  # the coarse set's exits
     s_out: np.ndarray  # (D,) the exits carried to the fine set
-    shapes: WrenchPolygons  # fine, scaled
+    shapes: WrenchPolygons  # fine, scaled (the tolerance's polygons last)
     coarse: WrenchPolygons  # coarse, scaled (the same object when nothing is coarser)
     calm: bool  # the start lies in the fine set: the goal is met with no swept flow
+    tugs: int  # the polygons that are tugs (the first ones; the rest are the tolerance's)
 
     @property
     def normals(self) -> np.ndarray:
@@ -364,6 +392,13 @@ def _sweep_steps(problem: HoldLimitsProblem) -> Steps[_Sweep]:
     shapes = _scaled_shapes(problem.shapes, sc)
     coarse = shapes if problem.coarse is None else _scaled_shapes(problem.coarse, sc)
     start = problem.start * sc
+    n = shapes.n
+    if problem.tolerance is not None and np.all(np.asarray(problem.tolerance) > 0):
+        box, shift = _tolerance_box(np.asarray(problem.tolerance) * sc, shapes.arms)
+        same = coarse is shapes
+        shapes = _joined(shapes, box)
+        coarse = shapes if same else _joined(coarse, box)
+        start = start + shift
     rays = -problem.wind_unit * sc[:, None]
     # a flow whose load is nothing beside the pulls (a coefficient of 1e-300) is no load:
     # its exit lies beyond any speed shown, and dividing by so short a ray overflows
@@ -378,7 +413,31 @@ def _sweep_steps(problem: HoldLimitsProblem) -> Steps[_Sweep]:
         yield
         s_out = _refine(shapes, coarse, fac, full.facet, start, rays, s_out)
     calm = full.inside or _holds_start(fac.normals, shapes, start)
-    return _Sweep(fac, parts, start, rays, full, s_out, shapes, coarse, calm)
+    return _Sweep(fac, parts, start, rays, full, s_out, shapes, coarse, calm, n)
+
+
+#: The tolerance box's moment side is a force this many times the fleet's longest arm
+#: (scaled) from the centroid: a hair of force, 1e-3 of the force tolerance or less.
+_BOX_ARM = 1e3
+
+
+def _tolerance_box(tol: np.ndarray, arms: np.ndarray) -> tuple[WrenchPolygons, np.ndarray]:
+    """The goal's tolerance ``tol`` (3,) (scaled rows) as polygons to add to the fleet's
+    set, and the shift (3,) to add to the start: the box +-tol is the square of forces
+    [0, 2 tol_x] x [0, 2 tol_y] at the centroid plus a force [0, 2a] to port a long arm
+    ahead (moment [0, 2 tol_m]), less half of each. Polygons must hold the origin as a
+    vertex (core.solve.polytope), hence the shift."""
+    tx, ty, tm = (float(v) for v in tol)
+    arm = _BOX_ARM * (1.0 + float(np.abs(arms).max(initial=0.0)))
+    a = tm / arm
+    square = np.array([[0.0, 0.0], [2 * tx, 0.0], [2 * tx, 2 * ty], [0.0, 2 * ty]])
+    segment = np.array([[0.0, 0.0], [0.0, 2 * a]])
+    box = WrenchPolygons((square, segment), np.array([[0.0, 0.0], [arm, 0.0]]))
+    return box, np.array([tx, ty + a, tm])
+
+
+def _joined(a: WrenchPolygons, b: WrenchPolygons) -> WrenchPolygons:
+    return WrenchPolygons(a.polygons + b.polygons, np.vstack([a.arms, b.arms]))
 
 
 def _holds_start(normals: np.ndarray, shapes: WrenchPolygons, start: np.ndarray) -> bool:
@@ -453,7 +512,7 @@ def _worst_lost_steps(
     that leaves the start outside, or flattens the set) are swept one by one.
     """
     rays = sw.rays[:, ::every]
-    n = sw.parts.shape[1]
+    n = sw.tugs  # the tolerance's polygons are never lost
     d = rays.shape[1]
     worst = np.full(d, np.inf)
     who = np.zeros(d, dtype=int)
@@ -467,8 +526,8 @@ def _worst_lost_steps(
     normals = sw.normals
     support = sw.parts.sum(axis=1)
     slack = (support - normals @ sw.start)[:, None] - sw.parts  # (P, n)
-    inside = slack.min(axis=0) >= -1e-9
-    solid = _ranks_without_each(sw.coarse) == 3
+    inside = slack.min(axis=0)[:n] >= -1e-9
+    solid = _ranks_without_each(sw.coarse)[:n] == 3
     fast = np.flatnonzero(inside & solid & full.inside)
     if len(fast):
         yield

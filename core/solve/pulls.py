@@ -855,11 +855,21 @@ def solve_pulls(
 
 def goal_tolerance(problem: PullsProblem) -> np.ndarray:
     """(3,) how much of (force ahead, force to port, moment) may be missing with the goal
-    still met, N and N*m (:data:`GOAL_TOL`, :data:`GOAL_FLOOR`)."""
-    fx, fy, m = (float(v) for v in problem.required)
-    length = max(problem.length_m, 1.0)
+    still met, N and N*m (:func:`tolerance_of` the problem's required wrench)."""
+    strongest = float(problem.column_pull_n.max(initial=0.0))
+    return tolerance_of(problem.required, problem.length_m, strongest)
+
+
+def tolerance_of(required: np.ndarray, length_m: float, strongest_n: float) -> np.ndarray:
+    """(3,) how much of (force ahead, force to port, moment) may be missing with a goal
+    still met, N and N*m, when the tugs must supply ``required`` (3,) (the goal less the
+    conditions) to a body ``length_m`` long whose strongest tug gives ``strongest_n``
+    (:data:`GOAL_TOL`, :data:`GOAL_FLOOR`). The tug lost check and the hold limits both
+    judge "met" by it."""
+    fx, fy, m = (float(v) for v in required)
+    length = max(length_m, 1.0)
     asked = max(math.hypot(fx, fy), abs(m) / length)
-    floor = GOAL_FLOOR * max(float(problem.column_pull_n.max(initial=0.0)), 1.0)
+    floor = GOAL_FLOOR * max(strongest_n, 1.0)
     tol_f, tol_m = negligible(asked, length, floor_n=floor)
     return np.array([tol_f, tol_f, tol_m])
 

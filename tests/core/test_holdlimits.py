@@ -15,8 +15,21 @@ from scipy.optimize import linprog
 from core.model.conditions import Conditions
 from core.model.plan import BodyPose, Project, Stage
 from core.model.tugs import Placement, Tug
-from core.solve.holdlimits import hold_limits, hold_limits_problem, limit_at, zonotope_normals
+from core.solve.holdlimits import (
+    HoldLimitsProblem,
+    hold_limits,
+    hold_limits_problem,
+    limit_at,
+    zonotope_normals,
+)
 from tests.core.plan_builders import TF, box_hull
+
+
+def _problem(*args: object, **kw: object) -> HoldLimitsProblem:
+    """The sweep's problem with no goal tolerance: the closed forms and linprog below are
+    exact (the tolerance has its own tests, tests/core/test_hold_tolerance.py)."""
+    return replace(hold_limits_problem(*args, **kw), tolerance=None)  # type: ignore[arg-type]
+
 
 # Leads as a planner enters them, in half degrees: lines a millionth of a degree apart make
 # the answer hang on the solvers' tolerances rather than on the layout.
@@ -82,7 +95,7 @@ def test_closed_form_two_tugs_against_a_beam_wind() -> None:
     # tugs at the starboard bow and quarter lead square to starboard, 30 t each, symmetric
     # about the centroid: they hold while 60 t >= 1/2 * 1.225 * 1.2 * 320 V^2.
     project, stage = _plan([-90.0, -90.0], [30.0, 30.0], ("stbd bow", "stbd quarter"))
-    lim = hold_limits(hold_limits_problem(project, stage))
+    lim = hold_limits(_problem(project, stage))
     v = math.sqrt(60 * TF / (0.5 * 1.225 * 1.2 * 320.0))
     assert limit_at(lim, 90.0) == pytest.approx(v, rel=1e-9)
     # From the other beam the tugs cannot push: no wind can be held.
@@ -105,7 +118,7 @@ def test_agrees_with_linprog_direction_by_direction(
         current_towards_deg=current_to,
     )
     project, stage = _plan(leads, bps[: len(leads)], conditions=cond, heading=35.0)
-    problem = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 15.0))
+    problem = _problem(project, stage, directions_deg=np.arange(0.0, 360.0, 15.0))
     lim = hold_limits(problem)
     # Speeds agree to 1e-6 relative; near zero, to 1 mm/s (tolerances on flat cases).
     for k in range(len(problem.directions_deg)):
@@ -127,7 +140,7 @@ def test_flat_zonotope_when_no_tug_turns_the_body() -> None:
     # Bow and stern tugs on the centreline leading fore and aft: no moment, no sideways
     # pull: the reachable set is a segment; only head and stern winds can be held.
     project, stage = _plan([0.0, 180.0], [40.0, 40.0], ("bow", "stern"))
-    problem = hold_limits_problem(project, stage, directions_deg=np.array([0.0, 45.0, 180.0]))
+    problem = _problem(project, stage, directions_deg=np.array([0.0, 45.0, 180.0]))
     lim = hold_limits(problem)
     v = math.sqrt(40 * TF / (0.5 * 1.225 * 0.8 * 20.0 * 4.0))  # head-on area 20 x 4, C 0.8
     assert lim.all_tugs_ms == pytest.approx([v, 0.0, v], rel=1e-9, abs=1e-9)
@@ -157,7 +170,7 @@ def test_current_too_strong_alone_is_held_only_with_a_head_wind() -> None:
     # = 0.5 * 1.225 * 0.8 * 80) can make up the rest: the body is held between two speeds.
     cond = Conditions(wind_speed_ms=5.0, current_speed_ms=3.0, current_towards_deg=0.0)
     project, stage = _plan([180.0], [5.0], ("stern",), conditions=cond)
-    lim = hold_limits(hold_limits_problem(project, stage))
+    lim = hold_limits(_problem(project, stage))
     assert not lim.holds_current
     f_current, k_wind = 0.5 * 1025 * 0.6 * 60.0 * 9.0, 0.5 * 1.225 * 0.8 * 80.0
     # No wind is held from calm: the limit is 0; the band is given apart.
@@ -186,7 +199,7 @@ def test_a_flow_with_next_to_no_load_is_held_at_any_speed(tiny: float) -> None:
         project, stage = _plan([0.0, 180.0, 90.0, 270.0], [20.0] * 4, POINTS[:4], conditions=cond)
         with warnings.catch_warnings():
             warnings.simplefilter("error")
-            return hold_limits(hold_limits_problem(project, stage, flow="current"))
+            return hold_limits(_problem(project, stage, flow="current"))
 
     usual, faint = limits(0.6), limits(tiny)
     assert 0.0 < usual.all_tugs_ms[0] < math.inf
@@ -202,7 +215,7 @@ leads = st.lists(LEAD, min_size=2, max_size=6)
 def test_scaling_every_pull_scales_the_limit_by_its_root(lead: list[float], k: float) -> None:
     # Wind load ~ V^2: with only wind on the body, k times the pulls holds sqrt(k) times the wind.
     project, stage = _plan(lead, [40.0] * len(lead))
-    p = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 10.0))
+    p = _problem(project, stage, directions_deg=np.arange(0.0, 360.0, 10.0))
     base, more = hold_limits(p), hold_limits(p.scaled(k))
     assert more.all_tugs_ms == pytest.approx(base.all_tugs_ms * math.sqrt(k), rel=1e-7, abs=1e-9)
     assert more.worst_lost_ms == pytest.approx(
@@ -214,7 +227,7 @@ def test_doubling_pulls_gives_root_two() -> None:
     project, stage = _plan(
         [-90.0, -90.0, 0.0], [30.0, 30.0, 20.0], ("stbd bow", "stbd quarter", "bow")
     )
-    p = hold_limits_problem(project, stage)
+    p = _problem(project, stage)
     base, double = hold_limits(p), hold_limits(p.scaled(2.0))
     held = base.all_tugs_ms > 0
     assert (double.all_tugs_ms[held] / base.all_tugs_ms[held]) == pytest.approx(math.sqrt(2.0))
@@ -234,7 +247,7 @@ def test_mirror_symmetric_layout_gives_a_mirror_symmetric_plot(
         leads += [lead, -lead]
         points += [port[side], stbd[side]]
     project, stage = _plan(leads, [30.0] * len(leads), tuple(points))
-    lim = hold_limits(hold_limits_problem(project, stage))
+    lim = hold_limits(_problem(project, stage))
     v = lim.all_tugs_ms
     mirrored = v[(-np.arange(360)) % 360]
     assert v == pytest.approx(mirrored, rel=1e-7, abs=1e-9)
@@ -256,7 +269,7 @@ def test_losing_a_tug_never_raises_the_limit(
         wind_speed_ms=10.0, current_speed_ms=current_kn * 0.514444, current_towards_deg=current_to
     )
     project, stage = _plan(lead, [40.0] * len(lead), conditions=cond)
-    p = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 10.0))
+    p = _problem(project, stage, directions_deg=np.arange(0.0, 360.0, 10.0))
     lim = hold_limits(p)
     assert np.all(
         lim.worst_lost_ms <= lim.all_tugs_ms * (1 + 1e-7) + 1e-9
@@ -288,7 +301,7 @@ def test_losing_a_tug_never_raises_the_limit(
 
 def test_worst_lost_names_the_tug() -> None:
     project, stage = _plan([-90.0, -90.0], [50.0, 20.0], ("stbd bow", "stbd quarter"))
-    lim = hold_limits(hold_limits_problem(project, stage))
+    lim = hold_limits(_problem(project, stage))
     assert lim.worst_lost_tug[90] in ("T0", "T1")
     assert lim.worst_lost_ms[90] == pytest.approx(0.0, abs=1e-9)  # one tug alone turns the body
 
@@ -303,7 +316,7 @@ def test_live_sweep_is_the_full_sweep_on_fewer_directions() -> None:
     # eight fixed leads that hold the current with any one tug lost (with the first four
     # alone the current is not held in calm, and no wind is: every limit would be 0)
     project, stage = _plan(LIVE_LEADS, [30.0, 40.0, 25.0] + [20.0] * 5, conditions=cond)
-    p = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 5.0))
+    p = _problem(project, stage, directions_deg=np.arange(0.0, 360.0, 5.0))
     full = hold_limits(p)
     lim, dirs, worst = live_hold_limits(p, lost_step=2)
     assert lim.all_tugs_ms == pytest.approx(full.all_tugs_ms, rel=1e-12)
@@ -329,7 +342,7 @@ def test_the_live_sweep_in_steps_is_the_sweep_in_one_go(sectors: bool) -> None:
         )
         stage = replace(stage, placements=wide)
         project = replace(project, stages=(stage,))
-    p = hold_limits_problem(project, stage, directions_deg=np.arange(0.0, 360.0, 5.0))
+    p = _problem(project, stage, directions_deg=np.arange(0.0, 360.0, 5.0))
     assert (p.coarse is not None) == sectors
     steps = live_hold_limits_steps(p, lost_step=2)
     taken = 0

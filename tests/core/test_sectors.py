@@ -247,7 +247,8 @@ def test_hold_limits_agree_with_linprog_on_fine_polygons(seed: int) -> None:
     cond = Conditions(wind_speed_ms=10.0, current_speed_ms=0.3, current_towards_deg=40.0 * seed)
     project, stage = _plan(_random_fleet(seed), conditions=cond)
     dirs = np.arange(0.0, 360.0, 30.0)
-    problem = hold_limits_problem(project, stage, directions_deg=dirs)
+    # exact (no goal tolerance), as the linprog reference
+    problem = replace(hold_limits_problem(project, stage, directions_deg=dirs), tolerance=None)
     lim = hold_limits(problem)
     cols, owner = _reference_columns(project, stage)
     for k in range(len(dirs)):
@@ -387,7 +388,8 @@ def test_widening_a_sector_never_lowers_a_limit_or_a_margin(fleet: list, more: f
 def test_removing_a_tug_never_raises_a_limit_and_doubling_pulls_scales(fleet: list) -> None:
     dirs = np.arange(0.0, 360.0, 20.0)
     project, stage = _plan(_lines(fleet))
-    p = hold_limits_problem(project, stage, directions_deg=dirs)
+    # exact (no goal tolerance): the tolerance is a box that twice the pulls do not scale
+    p = replace(hold_limits_problem(project, stage, directions_deg=dirs), tolerance=None)
     lim = hold_limits(p)
     rows = []
     for tug in p.tugs:

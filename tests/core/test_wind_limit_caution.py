@@ -32,8 +32,10 @@ def _deck_barge(max_wind_kn: float | None = 20.0) -> Project:
     return replace(p, stages=(*p.stages[:2], replace(s, limits=limits), *p.stages[3:]))
 
 
-def _linprog_kn(project: Project, from_deg: float) -> float:
+def _linprog_kn(project: Project, from_deg: float, exact: bool = False) -> float:
     problem = hold_limits_problem(project, project.stages[2], directions_deg=np.array([from_deg]))
+    if exact:
+        problem = replace(problem, tolerance=None)
     band = _linprog_band(problem, 0)
     assert band is not None and band[0] == pytest.approx(0.0, abs=1e-6)  # held from calm
     return band[1] / KN
@@ -45,21 +47,24 @@ def test_the_deck_barge_hold_is_a_caution_naming_the_lowest_limit_and_the_arc() 
     assert v.status == "caution"  # a caution, not a no-go
     (r,) = [r for r in v.reasons if r.code == CODE]
     assert r.status == "caution"
-    # The lowest: 2.9 kn from 007 true (REVIEW.md F8; linprog below agrees).
-    assert "from 007° true they hold 2.9 kn" in r.text
-    assert _linprog_kn(project, 7.0) == pytest.approx(2.9, abs=0.05)
-    # The stage's 20 kn is held only from 111 round to 280 true: linprog says the limit
-    # crosses 20 kn between 110 and 111 and between 280 and 281.
-    assert "20.0 kn only from 111° to 280° true (clockwise)" in r.text
-    assert _linprog_kn(project, 110.0) < 20.0 <= _linprog_kn(project, 111.0)
-    assert _linprog_kn(project, 281.0) < 20.0 <= _linprog_kn(project, 280.0)
+    # The lowest: 3.2 kn from 007 true (linprog below agrees, with the goal's tolerance:
+    # REVIEW.md F8's own LP, met exactly, gave 2.9 kn; the tolerance, half a percent of
+    # the 0.7 t the hold asks as planned, is much beside the 0.04 t that 3 kn brings).
+    assert "from 007° true they hold 3.2 kn" in r.text
+    assert _linprog_kn(project, 7.0) == pytest.approx(3.2, abs=0.05)
+    assert _linprog_kn(project, 7.0, exact=True) == pytest.approx(2.9, abs=0.05)
+    # The stage's 20 kn is held only from 110 round to 281 true: linprog says the limit
+    # crosses 20 kn between 109 and 110 and between 281 and 282.
+    assert "20.0 kn only from 110° to 281° true (clockwise)" in r.text
+    assert _linprog_kn(project, 109.0) < 20.0 <= _linprog_kn(project, 110.0)
+    assert _linprog_kn(project, 282.0) < 20.0 <= _linprog_kn(project, 281.0)
 
 
 @pytest.mark.parametrize("max_wind_kn", [None, 2.5])
 def test_no_caution_without_a_limit_or_with_one_held_from_everywhere(
     max_wind_kn: float | None,
 ) -> None:
-    # 2.5 kn is under the lowest limit, 2.9 kn (above): held from every direction (the
+    # 2.5 kn is under the lowest limit, 3.2 kn (above): held from every direction (the
     # planned 12 kn is then over the stage's limit: no-go for that reason alone).
     v = stage_result(_deck_barge(max_wind_kn), 2).verdict
     assert CODE not in [r.code for r in v.reasons]
