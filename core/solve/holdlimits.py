@@ -40,8 +40,8 @@ so a load too small to count (a current of a tenth of a knot that no tug lost ca
 answer) does not make a limit of 0 beside a tug lost check that holds. The tolerance is
 a box (+-tol on the force ahead, the force to port and the moment) added to the fleet's
 set as two more polygons the sweep treats as tugs that are never lost: a square of
-forces at the centroid, and a force a thousand arms away whose moment is the box's
-moment side (its force, a thousandth of the force tolerance, is a hair of slack).
+forces at the centroid, and a force 10^5 arms away whose moment is the box's moment
+side (its force, 10^-5 of the force tolerance, is a hair of slack).
 """
 
 from __future__ import annotations
@@ -417,8 +417,8 @@ def _sweep_steps(problem: HoldLimitsProblem) -> Steps[_Sweep]:
 
 
 #: The tolerance box's moment side is a force this many times the fleet's longest arm
-#: (scaled) from the centroid: a hair of force, 1e-3 of the force tolerance or less.
-_BOX_ARM = 1e3
+#: (scaled) from the centroid: a hair of force, 1e-5 of the force tolerance or less.
+_BOX_ARM = 1e5
 
 
 def _tolerance_box(tol: np.ndarray, arms: np.ndarray) -> tuple[WrenchPolygons, np.ndarray]:

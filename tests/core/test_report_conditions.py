@@ -74,7 +74,12 @@ def test_json_has_the_conditions_the_solve_and_the_hold_limits() -> None:
     assert hl["null_means"] == "above shown_up_to_ms"
     assert hl["all_tugs_ms"][270] is None
     assert hl["at_planned_wind_direction"]["all_tugs_ms"] is None
-    assert hl["worst_tug_lost_ms"][270] == pytest.approx(0.0, abs=1e-9)
+    # One tug left holds only a light wind: "met" allows the goal's tolerance, half a
+    # percent of the 20 m/s load WIND asked as planned, each way on the force (0.005 WIND)
+    # and that times the 80 m length on the moment (0.4 WIND m). Puffin alone, 40 m aft
+    # of the centroid, pulls F = W - 0.005 WIND with 40 F <= 0.4 WIND: W <= 0.015 WIND,
+    # V <= 20 sqrt(0.015) = 2.449 m/s (the beam wind's centre is at the centroid).
+    assert hl["worst_tug_lost_ms"][270] == pytest.approx(20.0 * math.sqrt(0.015), rel=1e-4)
 
 
 def test_the_balance_includes_the_wind() -> None:
