@@ -18,7 +18,7 @@ from core.analysis.swing import is_swing_stage, swing_words
 from core.frames import angle_to_bearing, turning_words
 from core.mechanics.fittings import FittingLoad, FittingTotal
 from core.model.plan import Stage
-from core.model.tugs import setting_words
+from core.model.tugs import STANDING_BY, setting_words, standing_by
 from core.solve.holdlimits import (
     SHOWN_UP_TO_MS,
     HoldLimits,
@@ -348,9 +348,14 @@ def solve_lines(br: BodyResult, u: DisplayUnits) -> list[str]:
     )
     out.append(f"  Solved pulls    goal {what}{given}: {state}")
     for i, pl in enumerate(r.problem.placements):
+        setting = float(r.settings[i])
+        row = f"    {pl.tug:<14}{u.show(float(r.pulls_n[i]), 'force'):>10}  "
+        if standing_by(setting):  # it pulls nothing: no direction to give
+            out.append(row + STANDING_BY)
+            continue
         out.append(
-            f"    {pl.tug:<14}{u.show(float(r.pulls_n[i]), 'force'):>10}  setting "
-            f"{setting_words(float(r.settings[i])):>6}  pulling towards {r.bearing_deg(i):05.1f} relative"
+            row + f"setting {setting_words(setting):>6}  pulling towards "
+            f"{r.bearing_deg(i):05.1f} relative"
         )
     c = br.tug_lost
     worst = c.worst

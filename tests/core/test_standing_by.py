@@ -64,3 +64,16 @@ def test_the_sample_tug_whose_pull_the_hold_needs_is_not_standing_by() -> None:
     text = report_text(project).split("Stage 3:")[1].split("Stage 4:")[0]
     row = next(ln for ln in text.splitlines() if ln.startswith("  Gannet ") and " line " in ln)
     assert " 0.5 % " in row and "standing by" not in row
+
+
+def test_a_solved_pull_standing_by_keeps_its_columns_and_gives_no_direction() -> None:
+    # The sample's unberth (stage 1): the walk is solved with Tern at nothing. Its row
+    # says "standing by" where the others' "setting" starts, and no bearing: a tug that
+    # pulls nothing pulls towards nowhere.
+    text = report_text(load(DECK)).split("Stage 1:")[1].split("Stage 2:")[0]
+    solved = text.split("  Solved pulls")[1].split("  Tug lost check")[0].splitlines()[1:]
+    rows = {ln.split()[0]: ln for ln in solved}
+    assert rows["Tern"] == "    Tern               0.0 t  standing by"
+    working = rows["Gannet"]
+    assert working.index("setting") == rows["Tern"].index("standing by")
+    assert "pulling towards" in working and "pulling towards" not in rows["Tern"]
