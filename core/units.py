@@ -110,6 +110,11 @@ def percent(fraction: float) -> str:
     return "under 0.001" if pct > 0 else "over -0.001"
 
 
+def percent_words(fraction: float) -> str:
+    """A fraction as a percent with its sign, by :func:`percent`'s rule: "60 %", "0.4 %"."""
+    return f"{percent(fraction)} %"
+
+
 def label(unit: str) -> str:
     """How a unit symbol is printed."""
     return LABELS.get(unit, unit)

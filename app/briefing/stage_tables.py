@@ -109,7 +109,7 @@ def _fitting_cells(load: FittingLoad | FittingTotal, angle: str, u: DisplayUnits
     elif load.over_rating:
         state = "OVER its rating"
     else:
-        state = f"{(load.use_of_rating or 0.0) * 100:.0f} % of its {load.rating_label}"
+        state = f"{load.use_words} of its {load.rating_label}"
     rating = (
         "not given"
         if load.rating_n is None

@@ -222,7 +222,7 @@ def _fitting_reasons(b: BodyResult, u: DisplayUnits) -> list[Reason]:
                     "fitting_total_over_rating",
                     f"{t.point}: the {what} of {' and '.join(t.tugs)} together load it with "
                     f"{u.show(t.load_n, 'force')}, over its {t.rating_label} "
-                    f"{u.show(t.rating_n, 'force')} ({(t.use_of_rating or 0.0) * 100:.0f} %)",
+                    f"{u.show(t.rating_n, 'force')} ({t.use_words})",
                     t.point,
                 )
             )

@@ -384,7 +384,7 @@ def _against(load: FittingLoad | FittingTotal, u: DisplayUnits) -> str:
     """A load's rating, its use of it and OVER: "TOW 50.0 t (80 %)", "no rating given"."""
     if load.rating_n is None:
         return "no rating given"
-    use = "" if load.use_of_rating is None else f" ({load.use_of_rating * 100:.0f} %)"
+    use = "" if load.use_words is None else f" ({load.use_words})"
     flag = "  OVER" if load.over_rating else ""
     return f"{load.rating_label} {u.show(load.rating_n, 'force')}{use}{flag}"
 

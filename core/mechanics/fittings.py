@@ -28,6 +28,7 @@ from core.mechanics.balance import TugLayout
 from core.mechanics.bodies import Body
 from core.mechanics.usable import fitting_suits
 from core.model.plan import Project
+from core.units import percent_words
 
 #: A load within this fraction above the rating still counts as at the rating (rounding).
 RATING_TOL = 1e-9
@@ -83,6 +84,13 @@ class FittingLoad:
         """Load as a fraction of the rating (None without a rating)."""
         return None if self.rating_n is None else self.load_n / self.rating_n
 
+    @property
+    def use_words(self) -> str | None:
+        """The load's use of its rating as every view prints it ("0.4 %", "60 %"), by the
+        settings' percent rule (None without a rating)."""
+        use = self.use_of_rating
+        return None if use is None else percent_words(use)
+
 
 def _over(load_n: float, rating_n: float | None) -> bool:
     return rating_n is not None and load_n > rating_n * (1 + RATING_TOL)
@@ -124,6 +132,13 @@ class FittingTotal:
     def use_of_rating(self) -> float | None:
         """Load as a fraction of the rating (None without a rating)."""
         return None if self.rating_n is None else self.load_n / self.rating_n
+
+    @property
+    def use_words(self) -> str | None:
+        """The load's use of its rating as every view prints it ("0.4 %", "60 %"), by the
+        settings' percent rule (None without a rating)."""
+        use = self.use_of_rating
+        return None if use is None else percent_words(use)
 
 
 def fitting_totals(loads: Sequence[FittingLoad], layout: TugLayout) -> tuple[FittingTotal, ...]:

@@ -16,7 +16,7 @@ from core.errors import InputError
 from core.model import rules
 from core.model.capability import Capability, TugKind, Way, default_capability, tug_kind
 from core.model.headway import HeadwayTable, placeholder_headway
-from core.units import filed, percent
+from core.units import filed, percent_words
 
 #: Default share of a towline's minimum breaking load above which its tension is warned
 #: about (common practice, no source: harbour towlines are commonly sized at two to three
@@ -182,7 +182,7 @@ def standing_by(setting: float) -> bool:
 
 def setting_words(setting: float) -> str:
     """A tug's setting as every view prints it: "60 %", "0.5 %", or "0 %, standing by"."""
-    words = f"{percent(setting)} %"
+    words = percent_words(setting)
     return f"{words}, {STANDING_BY}" if standing_by(setting) else words
 
 

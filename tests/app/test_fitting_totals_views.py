@@ -6,7 +6,9 @@ from app.briefing.layout import Table
 from app.briefing.stage_tables import fittings_table
 from app.panels.solve_panel import tug_notes
 from core.analysis.stage import stage_result
+from core.io.projectfile import load
 from core.model.goals import Goal
+from tests.conftest import SAMPLES
 from tests.core.plan_builders import TF
 from tests.core.test_fitting_totals import _two_at_bow
 
@@ -30,3 +32,17 @@ def test_the_briefing_and_the_tug_notes_show_the_shared_fittings_total() -> None
     notes = tug_notes(r)
     assert "bow over its rating with 2 tugs" in notes["A"]
     assert "bow over its rating with 2 tugs" in notes["B"]
+
+
+def test_the_briefing_prints_a_small_fitting_load_with_the_settings_digits() -> None:
+    # The deck barge's hold (stage 3): Gannet's 0.3 t on the 80 t SWL bow bitt is 0.4 %
+    # of it (0.3 / 80, hand calculation), not "0 %": the core's words for the load's use.
+    p = load(SAMPLES / "deck_barge_unberth.towboard")
+    r = stage_result(p, 2)
+    assert r.main is not None
+    (table,) = [b for b in fittings_table(p, r, r.main) if isinstance(b, Table)]
+    gannet = next(row for row in table.rows if row[0] == "Gannet")
+    load_use = next(f for f in r.main.fittings if f.tug == "Gannet").use_words
+    assert gannet[-1] == f"{load_use} of its SWL"
+    assert gannet[-1] != "0 % of its SWL" and gannet[-1].endswith(" % of its SWL")
+    assert 0.1 <= float(gannet[-1].split(" %")[0]) < 1

@@ -15,7 +15,7 @@ import numpy as np
 import pytest
 import shapely
 
-from core.analysis.stage import balance_of
+from core.analysis.stage import balance_of, stage_result
 from core.io.projectfile import load
 from core.io.report import report_json, report_text
 
@@ -237,3 +237,21 @@ def test_the_fittings_lines_name_the_rating_the_tension_is_checked_against() -> 
     assert "Bow centre bitt       tension" in text
     assert "against TOW 50.0 t" in text and f"SWL {bitt.swl_n / TF:.1f} t" not in text
     assert "against no rating given" in text  # the pushing pads have none
+
+
+def test_a_small_fitting_load_is_printed_with_the_settings_digits() -> None:
+    """The deck barge's hold (stage 3): Gannet's line on the 80 t SWL bow bitt carries
+    about 0.3 t, i.e. 0.3 / 80 = 0.4 % of the SWL (hand calculation, the shown figures),
+    printed by the settings' percent rule ("0.4 %"), not as "0 %"."""
+    project = load(ROOT / "sample_projects" / "deck_barge_unberth.towboard")
+    main = stage_result(project, 2).main
+    assert main is not None
+    gannet = next(f for f in main.fittings if f.tug == "Gannet")
+    assert gannet.use_of_rating is not None
+    assert 0.001 < gannet.use_of_rating < 0.01  # the hand figure above, 0.1-1 %
+    expected = f"{gannet.use_of_rating * 100:.1f} %"  # below 1 %: one digit
+    assert gannet.use_words == expected
+    stage3 = report_text(project).split("Stage 3:")[1].split("Stage 4:")[0]
+    row = next(ln for ln in stage3.splitlines() if ln.startswith("    Gannet ") and "SWL" in ln)
+    assert row.endswith(f"against SWL 80.0 t ({expected})")
+    assert "(0 %)" not in stage3
