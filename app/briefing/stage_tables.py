@@ -16,6 +16,7 @@ from core.analysis.stage import BodyResult, StageResult
 from core.mechanics.balance import Balance
 from core.mechanics.fittings import FittingLoad, FittingTotal
 from core.model.plan import Project
+from core.model.tugs import setting_cell
 from core.units import DisplayUnits, fmt, label, percent
 
 #: Clearances listed per stage besides those below the margin (the nearest first).
@@ -42,7 +43,7 @@ def tugs_table(project: Project, result: StageResult, body: BodyResult) -> list[
                 sh.tug,
                 f"{sh.hull}: {sh.point}",
                 lead + (" (astern)" if p.astern else ""),
-                sh.setting_words,
+                setting_cell(sh.setting),
                 u.show(sh.pull_n, "force"),
                 u.show(sh.usable_n, "force"),
                 f"{percent(sh.share_of_rated)} %",
@@ -57,11 +58,11 @@ def tugs_table(project: Project, result: StageResult, body: BodyResult) -> list[
                 Column("Tug", 1.0),
                 Column("Works at", 2.2),
                 Column("Lead (rel.)", 1.6),
-                Column("Setting", 0.8, "right"),
+                Column("Setting", 1.0, "right"),  # "standing by" on one line
                 Column("Assigned pull", 1.0, "right"),
                 Column("Usable pull", 1.0, "right"),
                 Column("Share of rated pull", 0.8, "right"),
-                Column("Yaw moment about centroid", 1.4, "right"),
+                Column("Yaw moment about centroid", 1.2, "right"),
             ],
             rows,
             row_colors=colors,

@@ -186,6 +186,12 @@ def setting_words(setting: float) -> str:
     return f"{words}, {STANDING_BY}" if standing_by(setting) else words
 
 
+def setting_cell(setting: float) -> str:
+    """A tug's setting in a narrow column: "60 %", "0.5 %", or "standing by" alone (the
+    words say the setting of nothing; "0 %, standing by" wraps in a narrow column)."""
+    return STANDING_BY if standing_by(setting) else percent_words(setting)
+
+
 @dataclass(frozen=True, slots=True)
 class Placement:
     """Where one tug works in one stage, and how hard.

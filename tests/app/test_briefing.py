@@ -14,7 +14,7 @@ import pytest
 
 from core.analysis.stage import plan_results
 from core.io.projectfile import load
-from core.model.tugs import Tug
+from core.model.tugs import Tug, setting_cell
 from core.units import DisplayUnits
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -84,7 +84,7 @@ def test_every_tug_and_assigned_pull_of_every_stage_is_the_core_value(twin_pdf):
         assert r.worked
         for body in r.worked:
             for sh in body.balance.shares:
-                setting = sh.setting_words  # "0 %, standing by" only for nothing
+                setting = setting_cell(sh.setting)  # "standing by" only for nothing
                 row = (
                     re.escape(f"{sh.tug} {sh.hull}: {sh.point} ")
                     + r"[^%]*? "

@@ -3,8 +3,10 @@ page both list it, in the same words."""
 
 from __future__ import annotations
 
+from PySide6.QtGui import QPageSize, QPdfWriter
+
 from app.briefing.cover import cover
-from app.briefing.layout import Table
+from app.briefing.layout import Ctx, Table
 from app.briefing.stage_page import stage_blocks
 from core.analysis.stage import plan_results
 from core.io.projectfile import load
@@ -36,7 +38,7 @@ def test_a_tug_at_0_percent_is_listed_as_standing_by_on_the_cover_and_its_page()
 
     page = _tables(stage_blocks(project, results[0], 60.0), "Tug")
     rows = {row[0]: row for t in page if t.columns[3].title == "Setting" for row in t.rows}
-    assert rows[idle][3] == "0 %, standing by"
+    assert rows[idle][3] == "standing by"  # alone: "0 %, standing by" wrapped in the column
     assert rows[busy][3] == "50 %"
 
 
@@ -52,3 +54,25 @@ def test_a_tug_at_a_small_setting_is_working_on_the_cover_and_its_page() -> None
     page = _tables(stage_blocks(project, results[2], 60.0), "Tug")
     rows = {row[0]: row for t in page if t.columns[3].title == "Setting" for row in t.rows}
     assert rows["Gannet"][3] == "0.5 %"
+
+
+def test_the_setting_of_a_tug_standing_by_fits_its_column_on_one_line(qapp, tmp_path) -> None:  # type: ignore[no-untyped-def]
+    # The sample's unberth (stage 1) solves Tern to nothing: its Setting cell, measured
+    # at the briefing's A4 body width (210 mm less 15 mm margins each side), is one line.
+    project = load(SAMPLES / "deck_barge_unberth.towboard")
+    results = plan_results(project)
+    (table,) = [
+        t
+        for t in _tables(stage_blocks(project, results[0], 60.0), "Tug")
+        if t.columns[3].title == "Setting"
+    ]
+    writer = QPdfWriter(str(tmp_path / "m.pdf"))
+    writer.setResolution(300)
+    writer.setPageSize(QPageSize(QPageSize.PageSizeId.A4))
+    ctx = Ctx(writer)
+    width = table.widths(ctx.mm(210 - 2 * 15))[3] - 2 * ctx.mm(table.pad_mm)
+    tern = next(row for row in table.rows if row[0] == "Tern")
+    assert tern[3] == "standing by"
+    one_line = ctx.text_height("8 %", width, table.size_pt)
+    assert ctx.text_height(tern[3], width, table.size_pt) == one_line
+    del writer

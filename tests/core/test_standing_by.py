@@ -9,7 +9,7 @@ import pytest
 from core.analysis.stage import plan_results, stage_result
 from core.io.projectfile import load
 from core.io.report import report_text
-from core.model.tugs import setting_words, standing_by
+from core.model.tugs import setting_cell, setting_words, standing_by
 from core.units import percent
 from tests.conftest import SAMPLES
 
@@ -42,6 +42,10 @@ def test_standing_by_is_a_setting_of_exactly_nothing() -> None:
     assert setting_words(0.0) == "0 %, standing by"
     assert setting_words(0.005) == "0.5 %"
     assert setting_words(0.6) == "60 %"
+    # a narrow column's words: the setting of nothing said by "standing by" alone
+    assert setting_cell(0.0) == "standing by"
+    assert setting_cell(0.005) == "0.5 %"
+    assert setting_cell(0.6) == "60 %"
 
 
 def test_the_sample_tug_whose_pull_the_hold_needs_is_not_standing_by() -> None:
