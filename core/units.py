@@ -92,19 +92,40 @@ def fmt(value: float, digits: int = 1, signed: bool = False) -> str:
     return f"{v:+.{digits}f}" if signed else f"{v:.{digits}f}"
 
 
+#: How near 100 % a share may be and still read "100" (the checks' own 1e-9 relative).
+_AT_LIMIT = 1e-9
+
+
+def _whole_percent(pct: float) -> str:
+    """``pct`` from 1 up: whole percents, with the digits it needs where a whole percent
+    would cross 100 (the limit of a setting or a rating): 100.3 reads "100.3", never "100",
+    and 99.7 reads "99.7", never "100"; within 0.001 of 100 it reads "just over 100" or
+    "just under 100"."""
+    if abs(pct - 100) <= 100 * _AT_LIMIT:
+        return "100"
+    for digits in (0, 1, 2, 3):
+        text = f"{pct:.{digits}f}"
+        shown = float(text)
+        if (shown > 100) == (pct > 100) and (shown < 100) == (pct < 100):
+            return text
+    return "just over 100" if pct > 100 else "just under 100"
+
+
 def percent(fraction: float) -> str:
-    """A fraction as a percent for people, without the "%": whole percents from 1 %, and
-    below it the digits it needs so that only nothing at all reads "0" (0.005 -> "0.5",
-    0.0004 -> "0.04"); below 0.001 % it reads "under 0.001"."""
+    """A fraction as a percent for people, without the "%": whole percents from 1 %, with
+    more digits where a whole percent would read over a limit of 100 % that the value is
+    under or the other way round (1.003 -> "100.3"), and below 1 % the digits it needs so
+    that only nothing at all reads "0" (0.005 -> "0.5", 0.0004 -> "0.04"); below 0.001 %
+    it reads "under 0.001"."""
     pct = fraction * 100
     if pct == 0:
         return "0"
     if abs(pct) >= 1:
-        return f"{pct:.0f}"
+        return _whole_percent(pct)
     for digits in (1, 2, 3):
         text = f"{pct:.{digits}f}"
         if abs(float(text)) >= 1:
-            return f"{pct:.0f}"
+            return _whole_percent(pct)
         if float(text) != 0:
             return text
     return "under 0.001" if pct > 0 else "over -0.001"

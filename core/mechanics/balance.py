@@ -526,7 +526,7 @@ def _notices(layout: TugLayout, pulls: np.ndarray, body: Body, units: DisplayUni
                 Notice(
                     "setting_over",
                     p.tug,
-                    f"{p.tug}: setting {p.setting * 100:.0f} % is above 100 %",
+                    f"{p.tug}: setting {setting_words(p.setting)} is above 100 %",
                 )
             )
         if layout.is_push[i]:

@@ -62,7 +62,7 @@ from core.solve.lp import solve_lp
 from core.solve.polytope import WrenchPolygons, zonotope_normals
 from core.solve.reach import Reach, SegmentsReach
 from core.solve.zonotope import FleetZonotope, HalfSpaces
-from core.units import DisplayUnits
+from core.units import DisplayUnits, percent_words
 
 #: The reach of a fleet with working sectors is first found with polygons this many
 #: times coarser, then walked out to the fine ones (core.solve.walk).
@@ -345,7 +345,7 @@ class PullsResult:
                 out.append(f"{p.tug}: not needed")
                 continue
             out.append(
-                f"{p.tug}: {units.show(pull, 'force')} ({self.settings[i] * 100:.0f} %) "
+                f"{p.tug}: {units.show(pull, 'force')} ({percent_words(float(self.settings[i]))}) "
                 f"towards {self.bearing_deg(i):05.1f} relative"
             )
         return tuple(out)

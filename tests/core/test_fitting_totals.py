@@ -15,6 +15,7 @@ import pytest
 
 from core.analysis.stage import stage_result
 from core.io.report import report_json, report_text
+from core.mechanics.fittings import FittingLoad
 from core.model.goals import Goal
 from core.model.plan import BodyPose, Project, Stage
 from core.model.tugs import Placement, Tug
@@ -114,3 +115,24 @@ def test_the_report_shows_the_fittings_total() -> None:
         assert f["fitting_total_load_N"] == pytest.approx(80 * TF)
         assert f["fitting_total_use_of_rating"] == pytest.approx(1.6)
         assert f["fitting_total_over_rating"] is True
+
+
+def test_a_load_just_over_its_rating_never_reads_100_percent() -> None:
+    # 60.18 t on a 60 t SWL: 60.18 / 60 = 1.003, 100.3 % (hand calculation): over the
+    # rating, so its words must not read "100 %" beside the OVER flag.
+    load = FittingLoad(
+        tug="A",
+        hull="Barge",
+        point="bow",
+        mode="line",
+        fitting_type="bitt",
+        pull_n=60.18 * TF,
+        line_angle_rad=0.0,
+        load_n=60.18 * TF,
+        rating_n=60 * TF,
+        rating_label="SWL",
+        bollard_pull_n=50 * TF,
+        suits_tug=True,
+    )
+    assert load.over_rating
+    assert load.use_words == "100.3 %"

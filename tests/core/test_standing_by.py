@@ -28,10 +28,19 @@ HOLD = 2  # stage 3, hold while the dredger clears the entrance: Gannet at 0.5 %
         (0.0096, "1"),  # rounds up to a whole percent
         (0.22, "22"),
         (1.0, "100"),
+        # never over 100 for a value under it, nor 100 or less for one over it
+        (1.003, "100.3"),  # an over-limit setting, not "100"
+        (0.997, "99.7"),  # under the limit, not "100"
+        (1.0004, "100.04"),
+        (1.000004, "just over 100"),
+        (0.999996, "just under 100"),
+        (1.0 + 1e-12, "100"),  # within the checks' 1e-9: at the limit
+        (1.05, "105"),
     ],
 )
 def test_a_percent_reads_0_only_for_nothing(fraction: float, text: str) -> None:
-    # hand written: fraction x 100, whole percents, and a small one to its first digit
+    # hand written: fraction x 100, whole percents, a small one to its first digit, and
+    # one near 100 to the digit that keeps it on its own side of 100
     assert percent(fraction) == text
 
 
