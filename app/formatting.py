@@ -19,20 +19,22 @@ def bearing(deg: float | None) -> str:
     return f"{d:03d}°"
 
 
-def value(units: DisplayUnits, si: float, quantity: Quantity, digits: int = 1) -> str:
-    """``si`` in the display unit with its symbol: ``"45.0 t"``."""
+def value(units: DisplayUnits, si: float, quantity: Quantity, digits: int | None = None) -> str:
+    """``si`` in the display unit with its symbol: ``"45.0 t"`` (the unit's own digits
+    unless ``digits`` is given: core.units.digits_of)."""
     return units.show(si, quantity, digits)
 
 
-def signed(units: DisplayUnits, si: float, quantity: Quantity, digits: int = 1) -> str:
+def signed(units: DisplayUnits, si: float, quantity: Quantity, digits: int | None = None) -> str:
     """With an explicit sign: ``"+12.5 t·m"``."""
     u = units.unit(quantity)
-    return f"{fmt(units.value(si, quantity), digits, signed=True)} {label(u)}"
+    d = units.digits(quantity) if digits is None else digits
+    return f"{fmt(units.value(si, quantity), d, signed=True)} {label(u)}"
 
 
-def number(units: DisplayUnits, si: float, quantity: Quantity, digits: int = 1) -> str:
+def number(units: DisplayUnits, si: float, quantity: Quantity, digits: int | None = None) -> str:
     """The bare number in the display unit (for table cells whose header names the unit)."""
-    return fmt(units.value(si, quantity), digits)
+    return fmt(units.value(si, quantity), units.digits(quantity) if digits is None else digits)
 
 
 def unit_label(units: DisplayUnits, quantity: Quantity) -> str:

@@ -136,6 +136,16 @@ def percent_words(fraction: float) -> str:
     return f"{percent(fraction)} %"
 
 
+#: The digits a unit is printed with where a view asks for none: m/s to the hundredth (a
+#: 0.4 kn current is 0.21 m/s, which one decimal would print 0.2), every other to the tenth.
+DIGITS: dict[str, int] = {"m/s": 2}
+
+
+def digits_of(unit: str) -> int:
+    """How many decimals ``unit`` is printed with by default (:data:`DIGITS`, else 1)."""
+    return DIGITS.get(unit, 1)
+
+
 def label(unit: str) -> str:
     """How a unit symbol is printed."""
     return LABELS.get(unit, unit)
@@ -160,10 +170,16 @@ class DisplayUnits:
     def with_unit(self, quantity: Quantity, unit: str) -> DisplayUnits:
         return replace(self, **{quantity: unit})
 
-    def show(self, value_si: float, quantity: Quantity, digits: int = 1) -> str:
-        """``value_si`` in this display unit with its symbol, e.g. ``"45.0 t"``."""
+    def digits(self, quantity: Quantity) -> int:
+        """The decimals ``quantity`` is printed with in this display unit by default."""
+        return digits_of(self.unit(quantity))
+
+    def show(self, value_si: float, quantity: Quantity, digits: int | None = None) -> str:
+        """``value_si`` in this display unit with its symbol, e.g. ``"45.0 t"``, ``"0.21
+        m/s"``: to ``digits`` decimals, by default the unit's own (:func:`digits_of`)."""
         u = self.unit(quantity)
-        return f"{fmt(from_si(value_si, quantity, u), digits)} {label(u)}"
+        d = digits_of(u) if digits is None else digits
+        return f"{fmt(from_si(value_si, quantity, u), d)} {label(u)}"
 
     def value(self, value_si: float, quantity: Quantity) -> float:
         return from_si(value_si, quantity, self.unit(quantity))

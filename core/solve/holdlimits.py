@@ -82,7 +82,7 @@ from core.solve.polytope import (
 from core.solve.pulls import tolerance_of
 from core.solve.reach import Reach
 from core.solve.walk import nudged_triangles, set_size, walk
-from core.units import DisplayUnits
+from core.units import DisplayUnits, fmt
 
 __all__ = [
     "HoldLimits",
@@ -730,7 +730,7 @@ def limit_cell(speed_ms: float, units: DisplayUnits, flow: Flow = "wind") -> str
     """A limit in a table cell, display units, no unit: "12.3", or "above" beyond
     :data:`SHOWN_UP_TO_MS` (the table says how far that is: :func:`above_words`)."""
     v = shown_limit(speed_ms, flow)
-    return "above" if v is None else f"{units.value(v, 'speed'):.1f}"
+    return "above" if v is None else fmt(units.value(v, "speed"), units.digits("speed"))
 
 
 def above_words(units: DisplayUnits, flow: Flow = "wind") -> str:

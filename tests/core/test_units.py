@@ -2,10 +2,16 @@
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 import pytest
 
 from core.errors import InputError
+from core.io.projectfile import load
+from core.io.report import report_text
+from core.solve.holdlimits import limit_cell
 from core.units import FACTORS, DisplayUnits, from_si, label, to_si, ureg
+from tests.conftest import SAMPLES
 
 
 @pytest.mark.parametrize(
@@ -61,3 +67,25 @@ def test_round_trip_and_labels() -> None:
 def test_unknown_unit_is_refused_with_the_choices() -> None:
     with pytest.raises(InputError, match="force unit: 'ton' is not one of t, kN, kip, lbf"):
         DisplayUnits(force="ton")
+
+
+def test_speeds_in_m_per_s_are_printed_to_the_hundredth_and_knots_to_the_tenth() -> None:
+    # 0.4 kn = 0.4 x 1852 m / 3600 s = 0.2058 m/s (the knot is 1852 m an hour, exact by
+    # definition): one decimal read 0.2 m/s, two read 0.21 m/s.
+    kn = 1852.0 / 3600.0
+    assert DisplayUnits(speed="m/s").show(0.4 * kn, "speed") == "0.21 m/s"
+    assert DisplayUnits(speed="kn").show(0.4 * kn, "speed") == "0.4 kn"
+    assert DisplayUnits(speed="m/s").digits("speed") == 2
+    assert DisplayUnits().digits("force") == 1
+    assert DisplayUnits(speed="m/s").show(0.4 * kn, "speed", 1) == "0.2 m/s"  # as asked
+
+
+def test_the_report_and_the_hold_limits_print_m_per_s_to_the_hundredth() -> None:
+    # The deck barge sample's current, 0.4 kn (0.2058 m/s, hand calculation above), and
+    # its hold limits' cells, shown in m/s.
+    project = load(SAMPLES / "deck_barge_unberth.towboard")
+    project = replace(project, units=project.units.with_unit("speed", "m/s"))
+    text = report_text(project)
+    assert "  Current         0.21 m/s setting towards 070.0 true" in text
+    assert limit_cell(1.4958, project.units) == "1.50"
+    assert limit_cell(1.4958, DisplayUnits()) == "2.9"  # 1.4958 / 0.5144 = 2.91 kn
