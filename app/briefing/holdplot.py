@@ -137,17 +137,16 @@ class HoldPlot:
             p.drawText(QPointF(x + ctx.mm(10), y), text)
             y += ctx.mm(4.5)
         y += ctx.mm(2)
-        d_low, v_low = lim.lowest()
         meaning = lim.meaning()
         facts = [
             f"{meaning[:1].upper()}{meaning[1:]} ({sp}), by the true direction the wind "
             "blows from, with the current as planned; same measure as the planned wind "
             "(mean at its height, with its gust factor).",
-            f"Lowest with all tugs: {limit_words(v_low, u)} from {d_low:03.0f}°.",
+            f"Lowest with all tugs: {lim.lowest_words(u, mark='°')}.",
         ]
         if lost_v is not None:
-            d2, v2 = lim.lowest(np.asarray(lim.worst_lost_ms))
-            facts.append(f"Lowest with the worst tug lost: {limit_words(v2, u)} from {d2:03.0f}°.")
+            lost = lim.lowest_words(u, np.asarray(lim.worst_lost_ms), mark="°")
+            facts.append(f"Lowest with the worst tug lost: {lost}.")
         if planned > 0:
             here = limit_at(lim, c.wind_from_deg)
             facts.append(
@@ -195,11 +194,10 @@ class HoldPlot:
         if cur is None:
             return ""
         u, c, lim = self.units, self.stage.conditions, self.stage.limits
-        d, v = cur.lowest()
         here = limit_at(cur, c.current_towards_deg)
         text = (
             "Current the tugs can hold (all tugs, the wind as planned): lowest "
-            f"{limit_words(v, u, 'current')} setting to {d:03.0f}°; setting to the planned "
+            f"{cur.lowest_words(u, mark='°')}; setting to the planned "
             f"{c.current_towards_deg:03.0f}°, {limit_words(here, u, 'current')} (planned "
             f"{u.show(c.current_speed_ms, 'speed')}"
         )

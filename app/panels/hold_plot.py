@@ -791,7 +791,6 @@ class _SweepJob:
 
 def summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
     """The plot's figures in two short sentences: from the planned direction, and the lowest."""
-    d_all, v_all = lim.lowest()
     c = stage.conditions
     at = limit_at(lim, c.wind_from_deg)
     text = f"From {c.wind_from_deg:03.0f}°T: {_speed(at, units)} with all tugs"
@@ -802,17 +801,15 @@ def summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
     limit = wind_limit_as_given(stage)
     if limit is not None:
         text += f", limit {units.show(limit, 'speed')}"
-    text += f"). Lowest: {_speed(v_all, units)} from {d_all:03.0f}°T"
+    text += f"). Lowest: {lim.lowest_words(units, mark='°T')}"
     if lim.with_lost:
-        d_l, v_l = lim.lowest(lim.worst_lost_ms)
         who = lim.worst_lost_tug[int(np.argmin(lim.worst_lost_ms))]
-        text += f"; {_speed(v_l, units)} from {d_l:03.0f}°T losing {who}"
+        text += f"; {lim.lowest_words(units, lim.worst_lost_ms, mark='°T')} losing {who}"
     return text + "."
 
 
 def current_summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
     """The current plot's figures: towards the planned direction, and the lowest."""
-    d_all, v_all = lim.lowest()
     c = stage.conditions
     at = limit_at(lim, c.current_towards_deg)
     text = (
@@ -821,7 +818,7 @@ def current_summary(lim: HoldLimits, stage: Stage, units: DisplayUnits) -> str:
     )
     if stage.limits.max_current_ms is not None:
         text += f", limit {units.show(stage.limits.max_current_ms, 'speed')}"
-    text += f"). Lowest: {_speed(v_all, units, 'current')} setting to {d_all:03.0f}°T."
+    text += f"). Lowest: {lim.lowest_words(units, mark='°T')}."
     return text
 
 

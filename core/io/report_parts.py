@@ -430,7 +430,6 @@ def hold_limit_lines(stage: Stage, lim: HoldLimits | None, u: DisplayUnits) -> l
         out.append(
             "    1 lost " + "".join(show(limit_at(lim, float(d), w)) for d in TEXT_DIRECTIONS)
         )
-    d_lo, v_lo = lim.lowest()
     c = stage.conditions
     planned = limit_at(lim, c.wind_from_deg)
     curves = (None, w) if len(w) else (None,)
@@ -439,7 +438,7 @@ def hold_limit_lines(stage: Stage, lim: HoldLimits | None, u: DisplayUnits) -> l
     ):
         out.append(f"    ({above_words(u)})")
     out.append(
-        f"    lowest {limit_words(v_lo, u)} from {d_lo:03.0f} true; from the planned "
+        f"    lowest {lim.lowest_words(u)}; from the planned "
         f"{c.wind_from_deg:03.0f} true: {limit_words(planned, u)} against the planned "
         f"{u.show(c.wind_speed_ms, 'speed')}"
     )

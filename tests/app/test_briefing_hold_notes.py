@@ -31,7 +31,11 @@ def test_the_walk_with_a_tug_lost_is_said_as_not_held(deck_barge_text) -> None: 
     # REVIEW.md F1: with Gannet (or Puffin) lost the walk is not met in calm
     assert set(lim.calm_fails) == {"Gannet", "Puffin"}
     assert "Lowest with the worst tug lost: none" not in text
-    assert "Lowest with the worst tug lost: 0.0 kn (not held) from" in text
+    # 0 from every direction: no one direction named as the lowest
+    assert "Lowest with the worst tug lost: 0 from every direction." in text
+    assert "Lowest with the worst tug lost: 0.0 kn (not held) from" not in text
+    # and with all tugs every direction is above the 60 kn shown: none named either
+    assert "Lowest with all tugs: above 60.0 kn from every direction." in text
     assert lim.calm_words() + "." in text
 
 

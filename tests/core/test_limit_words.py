@@ -10,8 +10,10 @@ import json
 import re
 from pathlib import Path
 
+import numpy as np
 import pytest
 
+from core.analysis.stage import stage_result
 from core.io.projectfile import load
 from core.io.report import report_json, report_text
 from core.solve.holdlimits import SHOWN_UP_TO_MS, limit_cell, limit_words, shown_limit
@@ -61,3 +63,26 @@ def test_the_json_gives_null_above_the_shown_range() -> None:
         assert all(v is None or 0.0 <= v <= h["shown_up_to_ms"] for v in values)
     first = data["stages"][0]["hold_limits"]
     assert None in first["all_tugs_ms"]  # the 300 kn figures are "above"
+
+
+def test_the_lowest_limit_names_no_direction_when_every_direction_reads_alike() -> None:
+    # The deck barge's unberth (stage 1): with all tugs every direction is above the
+    # 60 kn the limits are shown up to, and with Gannet or Puffin lost the walk is not met
+    # even in calm, so that limit is 0 from every direction: no one direction is lowest.
+    project = load(ROOT / "sample_projects" / "deck_barge_unberth.towboard")
+    u = project.units
+    main = stage_result(project, 0).main
+    assert main is not None and main.hold_limits is not None
+    lim = main.hold_limits
+    assert all(shown_limit(float(v)) is None for v in lim.all_tugs_ms)
+    assert float(np.max(lim.worst_lost_ms)) <= 0.0
+    assert lim.lowest_words(u) == "above 60.0 kn from every direction"
+    assert lim.lowest_words(u, lim.worst_lost_ms) == "0 from every direction"
+    text = report_text(project).split("Stage 1:")[1].split("Stage 2:")[0]
+    assert "    lowest above 60.0 kn from every direction; from the planned 200 true" in text
+    # a curve with a lowest direction names it (stage 2, the swing: 46.7 kn from 171)
+    swing = stage_result(project, 1).main
+    assert swing is not None and swing.hold_limits is not None
+    d, v = swing.hold_limits.lowest()
+    assert swing.hold_limits.lowest_words(u) == f"{limit_words(v, u)} from {d:03.0f} true"
+    assert swing.hold_limits.lowest_words(u, mark="°") == f"{limit_words(v, u)} from {d:03.0f}°"

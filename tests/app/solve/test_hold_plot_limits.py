@@ -13,8 +13,11 @@ from PySide6.QtGui import QImage
 
 from app.paint import style
 from app.panels.hold_plot import LIMIT, HoldPlot, current_summary, summary
+from core.analysis.stage import stage_result
+from core.io.projectfile import load
 from core.solve.holdlimits import SHOWN_UP_TO_MS, limit_at, limit_words
 from core.units import DisplayUnits
+from tests.conftest import SAMPLES
 
 HOLD = 2  # the sample's stage "Hold while the dredger clears the entrance"
 
@@ -123,3 +126,14 @@ def test_a_message_stays_within_the_rings_clear_of_the_compass_letters(qtbot) ->
                 d = math.hypot(x / ratio - centre.x(), y / ratio - centre.y())
                 assert d <= 0.85 * radius, (x, y, d, radius)
     assert found > 50  # the message is drawn
+
+
+def test_the_windows_lowest_limit_names_no_direction_when_all_read_alike() -> None:
+    # The deck barge's unberth (stage 1): every all-tugs limit is above the 60 kn shown
+    # and the worst-tug-lost limit is 0 from every direction (tests/core/test_limit_words.py):
+    # the plot's summary says so in the core's words, naming no direction.
+    project = load(SAMPLES / "deck_barge_unberth.towboard")
+    main = stage_result(project, 0).main
+    assert main is not None and main.hold_limits is not None
+    text = summary(main.hold_limits, project.stages[0], project.units)
+    assert "Lowest: above 60.0 kn from every direction; 0 from every direction losing" in text
