@@ -28,7 +28,7 @@ from core.analysis.verdict import Verdict
 from core.io.report import CAUTION
 from core.mechanics.bodies import body_of
 from core.model.plan import Project, Stage
-from core.model.tugs import STANDING_BY
+from core.model.tugs import BOLLARD_PULL_NAME, STANDING_BY
 from core.units import label
 
 CAUTIONS = (
@@ -44,8 +44,8 @@ CAUTIONS = (
 
 #: How each of a tug's figures is worked out, in the words every table uses.
 PULL_WORDS = (
-    "Rated pull: the tug's bollard pull times its capability share at the lead (the share "
-    "of its bollard pull its type gives in that direction and way of working: on a line, "
+    f"Rated pull: the tug's {BOLLARD_PULL_NAME} times its capability share at the lead (the "
+    "share of its bollard pull its type gives in that direction and way of working: on a line, "
     "pushing, or working astern).",
     "Usable pull: rated pull × efficiency (sea state) × cos(towline angle to the "
     "horizontal; 1 for a push) × headway share (the share of its bollard pull at a "

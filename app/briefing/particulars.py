@@ -10,6 +10,7 @@ from core.frames import angle_to_bearing
 from core.mechanics.bodies import body_of
 from core.model.hull import Fitting
 from core.model.plan import Project
+from core.model.tugs import BOLLARD_PULL_TITLE
 from core.units import DisplayUnits, fmt
 
 
@@ -30,7 +31,7 @@ def tug_blocks(project: Project) -> list[Block]:
             [
                 Column("Tug", 1.1),
                 Column("Type", 1.5),
-                Column("Rated BP", 0.9, "right"),
+                Column(BOLLARD_PULL_TITLE, 0.9, "right"),
                 Column("Astern pull", 0.9, "right"),
                 Column("BP certificate", 1.0),
                 Column("Towing point height", 1.0, "right"),

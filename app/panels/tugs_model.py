@@ -24,7 +24,7 @@ from core.errors import InputError, TowboardError
 from core.mechanics.balance import TugShare
 from core.mechanics.bodies import body_name_of_hull
 from core.model import rules
-from core.model.tugs import Placement, Tug
+from core.model.tugs import BOLLARD_PULL_NAME, BOLLARD_PULL_TITLE, Placement, Tug
 from core.units import fmt as plain
 
 NOT_PLACED = "not placed"
@@ -42,7 +42,12 @@ class Column:
 
 COLUMNS: tuple[Column, ...] = (
     Column("name", "Tug", True, "Name of the tug (particulars are the same in every stage)"),
-    Column("bp", "Rated BP ({force})", True, "Certified bollard pull ahead"),
+    Column(
+        "bp",
+        f"{BOLLARD_PULL_TITLE} ({{force}})",
+        True,
+        f"Certified bollard pull ahead: the tug's {BOLLARD_PULL_NAME}",
+    ),
     Column("astern_bp", "Astern pull ({force})", True, "Rated pull astern"),
     Column(
         "point", "Works at", True, "The line point or push point the tug works at in this stage"

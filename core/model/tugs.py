@@ -169,6 +169,11 @@ class Tug:
         return self.towline_mbl_n * self.towline_warn_fraction
 
 
+#: The name of a tug's certified bollard pull ahead (its ``bollard_pull_n``) wherever it
+#: is shown: one name, as in the project's names table (a column title: BOLLARD_PULL_TITLE).
+BOLLARD_PULL_NAME = "rated bollard pull (BP)"
+BOLLARD_PULL_TITLE = BOLLARD_PULL_NAME[:1].upper() + BOLLARD_PULL_NAME[1:]
+
 #: The words for a tug made fast with a setting of exactly nothing: on its line, not pulling.
 STANDING_BY = "standing by"
 

@@ -24,7 +24,11 @@ def test_the_tugs_table_says_share_of_rated_pull_and_the_glossary_says_how() -> 
 
     words = " ".join(b.text for b in conventions(project) if isinstance(b, Text))
     assert "Use is" not in words
-    assert "Rated pull: the tug's bollard pull times its capability share at the lead" in words
+    # the bollard pull by its one name (CONVENTIONS.md), as the tugs table heads it
+    assert (
+        "Rated pull: the tug's rated bollard pull (BP) times its capability share at the lead"
+        in words
+    )
     assert (
         "Usable pull: rated pull × efficiency (sea state) × cos(towline angle to the "
         "horizontal; 1 for a push) × headway share"
