@@ -48,7 +48,9 @@ KNOT = 1852.0 / 3600.0
 
 def linprog_loop(problem: HoldLimitsProblem, lost: list[int | None]) -> np.ndarray:
     """V_max (len(lost), D) by one linprog per direction and case, on the problem's own
-    polygons (the origin left out: it is the slack of each tug's row)."""
+    polygons (the origin left out: it is the slack of each tug's row), with the goal's
+    tolerance as three more unknowns, what is missing, each within +-tolerance (in the
+    scaled rows' units: a coefficient under 1e-9 would be dropped by HiGHS)."""
     cols, owner = [], []
     for i, poly in enumerate(problem.shapes.polygons):
         far = poly[np.hypot(poly[:, 0], poly[:, 1]) > 0] if len(poly) else poly
@@ -58,27 +60,30 @@ def linprog_loop(problem: HoldLimitsProblem, lost: list[int | None]) -> np.ndarr
     w, own = np.hstack(cols), np.concatenate(owner)
     sc = np.array([1.0, 1.0, 1.0 / problem.length_m]) / np.abs(w[:2]).max()
     start = problem.start * sc
+    tol = np.zeros(3) if problem.tolerance is None else np.asarray(problem.tolerance) * sc
     out = np.zeros((len(lost), problem.wind_unit.shape[1]))
     for row, k in enumerate(lost):
         keep = own != k
         ww, oo = w[:, keep] * sc[:, None], own[keep]
         tugs = np.unique(oo)
-        a_ub = np.zeros((len(tugs), ww.shape[1] + 1))
-        a_ub[np.searchsorted(tugs, oo), np.arange(ww.shape[1])] = 1.0
-        c = np.zeros(ww.shape[1] + 1)
-        c[-1] = -1.0
+        m = ww.shape[1]
+        a_ub = np.zeros((len(tugs), m + 4))
+        a_ub[np.searchsorted(tugs, oo), np.arange(m)] = 1.0
+        c = np.zeros(m + 4)
+        c[m] = -1.0
+        bounds = [(0, None)] * (m + 1) + [(-t, t) for t in tol]
         for d in range(problem.wind_unit.shape[1]):
             ray = -problem.wind_unit[:, d] * sc
             r = linprog(
                 c,
                 A_ub=a_ub,
                 b_ub=np.ones(len(tugs)),
-                A_eq=np.c_[ww, -ray],
+                A_eq=np.c_[ww, -ray, np.eye(3)],
                 b_eq=start,
-                bounds=[(0, None)] * (ww.shape[1] + 1),
+                bounds=bounds,
                 method="highs",
             )
-            out[row, d] = math.sqrt(max(r.x[-1], 0.0)) if r.status == 0 else 0.0
+            out[row, d] = math.sqrt(max(r.x[m], 0.0)) if r.status == 0 else 0.0
     return out
 
 
