@@ -24,7 +24,7 @@ from core.errors import InputError, TowboardError
 from core.mechanics.balance import TugShare
 from core.mechanics.bodies import body_name_of_hull
 from core.model import rules
-from core.model.tugs import BOLLARD_PULL_NAME, BOLLARD_PULL_TITLE, Placement, Tug
+from core.model.tugs import BOLLARD_PULL_NAME, BOLLARD_PULL_TITLE, Placement, Tug, setting_cell
 from core.units import fmt as plain
 
 NOT_PLACED = "not placed"
@@ -305,7 +305,9 @@ class TugsModel(QAbstractTableModel):
         if key == "push_pull":
             return "" if s.mode != "line" else "—"
         if key == "setting":
-            return s.setting_words.replace(" %", "", 1)  # the column's title says "%"
+            # the column's title says "%"; a tug standing by reads so alone, as in the
+            # briefing's narrow column
+            return setting_cell(s.setting).replace(" %", "", 1)
         if key == "pull":
             return fmt.number(u, s.pull_n, "force")
         if key == "moment":

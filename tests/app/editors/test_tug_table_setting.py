@@ -20,4 +20,4 @@ def test_the_tugs_table_shows_a_small_setting_and_standing_by(window) -> None:  
         for r in range(model.rowCount())
     }
     # hand written: 0.005 x 100 = 0.5; 0.006 x 100 = 0.6; Tern set to nothing
-    assert shown == {"Gannet": "0.5", "Puffin": "0.6", "Tern": "0, standing by"}
+    assert shown == {"Gannet": "0.5", "Puffin": "0.6", "Tern": "standing by"}
