@@ -15,6 +15,7 @@ from app.briefing.layout import FAIL, MUTED, WARN, Block, Column, Drawing, Table
 from core.analysis.stage import BodyResult, StageResult
 from core.mechanics.balance import Balance
 from core.mechanics.fittings import FittingLoad, FittingTotal
+from core.mechanics.loads import load_words
 from core.model.plan import Project
 from core.model.tugs import setting_cell
 from core.units import DisplayUnits, fmt, label, percent
@@ -187,8 +188,7 @@ def balance_table(project: Project, result: StageResult, body: BodyResult) -> li
         rows.append(
             [
                 f"{ld.name.capitalize()} load",
-                f"{u.show(math.hypot(*ld.force), 'force')} (ahead {signed(u, ld.force[0], 'force')}, "
-                f"to port {signed(u, ld.force[1], 'force')}), included in the net force",
+                f"{load_words(ld, body.body, u)}; included in the net force",
             ]
         )
     for n in body.conditions.notices:  # a load the conditions ask for and could not be had

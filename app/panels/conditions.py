@@ -38,9 +38,8 @@ from app.numbers import message, parse_number, parse_optional, parse_value
 from app.panels.dialog_parts import ok_cancel
 from app.panels.panel_field import PanelField
 from core.errors import InputError, TowboardError
-from core.frames import turning_words
 from core.mechanics.bodies import stage_body
-from core.mechanics.loads import hoerner_cross_flow, projection
+from core.mechanics.loads import hoerner_cross_flow, load_words, projection
 from core.model import rules
 from core.model.conditions import Conditions, rule
 from core.model.efficiency import EfficiencyTable
@@ -370,15 +369,9 @@ class ConditionsPanel(QWidget):
             + (f", {u.show(cl.design_wind_ms, 'speed')} with gusts" if gusts else ""),
             f"Current towards {cl.current_towards_rel_deg:03.0f}° relative",
         ]
-        tol = main.balance.tolerance[1]
-        for ld in cl.loads:
-            m = ld.moment_about(main.body.centroid)
-            lines.append(
-                f"{ld.name.capitalize()} load {u.show(math.hypot(*ld.force), 'force')}: "
-                f"ahead {u.value(ld.force[0], 'force'):+.1f}, to port "
-                f"{u.value(ld.force[1], 'force'):+.1f} {label(u.unit('force'))}; "
-                f"{u.show(abs(m), 'moment')} about the centroid, {turning_words(m, tol)}"
-            )
+        lines.extend(
+            f"{ld.name.capitalize()} load {load_words(ld, main.body, u)}" for ld in cl.loads
+        )
         if not cl.loads:
             lines.append("No wind or current load.")
         lines.extend(n.message for n in cl.notices)

@@ -17,6 +17,7 @@ from core.analysis.stage import BodyResult, StageResult
 from core.analysis.swing import is_swing_stage, swing_words
 from core.frames import angle_to_bearing, turning_words
 from core.mechanics.fittings import FittingLoad, FittingTotal
+from core.mechanics.loads import load_words
 from core.model.plan import Stage
 from core.model.tugs import STANDING_BY, setting_words, standing_by
 from core.solve.holdlimits import (
@@ -32,7 +33,7 @@ from core.solve.pulls import (
     PullsResult,
     shortfall_words,
 )
-from core.units import DisplayUnits, fmt, label, percent
+from core.units import DisplayUnits, label, percent
 
 #: Directions listed in the text report's hold limits table, degrees true.
 TEXT_DIRECTIONS = tuple(range(0, 360, 30))
@@ -296,13 +297,7 @@ def conditions_lines(stage: Stage, br: BodyResult, u: DisplayUnits) -> list[str]
     ]
     out.append(depth_line(br, u))
     for ld in cl.loads:
-        m = ld.moment_about(body.centroid)
-        out.append(
-            f"  {ld.name.capitalize() + ' load':<16}{u.show(math.hypot(*ld.force), 'force')}"
-            f" (ahead {fmt(u.value(ld.force[0], 'force'), signed=True)}, to port "
-            f"{fmt(u.value(ld.force[1], 'force'), signed=True)} {label(u.unit('force'))}), "
-            f"{fmt(u.value(m, 'moment'), signed=True)} {label(u.unit('moment'))} about the centroid"
-        )
+        out.append(f"  {ld.name.capitalize() + ' load':<16}{load_words(ld, body, u)}")
     out.extend(f"  NOTE: {n.message}" for n in cl.notices)
     return out
 

@@ -398,11 +398,11 @@ class Balance:
     @property
     def turning(self) -> str:
         """Which way the yaw moment turns the body, in words ("swings bow to port")."""
-        return _turning(self.equivalent.moment, self.tolerance[1])
+        return turning_judged(self.equivalent.moment, self.tolerance[1])
 
     @property
     def turning_about_cog(self) -> str:
-        return _turning(self.moment_cog_nm, self.tolerance[1])
+        return turning_judged(self.moment_cog_nm, self.tolerance[1])
 
     def crossing_words(self, units: DisplayUnits) -> str:
         """Where the line of action lies against the centreline, in words for people."""
@@ -467,7 +467,10 @@ def _within(value: float, tolerance: float) -> str:
     return " (within the tolerance)" if abs(value) > 1e-3 * tolerance else ""
 
 
-def _turning(moment_nm: float, tolerance_nm: float) -> str:
+def turning_judged(moment_nm: float, tolerance_nm: float) -> str:
+    """Which way a yaw moment turns the body, judged against ``tolerance_nm`` (from
+    core.mechanics.forces.negligible): "no swing (within the tolerance)" for a moment that
+    is negligible yet more than rounding."""
     words = turning_words(moment_nm, tolerance_nm)
     return words + _within(moment_nm, tolerance_nm) if words == "no swing" else words
 

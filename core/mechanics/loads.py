@@ -43,12 +43,14 @@ from dataclasses import dataclass
 import numpy as np
 
 from core.errors import InputError
-from core.mechanics.balance import Load
+from core.mechanics.balance import Load, turning_judged
 from core.mechanics.bodies import Body
 from core.mechanics.depth import depth_factor
+from core.mechanics.forces import negligible
 from core.model.conditions import Conditions
 from core.model.plan import Stage
 from core.notices import Notice
+from core.units import DisplayUnits, fmt, label
 
 #: Hoerner, Fluid-Dynamic Drag: beam-on cross-flow drag of a 2-D rectangular section
 #: against B / (2T), via Leite et al. 1998 (read). Used for the beam-on current
@@ -364,3 +366,26 @@ def loads_wrench(loads: tuple[Load, ...], centroid: tuple[float, float]) -> np.n
     for ld in loads:
         out += (ld.force[0], ld.force[1], ld.moment_about(centroid))
     return out
+
+
+def load_turning(load: Load, body: Body) -> str:
+    """Which way ``load`` alone turns ``body``, in words. The load is judged on itself by
+    the one negligible rule (core.mechanics.forces.negligible of the load's own force and
+    the body's length), not against the stage's balance, whose tugs may be far stronger."""
+    tol = negligible(math.hypot(*load.force), body.length)[1]
+    return turning_judged(load.moment_about(body.centroid), tol)
+
+
+def load_words(load: Load, body: Body, units: DisplayUnits) -> str:
+    """A wind or current load on ``body`` in words, the same in every view: its size, its
+    parts ahead and to port, its signed yaw moment about the centroid and which way that
+    turns the body, e.g. ``"1.4 t (ahead +1.3, to port +0.5 t), -6.2 t·m about the
+    centroid, swings bow to starboard"``."""
+    fx, fy = load.force
+    m = load.moment_about(body.centroid)
+    return (
+        f"{units.show(math.hypot(fx, fy), 'force')} (ahead {fmt(units.value(fx, 'force'), signed=True)}, "
+        f"to port {fmt(units.value(fy, 'force'), signed=True)} {label(units.unit('force'))}), "
+        f"{fmt(units.value(m, 'moment'), signed=True)} {label(units.unit('moment'))} about the "
+        f"centroid, {load_turning(load, body)}"
+    )

@@ -15,6 +15,7 @@ import pytest
 
 from core.analysis.stage import plan_results
 from core.io.projectfile import load
+from core.mechanics.loads import load_words
 from core.model.tugs import Tug, setting_cell
 from core.units import DisplayUnits
 
@@ -408,3 +409,18 @@ def test_each_fitting_s_line_tension_and_rating_is_printed(twin_pdf):
                     + re.escape(rating)
                 )
                 assert re.search(row, text), (r.stage.name, fl.tug)
+
+
+def test_each_load_is_printed_in_the_report_s_words(twin_pdf):
+    # The one wording of a load (core.mechanics.loads.load_words): its signed yaw moment
+    # and the way it turns the body, as the report and the Conditions panel say it.
+    project, _, _, texts = twin_pdf
+    u = project.units
+    seen = 0
+    for r, text in zip(plan_results(project), stage_texts(project, texts), strict=True):
+        for body in r.worked:
+            for ld in body.balance.loads:
+                words = norm(load_words(ld, body.body, u))
+                assert f"{ld.name.capitalize()} load {words}; included in the net force" in text
+                seen += 1
+    assert seen > 0

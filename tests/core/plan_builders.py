@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 from core.model.hull import Fitting, Hull
 from core.model.outlines import box_outline
@@ -74,3 +75,16 @@ def twin_group_project() -> Project:
     b = box_hull("B", 50.0, 14.0, displacement_kg=1.5e6, cog=(24.0, 0.0))
     group = LashedGroup("Pair", (GroupMember("A"), GroupMember("B", 55.0, -16.0, math.pi)))
     return Project(name="Twin", hulls=(a, b), groups=(group,), tugs=(Tug("Gannet", 50 * TF),))
+
+
+def twin_swing_in_wind(knots: float) -> Project:
+    """The bundled twin_barge_move with its stage 2 (a swing of the lashed Lark pair) in a
+    wind of ``knots`` at 10 m, from the stage's own direction."""
+    from core.io.projectfile import load
+    from tests.conftest import SAMPLES
+
+    p = load(SAMPLES / "twin_barge_move.towboard")
+    s = p.stages[1]
+    return p.with_stage(
+        replace(s, conditions=replace(s.conditions, wind_speed_ms=knots * 1852 / 3600)), 1
+    )

@@ -10,6 +10,7 @@ import shapely
 
 from core.analysis.stage import balance_of
 from core.errors import InputError
+from core.mechanics.balance import Load
 from core.mechanics.bodies import body_of
 from core.mechanics.loads import (
     HOERNER_CROSS_FLOW,
@@ -18,6 +19,7 @@ from core.mechanics.loads import (
     drag_force,
     dynamic_pressure,
     hoerner_cross_flow,
+    load_words,
     loads_wrench,
     projection,
     wind_model,
@@ -26,7 +28,8 @@ from core.model.conditions import Conditions, wind_at_10m, wind_at_height
 from core.model.hull import Hull
 from core.model.outlines import box_outline
 from core.model.plan import BodyPose, GroupMember, LashedGroup, Project, Stage
-from tests.core.plan_builders import box_hull
+from core.units import DisplayUnits
+from tests.core.plan_builders import TF, box_hull
 
 RHO_AIR = 1.225  # kg/m^3, ISO 2533 standard atmosphere at 15 C (from memory)
 RHO_SEA_ITTC = 1026.02  # kg/m^3, ITTC 7.5-02-01-03 (2011), 15 C, S = 35.165 g/kg (read)
@@ -260,3 +263,24 @@ def test_missing_freeboard_names_what_to_enter() -> None:
 def test_calm_conditions_need_no_areas() -> None:
     bare = Hull("Bare", box_outline(50.0, 10.0))
     assert condition_loads(body_of(Project(hulls=(bare,)), "Bare"), Conditions(), 0.0).loads == ()
+
+
+# -- a load in words ----------------------------------------------------------------------
+@pytest.mark.parametrize(
+    ("x", "words"),
+    [
+        # A 2 t load to starboard at x on an 80 m box (centroid x = 40): moment
+        # (x - 40) * (-2 t). Its own negligible moment (core.mechanics.forces.negligible):
+        # max(0.5 % of 2 t, 1000 N) * 80 m = 80 kN*m = 8.16 t*m (hand calculation).
+        (60.0, "-40.0 t·m about the centroid, swings bow to starboard"),
+        (45.0, "-10.0 t·m about the centroid, swings bow to starboard"),  # 10 > 8.16
+        (44.0, "-8.0 t·m about the centroid, no swing (within the tolerance)"),  # 8 < 8.16
+        (20.0, "+40.0 t·m about the centroid, swings bow to port"),
+    ],
+)
+def test_a_load_is_worded_with_its_signed_moment_judged_on_itself(x: float, words: str) -> None:
+    body = body_of(Project(hulls=(box_hull("Barge", 80.0, 20.0),)), "Barge")
+    load = Load("wind", (x, 0.0), (0.0, -2 * TF))
+    assert load_words(load, body, DisplayUnits()) == (
+        f"2.0 t (ahead +0.0, to port -2.0 t), {words}"
+    )

@@ -8,6 +8,7 @@ from dataclasses import replace
 
 import pytest
 
+from core.analysis.stage import stage_result
 from core.io.report import report_json, report_text
 from core.model.conditions import Conditions
 from core.model.goals import Goal
@@ -15,7 +16,7 @@ from core.model.plan import BodyPose, Project, Stage
 from core.model.tugs import Placement, Tug
 from core.solve.pulls import shortfall_words
 from core.units import DisplayUnits
-from tests.core.plan_builders import TF, box_hull
+from tests.core.plan_builders import TF, box_hull, twin_swing_in_wind
 
 KNOT = 1852 / 3600
 
@@ -123,3 +124,20 @@ def test_the_water_depth_is_reported_from_the_stage_result() -> None:
     assert cond["water_depth_m"] == 3.4
     assert cond["under_keel_clearance_m"] == pytest.approx(0.4)
     assert cond["current_depth_factor"] == pytest.approx((0.88 + 2.32 * (3 / 3.4) ** 2) / 0.88)
+
+
+def test_a_load_says_which_way_it_turns_judged_on_itself() -> None:
+    # The sample's stage 2 swings the Lark pair with about 30 t on a 76 m body: the
+    # balance's negligible moment is 0.5 % of what the stage deals in times 76 m, about
+    # 16 t*m. The wind load alone is judged on itself: max(0.5 % of its 2.5 t, 1000 N) x
+    # 76.0 m = 76 kN*m = 7.75 t*m (hand calculation, core.mechanics.forces.negligible).
+    p = twin_swing_in_wind(40.0)
+    br = stage_result(p, 1).body("Lark pair")
+    (wind,) = (ld for ld in br.conditions.loads if ld.name == "wind")
+    m = wind.moment_about(br.body.centroid)
+    assert -br.balance.tolerance[1] < m < -76_000.0  # turning the load, not the balance
+    text = report_text(p).split("Stage 2:")[1].split("Stage 3:")[0]
+    assert f"{m / TF:+.1f} t·m about the centroid, swings bow to starboard" in text
+    calm = report_text(twin_swing_in_wind(30.0)).split("Stage 2:")[1]
+    # at 30 kn its moment, (30/40)^2 of the above, is within the 7.75 t*m
+    assert "t·m about the centroid, no swing (within the tolerance)" in calm.split("Stage 3:")[0]

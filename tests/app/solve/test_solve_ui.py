@@ -16,13 +16,15 @@ from app.panels.conditions import EfficiencyDialog
 from app.panels.hold_plot import ALL_TUGS
 from core.analysis.stage import balance_of
 from core.errors import InputError
+from core.io.report_parts import conditions_lines
 from core.mechanics.bodies import body_of
-from core.mechanics.loads import body_conditions
+from core.mechanics.loads import body_conditions, load_words
 from core.model.goals import Goal
 from core.solve.holdlimits import hold_limits, hold_limits_problem, limit_words
 from core.solve.pulls import pulls_problem, solve_pulls, tug_lost_check
 from core.units import DisplayUnits
 from tests.app.board.conftest import move_with_button, view_point
+from tests.core.plan_builders import twin_swing_in_wind
 
 KNOT = 1852 / 3600
 
@@ -117,6 +119,25 @@ def test_the_panel_says_what_the_body_feels(window) -> None:  # type: ignore[no-
     cl = body_conditions(c.stage, body_of(c.project, "Kestrel 3"))
     assert f"Wind from {cl.wind_from_rel_deg:03.0f}° relative" in text
     assert "Wind load" in text and "Current load" in text
+
+
+def test_the_panel_words_each_load_as_the_report_does(window) -> None:  # type: ignore[no-untyped-def]
+    # The sample's swing stage in 40 kn: the wind load's own moment turns the pair (see
+    # tests/core/test_report_conditions.py), though it is within the whole balance's
+    # negligible moment; the panel says so with its sign, in the report's words.
+    c = window.controller
+    c.reset(twin_swing_in_wind(40.0))
+    c.set_stage_index(1)
+    text = window.solve_ui.conditions.effect.text().splitlines()
+    br = c.stage_result().body("Lark pair")
+    report = conditions_lines(c.stage, br, c.project.units)
+    for ld in br.conditions.loads:
+        words = load_words(ld, br.body, c.project.units)
+        assert f"{ld.name.capitalize()} load {words}" in text
+        assert any(line.endswith(words) for line in report)
+    wind = next(line for line in text if line.startswith("Wind load"))
+    assert "t·m about the centroid, swings bow to starboard" in wind
+    assert ", -1" in wind  # the moment's sign, as the report prints it
 
 
 def test_the_efficiency_table_dialog_builds_and_refuses(qtbot, monkeypatch) -> None:  # type: ignore[no-untyped-def]
