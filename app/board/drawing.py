@@ -538,7 +538,8 @@ class BalanceDrawing:
                 self.crossing.setVisible(True)
                 self.cross_label.setPos(balance.centreline_x, 0.0)
                 self.cross_label.set_text(
-                    f"line of action crosses centreline\nat x = {units.show(balance.centreline_x, 'length')}"
+                    f"line of action crosses {balance.centreline}\n"
+                    f"at x = {units.show(balance.centreline_x, 'length')}"
                 )
                 self.cross_label.setVisible(True)
             else:

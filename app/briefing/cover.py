@@ -26,7 +26,7 @@ from core.analysis.limits import WIND_LIMIT_LABEL, WIND_LIMIT_MEASURE
 from core.analysis.stage import StageResult
 from core.analysis.verdict import Verdict
 from core.io.report import CAUTION
-from core.mechanics.bodies import body_of
+from core.mechanics.bodies import body_of, group_frame_words
 from core.model.plan import Project, Stage
 from core.model.tugs import BOLLARD_PULL_NAME, STANDING_BY
 from core.units import label
@@ -216,12 +216,13 @@ def _margin(project: Project, s: Stage) -> float:
 def conventions(project: Project) -> list[Block]:
     u = project.units
     units = ", ".join(f"{q} in {label(u.unit(q))}" for q in ("force", "moment", "length", "speed"))
+    groups = group_frame_words(project)  # a lashed group's frame is one member's, named
     items = [
         f"Units: {units}. A force in t is the tonne-force (9.80665 kN).",
-        "Body frame: origin at the hull's reference point on the centreline (for a lashed "
-        "group, the first hull's), x forward, y to port. Yaw moment positive counter-clockwise "
-        "seen from above, which swings the bow to port; each moment names the point it is "
-        "taken about.",
+        "Body frame: origin at the hull's reference point on the centreline"
+        + (f" ({groups})" if groups else "")
+        + ", x forward, y to port. Yaw moment positive counter-clockwise seen from above, "
+        "which swings the bow to port; each moment names the point it is taken about.",
         "Site frame: x east, y north, metres; the diagrams are drawn north up, to the scale "
         "printed on each, with force arrows at their own printed scale.",
         "Directions on the body are relative bearings, degrees clockwise from ahead (000 ahead, "

@@ -17,7 +17,7 @@ from app.panels.verdict_view import VerdictView
 from core.mechanics.balance import Balance
 
 FRAME_TEXT = (
-    "Hull frame: x forward (ahead), y to port, origin at the hull's reference point. "
+    "Hull frame: x forward (ahead), y to port, origin at {origin}. "
     "Yaw moment positive counter-clockwise seen from above (bow to port). "
     "Bearings are relative, degrees clockwise from ahead (090 = starboard beam)."
 )
@@ -36,7 +36,7 @@ FIELDS = (
     ("moment_cog", "Yaw moment about the centre of gravity"),
     ("equivalent", "Equivalent force"),
     ("offset", "Its line of action from the centroid"),
-    ("crossing", "Its line of action crosses the centreline"),
+    ("crossing", "Where its line of action lies"),
 )
 
 
@@ -82,7 +82,7 @@ class BalancePanel(QWidget):
         self.warnings.setStyleSheet("color: #b71c1c;")
         self.warnings.setObjectName("balance_warnings")
         layout.addWidget(self.warnings)
-        note = QLabel(FRAME_TEXT)
+        self.note = note = QLabel(FRAME_TEXT.format(origin="the hull's reference point"))
         note.setWordWrap(True)
         note.setStyleSheet("color: #455a64; font-size: 9pt;")
         layout.addWidget(note)
@@ -154,6 +154,12 @@ class BalancePanel(QWidget):
         b = self.controller.balance()
         self.balance = b
         u = self.controller.project.units
+        # a lashed group's frame is one member's: the core names it (Balance.reference_point)
+        note = FRAME_TEXT.format(
+            origin="the hull's reference point" if b is None else b.reference_point
+        )
+        if note != self.note.text():
+            self.note.setText(note)
         if b is None:
             for key in self.fields:
                 self._set(key, "—")
@@ -184,8 +190,7 @@ class BalancePanel(QWidget):
             )
             self._set(
                 "crossing",
-                b.crossing_words(u).replace("crosses the centreline at ", "")
-                + (" from the reference point" if b.crossing_shown else ""),
+                b.crossing_words(u) + (f" from {b.reference_point}" if b.crossing_shown else ""),
             )
         # While a drag is in progress the verdict waits; the balance's own warnings follow it.
         notices = [n.message for n in b.notices] if self.controller.previewing else []

@@ -22,15 +22,24 @@ from core.io.report_parts import (
     wind_limit_lines,
 )
 from core.mechanics.balance import Balance
+from core.mechanics.bodies import group_frame_words
 from core.model.plan import Project
 from core.motion.drift import DRIFT_CAUTION
 from core.units import DisplayUnits, fmt, label, percent
 
-FRAME_NOTE = (
-    "Hull frame: origin at the hull's reference point on the centreline, x forward, y to port. "
-    "Yaw moment positive counter-clockwise seen from above (swings the bow to port). "
-    "Directions are relative bearings, degrees clockwise from ahead."
-)
+
+def frame_note(project: Project) -> str:
+    """The frame and sign note; a lashed group's frame is one member's, named."""
+    groups = group_frame_words(project)
+    return (
+        "Hull frame: origin at the hull's reference point on the centreline"
+        + (f" ({groups})" if groups else "")
+        + ", x forward, y to port. "
+        "Yaw moment positive counter-clockwise seen from above (swings the bow to port). "
+        "Directions are relative bearings, degrees clockwise from ahead."
+    )
+
+
 CAUTION = (
     "Planning aid only, under the stated assumptions. Certified bollard pull, fitting ratings "
     "and the conditions on the day govern; the master, the pilot, local port rules and "
@@ -56,6 +65,7 @@ def balance_json(b: Balance) -> dict[str, Any]:
             "direction": None if eq.direction is None else list(eq.direction),
             "offset_from_centroid_m": eq.offset_m,
             "crosses_centreline_at_x_m": b.centreline_x,
+            "centreline": b.centreline,
             "crossing_far_off_the_hull": b.crossing_is_far,
             "along_centreline": b.along_centreline,
             "enters_outline_m": None if b.chord is None else list(b.chord[0]),
@@ -91,7 +101,7 @@ def report_json(project: Project) -> dict[str, Any]:
         "plan": project.name,
         "revision": project.revision,
         "units": {"force": "N", "moment": "N*m", "length": "m", "angle": "deg"},
-        "frame": FRAME_NOTE,
+        "frame": frame_note(project),
         "caution": CAUTION,
         "drift_caution": DRIFT_CAUTION,
         "stages": [
@@ -181,7 +191,7 @@ def _balance_lines(b: Balance, u: DisplayUnits) -> list[str]:
 def report_text(project: Project) -> str:
     """The report in the project's display units, for a terminal."""
     u = project.units
-    out = [f"{project.name} (revision {project.revision})", FRAME_NOTE, ""]
+    out = [f"{project.name} (revision {project.revision})", frame_note(project), ""]
     for r in plan_results(project):
         s = r.stage
         out.append(f"Stage {r.index + 1}: {s.name} [{s.kind}]")

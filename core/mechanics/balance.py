@@ -345,6 +345,12 @@ class Balance:
     #: the words and every view read this one decision.
     tolerance: tuple[float, float] = (0.0, 0.0)
     ends_x: tuple[float, float] = (0.0, 0.0)  # the hull's aft and forward ends, body frame, m
+    #: the body frame's line y = 0 in words (bodies.Body.centreline_words): a lashed
+    #: group's is one member's centreline, named
+    centreline: str = "the centreline"
+    reference_point: str = (
+        "the hull's reference point"  # the body frame's origin in words, likewise
+    )
 
     @property
     def along_centreline(self) -> bool:
@@ -405,11 +411,13 @@ class Balance:
         return turning_judged(self.moment_cog_nm, self.tolerance[1])
 
     def crossing_words(self, units: DisplayUnits) -> str:
-        """Where the line of action lies against the centreline, in words for people."""
+        """Where the line of action lies against the centreline, in words for people (a
+        lashed group's centreline named: :attr:`centreline`)."""
+        cl = self.centreline
         if self.along_centreline:
-            return "along the centreline"
+            return f"along {cl}"
         if self.crossing_shown and self.centreline_x is not None:
-            return f"crosses the centreline at x = {units.show(self.centreline_x, 'length')}"
+            return f"crosses {cl} at x = {units.show(self.centreline_x, 'length')}"
         off = self.centreline_offset_m
         side = (
             ""
@@ -419,12 +427,12 @@ class Balance:
             )
         )
         if self.centreline_x is None:
-            return "parallel to the centreline" + side
+            return f"parallel to {cl}{side}"
         d = self.equivalent.direction
         if d is not None and abs(d[1]) > abs(d[0]):  # steeper than 45 deg to the centreline
             x = units.show(self.centreline_x, "length")
-            return f"crosses the centreline far off the hull, at x = {x}"
-        return f"nearly parallel to the centreline{side} (it crosses it far off the hull)"
+            return f"crosses {cl} far off the hull, at x = {x}"
+        return f"nearly parallel to {cl}{side} (it crosses it far off the hull)"
 
     def equivalent_words(self, units: DisplayUnits) -> str:
         """The single equivalent force in words: a force on a line, a couple, or nothing."""
@@ -675,6 +683,8 @@ def analyse_layout(
         length_m=body.length,
         tolerance=tolerance,
         ends_x=_ends_x(body),
+        centreline=body.centreline_words,
+        reference_point=body.reference_words,
     )
 
 

@@ -90,6 +90,37 @@ class Body:
     def is_group(self) -> bool:
         return len(self.members) > 1
 
+    @property
+    def frame_hull(self) -> str | None:
+        """For a lashed group, the member whose hull frame is the group's frame (lashing
+        makes it the first hull's): its reference point is the origin and its centreline
+        the x axis. None for a single hull, or a group whose frame is no member's."""
+        if not self.is_group:
+            return None
+        for m in self.members:
+            if abs(m.x) < 1e-6 and abs(m.y) < 1e-6 and abs(m.heading_rad) < 1e-9:
+                return m.hull.name
+        return None
+
+    @property
+    def centreline_words(self) -> str:
+        """The line y = 0 of the body frame in words: "the centreline" of a single hull;
+        for a group the hull whose centreline it is ("Lark 41's centreline"), since the
+        group's own middle may lie well off it."""
+        if not self.is_group:
+            return "the centreline"
+        hull = self.frame_hull
+        return f"the {self.name} frame's x axis" if hull is None else f"{hull}'s centreline"
+
+    @property
+    def reference_words(self) -> str:
+        """The body frame's origin in words: "the hull's reference point" of a single hull;
+        for a group the hull whose reference point it is ("Lark 41's reference point")."""
+        if not self.is_group:
+            return "the hull's reference point"
+        hull = self.frame_hull
+        return f"the {self.name} frame's origin" if hull is None else f"{hull}'s reference point"
+
     def member(self, hull: str) -> Member:
         for m in self.members:
             if m.hull.name == hull:
@@ -153,3 +184,16 @@ def stage_body(project: Project, stage: Stage, body: str | None = None) -> Body:
 def body_name_of_hull(project: Project, hull: str) -> str:
     group = project.group_of(hull)
     return group.name if group is not None else hull
+
+
+def group_frame_words(project: Project) -> str:
+    """Whose frame each lashed group's is, in words for the frame note ("for the lashed
+    group Lark pair, Lark 41's"); empty for a plan with no group."""
+    parts = []
+    for g in project.groups:
+        hull = body_of(project, g.name).frame_hull
+        parts.append(
+            f"for the lashed group {g.name}, "
+            + ("a frame of its own" if hull is None else f"{hull}'s")
+        )
+    return "; ".join(parts)

@@ -424,3 +424,19 @@ def test_each_load_is_printed_in_the_report_s_words(twin_pdf):
                 assert f"{ld.name.capitalize()} load {words}; included in the net force" in text
                 seen += 1
     assert seen > 0
+
+
+def test_a_lashed_group_s_centreline_and_frame_are_named(twin_pdf):
+    # The Lark pair's frame is Lark 41's (the first hull lashed): "the centreline" of the
+    # line of action's words is Lark 41's, 11.0 m (half the 22 m lashing offset, hand
+    # calculation) from the pair's middle, and the frame note says whose frame it is.
+    project, _, _, texts = twin_pdf
+    whole = " ".join(texts)
+    assert (
+        "Body frame: origin at the hull's reference point on the centreline (for the lashed "
+        "group Lark pair, Lark 41's), x forward" in whole
+    )
+    stages = stage_texts(project, texts)
+    assert "crosses Lark 41's centreline at x = 37.7 m" in stages[0]
+    assert "nearly parallel to Lark 41's centreline, 11.0 m to starboard of it" in stages[2]
+    assert "the centreline at" not in " ".join(stages)

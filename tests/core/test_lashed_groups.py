@@ -4,15 +4,20 @@ displacement-weighted centre of gravity, against hand formulas; tugs on either h
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import pytest
 import shapely
 
+from core.io.projectfile import load
+from core.io.report import report_json, report_text
 from core.mechanics.balance import analyse
 from core.mechanics.bodies import body_of
 from core.mechanics.site import placed_bodies
-from core.model.plan import BodyPose, Stage
-from tests.core.plan_builders import TF, line, twin_group_project
+from core.model.plan import BodyPose, GroupMember, Project, Stage
+from core.units import DisplayUnits
+from tests.conftest import SAMPLES
+from tests.core.plan_builders import TF, box_hull, line, twin_group_project
 
 # Hand layout (see twin_group_project): A is 60 x 18 m at the group origin, x 0..60, y -9..9;
 # B is 50 x 14 m turned end for end at (55, -16): x 5..55, y -23..-9, touching A's starboard side.
@@ -88,3 +93,43 @@ def test_the_group_is_placed_as_one_body():
     assert pb.polygon.bounds == pytest.approx((500 - 23, 200 - 60, 500 + 9, 200.0))
     assert pb.polygon.area == pytest.approx(AREA_A + AREA_B)
     assert math.isclose(pb.placing.angle_rad, -math.pi / 2)
+
+
+def test_a_group_s_centreline_is_named_as_the_hull_whose_frame_it_is():
+    # The group's frame is A's (lashing makes it the first hull's): y = 0 is A's centreline,
+    # 16 m to port of B's. The same pull from A's stern centre, group (0, 0), dead abeam to
+    # port: its line of action x = 0 crosses y = 0 at x = 0 (hand calculation).
+    p = twin_group_project()
+    stage = Stage("s", placements=(line("Gannet", "A", "stern", 0.6, 270.0),))
+    b = analyse(p, stage)
+    assert b.crossing_words(DisplayUnits()) == "crosses A's centreline at x = 0.0 m"
+    assert b.reference_point == "A's reference point"
+    # listed second, A is still the hull whose frame the group's is
+    g = p.groups[0]
+    swapped = replace(p, groups=(replace(g, members=g.members[::-1]),))
+    assert body_of(swapped, "Pair").centreline_words == "A's centreline"
+    # a frame that is no member's is said as the group's own
+    off = (GroupMember("A", 1.0, 0.0), GroupMember("B", 55.0, -16.0, math.pi))
+    alone = replace(p, groups=(replace(g, members=off),))
+    assert body_of(alone, "Pair").centreline_words == "the Pair frame's x axis"
+    # a single hull's needs no name
+    solo = body_of(Project(hulls=(box_hull("Solo", 60.0, 18.0),)), "Solo")
+    assert (solo.centreline_words, solo.reference_words) == (
+        "the centreline",
+        "the hull's reference point",
+    )
+
+
+def test_the_report_names_the_hull_whose_centreline_and_frame_a_group_uses():
+    # The bundled Lark pair: Lark 42 lashed 22 m to starboard of Lark 41, whose frame the
+    # pair's is; stage 3's 12 t ahead through the pair's centroid runs 11.0 m (half of the
+    # 22 m) to starboard of Lark 41's centreline (hand calculation).
+    p = load(SAMPLES / "twin_barge_move.towboard")
+    text = report_text(p)
+    assert "(for the lashed group Lark pair, Lark 41's), x forward" in text
+    stage3 = text.split("Stage 3:")[1].split("Stage 4:")[0]
+    assert "nearly parallel to Lark 41's centreline, 11.0 m to starboard of it" in stage3
+    assert "the centreline" not in text.split("Stage 1:")[1]
+    assert (
+        report_json(p)["stages"][2]["balance"]["equivalent"]["centreline"] == "Lark 41's centreline"
+    )

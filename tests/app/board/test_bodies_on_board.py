@@ -188,3 +188,24 @@ def test_a_lashed_group_posed_through_a_hull_keeps_that_form(window, qtbot) -> N
     assert [p.body for p in poses] == [m.hull]  # still posed through the hull
     new = body_pose(c.project, c.stage, group.name)
     assert (new.x - gpose.x, new.y - gpose.y) == pytest.approx((-1.0, 0.0), abs=1e-6)
+
+
+def test_a_lashed_group_s_crossing_names_the_hull_whose_centreline_it_is(window) -> None:  # type: ignore[no-untyped-def]
+    # Stage 1 of the bundled Lark pair: the line of action crosses y = 0 of the pair's
+    # frame, which is Lark 41's (the first hull lashed), not the pair's middle.
+    from app.board.items import Label
+    from tests.conftest import SAMPLES
+
+    assert window.open_path(SAMPLES / "twin_barge_move.towboard", ask=False)
+    c = window.controller
+    c.set_stage_index(0)
+    b = c.balance()
+    assert b.crossing_shown and b.centreline_x is not None
+    x = c.project.units.show(b.centreline_x, "length")
+    words = f"crosses Lark 41's centreline at x = {x}"
+    assert window.balance_panel.fields["crossing"].text() == (
+        f"{words} from Lark 41's reference point"
+    )
+    assert "origin at Lark 41's reference point." in window.balance_panel.note.text()
+    labels = [it.text for it in window.board.items() if isinstance(it, Label)]
+    assert f"line of action crosses Lark 41's centreline\nat x = {x}" in labels
