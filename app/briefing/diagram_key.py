@@ -67,7 +67,9 @@ def _conditions(p: QPainter, ctx: Ctx, x: float, top: float, diagram: StageDiagr
         p.drawText(QPointF(cx + ctx.mm(5), cy + ctx.mm(0.9)), name)
         p.setFont(ctx.font(6.5))
         w = ctx.metrics(6.5, True).horizontalAdvance(name)
-        p.drawText(QPointF(cx + ctx.mm(6) + w, cy + ctx.mm(0.9)), text if speed > 0 else "none")
+        p.drawText(
+            QPointF(cx + ctx.mm(6) + w, cy + ctx.mm(0.9)), text
+        )  # a calm as the report says it
 
 
 def _symbols(p: QPainter, ctx: Ctx, rect: QRectF, top: float) -> None:

@@ -440,3 +440,21 @@ def test_a_lashed_group_s_centreline_and_frame_are_named(twin_pdf):
     assert "crosses Lark 41's centreline at x = 37.7 m" in stages[0]
     assert "nearly parallel to Lark 41's centreline, 11.0 m to starboard of it" in stages[2]
     assert "the centreline at" not in " ".join(stages)
+
+
+def test_a_calm_is_worded_in_the_diagram_key_as_the_report_words_it(tmp_path, qapp_module):
+    # A stage with no wind: the report's conditions line gives the speed, 0.0 kn, and its
+    # direction; the diagram's key says the same, not a word of its own.
+    from app.briefing.document import write_pdf
+    from core.io.report import report_text
+
+    p = load(TWIN)
+    s = p.stages[0]
+    calm = p.with_stage(replace(s, conditions=replace(s.conditions, wind_speed_ms=0.0)), 0)
+    d = s.conditions.wind_from_deg
+    assert f"Wind            0.0 kn at 10 m from {d:05.1f} true" in report_text(calm)
+    out = tmp_path / "calm.pdf"
+    write_pdf(calm, out, "a4")
+    first = stage_texts(calm, pages_text(out))[0]
+    assert f"Wind 0.0 kn from {d:03.0f}°" in first
+    assert "Wind none" not in first
