@@ -1,4 +1,5 @@
-"""Edits of where bodies lie: move and turn a body in a stage, lash and unlash hulls.
+"""Edits of where bodies lie: move and turn a body in a stage, lash and unlash hulls, and
+set where each hull lies in its lashed group.
 
 A body's pose is the site position (x east, y north, m) of its frame's origin and the
 true heading of its +x axis (its bow). A lashed group's pose may be written for the
@@ -146,6 +147,46 @@ def unlashed(project: Project, group: str) -> Project:
         stages.append(replace(s, poses=tuple(poses)))
     groups = tuple(x for x in project.groups if x.name != group)
     return replace(project, groups=groups, stages=tuple(stages))
+
+
+def relashed(
+    project: Project, group: str, offsets: dict[str, tuple[float, float, float]]
+) -> Project:
+    """``project`` with the hulls of ``group`` lashed at new offsets in the group's frame.
+
+    ``offsets`` maps a member hull to (x forward, y to port, m; heading, rad CCW from the
+    group's +x), in the frame of the first member, which owns the frame and stays at 0,
+    0, 0 (an offset given for it other than that is refused). Members not named keep
+    theirs. The group's frame stays where it lies in every stage, so a member moves by
+    its change of offset; a stage that poses the group through one of its hulls gets
+    that hull's pose written again to keep it so.
+    """
+    g = next((x for x in project.groups if x.name == group), None)
+    if g is None:
+        raise InputError("group", group, "does not exist")
+    hulls = [m.hull for m in g.members]
+    for hull, (x, y, a) in offsets.items():
+        if hull not in hulls:
+            raise InputError(f"group {group}: member", hull, "is not one of its hulls")
+        if hull == hulls[0] and (x, y, a) != (0.0, 0.0, 0.0):
+            raise InputError(
+                f"group {group}: {hull}", (x, y, a), "owns the group's frame: it lies at 0, 0, 0"
+            )
+    members = tuple(
+        m if m.hull not in offsets else GroupMember(m.hull, *offsets[m.hull]) for m in g.members
+    )
+    if members == g.members:
+        return project
+    new = replace(
+        project,
+        groups=tuple(replace(x, members=members) if x is g else x for x in project.groups),
+    )
+    stages = []
+    for s in project.stages:
+        if any(p.body in hulls for p in s.poses):
+            s = posed(new, s, replace(body_pose(project, s, group), body=group))
+        stages.append(s)
+    return replace(new, stages=tuple(stages))
 
 
 def renamed_group(project: Project, old: str, new: str) -> Project:

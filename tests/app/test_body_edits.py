@@ -2,6 +2,9 @@
 
 from __future__ import annotations
 
+import math
+from dataclasses import replace
+
 import pytest
 import shapely
 from hypothesis import given, settings
@@ -109,3 +112,63 @@ def test_a_group_name_is_free() -> None:
     p2 = edits.lashed(p, 0, ("Alpha", "Bravo"), "Alpha + Bravo")
     c = Hull("Charlie", ((0.0, -5.0), (30.0, -5.0), (30.0, 5.0), (0.0, 5.0)))
     assert edits.group_name(p2.with_hull(c), ("Alpha", "Bravo")) == "Alpha + Bravo (2)"
+
+
+def _member_polygon(project: Project, stage: Stage, group: str, hull: str) -> shapely.Polygon:
+    """Hull ``hull`` of lashed ``group`` in the site: its outline through its offset, then
+    the group's pose (two rigid motions, by hand with shapely's affinity)."""
+    m = body_of(project, group).member(hull)
+    pose = body_pose(project, stage, group)
+    poly = shapely.Polygon(m.hull.outline)
+    poly = affinity.rotate(poly, m.heading_rad, origin=(0, 0), use_radians=True)
+    poly = affinity.translate(poly, m.x, m.y)
+    poly = affinity.rotate(poly, 90.0 - pose.heading_deg, origin=(0, 0))  # bow: CCW from east
+    return affinity.translate(poly, pose.x, pose.y)
+
+
+def test_relash_moves_a_member_by_its_change_of_offset_and_keeps_the_frame() -> None:
+    p = edits.lashed(_project(), 0, ("Alpha", "Bravo"), "Pair")
+    # Bravo lay at (5, -20) in Alpha's frame: stage One poses Alpha at (10, 20) heading
+    # 090 (bow east) and Bravo at (15, 0): 5 m ahead, 20 m to starboard (hand sum)
+    assert body_of(p, "Pair").member("Bravo").y == pytest.approx(-20.0)
+    alpha = {s.name: _member_polygon(p, s, "Pair", "Alpha") for s in p.stages}
+    bravo = {s.name: _member_polygon(p, s, "Pair", "Bravo") for s in p.stages}
+    new = edits.relashed(p, "Pair", {"Bravo": (5.0, -22.0, 0.0)})
+    assert body_of(new, "Pair").member("Bravo").y == -22.0
+    for s in new.stages:  # the frame's owner stays where it lay
+        got = _member_polygon(new, s, "Pair", "Alpha")
+        assert got.symmetric_difference(alpha[s.name]).area == pytest.approx(0.0, abs=1e-6)
+    # stage One: the bow points east (090), so port is north: 2 m more to starboard of
+    # Alpha is 2 m south (hand)
+    moved = affinity.translate(bravo["One"], 0.0, -2.0)
+    got = _member_polygon(new, new.stages[0], "Pair", "Bravo")
+    assert got.symmetric_difference(moved).area == pytest.approx(0.0, abs=1e-6)
+    # and the group's outline is the two hulls where they now lie
+    union = shapely.union_all([alpha["One"], moved])
+    got = _site_polygon(new, new.stages[0], "Pair")
+    assert got.symmetric_difference(union).area == pytest.approx(0.0, abs=1e-6)
+
+
+def test_relash_keeps_a_stage_posed_through_a_member_posed_so() -> None:
+    p = edits.lashed(_project(), 0, ("Alpha", "Bravo"), "Pair")
+    # a file may pose the group through its second hull (the form is kept by posed)
+    pose = body_pose(p, p.stages[0], "Pair")
+    via = edits.posed(p, replace(p.stages[0], poses=(BodyPose("Bravo", 0.0, 0.0, 0.0),)), pose)
+    p = p.with_stage(via, 0)
+    assert [x.body for x in p.stages[0].poses] == ["Bravo"]
+    alpha = _member_polygon(p, p.stages[0], "Pair", "Alpha")
+    new = edits.relashed(p, "Pair", {"Bravo": (0.0, -30.0, math.radians(10.0))})
+    assert [x.body for x in new.stages[0].poses] == ["Bravo"]  # still posed through Bravo
+    got = _member_polygon(new, new.stages[0], "Pair", "Alpha")
+    assert got.symmetric_difference(alpha).area == pytest.approx(0.0, abs=1e-6)
+
+
+def test_relash_refuses_the_frames_owner_and_what_is_not_a_member() -> None:
+    p = edits.lashed(_project(), 0, ("Alpha", "Bravo"), "Pair")
+    with pytest.raises(InputError, match="owns the group's frame"):
+        edits.relashed(p, "Pair", {"Alpha": (1.0, 0.0, 0.0)})
+    with pytest.raises(InputError, match="not one of its hulls"):
+        edits.relashed(p, "Pair", {"Charlie": (1.0, 0.0, 0.0)})
+    with pytest.raises(InputError, match="does not exist"):
+        edits.relashed(p, "Trio", {})
+    assert edits.relashed(p, "Pair", {"Alpha": (0.0, 0.0, 0.0)}) is p
