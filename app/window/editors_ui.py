@@ -1,7 +1,9 @@
-"""The editors in the window: the fitting dialog, the tug editor and "Try a substitute tug…".
+"""The editors in the window: the fitting dialog, the tug editor, "Try a substitute tug…"
+and the lashing of a group of hulls.
 
-``install(window)`` adds "Edit tug…" and "Try a substitute tug…" to the Tugs menu, and opens
-an editor on a double-click on the board (a line point, push point or tug), on the tugs
+``install(window)`` adds "Edit tug…" and "Try a substitute tug…" to the Tugs menu and
+"Lashing…" to the Edit menu (and to the board's menu on a lashed group), and opens an
+editor on a double-click on the board (a line point, push point or tug), on the tugs
 panel's "Edit…" and on the fittings table's "Edit…". The plan details dialog belongs to the
 Plan menu (app/window/plan_ui.py).
 """
@@ -11,12 +13,15 @@ from __future__ import annotations
 from typing import TYPE_CHECKING
 
 from PySide6.QtGui import QAction
+from PySide6.QtWidgets import QMenu
 
 from app.guard import guarded
 from app.panels.fitting_dialog import FittingDialog, open_fitting_dialog
+from app.panels.lashing_dialog import LashingDialog, open_lashing_dialog
 from app.panels.tug_dialog import TugDialog, open_tug_dialog
 from app.window.substitute_dialog import SubstituteDialog, open_substitute_dialog
 from core.errors import TowboardError
+from core.model.plan import LashedGroup
 
 if TYPE_CHECKING:
     from app.window.main_window import MainWindow
@@ -46,6 +51,15 @@ class EditorsUi:
             tugs.insertAction(first, self.act_edit_tug)
         tugs.addSeparator()
         tugs.addAction(self.act_substitute)
+        self.act_lashing = self._action(
+            "&Lashing…",
+            lambda: self.edit_lashing(),
+            "Where each hull of the selected lashed group lies in the group's frame",
+        )
+        edit = window.menu("edit")
+        edit.addSeparator()
+        edit.addAction(self.act_lashing)
+        window.board.menu_hooks.append(self._board_menu)
         window.tugs_panel.edit_requested.connect(self.edit_tug)
         hp = window.hull_panel
         hp.tool_requested.connect(window.board.set_tool)
@@ -81,6 +95,33 @@ class EditorsUi:
         elif hit[0] == "tug":
             self.edit_tug(str(hit[1]))
 
+    def _board_menu(self, menu: QMenu, target: tuple[object, ...] | None) -> None:
+        """On a lashed hull (or its group) the board's menu offers the lashing dialog."""
+        if target is None or target[0] not in ("hull", "turn", "vertex") or len(target) < 2:
+            return
+        group = self._group_of(str(target[1]))
+        if group is not None:
+            menu.addAction(
+                f"Lashing of {group.name}…", guarded(lambda: self.edit_lashing(group.name))
+            )
+
+    def _group_of(self, hull_or_body: str) -> LashedGroup | None:
+        project = self.controller.project
+        for g in project.groups:
+            if g.name == hull_or_body:
+                return g
+        return project.group_of(hull_or_body)
+
+    def _selected_group(self) -> str | None:
+        """The group of the hull or body selected on the board; else the plan's only group."""
+        sel = self.window.board.selection
+        if sel and sel[0] in ("hull", "vertex", "turn") and len(sel) > 1:
+            group = self._group_of(str(sel[1]))
+            if group is not None:
+                return group.name
+        groups = self.controller.project.groups
+        return groups[0].name if len(groups) == 1 else None
+
     def _selected_tug(self) -> str | None:
         return self.window.tugs_panel.current_tug() or self.window.board.selected_tug()
 
@@ -104,6 +145,23 @@ class EditorsUi:
             return None
         try:
             return open_tug_dialog(self.controller, name, self.window)
+        except TowboardError as e:
+            self._say(str(e))
+            return None
+
+    @guarded
+    def edit_lashing(self, group: str | None = None) -> LashingDialog | None:
+        """Open the lashing dialog of ``group`` (default: the group of the hull selected on
+        the board, or the plan's only group)."""
+        if not self.controller.project.groups:
+            self._say("No hulls are lashed: lash two hulls from the board's menu first.")
+            return None
+        group = group or self._selected_group()
+        if group is None:
+            self._say("Select a lashed hull on the board first.")
+            return None
+        try:
+            return open_lashing_dialog(self.controller, group, self.window)
         except TowboardError as e:
             self._say(str(e))
             return None
