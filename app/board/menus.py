@@ -260,6 +260,21 @@ def _ask_heading(scene: BoardScene, body: str) -> None:
 def _site_entries(scene: BoardScene, menu: QMenu, name: str) -> None:
     tools = scene.interaction.site
     menu.addAction(f"Rename {name}…", guarded(lambda: _ask_rename(scene, name)))
+    f = next((x for x in scene.controller.project.site.features if x.name == name), None)
+    if f is not None:
+        act = menu.addAction("Closed outline")
+        act.setCheckable(True)
+        act.setChecked(f.closed)
+        act.setToolTip("Closed: an area, the last point joined to the first; open: a line")
+        act.toggled.connect(
+            guarded(
+                lambda on: _run(
+                    scene,
+                    f"{'Close' if on else 'Open'} the outline of {name}",
+                    lambda: tools.set_closed(name, on),
+                )
+            )
+        )
     menu.addAction(
         f"Delete {name}",
         guarded(lambda: _run(scene, f"Delete {name}", lambda: tools.delete(("site", name)))),

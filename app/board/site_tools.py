@@ -6,7 +6,8 @@ selects the feature and shows a handle on each of its points. Dragging a handle 
 that point, dragging the selected feature moves all of it (both snap to the grid when
 snapping is on), a double-click on its line inserts a point, Delete removes the
 selected point or the feature, and the arrow keys nudge it (1 m a step, a point 0.5 m;
-Shift: ten times). Every drag is one undo step; nudges of one feature in a row are one.
+Shift: ten times); the board's menu renames it and closes or opens its outline. Every
+drag is one undo step; nudges of one feature in a row are one.
 """
 
 from __future__ import annotations
@@ -158,6 +159,14 @@ class SiteTools:
         else:
             self._apply(site_edits.deleted(c.project, name), f"Delete {name}")
             self.i.scene.select(None)
+
+    def set_closed(self, name: str, closed: bool) -> None:
+        """Close or open the outline of feature ``name`` (one undo step)."""
+        c = self.i.controller
+        new = site_edits.closed_set(c.project, name, closed)
+        if new is not c.project:
+            self._apply(new, f"{'Close' if closed else 'Open'} the outline of {name}")
+        self.i.scene.select(("site", name))
 
     def rename(self, name: str, new: str) -> None:
         c = self.i.controller

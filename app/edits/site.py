@@ -1,4 +1,5 @@
-"""Edits of the site: add, rename and delete features; move, insert and delete their points.
+"""Edits of the site: add, rename and delete features; close or open their outlines; move,
+insert and delete their points.
 
 Points are in the site frame (x east, y north, m). A feature is rebuilt through
 core.model.plan.SiteFeature, so every rule of the core holds (a closed feature is a
@@ -74,6 +75,16 @@ def renamed(project: Project, old: str, new: str) -> Project:
 def deleted(project: Project, name: str) -> Project:
     feature(project, name)
     return _with_features(project, tuple(f for f in project.site.features if f.name != name))
+
+
+def closed_set(project: Project, name: str, closed: bool) -> Project:
+    """The feature called ``name`` with its outline closed (an area: the last point joined
+    to the first) or open (a line through its points). Closing is refused by the core's
+    rule for an area (three or more points, not all on one line, not crossing itself)."""
+    f = feature(project, name)
+    if f.closed == closed:
+        return project
+    return replaced(project, name, SiteFeature(f.name, f.kind, f.points, closed))
 
 
 def _rebuilt(f: SiteFeature, points: list[Point]) -> SiteFeature:
