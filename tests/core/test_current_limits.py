@@ -41,7 +41,14 @@ def test_just_under_the_limit_the_pulls_solve_and_just_over_they_do_not(k: int) 
     def holds(speed: float) -> bool:
         c = replace(stage.conditions, current_speed_ms=speed, current_towards_deg=towards)
         s = replace(stage, conditions=c)
-        return solve_pulls(pulls_problem(project, s, goal=Goal("hold"))).feasible
+        r = solve_pulls(pulls_problem(project, s, goal=Goal("hold")))
+        # "met" as the sweep judges it along its whole ray: within the goal's tolerance
+        # worked out for the stage as planned (the tug lost check's). A solve at another
+        # current works out its own, which is smaller where the current partly cancels
+        # the wind (from 200: 7 N against 33 N), so it alone may miss by a few newtons.
+        tol = lim.problem.tolerance
+        assert tol is not None
+        return r.feasible or bool(np.all(np.abs(r.shortfall) <= tol))
 
     # 1 % either side: the sweep and the solver use the same sector polygons, so they
     # agree far closer than this (a planning tolerance, common practice, no source)
