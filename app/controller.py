@@ -34,6 +34,7 @@ Everything on screen reads :class:`Controller` and writes back through it:
 from __future__ import annotations
 
 import time
+import weakref
 from collections.abc import Callable, Hashable
 from dataclasses import dataclass, fields, replace
 from pathlib import Path
@@ -42,6 +43,7 @@ from PySide6.QtCore import QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 from PySide6.QtWidgets import QWidget
 
+from app.collector import CollectorHold
 from app.guard import guarded
 from core.analysis.stage import StageResult, body_balance, stage_result
 from core.mechanics.balance import Balance, Load, TugLayout, analyse_layout
@@ -190,7 +192,11 @@ class Controller(QObject):
         self._project = project if project is not None else Project()
         self._stage_index = 0
         self._path: Path | None = None
-        self._preview_base: Project | None = None
+        #: The plan as recorded while a drag previews another (see _preview_base).
+        self._recorded_under_preview: Project | None = None
+        #: Python's cycle collector is held off while a drag previews (app.collector).
+        self._collector_hold = CollectorHold()
+        weakref.finalize(self, self._collector_hold.let_go)  # a window closed mid-drag
         #: When the preview shown was asked for (perf_counter seconds): a drag's move as it
         #: began, before live solving and the views (what paces work between the moves).
         self.previewed_at = 0.0
@@ -239,6 +245,20 @@ class Controller(QObject):
     @property
     def previewing(self) -> bool:
         return self._preview_base is not None
+
+    @property
+    def _preview_base(self) -> Project | None:
+        """The plan as recorded while a drag previews another, else None. Every way a
+        preview begins or ends goes through here, and so does the collector's hold."""
+        return self._recorded_under_preview
+
+    @_preview_base.setter
+    def _preview_base(self, base: Project | None) -> None:
+        self._recorded_under_preview = base
+        if base is None:
+            self._collector_hold.let_go()
+        else:
+            self._collector_hold.hold()
 
     # -- views that listen -------------------------------------------------------------
     def follow(

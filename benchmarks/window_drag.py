@@ -430,6 +430,8 @@ def child(args: argparse.Namespace) -> None:
     """Measure every subject at this process's scale; print the figures as JSON."""
     from PySide6.QtWidgets import QApplication
 
+    from app.collector import freeze_at_start
+
     app = QApplication.instance() or QApplication([])
     out: dict[str, object] = {"scale": app.primaryScreen().devicePixelRatio(), "runs": {}}
     for n in args.tugs:
@@ -439,6 +441,8 @@ def child(args: argparse.Namespace) -> None:
         subjects: list[Subject] = [win, board, bare]
         if args.live_tugs is None or n in args.live_tugs:
             subjects.insert(1, WindowSubject(n, live=True))
+        if not args.no_freeze:
+            freeze_at_start()  # as app.window.main_window.run does once the window is up
         figures: dict[str, dict[str, list[float]]] = {
             s.name: {"wall": [], "cpu": [], "cpu_all": []} for s in subjects
         }
@@ -589,6 +593,11 @@ def main() -> None:
         help="drag with live solving on only with these numbers of tugs (default: every --tugs)",
     )
     ap.add_argument("--interval", type=float, default=FRAME_MS, help="ms between moves")
+    ap.add_argument(
+        "--no-freeze",
+        action="store_true",
+        help="leave out the program's gc.freeze at start (app.collector), to measure it",
+    )
     ap.add_argument("--child", action="store_true", help=argparse.SUPPRESS)
     args = ap.parse_args()
     if args.child:
@@ -604,6 +613,8 @@ def main() -> None:
             cmd += ["--interval", str(args.interval), "--tugs", *map(str, args.tugs)]
             if args.live_tugs is not None:
                 cmd += ["--live-tugs", *map(str, args.live_tugs)]
+            if args.no_freeze:
+                cmd += ["--no-freeze"]
             done = subprocess.run(cmd, env=env, capture_output=True, text=True, cwd=ROOT)
             if done.returncode != 0:
                 sys.exit(f"the {scale:g}x run failed:\n{done.stderr}")

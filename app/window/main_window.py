@@ -43,6 +43,7 @@ from PySide6.QtWidgets import (
 from app.board.interaction import TOOL_INFO
 from app.board.scene import BoardScene
 from app.board.view import BoardView
+from app.collector import freeze_at_start
 from app.controller import Controller, ProjectCommand
 from app.guard import REPORTER, guarded
 from app.panels.balance_panel import BalancePanel
@@ -758,4 +759,5 @@ def run(file: str | None = None) -> int:
         target = Path(file) if file else SAMPLE
         if not window.open_path(target, ask=False) and file is None:
             window.controller.reset(new_project())
+    freeze_at_start()
     return app.exec()

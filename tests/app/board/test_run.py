@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import gc
 from pathlib import Path
 
 import pytest
@@ -22,6 +23,7 @@ def no_loop(monkeypatch, qtbot):  # type: ignore[no-untyped-def]
         w.controller.undo_stack.setClean()
         w.close()
     main_window.OPEN_WINDOWS.clear()
+    gc.unfreeze()  # run() set aside what was alive (app.collector.freeze_at_start)
 
 
 def test_no_file_opens_the_bundled_sample(no_loop) -> None:  # type: ignore[no-untyped-def]
