@@ -473,7 +473,12 @@ def pct(values: list[float], q: float) -> float:
 
 
 def stats(values: list[float]) -> dict[str, float]:
-    return {"p50": statistics.median(values), "p95": pct(values, 0.95), "p99": pct(values, 0.99)}
+    return {
+        "p50": statistics.median(values),
+        "p95": pct(values, 0.95),
+        "p99": pct(values, 0.99),
+        "max": max(values),
+    }
 
 
 def load() -> str:
@@ -506,7 +511,7 @@ def report(results: dict[float, list[dict]], args: argparse.Namespace) -> None:
                 f"{args.interval:g} ms apart, ms"
             )
             print(
-                f"  {'':12s} {'wall p50':>9s} {'p95':>7s} {'p99':>7s}   {'CPU p50':>8s} "
+                f"  {'':12s} {'wall p50':>9s} {'p95':>7s} {'p99':>7s} {'max':>7s}   {'CPU p50':>8s} "
                 f"{'p95':>7s} {'p99':>7s}   {'CPU all':>7s}   {'p50 / board':>11s} "
                 f"{'p50 / bare':>10s}"
             )
@@ -520,7 +525,7 @@ def report(results: dict[float, list[dict]], args: argparse.Namespace) -> None:
                 rbc = c["p50"] / st["board"]["cpu"]["p50"]
                 rrc = c["p50"] / st["bare"]["cpu"]["p50"]
                 print(
-                    f"  {name:12s} {w['p50']:9.2f} {w['p95']:7.2f} {w['p99']:7.2f}   "
+                    f"  {name:12s} {w['p50']:9.2f} {w['p95']:7.2f} {w['p99']:7.2f} {w['max']:7.1f}   "
                     f"{c['p50']:8.2f} {c['p95']:7.2f} {c['p99']:7.2f}   {a['p50']:7.2f}   "
                     f"{rb:5.2f} {rbc:5.2f} {rr:5.2f} {rrc:5.2f}"
                 )
