@@ -202,7 +202,8 @@ class StageDiagram:
         for a in self.load_arrows:
             col = style.load_color(a.label)
             end = self._arrow(p, ctx, a.tail, a.force, col, 0.45)
-            f.label(p, QPointF(end.x(), end.y() + ctx.mm(2.4)), a.label, 6.0, col)
+            at = QPointF(end.x(), end.y() + ctx.mm(2.4))
+            f.first_free(p, f.spots_near(at, a.label, 6.0), a.label, 6.0, col)
         for b, a in self.net_arrows:
             self._net(p, ctx, b, a)
         f.north(p)
@@ -346,7 +347,8 @@ class StageDiagram:
             mag = math.hypot(*a.force)
             d = (a.force[0] / mag, a.force[1] / mag)
             at = QPointF(end.x() + d[0] * ctx.mm(5), end.y() - d[1] * ctx.mm(3.5))
-            f.label(p, at, f"net {u.show(eq.magnitude, 'force')}", 6.5, style.NET_FORCE, True)
+            text = f"net {u.show(eq.magnitude, 'force')}"
+            f.first_free(p, f.spots_near(at, text, 6.5, True), text, 6.5, style.NET_FORCE, True)
         # the yaw moment as on the board: an arc astern of the centroid (app.paint.shapes)
         pb = self.by_name[b.body]
         arc = moment_arc(eq.moment, self.moment_scale, pb.body.length, pb.body.beam)
@@ -364,11 +366,19 @@ class StageDiagram:
         px = [(q.x(), q.y()) for q in (f.to_px(pt) for pt in shaft)]
         head_px = [(q.x(), q.y()) for q in (f.to_px(pt) for pt in tip)]
         paint_arrow(p, pen, style.MOMENT, polyline_path(px), polygon(head_px), ctx.mm(0.1))
-        mid = math.radians(heading + start + sweep / 2)
-        out = radius + f.metres(5.0)
-        at = f.to_px((a.tail[0] + out * math.cos(mid), a.tail[1] + out * math.sin(mid)))
         text = f"yaw {fmt(u.value(eq.moment, 'moment'), 1, signed=True)} {label(u.unit('moment'))}"
-        f.first_free(p, [at], text, 6.0, style.MOMENT, True)
+        # beside the arc, clear of it: out along the arc's middle, then its ends, by the
+        # label's half size on paper (a small arc lies under the loads' labels)
+        box = f.label_rect(QPointF(0, 0), text, 6.0, True)
+        out = radius + (math.hypot(box.width(), box.height()) / 2 + ctx.mm(1.0)) / f.px_per_m
+        spots = []
+        for frac in (0.5, 0.0, 1.0):
+            ang = math.radians(heading + start + sweep * frac)
+            spots.append(
+                f.to_px((a.tail[0] + out * math.cos(ang), a.tail[1] + out * math.sin(ang)))
+            )
+        spots += f.spots_near(spots[0], text, 6.0, True)[1:]
+        f.first_free(p, spots, text, 6.0, style.MOMENT, True)
 
     def _line_of_action(self, p: QPainter, ctx: Ctx, b: Balance) -> None:
         eq = b.equivalent

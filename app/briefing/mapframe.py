@@ -111,9 +111,13 @@ class MapFrame:
         w, h = m.horizontalAdvance(text), m.height()
         return QRectF(at.x() - w / 2, at.y() - h / 2, w, h)
 
-    def fits(self, r: QRectF) -> bool:
-        """Inside the area and clear of every label placed so far."""
+    def fits(self, r: QRectF, room: bool = False) -> bool:
+        """Inside the area and clear of every label placed so far; with ``room``, by a
+        margin of paper too (two labels end to end read as one phrase)."""
         inside = self.area.adjusted(self.ctx.mm(1), self.ctx.mm(1), -self.ctx.mm(1), 0)
+        if room:
+            side, top = self.ctx.mm(2.0), self.ctx.mm(0.3)
+            r = r.adjusted(-side, -top, side, top)
         return inside.contains(r) and not any(r.intersects(o) for o in self.taken)
 
     def label(
@@ -126,11 +130,12 @@ class MapFrame:
         bold: bool = False,
         halo: bool = True,
         avoid: bool = False,
+        room: bool = False,
     ) -> QRectF | None:
         """Draw a label centred on ``at``; with ``avoid``, not where it would cover another
-        or leave the area (None then)."""
+        or leave the area (None then); ``room``: see :meth:`fits`."""
         r = self.label_rect(at, text, size, bold)
-        if avoid and not self.fits(r):
+        if avoid and not self.fits(r, room):
             return None
         self.taken.append(r)
         if halo:
@@ -143,6 +148,22 @@ class MapFrame:
         p.drawText(r, int(Qt.AlignmentFlag.AlignCenter), text)
         return r
 
+    def spots_near(
+        self, at: QPointF, text: str, size: float = 6.5, bold: bool = False
+    ) -> list[QPointF]:
+        """``at`` first, then spots round it, nearest first, each a box away: below,
+        above, right and left of it, then the corners, then twice as far. For
+        :meth:`first_free`, so a label that would cover another moves beside it and
+        stays by what it names."""
+        r = self.label_rect(at, text, size, bold)
+        gap = self.ctx.mm(0.8)
+        dx, dy = r.width() / 2 + gap, r.height() + gap / 2
+        out = [QPointF(at)]
+        for k in (1, 2):
+            for sx, sy in ((0, 1), (0, -1), (1, 0), (-1, 0), (1, 1), (-1, 1), (1, -1), (-1, -1)):
+                out.append(QPointF(at.x() + k * sx * dx, at.y() + k * sy * dy))
+        return out
+
     def first_free(
         self,
         p: QPainter,
@@ -152,12 +173,14 @@ class MapFrame:
         color: QColor = INK,
         bold: bool = False,
     ) -> QRectF | None:
-        """The label at the first of ``spots`` where it covers nothing; at the first spot
-        if there is no such place (a label is never left out)."""
-        for at in spots:
-            r = self.label(p, at, text, size, color, bold, avoid=True)
-            if r is not None:
-                return r
+        """The label at the first of ``spots`` where it covers nothing with room to
+        spare, else at the first where it covers nothing; at the first spot if there is
+        no such place (a label is never left out)."""
+        for room in (True, False):
+            for at in spots:
+                r = self.label(p, at, text, size, color, bold, avoid=True, room=room)
+                if r is not None:
+                    return r
         return self.label(p, spots[0], text, size, color, bold) if spots else None
 
     # -- the site ------------------------------------------------------------------------
