@@ -34,7 +34,7 @@ from app.board.items import (
     polygon_path,
     take_out,
 )
-from app.formatting import fitting_summary
+from app.formatting import fitting_summary, signed
 from app.guard import guarded
 from app.paint import style
 from app.paint.shapes import TUG_LENGTH_M, moment_arc, placed_tug, tug_label_anchor, tug_origin
@@ -43,7 +43,7 @@ from core.mechanics.balance import Balance, TugShare
 from core.mechanics.bodies import Body, Member
 from core.model.hull import Hull
 from core.model.plan import BodyPose
-from core.units import DisplayUnits, label
+from core.units import DisplayUnits
 
 Z_HULL, Z_LINE, Z_TUG, Z_FORCE, Z_BALANCE, Z_FITTING, Z_LABEL, Z_HANDLE = 0, 2, 3, 5, 6, 7, 10, 11
 
@@ -510,10 +510,8 @@ class BalanceDrawing:
             self.moment.setVisible(True)
             # the label sits just outside the middle of the arc, astern of the centroid
             self.moment_label.setPos(cx - r, cy)
-            u = units.unit("moment")
-            self.moment_label.set_text(
-                f"yaw {units.value(m, 'moment'):+,.0f} {label(u)}\n{balance.turning}"
-            )
+            # the unit's own digits, as the balance panel, the report and the briefing
+            self.moment_label.set_text(f"yaw {signed(units, m, 'moment')}\n{balance.turning}")
             sa = math.radians(_screen_angle(self.root, (-1.0, 0.0)))
             if (sa, self.moment_label.text) != self._moment_label_key:
                 self._moment_label_key = (sa, self.moment_label.text)

@@ -311,7 +311,7 @@ class TugsModel(QAbstractTableModel):
         if key == "pull":
             return fmt.number(u, s.pull_n, "force")
         if key == "moment":
-            return plain(u.value(s.moment_centroid_nm, "moment"), 0, signed=True)
+            return plain(u.value(s.moment_centroid_nm, "moment"), u.digits("moment"), signed=True)
         if key == "turns":
             return turn_words(u.value(s.moment_centroid_nm, "moment"))
         return ""

@@ -18,8 +18,10 @@ from hypothesis import HealthCheck, given, settings
 from PySide6.QtWidgets import QMessageBox
 
 from app.controller import Controller
+from app.formatting import signed
 from app.panels.balance_panel import BalancePanel
 from app.panels.stage_list import StageList
+from app.panels.tugs_model import COLUMNS
 from app.panels.verdict_view import VerdictView
 from app.window.main_window import MainWindow
 from core.analysis.stage import compute_stage_result
@@ -113,12 +115,33 @@ def _views_agree(w: MainWindow | Panels, project: Project, pdf: Path | None) -> 
         net = u.show(main.balance.net_magnitude, "force")
         assert panel.fields["net"].text() == net
         assert u.show(rj["balance"]["net_force_N"]["magnitude"], "force") == net
+        # the yaw moment about the centroid, to the same digits in the panel and on the board
+        yaw = signed(u, rj["balance"]["yaw_moment_about_centroid_Nm"], "moment")
+        assert yaw == signed(u, main.balance.equivalent.moment, "moment")
+        assert panel.fields["moment_centroid"].text().startswith(f"{yaw} "), yaw
+        if isinstance(w, MainWindow):
+            board_label = w.board.bodies[main.balance.body].balance.moment_label
+            if board_label.isVisible():
+                assert board_label.text.startswith(f"yaw {yaw}\n"), (board_label.text, yaw)
+            # each tug's share of it in the tugs table, to the unit's digits as well
+            model = w.tugs_panel.model
+            col = [c.key for c in COLUMNS].index("moment")
+            cells = {
+                model.index(r, 0).data(): model.index(r, col).data()
+                for r in range(model.rowCount())
+            }
+            for sh in main.balance.shares:
+                mine = signed(u, sh.moment_centroid_nm, "moment").rsplit(" ", 1)[0]
+                assert cells[sh.tug] == mine, (sh.tug, cells[sh.tug], mine)
         # the briefing: the stage's verdict, its reasons and its net force in print
         if pdf is not None:
             assert re.search(rf"{re.escape(stage.name)}\b.*?{MARK[status]}", text), stage.name
             for r in ref.verdict.reasons:  # in print a reason starts with a capital
                 assert " ".join(r.text.split())[:60].lower() in text.lower(), r.text
             assert net in text
+            # the stage diagram labels the arc of a moment that shows, unless balanced
+            if main.balance.equivalent.kind != "balanced" and yaw != signed(u, 0.0, "moment"):
+                assert f"yaw {yaw}" in text, yaw
 
 
 @pytest.mark.parametrize("sample", sorted(p.name for p in SAMPLES.glob("*.towboard")))
