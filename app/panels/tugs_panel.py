@@ -87,6 +87,13 @@ class TugsPanel(QWidget):
         self.table.horizontalHeader().setStretchLastSection(True)
         self.model.modelReset.connect(self.table.resizeColumnsToContents)
         self.table.resizeColumnsToContents()
+        # a tug renamed or made fast elsewhere keeps its row (no reset): the name and
+        # "Works at" columns are sized again when their words change, and every column
+        # when the units (the headers) do; a drag changes neither, so it measures nothing
+        self._words = self._column_words()
+        self.model.dataChanged.connect(guarded(lambda *_: self._words_changed()))
+        self.model.modelReset.connect(guarded(lambda: self._units_changed(size=False)))
+        self.model.headerDataChanged.connect(guarded(lambda *_: self._units_changed()))
         self.table.setAlternatingRowColors(True)
         self.table.setMinimumHeight(130)  # four rows at least
         self.table.selectionModel().currentRowChanged.connect(self._row_changed)
@@ -111,6 +118,25 @@ class TugsPanel(QWidget):
         layout.setContentsMargins(4, 4, 4, 4)
         layout.addWidget(self.table)
         layout.addLayout(buttons)
+
+    def _column_words(self) -> tuple[tuple[str, str, str] | str, ...]:
+        return tuple(
+            r.tug.name if r.placement is None else (r.tug.name, r.placement.hull, r.placement.point)
+            for r in self.model.rows
+        )
+
+    def _words_changed(self) -> None:
+        words = self._column_words()
+        if words == self._words:
+            return
+        self._words = words
+        for key in ("name", "point"):
+            self.table.resizeColumnToContents(KEYS.index(key))
+
+    def _units_changed(self, size: bool = True) -> None:
+        self._words = self._column_words()
+        if size:  # (a reset has sized every column already)
+            self.table.resizeColumnsToContents()
 
     @guarded
     def _row_changed(self, current: QModelIndex, previous: QModelIndex) -> None:
