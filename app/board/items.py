@@ -232,20 +232,28 @@ class Label(QGraphicsItem):
             y += self._line_height
 
 
+def leader_pen(color: QColor) -> QPen:
+    """A leader's pen: thin and dotted, so that a leader in a load's colour running to
+    a short load arrow does not read as the arrow's shaft (a solid leader from a label
+    moved above a current arrow pointing to port looked like an arrow to starboard)."""
+    return QPen(color, 1.0, Qt.PenStyle.DotLine)
+
+
 class Leader(QGraphicsItem):
-    """A thin line from a label's anchor (its parent's origin) to its moved box, in pixels."""
+    """A thin dotted line from a label's anchor (its parent's origin) to its moved box, in
+    pixels."""
 
     def __init__(self, parent: QGraphicsItem) -> None:
         super().__init__(parent)
         self.end = QPointF()
-        self._pen = QPen(style.MUTED, 1.0)
+        self._pen = leader_pen(style.MUTED)
         self._rect = QRectF(-3, -3, 6, 6)
         self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
 
     def set_line(self, end: QPointF, color: QColor) -> None:
         self.prepareGeometryChange()
         self.end = QPointF(end)
-        self._pen = QPen(color, 1.0)
+        self._pen = leader_pen(color)
         # worked out here once: Qt asks for it several times a frame, for every leader
         self._rect = QRectF(QPointF(0, 0), self.end).normalized().adjusted(-3, -3, 3, 3)
         self.update()
