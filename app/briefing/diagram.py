@@ -423,7 +423,10 @@ class StageDiagram:
                 for side in (0.0, 1.0, -1.0):
                     off = side * ctx.mm(3.0)
                     spots.append(QPointF(at.x() + nx * off, at.y() + ny * off))
-            f.first_free(p, spots, clearance_text(c, self.units), 6.0, col, True)
+            text = clearance_text(c, self.units)
+            # a line of no length (touching) gives one spot: then the spots round it
+            spots += f.spots_near(spots[0], text, 6.0, True)[1:]
+            f.first_free(p, spots, text, 6.0, col, True)
 
 
 def _unit(bearing_deg: float) -> Pt:

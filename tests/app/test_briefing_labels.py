@@ -4,6 +4,7 @@ other (app.briefing.mapframe.first_free over spots_near) instead of printing ove
 
 from __future__ import annotations
 
+from dataclasses import replace
 from pathlib import Path
 
 import pytest
@@ -14,6 +15,7 @@ from app.briefing import mapframe
 from app.briefing.layout import Ctx
 from core.analysis.stage import stage_result
 from core.io.projectfile import load
+from core.model.plan import Project
 
 ROOT = Path(__file__).resolve().parents[2]
 SAMPLES = sorted((ROOT / "sample_projects").glob("*.towboard"))
@@ -24,8 +26,11 @@ CASES = [
 ]
 
 
-def _labels(monkeypatch, path: Path, k: int, size: tuple[int, int]) -> list[tuple[str, QRectF]]:  # type: ignore[no-untyped-def]
-    """Every label the stage diagram of stage ``k`` draws in a ``size`` px picture."""
+def _labels(
+    monkeypatch, plan: Path | Project, k: int, size: tuple[int, int]
+) -> list[tuple[str, QRectF]]:  # type: ignore[no-untyped-def]
+    """Every label the stage diagram of stage ``k`` of ``plan`` (a file or a plan) draws
+    in a ``size`` px picture."""
     from app.briefing.diagram import StageDiagram
 
     drawn: list[tuple[str, QRectF]] = []
@@ -38,7 +43,7 @@ def _labels(monkeypatch, path: Path, k: int, size: tuple[int, int]) -> list[tupl
         return r
 
     monkeypatch.setattr(mapframe.MapFrame, "label", kept)
-    project = load(path)
+    project = load(plan) if isinstance(plan, Path) else plan
     check = stage_result(project, k)
     diagram = StageDiagram(
         project, check.stage, tuple(b.balance for b in check.worked), check.clearances
@@ -56,12 +61,30 @@ def _labels(monkeypatch, path: Path, k: int, size: tuple[int, int]) -> list[tupl
 def test_no_label_of_a_stage_diagram_covers_another(
     qapp, monkeypatch, path: Path, k: int, size: tuple[int, int]
 ) -> None:  # type: ignore[no-untyped-def]
-    drawn = _labels(monkeypatch, path, k, size)
+    _apart(_labels(monkeypatch, path, k, size))
+
+
+def _apart(drawn: list[tuple[str, QRectF]]) -> None:
     assert len(drawn) >= 4  # the tugs, the sides, the body's name at least
     for i, (a, ra) in enumerate(drawn):
         for b, rb in drawn[i + 1 :]:
             both = ra.intersected(rb)
             assert both.width() <= 0.5 or both.height() <= 0.5, (a, b, both)
+
+
+def test_a_touching_clearance_is_labelled_clear_of_the_side_marks(qapp, monkeypatch) -> None:  # type: ignore[no-untyped-def]
+    """A body on the quay: the clearance line has no length, so the spots along it are
+    one point (under the side mark); the label takes a spot round it instead."""
+    plan = load(ROOT / "sample_projects" / "twin_barge_move.towboard")
+    stage = plan.stages[0]
+    (pose,) = stage.poses
+    near = min(stage_result(plan, 0).clearances, key=lambda c: c.distance_m)
+    moved = replace(pose, y=pose.y - near.distance_m)  # the quay lies to the south
+    plan = plan.with_stage(replace(stage, poses=(moved,)), 0)
+    assert any(c.touching for c in stage_result(plan, 0).clearances)
+    drawn = _labels(monkeypatch, plan, 0, (1100, 800))
+    assert any(text.startswith("touching ") for text, _ in drawn)
+    _apart(drawn)
 
 
 def test_the_yaw_moment_and_the_loads_at_the_centroid_are_all_labelled(qapp, monkeypatch) -> None:  # type: ignore[no-untyped-def]
