@@ -149,14 +149,15 @@ class FittingDialog(QDialog):
                 ff.parse_bearing(self.lines_to.text(), "permitted lines: to"),
             )
         x, y, swl, tow = old.x, old.y, old.swl_n, old.tow_n
+        name = self.name.text().strip() or old.name  # a message names it as typed
         if self._changed(self.pos_x):
             x = ff.parse_length(u, self.pos_x.text(), "x", "position")
         if self._changed(self.pos_y):
             y = ff.parse_length(u, self.pos_y.text(), "y", "position")
         if self._changed(self.swl):
-            swl = ff.parse_rating(u, self.swl.text(), rules.SWL, old.name)
+            swl = ff.parse_rating(u, self.swl.text(), rules.SWL, name)
         if self._changed(self.tow):
-            tow = ff.parse_rating(u, self.tow.text(), rules.TOW, old.name)
+            tow = ff.parse_rating(u, self.tow.text(), rules.TOW, name)
         return replace(
             old,
             name=self.name.text().strip(),

@@ -182,6 +182,20 @@ def test_the_dialog_refuses_half_a_sector_and_keeps_what_was_typed(window, qtbot
     assert window.controller.project == before
 
 
+def test_a_refused_rating_is_said_of_the_fitting_as_renamed(window, qtbot) -> None:
+    """A new name and a refused TOW typed together: the message names the fitting by
+    the name typed (the one the planner sees), and keeps everything typed."""
+    d = window.editors.edit_fitting(HULL, "Bow centre bitt")
+    before = window.controller.project
+    retype(qtbot, d.name, "Bow staple")
+    retype(qtbot, d.tow, "-5")
+    qtbot.keyClick(d.tow, Qt.Key.Key_Return)
+    assert d.isVisible() and "Bow staple" in d.error.text() and "TOW" in d.error.text()
+    assert "Bow centre bitt" not in d.error.text()
+    assert d.name.text() == "Bow staple" and d.tow.text() == "-5"
+    assert window.controller.project == before
+
+
 def test_board_tooltips_say_the_ratings_in_the_display_units(window) -> None:
     _at, mark = _mark_point(window, "Bow centre bitt")
     assert mark.toolTip() == "Bow centre bitt (line point, bitt, SWL 80.0 t)"
