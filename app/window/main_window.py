@@ -20,7 +20,7 @@ import os
 import sys
 from pathlib import Path
 
-from PySide6.QtCore import QRect, QSettings, Qt
+from PySide6.QtCore import QRect, QSettings, Qt, QTimer
 from PySide6.QtGui import QAction, QActionGroup, QCloseEvent, QKeySequence, QShowEvent
 from PySide6.QtWidgets import (
     QApplication,
@@ -215,6 +215,9 @@ class MainWindow(QMainWindow):
         if tabify_with is not None and tabify_with in self.panels:
             self.tabifyDockWidget(self.panels[tabify_with], dock)
         self.panels[key] = dock
+        dock.dockLocationChanged.connect(
+            guarded(lambda *_: QTimer.singleShot(0, self._tidy_tab_bars))
+        )
         if "view" in self._menus:
             self._menus["view"].addAction(dock.toggleViewAction())
         return dock
@@ -695,7 +698,21 @@ class MainWindow(QMainWindow):
         tall = [self.panels[k] for k in ("tugs", "hold_limits") if k in self.panels]
         heights = [min(240, max(150, h // 4)), min(420, max(240, h * 2 // 5))][: len(tall)]
         self.resizeDocks(tall, heights, Qt.Orientation.Vertical)
+        self._tidy_tab_bars()
+
+    @guarded
+    def _tidy_tab_bars(self) -> None:
+        """After panels are tabbed together or moved (Qt makes or reuses tab bars)."""
         self._hide_stray_tab_bars()
+        self._whole_tab_names()
+
+    def _whole_tab_names(self) -> None:
+        """Each panel's tab shows its whole name ("Conditions", not "Condi…"); tabs that
+        do not fit scroll rather than each being cut to a letter or two. Qt makes a new
+        bar when panels are tabbed together, so this runs again when a panel moves."""
+        for bar in self.findChildren(QTabBar, options=Qt.FindChildOption.FindDirectChildrenOnly):
+            bar.setElideMode(Qt.TextElideMode.ElideNone)
+            bar.setUsesScrollButtons(True)
 
     def _hide_stray_tab_bars(self) -> None:
         """Hide the tab bars Qt leaves behind when docks are tabbed before the window is

@@ -83,3 +83,41 @@ def test_no_tab_bar_is_drawn_over_a_panel(tmp_path) -> None:  # type: ignore[no-
             o_left, o_top, o_right, o_bottom = _rect(other)
             apart = right <= o_left or o_right <= left or bottom <= o_top or o_bottom <= top
             assert name == shown[0] or apart, (names, name)
+
+
+def test_each_panel_tab_shows_its_whole_name(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    """At 1400 x 900, six panels share the right-hand dock: their tabs read "Balance",
+    "Units", "Conditions", never "Bal…", "U…", "Condi…"; tabs that do not fit scroll."""
+    from PySide6.QtCore import Qt
+    from PySide6.QtWidgets import QTabBar
+
+    only = Qt.FindChildOption.FindDirectChildrenOnly
+    titles = {d.windowTitle() for d in window.panels.values()}
+
+    def whole() -> list[QTabBar]:
+        bars = [b for b in window.findChildren(QTabBar, options=only) if b.isVisible()]
+        for bar in bars:
+            assert bar.elideMode() == Qt.TextElideMode.ElideNone and bar.usesScrollButtons()
+            metrics = bar.fontMetrics()
+            for i in range(bar.count()):
+                text = bar.tabText(i)
+                assert text in titles, text
+                assert bar.tabRect(i).width() > metrics.horizontalAdvance(text), text
+        return bars
+
+    assert any(b.count() >= 5 for b in whole())  # the crowded one is among them
+    # panels tabbed together anew in new places (as a user does by dragging one onto
+    # another): Qt makes new bars for them, which show whole names too
+    before = {id(b) for b in window.findChildren(QTabBar, options=only)}
+    p = window.panels
+    top = Qt.DockWidgetArea.TopDockWidgetArea
+    for key in ("hold_limits", "drift"):
+        window.addDockWidget(top, p[key])
+    window.splitDockWidget(p["hold_limits"], p["drift"], Qt.Orientation.Horizontal)
+    for key, beside in (("units", "hold_limits"), ("site", "drift")):
+        window.addDockWidget(top, p[key])
+        window.tabifyDockWidget(p[beside], p[key])
+    qtbot.wait(20)  # the panels' moves are told, then the bars are set
+    bars = whole()
+    assert any(id(b) not in before for b in bars)
+    assert any([b.tabText(i) for i in range(b.count())] == ["Drift", "Site"] for b in bars)
