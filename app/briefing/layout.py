@@ -175,6 +175,10 @@ class Column:
     align: str = "left"  # left, right, centre
 
 
+#: What a table cell holds when there is nothing to give (drawn centred in its cell).
+EMPTY_CELLS = frozenset({"-", "—", "–"})
+
+
 @dataclass
 class Table(Block):
     """A ruled table whose rows may run onto the next page (the header repeats).
@@ -256,10 +260,14 @@ class Table(Block):
             for k, (c, w) in enumerate(zip(self.columns, widths, strict=True)):
                 p.setFont(ctx.font(self.size_pt, self.first_bold and k == 0))
                 p.setPen(color if color is not None else INK)
+                text = str(self.rows[i][k])
+                # a dash for nothing given sits in the middle of its cell: flush right it
+                # ran into the next column's words ("- Bow, centre lead")
+                align = "centre" if text in EMPTY_CELLS else c.align
                 p.drawText(
                     QRectF(x + pad, y + pad, w - 2 * pad, rh - 2 * pad),
-                    int(Qt.TextFlag.TextWordWrap | flags[c.align]),
-                    str(self.rows[i][k]),
+                    int(Qt.TextFlag.TextWordWrap | flags[align]),
+                    text,
                 )
                 x += w
             y += rh

@@ -60,3 +60,44 @@ def test_each_text_is_measured_once(ctx, monkeypatch) -> None:  # type: ignore[n
     paginate(blocks, ctx, ctx.mm(180), ctx.mm(250))
     paginate(blocks, ctx, ctx.mm(180), ctx.mm(250))
     assert sorted(calls) == sorted(f"line {k}" for k in range(7))
+
+
+def test_a_dash_for_nothing_given_stands_clear_of_the_next_column(qapp) -> None:  # type: ignore[no-untyped-def]
+    """A missing figure in a right-aligned column is a dash in the middle of its cell,
+    not flush against the next column's words ("- Bow, centre lead" read as one)."""
+    from PySide6.QtCore import QRectF
+    from PySide6.QtGui import QColor, QImage, QPainter
+
+    from app.briefing.layout import Column, Table
+
+    image = QImage(1200, 200, QImage.Format.Format_ARGB32)
+    image.setDotsPerMeterX(11811)  # 300 dpi
+    image.setDotsPerMeterY(11811)
+    image.fill(QColor("white"))
+    c = Ctx(image)
+    table = Table(
+        [Column("Towing point height", 1.0, "right"), Column("Role", 2.0)],
+        [["-", "Bow, centre lead"], ["12.5 m", "Stern"]],
+        header=False,
+    )
+    p = QPainter(image)
+    table.paint(p, c, QRectF(0, 0, 1200, 200))
+    p.end()
+    split = 400  # the columns' edge: 1200 px in weights 1 : 2
+
+    def ink(row_top: float, row_bottom: float) -> list[int]:
+        return [
+            x
+            for x in range(1200)
+            for y in range(int(row_top), int(row_bottom), 2)
+            if QColor(image.pixel(x, y)).lightness() < 128
+        ]
+
+    first = table.row_height(c, 1200, 0)
+    dash = [x for x in ink(0, first) if x < split]
+    words = [x for x in ink(0, first) if x >= split]
+    assert dash and words
+    gap_mm = (min(words) - max(dash)) / c.mm(1)
+    assert gap_mm > 5.0, gap_mm  # far apart, not the two paddings' 1.7 mm
+    number = [x for x in ink(first, first + table.row_height(c, 1200, 1)) if x < split]
+    assert split - max(number) < c.mm(2.0)  # a figure stays flush right
