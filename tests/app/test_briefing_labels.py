@@ -16,14 +16,10 @@ from app.briefing.layout import Ctx
 from core.analysis.stage import stage_result
 from core.io.projectfile import load
 from core.model.plan import Project
+from tests.conftest import sample_stages
 
 ROOT = Path(__file__).resolve().parents[2]
-SAMPLES = sorted((ROOT / "sample_projects").glob("*.towboard"))
-CASES = [
-    pytest.param(path, k, id=f"{path.stem}-{k + 1}")
-    for path in SAMPLES
-    for k in range(len(load(path).stages))
-]
+CASES = sample_stages()
 
 
 def _labels(

@@ -15,16 +15,12 @@ from core.analysis.stage import plan_results, stage_result
 from core.io.projectfile import load
 from core.mechanics.clearance import least_per_body, notable_clearances
 from tests.app.test_briefing import norm, pages_text
+from tests.conftest import sample_stages
 
 ROOT = Path(__file__).resolve().parents[2]
-SAMPLES = sorted((ROOT / "sample_projects").glob("*.towboard"))
 
 
-CASES = [
-    pytest.param(path, k, id=f"{path.stem}-{k + 1}")
-    for path in SAMPLES
-    for k in range(len(load(path).stages))
-]
+CASES = sample_stages()
 
 
 @pytest.mark.parametrize(("path", "k"), CASES)
