@@ -355,7 +355,8 @@ def _limit_reasons(stage: Stage, u: DisplayUnits) -> list[Reason]:
         given = (
             ""
             if c.wind_height_m == 10.0
-            else f" (given as {u.show(c.wind_speed_ms, 'speed')} at {c.wind_height_m:g} m)"
+            else f" (given as {u.show(c.wind_speed_ms, 'speed')} at "
+            f"{u.show(c.wind_height_m, 'length')})"
         )
         if wind.over:
             out.append(

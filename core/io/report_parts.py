@@ -290,7 +290,8 @@ def conditions_lines(stage: Stage, br: BodyResult, u: DisplayUnits) -> list[str]
     if abs(cl.design_wind_ms - c.wind_speed_ms) > 1e-9:
         design = f"; {u.show(cl.design_wind_ms, 'speed')} at 10 m with gusts for the load"
     out = [
-        f"  Wind            {u.show(c.wind_speed_ms, 'speed')} at {c.wind_height_m:g} m from "
+        f"  Wind            {u.show(c.wind_speed_ms, 'speed')} at {u.show(c.wind_height_m, 'length')} "
+        f"from "
         f"{c.wind_from_deg:05.1f} true ({cl.wind_from_rel_deg:05.1f} relative){design}",
         f"  Current         {u.show(c.current_speed_ms, 'speed')} setting towards "
         f"{c.current_towards_deg:05.1f} true ({cl.current_towards_rel_deg:05.1f} relative)",

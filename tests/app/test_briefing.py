@@ -452,7 +452,7 @@ def test_a_calm_is_worded_in_the_diagram_key_as_the_report_words_it(tmp_path, qa
     s = p.stages[0]
     calm = p.with_stage(replace(s, conditions=replace(s.conditions, wind_speed_ms=0.0)), 0)
     d = s.conditions.wind_from_deg
-    assert f"Wind            0.0 kn at 10 m from {d:05.1f} true" in report_text(calm)
+    assert f"Wind            0.0 kn at 10.0 m from {d:05.1f} true" in report_text(calm)
     out = tmp_path / "calm.pdf"
     write_pdf(calm, out, "a4")
     first = stage_texts(calm, pages_text(out))[0]

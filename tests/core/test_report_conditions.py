@@ -91,7 +91,7 @@ def test_the_balance_includes_the_wind() -> None:
 
 def test_text_says_it_in_display_units_and_words() -> None:
     text = report_text(_plan(Goal("walk", 0.0, 100 * TF)))
-    assert "Wind            38.9 kn at 10 m from 270.0 true (270.0 relative)" in text
+    assert "Wind            38.9 kn at 10.0 m from 270.0 true (270.0 relative)" in text
     assert "goal walk 100.0 t to port: CANNOT be met: needs" in text
     assert "Verdict         NO-GO" in text
     assert "Tug lost check  not meaningful" in text

@@ -14,6 +14,7 @@ from core.io.projectfile import load
 from core.io.report import report_text
 from core.model.plan import Project
 from core.model.rules import KNOT
+from core.units import DisplayUnits
 from tests.conftest import SAMPLES
 
 TOW_OUT = 3  # the deck barge's stage 4, limit 20 kn
@@ -69,7 +70,7 @@ def test_a_wind_given_at_another_height_is_brought_to_10_m_first() -> None:
     reasons = _reasons(gusty)
     assert list(reasons) == ["gusts_over_limit"]
     assert reasons["gusts_over_limit"].startswith(
-        "gusts of 23.3 kn at 10 m (planned mean 16.7 kn (given as 19.0 kn at 30 m)"
+        "gusts of 23.3 kn at 10 m (planned mean 16.7 kn (given as 19.0 kn at 30.0 m)"
     )
 
 
@@ -79,3 +80,17 @@ def test_the_report_names_the_limit_and_the_planned_wind_in_its_measure() -> Non
     assert "Max wind (mean at 10 m) 20.0 kn: planned 19.0 kn mean at 10 m, 26.6 kn with gusts" in (
         " ".join(text.split())
     )
+
+
+def test_the_height_a_wind_is_given_at_is_said_in_the_display_length_unit() -> None:
+    # The conditions panel and the briefing give the wind's height in the length unit the
+    # planner chose; the report's wind line and the verdict say it in the same unit, not
+    # in metres. 30 m = 98.4 ft (1 ft = 0.3048 m exactly, NIST SP 811, from memory).
+    # "10 m" stays in "mean at 10 m": that is the name of the limit's measure.
+    gusty = _with_wind(19.0, 1.4, 30.0)
+    feet = gusty.with_units(DisplayUnits(length="ft"))
+    (reason,) = _reasons(feet).values()
+    assert "(given as 19.0 kn at 98.4 ft)" in reason
+    assert "30 m" not in reason
+    text = report_text(feet).split("Stage 4:")[1]
+    assert "Wind            19.0 kn at 98.4 ft from " in text
