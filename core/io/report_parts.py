@@ -214,7 +214,10 @@ def hold_limits_json(stage: Stage, lim: HoldLimits | None) -> dict[str, Any] | N
         else {"lowest": shown(lim.all_tugs_min_ms), "highest": shown(lim.all_tugs_max_ms)},
         "worst_tug_lost_ms": shown(w),
         "worst_tug_lost": list(lim.worst_lost_tug),
-        "lowest_all_tugs": {"from_true_deg": d_lo, "speed_ms": shown_limit(v_lo)},
+        "lowest_all_tugs": {
+            "from_true_deg": None if lim.alike_all_round() else d_lo,
+            "speed_ms": shown_limit(v_lo),
+        },
         "at_planned_wind_direction": {
             "from_true_deg": stage.conditions.wind_from_deg,
             "all_tugs_ms": shown_limit(planned),

@@ -313,6 +313,15 @@ class HoldLimits:
         i = int(np.argmin(v))
         return float(self.problem.directions_deg[i]), float(v[i])
 
+    def alike_all_round(self, curve: np.ndarray | None = None) -> bool:
+        """Every direction of a curve (default: all tugs) reads alike, "above" or 0, so
+        that no direction is the lowest: every view then names none."""
+        v = self.all_tugs_ms if curve is None else curve
+        shown = [shown_limit(float(x), self.flow) for x in v]
+        return bool(shown) and (
+            all(s is None for s in shown) or all(s is not None and s <= 0 for s in shown)
+        )
+
     def lowest_words(
         self, units: DisplayUnits, curve: np.ndarray | None = None, mark: str = " true"
     ) -> str:
@@ -320,12 +329,11 @@ class HoldLimits:
         says it: "46.7 kn from 171 true" (``mark`` after the bearing: " true", "°", "°T";
         a current's "setting to"). Where every direction reads alike it says so, naming
         none: "0 from every direction", "above 60.0 kn from every direction"."""
-        v = self.all_tugs_ms if curve is None else curve
         where = "from" if self.flow == "wind" else "setting to"
-        shown = [shown_limit(float(x), self.flow) for x in v]
-        if shown and all(s is None for s in shown):
-            return f"{limit_words(math.inf, units, self.flow)} from every direction"
-        if shown and all(s is not None and s <= 0 for s in shown):
+        if self.alike_all_round(curve):
+            v = self.all_tugs_ms if curve is None else curve
+            if shown_limit(float(v[0]), self.flow) is None:
+                return f"{limit_words(math.inf, units, self.flow)} from every direction"
             return "0 from every direction"
         d, low = self.lowest(curve)
         return f"{limit_words(low, units, self.flow)} {where} {d:03.0f}{mark}"

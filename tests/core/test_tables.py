@@ -103,3 +103,24 @@ def test_cells() -> None:
     assert cell("walks to port", None, None) == "walks to port"
     assert lookup({"a": [1, {"b": 2}]}, ("a", 1, "b")) == 2
     assert lookup({"a": [1]}, ("a", 5)) is None
+
+
+def test_no_lowest_direction_where_the_report_says_every_direction_alike() -> None:
+    # The deck barge's stage 1: the tugs meet the walk above the shown range from every
+    # true direction, and the report says "above 60.0 kn from every direction". The JSON
+    # and the CSV named a direction (353) beside no speed; they name none, as the text.
+    from core.io.report import report_text
+
+    project = load(SAMPLES / "deck_barge_unberth.towboard")
+    stage1 = report_text(project).split("Stage 2:")[0]
+    assert "lowest above 60.0 kn from every direction" in stage1
+    lowest = report_json(project)["stages"][0]["hold_limits"]["lowest_all_tugs"]
+    assert lowest == {"from_true_deg": None, "speed_ms": None}
+    rows = _parse(csv_text(balance_table(report_json(project))))
+    head = rows[0]
+    first = dict(zip(head, rows[1], strict=True))
+    assert first["Lowest hold limit (m/s)"] == ""
+    assert first["Lowest hold limit from, true (deg)"] == ""
+    # where one direction is the lowest, it is still named (stage 3: 3.2 kn from 007)
+    third = report_json(project)["stages"][2]["hold_limits"]["lowest_all_tugs"]
+    assert third["from_true_deg"] == 7.0
