@@ -219,3 +219,35 @@ def test_the_wind_limit_says_its_measure_in_the_form_and_the_briefing(form):
         c.title for b in cover(project, plan_results(project)) for c in getattr(b, "columns", [])
     ]
     assert "Max wind (mean at 10 m)" in titles and "Max wind" not in titles
+
+
+def test_a_limit_left_as_shown_in_another_unit_keeps_its_value(form, qtbot):
+    # The limits show the display unit to the hundredth: after the Units panel turns speed
+    # to m/s and length to ft, the sample's 20 kn wind limit reads 10.29 (m/s) and its 1 kn
+    # current limit 0.51; Enter in a field left as shown wrote those rounded figures back
+    # (0.51 m/s = 0.991 kn, 5 m = 16.40 ft = 4.9987 m) as undo steps nobody made.
+    from app.panels.units_panel import UnitsPanel
+
+    controller, w = form
+    units = UnitsPanel(controller)
+    qtbot.addWidget(units)
+    units.show()
+    for q, sym in (("speed", "m/s"), ("length", "ft")):
+        box = units.boxes[q]
+        box.setFocus()
+        qtbot.keyClick(box, Qt.Key.Key_End)  # m/s and ft are the last of their lists
+        assert controller.project.units.unit(q) == sym
+    before = controller.project
+    steps = controller.undo_stack.count()
+    assert w.limit_fields["max_wind_ms"].text() == f"{20 * KNOT:.2f}" == "10.29"
+    assert w.limit_fields["min_clearance_m"].text() == f"{5 / FOOT:.2f}" == "16.40"
+    for field in (*w.limit_fields.values(), w.margin):
+        field.setFocus()
+        qtbot.keyClick(field, Qt.Key.Key_Return)
+    assert controller.project == before
+    assert controller.undo_stack.count() == steps
+    # typed, the same field still takes the figure in the unit shown
+    type_into(qtbot, w.limit_fields["max_wind_ms"], "10.5")
+    assert controller.stage.limits.max_wind_ms == pytest.approx(10.5)
+    type_into(qtbot, w.margin, "3")
+    assert controller.project.clearance_margin_m == pytest.approx(3 * FOOT)
