@@ -400,6 +400,8 @@ class TugsModel(QAbstractTableModel):
             said = NOT_PLACED if where is None else f"{where[0]}: {where[1]}"
             return self._moved_to_point(row, where), f"{t.name} works at {said}"
         text = str(value).strip()
+        if text == self._edit_text(row, key):
+            return None, ""  # the editor closed unchanged: keep the value exactly
         if key == "name":
             if not text or text == t.name:
                 return None, ""

@@ -65,3 +65,38 @@ def test_the_outline_dialog_speaks_feet_and_gives_metres(qtbot) -> None:
     ys = [y for _, y in d.outline()]
     assert max(xs) - min(xs) == pytest.approx(60.96)  # 200 ft = 60.96 m
     assert max(ys) - min(ys) == pytest.approx(18.288)  # 60 ft
+
+
+LBF = 0.45359237 * 9.80665  # N per pound-force, exact by definition (NIST SP 811, from memory)
+
+
+def _choose(qtbot, window, quantity: str, unit: str) -> None:  # type: ignore[no-untyped-def]
+    """Pick ``unit`` in the Units panel's list with the keyboard."""
+    box = window.units_panel.boxes[quantity]
+    box.setFocus()
+    qtbot.keyClick(box, Qt.Key.Key_Home)
+    for _ in range(box.findData(unit)):
+        qtbot.keyClick(box, Qt.Key.Key_Down)
+    assert window.controller.project.units.unit(quantity) == unit
+
+
+def test_a_tug_cell_closed_unchanged_in_another_unit_keeps_its_value(window, qtbot) -> None:
+    # A cell's editor opens on the value to six significant digits of the display unit:
+    # Gannet's 55 t reads 121.254 (kip). Enter without typing wrote that back (539 364.7 N
+    # for 539 365.75 N, a 45 m line became 45.0000624 m), one undo step a cell nobody
+    # changed, and each change of units drifted the plan further.
+    from tests.app.editors.conftest import open_cell, press_enter, type_in_cell
+
+    c = window.controller
+    _choose(qtbot, window, "force", "kip")
+    _choose(qtbot, window, "length", "ft")
+    before, steps = c.project, c.undo_stack.count()
+    table, m = window.tugs_panel.table, window.tugs_panel.model
+    for key in ("bp", "astern_bp", "length", "setting", "lead"):
+        for tug in ("Gannet", "Puffin"):
+            press_enter(qtbot, table, open_cell(qtbot, table, m.row_of(tug), KEYS.index(key)))
+    assert c.project == before
+    assert c.undo_stack.count() == steps
+    # a figure typed is read in the unit the column shows: 50 kip, 1 kip = 1000 lbf
+    type_in_cell(qtbot, table, m.row_of("Gannet"), KEYS.index("bp"), "50")
+    assert c.project.tug("Gannet").bollard_pull_n == pytest.approx(50_000 * LBF, rel=1e-12)
