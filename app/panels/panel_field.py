@@ -2,7 +2,8 @@
 
 A panel writes its field's text with ``setText`` (what the plan holds, formatted) and
 listens to :attr:`PanelField.committed`: Enter, or leaving the field after typing,
-commits what was typed, as ``editingFinished`` does. Escape puts back the text the
+commits what was typed, as ``editingFinished`` does; Enter on the text as shown commits
+nothing. Escape puts back the text the
 panel last showed (or last committed) and commits nothing, not even when the field is
 left afterwards (Qt would say ``editingFinished`` again for the text put back, and a
 figure written to six digits read back would be an edit of its own).
@@ -53,6 +54,10 @@ class PanelField(QLineEdit):
     def _finished(self) -> None:
         if self._dropped:  # left (or Enter) after Escape: nothing to apply
             self._dropped = False
+            return
+        if self.text() == self._shown:
+            # Enter on the text as shown: the value it stands for is kept exactly (a
+            # 6.5 m depth shown as 21.3255 ft, read back, is 6.500002 m)
             return
         self._shown = self.text()
         self.committed.emit()

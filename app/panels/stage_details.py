@@ -36,17 +36,9 @@ from core.mechanics.site import body_pose
 from core.model import rules
 from core.model.plan import STAGE_KINDS, BodyPose, Stage
 from core.model.swing import SWING_SIDES, Swing
-from core.units import DisplayUnits, Quantity, fmt, label
-
+from core.units import Quantity, fmt, label
 
 #: The rule (core.model.rules) of each stage limit.
-def _shown(u: DisplayUnits, value_si: float | None, q: Quantity) -> str:
-    """A limit or margin as its field shows it: the display unit to the hundredth, ""
-    for none. A field committed with this text unchanged keeps the value it shows
-    (20 kn is 10.29 m/s on screen, and must not become 10.29 m/s = 20.002 kn)."""
-    return "" if value_si is None else fmt(u.value(value_si, q), 2)
-
-
 _LIMIT_RULES = {
     "max_wind_ms": rules.WIND_LIMIT,
     "max_current_ms": rules.CURRENT_LIMIT,
@@ -197,10 +189,10 @@ class StageDetails(QWidget):
                     v = getattr(stage.limits, key)
                     f = self.limit_fields[key]
                     if force or not f.hasFocus():
-                        f.setText(_shown(u, v, q))
+                        f.setText("" if v is None else fmt(u.value(v, q), 2))
                     self.limit_units[key].setText(label(u.unit(q)))
             if force or not self.margin.hasFocus():
-                self.margin.setText(_shown(u, project.clearance_margin_m, "length"))
+                self.margin.setText(fmt(u.value(project.clearance_margin_m, "length"), 2))
             self.margin_unit.setText(label(u.unit("length")))
             self._fill_swing(stage, force)
             self._fill_poses(stage)
@@ -283,9 +275,6 @@ class StageDetails(QWidget):
         name = next(t for k, t, _q in self.LIMITS if k == key).lower()
         text = self.limit_fields[key].text()
         u = self.controller.project.units
-        q = next(q for k, _t, q in self.LIMITS if k == key)
-        if text.strip() == _shown(u, getattr(stage.limits, key), q):
-            return  # left as shown: the limit keeps its value, not the rounded figure
         try:
             value = parse_optional(text, _LIMIT_RULES[key], u)
             limits = replace(stage.limits, **{key: value})
@@ -323,8 +312,6 @@ class StageDetails(QWidget):
         if self._filling:
             return
         p = self.controller.project
-        if self.margin.text().strip() == _shown(p.units, p.clearance_margin_m, "length"):
-            return  # left as shown: the margin keeps its value, not the rounded figure
         try:
             v = parse_value(self.margin.text(), rules.CLEARANCE_MARGIN, p.units)
             new = replace(p, clearance_margin_m=v)

@@ -100,3 +100,37 @@ def test_a_tug_cell_closed_unchanged_in_another_unit_keeps_its_value(window, qtb
     # a figure typed is read in the unit the column shows: 50 kip, 1 kip = 1000 lbf
     type_in_cell(qtbot, table, m.row_of("Gannet"), KEYS.index("bp"), "50")
     assert c.project.tug("Gannet").bollard_pull_n == pytest.approx(50_000 * LBF, rel=1e-12)
+
+
+def test_enter_in_any_panel_field_left_as_shown_changes_nothing(window, qtbot) -> None:
+    # Panel fields show six significant digits of the display unit (a 6.5 m depth reads
+    # 21.3255 ft). Enter in one left as shown read that back: the depth became 6.500002 m,
+    # the 10 m wind height 10.0000003 m, a walk goal of 17.637 kip another goal, each an
+    # undo step, in the conditions, hull, solve and drift panels alike; back in metres the
+    # plan no longer held its own figures.
+    from PySide6.QtWidgets import QLineEdit
+
+    from app.panels.panel_field import PanelField
+
+    c = window.controller
+    _choose(qtbot, window, "force", "kip")
+    _choose(qtbot, window, "length", "ft")
+    _choose(qtbot, window, "speed", "m/s")
+    before, steps = c.project, c.undo_stack.count()
+    tried = []
+    for stage in range(len(c.project.stages)):
+        c.set_stage_index(stage)
+        for field in window.findChildren(PanelField):
+            if field.isVisible() and field.isEnabled() and field.text():
+                field.setFocus()
+                qtbot.keyClick(field, Qt.Key.Key_Return)
+                tried.append(field.text())
+    assert "21.3255" in tried and "32.8084" in tried  # the depth and the wind's height, ft
+    assert c.undo_stack.count() == steps
+    assert c.project == before
+    # typing still commits: a depth typed in feet is stored in metres
+    depth = window.solve_ui.conditions.edits["water_depth_m"]
+    assert isinstance(depth, QLineEdit)
+    retype(qtbot, depth, "30")
+    qtbot.keyClick(depth, Qt.Key.Key_Return)
+    assert c.stage.conditions.water_depth_m == pytest.approx(30 * FT)
