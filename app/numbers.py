@@ -22,6 +22,7 @@ import math
 import re
 
 from core.errors import InputError, TowboardError
+from core.model.headway import SpeedOrderError
 from core.model.rules import Range, RangeError, unit_of
 from core.units import CHOICES, FACTORS, LABELS, DisplayUnits
 
@@ -103,7 +104,7 @@ def parse_optional(text: str, rule: Range, units: DisplayUnits, subject: str = "
 
 def message(error: BaseException, units: DisplayUnits) -> str:
     """An error as the status line says it: a rule's refusal in the display units."""
-    if isinstance(error, RangeError):
+    if isinstance(error, (RangeError, SpeedOrderError)):
         return error.in_units(units)
     if isinstance(error, TowboardError):
         return str(error).splitlines()[0]

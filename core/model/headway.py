@@ -20,6 +20,7 @@ import numpy as np
 
 from core.errors import InputError
 from core.model import rules
+from core.units import DisplayUnits, label
 
 KNOT = rules.KNOT
 
@@ -32,6 +33,27 @@ PLACEHOLDER_ROWS_KN: tuple[tuple[float, float], ...] = (
     (6.0, 0.55),
     (8.0, 0.35),
 )
+
+
+class SpeedOrderError(InputError):
+    """A headway table's speed not above the one before it; says so in knots (the file's
+    unit) or, through :meth:`in_units`, in the display speed unit the table is typed in."""
+
+    def __init__(self, before_ms: float, speed_ms: float) -> None:
+        self.before_ms = before_ms
+        super().__init__(
+            "headway table: speed through the water",
+            speed_ms,
+            "must be in increasing order",
+            shown=f"{speed_ms / KNOT:g} kn after {before_ms / KNOT:g} kn",
+        )
+
+    def in_units(self, units: DisplayUnits) -> str:
+        """The message with both speeds in ``units`` (as typed: six significant digits)."""
+        u = label(units.unit("speed"))
+        after = units.value(self.before_ms, "speed")
+        shown = f"{units.value(float(self.value), 'speed'):.6g} {u} after {after:.6g} {u}"  # type: ignore[arg-type]
+        return f"{self.field}: {shown} {self.reason}"
 
 
 @dataclass(frozen=True, slots=True)
@@ -63,12 +85,7 @@ class HeadwayTable:
         checked_shares = tuple(rules.HEADWAY_SHARE.check(v, "headway table") for v in shares)
         for a, b in itertools.pairwise(checked_speeds):
             if b <= a:
-                raise InputError(
-                    "headway table: speed through the water",
-                    b,
-                    "must be in increasing order",
-                    shown=f"{b / KNOT:g} kn after {a / KNOT:g} kn",
-                )
+                raise SpeedOrderError(a, b)
         object.__setattr__(self, "speeds_ms", checked_speeds)
         object.__setattr__(self, "shares", checked_shares)
 

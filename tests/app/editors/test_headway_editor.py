@@ -90,3 +90,21 @@ def test_a_transit_speed_is_typed_and_read_by_the_tugs(window, qtbot) -> None:  
     panel.kind.setCurrentIndex(panel.kind.findData("hold"))
     assert not panel.speed.isEnabled()
     assert c.stage.goal.speed_ms == 0.0
+
+
+def test_speeds_out_of_order_are_said_in_the_speed_unit_typed_in(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    # With speed in m/s the table is typed in m/s; a row slower than the one before it was
+    # refused in knots ("1.94384 kn after 2.05778 kn"), figures the planner never typed.
+    box = window.units_panel.boxes["speed"]
+    box.setFocus()
+    qtbot.keyClick(box, Qt.Key.Key_End)  # m/s, the last of the list
+    assert window.controller.project.units.speed == "m/s"
+    before = window.controller.project
+    d = _edit(window, qtbot, "Tern")
+    assert d.headway.table.item(1, 0).text() == f"{2 * KNOT:.6g}"  # the placeholder's 2 kn
+    type_in_cell(qtbot, d.headway.table, 2, 0, "1")
+    _ok(qtbot, d)
+    assert d.isVisible()
+    assert f"1 m/s after {2 * KNOT:.6g} m/s must be in increasing order" in d.error.text()
+    assert " kn" not in d.error.text()
+    assert window.controller.project is before
