@@ -183,11 +183,12 @@ class BalancePanel(QWidget):
         else:
             self._set("equivalent", fmt.value(u, eq.magnitude, "force"))
             off = eq.offset_m or 0.0
-            side = "right" if off > 0 else "left"
-            self._set(
-                "offset",
-                f"{fmt.value(u, abs(off), 'length')}, to the {side} of it looking along the force",
-            )
+            shown = fmt.value(u, abs(off), "length")
+            if float(fmt.number(u, abs(off), "length")) == 0:  # no side for what reads 0.0
+                where = "through the centroid"
+            else:
+                where = f"to the {'right' if off > 0 else 'left'} of it looking along the force"
+            self._set("offset", f"{shown}, {where}")
             self._set(
                 "crossing",
                 b.crossing_words(u) + (f" from {b.reference_point}" if b.crossing_shown else ""),
