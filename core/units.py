@@ -181,6 +181,18 @@ class DisplayUnits:
         d = digits_of(u) if digits is None else digits
         return f"{fmt(from_si(value_si, quantity, u), d)} {label(u)}"
 
+    def show_against(self, value_si: float, limit_si: float, quantity: Quantity) -> tuple[str, str]:
+        """``value_si`` and the ``limit_si`` it is held against, as :meth:`show` says
+        them, with up to three more decimals where the unit's own would read the two
+        alike though they differ: 20.04 kn over a 20 kn limit is "20.04 kn" against
+        "20.00 kn", not "20.0 kn" against "20.0 kn"."""
+        d = digits_of(self.unit(quantity))
+        for more in range(4):
+            a, b = self.show(value_si, quantity, d + more), self.show(limit_si, quantity, d + more)
+            if a != b or value_si == limit_si:
+                break
+        return a, b
+
     def value(self, value_si: float, quantity: Quantity) -> float:
         return from_si(value_si, quantity, self.unit(quantity))
 

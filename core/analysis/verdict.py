@@ -351,7 +351,6 @@ def _limit_reasons(stage: Stage, u: DisplayUnits) -> list[Reason]:
     out = []
     wind = wind_against_limit(stage)
     if wind is not None:
-        limit = f"{u.show(wind.limit_ms, 'speed')} ({WIND_LIMIT_MEASURE})"
         given = (
             ""
             if c.wind_height_m == 10.0
@@ -359,22 +358,24 @@ def _limit_reasons(stage: Stage, u: DisplayUnits) -> list[Reason]:
             f"{u.show(c.wind_height_m, 'length')})"
         )
         if wind.over:
+            planned, limit = u.show_against(wind.mean_10m_ms, wind.limit_ms, "speed")
             out.append(
                 reason(
                     "conditions_over_limit",
-                    f"planned wind {u.show(wind.mean_10m_ms, 'speed')} mean at 10 m{given} is "
-                    f"above the stage's go / no-go limit {limit}",
+                    f"planned wind {planned} mean at 10 m{given} is "
+                    f"above the stage's go / no-go limit {limit} ({WIND_LIMIT_MEASURE})",
                     stage.name,
                 )
             )
         elif wind.gusts_over:
+            gusts, limit = u.show_against(wind.gust_10m_ms, wind.limit_ms, "speed")
             out.append(
                 reason(
                     "gusts_over_limit",
-                    f"gusts of {u.show(wind.gust_10m_ms, 'speed')} at 10 m (planned mean "
+                    f"gusts of {gusts} at 10 m (planned mean "
                     f"{u.show(wind.mean_10m_ms, 'speed')}{given} x gust factor "
                     f"{c.gust_factor:.2f}), which the load is worked with, are above the "
-                    f"stage's limit {limit}",
+                    f"stage's limit {limit} ({WIND_LIMIT_MEASURE})",
                     stage.name,
                 )
             )
@@ -382,8 +383,9 @@ def _limit_reasons(stage: Stage, u: DisplayUnits) -> list[Reason]:
         out.append(
             reason(
                 "conditions_over_limit",
-                f"planned current {u.show(c.current_speed_ms, 'speed')} is above the stage's "
-                f"go / no-go limit {u.show(lim.max_current_ms, 'speed')}",
+                "planned current {} is above the stage's go / no-go limit {}".format(
+                    *u.show_against(c.current_speed_ms, lim.max_current_ms, "speed")
+                ),
                 stage.name,
             )
         )

@@ -94,3 +94,42 @@ def test_the_height_a_wind_is_given_at_is_said_in_the_display_length_unit() -> N
     assert "30 m" not in reason
     text = report_text(feet).split("Stage 4:")[1]
     assert "Wind            19.0 kn at 98.4 ft from " in text
+
+
+def test_a_wind_or_current_just_over_its_limit_reads_over_it() -> None:
+    # 20.04 kn against the 20 kn limit is no-go; to the tenth both read "20.0 kn", and the
+    # verdict said "planned wind 20.0 kn ... is above ... limit 20.0 kn". The figures take
+    # the decimals that tell them apart; in m/s too (20.04 kn = 10.3095 m/s, 20 kn =
+    # 10.2889 m/s: the hundredths already differ).
+    project = _with_wind(20.04, 1.0)
+    s = project.stages[TOW_OUT]
+    assert s.limits.max_current_ms is not None
+    c = replace(s.conditions, current_speed_ms=s.limits.max_current_ms * 1.004)
+    project = project.with_stage(replace(s, conditions=c), TOW_OUT)
+    over = [
+        r.text
+        for r in plan_results(project)[TOW_OUT].verdict.reasons
+        if r.code == "conditions_over_limit"
+    ]
+    assert over == [
+        "planned wind 20.04 kn mean at 10 m is above the stage's go / no-go limit 20.00 kn "
+        "(mean at 10 m)",
+        "planned current 1.004 kn is above the stage's go / no-go limit 1.000 kn",
+    ]
+    metric = project.with_units(DisplayUnits(speed="m/s"))
+    over = [
+        r.text
+        for r in plan_results(metric)[TOW_OUT].verdict.reasons
+        if r.code == "conditions_over_limit"
+    ]
+    assert over[0].startswith("planned wind 10.31 m/s mean at 10 m is above")
+    assert "limit 10.29 m/s (mean at 10 m)" in over[0]
+
+
+def test_show_against_adds_decimals_only_where_needed() -> None:
+    u = DisplayUnits()
+    assert u.show_against(12 * KNOT, 20 * KNOT, "speed") == ("12.0 kn", "20.0 kn")
+    assert u.show_against(20 * KNOT, 20 * KNOT, "speed") == ("20.0 kn", "20.0 kn")
+    assert u.show_against(20.0004 * KNOT, 20 * KNOT, "speed") == ("20.0004 kn", "20.0000 kn")
+    # beyond three more decimals it gives up rather than print noise
+    assert u.show_against(20.00001 * KNOT, 20 * KNOT, "speed") == ("20.0000 kn", "20.0000 kn")
