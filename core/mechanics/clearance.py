@@ -121,9 +121,7 @@ def clearance_notices(clearances: tuple[Clearance, ...], units: DisplayUnits) ->
         elif c.touching:
             msg = f"{c.body} touches or overlaps {c.other}{what}"
         else:
-            msg = (
-                f"{c.body} is {units.show(c.distance_m, 'length')} from {c.other}{what}, "
-                f"below the {units.show(c.margin_m, 'length')} clearance margin"
-            )
+            gap, margin = units.show_against(c.distance_m, c.margin_m, "length")
+            msg = f"{c.body} is {gap} from {c.other}{what}, below the {margin} clearance margin"
         out.append(Notice("low_clearance", subject, msg))
     return tuple(out)

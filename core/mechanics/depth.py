@@ -121,12 +121,12 @@ def depth_check(body: Body, c: Conditions, units: DisplayUnits) -> DepthCheck | 
             )
         )
     elif depth - draught < margin:
+        ukc, least = units.show_against(depth - draught, margin, "length")
         notices.append(
             Notice(
                 "low_under_keel",
                 body.name,
-                f"{body.name}: under-keel clearance {units.show(depth - draught, 'length')} "
-                f"is below the margin {units.show(margin, 'length')} (depth "
+                f"{body.name}: under-keel clearance {ukc} is below the margin {least} (depth "
                 f"{units.show(depth, 'length')}, draught {units.show(draught, 'length')})",
                 "caution",
             )

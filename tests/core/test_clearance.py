@@ -165,3 +165,14 @@ def test_notable_clearances_are_those_below_margin_and_each_bodys_least():
     p = one_barge(90.0, features=feats, margin=5.0)
     cs = notable_clearances(stage_clearances(p, p.stages[0]))
     assert [c.other for c in cs] == ["South quay"]  # none under 5 m: the least only
+
+
+def test_a_gap_just_under_the_margin_reads_under_it():
+    # The barge 19.96 m from the quay against a 20 m margin: to the tenth both read
+    # "20.0 m" and the caution said "is 20.0 m from North quay, below the 20.0 m margin".
+    feats = (quay("North quay", (-50, 25), (150, 25)),)
+    p = one_barge(90.0, y=-4.96, features=feats, margin=20.0)  # 15 m off at y = 0
+    (n,) = clearance_notices(stage_clearances(p, p.stages[0]), DisplayUnits())
+    assert n.message == (
+        "Barge is 19.96 m from North quay (quay), below the 20.00 m clearance margin"
+    )

@@ -162,3 +162,11 @@ def test_depth_and_margin_are_checked() -> None:
         Conditions(ukc_margin_m=-1.0)
     with pytest.raises(InputError, match="water depth"):
         Conditions(water_depth_m=math.nan)
+
+
+def test_a_clearance_just_under_the_margin_reads_under_it() -> None:
+    # 0.48 m of water under the keel against the 0.5 m margin read "0.5 m is below the
+    # margin 0.5 m"; the figures take the decimals that tell them apart.
+    _depth, verdict = _verdict(5.48)
+    (r,) = [r for r in verdict.reasons if r.code == "low_under_keel"]
+    assert "under-keel clearance 0.48 m is below the margin 0.50 m" in r.text
