@@ -94,7 +94,7 @@ def test_a_transit_speed_is_typed_and_read_by_the_tugs(window, qtbot) -> None:  
 
 def test_speeds_out_of_order_are_said_in_the_speed_unit_typed_in(window, qtbot) -> None:  # type: ignore[no-untyped-def]
     # With speed in m/s the table is typed in m/s; a row slower than the one before it was
-    # refused in knots ("1.94384 kn after 2.05778 kn"), figures the planner never typed.
+    # refused in knots ("1.94384 kn after 2 kn"), figures the planner never typed.
     box = window.units_panel.boxes["speed"]
     box.setFocus()
     qtbot.keyClick(box, Qt.Key.Key_End)  # m/s, the last of the list
