@@ -100,7 +100,9 @@ def report_json(project: Project) -> dict[str, Any]:
     return {
         "plan": project.name,
         "revision": project.revision,
-        "units": {"force": "N", "moment": "N*m", "length": "m", "angle": "deg"},
+        "units": {"force": "N", "moment": "N*m", "length": "m", "speed": "m/s", "angle": "deg"},
+        # the reasons, warnings and words are written for people, in the plan's units
+        "text_units": {q: project.units.unit(q) for q in ("force", "moment", "length", "speed")},
         "frame": frame_note(project),
         "caution": CAUTION,
         "drift_caution": DRIFT_CAUTION,

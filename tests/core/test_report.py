@@ -18,6 +18,7 @@ import shapely
 from core.analysis.stage import balance_of, stage_result
 from core.io.projectfile import load
 from core.io.report import report_json, report_text
+from tests.conftest import SAMPLES
 
 ROOT = Path(__file__).resolve().parents[2]
 TF = 9806.65  # N per tonne-force (NIST SP 811)
@@ -48,7 +49,13 @@ def test_pontoon_swing_is_a_pure_couple_by_hand() -> None:
     assert bal["yaw_moment_about_centroid_Nm"] == pytest.approx(moment, rel=1e-6)
     assert bal["turning"] == "swings bow to port"
     assert bal["equivalent"]["crosses_centreline_at_x_m"] is None
-    assert rep["units"] == {"force": "N", "moment": "N*m", "length": "m", "angle": "deg"}
+    assert rep["units"] == {
+        "force": "N",
+        "moment": "N*m",
+        "length": "m",
+        "speed": "m/s",
+        "angle": "deg",
+    }
     assert "x forward, y to port" in rep["frame"]
 
 
@@ -255,3 +262,18 @@ def test_a_small_fitting_load_is_printed_with_the_settings_digits() -> None:
     row = next(ln for ln in stage3.splitlines() if ln.startswith("    Gannet ") and "SWL" in ln)
     assert row.endswith(f"against SWL 80.0 t ({expected})")
     assert "(0 %)" not in stage3
+
+
+def test_the_json_says_which_units_its_words_are_in() -> None:
+    # The figures are SI, but the reasons and warnings are sentences in the plan's units
+    # ("needs 0.4 kip more astern"); the JSON said only N, N*m, m and deg (not even m/s for
+    # its *_ms speeds), so a reader of a kip plan's JSON met kip in its text unannounced.
+    from core.units import DisplayUnits
+
+    plan = load(SAMPLES / "deck_barge_unberth.towboard")
+    imperial = plan.with_units(DisplayUnits("kip", "kip*ft", "ft", "kn"))
+    rep = report_json(imperial)
+    assert rep["units"]["speed"] == "m/s"
+    assert rep["text_units"] == {"force": "kip", "moment": "kip*ft", "length": "ft", "speed": "kn"}
+    reasons = [r["text"] for s in rep["stages"] for r in s["verdict"]["reasons"]]
+    assert any(" kip " in t for t in reasons)
