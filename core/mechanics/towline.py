@@ -18,6 +18,16 @@ from core.units import DisplayUnits
 GIRTING_WARN_DEG = 60.0
 
 
+def _percents_against(share: float, limit: float) -> tuple[str, str]:
+    """A share and the share it is held against, as whole percents, with up to three
+    decimals where whole percents would read them alike (40.3 % over 40 %: "40.3", "40.0")."""
+    for digits in range(4):
+        a, b = f"{share * 100:.{digits}f}", f"{limit * 100:.{digits}f}"
+        if a != b:
+            break
+    return a, b
+
+
 def towline_notices(
     tug: Tug, tension_n: float, line_length_m: float | None, units: DisplayUnits
 ) -> tuple[Notice, ...]:
@@ -26,13 +36,14 @@ def towline_notices(
     out = []
     warn, mbl = tug.towline_warn_tension_n, tug.towline_mbl_n
     if warn is not None and mbl is not None and tension_n > warn * (1 + 1e-9):
+        share, above = _percents_against(tension_n / mbl, tug.towline_warn_fraction)
         out.append(
             Notice(
                 "towline_tension",
                 tug.name,
                 f"{tug.name}: towline tension {units.show(tension_n, 'force')} is "
-                f"{tension_n / mbl * 100:.0f} % of its MBL {units.show(mbl, 'force')} "
-                f"(warned above {tug.towline_warn_fraction * 100:.0f} %, common practice)",
+                f"{share} % of its MBL {units.show(mbl, 'force')} "
+                f"(warned above {above} %, common practice)",
             )
         )
     carried = tug.towline_length_m
@@ -41,8 +52,9 @@ def towline_notices(
             Notice(
                 "towline_short",
                 tug.name,
-                f"{tug.name}: the line is drawn {units.show(line_length_m, 'length')} long but "
-                f"the tug carries {units.show(carried, 'length')}",
+                "{}: the line is drawn {} long but the tug carries {}".format(
+                    tug.name, *units.show_against(line_length_m, carried, "length")
+                ),
             )
         )
     return tuple(out)

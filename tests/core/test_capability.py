@@ -158,6 +158,12 @@ def test_towline_tension_warns_above_its_share_of_mbl_and_a_short_line() -> None
     assert [n.code for n in got] == ["towline_tension", "towline_short"]
     assert "52 % of its MBL" in got[0].message and "warned above 50 %" in got[0].message
     assert towline_notices(t, 119e3, 40.0, u) == ()
+    # Just over: 120.7 kN is 50.3 % of 240 kN, over the 50 % warning, and the line 40.04 m
+    # against 40 m carried. Whole percents and tenths of a metre read "50 % ... (warned
+    # above 50 %)" and "drawn 40.0 m long but the tug carries 40.0 m".
+    tension, short = towline_notices(t, 120.7e3, 40.04, u)
+    assert "is 50.3 % of its MBL 240.0 kN (warned above 50.0 %" in tension.message
+    assert short.message == "Gannet: the line is drawn 40.04 m long but the tug carries 40.00 m"
 
 
 def test_girting_is_warned_for_a_conventional_tug_near_its_beam_with_way_on() -> None:
