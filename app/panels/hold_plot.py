@@ -344,13 +344,22 @@ class HoldPlot(QWidget):
         draw_planned_wind(p, pt, 6.0, 2.0)
         text = f"planned {self.units.show(speed, 'speed')} {word} {direction:03.0f}°"
         w = p.fontMetrics().horizontalAdvance(text) + 6
-        right = pt.x() < centre.x() + radius * 0.3
-        box = QRectF(
-            pt.x() + 9 if right else pt.x() - 9 - w, pt.y() - 20, w, p.fontMetrics().height() + 2
-        )
+        box = self.planned_box(pt, centre, radius, w, p.fontMetrics().height() + 2)
         p.fillRect(box, style.LABEL_BG)
         p.setPen(PLANNED_MARK)
         p.drawText(box, Qt.AlignmentFlag.AlignCenter, text)
+
+    def planned_box(
+        self, pt: QPointF, centre: QPointF, radius: float, w: float, h: float
+    ) -> QRectF:
+        """Where the planned mark's label goes: beside the mark, on the side with room,
+        and never past the plot's edges (it was cut off at the right edge)."""
+        x = pt.x() + 9 if pt.x() < centre.x() + radius * 0.3 else pt.x() - 9 - w
+        if x + w > self.width() - 2:  # no room to the right: to the left of the mark
+            x = pt.x() - 9 - w
+        x = max(2.0, min(x, self.width() - 2.0 - w))
+        y = max(2.0, min(pt.y() - 20, self.height() - 2.0 - h))
+        return QRectF(x, y, w, h)
 
     def _legend(
         self, p: QPainter, centre: QPointF, radius: float, lost: bool, limit: float | None

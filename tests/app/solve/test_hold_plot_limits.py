@@ -137,3 +137,34 @@ def test_the_windows_lowest_limit_names_no_direction_when_all_read_alike() -> No
     assert main is not None and main.hold_limits is not None
     text = summary(main.hold_limits, project.stages[0], project.units)
     assert "Lowest: above 60.0 kn from every direction; 0 from every direction losing" in text
+
+
+def test_the_planned_marks_label_stays_inside_the_plot(window, qtbot, monkeypatch) -> None:  # type: ignore[no-untyped-def]
+    """Every stage of every sample, the plot as the window shows it and narrower: the
+    label "planned 12.0 kn from 200°" lies whole inside the plot (at the window's size
+    the twin barge's ran off the right edge)."""
+    boxes: list[tuple[object, object]] = []
+    place = HoldPlot.planned_box
+
+    def kept(self, *args):  # type: ignore[no-untyped-def]
+        box = place(self, *args)
+        boxes.append((box, self.rect()))
+        return box
+
+    monkeypatch.setattr(HoldPlot, "planned_box", kept)
+    plot = window.solve_ui.hold.plot
+    for path in sorted(SAMPLES.glob("*.towboard")):
+        assert window.open_path(path, ask=False)
+        for k in range(len(window.controller.project.stages)):
+            window.controller.set_stage_index(k)
+            for width in (plot.width(), 260):
+                plot.resize(width, plot.height())
+                boxes.clear()
+                plot.repaint()
+                qtbot.wait(1)
+                if plot.limits is None:
+                    continue
+                assert boxes, (path.name, k)
+                for box, rect in boxes:
+                    assert rect.toRectF().contains(box), (path.name, k, width, box, rect)
+    window.controller.undo_stack.setClean()
