@@ -22,6 +22,7 @@ from tests.app.board.conftest import (  # noqa: F401  (fixtures)
     view_point,
     window,
 )
+from tests.app.editors.conftest import retype_and_enter
 from tests.conftest import SAMPLES
 
 TWIN = SAMPLES / "twin_barge_move.towboard"
@@ -164,22 +165,13 @@ def test_dragging_a_tug_updates_the_ghosts_after_a_pause(twin, qtbot) -> None:  
     assert not c.previewing and not ui.layer.pending
 
 
-def _typed(qtbot, field, text: str) -> None:  # type: ignore[no-untyped-def]
-    """Type ``text`` over a panel field with real keys and press Enter (a field's text set
-    by code is what the panel shows, and Enter on that commits nothing)."""
-    field.setFocus()
-    field.selectAll()
-    qtbot.keyClicks(field, text)
-    qtbot.keyClick(field, Qt.Key.Key_Return)
-
-
 def test_panel_inputs_write_back_and_undo(twin, qtbot) -> None:  # type: ignore[no-untyped-def]
     c = twin.controller
     p = twin.drift_ui.panel
     before = c.project
-    _typed(qtbot, p.times, "20, 45,90")
+    retype_and_enter(qtbot, p.times, "20, 45,90")
     assert c.project.drift.times_s == (20.0, 45.0, 90.0)
-    _typed(qtbot, p.horizon, "300")
+    retype_and_enter(qtbot, p.horizon, "300")
     assert c.project.drift.horizon_s == 300.0
     p.hulls.item(0, 1).setText("22.5")
     assert c.project.hulls[0].yaw_gyradius_m == pytest.approx(22.5)
@@ -196,7 +188,7 @@ def test_bad_panel_input_is_refused_in_words(twin, qtbot) -> None:  # type: igno
     p = twin.drift_ui.panel
     before = c.project
     with qtbot.waitSignal(c.message) as msg:
-        _typed(qtbot, p.times, "60, 30")
+        retype_and_enter(qtbot, p.times, "60, 30")
     assert "must be in increasing order" in msg.args[0]
     with qtbot.waitSignal(c.message) as msg:
         p.hulls.item(0, 1).setText("-4")

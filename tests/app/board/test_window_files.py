@@ -12,6 +12,7 @@ from PySide6.QtWidgets import QFileDialog, QLineEdit
 
 from core.io.projectfile import dumps, load
 from tests.app.board.conftest import SAMPLE
+from tests.app.editors.conftest import retype_and_enter
 
 
 def test_the_sample_opens_with_its_name_in_the_title(window) -> None:  # type: ignore[no-untyped-def]
@@ -155,23 +156,14 @@ def test_display_units_change_everything_at_once(window) -> None:  # type: ignor
     assert "kN" in window.tugs_panel.model.headerData(1, Qt.Orientation.Horizontal)
 
 
-def _typed(qtbot, field, text: str) -> None:  # type: ignore[no-untyped-def]
-    """Type ``text`` over a panel field with real keys and press Enter (a field's text set
-    by code is what the panel shows, and Enter on that commits nothing)."""
-    field.setFocus()
-    field.selectAll()
-    qtbot.keyClicks(field, text)
-    qtbot.keyClick(field, Qt.Key.Key_Return)
-
-
 def test_hull_panel_edits_the_hull(window, qtbot) -> None:  # type: ignore[no-untyped-def]
     hp = window.hull_panel
-    _typed(qtbot, hp.draught, "3.5")
+    retype_and_enter(qtbot, hp.draught, "3.5")
     assert window.controller.project.hull("Kestrel 3").draught_m == pytest.approx(3.5)
-    _typed(qtbot, hp.cog_y, "0")
-    _typed(qtbot, hp.cog_x, "40")
+    retype_and_enter(qtbot, hp.cog_y, "0")
+    retype_and_enter(qtbot, hp.cog_x, "40")
     assert window.controller.project.hull("Kestrel 3").cog == (40.0, 0.0)
-    _typed(qtbot, hp.draught, "-1")
+    retype_and_enter(qtbot, hp.draught, "-1")
     assert window.controller.project.hull("Kestrel 3").draught_m == pytest.approx(3.5)
     assert "draught" in window.statusBar().currentMessage()
 

@@ -51,3 +51,10 @@ def retype(qtbot, edit, text: str) -> None:  # type: ignore[no-untyped-def]
         qtbot.keyClicks(edit, text)
     else:
         qtbot.keyClick(edit, Qt.Key.Key_Delete)
+
+
+def retype_and_enter(qtbot, edit, text: str) -> None:  # type: ignore[no-untyped-def]
+    """:func:`retype`, then Enter (a panel field's text set by code is what the panel
+    shows, and Enter on that commits nothing: a test types as a user does)."""
+    retype(qtbot, edit, text)
+    qtbot.keyClick(edit, Qt.Key.Key_Return)
