@@ -13,6 +13,7 @@ from PySide6.QtWidgets import QFormLayout, QFrame, QLabel, QScrollArea, QVBoxLay
 from app import formatting as fmt
 from app.controller import Controller
 from app.guard import guarded
+from app.panels.dialog_parts import NOTE_COLOUR
 from app.panels.verdict_view import VerdictView
 from core.mechanics.balance import Balance
 
@@ -84,7 +85,7 @@ class BalancePanel(QWidget):
         layout.addWidget(self.warnings)
         self.note = note = QLabel(FRAME_TEXT.format(origin="the hull's reference point"))
         note.setWordWrap(True)
-        note.setStyleSheet("color: #455a64; font-size: 9pt;")
+        note.setStyleSheet(f"color: {NOTE_COLOUR}; font-size: 9pt;")
         layout.addWidget(note)
         layout.addStretch(1)
         self.balance: Balance | None = None

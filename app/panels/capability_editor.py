@@ -30,7 +30,7 @@ from app.guard import guarded
 from app.numbers import message
 from app.panels.capability_polar import CapabilityPolar
 from app.panels.capability_table import CapabilityModel
-from app.panels.dialog_parts import error_label
+from app.panels.dialog_parts import NOTE_COLOUR, error_label
 from core.errors import TowboardError
 from core.model import rules
 from core.model.capability import WAY_WORDS, WAYS, Capability, Way
@@ -234,4 +234,4 @@ class CapabilityEditor(QWidget):
         else:
             self.note.setText(f"Figures: {shown.note}.")
             self.note.setToolTip("")
-            self.note.setStyleSheet("color: #455a64;")
+            self.note.setStyleSheet(f"color: {NOTE_COLOUR};")

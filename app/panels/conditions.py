@@ -35,7 +35,7 @@ from PySide6.QtWidgets import (
 from app.controller import Controller
 from app.guard import guarded
 from app.numbers import message, parse_number, parse_optional, parse_value
-from app.panels.dialog_parts import ok_cancel
+from app.panels.dialog_parts import note_label, ok_cancel
 from app.panels.panel_field import PanelField
 from core.errors import InputError, TowboardError
 from core.mechanics.bodies import stage_body
@@ -211,14 +211,12 @@ class ConditionsPanel(QWidget):
         self.effect.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
         QVBoxLayout(feel).addWidget(self.effect)
         col.addWidget(feel)
-        note = QLabel(
+        note = note_label(
             "F = ½ ρ C A V² on the head-on and side areas (cos|cos| ahead, sin|sin| abeam of "
             "the flow). The side load's centre moves from amidships beam-on towards the end "
             "the flow comes from (Hughes), so an oblique flow turns the body across it. "
             "Defaults are typical box-barge values (common practice): set your own."
         )
-        note.setWordWrap(True)
-        note.setStyleSheet("color: #455a64;")
         col.addWidget(note)
         col.addStretch(1)
         scroll = QScrollArea()

@@ -1,4 +1,5 @@
-"""Parts every editing dialog has: the line that says what is wrong, and OK / Cancel."""
+"""Parts every editing dialog and panel has: the line that says what is wrong, a muted
+note of what a field means, and OK / Cancel."""
 
 from __future__ import annotations
 
@@ -10,6 +11,8 @@ from app.guard import guarded
 
 #: Colour of a refusal's words (dark red, readable on the light dialog background).
 ERROR_COLOUR = "#b71c1c"
+#: Colour of a note beside the fields (what they mean, what is not checked).
+NOTE_COLOUR = "#455a64"
 
 
 def error_label() -> QLabel:
@@ -19,6 +22,14 @@ def error_label() -> QLabel:
     lab.setWordWrap(True)
     lab.setStyleSheet(f"color: {ERROR_COLOUR};")
     lab.setVisible(False)
+    return lab
+
+
+def note_label(text: str) -> QLabel:
+    """A word-wrapped note in the muted colour: what the fields beside it mean."""
+    lab = QLabel(text)
+    lab.setWordWrap(True)
+    lab.setStyleSheet(f"color: {NOTE_COLOUR};")
     return lab
 
 

@@ -28,7 +28,7 @@ from app.controller import Controller
 from app.edits import hulls as hull_edits
 from app.guard import guarded
 from app.panels import fitting_fields as ff
-from app.panels.dialog_parts import error_label, ok_cancel
+from app.panels.dialog_parts import NOTE_COLOUR, error_label, note_label, ok_cancel
 from app.panels.fittings_model import say_if_snapped
 from core.errors import TowboardError
 from core.model import rules
@@ -68,9 +68,7 @@ class FittingDialog(QDialog):
         self.lines_from, self.lines_to = QLineEdit(), QLineEdit()
         for w in (self.lines_from, self.lines_to):
             w.setPlaceholderText("any")
-        self.note = QLabel(RATING_NOTE)
-        self.note.setWordWrap(True)
-        self.note.setStyleSheet("color: #455a64;")
+        self.note = note_label(RATING_NOTE)
         self.error = error_label()
         self.buttons = ok_cancel(self)
         self._lay_out()
@@ -100,7 +98,7 @@ class FittingDialog(QDialog):
         self.lines_label = QLabel("Permitted lines")
         form.addRow(self.lines_label, lines)
         frame = QLabel("Position: x forward, y to port, from the hull's reference point.")
-        frame.setStyleSheet("color: #455a64;")
+        frame.setStyleSheet(f"color: {NOTE_COLOUR};")
         layout = QVBoxLayout(self)
         layout.addLayout(form)
         layout.addWidget(frame)

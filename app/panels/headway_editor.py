@@ -25,6 +25,7 @@ from PySide6.QtWidgets import (
 
 from app import numbers
 from app.guard import guarded
+from app.panels.dialog_parts import NOTE_COLOUR
 from core.errors import InputError
 from core.model import rules
 from core.model.headway import HeadwayTable, placeholder_headway
@@ -108,7 +109,7 @@ class HeadwayEditor(QGroupBox):
     def _show_note(self) -> None:
         placeholder = self._loaded.placeholder and not self.edited()
         self.note.setText(PLACEHOLDER_NOTE if placeholder else OWN_NOTE)
-        self.note.setStyleSheet("color: #8d5a00;" if placeholder else "color: #455a64;")
+        self.note.setStyleSheet("color: #8d5a00;" if placeholder else f"color: {NOTE_COLOUR};")
 
     # -- editing ------------------------------------------------------------------------
     @guarded

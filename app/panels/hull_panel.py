@@ -29,6 +29,7 @@ from app.controller import Controller
 from app.edits import hulls as hull_edits
 from app.guard import guarded
 from app.numbers import message, parse_optional
+from app.panels.dialog_parts import note_label
 from app.panels.hull_tables import FittingsTab, OutlineTab
 from app.panels.panel_field import PanelField
 from core.errors import TowboardError
@@ -106,9 +107,9 @@ class HullPanel(QWidget):
         pl = QVBoxLayout(particulars)
         pl.addLayout(form)
         pl.addWidget(self.to_aft)
-        note = QLabel("x forward, y to port, from the reference point (the hull frame's origin).")
-        note.setWordWrap(True)
-        note.setStyleSheet("color: #455a64;")
+        note = note_label(
+            "x forward, y to port, from the reference point (the hull frame's origin)."
+        )
         pl.addWidget(note)
         pl.addStretch(1)
         self.outline_tab = OutlineTab(controller, lambda: self.current)

@@ -14,7 +14,6 @@ from PySide6.QtWidgets import (
     QComboBox,
     QHBoxLayout,
     QHeaderView,
-    QLabel,
     QPushButton,
     QStyledItemDelegate,
     QStyleOptionViewItem,
@@ -27,7 +26,7 @@ from app.controller import Controller
 from app.edits import hulls as hull_edits
 from app.guard import guarded
 from app.panels import fitting_fields as ff
-from app.panels.dialog_parts import error_label
+from app.panels.dialog_parts import error_label, note_label
 from app.panels.fittings_model import KEYS, FittingsModel
 from app.panels.vertices_model import VerticesModel
 from core.model.hull import FITTING_TYPES
@@ -98,12 +97,10 @@ class OutlineTab(QWidget):
         self.buttons.addWidget(self.insert)
         self.buttons.addWidget(self.delete)
         self.buttons.addStretch(1)
-        note = QLabel(
+        note = note_label(
             "x forward, y to port, from the reference point. The board draws the same "
             "outline; a change that makes it cross itself is refused."
         )
-        note.setWordWrap(True)
-        note.setStyleSheet("color: #455a64;")
         layout = QVBoxLayout(self)
         layout.addWidget(self.table, 1)
         layout.addWidget(self.error)

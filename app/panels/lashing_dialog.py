@@ -20,7 +20,7 @@ from app.controller import Controller
 from app.edits import bodies as body_edits
 from app.guard import guarded
 from app.panels import fitting_fields as ff
-from app.panels.dialog_parts import error_label, ok_cancel
+from app.panels.dialog_parts import NOTE_COLOUR, error_label, note_label, ok_cancel
 from core.errors import InputError, TowboardError
 from core.frames import angle_to_bearing, bearing_to_angle
 from core.model import rules
@@ -69,7 +69,7 @@ class LashingDialog(QDialog):
             f"reference point; heading in degrees clockwise from {first}'s ahead."
         )
         frame.setWordWrap(True)
-        frame.setStyleSheet("color: #455a64;")
+        frame.setStyleSheet(f"color: {NOTE_COLOUR};")
         grid = QGridLayout()
         ln = fmt.unit_label(u, "length")
         for col, text in enumerate(("Hull", f"x ({ln})", f"y ({ln})", "Heading (°)")):
@@ -77,7 +77,7 @@ class LashingDialog(QDialog):
             grid.addWidget(head, 0, col)
         grid.addWidget(QLabel(first), 1, 0)
         owner = QLabel("owns the frame: lies at 0, 0, 0°")
-        owner.setStyleSheet("color: #455a64;")
+        owner.setStyleSheet(f"color: {NOTE_COLOUR};")
         grid.addWidget(owner, 1, 1, 1, 3)
         span = rules.COORDINATE.span(u)
         for row, (hull, edits) in enumerate(self.fields.items(), start=2):
@@ -92,12 +92,10 @@ class LashingDialog(QDialog):
                 grid.addWidget(edit, row, col)
         for col in (1, 2, 3):
             grid.setColumnStretch(col, 1)
-        note = QLabel(
+        note = note_label(
             "The first hull stays where it lies in every stage; a hull moves by the change of "
             "its offset. Overlapping hulls are not checked here."
         )
-        note.setWordWrap(True)
-        note.setStyleSheet("color: #455a64;")
         layout = QVBoxLayout(self)
         layout.addWidget(frame)
         layout.addLayout(grid)

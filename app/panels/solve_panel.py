@@ -34,6 +34,7 @@ from app.controller import BodyParts, Controller
 from app.guard import guarded
 from app.numbers import message, parse_value
 from app.panels.body_choice import BodyChoice
+from app.panels.dialog_parts import note_label
 from app.panels.panel_field import PanelField
 from app.panels.table_cells import Cell, fill
 from core.analysis.stage import BodyResult as StageBody
@@ -231,13 +232,11 @@ class SolvePanel(QWidget):
         layout.addWidget(self.uses, 2)
         layout.addWidget(self.lost_title)
         layout.addWidget(self.lost, 2)
-        note = QLabel(
+        note = note_label(
             "Spreads the work: the least largest setting (pull over usable pull), then the least total pull. "
             "Usable pull = rated × efficiency (sea state) × towline angle × headway share "
             "(a transit's speed through the water)."
         )
-        note.setWordWrap(True)
-        note.setStyleSheet("color: #455a64;")
         layout.addWidget(note)
         self._timer = QTimer(self)
         self._timer.setSingleShot(True)

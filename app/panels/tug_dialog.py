@@ -14,7 +14,6 @@ from PySide6.QtWidgets import (
     QDialog,
     QGroupBox,
     QHBoxLayout,
-    QLabel,
     QVBoxLayout,
     QWidget,
 )
@@ -24,7 +23,7 @@ from app.controller import Controller
 from app.edits import tugs as tug_edits
 from app.guard import guarded
 from app.panels.capability_editor import CapabilityEditor
-from app.panels.dialog_parts import error_label, ok_cancel
+from app.panels.dialog_parts import error_label, note_label, ok_cancel
 from app.panels.headway_editor import HeadwayEditor
 from app.panels.tug_form import TugForm
 from core.errors import TowboardError
@@ -46,9 +45,7 @@ class TugDialog(QDialog):
         self.setObjectName("tug_dialog")
         self.form = TugForm(controller.project.units)
         self.form.load(controller.project.tug(name))
-        note = QLabel(CERTIFICATE_NOTE)
-        note.setWordWrap(True)
-        note.setStyleSheet("color: #455a64;")
+        note = note_label(CERTIFICATE_NOTE)
         #: The tug's capability: polar diagram and table (app.panels.capability_editor).
         self.capability = QGroupBox("Capability: usable share of the bollard pull by direction")
         cap = QVBoxLayout(self.capability)

@@ -15,6 +15,7 @@ from PySide6.QtWidgets import QComboBox, QFormLayout, QLabel, QLineEdit, QWidget
 from app import formatting as fmt
 from app import numbers
 from app.guard import guarded
+from app.panels.dialog_parts import NOTE_COLOUR
 from core.errors import InputError
 from core.model import rules
 from core.model.tugs import TENSION_WARN_FRACTION, Tug
@@ -53,7 +54,7 @@ class TugForm(QWidget):
             "practice, no source)"
         )
         self.mbl_ratio = QLabel("")
-        self.mbl_ratio.setStyleSheet("color: #455a64;")
+        self.mbl_ratio.setStyleSheet(f"color: {NOTE_COLOUR};")
         self.call_sign, self.channel = QLineEdit(), QLineEdit()
         self.channel.setPlaceholderText("e.g. VHF 71")
         self._loaded: dict[QLineEdit, str] = {}

@@ -2,10 +2,11 @@
 
 from __future__ import annotations
 
-from PySide6.QtWidgets import QComboBox, QFormLayout, QLabel, QWidget
+from PySide6.QtWidgets import QComboBox, QFormLayout, QWidget
 
 from app.controller import Controller
 from app.guard import guarded
+from app.panels.dialog_parts import note_label
 from core.units import CHOICES, Quantity, label
 
 NAMES: dict[Quantity, str] = {
@@ -32,9 +33,7 @@ class UnitsPanel(QWidget):
             box.setObjectName(f"unit_{q}")
             self.boxes[q] = box
             form.addRow(NAMES[q], box)
-        note = QLabel("t is the tonne-force (9.80665 kN), as bollard pull is rated.")
-        note.setWordWrap(True)
-        note.setStyleSheet("color: #455a64;")
+        note = note_label("t is the tonne-force (9.80665 kN), as bollard pull is rated.")
         form.addRow(note)
         controller.follow(self.refresh, self, Controller.all_but_placements)
         self.refresh()
